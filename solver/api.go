@@ -1,0 +1,36 @@
+package solver
+
+// This file fixes the public API of the engine so that encode, the CLI and
+// tests can be written against it. Search lives in other files.
+
+// Status is the outcome of a Solve call.
+type Status int
+
+// Outcomes of Solve.
+const (
+	Unknown       Status = iota // budget exhausted or cancelled
+	Satisfiable                 // a stable model was found
+	Unsatisfiable               // no stable model exists (under the assumptions)
+)
+
+// String names the status in lower case ("satisfiable").
+func (s Status) String() string {
+	switch s {
+	case Satisfiable:
+		return "satisfiable"
+	case Unsatisfiable:
+		return "unsatisfiable"
+	}
+	return "unknown"
+}
+
+// Stats counts the work of the engine since it was created.
+type Stats struct {
+	Conflicts    int64
+	Decisions    int64
+	Propagations int64
+	Restarts     int64
+	Learned      int64 // learned clauses added (including loop formulas)
+	LoopFormulas int64 // loop formulas added by unfounded-set checks
+	Deleted      int64 // learned clauses deleted
+}

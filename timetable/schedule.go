@@ -1,0 +1,23 @@
+package timetable
+
+// Placement puts one meeting of a section at a start period and a room.
+type Placement struct {
+	Section string // section ID
+	Meeting int    // 1-based meeting number within the section
+	Period  int    // index into Term.Periods of the first period of the meeting
+	Room    string // room ID; "" for sections that take no room
+	Src     Source // row of the timetable workbook it was read from, if any
+}
+
+// Schedule is a timetable: one placement per meeting. A complete schedule
+// has exactly Section.Meetings placements for every section of its Term.
+type Schedule struct {
+	Placements []Placement
+}
+
+// Timetable sheet layout shared by the writer (export) and the reader
+// (ReadSchedule): one row per meeting, these headers in this order.
+var TimetableColumns = []string{"Section", "Title", "Meeting", "Day", "Start", "End", "Room", "Staff", "Cohorts"}
+
+// TimetableSheet is the name of the master sheet of a timetable workbook.
+const TimetableSheet = "Timetable"

@@ -1,0 +1,344 @@
+package timetable
+
+import (
+	"time"
+)
+
+// Clock is a time of day in minutes after midnight (09:00 is 540).
+type Clock int
+
+// String formats the clock as HH:MM.
+func (c Clock) String() string {
+	return twoDigits(int(c)/60) + ":" + twoDigits(int(c)%60)
+}
+
+func twoDigits(n int) string {
+	return string([]byte{byte('0' + n/10%10), byte('0' + n%10)})
+}
+
+// Source says where a record came from: a sheet (or CSV file stem) and a
+// 1-based spreadsheet row, the header being row 1. The zero Source means the
+// record was made in code.
+type Source struct {
+	Sheet string // sheet name as the registrar sees it, e.g. "Sections"
+	Row   int    // 1-based row; 0 when unknown
+}
+
+// String gives the documented text form "Sections row 14" (or "" when unknown).
+func (s Source) String() string {
+	if s.Sheet == "" {
+		return ""
+	}
+	if s.Row == 0 {
+		return s.Sheet
+	}
+	return s.Sheet + " row " + itoa(s.Row)
+}
+
+// Period is one slot of the weekly grid. Term.Periods is sorted by day
+// (Monday first) and start time, and Period.Index is the position in it.
+type Period struct {
+	Index int          // position in Term.Periods
+	Day   time.Weekday // day of the week
+	Start Clock        // start time
+	End   Clock        // end time, after Start
+	Src   Source       // Periods sheet row
+}
+
+// Label is the short human label "Tue 10:00".
+func (p Period) Label() string { return DayName(p.Day) + " " + p.Start.String() }
+
+// Room is a teaching space.
+type Room struct {
+	ID       string   // unique room code, e.g. "R204"
+	Capacity int      // seats; must not exceed the posted legal occupancy
+	Features []string // lower-case features, e.g. "lab", "projector", "step-free"
+	Building string   // building name or code; "" when unknown
+	Src      Source
+}
+
+// Staff is an instructor or other member of staff who teaches sections.
+type Staff struct {
+	ID             string // unique staff ID
+	Name           string // display name
+	Email          string // optional
+	MaxPerDay      int    // maximum teaching periods per day; 0 = no limit
+	MaxConsecutive int    // maximum consecutive teaching periods; 0 = no limit
+	Src            Source
+}
+
+// Cohort is a group of students who must never have two classes at once.
+type Cohort struct {
+	ID   string
+	Name string
+	Size int // number of students; 0 when unknown
+	Src  Source
+}
+
+// WeekSet is a set of teaching weeks: bit i-1 set means teaching week i
+// (week 1 is the week containing Term.FirstDay). Teaching weeks are at most 64.
+type WeekSet uint64
+
+// Overlaps reports whether two week sets share a week.
+func (w WeekSet) Overlaps(o WeekSet) bool { return w&o != 0 }
+
+// Has reports whether teaching week n (1-based) is in the set.
+func (w WeekSet) Has(n int) bool { return n >= 1 && n <= 64 && w&(1<<(n-1)) != 0 }
+
+// Fixed is a pre-assignment of one meeting of a section, e.g. "Tue 10:00 R204".
+type Fixed struct {
+	Day   time.Weekday
+	Start Clock
+	Room  string // "" when only the time is fixed
+	Text  string // the text as written in the workbook
+}
+
+// Section is a class that meets Meetings times a week for Length consecutive
+// periods each time.
+type Section struct {
+	ID       string
+	Title    string
+	Staff    []string // staff IDs, all of whom attend every meeting
+	Cohorts  []string // cohort IDs, all of whom attend every meeting
+	Size     int      // expected number of students
+	Meetings int      // meetings per week, >= 1
+	Length   int      // periods per meeting, >= 1
+	Needs    []string // room features required (lower case); never contains the no-room marker
+	Rooms    []string // allowed rooms; empty = any room that fits
+	NoRoom   bool     // online or off-site: takes no room
+	Fixed    []Fixed  // pre-assigned meetings (at most Meetings of them)
+	Weeks    WeekSet  // teaching weeks this section meets; Term.AllWeeks() when "all"
+	SameDay  bool     // meetings may share a day (from a "same day" relation or data); default false
+	Src      Source
+}
+
+// WhoKind says what an unavailability or relation refers to.
+type WhoKind int
+
+// The kinds of things an Unavailable row can name.
+const (
+	WhoStaff WhoKind = iota + 1
+	WhoRoom
+	WhoCohort
+	WhoSection
+)
+
+// String names the kind in plain words ("staff", "room", "cohort", "section").
+func (k WhoKind) String() string {
+	switch k {
+	case WhoStaff:
+		return "staff"
+	case WhoRoom:
+		return "room"
+	case WhoCohort:
+		return "cohort"
+	case WhoSection:
+		return "section"
+	}
+	return "unknown"
+}
+
+// Unavailability is a time when someone or something cannot (Hard) or would
+// rather not (Weight > 0) be scheduled. A period is affected when it overlaps
+// [From, To) on Day.
+type Unavailability struct {
+	Who    string
+	Kind   WhoKind
+	Day    time.Weekday
+	From   Clock
+	To     Clock
+	Hard   bool // true: must not be scheduled; false: a preference with Weight
+	Weight int  // penalty per affected meeting period when not Hard
+	Reason string
+	Src    Source
+}
+
+// Covers reports whether period p overlaps this unavailability.
+func (u Unavailability) Covers(p Period) bool {
+	return p.Day == u.Day && p.Start < u.To && u.From < p.End
+}
+
+// RelationKind is the kind of a relation between sections.
+type RelationKind int
+
+// The relation kinds of the Relations sheet.
+const (
+	SameTime      RelationKind = iota + 1 // all listed sections start every meeting at the same periods
+	NotSameTime                           // no two listed sections overlap in time
+	DifferentDays                         // no two listed sections meet on the same day
+	SameDayRel                            // all meetings of the listed sections fall on the same days
+	Before                                // each section's meetings all end before the next section's first meeting starts in the week
+	BackToBack                            // consecutive sections in the list meet in touching periods on the same day
+	SameRoom                              // all listed sections use one room
+)
+
+// RelationKinds lists every kind with its workbook spelling, in sheet order.
+var RelationKinds = []struct {
+	Kind RelationKind
+	Name string
+}{
+	{SameTime, "same time"},
+	{NotSameTime, "not same time"},
+	{DifferentDays, "different days"},
+	{SameDayRel, "same day"},
+	{Before, "before"},
+	{BackToBack, "back to back"},
+	{SameRoom, "same room"},
+}
+
+// String gives the workbook spelling of the kind.
+func (k RelationKind) String() string {
+	for _, r := range RelationKinds {
+		if r.Kind == k {
+			return r.Name
+		}
+	}
+	return "unknown"
+}
+
+// Relation ties two or more sections together.
+type Relation struct {
+	Kind     RelationKind
+	Sections []string
+	Hard     bool // true unless a weight was given
+	Weight   int  // penalty when broken and not Hard
+	Src      Source
+}
+
+// Enrolment puts one student in one section.
+type Enrolment struct {
+	Student string
+	Section string
+	Src     Source
+}
+
+// Term is one academic term: everything needed to build and judge a
+// timetable. Readers return a validated Term; code that builds a Term by hand
+// should call Validate.
+type Term struct {
+	Name        string
+	FirstDay    time.Time // date (midnight UTC) of the first teaching day
+	LastDay     time.Time // date (midnight UTC) of the last teaching day
+	TimeZone    string    // IANA name, e.g. "Europe/Dublin"
+	Holidays    []time.Time
+	Periods     []Period
+	Rooms       []Room
+	Staff       []Staff
+	Cohorts     []Cohort
+	Sections    []Section
+	Enrolments  []Enrolment
+	Unavailable []Unavailability
+	Relations   []Relation
+	Weights     map[string]Weight // soft criterion name -> weight and level
+}
+
+// Weight is the weight of a soft criterion and its priority level (higher
+// levels are minimised first).
+type Weight struct {
+	Weight int
+	Level  int
+	Src    Source
+}
+
+// TeachingWeeks is the number of calendar weeks from FirstDay to LastDay
+// (week 1 contains FirstDay), at least 1 and at most 64.
+func (t *Term) TeachingWeeks() int {
+	if t.FirstDay.IsZero() || t.LastDay.Before(t.FirstDay) {
+		return 1
+	}
+	start := mondayOf(t.FirstDay)
+	n := int(t.LastDay.Sub(start).Hours()/24)/7 + 1
+	if n > 64 {
+		n = 64
+	}
+	return n
+}
+
+// AllWeeks is the week set holding every teaching week.
+func (t *Term) AllWeeks() WeekSet {
+	n := t.TeachingWeeks()
+	if n >= 64 {
+		return ^WeekSet(0)
+	}
+	return WeekSet(1)<<n - 1
+}
+
+func mondayOf(d time.Time) time.Time {
+	off := (int(d.Weekday()) + 6) % 7
+	return d.AddDate(0, 0, -off)
+}
+
+// Span returns the indexes of the periods a meeting of length periods
+// starting at period start occupies, and false when the meeting would cross a
+// gap, a day boundary or the end of the grid.
+func (t *Term) Span(start, length int) ([]int, bool) {
+	if start < 0 || length < 1 || start+length > len(t.Periods) {
+		return nil, false
+	}
+	out := make([]int, 0, length)
+	for i := start; i < start+length; i++ {
+		if i > start && !t.Consecutive(i-1, i) {
+			return nil, false
+		}
+		out = append(out, i)
+	}
+	return out, true
+}
+
+// Consecutive reports whether period b immediately follows period a on the
+// same day with no gap (a.End == b.Start).
+func (t *Term) Consecutive(a, b int) bool {
+	pa, pb := t.Periods[a], t.Periods[b]
+	return pa.Day == pb.Day && pa.End == pb.Start
+}
+
+// SectionIndex maps section IDs to positions in Sections.
+func (t *Term) SectionIndex() map[string]int {
+	return indexBy(t.Sections, func(s Section) string { return s.ID })
+}
+
+// RoomIndex maps room IDs to positions in Rooms.
+func (t *Term) RoomIndex() map[string]int {
+	return indexBy(t.Rooms, func(r Room) string { return r.ID })
+}
+
+// StaffIndex maps staff IDs to positions in Staff.
+func (t *Term) StaffIndex() map[string]int {
+	return indexBy(t.Staff, func(s Staff) string { return s.ID })
+}
+
+// CohortIndex maps cohort IDs to positions in Cohorts.
+func (t *Term) CohortIndex() map[string]int {
+	return indexBy(t.Cohorts, func(c Cohort) string { return c.ID })
+}
+
+// PeriodAt returns the index of the period on day starting at start, or -1.
+func (t *Term) PeriodAt(day time.Weekday, start Clock) int {
+	for i, p := range t.Periods {
+		if p.Day == day && p.Start == start {
+			return i
+		}
+	}
+	return -1
+}
+
+func indexBy[T any](xs []T, key func(T) string) map[string]int {
+	m := make(map[string]int, len(xs))
+	for i, x := range xs {
+		if _, dup := m[key(x)]; !dup {
+			m[key(x)] = i
+		}
+	}
+	return m
+}
+
+// Days lists the distinct days of the grid in week order (Monday first).
+func (t *Term) Days() []time.Weekday {
+	var out []time.Weekday
+	for _, p := range t.Periods {
+		if len(out) == 0 || out[len(out)-1] != p.Day {
+			out = append(out, p.Day)
+		}
+	}
+	return out
+}
