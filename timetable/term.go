@@ -108,7 +108,8 @@ type Section struct {
 	NoRoom   bool     // online or off-site: takes no room
 	Fixed    []Fixed  // pre-assigned meetings (at most Meetings of them)
 	Weeks    WeekSet  // teaching weeks this section meets; Term.AllWeeks() when "all"
-	SameDay  bool     // meetings may share a day (from a "same day" relation or data); default false
+	SameDay  bool     // meetings may share a day; default false: meetings fall on different days (hard)
+	MinDays  int      // when SameDay: wanted number of distinct days (soft, criterion "spread days"); 0 = none
 	Src      Source
 }
 
@@ -229,7 +230,10 @@ type Term struct {
 	Enrolments  []Enrolment
 	Unavailable []Unavailability
 	Relations   []Relation
-	Weights     map[string]Weight // soft criterion name -> weight and level
+	Weights     map[string]Weight // soft criterion name -> weight and level (see Criteria)
+	// SoftCapacity makes room capacity a preference (criterion "room over
+	// capacity") instead of a hard requirement. Features stay hard.
+	SoftCapacity bool
 }
 
 // Weight is the weight of a soft criterion and its priority level (higher

@@ -1,0 +1,69 @@
+package timetable
+
+// Criterion describes one soft criterion: its name as written in the Weights
+// sheet, its default weight and priority level, and its definition. The
+// definitions below are the contract shared by Cost (which evaluates them on
+// a Schedule) and the encoder (which writes them as weak constraints); the
+// two must agree to the unit. A weight of 0 switches a criterion off.
+// Higher levels are minimised first (lexicographically).
+type Criterion struct {
+	Name   string
+	Weight int
+	Level  int
+	Doc    string // one-line definition in plain words
+}
+
+// Names of the soft criteria (the Criterion column of the Weights sheet).
+const (
+	CritMoved          = "moved meetings"
+	CritStudentClash   = "student clashes"
+	CritAvoidTimes     = "avoid times"
+	CritStaffGaps      = "staff gaps"
+	CritStaffDays      = "staff days"
+	CritCohortGaps     = "cohort gaps"
+	CritCohortIsolated = "cohort isolated"
+	CritSpreadDays     = "spread days"
+	CritRoomStability  = "room stability"
+	CritOverCapacity   = "room over capacity"
+	CritWastedSeats    = "wasted seats"
+	CritTravel         = "travel"
+	CritEarly          = "early periods"
+	CritLate           = "late periods"
+	CritSoftRelations  = "soft relations"
+)
+
+// Criteria lists every soft criterion with its defaults. Unless a
+// definition says otherwise, "busy(x, p)" means that some meeting involving
+// x (a staff member, cohort, room or student through their sections) occupies
+// period p; "day" means the periods of one weekday in grid order.
+var Criteria = []Criterion{
+	{CritMoved, 1, 3, "per meeting placed at a different start period or room than in the kept timetable (--keep); meetings are matched per section in start-period order"},
+	{CritStudentClash, 1, 2, "per student, per pair of that student's enrolled sections whose week sets overlap, per period both occupy"},
+	{CritAvoidTimes, 1, 1, "for each soft Unavailable row (weight w), w per occupied period of a meeting involving its staff/room/cohort/section that overlaps the row's time; the criterion weight multiplies w"},
+	{CritStaffGaps, 1, 1, "per staff member and day, number of periods not busy that lie between their first and last busy period of that day"},
+	{CritStaffDays, 0, 1, "per staff member, number of days with at least one busy period"},
+	{CritCohortGaps, 1, 1, "per cohort and day, number of periods not busy between its first and last busy period of that day"},
+	{CritCohortIsolated, 1, 1, "per cohort, per busy period p where neither the period right before p nor right after p (consecutive, same day) is busy for that cohort"},
+	{CritSpreadDays, 5, 1, "per section with SameDay and MinDays > 0: MinDays minus the number of distinct days its meetings use, when positive"},
+	{CritRoomStability, 1, 1, "per section that takes rooms: number of distinct rooms used by its meetings minus 1"},
+	{CritOverCapacity, 1, 1, "only when SoftCapacity: per meeting, students over the room's capacity (Size - Capacity when positive)"},
+	{CritWastedSeats, 0, 0, "per meeting, empty seats (Capacity - Size when positive)"},
+	{CritTravel, 1, 1, "per staff member or cohort, per pair of their meetings in consecutive periods of one day held in rooms of different non-empty buildings"},
+	{CritEarly, 0, 0, "per meeting that occupies the first period of its day"},
+	{CritLate, 0, 0, "per meeting that occupies the last period of its day"},
+	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken; the criterion weight multiplies w"},
+}
+
+// CriterionWeight returns the weight and level of criterion name for term t:
+// the Weights sheet entry when present, otherwise the default.
+func (t *Term) CriterionWeight(name string) (weight, level int) {
+	if w, ok := t.Weights[name]; ok {
+		return w.Weight, w.Level
+	}
+	for _, c := range Criteria {
+		if c.Name == name {
+			return c.Weight, c.Level
+		}
+	}
+	return 0, 0
+}
