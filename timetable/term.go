@@ -162,15 +162,17 @@ func (u Unavailability) Covers(p Period) bool {
 // RelationKind is the kind of a relation between sections.
 type RelationKind int
 
-// The relation kinds of the Relations sheet.
+// The relation kinds of the Relations sheet. Each definition is the
+// contract for the encoder and for Check ("occupies" counts every period of a
+// multi-period meeting; week sets are ignored by relations).
 const (
-	SameTime      RelationKind = iota + 1 // all listed sections start every meeting at the same periods
-	NotSameTime                           // no two listed sections overlap in time
-	DifferentDays                         // no two listed sections meet on the same day
-	SameDayRel                            // all meetings of the listed sections fall on the same days
-	Before                                // each section's meetings all end before the next section's first meeting starts in the week
-	BackToBack                            // consecutive sections in the list meet in touching periods on the same day
-	SameRoom                              // all listed sections use one room
+	SameTime      RelationKind = iota + 1 // all listed sections have the same set of start periods (validation: same Meetings and Length)
+	NotSameTime                           // no two listed sections occupy a common period
+	DifferentDays                         // no two listed sections meet on a common day
+	SameDayRel                            // all listed sections meet on the same set of days
+	Before                                // for each consecutive pair (A, B) in the list: every period A occupies has a lower grid index than every start of B
+	BackToBack                            // for each consecutive pair (A, B): every meeting of B starts in the period right after (consecutive, same day) the last period of some meeting of A
+	SameRoom                              // all meetings of all listed sections use one room
 )
 
 // RelationKinds lists every kind with its workbook spelling, in sheet order.
