@@ -1,0 +1,91 @@
+package timetable
+
+// ITCParts is the competition's soft cost of a timetable by component,
+// each already multiplied by its weight (Di Gaspero, McCollum, Schaerf 2007,
+// "soft constraints"):
+//
+//   - RoomCapacity: for each lecture, the students of its course over the
+//     capacity of its room (weight 1).
+//   - MinWorkingDays: for each course, 5 per day below its minimum number of
+//     working days (the distinct days its lectures use).
+//   - CurriculumCompactness: for each curriculum, 2 per lecture of the
+//     curriculum that is isolated: no lecture of the same curriculum in the
+//     period right before or right after it on the same day.
+//   - RoomStability: for each course, 1 per distinct room used beyond the
+//     first.
+type ITCParts struct {
+	RoomCapacity          int
+	MinWorkingDays        int
+	CurriculumCompactness int
+	RoomStability         int
+}
+
+// Total is the sum of the parts (the competition's objective).
+func (p ITCParts) Total() int {
+	return p.RoomCapacity + p.MinWorkingDays + p.CurriculumCompactness + p.RoomStability
+}
+
+// ITCCost evaluates the competition's soft cost of s directly from its
+// published definitions, reading the Term as ReadCTT builds it: a course is
+// a Section (students = Size, lectures = placements, minimum working days =
+// MinDays), a curriculum is a Cohort (its courses are the sections listing
+// it), days and slots follow the grid order. It shares no code with Cost, so
+// that the two check each other. Placements naming an unknown section, room
+// or period are skipped (ITCHardViolations counts them); lectures that
+// clash are still each counted, as the competition's validator does.
+func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
+	g := newITCGrid(t)
+	secIdx := t.SectionIndex()
+	roomIdx := t.RoomIndex()
+	cohortIdx := t.CohortIndex()
+	nP := len(t.Periods)
+
+	days := make([]map[int]bool, len(t.Sections))     // per course: days used
+	rooms := make([]map[string]bool, len(t.Sections)) // per course: rooms used
+	busy := make([][]int, len(t.Cohorts))             // per curriculum and period: lectures
+	for i := range busy {
+		busy[i] = make([]int, nP)
+	}
+	for _, p := range s.Placements {
+		si, ok := secIdx[p.Section]
+		ri, rok := roomIdx[p.Room]
+		if !ok || !rok || p.Period < 0 || p.Period >= nP {
+			continue
+		}
+		sec := &t.Sections[si]
+		if over := sec.Size - t.Rooms[ri].Capacity; over > 0 {
+			parts.RoomCapacity += ITCWeightRoomCapacity * over
+		}
+		if days[si] == nil {
+			days[si], rooms[si] = map[int]bool{}, map[string]bool{}
+		}
+		days[si][g.day[p.Period]] = true
+		rooms[si][p.Room] = true
+		for _, c := range sec.Cohorts {
+			if ci, ok := cohortIdx[c]; ok {
+				busy[ci][p.Period]++
+			}
+		}
+	}
+	for si, sec := range t.Sections {
+		if missing := sec.MinDays - len(days[si]); missing > 0 {
+			parts.MinWorkingDays += ITCWeightMinWorkingDays * missing
+		}
+		if len(rooms[si]) > 1 {
+			parts.RoomStability += ITCWeightRoomStability * (len(rooms[si]) - 1)
+		}
+	}
+	for _, b := range busy {
+		for p := 0; p < nP; p++ {
+			if b[p] == 0 {
+				continue
+			}
+			before := p > 0 && g.adjacent(p-1, p) && b[p-1] > 0
+			after := p+1 < nP && g.adjacent(p, p+1) && b[p+1] > 0
+			if !before && !after {
+				parts.CurriculumCompactness += ITCWeightCompactness * b[p]
+			}
+		}
+	}
+	return parts.Total(), parts
+}

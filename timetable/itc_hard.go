@@ -1,0 +1,133 @@
+package timetable
+
+// ITCHard counts violations of the competition's hard constraints
+// (Di Gaspero, McCollum, Schaerf 2007, "hard constraints"); a timetable is
+// feasible when every count is zero.
+//
+//   - Lectures: all lectures of a course are scheduled, at distinct periods.
+//     Counts, per course, each lecture missing or extra, and each lecture
+//     sharing a period with an earlier one of the same course; plus each
+//     placement naming no known course, room or period.
+//   - Conflicts: lectures of courses in one curriculum or taught by one
+//     teacher are at distinct periods. Counts, per period, each pair of
+//     distinct courses with lectures there that share a curriculum or a
+//     teacher.
+//   - Availability: a course is not scheduled in a period it is unavailable.
+//     Counts each lecture in a period covered by a hard unavailability of
+//     its course (or of its teacher, curriculum or room, which .ctt files do
+//     not have but a Term may).
+//   - RoomOccupancy: one lecture per room and period. Counts, per room and
+//     period, the lectures beyond the first.
+type ITCHard struct {
+	Lectures      int
+	Conflicts     int
+	Availability  int
+	RoomOccupancy int
+}
+
+// Total is the number of violations of every kind.
+func (h ITCHard) Total() int { return h.Lectures + h.Conflicts + h.Availability + h.RoomOccupancy }
+
+// ITCHardViolations counts the violations of the competition's hard
+// constraints by s on t.
+func ITCHardViolations(t *Term, s *Schedule) ITCHard {
+	var h ITCHard
+	secIdx := t.SectionIndex()
+	roomIdx := t.RoomIndex()
+	nP := len(t.Periods)
+	count := make([]int, len(t.Sections))
+	at := make([][]int, nP)             // per period: section indexes there (with repeats)
+	roomUse := make(map[[2]int]int, nP) // (room, period) -> lectures
+	for _, p := range s.Placements {
+		si, ok := secIdx[p.Section]
+		ri, rok := roomIdx[p.Room]
+		if !ok || !rok || p.Period < 0 || p.Period >= nP {
+			h.Lectures++
+			continue
+		}
+		count[si]++
+		at[p.Period] = append(at[p.Period], si)
+		roomUse[[2]int{ri, p.Period}]++
+		if itcUnavailable(t, &t.Sections[si], p) {
+			h.Availability++
+		}
+	}
+	for si, sec := range t.Sections {
+		if d := count[si] - sec.Meetings; d > 0 {
+			h.Lectures += d
+		} else {
+			h.Lectures -= d
+		}
+	}
+	for _, here := range at {
+		seen := map[int]bool{}
+		var distinct []int
+		for _, si := range here {
+			if seen[si] {
+				h.Lectures++ // same course twice in one period
+				continue
+			}
+			seen[si] = true
+			distinct = append(distinct, si)
+		}
+		for i := range distinct {
+			for j := i + 1; j < len(distinct); j++ {
+				if itcConflict(&t.Sections[distinct[i]], &t.Sections[distinct[j]]) {
+					h.Conflicts++
+				}
+			}
+		}
+	}
+	for _, n := range roomUse {
+		if n > 1 {
+			h.RoomOccupancy += n - 1
+		}
+	}
+	return h
+}
+
+// itcConflict reports whether two courses share a curriculum or a teacher.
+func itcConflict(a, b *Section) bool {
+	return sharesString(a.Cohorts, b.Cohorts) || sharesString(a.Staff, b.Staff)
+}
+
+func sharesString(a, b []string) bool {
+	for _, x := range a {
+		for _, y := range b {
+			if x == y {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// itcUnavailable reports whether lecture p of sec falls in a hard
+// unavailability of the course, its teacher, a curriculum or its room.
+func itcUnavailable(t *Term, sec *Section, p Placement) bool {
+	per := t.Periods[p.Period]
+	for _, u := range t.Unavailable {
+		if !u.Hard || !u.Covers(per) {
+			continue
+		}
+		switch u.Kind {
+		case WhoSection:
+			if u.Who == sec.ID {
+				return true
+			}
+		case WhoStaff:
+			if sharesString([]string{u.Who}, sec.Staff) {
+				return true
+			}
+		case WhoCohort:
+			if sharesString([]string{u.Who}, sec.Cohorts) {
+				return true
+			}
+		case WhoRoom:
+			if u.Who == p.Room {
+				return true
+			}
+		}
+	}
+	return false
+}
