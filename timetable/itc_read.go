@@ -336,6 +336,9 @@ func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string
 	for _, r := range recs {
 		if len(r.fields) != 5 {
 			errs.add(r.line, fmt.Sprintf("a course line has 5 fields (course teacher lectures min_working_days students), found %d", len(r.fields)))
+			if _, dup := index[r.fields[0]]; !dup {
+				index[r.fields[0]], lineOf[r.fields[0]] = -1, r.line
+			}
 			continue
 		}
 		id, teacher := r.fields[0], r.fields[1]
