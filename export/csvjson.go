@@ -1,0 +1,145 @@
+package export
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"io"
+	"strings"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// CSVColumns are the columns of WriteTimetableCSV: the master Timetable
+// sheet's columns (timetable.TimetableColumns) followed by Building (of the
+// room), Staff names (comma list, in the order of Staff) and Weeks ("all"
+// or a list of teaching weeks and ranges such as "1-6, 9").
+var CSVColumns = append(append([]string(nil), timetable.TimetableColumns...), "Building", "Staff names", "Weeks")
+
+// WriteTimetableCSV writes the master timetable as RFC 4180 CSV (UTF-8,
+// CRLF line ends, header row CSVColumns), one row per meeting sorted by
+// day, start time, section and meeting number.
+func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
+	v, err := newView(t, s)
+	if err != nil {
+		return err
+	}
+	cw := csv.NewWriter(w)
+	cw.UseCRLF = true
+	if err := cw.Write(CSVColumns); err != nil {
+		return err
+	}
+	for i := range v.meetings {
+		m := &v.meetings[i]
+		weeks := v.weeks(m.sec)
+		if weeks == "" {
+			weeks = "all"
+		} else {
+			weeks = strings.TrimPrefix(weeks, "wks ")
+		}
+		row := append(v.masterRow(m), m.building(), strings.Join(v.staffNames(m.sec), ", "), weeks)
+		if err := cw.Write(row); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// TimetableJSON is the document WriteTimetableJSON writes. Field names are
+// stable; new fields may be added, none renamed or removed.
+type TimetableJSON struct {
+	Term     TermJSON      `json:"term"`
+	Meetings []MeetingJSON `json:"meetings"`
+}
+
+// TermJSON describes the term in TimetableJSON.
+type TermJSON struct {
+	Name           string   `json:"name"`
+	FirstDay       string   `json:"first_day"` // YYYY-MM-DD
+	LastDay        string   `json:"last_day"`  // YYYY-MM-DD
+	TimeZone       string   `json:"time_zone"` // IANA name
+	TeachingWeeks  int      `json:"teaching_weeks"`
+	Holidays       []string `json:"holidays"` // YYYY-MM-DD
+	Days           []string `json:"days"`     // grid days, "Mon" first
+	PeriodsPerWeek int      `json:"periods_per_week"`
+}
+
+// MeetingJSON is one meeting in TimetableJSON; meetings are sorted by day,
+// start time, section and meeting number.
+type MeetingJSON struct {
+	Section    string   `json:"section"`
+	Title      string   `json:"title"`
+	Meeting    int      `json:"meeting"` // 1-based meeting number within the section
+	Day        string   `json:"day"`     // "Mon" .. "Sun"
+	Start      string   `json:"start"`   // "HH:MM", local time of the term
+	End        string   `json:"end"`     // "HH:MM"
+	Room       string   `json:"room"`    // "" when the section takes no room
+	Building   string   `json:"building"`
+	Staff      []string `json:"staff"`       // staff IDs
+	StaffNames []string `json:"staff_names"` // parallel to staff
+	Cohorts    []string `json:"cohorts"`     // cohort IDs
+	Weeks      []int    `json:"weeks"`       // teaching weeks (1-based) the meeting takes place
+}
+
+// WriteTimetableJSON writes the master timetable as an indented
+// TimetableJSON document.
+func WriteTimetableJSON(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
+	v, err := newView(t, s)
+	if err != nil {
+		return err
+	}
+	doc := TimetableJSON{Term: TermJSON{
+		Name:           t.Name,
+		TimeZone:       t.TimeZone,
+		TeachingWeeks:  t.TeachingWeeks(),
+		Holidays:       []string{},
+		Days:           []string{},
+		PeriodsPerWeek: len(t.Periods),
+	}, Meetings: make([]MeetingJSON, 0, len(v.meetings))}
+	if !t.FirstDay.IsZero() {
+		doc.Term.FirstDay = t.FirstDay.Format("2006-01-02")
+		doc.Term.LastDay = t.LastDay.Format("2006-01-02")
+	}
+	for _, h := range t.Holidays {
+		doc.Term.Holidays = append(doc.Term.Holidays, h.Format("2006-01-02"))
+	}
+	for _, d := range v.days {
+		doc.Term.Days = append(doc.Term.Days, timetable.DayName(d))
+	}
+	for i := range v.meetings {
+		m := &v.meetings[i]
+		row := v.masterRow(m)
+		doc.Meetings = append(doc.Meetings, MeetingJSON{
+			Section:    m.sec.ID,
+			Title:      m.sec.Title,
+			Meeting:    m.num,
+			Day:        row[3],
+			Start:      row[4],
+			End:        row[5],
+			Room:       row[6],
+			Building:   m.building(),
+			Staff:      nonNil(m.sec.Staff),
+			StaffNames: v.staffNames(m.sec),
+			Cohorts:    nonNil(m.sec.Cohorts),
+			Weeks:      nonNilInts(v.weekNumbers(m.sec)),
+		})
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(doc)
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+func nonNilInts(s []int) []int {
+	if s == nil {
+		return []int{}
+	}
+	return s
+}
