@@ -1,0 +1,210 @@
+package timetable
+
+import (
+	"sort"
+	"strings"
+)
+
+// clashes reports double bookings of staff, cohorts and rooms (pairs of
+// meetings of different sections with overlapping week sets that occupy a
+// common period) and a section's meetings that overlap each other.
+func (c *checker) clashes() {
+	x := c.x
+	for k := range x.byStaff {
+		label := x.staffLabel(k)
+		c.resourceClashes(x.byStaff[k], x.t.Staff[k].Src, RuleStaffClash, func(a, b, when string) string {
+			return label + " teaches " + a + " and " + b + " at " + when
+		})
+	}
+	for k := range x.byCohort {
+		label := x.cohortLabel(k)
+		c.resourceClashes(x.byCohort[k], x.t.Cohorts[k].Src, RuleCohortClash, func(a, b, when string) string {
+			return label + " has " + a + " and " + b + " at " + when
+		})
+	}
+	for k := range x.byRoom {
+		label := "room " + x.t.Rooms[k].ID
+		c.resourceClashes(x.byRoom[k], x.t.Rooms[k].Src, RuleRoomClash, func(a, b, when string) string {
+			return label + " holds " + a + " and " + b + " at " + when
+		})
+	}
+	for si := range x.t.Sections {
+		pls := x.sectionOK(si)
+		chkOverlapPairs(x, pls, func(i, j, first, last int) {
+			c.add(RuleSelfOverlap, true, []int{i, j}, []Source{x.t.Sections[si].Src},
+				x.t.Sections[si].ID+" meetings "+itoa(x.s.Placements[i].Meeting)+" and "+
+					itoa(x.s.Placements[j].Meeting)+" overlap at "+chkRange(x.t, first, last))
+		})
+	}
+}
+
+// resourceClashes reports every pair of placements in pls (all valid, all
+// involving one resource whose term row is src) of different sections with
+// overlapping weeks that share a period.
+func (c *checker) resourceClashes(pls []int, src Source, rule string, say func(a, b, when string) string) {
+	x := c.x
+	chkOverlapPairs(x, pls, func(i, j, first, last int) {
+		si, sj := x.pl[i].sec, x.pl[j].sec
+		if si == sj || !x.weeks(si).Overlaps(x.weeks(sj)) {
+			return
+		}
+		a, b := x.s.Placements[i].Section, x.s.Placements[j].Section
+		c.add(rule, true, []int{i, j}, []Source{src, x.t.Sections[si].Src, x.t.Sections[sj].Src},
+			say(a, b, chkRange(x.t, first, last)))
+	})
+}
+
+// chkOverlapPairs calls found(i, j, first, last) for every pair i < j of
+// valid placements in pls whose occupied ranges intersect, first..last being
+// the common periods. Sorting by start and sweeping costs O(n log n + pairs).
+func chkOverlapPairs(x *occupancy, pls []int, found func(i, j, first, last int)) {
+	if len(pls) < 2 {
+		return
+	}
+	ord := append([]int(nil), pls...)
+	sort.Slice(ord, func(a, b int) bool {
+		pa, pb := x.pl[ord[a]], x.pl[ord[b]]
+		if pa.first != pb.first {
+			return pa.first < pb.first
+		}
+		return ord[a] < ord[b]
+	})
+	for a := 0; a < len(ord); a++ {
+		pa := x.pl[ord[a]]
+		for b := a + 1; b < len(ord) && x.pl[ord[b]].first <= pa.last; b++ {
+			pb := x.pl[ord[b]]
+			i, j := ord[a], ord[b]
+			if i > j {
+				i, j = j, i
+			}
+			found(i, j, pb.first, min(pa.last, pb.last))
+		}
+	}
+}
+
+// chkStudentPair is a pair of section indexes, lower first.
+type chkStudentPair struct{ a, b int }
+
+// studentPairs counts, for every pair of distinct known sections, the
+// students enrolled in both (each student once per section). Shared by
+// Check and Cost.
+func (x *occupancy) studentPairs() map[chkStudentPair][]int {
+	bySt := map[string][]int{}
+	var order []string
+	for ei, e := range x.t.Enrolments {
+		if _, ok := x.secIdx[e.Section]; !ok {
+			continue
+		}
+		if _, ok := bySt[e.Student]; !ok {
+			order = append(order, e.Student)
+		}
+		bySt[e.Student] = append(bySt[e.Student], ei)
+	}
+	pairs := map[chkStudentPair][]int{} // pair -> first enrolment index of each student
+	for _, st := range order {
+		seen := map[int]int{} // section -> enrolment index
+		var secs []int
+		for _, ei := range bySt[st] {
+			si := x.secIdx[x.t.Enrolments[ei].Section]
+			if _, dup := seen[si]; !dup {
+				seen[si] = ei
+				secs = append(secs, si)
+			}
+		}
+		sort.Ints(secs)
+		for a := 0; a < len(secs); a++ {
+			for b := a + 1; b < len(secs); b++ {
+				k := chkStudentPair{secs[a], secs[b]}
+				pairs[k] = append(pairs[k], seen[secs[a]])
+			}
+		}
+	}
+	return pairs
+}
+
+// students reports pairs of sections with overlapping weeks that share a
+// period and share enrolled students, one soft violation per pair.
+func (c *checker) students() {
+	x := c.x
+	if len(x.t.Enrolments) == 0 {
+		return
+	}
+	pairs := x.studentPairs()
+	keys := make([]chkStudentPair, 0, len(pairs))
+	for k := range pairs {
+		keys = append(keys, k)
+	}
+	sort.Slice(keys, func(i, j int) bool {
+		if keys[i].a != keys[j].a {
+			return keys[i].a < keys[j].a
+		}
+		return keys[i].b < keys[j].b
+	})
+	sets := map[int]occSet{}
+	set := func(si int) occSet {
+		if s, ok := sets[si]; ok {
+			return s
+		}
+		s := x.sectionPeriods(si)
+		sets[si] = s
+		return s
+	}
+	for _, k := range keys {
+		if !x.weeks(k.a).Overlaps(x.weeks(k.b)) {
+			continue
+		}
+		sa, sb := set(k.a), set(k.b)
+		if sa.commonCount(sb) == 0 {
+			continue
+		}
+		common := x.newPeriodSet()
+		for w := range common {
+			common[w] = sa[w] & sb[w]
+		}
+		var pls []int
+		for _, si := range []int{k.a, k.b} {
+			for _, i := range x.sectionOK(si) {
+				if op := x.pl[i]; chkRangeMeets(common, op.first, op.last) {
+					pls = append(pls, i)
+				}
+			}
+		}
+		srcs := []Source{x.t.Sections[k.a].Src, x.t.Sections[k.b].Src}
+		var names []string
+		for _, ei := range pairs[k] {
+			names = append(names, x.t.Enrolments[ei].Student)
+			srcs = append(srcs, x.t.Enrolments[ei].Src)
+		}
+		c.add(RuleStudentClash, false, pls, srcs, chkStudentsText(names)+" enrolled in both "+
+			x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+", which meet together at "+chkTimes(x.t, common.members()))
+	}
+}
+
+// chkRangeMeets reports whether any period first..last is in s.
+func chkRangeMeets(s occSet, first, last int) bool {
+	for p := first; p <= last; p++ {
+		if s.has(p) {
+			return true
+		}
+	}
+	return false
+}
+
+// chkStudentsText is "student S1 is", "3 students (S1, S2 and S3) are",
+// naming at most five.
+func chkStudentsText(names []string) string {
+	if len(names) == 1 {
+		return "student " + names[0] + " is"
+	}
+	shown := names
+	more := ""
+	if len(names) > 5 {
+		shown = names[:5]
+		more = " and " + itoa(len(names)-5) + " more"
+	}
+	list := strings.Join(shown, ", ") + more
+	if more == "" {
+		list = chkJoin(shown)
+	}
+	return itoa(len(names)) + " students (" + list + ") are"
+}
