@@ -1,0 +1,43 @@
+// Package timetable is termwright's domain: a Term (the weekly grid, rooms,
+// staff, cohorts, sections, enrolments, unavailability, relations and
+// weights of one academic term), a Schedule (one placement per meeting), the
+// readers that build a Term from a term workbook, and the checks that judge
+// both.
+//
+// # Reading
+//
+// Load reads a term workbook: one .xlsx file (ReadWorkbook) or a folder of
+// CSV files, one per sheet (ReadCSVDir). The layout is documented in
+// docs/workbook.md. Every sheet is first turned into a table of raw cell
+// texts (for .xlsx the raw stored value, independent of display formats, so
+// Excel time and date cells arrive as serial numbers and are decoded by the
+// convention of ECMA-376 Part 1 §18.17.4), then each row is decoded into the
+// Term's records. Each record carries its Source (sheet and 1-based row).
+//
+// # Problems
+//
+// Readers and Validate never stop at the first mistake: they return a
+// best-effort Term together with Problems, a list of every error and warning
+// of the whole workbook, each with a Position in the text form
+// "Sections!D14" (sheet, column letter, row) and a message that says what is
+// wrong and what to do. Only a file that cannot be read at all (not a
+// workbook, damaged, password-protected, enormous) gives an error, which
+// wraps ErrUnreadable and is one sentence.
+//
+// # Validation
+//
+// Validate checks any Term, read or built in code: references between
+// sheets, duplicate IDs, the period grid, whether every section can be held
+// by some room and fits some run of consecutive periods, fixed meetings,
+// weeks, relations and weights, and cheap counting arguments that prove a
+// term infeasible before any search (a staff member or cohort who must teach
+// or attend more periods than they are available, more simultaneous fixed
+// meetings than rooms). Positions come from each record's Source; column
+// letters are known only for terms that were read from a workbook.
+//
+// # Local naming
+//
+// "sheet" is a worksheet or a CSV file stem; "row" is 1-based with the
+// header in row 1; "col" is a column letter ("A", "AB"); "header" is the
+// canonical lower-case column name of docs/workbook.md.
+package timetable

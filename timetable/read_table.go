@@ -1,0 +1,238 @@
+package timetable
+
+import (
+	"strings"
+)
+
+// Limits that keep a damaged or hostile file from exhausting the machine.
+const (
+	maxFileBytes = 200 << 20 // largest workbook or CSV file read: 200 MB
+	maxSheetRows = 1_000_000 // most rows read from one sheet or CSV file
+)
+
+// sheetSpec describes one sheet of the layout in docs/workbook.md.
+type sheetSpec struct {
+	name     string   // canonical name, e.g. "Sections"
+	required bool     // the workbook must have it
+	cols     []string // canonical headers in template order
+	need     []string // headers that must be present when the sheet is
+	notes    []string // one note per column for the template, parallel to cols
+}
+
+// Sheet and column names of the term workbook (docs/workbook.md).
+const (
+	shTerm        = "Term"
+	shPeriods     = "Periods"
+	shRooms       = "Rooms"
+	shStaff       = "Staff"
+	shCohorts     = "Cohorts"
+	shSections    = "Sections"
+	shEnrolments  = "Enrolments"
+	shUnavailable = "Unavailable"
+	shRelations   = "Relations"
+	shWeights     = "Weights"
+)
+
+// sheetSpecs lists every sheet in workbook order.
+var sheetSpecs = []sheetSpec{
+	{name: shTerm, required: true, cols: []string{"Key", "Value"}, need: []string{"Key", "Value"}, notes: []string{
+		"Name, First day, Last day, Time zone, Holiday (may repeat) or Holidays (a list).",
+		"The value: a date as YYYY-MM-DD or a date cell; an IANA time zone such as Europe/Dublin.",
+	}},
+	{name: shPeriods, required: true, cols: []string{"Day", "Start", "End"}, need: []string{"Day", "Start", "End"}, notes: []string{
+		"Mon to Sun.",
+		"Start time, HH:MM on the 24-hour clock (or a time cell).",
+		"End time, after Start. Periods that touch (one ends when the next starts) are consecutive.",
+	}},
+	{name: shRooms, required: true, cols: []string{"Room", "Capacity", "Features", "Building"}, need: []string{"Room", "Capacity"}, notes: []string{
+		"Unique room code, e.g. R204.",
+		"Seats. Must not exceed the room's posted legal occupancy.",
+		"Comma list of features, e.g. lab, projector, step-free.",
+		"Building name or code (optional).",
+	}},
+	{name: shStaff, required: true, cols: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods"}, need: []string{"Staff ID"}, notes: []string{
+		"Unique staff ID.",
+		"Display name.",
+		"Email address (optional).",
+		"Most teaching periods in one day; blank = no limit. Follow local agreements.",
+		"Most teaching periods in a row; blank = no limit. Follow local agreements.",
+	}},
+	{name: shCohorts, required: true, cols: []string{"Cohort", "Name", "Size"}, need: []string{"Cohort"}, notes: []string{
+		"Unique cohort ID: students who must never have two classes at once.",
+		"Display name.",
+		"Number of students (optional).",
+	}},
+	{name: shSections, required: true, cols: []string{"Section", "Title", "Staff", "Cohorts", "Expected size", "Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days"}, need: []string{"Section"}, notes: []string{
+		"Unique section ID.",
+		"Title shown on schedules.",
+		"Staff IDs (comma list); all attend every meeting.",
+		"Cohort IDs (comma list); all attend every meeting.",
+		"Expected number of students.",
+		"Meetings each week (default 1).",
+		"Consecutive periods per meeting (default 1).",
+		"Room features required (comma list), or: no room.",
+		"Allowed rooms (comma list; blank = any that fits), or: no room.",
+		"Pre-assigned meetings separated by ;, e.g. Tue 10:00 R204; Thu 10:00",
+		"all (default), odd, even, or weeks and ranges such as 1-4, 6, 9-12.",
+		"Blank: meetings fall on different days. A number: meetings may share a day; fewer days than this costs.",
+	}},
+	{name: shEnrolments, cols: []string{"Student", "Section"}, need: []string{"Student", "Section"}, notes: []string{
+		"Student ID.",
+		"Section ID the student is enrolled in.",
+	}},
+	{name: shUnavailable, cols: []string{"Who", "Day", "From", "To", "Strength", "Reason"}, need: []string{"Who", "Day"}, notes: []string{
+		"A staff ID, room, cohort or section.",
+		"Mon to Sun.",
+		"Start time HH:MM; blank From and To = the whole day.",
+		"End time HH:MM.",
+		"hard (default: must not be scheduled) or a whole-number weight (would rather not).",
+		"Reason (optional, shown in explanations).",
+	}},
+	{name: shRelations, cols: []string{"Kind", "Sections", "Strength"}, need: []string{"Kind", "Sections"}, notes: []string{
+		"same time, not same time, different days, same day, before, back to back or same room.",
+		"Two or more section IDs (comma list).",
+		"hard (default) or a whole-number weight.",
+	}},
+	{name: shWeights, cols: []string{"Criterion", "Weight", "Level"}, need: []string{"Criterion", "Weight"}, notes: []string{
+		"A soft criterion name.",
+		"Whole number from 0 (off) upwards.",
+		"Priority level (optional); higher levels are minimised first.",
+	}},
+}
+
+// specFor finds the spec of a sheet by name, in any case.
+func specFor(name string) *sheetSpec {
+	n := normHeader(name)
+	for i := range sheetSpecs {
+		if normHeader(sheetSpecs[i].name) == n {
+			return &sheetSpecs[i]
+		}
+	}
+	return nil
+}
+
+// rawSheet is a sheet as read from a file: cell texts by row. rows[i] is
+// spreadsheet row firstRow+i; rows may be ragged.
+type rawSheet struct {
+	name string     // as the registrar sees it
+	rows [][]string // raw cell texts
+	line []int      // 1-based row number of each entry of rows
+}
+
+// table is a sheet matched to its spec: which column holds which header.
+type table struct {
+	spec  *sheetSpec
+	sheet string         // name as the registrar sees it
+	col   map[string]int // canonical header (normalised) -> 0-based column
+	rows  []tableRow     // non-blank data rows
+}
+
+// tableRow is one non-blank data row.
+type tableRow struct {
+	num   int      // 1-based spreadsheet row
+	cells []string // raw cell texts
+}
+
+// newTable matches the header row of raw against spec, reporting missing
+// required headers, duplicate and unknown headers.
+func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems) *table {
+	t := &table{spec: spec, sheet: raw.name, col: map[string]int{}}
+	known := map[string]string{}
+	for _, c := range spec.cols {
+		known[normHeader(c)] = c
+	}
+	headerRow := -1
+	for i, r := range raw.rows {
+		if !blankRow(r) {
+			headerRow = i
+			break
+		}
+	}
+	if headerRow < 0 {
+		ps.errorf(Position{Sheet: raw.name}, "the %s sheet is empty — put the headers %s in row 1", raw.name, quoteList(spec.cols))
+		return t
+	}
+	hdrNum := raw.line[headerRow]
+	if hdrNum != 1 {
+		ps.warnf(Position{Sheet: raw.name, Row: hdrNum}, "the headers are in row %d, not row 1 — rows above them are ignored", hdrNum)
+	}
+	for i, h := range raw.rows[headerRow] {
+		n := normHeader(h)
+		if n == "" {
+			continue
+		}
+		pos := Position{Sheet: raw.name, Row: hdrNum, Col: colLetter(i)}
+		if _, ok := known[n]; !ok {
+			ps.warnf(pos, "column %q is not part of the %s sheet and is ignored — the columns are %s", strings.TrimSpace(h), spec.name, quoteList(spec.cols))
+			continue
+		}
+		if _, dup := t.col[n]; dup {
+			ps.warnf(pos, "column %q appears twice — only the first (column %s) is read", strings.TrimSpace(h), colLetter(t.col[n]))
+			continue
+		}
+		t.col[n] = i
+	}
+	for _, c := range spec.need {
+		if _, ok := t.col[normHeader(c)]; !ok {
+			ps.errorf(Position{Sheet: raw.name, Row: hdrNum}, "the %s sheet has no %q column — add a column headed %q", raw.name, c, c)
+		}
+	}
+	for i := headerRow + 1; i < len(raw.rows); i++ {
+		if !blankRow(raw.rows[i]) {
+			t.rows = append(t.rows, tableRow{num: raw.line[i], cells: raw.rows[i]})
+		}
+	}
+	return t
+}
+
+// has reports whether the table has a column for header.
+func (t *table) has(header string) bool {
+	_, ok := t.col[normHeader(header)]
+	return ok
+}
+
+// letter is the column letter of header, or "" when the column is absent.
+func (t *table) letter(header string) string {
+	if i, ok := t.col[normHeader(header)]; ok {
+		return colLetter(i)
+	}
+	return ""
+}
+
+// get returns the trimmed text of header in row r ("" when absent).
+func (t *table) get(r tableRow, header string) string {
+	i, ok := t.col[normHeader(header)]
+	if !ok || i >= len(r.cells) {
+		return ""
+	}
+	return strings.TrimSpace(r.cells[i])
+}
+
+// pos is the position of header in row r.
+func (t *table) pos(r tableRow, header string) Position {
+	return Position{Sheet: t.sheet, Row: r.num, Col: t.letter(header)}
+}
+
+func blankRow(r []string) bool {
+	for _, c := range r {
+		if strings.TrimSpace(c) != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// quoteList formats names as "A", "B" and "C".
+func quoteList(names []string) string {
+	q := make([]string, len(names))
+	for i, n := range names {
+		q[i] = `"` + n + `"`
+	}
+	switch len(q) {
+	case 0:
+		return ""
+	case 1:
+		return q[0]
+	}
+	return strings.Join(q[:len(q)-1], ", ") + " and " + q[len(q)-1]
+}

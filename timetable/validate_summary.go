@@ -1,0 +1,30 @@
+package timetable
+
+// Counts summarises the size of a term.
+type Counts struct {
+	Sections   int `json:"sections"`
+	Meetings   int `json:"meetings"` // sum of meetings per week over sections
+	Staff      int `json:"staff"`
+	Rooms      int `json:"rooms"`
+	Cohorts    int `json:"cohorts"`
+	Periods    int `json:"periods"`
+	Students   int `json:"students"` // distinct students on the Enrolments sheet
+	Enrolments int `json:"enrolments"`
+}
+
+// Summary counts the records of a term.
+func Summary(t *Term) Counts {
+	c := Counts{
+		Sections: len(t.Sections), Staff: len(t.Staff), Rooms: len(t.Rooms),
+		Cohorts: len(t.Cohorts), Periods: len(t.Periods), Enrolments: len(t.Enrolments),
+	}
+	for _, s := range t.Sections {
+		c.Meetings += s.Meetings
+	}
+	students := make(map[string]struct{}, len(t.Enrolments)/4+1)
+	for _, e := range t.Enrolments {
+		students[e.Student] = struct{}{}
+	}
+	c.Students = len(students)
+	return c
+}
