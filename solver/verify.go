@@ -368,19 +368,12 @@ func (s *supportIndex) explain(v *verifier, a Atom) string {
 	const most = 3
 	var parts []string
 	if len(missing) > 0 {
-		parts = append(parts, "no rule derives it: "+listSome(missing, most)+", which "+isAre(len(missing))+" not derived (a positive loop does not support itself)")
+		parts = append(parts, "no rule derives it: "+listSome(missing, most)+" (not derived)")
 	}
 	if len(blocked) > 0 {
 		parts = append(parts, "blocked by a true negated atom: "+listSome(blocked, most))
 	}
 	return strings.Join(parts, "; ")
-}
-
-func isAre(n int) string {
-	if n == 1 {
-		return "is"
-	}
-	return "are"
 }
 
 // listSome joins up to most items and says how many more there are.
