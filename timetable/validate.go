@@ -49,15 +49,15 @@ func (l *layout) term(key string) Position {
 
 // validator runs the semantic checks of Validate.
 type validator struct {
-	t                                *Term
-	lay                              *layout
-	ps                               Problems
-	staff, rooms, cohorts, sections  map[string]int
-	datesOK                          bool  // FirstDay and LastDay are set and in order
-	runs                             []int // runs[i]: consecutive periods from period i to the end of its run
-	maxRun                           int   // longest run of consecutive periods
-	hardStaff, hardCohort, hardRoom  map[string][]bool
-	hardSection                      map[string][]bool
+	t                               *Term
+	lay                             *layout
+	ps                              Problems
+	staff, rooms, cohorts, sections map[string]int
+	datesOK                         bool  // FirstDay and LastDay are set and in order
+	runs                            []int // runs[i]: consecutive periods from period i to the end of its run
+	maxRun                          int   // longest run of consecutive periods
+	hardStaff, hardCohort, hardRoom map[string][]bool
+	hardSection                     map[string][]bool
 }
 
 // Validate checks a Term — read from a workbook or built in code — and
