@@ -38,6 +38,7 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 	count := make([]int, len(t.Sections))
 	at := make([][]int, nP)             // per period: section indexes there (with repeats)
 	roomUse := make(map[[2]int]int, nP) // (room, period) -> lectures
+	blocks := newITCBlocks(t)
 	for _, p := range s.Placements {
 		si, ok := secIdx[p.Section]
 		ri, rok := roomIdx[p.Room]
@@ -48,7 +49,7 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 		count[si]++
 		at[p.Period] = append(at[p.Period], si)
 		roomUse[[2]int{ri, p.Period}]++
-		if itcUnavailable(t, &t.Sections[si], p) {
+		if blocks.blocked(t, &t.Sections[si], p) {
 			h.Availability++
 		}
 	}
@@ -102,31 +103,47 @@ func sharesString(a, b []string) bool {
 	return false
 }
 
-// itcUnavailable reports whether lecture p of sec falls in a hard
-// unavailability of the course, its teacher, a curriculum or its room.
-func itcUnavailable(t *Term, sec *Section, p Placement) bool {
-	per := t.Periods[p.Period]
-	for _, u := range t.Unavailable {
-		if !u.Hard || !u.Covers(per) {
+// itcBlocks indexes the hard unavailability rows of a term by kind and ID.
+type itcBlocks map[WhoKind]map[string][]*Unavailability
+
+func newITCBlocks(t *Term) itcBlocks {
+	b := itcBlocks{}
+	for i := range t.Unavailable {
+		u := &t.Unavailable[i]
+		if !u.Hard {
 			continue
 		}
-		switch u.Kind {
-		case WhoSection:
-			if u.Who == sec.ID {
+		if b[u.Kind] == nil {
+			b[u.Kind] = map[string][]*Unavailability{}
+		}
+		b[u.Kind][u.Who] = append(b[u.Kind][u.Who], u)
+	}
+	return b
+}
+
+// blocked reports whether lecture p of sec falls in a hard unavailability
+// of the course, its teacher, a curriculum or its room.
+func (b itcBlocks) blocked(t *Term, sec *Section, p Placement) bool {
+	per := t.Periods[p.Period]
+	covers := func(kind WhoKind, who string) bool {
+		for _, u := range b[kind][who] {
+			if u.Covers(per) {
 				return true
 			}
-		case WhoStaff:
-			if sharesString([]string{u.Who}, sec.Staff) {
-				return true
-			}
-		case WhoCohort:
-			if sharesString([]string{u.Who}, sec.Cohorts) {
-				return true
-			}
-		case WhoRoom:
-			if u.Who == p.Room {
-				return true
-			}
+		}
+		return false
+	}
+	if covers(WhoSection, sec.ID) || covers(WhoRoom, p.Room) {
+		return true
+	}
+	for _, st := range sec.Staff {
+		if covers(WhoStaff, st) {
+			return true
+		}
+	}
+	for _, c := range sec.Cohorts {
+		if covers(WhoCohort, c) {
+			return true
 		}
 	}
 	return false

@@ -1,0 +1,187 @@
+package timetable
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// The expected values below are worked out by hand from the competition's
+// cost definition (Di Gaspero, McCollum, Schaerf 2007, "soft constraints":
+// RoomCapacity 1 per student over capacity per lecture; MinimumWorkingDays
+// 5 per day below the minimum; CurriculumCompactness 2 per isolated
+// lecture; RoomStability 1 per room beyond the first). The tiny instance
+// (testdata/itc/tiny.ctt) has 2 days of 3 periods, rooms big (35) and small
+// (25), courses alg (Ada, 2 lectures, min 2 days, 40 students), geo (Bo, 2,
+// min 1, 20) and his (Ada, 1, min 1, 30); curricula y1 = {alg, geo},
+// y2 = {his}; geo is unavailable on day 0 period 0.
+var tinyCosts = []struct {
+	sol   string
+	parts ITCParts
+	hard  ITCHard
+}{
+	// tiny-a: alg big 0 0, alg small 0 1, geo small 0 2, his big 1 0, geo big 1 2.
+	//   RoomCapacity: alg in big 40-35 = 5, alg in small 40-25 = 15; others fit: 20.
+	//   MinWorkingDays: alg uses 1 day of 2: 1*5 = 5; geo 2 days >= 1, his 1 >= 1.
+	//   Compactness: y1 busy (0,0) (0,1) (0,2) (1,2): only (1,2) isolated; y2
+	//   busy (1,0) isolated: 2 lectures * 2 = 4.
+	//   RoomStability: alg {big, small} 1, geo {small, big} 1: 2.
+	//   Total 20 + 5 + 4 + 2 = 31.
+	{"tiny-a", ITCParts{RoomCapacity: 20, MinWorkingDays: 5, CurriculumCompactness: 4, RoomStability: 2}, ITCHard{}},
+	// tiny-b: alg big 0 0 twice, geo small 0 0, his small 1 1 (geo's second lecture missing).
+	//   Hard: Lectures 2 (alg twice in one period, geo one missing), Conflicts 1
+	//   (alg and geo share y1 at (0,0)), Availability 1 (geo at (0,0)),
+	//   RoomOccupancy 1 (big holds 2 lectures at (0,0)).
+	//   RoomCapacity: alg 5 + 5, his in small 30-25 = 5: 15.
+	//   MinWorkingDays: alg 1 day of 2: 5.
+	//   Compactness: y1 has 3 lectures at (0,0), isolated: 3*2 = 6; y2 (1,1): 2. Total 8.
+	//   RoomStability: 0. Total 15 + 5 + 8 = 28.
+	{"tiny-b", ITCParts{RoomCapacity: 15, MinWorkingDays: 5, CurriculumCompactness: 8}, ITCHard{Lectures: 2, Conflicts: 1, Availability: 1, RoomOccupancy: 1}},
+	// tiny-c: alg big 0 2, alg big 1 0, geo small 1 2, geo small 1 1, his big 0 0.
+	//   RoomCapacity: alg 5 + 5 = 10. MinWorkingDays: alg days {0,1}: 0.
+	//   Compactness: y1 busy (0,2), (1,0), (1,1), (1,2): (0,2) is isolated because
+	//   the last period of day 0 and the first of day 1 are not adjacent;
+	//   y2 (0,0) isolated: 2 * 2 = 4. RoomStability 0. Total 14.
+	{"tiny-c", ITCParts{RoomCapacity: 10, CurriculumCompactness: 4}, ITCHard{}},
+}
+
+func TestITCCostHandComputed(t *testing.T) {
+	term := readTiny(t)
+	for _, tc := range tinyCosts {
+		t.Run(tc.sol, func(t *testing.T) {
+			s := readTinySolution(t, term, tc.sol)
+			total, parts := ITCCost(term, s)
+			assert.Equal(t, tc.parts, parts)
+			assert.Equal(t, tc.parts.Total(), total)
+			assert.Equal(t, tc.hard, ITCHardViolations(term, s))
+		})
+	}
+}
+
+func TestITCCostSkipsUnknown(t *testing.T) {
+	term := readTiny(t)
+	s := &Schedule{Placements: []Placement{
+		{Section: "zz", Meeting: 1, Period: 0, Room: "big"},
+		{Section: "alg", Meeting: 1, Period: 9, Room: "big"},
+		{Section: "alg", Meeting: 1, Period: 0, Room: "hall"},
+	}}
+	total, _ := ITCCost(term, s)
+	// Nothing placed counts, so only the minimum working days remain:
+	// alg 2 days missing (10) + geo 1 (5) + his 1 (5) = 20.
+	assert.Equal(t, 20, total)
+	h := ITCHardViolations(term, s)
+	// 3 unusable placements + 5 lectures missing (alg 2, geo 2, his 1).
+	assert.Equal(t, ITCHard{Lectures: 8}, h)
+}
+
+func TestITCHardTeacherConflict(t *testing.T) {
+	term := readTiny(t)
+	// alg and his share teacher Ada but no curriculum.
+	s := &Schedule{Placements: []Placement{
+		{Section: "alg", Meeting: 1, Period: 1, Room: "big"},
+		{Section: "alg", Meeting: 2, Period: 4, Room: "big"},
+		{Section: "geo", Meeting: 1, Period: 2, Room: "small"},
+		{Section: "geo", Meeting: 2, Period: 5, Room: "small"},
+		{Section: "his", Meeting: 1, Period: 1, Room: "small"},
+	}}
+	assert.Equal(t, ITCHard{Conflicts: 1}, ITCHardViolations(term, s))
+}
+
+// randomITCSchedule places every lecture of t at random, keeping the
+// competition's hard constraints (distinct periods per course, one lecture
+// per room and period, no curriculum or teacher clash, availability); it
+// restarts when it paints itself into a corner.
+func randomITCSchedule(rng *rand.Rand, t *Term) *Schedule {
+	for {
+		if s, ok := tryRandomITC(rng, t); ok {
+			return s
+		}
+	}
+}
+
+func tryRandomITC(rng *rand.Rand, t *Term) (*Schedule, bool) {
+	nP := len(t.Periods)
+	blocks := newITCBlocks(t)
+	roomBusy := map[[2]int]bool{}  // (room, period)
+	keyBusy := map[string][]bool{} // "c:"cohort / "s:"staff / "x:"section -> per period
+	busy := func(k string) []bool {
+		if keyBusy[k] == nil {
+			keyBusy[k] = make([]bool, nP)
+		}
+		return keyBusy[k]
+	}
+	var s Schedule
+	order := rng.Perm(len(t.Sections))
+	for _, si := range order {
+		sec := &t.Sections[si]
+		keys := []string{"x:" + sec.ID}
+		for _, c := range sec.Cohorts {
+			keys = append(keys, "c:"+c)
+		}
+		for _, st := range sec.Staff {
+			keys = append(keys, "s:"+st)
+		}
+		for m := 1; m <= sec.Meetings; m++ {
+			placed := false
+			for _, p := range rng.Perm(nP) {
+				free := !blocks.blocked(t, sec, Placement{Period: p})
+				for _, k := range keys {
+					free = free && !busy(k)[p]
+				}
+				if !free {
+					continue
+				}
+				for _, r := range rng.Perm(len(t.Rooms)) {
+					if roomBusy[[2]int{r, p}] {
+						continue
+					}
+					roomBusy[[2]int{r, p}] = true
+					for _, k := range keys {
+						busy(k)[p] = true
+					}
+					s.Placements = append(s.Placements, Placement{Section: sec.ID, Meeting: m, Period: p, Room: t.Rooms[r].ID})
+					placed = true
+					break
+				}
+				if placed {
+					break
+				}
+			}
+			if !placed {
+				return nil, false
+			}
+		}
+	}
+	return &s, true
+}
+
+func TestRandomITCSchedulesAreFeasible(t *testing.T) {
+	term := readTiny(t)
+	rng := rand.New(rand.NewPCG(1, 2))
+	for range 50 {
+		s := randomITCSchedule(rng, term)
+		require.Equal(t, ITCHard{}, ITCHardViolations(term, s))
+	}
+}
+
+func BenchmarkITCCost(b *testing.B) {
+	term := readShared(b, itcDataDir(b), "comp07")
+	s := randomITCSchedule(rand.New(rand.NewPCG(7, 7)), term)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		ITCCost(term, s)
+	}
+}
+
+func BenchmarkITCHardViolations(b *testing.B) {
+	term := readShared(b, itcDataDir(b), "comp07")
+	s := randomITCSchedule(rand.New(rand.NewPCG(7, 7)), term)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		ITCHardViolations(term, s)
+	}
+}
