@@ -1,0 +1,186 @@
+package timetable
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/xuri/excelize/v2"
+)
+
+// schedMaxBytes bounds the size of a timetable file read by ReadSchedule.
+const schedMaxBytes = 200 << 20
+
+// schedMaxRows bounds the rows read from a timetable sheet.
+const schedMaxRows = 1_000_000
+
+// scheduleUnreadable is an error wrapping ErrUnreadable whose text is one
+// sentence for the user.
+type scheduleUnreadable struct{ msg string }
+
+func (e *scheduleUnreadable) Error() string        { return e.msg }
+func (e *scheduleUnreadable) Is(target error) bool { return target == ErrUnreadable }
+
+func schedUnreadable(format string, args ...any) error {
+	return &scheduleUnreadable{msg: fmt.Sprintf(format, args...)}
+}
+
+// ReadSchedule reads a timetable written for term t: the Timetable sheet of
+// an .xlsx workbook (or, when the workbook has a single sheet, that sheet),
+// or a .csv file with the same headers. The headers are
+// TimetableColumns, matched without regard to case or surrounding spaces,
+// in any order; Section, Day, Start and Room are required, Meeting may be
+// left blank (blank meetings of a section take the lowest unused numbers in
+// row order). Title, End, Staff and Cohorts are for reading only: the term
+// decides them, and a cell that disagrees with the term gets a warning.
+//
+// Each placement's Src names its row ("Timetable row 12"). Rows with a
+// cell that cannot be read (a day or time that is not in the grid, a
+// meeting number that is not a whole number) are left out and reported as
+// errors at the cell, e.g. Timetable!E12; sections and rooms unknown to the
+// term are kept, for Check to report. The error is non-nil, and wraps
+// ErrUnreadable, only when the file cannot be read at all.
+func ReadSchedule(path string, t *Term) (*Schedule, Problems, error) {
+	fi, err := os.Stat(path)
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return nil, nil, schedUnreadable("%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
+		}
+		return nil, nil, schedUnreadable("%s cannot be opened (%v) — check the path and its permissions", path, err)
+	}
+	if fi.IsDir() {
+		return nil, nil, schedUnreadable("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
+	}
+	if fi.Size() > schedMaxBytes {
+		return nil, nil, schedUnreadable("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, nil, schedUnreadable("%s cannot be read (%v) — check its permissions", path, err)
+	}
+	name := filepath.Base(path)
+	var sheet string
+	var rows [][]string
+	var lines []int
+	if strings.EqualFold(filepath.Ext(path), ".csv") {
+		sheet = strings.TrimSuffix(name, filepath.Ext(name))
+		rows, lines, err = schedCSVRows(data, name)
+	} else {
+		sheet, rows, lines, err = schedXLSXRows(data, name)
+	}
+	if err != nil {
+		return nil, nil, err
+	}
+	s, ps := schedParse(t, sheet, rows, lines)
+	ps.Sort()
+	return s, ps, nil
+}
+
+// schedCSVRows splits CSV bytes into records with their 1-based line
+// numbers; blank records are dropped.
+func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	r := csv.NewReader(bytes.NewReader(data))
+	r.FieldsPerRecord = -1
+	r.LazyQuotes = true
+	var rows [][]string
+	var lines []int
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return nil, nil, schedUnreadable("%s is not a readable CSV file (%s) — save it again as CSV (comma separated)", name, oneLineErr(err))
+		}
+		line, _ := r.FieldPos(0)
+		if len(rows) >= schedMaxRows {
+			return nil, nil, schedUnreadable("%s has more than %d rows — a timetable holds far fewer", name, schedMaxRows)
+		}
+		if !schedBlank(rec) {
+			rows = append(rows, rec)
+			lines = append(lines, line)
+		}
+	}
+	return rows, lines, nil
+}
+
+// schedXLSXRows opens an .xlsx workbook and returns the raw cell values of
+// its Timetable sheet (or of its only sheet) with 1-based row numbers.
+func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lines []int, err error) {
+	if !bytes.HasPrefix(data, []byte("PK\x03\x04")) {
+		return "", nil, nil, schedUnreadable("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
+	}
+	defer func() {
+		// The spreadsheet library may panic on malformed parts: a damaged
+		// file must give a sentence, not a stack trace.
+		if rec := recover(); rec != nil {
+			sheet, rows, lines = "", nil, nil
+			err = schedUnreadable("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
+		}
+	}()
+	f, err := excelize.OpenReader(bytes.NewReader(data), excelize.Options{
+		RawCellValue: true, UnzipSizeLimit: 2 << 30, UnzipXMLSizeLimit: 64 << 20,
+	})
+	if err != nil {
+		return "", nil, nil, schedUnreadable("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
+	}
+	defer f.Close()
+	list := f.GetSheetList()
+	for _, sh := range list {
+		if strings.EqualFold(strings.TrimSpace(sh), TimetableSheet) {
+			sheet = sh
+		}
+	}
+	if sheet == "" {
+		if len(list) != 1 {
+			return "", nil, nil, schedUnreadable("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
+		}
+		sheet = list[0]
+	}
+	it, err := f.Rows(sheet)
+	if err != nil {
+		return "", nil, nil, schedUnreadable("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+	}
+	defer it.Close()
+	n := 0
+	for it.Next() {
+		n++
+		if n > schedMaxRows {
+			return "", nil, nil, schedUnreadable("%s: sheet %q has more than %d rows — a timetable holds far fewer", name, sheet, schedMaxRows)
+		}
+		cols, err := it.Columns(excelize.Options{RawCellValue: true})
+		if err != nil {
+			return "", nil, nil, schedUnreadable("%s: sheet %q row %d cannot be read (%s) — open and save the workbook again", name, sheet, n, oneLineErr(err))
+		}
+		if !schedBlank(cols) {
+			rows = append(rows, cols)
+			lines = append(lines, n)
+		}
+	}
+	if err := it.Error(); err != nil {
+		return "", nil, nil, schedUnreadable("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+	}
+	return sheet, rows, lines, nil
+}
+
+// schedBlank reports whether every cell is blank.
+func schedBlank(rec []string) bool {
+	for _, c := range rec {
+		if strings.TrimSpace(c) != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// oneLineErr keeps the first line of an error text.
+func oneLineErr(err error) string {
+	s, _, _ := strings.Cut(err.Error(), "\n")
+	return s
+}

@@ -1,0 +1,266 @@
+package timetable
+
+import (
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// schedRequired are the columns a timetable must have.
+var schedRequired = []string{"Section", "Day", "Start", "Room"}
+
+// schedKey identifies a period by day and start.
+type schedKey struct {
+	day   time.Weekday
+	start Clock
+}
+
+// schedParse turns the non-blank rows of a timetable sheet (header first)
+// into a schedule; lines holds each row's 1-based row number.
+func schedParse(t *Term, sheet string, rows [][]string, lines []int) (*Schedule, Problems) {
+	s := &Schedule{}
+	var ps Problems
+	if len(rows) == 0 {
+		ps.errorf(Position{Sheet: sheet}, "the sheet is empty — it needs the header row %s and one row per meeting", strings.Join(TimetableColumns, ", "))
+		return s, ps
+	}
+	col, ok := schedHeader(sheet, rows[0], lines[0], &ps)
+	if !ok {
+		return s, ps
+	}
+	periods := map[schedKey]int{}
+	for i, p := range t.Periods {
+		if _, dup := periods[schedKey{p.Day, p.Start}]; !dup {
+			periods[schedKey{p.Day, p.Start}] = i
+		}
+	}
+	secs := t.SectionIndex()
+	var blankMeeting []int // placements whose Meeting cell was blank
+	for r := 1; r < len(rows); r++ {
+		row, line := rows[r], lines[r]
+		cell := func(name string) (string, Position) {
+			i, ok := col[name]
+			if !ok {
+				return "", Position{}
+			}
+			v := ""
+			if i < len(row) {
+				v = strings.TrimSpace(row[i])
+			}
+			return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
+		}
+		p, blank, ok := schedRow(t, periods, cell, &ps)
+		if !ok {
+			continue
+		}
+		p.Src = Source{Sheet: sheet, Row: line}
+		if si, known := secs[p.Section]; known {
+			schedReadOnlyCells(t, &t.Sections[si], p, cell, &ps)
+		}
+		if blank {
+			blankMeeting = append(blankMeeting, len(s.Placements))
+		}
+		s.Placements = append(s.Placements, p)
+	}
+	schedNumber(s, blankMeeting)
+	return s, ps
+}
+
+// schedHeader maps the known headers to column indexes, warning about
+// unknown columns; ok is false when a required column is missing.
+func schedHeader(sheet string, header []string, line int, ps *Problems) (map[string]int, bool) {
+	col := map[string]int{}
+	for i, h := range header {
+		key := strings.Join(strings.Fields(strings.ToLower(h)), " ")
+		if key == "" {
+			continue
+		}
+		pos := Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
+		name := ""
+		for _, c := range TimetableColumns {
+			if strings.ToLower(c) == key {
+				name = c
+			}
+		}
+		switch _, dup := col[name]; {
+		case name == "":
+			ps.warnf(pos, "column %q is not a timetable column and is ignored (the columns are %s)", strings.TrimSpace(h), strings.Join(TimetableColumns, ", "))
+		case dup:
+			ps.errorf(pos, "column %s appears twice — delete one of them", name)
+		default:
+			col[name] = i
+		}
+	}
+	ok := true
+	for _, c := range schedRequired {
+		if _, has := col[c]; !has {
+			ps.errorf(Position{Sheet: sheet, Row: line}, "the header row has no %s column — the timetable needs the columns %s", c, strings.Join(TimetableColumns, ", "))
+			ok = false
+		}
+	}
+	return col, ok
+}
+
+// schedRow reads one data row; blank reports a blank Meeting cell, and ok
+// is false when a cell could not be read (the problem is recorded).
+func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Position), ps *Problems) (p Placement, blank, ok bool) {
+	ok = true
+	sec, pos := cell("Section")
+	if sec == "" {
+		ps.errorf(pos, "the Section is blank — write the section ID from the Sections sheet, or delete the row")
+		ok = false
+	}
+	p.Section = sec
+	if v, pos := cell("Meeting"); v == "" {
+		blank = true
+	} else if n, good := schedWhole(v); !good || n < 1 {
+		ps.errorf(pos, "meeting %q is not a whole number from 1 up — number a section's meetings 1, 2, 3, ...", v)
+		ok = false
+	} else {
+		p.Meeting = n
+	}
+	dv, dpos := cell("Day")
+	day, goodDay := ParseDay(dv)
+	if !goodDay {
+		ps.errorf(dpos, "%q is not a day — write Mon, Tue, Wed, Thu, Fri, Sat or Sun", dv)
+		ok = false
+	}
+	sv, spos := cell("Start")
+	start, err := ParseClock(sv)
+	switch {
+	case sv == "":
+		ps.errorf(spos, "the Start is blank — write the start time of the meeting, e.g. 09:00")
+		ok = false
+	case err != nil:
+		ps.errorf(spos, "start %s", err.Error())
+		ok = false
+	case goodDay:
+		i, found := periods[schedKey{day, start}]
+		if !found {
+			ps.errorf(spos, "no period starts at %s %s — use a start time from the Periods sheet (%s: %s)", DayName(day), start, DayName(day), schedStarts(t, day))
+			ok = false
+		}
+		p.Period = i
+	}
+	p.Room, _ = cell("Room")
+	return p, blank, ok
+}
+
+// schedStarts lists the start times of day in the grid, or says there are
+// none.
+func schedStarts(t *Term, day time.Weekday) string {
+	var out []string
+	for _, p := range t.Periods {
+		if p.Day == day {
+			out = append(out, p.Start.String())
+		}
+	}
+	if len(out) == 0 {
+		return "no periods that day"
+	}
+	return strings.Join(out, ", ")
+}
+
+// schedReadOnlyCells warns when End, Staff or Cohorts disagree with the term:
+// the term decides them and the cells are ignored.
+func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (string, Position), ps *Problems) {
+	if v, pos := cell("End"); v != "" {
+		end, err := ParseClock(v)
+		if span, fits := t.Span(p.Period, occLength(sec)); err == nil && fits {
+			if want := t.Periods[span[len(span)-1]].End; end != want {
+				ps.warnf(pos, "end %s does not match: %s meets for %d period(s) from %s, ending at %s; the Sections sheet decides the length, so this cell is ignored",
+					end, sec.ID, occLength(sec), t.Periods[p.Period].Label(), want)
+			}
+		}
+	}
+	for _, c := range []struct {
+		col  string
+		want []string
+		what string
+	}{{"Staff", sec.Staff, "who teaches"}, {"Cohorts", sec.Cohorts, "who attends"}} {
+		v, pos := cell(c.col)
+		if v == "" {
+			continue
+		}
+		if got := schedList(v); !schedSameSet(got, c.want) {
+			ps.warnf(pos, "%s %q differs from the Sections sheet (%s); %s comes from the term workbook, so change it there — this cell is ignored",
+				strings.ToLower(c.col), v, strings.Join(c.want, ", "), c.what)
+		}
+	}
+}
+
+// schedNumber gives each placement in blank the lowest meeting number its
+// section does not use yet, in row order.
+func schedNumber(s *Schedule, blank []int) {
+	if len(blank) == 0 {
+		return
+	}
+	used := map[string]map[int]bool{}
+	isBlank := map[int]bool{}
+	for _, i := range blank {
+		isBlank[i] = true
+	}
+	for i, p := range s.Placements {
+		if isBlank[i] {
+			continue
+		}
+		if used[p.Section] == nil {
+			used[p.Section] = map[int]bool{}
+		}
+		used[p.Section][p.Meeting] = true
+	}
+	for _, i := range blank {
+		sec := s.Placements[i].Section
+		if used[sec] == nil {
+			used[sec] = map[int]bool{}
+		}
+		n := 1
+		for used[sec][n] {
+			n++
+		}
+		used[sec][n] = true
+		s.Placements[i].Meeting = n
+	}
+}
+
+// schedWhole reads a whole number, also in the "3.0" form spreadsheets use.
+func schedWhole(s string) (int, bool) {
+	if n, err := strconv.Atoi(s); err == nil {
+		return n, true
+	}
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v-math.Round(v)) > 1e-9 || math.Abs(v) > 1e9 {
+		return 0, false
+	}
+	return int(math.Round(v)), true
+}
+
+// schedList splits a list cell on commas and semicolons.
+func schedList(s string) []string {
+	var out []string
+	for _, f := range strings.FieldsFunc(s, func(r rune) bool { return r == ',' || r == ';' }) {
+		if f = strings.TrimSpace(f); f != "" {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// schedSameSet compares two lists as sets.
+func schedSameSet(a, b []string) bool {
+	a, b = slices.Clone(a), slices.Clone(b)
+	slices.Sort(a)
+	slices.Sort(b)
+	return slices.Equal(slices.Compact(a), slices.Compact(b))
+}
+
+// schedColLetter is the spreadsheet letter of 0-based column i ("A", "AA").
+func schedColLetter(i int) string {
+	var b []byte
+	for i++; i > 0; i = (i - 1) / 26 {
+		b = append([]byte{byte('A' + (i-1)%26)}, b...)
+	}
+	return string(b)
+}
