@@ -1,0 +1,79 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+
+	"github.com/spf13/cobra"
+	"github.com/termwright/termwright/timetable"
+)
+
+func init() { register("new", newNewCmd) }
+
+// newOptions are the flags of `termwright new`.
+type newOptions struct {
+	force bool // replace an existing file
+}
+
+func newNewCmd(e *env) *cobra.Command {
+	o := &newOptions{}
+	cmd := &cobra.Command{
+		Use:   "new FILE",
+		Short: "Write an empty term workbook to fill in",
+		Long: "new writes an empty term workbook (.xlsx): every sheet with its column headers,\n" +
+			"a note on each header explaining the column, and drop-down lists where the\n" +
+			"values are fixed. It never replaces an existing file unless --force is given.",
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error { return runNew(e, o, args[0]) },
+	}
+	cmd.Flags().BoolVar(&o.force, "force", false, "replace FILE if it exists")
+	return cmd
+}
+
+func runNew(e *env, o *newOptions, path string) error {
+	if _, err := os.Stat(path); err == nil && !o.force {
+		return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", path))
+	} else if err != nil && !errors.Is(err, fs.ErrNotExist) {
+		return withCode(exitError, fmt.Sprintf("cannot use %s: %v", path, err))
+	}
+	var buf bytes.Buffer
+	if err := timetable.WriteTemplate(&buf); err != nil {
+		return withCode(exitError, fmt.Sprintf("cannot make the template: %v", err))
+	}
+	if err := writeTemplateFile(path, buf.Bytes()); err != nil {
+		return withCode(exitError, err.Error())
+	}
+	fmt.Fprintf(e.stderr, "wrote %s: fill in each sheet, then run: termwright check %s\n", path, path)
+	return nil
+}
+
+// writeTemplateFile writes data to a temporary file beside path and renames it
+// into place, so that a failure never leaves a half-written file.
+func writeTemplateFile(path string, data []byte) error {
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return fmt.Errorf("cannot write in %s: %v", dir, err)
+	}
+	name := tmp.Name()
+	_, werr := tmp.Write(data)
+	cerr := tmp.Close()
+	if werr == nil {
+		werr = cerr
+	}
+	if werr == nil {
+		werr = os.Chmod(name, 0o644)
+	}
+	if werr == nil {
+		werr = os.Rename(name, path)
+	}
+	if werr != nil {
+		os.Remove(name)
+		return fmt.Errorf("cannot write %s: %v", path, werr)
+	}
+	return nil
+}

@@ -1,0 +1,140 @@
+package timetable
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/xuri/excelize/v2"
+)
+
+// templateAuthor signs the notes of the template's header cells.
+const templateAuthor = "termwright"
+
+// templateKeys are the keys written on an empty template's Term sheet.
+var templateKeys = []string{"Name", "First day", "Last day", "Time zone"}
+
+// dropDowns lists, per sheet and column, the values offered in a drop-down
+// list. strict lists refuse other values; the others only advise (a
+// Strength may also be a number).
+var dropDowns = []struct {
+	sheet, col string
+	values     []string
+	strict     bool
+}{
+	{shTerm, "Key", append(append([]string{}, templateKeys...), "Holiday", "Holidays"), false},
+	{shPeriods, "Day", dayList(), true},
+	{shUnavailable, "Day", dayList(), true},
+	{shUnavailable, "Strength", []string{"hard"}, false},
+	{shRelations, "Kind", relationNames(), true},
+	{shRelations, "Strength", []string{"hard"}, false},
+	{shWeights, "Criterion", criterionNames(), true},
+}
+
+func dayList() []string { return []string{"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"} }
+
+// WriteTemplate writes an empty term workbook: every sheet of the layout with
+// its headers in row 1, a note on each header cell explaining the column,
+// drop-down lists where the values are fixed (days, strength, relation
+// kinds, criteria, Term keys), frozen header rows, and the Term sheet's keys
+// ready for their values. Data rows start at row 2.
+func WriteTemplate(w io.Writer) error {
+	f := excelize.NewFile()
+	defer f.Close()
+	bold, err := f.NewStyle(&excelize.Style{Font: &excelize.Font{Bold: true}})
+	if err != nil {
+		return err
+	}
+	for i, spec := range sheetSpecs {
+		if err := templateSheet(f, i, spec, bold); err != nil {
+			return fmt.Errorf("writing the %s sheet of the template: %w", spec.name, err)
+		}
+	}
+	for _, d := range dropDowns {
+		if err := addDropDown(f, d.sheet, d.col, d.values, d.strict); err != nil {
+			return fmt.Errorf("adding the %s drop-down list of the template: %w", d.col, err)
+		}
+	}
+	for i, k := range templateKeys {
+		if err := f.SetCellStr(shTerm, fmt.Sprintf("A%d", i+2), k); err != nil {
+			return err
+		}
+	}
+	if err := f.SetCellStr(shTerm, "B5", "UTC"); err != nil {
+		return err
+	}
+	f.SetActiveSheet(0)
+	_, err = f.WriteTo(w)
+	return err
+}
+
+// templateSheet writes one sheet's headers, notes, widths and frozen row.
+func templateSheet(f *excelize.File, i int, spec sheetSpec, bold int) error {
+	if i == 0 {
+		if err := f.SetSheetName(f.GetSheetName(0), spec.name); err != nil {
+			return err
+		}
+	} else if _, err := f.NewSheet(spec.name); err != nil {
+		return err
+	}
+	for c, h := range spec.cols {
+		cell := colLetter(c) + "1"
+		if err := f.SetCellStr(spec.name, cell, h); err != nil {
+			return err
+		}
+		width := float64(max(len(h), 12) + 4)
+		if err := f.SetColWidth(spec.name, colLetter(c), colLetter(c), width); err != nil {
+			return err
+		}
+		note := spec.notes[c]
+		if spec.required && listHas(spec.need, h) {
+			note = "Required. " + note
+		}
+		if err := f.AddComment(spec.name, excelize.Comment{
+			Cell: cell, Author: templateAuthor,
+			Paragraph: []excelize.RichTextRun{{Text: note}},
+		}); err != nil {
+			return err
+		}
+	}
+	last := colLetter(len(spec.cols)-1) + "1"
+	if err := f.SetCellStyle(spec.name, "A1", last, bold); err != nil {
+		return err
+	}
+	return f.SetPanes(spec.name, &excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft"})
+}
+
+// addDropDown offers values in every data cell of a column.
+func addDropDown(f *excelize.File, sheet, col string, values []string, strict bool) error {
+	spec := specFor(sheet)
+	idx := -1
+	for i, c := range spec.cols {
+		if c == col {
+			idx = i
+		}
+	}
+	if idx < 0 {
+		return fmt.Errorf("no column %q", col)
+	}
+	dv := excelize.NewDataValidation(true)
+	letter := colLetter(idx)
+	dv.SetSqref(fmt.Sprintf("%s2:%s%d", letter, letter, excelize.TotalRows))
+	if err := dv.SetDropList(values); err != nil {
+		return err
+	}
+	if strict {
+		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose one of: "+strings.Join(values, ", ")+".")
+	} else {
+		dv.SetError(excelize.DataValidationErrorStyleInformation, col, "Usual values: "+strings.Join(values, ", ")+". Other values are allowed.")
+	}
+	return f.AddDataValidation(sheet, dv)
+}
+
+func listHas(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
