@@ -48,6 +48,7 @@ type view struct {
 	rowOf     []int     // period index -> grid row
 	has       [][]bool  // [row][column]: that day has a period at that time
 	allWeeks  timetable.WeekSet
+	cal       *calendarInfo // time zone and dates, made on first use by calendar()
 }
 
 // maxViewErrors bounds how many placement problems one error lists.

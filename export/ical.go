@@ -1,0 +1,196 @@
+package export
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+	"time"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// icsProdID identifies the producer of our calendars (RFC 5545 §3.7.3).
+const icsProdID = "-//termwright//termwright timetable//EN"
+
+// sequenceEpoch is the origin of SEQUENCE numbers: SEQUENCE is the number
+// of whole minutes from it to Options.Generated, so a later publication of
+// the same event always carries a higher SEQUENCE (RFC 5545 §3.8.7.4).
+var sequenceEpoch = time.Date(2020, 1, 1, 0, 0, 0, 0, time.UTC)
+
+// WriteICS writes who's calendar as an RFC 5545 VCALENDAR: one weekly
+// recurring VEVENT per meeting in the term's time zone (with a VTIMEZONE
+// built from Go's zone data), from the first date the meeting takes place
+// to the last, holidays and weeks outside the section's weeks excluded with
+// EXDATE. See the package documentation for the exact properties.
+func WriteICS(w io.Writer, t *timetable.Term, s *timetable.Schedule, who Subject, opt Options) error {
+	v, err := newView(t, s)
+	if err != nil {
+		return err
+	}
+	return v.writeICS(w, who, opt)
+}
+
+func (v *view) writeICS(w io.Writer, who Subject, opt Options) error {
+	items, err := v.of(who)
+	if err != nil {
+		return err
+	}
+	cal, err := v.calendar()
+	if err != nil {
+		return err
+	}
+	gen := opt.generated().UTC()
+	iw := newICSWriter(w)
+	iw.line("BEGIN:VCALENDAR")
+	iw.line("VERSION:2.0")
+	iw.line("PRODID:" + icsProdID)
+	iw.line("CALSCALE:GREGORIAN")
+	name := v.title(who)
+	if v.t.Name != "" {
+		name += " — " + v.t.Name
+	}
+	iw.prop("NAME", name) // RFC 7986 §5.1
+	iw.prop("X-WR-CALNAME", name)
+	iw.prop("X-WR-TIMEZONE", cal.tzid)
+	writeVTimezone(iw, cal.tzid, cal.obs)
+	for _, i := range items {
+		v.writeEvent(iw, cal, &v.meetings[i], who, gen)
+	}
+	iw.line("END:VCALENDAR")
+	return iw.flush()
+}
+
+// calendarInfo is what every calendar of a term shares.
+type calendarInfo struct {
+	loc      *time.Location
+	tzid     string
+	obs      []observance
+	holidays map[string]bool // "2006-01-02" dates without teaching
+	monday   time.Time       // Monday of teaching week 1 (UTC midnight)
+}
+
+// calendar computes (once per view) the time zone and term dates.
+func (v *view) calendar() (*calendarInfo, error) {
+	if v.cal != nil {
+		return v.cal, nil
+	}
+	loc, tzid, err := termLocation(v.t)
+	if err != nil {
+		return nil, err
+	}
+	if v.t.FirstDay.IsZero() || v.t.LastDay.Before(v.t.FirstDay) {
+		return nil, fmt.Errorf("export: the term needs a first and a last day (last on or after first) to write calendars; fix the First day and Last day keys of the Term sheet")
+	}
+	c := &calendarInfo{loc: loc, tzid: tzid, holidays: map[string]bool{}}
+	c.obs = observances(loc, v.t.FirstDay, v.t.LastDay)
+	for _, h := range v.t.Holidays {
+		c.holidays[h.Format("2006-01-02")] = true
+	}
+	first := civil(v.t.FirstDay)
+	c.monday = first.AddDate(0, 0, -timetable.WeekOrder(first.Weekday()))
+	v.cal = c
+	return c, nil
+}
+
+// civil is the calendar date of d as midnight UTC (term dates are dates).
+func civil(d time.Time) time.Time { return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC) }
+
+// occurrences splits the weekly dates of a meeting between the term's
+// first and last day into the dates it takes place and the dates it does
+// not (holidays, weeks outside the section's weeks) after the first one.
+// Dates are midnight UTC.
+func (v *view) occurrences(c *calendarInfo, m *meeting) (on, off []time.Time) {
+	first, last := civil(v.t.FirstDay), civil(v.t.LastDay)
+	d := first.AddDate(0, 0, (int(m.day)-int(first.Weekday())+7)%7)
+	weeks := m.sec.Weeks
+	if weeks == 0 {
+		weeks = v.allWeeks
+	}
+	for ; !d.After(last); d = d.AddDate(0, 0, 7) {
+		week := int(d.Sub(c.monday).Hours()/24)/7 + 1
+		if weeks.Has(week) && !c.holidays[d.Format("2006-01-02")] {
+			on = append(on, d)
+		} else if len(on) > 0 {
+			off = append(off, d)
+		}
+	}
+	// Dates left out after the last occurrence are beyond UNTIL anyway.
+	for len(off) > 0 && len(on) > 0 && off[len(off)-1].After(on[len(on)-1]) {
+		off = off[:len(off)-1]
+	}
+	return on, off
+}
+
+// at is the instant of clock c on date d in loc.
+func at(d time.Time, c timetable.Clock, loc *time.Location) time.Time {
+	return time.Date(d.Year(), d.Month(), d.Day(), int(c)/60, int(c)%60, 0, 0, loc)
+}
+
+// wall formats the local wall time of date d at clock c (DATE-TIME form 2).
+func wall(d time.Time, c timetable.Clock) string {
+	return fmt.Sprintf("%04d%02d%02dT%02d%02d00", d.Year(), int(d.Month()), d.Day(), int(c)/60, int(c)%60)
+}
+
+// eventUID is the stable UID of a meeting in a subject's calendar: it
+// depends only on the term name, section, meeting number and subject, so
+// publishing again updates the event instead of adding a second one.
+func eventUID(term string, sec string, num int, who Subject) string {
+	h := sha256.Sum256([]byte(strings.Join([]string{term, sec, strconv.Itoa(num), kindWord(who.Kind), who.ID}, "\x1f")))
+	return hex.EncodeToString(h[:16]) + "@termwright"
+}
+
+// writeEvent writes one meeting's VEVENT (nothing when it never takes place).
+func (v *view) writeEvent(w *icsWriter, c *calendarInfo, m *meeting, who Subject, gen time.Time) {
+	on, off := v.occurrences(c, m)
+	if len(on) == 0 {
+		return
+	}
+	tz := ";TZID=" + icsParam(c.tzid)
+	w.line("BEGIN:VEVENT")
+	w.line("UID:" + eventUID(v.t.Name, m.sec.ID, m.num, who))
+	w.line("DTSTAMP:" + gen.Format("20060102T150405Z"))
+	w.line("SEQUENCE:" + strconv.FormatInt(max(int64(gen.Sub(sequenceEpoch)/time.Minute), 0), 10))
+	w.line("DTSTART" + tz + ":" + wall(on[0], m.from))
+	w.line("DTEND" + tz + ":" + wall(on[0], m.to))
+	// RFC 5545 §3.3.10: with a local DTSTART and a TZID, UNTIL is in UTC.
+	w.line("RRULE:FREQ=WEEKLY;UNTIL=" + at(on[len(on)-1], m.from, c.loc).UTC().Format("20060102T150405Z"))
+	if len(off) > 0 {
+		dates := make([]string, len(off))
+		for i, d := range off {
+			dates[i] = wall(d, m.from)
+		}
+		w.line("EXDATE" + tz + ":" + strings.Join(dates, ","))
+	}
+	w.prop("SUMMARY", m.sec.ID+" "+m.sec.Title)
+	if m.room != nil {
+		w.prop("LOCATION", roomText(m.room))
+	}
+	w.prop("DESCRIPTION", v.describe(m))
+	w.line("TRANSP:OPAQUE")
+	w.line("END:VEVENT")
+}
+
+// describe is the DESCRIPTION of a meeting: section, title, staff, cohorts,
+// weeks, one per line.
+func (v *view) describe(m *meeting) string {
+	lines := []string{
+		fmt.Sprintf("Section %s, meeting %d of %d", m.sec.ID, m.num, max(m.sec.Meetings, 1)),
+		m.sec.Title,
+	}
+	if names := v.staffNames(m.sec); len(names) > 0 {
+		lines = append(lines, "Staff: "+strings.Join(names, ", "))
+	}
+	if len(m.sec.Cohorts) > 0 {
+		lines = append(lines, "Cohorts: "+strings.Join(m.sec.Cohorts, ", "))
+	}
+	if m.room == nil && m.sec.NoRoom {
+		lines = append(lines, "No room: online or off-site")
+	}
+	if wk := v.weeks(m.sec); wk != "" {
+		lines = append(lines, "Teaching weeks: "+strings.TrimPrefix(wk, "wks "))
+	}
+	return strings.Join(lines, "\n")
+}
