@@ -96,7 +96,9 @@ func (v *view) calendar() (*calendarInfo, error) {
 }
 
 // civil is the calendar date of d as midnight UTC (term dates are dates).
-func civil(d time.Time) time.Time { return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC) }
+func civil(d time.Time) time.Time {
+	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC)
+}
 
 // occurrences splits the weekly dates of a meeting between the term's
 // first and last day into the dates it takes place and the dates it does
