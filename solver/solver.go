@@ -1,0 +1,285 @@
+package solver
+
+import (
+	"math/rand/v2"
+)
+
+// Solver searches for stable models of one program. It is not safe for
+// concurrent use. Create it with New.
+type Solver struct {
+	opts Options // validated tuning constants
+	rng  *rand.Rand
+
+	numAtoms int  // the program's atoms are variables 1..numAtoms
+	numVars  int  // variables are 1..numVars: atoms, body variables, auxiliaries
+	ok       bool // false once the clauses are unsatisfiable at level 0 (permanent)
+
+	// Assignment.
+	vals     []int8   // per literal: +1 true, -1 false, 0 unassigned; vals[p] == -vals[p^1]
+	level    []int32  // per variable: decision level of its assignment (valid while assigned)
+	reason   []uint32 // per variable: why it was implied (reason.go); 0 for decisions and after compaction at level 0
+	trailPos []int32  // per variable: index of its literal in trail (valid while assigned)
+	trail    []Lit    // assigned literals in assignment order
+	trailLim []int32  // trailLim[d-1] is the trail index where decision level d starts
+	qhead    int      // trail[:qhead] has been propagated through clauses and cardinality counters
+
+	// Clauses.
+	arena      []Lit     // clause arena (arena.go); offsets 0 and 1 are unused so that 0 means "no clause"
+	watches    [][]watch // per literal p: clauses whose first or second literal is p
+	learnts    []uint32  // offsets of deletable learned clauses, oldest first
+	numClauses int       // live clauses in the arena (original and learned)
+	wasted     int       // arena words held by deleted clauses, reclaimed by compaction
+
+	// Branching.
+	activity []float64 // per variable: VSIDS activity (scaled by varInc)
+	varInc   float64   // current bump amount; grows by 1/VarDecay per conflict
+	order    varHeap   // unassigned decision variables by activity (may also hold assigned ones)
+	polarity []bool    // per variable: saved phase, true = try the positive literal first
+
+	// Cardinality constraints (cardinality.go).
+	cards    []card     // counting constraints
+	cardLits []Lit      // members of all cards, card k owns cardLits[cards[k].start:][:cards[k].n]
+	cardOcc  [][]uint32 // per literal p: occurrences k<<2|tag of constraints affected when p becomes true
+
+	// Weighted sums for optimisation (weightsum.go).
+	sums   []wsum     // weighted-sum upper bounds
+	parts  sumParts   // members of the weighted sums
+	sumOcc [][]uint32 // per literal p: member index i<<1 of every member p, and k<<1|1 for sums with condition p
+
+	// Unfounded sets (unfounded.go); nil when the program is tight.
+	ufs *unfounded
+
+	// Conflict analysis scratch (analyze.go).
+	conflict       []Lit    // literals of the current conflict, all false
+	seen           []uint8  // per variable: analysis marks, cleared through analyzeToClear
+	analyzeLearnt  []Lit    // the clause being learned; [0] is the asserting literal
+	analyzeStack   []Lit    // work stack of litRedundant
+	analyzeToClear []Lit    // literals whose seen mark must be reset
+	levelStamp     []uint32 // per decision level: last stamp for counting distinct levels (LBD)
+	stamp          uint32   // current stamp for levelStamp
+	explArena      []Lit    // lazily built explanations: a length word then the literals
+	explIndex      []uint32 // per variable: 1 + offset of its explanation in explArena, 0 = none
+	explVars       []uint32 // variables with an explanation in explArena (to reset explIndex)
+
+	// Assumptions and results.
+	assumptions []Lit    // assumptions of the current search, user ones first
+	pending     []Lit    // assumptions given by Assume for the next call
+	userAssume  int      // assumptions[:userAssume] came from the caller
+	core        []Lit    // after Unsatisfiable under assumptions: failed user assumptions
+	failed      []Lit    // after a failed assumption: every assumption literal involved (user and internal)
+	model       []bool   // per atom: value in the last model
+	hasModel    bool     // model holds a model
+	trueLit     Lit      // a literal true at level 0 (0 until needed)
+	weaks       []weakLit // weak constraints as literals (completion.go)
+
+	// Restarts and reductions (search.go, reduce.go).
+	lbdQueue      []int   // LBDs of the most recent learned clauses (ring buffer)
+	lbdQueueHead  int     // next slot of lbdQueue
+	lbdQueueFull  bool    // lbdQueue holds GlucoseWindow values
+	lbdQueueSum   int64   // sum of lbdQueue
+	lbdSum        float64 // sum of all LBDs learned
+	lbdCount      int64   // number of LBDs in lbdSum
+	lubyIndex     int     // restarts done by the Luby policy
+	nextReduce    int64   // conflict count of the next learned-clause reduction
+	reduceIncr    int64   // current interval between reductions
+	simpTrail     int     // level-0 trail length at the last compaction
+	conflictStart int64   // Stats.Conflicts when the current call started
+
+	stats    Stats       // counters since creation
+	progress func(Stats) // called at restarts (may be nil)
+}
+
+// weakLit is a weak constraint reduced to one literal that holds iff its
+// body holds.
+type weakLit struct {
+	lit    Lit   // body literal (0: the body is always true)
+	weight int64 // cost when lit holds (positive)
+	level  int   // priority level
+}
+
+// value returns +1, -1 or 0 for literal p.
+func (s *Solver) value(p Lit) int8 { return s.vals[p] }
+
+func (s *Solver) decisionLevel() int { return len(s.trailLim) }
+
+// newVar adds a variable and returns it; all per-variable and per-literal
+// tables grow.
+func (s *Solver) newVar() uint32 {
+	s.numVars++
+	v := uint32(s.numVars)
+	s.vals = append(s.vals, 0, 0)
+	s.level = append(s.level, 0)
+	s.reason = append(s.reason, 0)
+	s.trailPos = append(s.trailPos, 0)
+	s.watches = append(s.watches, nil, nil)
+	s.activity = append(s.activity, 0)
+	s.polarity = append(s.polarity, false)
+	s.cardOcc = append(s.cardOcc, nil, nil)
+	s.sumOcc = append(s.sumOcc, nil, nil)
+	s.seen = append(s.seen, 0)
+	s.explIndex = append(s.explIndex, 0)
+	s.levelStamp = append(s.levelStamp, 0)
+	if s.opts.Seed != 0 {
+		s.activity[v] = s.rng.Float64() * 1e-5
+	}
+	s.order.grow(v)
+	s.order.insert(v)
+	if cap(s.trail) < s.numVars {
+		t := make([]Lit, len(s.trail), 2*s.numVars)
+		copy(t, s.trail)
+		s.trail = t
+	}
+	return v
+}
+
+// initTables sizes the tables for variable 0 (unused).
+func (s *Solver) initTables() {
+	s.vals = make([]int8, 2, 1024)
+	s.level = []int32{0}
+	s.reason = []uint32{0}
+	s.trailPos = []int32{0}
+	s.watches = make([][]watch, 2)
+	s.activity = []float64{0}
+	s.polarity = []bool{false}
+	s.cardOcc = make([][]uint32, 2)
+	s.sumOcc = make([][]uint32, 2)
+	s.seen = []uint8{0}
+	s.explIndex = []uint32{0}
+	s.levelStamp = []uint32{0}
+	s.order.activity = &s.activity
+	s.order.grow(0)
+	s.arena = make([]Lit, 2, 1024)
+	s.varInc = 1
+}
+
+// assign makes p true with the given reason at the current level.
+func (s *Solver) assign(p Lit, r uint32) {
+	v := p >> 1
+	s.vals[p] = 1
+	s.vals[p^1] = -1
+	s.level[v] = int32(len(s.trailLim))
+	s.reason[v] = r
+	s.trailPos[v] = int32(len(s.trail))
+	s.trail = append(s.trail, p)
+}
+
+func (s *Solver) newDecisionLevel() { s.trailLim = append(s.trailLim, int32(len(s.trail))) }
+
+// cancelUntil undoes every assignment above decision level lvl, restoring
+// counters of the propagators, saving phases and re-queueing variables.
+func (s *Solver) cancelUntil(lvl int) {
+	if s.decisionLevel() <= lvl {
+		return
+	}
+	start := int(s.trailLim[lvl])
+	for i := len(s.trail) - 1; i >= start; i-- {
+		p := s.trail[i]
+		v := uint32(p >> 1)
+		if i < s.qhead {
+			s.undoCounters(p)
+		}
+		s.vals[p] = 0
+		s.vals[p^1] = 0
+		s.polarity[v] = p&1 == 0
+		s.order.insert(v)
+		if s.ufs != nil && int(v) <= s.numAtoms {
+			s.ufs.unassigned(v)
+		}
+	}
+	s.trail = s.trail[:start]
+	s.trailLim = s.trailLim[:lvl]
+	if s.qhead > start {
+		s.qhead = start
+	}
+}
+
+// undoCounters reverts the counter updates made when p was propagated.
+func (s *Solver) undoCounters(p Lit) {
+	for _, o := range s.cardOcc[p] {
+		c := &s.cards[o>>2]
+		switch o & 3 {
+		case occTrue:
+			c.nTrue--
+		case occFalse:
+			c.nFalse--
+		}
+	}
+	for _, o := range s.sumOcc[p] {
+		if o&1 == 0 {
+			s.sums[s.parts.of[o>>1]].sumTrue -= s.parts.w[o>>1]
+		}
+	}
+}
+
+// Assume sets assumptions for the next Solve, Enumerate or Optimize call
+// only: Pos(a) assumes a true, Neg(a) assumes a false. Calls accumulate until
+// the next search call consumes them.
+func (s *Solver) Assume(lits ...Lit) { s.pending = append(s.pending, lits...) }
+
+// takeAssumptions returns and clears the pending user assumptions, checking
+// their atoms; it reports false when one refers to no atom of the program.
+func (s *Solver) takeAssumptions() ([]Lit, bool) {
+	a := append([]Lit(nil), s.pending...)
+	s.pending = s.pending[:0]
+	for _, p := range a {
+		if v := int(p >> 1); v < 1 || v > s.numAtoms {
+			return nil, false
+		}
+	}
+	return a, true
+}
+
+// Model appends the true atoms of the last stable model to dst in ascending
+// order. It appends nothing when no model was found by the last call.
+func (s *Solver) Model(dst []Atom) []Atom {
+	if !s.hasModel {
+		return dst
+	}
+	for a := 1; a <= s.numAtoms; a++ {
+		if s.model[a] {
+			dst = append(dst, Atom(a))
+		}
+	}
+	return dst
+}
+
+// Value reports whether atom a is true in the last model (false when there
+// is none or a is out of range).
+func (s *Solver) Value(a Atom) bool {
+	return s.hasModel && int(a) >= 1 && int(a) <= s.numAtoms && s.model[a]
+}
+
+// Core appends to dst, after a call that returned Unsatisfiable under
+// assumptions, a subset of those assumptions that is unsatisfiable by
+// itself. It appends nothing when the program has no model at all.
+func (s *Solver) Core(dst []Lit) []Lit { return append(dst, s.core...) }
+
+// Stats returns a copy of the work counters.
+func (s *Solver) Stats() Stats { return s.stats }
+
+// SetPhase sets the polarity tried first when branching on atom a (value
+// true tries a true). Later phase saving may change it.
+func (s *Solver) SetPhase(a Atom, value bool) {
+	if int(a) >= 1 && int(a) <= s.numAtoms {
+		s.polarity[a] = value
+	}
+}
+
+// SetProgress installs a callback called at every restart with the current
+// statistics; nil removes it.
+func (s *Solver) SetProgress(fn func(Stats)) { s.progress = fn }
+
+// NumAtoms returns the number of atoms of the program the solver was built
+// from.
+func (s *Solver) NumAtoms() int { return s.numAtoms }
+
+// saveModel copies the atom values of the current total assignment.
+func (s *Solver) saveModel() {
+	if len(s.model) != s.numAtoms+1 {
+		s.model = make([]bool, s.numAtoms+1)
+	}
+	for a := 1; a <= s.numAtoms; a++ {
+		s.model[a] = s.vals[Pos(Atom(a))] == 1
+	}
+	s.hasModel = true
+}
