@@ -1,0 +1,463 @@
+package timetable
+
+import (
+	"archive/zip"
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+	"time"
+
+	"github.com/xuri/excelize/v2"
+)
+
+// This file writes a Term in the layout of docs/workbook.md: as an .xlsx
+// workbook (WriteTermWorkbook) or as a folder of CSV files (WriteTermCSV).
+// Both render the same tables, so the two forms always agree. Output is
+// deterministic: the same Term gives the same bytes.
+
+// wtTable is one sheet of the term workbook: its name, headers and rows.
+// Cells are string or int values (ints become number cells in xlsx).
+type wtTable struct {
+	name   string
+	header []string
+	rows   [][]any
+}
+
+// wtFixedTime is the creation and modification time written into workbook
+// properties, so that equal terms give byte-identical files.
+const wtFixedTime = "2000-01-01T00:00:00Z"
+
+// WriteTermWorkbook writes t as a term workbook (.xlsx) to w: every sheet of
+// docs/workbook.md with its header row frozen, one row per record. Dates are
+// ISO text (YYYY-MM-DD), times HH:MM text, lists comma-separated, Weeks
+// "all"/"odd"/"even" or ranges, Strength "hard" or the weight. The optional
+// sheets Enrolments, Unavailable, Relations and Weights are always written
+// (possibly with headers only). The same Term always gives the same bytes.
+// Sources (Src fields) are not written.
+func WriteTermWorkbook(t *Term, w io.Writer) error {
+	f := excelize.NewFile()
+	defer f.Close()
+	f.SetZipWriter(func(w io.Writer) excelize.ZipWriter { return &wtSortedZip{w: w} })
+	if err := f.SetDocProps(&excelize.DocProperties{
+		Created:        wtFixedTime,
+		Modified:       wtFixedTime,
+		Creator:        "termwright",
+		LastModifiedBy: "termwright",
+		Title:          t.Name,
+		Description:    "Term workbook (see docs/workbook.md)",
+	}); err != nil {
+		return fmt.Errorf("write term workbook: %w", err)
+	}
+	bold, err := f.NewStyle(&excelize.Style{Font: &excelize.Font{Bold: true}})
+	if err != nil {
+		return fmt.Errorf("write term workbook: %w", err)
+	}
+	for i, tb := range wtTables(t) {
+		if i == 0 {
+			if err := f.SetSheetName("Sheet1", tb.name); err != nil {
+				return fmt.Errorf("write term workbook: sheet %s: %w", tb.name, err)
+			}
+		} else if _, err := f.NewSheet(tb.name); err != nil {
+			return fmt.Errorf("write term workbook: sheet %s: %w", tb.name, err)
+		}
+		if err := wtWriteSheet(f, tb, bold); err != nil {
+			return fmt.Errorf("write term workbook: sheet %s: %w", tb.name, err)
+		}
+	}
+	f.SetActiveSheet(0)
+	if _, err := f.WriteTo(w); err != nil {
+		return fmt.Errorf("write term workbook: %w", err)
+	}
+	return nil
+}
+
+// wtWriteSheet streams one table into its (existing) sheet.
+func wtWriteSheet(f *excelize.File, tb wtTable, headerStyle int) error {
+	sw, err := f.NewStreamWriter(tb.name)
+	if err != nil {
+		return err
+	}
+	for c, h := range tb.header {
+		width := float64(len(h)) + 4
+		for _, r := range tb.rows {
+			if s, ok := r[c].(string); ok && float64(len([]rune(s)))+2 > width {
+				width = float64(len([]rune(s))) + 2
+			}
+		}
+		if err := sw.SetColWidth(c+1, c+1, min(width, 60)); err != nil {
+			return err
+		}
+	}
+	if err := sw.SetPanes(&excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft"}); err != nil {
+		return err
+	}
+	head := make([]any, len(tb.header))
+	for i, h := range tb.header {
+		head[i] = excelize.Cell{StyleID: headerStyle, Value: h}
+	}
+	if err := sw.SetRow("A1", head); err != nil {
+		return err
+	}
+	for i, r := range tb.rows {
+		cell, err := excelize.CoordinatesToCellName(1, i+2)
+		if err != nil {
+			return err
+		}
+		if err := sw.SetRow(cell, r); err != nil {
+			return err
+		}
+	}
+	return sw.Flush()
+}
+
+// WriteTermCSV writes t as a folder of CSV files, one per sheet of
+// docs/workbook.md (Term.csv, Periods.csv, ...), with the same headers and
+// cells as WriteTermWorkbook. dir is created when missing. Each file is
+// written to a temporary file in dir and renamed into place, replacing a file
+// of the same name: callers that must not overwrite check first (see
+// TermCSVFiles).
+func WriteTermCSV(t *Term, dir string) error {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return fmt.Errorf("write term CSV: %w", err)
+	}
+	for _, tb := range wtTables(t) {
+		var buf bytes.Buffer
+		cw := csv.NewWriter(&buf)
+		rec := make([]string, len(tb.header))
+		_ = cw.Write(tb.header)
+		for _, r := range tb.rows {
+			for i, v := range r {
+				rec[i] = wtText(v)
+			}
+			_ = cw.Write(rec)
+		}
+		cw.Flush()
+		if err := cw.Error(); err != nil {
+			return fmt.Errorf("write term CSV %s: %w", tb.name, err)
+		}
+		if err := wtWriteFileAtomic(filepath.Join(dir, tb.name+".csv"), buf.Bytes()); err != nil {
+			return fmt.Errorf("write term CSV: %w", err)
+		}
+	}
+	return nil
+}
+
+// TermCSVFiles lists the file names WriteTermCSV writes, in sheet order.
+func TermCSVFiles() []string {
+	names := make([]string, len(wtSheetNames))
+	for i, n := range wtSheetNames {
+		names[i] = n + ".csv"
+	}
+	return names
+}
+
+// wtSheetNames are the sheets of docs/workbook.md in writing order.
+var wtSheetNames = []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights"}
+
+func wtWriteFileAtomic(path string, data []byte) error {
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
+	if err != nil {
+		return err
+	}
+	_, werr := tmp.Write(data)
+	cerr := tmp.Close()
+	if err := errors.Join(werr, cerr); err != nil {
+		os.Remove(tmp.Name())
+		return err
+	}
+	if err := os.Rename(tmp.Name(), path); err != nil {
+		os.Remove(tmp.Name())
+		return err
+	}
+	return nil
+}
+
+// wtText renders a cell value as CSV text.
+func wtText(v any) string {
+	switch v := v.(type) {
+	case string:
+		return v
+	case int:
+		return strconv.Itoa(v)
+	}
+	return fmt.Sprint(v)
+}
+
+// wtTables renders every sheet of t in workbook order.
+func wtTables(t *Term) []wtTable {
+	return []wtTable{
+		wtTermTable(t),
+		wtPeriodsTable(t),
+		wtRoomsTable(t),
+		wtStaffTable(t),
+		wtCohortsTable(t),
+		wtSectionsTable(t),
+		wtEnrolmentsTable(t),
+		wtUnavailableTable(t),
+		wtRelationsTable(t),
+		wtWeightsTable(t),
+	}
+}
+
+func wtTermTable(t *Term) wtTable {
+	tb := wtTable{name: "Term", header: []string{"Key", "Value"}}
+	tb.rows = append(tb.rows, []any{"Name", t.Name})
+	if !t.FirstDay.IsZero() {
+		tb.rows = append(tb.rows, []any{"First day", wtDate(t.FirstDay)})
+	}
+	if !t.LastDay.IsZero() {
+		tb.rows = append(tb.rows, []any{"Last day", wtDate(t.LastDay)})
+	}
+	tz := t.TimeZone
+	if tz == "" {
+		tz = "UTC"
+	}
+	tb.rows = append(tb.rows, []any{"Time zone", tz})
+	for _, h := range t.Holidays {
+		tb.rows = append(tb.rows, []any{"Holiday", wtDate(h)})
+	}
+	return tb
+}
+
+func wtDate(d time.Time) string { return d.Format(time.DateOnly) }
+
+func wtPeriodsTable(t *Term) wtTable {
+	tb := wtTable{name: "Periods", header: []string{"Day", "Start", "End"}}
+	for _, p := range t.Periods {
+		tb.rows = append(tb.rows, []any{DayName(p.Day), p.Start.String(), p.End.String()})
+	}
+	return tb
+}
+
+func wtRoomsTable(t *Term) wtTable {
+	tb := wtTable{name: "Rooms", header: []string{"Room", "Capacity", "Features", "Building"}}
+	for _, r := range t.Rooms {
+		tb.rows = append(tb.rows, []any{r.ID, r.Capacity, wtList(r.Features), r.Building})
+	}
+	return tb
+}
+
+func wtStaffTable(t *Term) wtTable {
+	tb := wtTable{name: "Staff", header: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods"}}
+	for _, s := range t.Staff {
+		tb.rows = append(tb.rows, []any{s.ID, s.Name, s.Email, wtLimit(s.MaxPerDay), wtLimit(s.MaxConsecutive)})
+	}
+	return tb
+}
+
+// wtLimit writes an optional limit: blank when 0 ("no limit").
+func wtLimit(n int) any {
+	if n <= 0 {
+		return ""
+	}
+	return n
+}
+
+func wtCohortsTable(t *Term) wtTable {
+	tb := wtTable{name: "Cohorts", header: []string{"Cohort", "Name", "Size"}}
+	for _, c := range t.Cohorts {
+		tb.rows = append(tb.rows, []any{c.ID, c.Name, wtLimit(c.Size)})
+	}
+	return tb
+}
+
+// NoRoomText is how the workbook writer marks a section that takes no room
+// (in the Rooms column of the Sections sheet).
+const NoRoomText = "no room"
+
+func wtSectionsTable(t *Term) wtTable {
+	tb := wtTable{name: "Sections", header: []string{"Section", "Title", "Staff", "Cohorts", "Expected size",
+		"Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days"}}
+	for _, s := range t.Sections {
+		rooms := wtList(s.Rooms)
+		if s.NoRoom {
+			rooms = NoRoomText
+		}
+		fixed := make([]string, len(s.Fixed))
+		for i, f := range s.Fixed {
+			fixed[i] = FormatFixed(f)
+		}
+		var minDays any = ""
+		if s.SameDay {
+			minDays = s.MinDays // any number, even 0, marks SameDay
+		}
+		tb.rows = append(tb.rows, []any{s.ID, s.Title, wtList(s.Staff), wtList(s.Cohorts), s.Size,
+			s.Meetings, s.Length, wtList(s.Needs), rooms, strings.Join(fixed, "; "), t.WeeksText(s.Weeks), minDays})
+	}
+	return tb
+}
+
+func wtEnrolmentsTable(t *Term) wtTable {
+	tb := wtTable{name: "Enrolments", header: []string{"Student", "Section"}}
+	for _, e := range t.Enrolments {
+		tb.rows = append(tb.rows, []any{e.Student, e.Section})
+	}
+	return tb
+}
+
+func wtUnavailableTable(t *Term) wtTable {
+	tb := wtTable{name: "Unavailable", header: []string{"Who", "Day", "From", "To", "Strength", "Reason"}}
+	for _, u := range t.Unavailable {
+		from, to := u.From.String(), u.To.String()
+		if u.From == 0 && u.To == 24*60 {
+			from, to = "", "" // blank From/To means the whole day
+		}
+		tb.rows = append(tb.rows, []any{u.Who, DayName(u.Day), from, to, wtStrength(u.Hard, u.Weight), u.Reason})
+	}
+	return tb
+}
+
+func wtStrength(hard bool, weight int) any {
+	if hard {
+		return "hard"
+	}
+	return weight
+}
+
+func wtRelationsTable(t *Term) wtTable {
+	tb := wtTable{name: "Relations", header: []string{"Kind", "Sections", "Strength"}}
+	for _, r := range t.Relations {
+		tb.rows = append(tb.rows, []any{r.Kind.String(), wtList(r.Sections), wtStrength(r.Hard, r.Weight)})
+	}
+	return tb
+}
+
+func wtWeightsTable(t *Term) wtTable {
+	tb := wtTable{name: "Weights", header: []string{"Criterion", "Weight", "Level"}}
+	names := make([]string, 0, len(t.Weights))
+	for n := range t.Weights {
+		names = append(names, n)
+	}
+	sort.Slice(names, func(i, j int) bool {
+		oi, oj := wtCriterionOrder(names[i]), wtCriterionOrder(names[j])
+		return oi < oj || oi == oj && names[i] < names[j]
+	})
+	for _, n := range names {
+		w := t.Weights[n]
+		tb.rows = append(tb.rows, []any{n, w.Weight, w.Level})
+	}
+	if _, listed := t.Weights[CritOverCapacity]; t.SoftCapacity && !listed {
+		w, l := t.CriterionWeight(CritOverCapacity)
+		tb.rows = append(tb.rows, []any{CritOverCapacity, w, l})
+	}
+	return tb
+}
+
+// wtCriterionOrder is a criterion's position in Criteria (unknown names last).
+func wtCriterionOrder(name string) int {
+	for i, c := range Criteria {
+		if c.Name == name {
+			return i
+		}
+	}
+	return len(Criteria)
+}
+
+func wtList(xs []string) string { return strings.Join(xs, ", ") }
+
+// FormatFixed writes a fixed meeting in workbook form: "Tue 10:00 R204", or
+// "Thu 10:00" when only the time is fixed.
+func FormatFixed(f Fixed) string {
+	s := DayName(f.Day) + " " + f.Start.String()
+	if f.Room != "" {
+		s += " " + f.Room
+	}
+	return s
+}
+
+// WeeksText writes a week set in workbook form: "all" when it equals
+// AllWeeks, "odd" or "even" when it is exactly the odd or even teaching
+// weeks, otherwise a list of weeks and ranges such as "1-4, 6, 9-12".
+// The empty set gives "".
+func (t *Term) WeeksText(w WeekSet) string {
+	all := t.AllWeeks()
+	const odd = WeekSet(0x5555555555555555) // weeks 1, 3, 5, ...
+	switch {
+	case w == 0:
+		return ""
+	case w == all:
+		return "all"
+	case w == odd&all:
+		return "odd"
+	case w == ^odd&all:
+		return "even"
+	}
+	var parts []string
+	for n := 1; n <= 64; n++ {
+		if !w.Has(n) {
+			continue
+		}
+		end := n
+		for end < 64 && w.Has(end+1) {
+			end++
+		}
+		if end == n {
+			parts = append(parts, strconv.Itoa(n))
+		} else {
+			parts = append(parts, strconv.Itoa(n)+"-"+strconv.Itoa(end))
+		}
+		n = end
+	}
+	return strings.Join(parts, ", ")
+}
+
+// wtSortedZip is an excelize.ZipWriter that buffers every entry and writes
+// them in name order on Close ("[Content_Types].xml" first), with zero
+// modification times, so that the archive's bytes do not depend on map
+// iteration order inside excelize.
+type wtSortedZip struct {
+	w       io.Writer
+	entries []*wtZipEntry
+}
+
+type wtZipEntry struct {
+	name string
+	data bytes.Buffer
+}
+
+// Create starts a new entry; its data is kept until Close.
+func (z *wtSortedZip) Create(name string) (io.Writer, error) {
+	e := &wtZipEntry{name: name}
+	z.entries = append(z.entries, e)
+	return &e.data, nil
+}
+
+// AddFS adds every regular file of fsys as an entry.
+func (z *wtSortedZip) AddFS(fsys fs.FS) error {
+	return fs.WalkDir(fsys, ".", func(path string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		b, err := fs.ReadFile(fsys, path)
+		if err != nil {
+			return err
+		}
+		w, _ := z.Create(path)
+		_, err = w.Write(b)
+		return err
+	})
+}
+
+// Close writes the archive.
+func (z *wtSortedZip) Close() error {
+	sort.SliceStable(z.entries, func(i, j int) bool { return z.entries[i].name < z.entries[j].name })
+	zw := zip.NewWriter(z.w)
+	for _, e := range z.entries {
+		fw, err := zw.CreateHeader(&zip.FileHeader{Name: e.name, Method: zip.Deflate})
+		if err != nil {
+			return err
+		}
+		if _, err := fw.Write(e.data.Bytes()); err != nil {
+			return err
+		}
+	}
+	return zw.Close()
+}
