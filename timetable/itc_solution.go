@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode"
 )
 
 // The competition's solution format (Di Gaspero, McCollum, Schaerf 2007,
@@ -29,7 +30,7 @@ func WriteITCSolution(w io.Writer, t *Term, s *Schedule) error {
 		if p.Room == "" {
 			return fmt.Errorf("write solution: meeting %d of section %q has no room; the benchmark format needs one for every lecture", p.Meeting, p.Section)
 		}
-		if strings.ContainsAny(p.Room, " \t\r\n") || strings.ContainsAny(p.Section, " \t\r\n") {
+		if strings.IndexFunc(p.Room, unicode.IsSpace) >= 0 || strings.IndexFunc(p.Section, unicode.IsSpace) >= 0 {
 			return fmt.Errorf("write solution: meeting %d of section %q: IDs with spaces cannot be written in the benchmark format", p.Meeting, p.Section)
 		}
 		if p.Period < 0 || p.Period >= len(t.Periods) {

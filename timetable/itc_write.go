@@ -6,6 +6,7 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"unicode"
 )
 
 // WriteCTT writes t in the .ctt format ReadCTT reads, so that read → write
@@ -76,7 +77,7 @@ func cttCheckWritable(t *Term) (int, error) {
 	bad := func(format string, a ...any) (int, error) {
 		return 0, fmt.Errorf("write .ctt: "+format, a...)
 	}
-	if strings.TrimSpace(t.Name) == "" || strings.ContainsAny(t.Name, "\r\n") || t.Name != strings.TrimSpace(t.Name) {
+	if strings.TrimSpace(t.Name) == "" || strings.Contains(t.Name, "\n") || t.Name != strings.TrimSpace(t.Name) {
 		return bad("the term name %q must be one line without surrounding spaces", t.Name)
 	}
 	if len(t.Periods) == 0 {
@@ -97,7 +98,7 @@ func cttCheckWritable(t *Term) (int, error) {
 	if len(t.Relations) > 0 || len(t.Enrolments) > 0 {
 		return bad("relations and enrolments have no place in the format")
 	}
-	noSpace := func(id string) bool { return id != "" && !strings.ContainsAny(id, " \t\r\n\v\f") }
+	noSpace := func(id string) bool { return id != "" && strings.IndexFunc(id, unicode.IsSpace) < 0 }
 	for _, s := range t.Sections {
 		switch {
 		case !noSpace(s.ID):
