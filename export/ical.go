@@ -81,17 +81,27 @@ func (v *view) calendar() (*calendarInfo, error) {
 	if err != nil {
 		return nil, err
 	}
+	c, err := v.termDays()
+	if err != nil {
+		return nil, err
+	}
+	c.loc, c.tzid = loc, tzid
+	c.obs = observances(loc, v.t.FirstDay, v.t.LastDay)
+	v.cal = c
+	return c, nil
+}
+
+// termDays gives the date part of calendarInfo (no time zone needed).
+func (v *view) termDays() (*calendarInfo, error) {
 	if v.t.FirstDay.IsZero() || v.t.LastDay.Before(v.t.FirstDay) {
 		return nil, fmt.Errorf("export: the term needs a first and a last day (last on or after first) to write calendars; fix the First day and Last day keys of the Term sheet")
 	}
-	c := &calendarInfo{loc: loc, tzid: tzid, holidays: map[string]bool{}}
-	c.obs = observances(loc, v.t.FirstDay, v.t.LastDay)
+	c := &calendarInfo{holidays: map[string]bool{}}
 	for _, h := range v.t.Holidays {
 		c.holidays[h.Format("2006-01-02")] = true
 	}
 	first := civil(v.t.FirstDay)
 	c.monday = first.AddDate(0, 0, -timetable.WeekOrder(first.Weekday()))
-	v.cal = c
 	return c, nil
 }
 

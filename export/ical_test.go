@@ -329,7 +329,8 @@ func TestObservances(t *testing.T) {
 	assert.Equal(t, []observance{{start: "19700101T000000", name: "UTC"}}, obs)
 	assert.Equal(t, "+0000", offsetText(0))
 	assert.Equal(t, "-0330", offsetText(-3*3600-30*60))
-	assert.Equal(t, "+054500", offsetText(5*3600 + 45*60)[0:5]+"00")
+	assert.Equal(t, "+0545", offsetText(5*3600+45*60))
+	assert.Equal(t, "+003430", offsetText(34*60+30))
 }
 
 func TestICSErrors(t *testing.T) {

@@ -1,0 +1,188 @@
+package export
+
+import (
+	"fmt"
+	"io"
+	"strconv"
+
+	"github.com/termwright/termwright/timetable"
+	"github.com/xuri/excelize/v2"
+)
+
+// LoadSheet is the name of the workbook's load and utilisation sheet.
+const LoadSheet = "Load"
+
+// WriteTimetableWorkbook writes the timetable workbook (.xlsx): the master
+// sheet timetable.TimetableSheet with exactly timetable.TimetableColumns
+// (one row per meeting sorted by day, start, section and meeting; frozen
+// header, autofilter), one weekly grid sheet per staff member, room and
+// cohort (days across, periods down, a merged block per meeting), the Load
+// sheet, then opt.Extra. timetable.ReadSchedule reads the master sheet back.
+func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedule, opt Options) error {
+	v, err := newView(t, s)
+	if err != nil {
+		return err
+	}
+	return v.writeWorkbook(w, opt)
+}
+
+// workbook is one workbook being written, with its shared styles.
+type workbook struct {
+	v *view
+	f *excelize.File
+	st styles
+}
+
+func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
+	f := excelize.NewFile()
+	defer func() {
+		if cerr := f.Close(); err == nil {
+			err = cerr
+		}
+	}()
+	wb := &workbook{v: v, f: f}
+	if wb.st, err = newStyles(f); err != nil {
+		return err
+	}
+	if err := f.SetSheetName("Sheet1", timetable.TimetableSheet); err != nil {
+		return err
+	}
+	if err := wb.master(); err != nil {
+		return err
+	}
+	subjects := v.gridSubjects()
+	wanted := make([]string, 0, len(subjects)+len(opt.Extra))
+	for _, who := range subjects {
+		wanted = append(wanted, v.sheetTitle(who))
+	}
+	for _, x := range opt.Extra {
+		wanted = append(wanted, x.Name)
+	}
+	names := SheetNames(wanted, timetable.TimetableSheet, LoadSheet)
+	for i, who := range subjects {
+		if err := wb.grid(names[i], who); err != nil {
+			return fmt.Errorf("export: sheet %q: %w", names[i], err)
+		}
+	}
+	if err := wb.load(); err != nil {
+		return fmt.Errorf("export: sheet %q: %w", LoadSheet, err)
+	}
+	for i, x := range opt.Extra {
+		if err := wb.extra(names[len(subjects)+i], x); err != nil {
+			return fmt.Errorf("export: sheet %q: %w", names[len(subjects)+i], err)
+		}
+	}
+	gen := opt.generated().UTC().Format("2006-01-02T15:04:05Z")
+	if err := f.SetDocProps(&excelize.DocProperties{
+		Title: v.t.Name + " timetable", Creator: "termwright", Created: gen, Modified: gen,
+	}); err != nil {
+		return err
+	}
+	f.SetActiveSheet(0)
+	_, err = f.WriteTo(w)
+	return err
+}
+
+// gridSubjects lists who gets a grid sheet (and a PDF): every staff member,
+// room and cohort in term order.
+func (v *view) gridSubjects() []Subject {
+	out := make([]Subject, 0, len(v.t.Staff)+len(v.t.Rooms)+len(v.t.Cohorts))
+	for _, s := range v.t.Staff {
+		out = append(out, Subject{timetable.WhoStaff, s.ID})
+	}
+	for _, r := range v.t.Rooms {
+		out = append(out, Subject{timetable.WhoRoom, r.ID})
+	}
+	for _, c := range v.t.Cohorts {
+		out = append(out, Subject{timetable.WhoCohort, c.ID})
+	}
+	return out
+}
+
+// sheetTitle is the wanted (not yet Excel-safe) sheet name of a subject:
+// a staff member's name, "Room R204", "Cohort C1".
+func (v *view) sheetTitle(who Subject) string {
+	switch who.Kind {
+	case timetable.WhoStaff:
+		if s := v.staff[who.ID]; s != nil && s.Name != "" {
+			return s.Name
+		}
+		return who.ID
+	case timetable.WhoRoom:
+		return "Room " + who.ID
+	case timetable.WhoCohort:
+		return "Cohort " + who.ID
+	}
+	return who.ID
+}
+
+// master writes the Timetable sheet.
+func (wb *workbook) master() error {
+	f, sheet := wb.f, timetable.TimetableSheet
+	sw, err := f.NewStreamWriter(sheet)
+	if err != nil {
+		return err
+	}
+	widths := []float64{12, 40, 9, 6, 7, 7, 10, 18, 18}
+	for i, wd := range widths {
+		if err := sw.SetColWidth(i+1, i+1, wd); err != nil {
+			return err
+		}
+	}
+	if err := sw.SetPanes(&excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft"}); err != nil {
+		return err
+	}
+	header := make([]any, len(timetable.TimetableColumns))
+	for i, h := range timetable.TimetableColumns {
+		header[i] = excelize.Cell{StyleID: wb.st.header, Value: h}
+	}
+	if err := sw.SetRow("A1", header); err != nil {
+		return err
+	}
+	row := make([]any, len(timetable.TimetableColumns))
+	for i := range wb.v.meetings {
+		m := &wb.v.meetings[i]
+		for k, c := range wb.v.masterRow(m) {
+			row[k] = c
+		}
+		row[2] = m.num
+		cell, _ := excelize.CoordinatesToCellName(1, i+2)
+		if err := sw.SetRow(cell, row); err != nil {
+			return err
+		}
+	}
+	last, _ := excelize.CoordinatesToCellName(len(timetable.TimetableColumns), len(wb.v.meetings)+1)
+	if err := sw.Flush(); err != nil {
+		return err
+	}
+	return f.AutoFilter(sheet, "A1:"+last, nil)
+}
+
+// extra writes one of Options.Extra.
+func (wb *workbook) extra(name string, x ExtraSheet) error {
+	f := wb.f
+	if _, err := f.NewSheet(name); err != nil {
+		return err
+	}
+	for i, h := range x.Header {
+		cell, _ := excelize.CoordinatesToCellName(i+1, 1)
+		if err := f.SetCellValue(name, cell, h); err != nil {
+			return err
+		}
+	}
+	if len(x.Header) > 0 {
+		end, _ := excelize.CoordinatesToCellName(len(x.Header), 1)
+		if err := f.SetCellStyle(name, "A1", end, wb.st.header); err != nil {
+			return err
+		}
+		if err := f.SetPanes(name, &excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft"}); err != nil {
+			return err
+		}
+	}
+	for r, cells := range x.Rows {
+		if err := f.SetSheetRow(name, "A"+strconv.Itoa(r+2), &cells); err != nil {
+			return err
+		}
+	}
+	return nil
+}
