@@ -28,8 +28,8 @@ func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedul
 
 // workbook is one workbook being written, with its shared styles.
 type workbook struct {
-	v *view
-	f *excelize.File
+	v  *view
+	f  *excelize.File
 	st styles
 }
 

@@ -23,7 +23,7 @@ func openWorkbook(t *testing.T, term *timetable.Term, s *timetable.Schedule, opt
 
 func TestWorkbookSheets(t *testing.T) {
 	term, s := demoTerm()
-	term.Staff[4].Name = "Grete Strauß-Hohenberg von Allmendingen zu Wiesenthal" // longer than 31
+	term.Staff[4].Name = "Grete Strauß-Hohenberg von Allmendingen zu Wiesenthal"  // longer than 31
 	term.Staff = append(term.Staff, timetable.Staff{ID: "S6", Name: "Room R101"}) // clashes with a room sheet
 	term.Staff = append(term.Staff, timetable.Staff{ID: "S7", Name: "A/B [test]: *?"})
 	extra := []ExtraSheet{{Name: "Quality", Header: []string{"Criterion", "Cost"}, Rows: [][]any{{"staff gaps", 3}, {"travel", 0}}}, {Name: "load"}}
