@@ -62,14 +62,14 @@ type Solver struct {
 	explVars       []uint32 // variables with an explanation in explArena (to reset explIndex)
 
 	// Assumptions and results.
-	assumptions []Lit    // assumptions of the current search, user ones first
-	pending     []Lit    // assumptions given by Assume for the next call
-	userAssume  int      // assumptions[:userAssume] came from the caller
-	core        []Lit    // after Unsatisfiable under assumptions: failed user assumptions
-	failed      []Lit    // after a failed assumption: every assumption literal involved (user and internal)
-	model       []bool   // per atom: value in the last model
-	hasModel    bool     // model holds a model
-	trueLit     Lit      // a literal true at level 0 (0 until needed)
+	assumptions []Lit     // assumptions of the current search, user ones first
+	pending     []Lit     // assumptions given by Assume for the next call
+	userAssume  int       // assumptions[:userAssume] came from the caller
+	core        []Lit     // after Unsatisfiable under assumptions: failed user assumptions
+	failed      []Lit     // after a failed assumption: every assumption literal involved (user and internal)
+	model       []bool    // per atom: value in the last model
+	hasModel    bool      // model holds a model
+	trueLit     Lit       // a literal true at level 0 (0 until needed)
 	weaks       []weakLit // weak constraints as literals (completion.go)
 
 	// Restarts and reductions (search.go, reduce.go).
