@@ -1,0 +1,377 @@
+package encode
+
+import (
+	"sort"
+
+	"github.com/termwright/termwright/solver"
+)
+
+// roomAssigner gives every meeting of a decoded model a room.
+type roomAssigner struct {
+	d        *decoder
+	occ      [][][]int32 // occ[r][p]: meetings holding room r at period p
+	secRooms map[int][]int
+	failed   []int // meetings left without a room
+}
+
+// assignRooms assigns rooms to all meetings that take one: first meetings
+// tied to one room (same-room groups, fixed rooms), then the rest batch by
+// batch in grid order; failed meetings are re-solved exactly per connected
+// component.
+func (d *decoder) assignRooms() error {
+	a := &roomAssigner{d: d, secRooms: map[int][]int{}}
+	nP := len(d.t.Periods)
+	a.occ = make([][][]int32, d.c.rooms.n)
+	for r := range a.occ {
+		a.occ[r] = make([][]int32, nP)
+	}
+	a.preassignGroups()
+	a.preassignSingles()
+	byStart := make([][]int, nP)
+	for i, m := range d.ms {
+		if m.cand >= 0 && m.room < 0 {
+			byStart[m.start] = append(byStart[m.start], i)
+		}
+	}
+	for p := 0; p < nP; p++ {
+		if len(byStart[p]) > 0 {
+			a.batch(byStart[p])
+		}
+	}
+	if len(a.failed) == 0 {
+		return nil
+	}
+	return a.repair()
+}
+
+// free reports whether room r can take meeting mi given the meetings
+// placed so far: available in every period of the meeting, and not held
+// there by a meeting in overlapping weeks.
+func (a *roomAssigner) free(r, mi int) bool {
+	m := &a.d.ms[mi]
+	for q := m.start; q <= m.end; q++ {
+		if a.d.blocked(r, q) {
+			return false
+		}
+		for _, j := range a.occ[r][q] {
+			if a.d.ms[j].weeks&m.weeks != 0 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+func (a *roomAssigner) place(mi, r int) {
+	m := &a.d.ms[mi]
+	m.room = r
+	for q := m.start; q <= m.end; q++ {
+		a.occ[r][q] = append(a.occ[r][q], int32(mi))
+	}
+	for _, x := range a.secRooms[m.sec] {
+		if x == r {
+			return
+		}
+	}
+	a.secRooms[m.sec] = append(a.secRooms[m.sec], r)
+}
+
+func (a *roomAssigner) unplace(mi int) {
+	m := &a.d.ms[mi]
+	if m.room < 0 {
+		return
+	}
+	r := m.room
+	for q := m.start; q <= m.end; q++ {
+		l := a.occ[r][q]
+		for k, j := range l {
+			if int(j) == mi {
+				a.occ[r][q] = append(l[:k], l[k+1:]...)
+				break
+			}
+		}
+	}
+	m.room = -1
+}
+
+// prefer sorts rooms by preference for meeting mi: rooms the section
+// already uses, then rooms that fit (fewest empty seats first), then rooms
+// too small (fewest students over first; only possible under SoftCapacity).
+func (a *roomAssigner) prefer(mi int, rooms []int) {
+	m := &a.d.ms[mi]
+	size := a.d.t.Sections[m.sec].Size
+	used := a.secRooms[m.sec]
+	key := func(r int) (int, int, int) {
+		stab := 1
+		for _, x := range used {
+			if x == r {
+				stab = 0
+			}
+		}
+		c := a.d.t.Rooms[r].Capacity
+		if c >= size {
+			return stab, 0, c - size
+		}
+		return stab, 1, size - c
+	}
+	sort.SliceStable(rooms, func(i, j int) bool {
+		a1, b1, c1 := key(rooms[i])
+		a2, b2, c2 := key(rooms[j])
+		if a1 != a2 {
+			return a1 < a2
+		}
+		if b1 != b2 {
+			return b1 < b2
+		}
+		return c1 < c2
+	})
+}
+
+// preassignGroups gives each same-room group one room that is free for all
+// its meetings, preferring the best fit for its largest section.
+func (a *roomAssigner) preassignGroups() {
+	d := a.d
+	groups := map[int][]int{}
+	var order []int
+	for i, m := range d.ms {
+		if m.group >= 0 && m.cand >= 0 {
+			if _, ok := groups[m.group]; !ok {
+				order = append(order, m.group)
+			}
+			groups[m.group] = append(groups[m.group], i)
+		}
+	}
+	for _, g := range order {
+		ms := groups[g]
+		rooms := append([]int(nil), d.setMembers(d.ms[ms[0]].cand)...)
+		big := ms[0]
+		for _, mi := range ms {
+			if d.t.Sections[d.ms[mi].sec].Size > d.t.Sections[d.ms[big].sec].Size {
+				big = mi
+			}
+		}
+		a.prefer(big, rooms)
+		done := false
+		for _, r := range rooms {
+			ok := true
+			for _, mi := range ms {
+				if !a.free(r, mi) {
+					ok = false
+					break
+				}
+			}
+			if ok {
+				for _, mi := range ms {
+					a.place(mi, r)
+				}
+				done = true
+				break
+			}
+		}
+		if !done {
+			a.failed = append(a.failed, ms...)
+			for _, mi := range ms {
+				d.ms[mi].room = -2 // handled by repair
+			}
+		}
+	}
+}
+
+// preassignSingles places meetings that have exactly one candidate room.
+func (a *roomAssigner) preassignSingles() {
+	d := a.d
+	for i := range d.ms {
+		m := &d.ms[i]
+		if m.cand < 0 || m.room != -1 {
+			continue
+		}
+		rooms := d.setMembers(m.cand)
+		if len(rooms) != 1 {
+			continue
+		}
+		if a.free(rooms[0], i) {
+			a.place(i, rooms[0])
+		} else {
+			m.room = -2
+			a.failed = append(a.failed, i)
+		}
+	}
+}
+
+// batch places the meetings that start in one period: a maximum matching
+// by augmenting paths (Kuhn's method) in which each meeting tries its rooms
+// in order of preference, most constrained meetings first; meetings left
+// over then try rooms shared with meetings in other weeks.
+func (a *roomAssigner) batch(ms []int) {
+	d := a.d
+	pref := make(map[int][]int, len(ms))
+	for _, mi := range ms {
+		var rooms []int
+		for _, r := range d.setMembers(d.ms[mi].cand) {
+			if a.free(r, mi) {
+				rooms = append(rooms, r)
+			}
+		}
+		a.prefer(mi, rooms)
+		pref[mi] = rooms
+	}
+	order := append([]int(nil), ms...)
+	sort.SliceStable(order, func(i, j int) bool { return len(pref[order[i]]) < len(pref[order[j]]) })
+	holder := map[int]int{}
+	assign := map[int]int{}
+	var try func(mi int, seen map[int]bool) bool
+	try = func(mi int, seen map[int]bool) bool {
+		for _, r := range pref[mi] {
+			if seen[r] {
+				continue
+			}
+			seen[r] = true
+			h, taken := holder[r]
+			if !taken || try(h, seen) {
+				holder[r] = mi
+				assign[mi] = r
+				return true
+			}
+		}
+		return false
+	}
+	for _, mi := range order {
+		try(mi, map[int]bool{})
+	}
+	var left []int
+	for _, mi := range order {
+		if r, ok := assign[mi]; ok {
+			a.place(mi, r)
+		} else {
+			left = append(left, mi)
+		}
+	}
+	for _, mi := range left {
+		placed := false
+		for _, r := range pref[mi] {
+			if a.free(r, mi) {
+				a.place(mi, r)
+				placed = true
+				break
+			}
+		}
+		if !placed {
+			d.ms[mi].room = -2
+			a.failed = append(a.failed, mi)
+		}
+	}
+}
+
+// component returns the meetings connected to the failed ones: meetings
+// that share a period with a common candidate room, or a same-room group,
+// transitively. Rooms of other meetings never interact with these.
+func (a *roomAssigner) components() [][]int {
+	d := a.d
+	n := len(d.ms)
+	parent := make([]int, n)
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	union := func(x, y int) { parent[find(x)] = find(y) }
+	nP := len(d.t.Periods)
+	rep := make([]int, d.c.rooms.n)
+	groupRep := map[int]int{}
+	byPeriod := make([][]int, nP)
+	for i, m := range d.ms {
+		if m.cand < 0 {
+			continue
+		}
+		for q := m.start; q <= m.end; q++ {
+			byPeriod[q] = append(byPeriod[q], i)
+		}
+		if m.group >= 0 {
+			if g, ok := groupRep[m.group]; ok {
+				union(i, g)
+			} else {
+				groupRep[m.group] = i
+			}
+		}
+	}
+	for p := 0; p < nP; p++ {
+		for r := range rep {
+			rep[r] = -1
+		}
+		for _, i := range byPeriod[p] {
+			for _, r := range d.setMembers(d.ms[i].cand) {
+				if rep[r] < 0 {
+					rep[r] = i
+				} else {
+					union(i, rep[r])
+				}
+			}
+		}
+	}
+	want := map[int]bool{}
+	for _, i := range a.failed {
+		want[find(i)] = true
+	}
+	byRoot := map[int][]int{}
+	var roots []int
+	for i, m := range d.ms {
+		if m.cand < 0 {
+			continue
+		}
+		r := find(i)
+		if !want[r] {
+			continue
+		}
+		if _, ok := byRoot[r]; !ok {
+			roots = append(roots, r)
+		}
+		byRoot[r] = append(byRoot[r], i)
+	}
+	out := make([][]int, len(roots))
+	for k, r := range roots {
+		out[k] = byRoot[r]
+	}
+	return out
+}
+
+// repair re-solves each component that holds a failed meeting exactly; a
+// component with no assignment yields a nogood over its meetings' starts.
+func (a *roomAssigner) repair() error {
+	var rerr *RoomConflictError
+	for _, comp := range a.components() {
+		for _, mi := range comp {
+			a.unplace(mi)
+		}
+		core, proved, ok := a.exact(comp)
+		if ok {
+			continue
+		}
+		if rerr == nil {
+			rerr = &RoomConflictError{}
+		}
+		if !proved {
+			rerr.Incomplete = true
+		}
+		clause := make([]solver.Lit, 0, len(core))
+		seen := map[int]bool{}
+		for _, mi := range core {
+			m := &a.d.ms[mi]
+			clause = append(clause, solver.Neg(m.atom))
+			if !seen[m.sec] {
+				seen[m.sec] = true
+				rerr.Sections = append(rerr.Sections, a.d.t.Sections[m.sec].ID)
+			}
+		}
+		rerr.nogoods = append(rerr.nogoods, clause)
+	}
+	if rerr != nil {
+		return rerr
+	}
+	return nil
+}
