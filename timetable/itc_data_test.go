@@ -18,6 +18,15 @@ import (
 // copied into the repository.
 func itcDataDir(t testing.TB) string {
 	t.Helper()
+	if d := itcDataDirOrEmpty(); d != "" {
+		return d
+	}
+	t.Skip("ITC-2007 instances not found (set TERMWRIGHT_DATA or place them in ../shared/data/itc2007)")
+	return ""
+}
+
+// itcDataDirOrEmpty is itcDataDir without skipping: "" when absent.
+func itcDataDirOrEmpty() string {
 	var tries []string
 	if d := os.Getenv("TERMWRIGHT_DATA"); d != "" {
 		tries = append(tries, filepath.Join(d, "itc2007"), d)
@@ -35,7 +44,6 @@ func itcDataDir(t testing.TB) string {
 			return d
 		}
 	}
-	t.Skip("ITC-2007 instances not found (set TERMWRIGHT_DATA or place them in ../shared/data/itc2007)")
 	return ""
 }
 
@@ -109,6 +117,7 @@ func TestReadCTTSharedInstances(t *testing.T) {
 				require.Len(t, s.Staff, 1)
 			}
 			assert.Equal(t, lectures, total)
+			assert.Empty(t, Validate(term).Errors(), "the term passes termwright's validation")
 		})
 	}
 }

@@ -39,6 +39,10 @@ const (
 	cttMaxSlots   = 96 // slots of 10 minutes from 08:00 still end by midnight
 )
 
+// cttFirstDay is the first day of the nominal one-week term that ReadCTT
+// gives an instance (the format has no dates): a Monday.
+var cttFirstDay = time.Date(2024, time.January, 1, 0, 0, 0, 0, time.UTC)
+
 // cttSlotLength is the length in minutes of one period of a day with
 // perDay periods: an hour when they fit between 08:00 and midnight,
 // otherwise the 16 hours shared equally.
@@ -82,7 +86,8 @@ type cttFile struct {
 // in error messages and as the Src sheet of every record. On bad input it
 // returns ITCErrors naming every problem as "name:LINE: what is wrong".
 //
-// The mapping: Days × Periods_per_day one-hour periods from 08:00, Monday
+// The mapping: a nominal one-week term from Monday 2024-01-01 (the format
+// has no dates); Days × Periods_per_day one-hour periods from 08:00, Monday
 // first, touching within a day; each course becomes a Section with its
 // teacher as sole Staff, the curricula containing it as Cohorts, Size =
 // students, Meetings = lectures, Length 1, SameDay and MinDays =
@@ -273,7 +278,7 @@ func buildCTT(f *cttFile, name string, errs *itcErrs) *Term {
 	if !ok {
 		return nil
 	}
-	t := &Term{Name: h.name, TimeZone: "UTC", SoftCapacity: true}
+	t := &Term{Name: h.name, TimeZone: "UTC", SoftCapacity: true, FirstDay: cttFirstDay, LastDay: cttFirstDay.AddDate(0, 0, h.days-1)}
 	t.Periods = cttPeriods(h, name)
 	checkCTTCount(f, errs, cttCourses, "Courses", h.courses)
 	checkCTTCount(f, errs, cttRooms, "Rooms", h.rooms)

@@ -28,6 +28,9 @@ func TestReadCTTMapping(t *testing.T) {
 	term := readTiny(t)
 	assert.Equal(t, "Tiny", term.Name)
 	assert.True(t, term.SoftCapacity)
+	assert.Equal(t, time.Monday, term.FirstDay.Weekday())
+	assert.Equal(t, 1, term.TeachingWeeks())
+	assert.Equal(t, time.Tuesday, term.LastDay.Weekday(), "two days")
 
 	t.Run("grid", func(t *testing.T) {
 		require.Len(t, term.Periods, 6)
