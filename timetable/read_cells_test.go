@@ -70,9 +70,9 @@ func TestParseClock(t *testing.T) {
 		{"13:30:00", 810, true},
 		{"00:00", 0, true},
 		{"24:00", 1440, true},
-		{"0.375", 540, true},              // ECMA-376 Part 1 §18.17.4: a time cell is a fraction of a day
-		{"0.5625", 810, true},             // 13:30
-		{"0.395833333333333", 570, true},  // 09:30, as stored with float rounding
+		{"0.375", 540, true},               // ECMA-376 Part 1 §18.17.4: a time cell is a fraction of a day
+		{"0.5625", 810, true},              // 13:30
+		{"0.395833333333333", 570, true},   // 09:30, as stored with float rounding
 		{"0.41666666666666669", 600, true}, // 10:00
 		{"9.00", 0, false},
 		{"9", 0, false},

@@ -66,9 +66,9 @@ func TestReadGoodTerm(t *testing.T) {
 // counts days in the 1900 date base system, the fraction is the time of day).
 func TestReadExcelCells(t *testing.T) {
 	sheets := applyEdits(t, goodSheets(),
-		cellEdit{sheet: "Periods", cell: "B2", value: "#n:0.375"},            // 09:00
+		cellEdit{sheet: "Periods", cell: "B2", value: "#n:0.375"},             // 09:00
 		cellEdit{sheet: "Periods", cell: "C2", value: "#n:0.416666666666667"}, // 10:00
-		cellEdit{sheet: "Term", cell: "B3", value: "#n:46643"},              // 2027-09-13
+		cellEdit{sheet: "Term", cell: "B3", value: "#n:46643"},                // 2027-09-13
 		cellEdit{sheet: "Rooms", cell: "B2", value: "#n:40"},
 	)
 	term, ps := readSheets(t, sheets)
