@@ -1,0 +1,392 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+	"time"
+
+	"github.com/spf13/cobra"
+	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+func init() { register("bench", newBenchCmd) }
+
+// benchOptions are the flags of `termwright bench`.
+type benchOptions struct {
+	timeLimit time.Duration // per instance, compile and search together
+	best      string        // CSV of best-known results; "" = none
+	out       string        // folder for <instance>.sol files; "" = none
+	json      bool          // print the results as JSON
+	seed      int64         // engine seed
+	force     bool          // replace existing .sol files
+}
+
+// benchSolve is the pipeline under measurement; tests replace it.
+var benchSolve = encode.Solve
+
+func newBenchCmd(e *env) *cobra.Command {
+	o := &benchOptions{}
+	cmd := &cobra.Command{
+		Use:   "bench DIR",
+		Short: "Measure the solver on a folder of public benchmark instances (.ctt)",
+		Long: "bench runs every .ctt file in DIR (the ITC-2007 curriculum-based course\n" +
+			"timetabling format) through the same compile, search, verify and check steps\n" +
+			"as a real term, with --time-limit per instance. It prints one row per\n" +
+			"instance: size (courses/lectures/rooms/curricula), whether the timetable meets\n" +
+			"every hard constraint, its cost under the competition's definition, the lower\n" +
+			"bound proved (\"-\" when none), the time to the first feasible timetable and\n" +
+			"the time of the best. With --best, each cost is compared with the best known\n" +
+			"and the geometric mean of the ratios is printed. With --out, each timetable is\n" +
+			"written as SOLDIR/<instance>.sol in the competition's solution format\n" +
+			"(\"course room day period\" per lecture), never over an existing file unless\n" +
+			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
+			"fails, and 0 otherwise (instances left without a timetable show in the table).",
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error { return runBench(cmd.Context(), e, o, args[0]) },
+	}
+	f := cmd.Flags()
+	f.DurationVar(&o.timeLimit, "time-limit", 60*time.Second, "time allowed per instance")
+	f.StringVar(&o.best, "best", "", "CSV of best-known costs (columns instance,best[,lower_bound,source])")
+	f.StringVar(&o.out, "out", "", "folder to write <instance>.sol solutions to")
+	f.BoolVar(&o.json, "json", false, "print the results as JSON")
+	f.Int64Var(&o.seed, "seed", 1, "engine seed (the same seed repeats a run)")
+	f.BoolVar(&o.force, "force", false, "replace existing .sol files in --out")
+	return cmd
+}
+
+// benchRow is the result for one instance; its JSON form is stable.
+type benchRow struct {
+	Instance  string `json:"instance"`
+	Courses   int    `json:"courses"`
+	Lectures  int    `json:"lectures"`
+	Rooms     int    `json:"rooms"`
+	Curricula int    `json:"curricula"`
+	// Status is the engine's outcome: "satisfiable", "unsatisfiable",
+	// "unknown" (time limit) or "error".
+	Status   string              `json:"status"`
+	Feasible bool                `json:"feasible"` // a timetable with no hard violation (Check and the competition's rules)
+	Cost     *int                `json:"cost"`     // competition cost; null without a timetable
+	Parts    *timetable.ITCParts `json:"parts,omitempty"`
+	Hard     *timetable.ITCHard  `json:"hard,omitempty"`
+	Bound    *int                `json:"lower_bound"` // proved lower bound; null when none
+	// FirstMS and BestMS are wall-clock milliseconds from the start of the
+	// instance to the first feasible and to the best timetable.
+	FirstMS   *int64   `json:"first_feasible_ms"`
+	BestMS    *int64   `json:"best_ms"`
+	TotalMS   int64    `json:"total_ms"`
+	BestKnown *int     `json:"best_known,omitempty"`
+	Ratio     *float64 `json:"ratio,omitempty"` // cost / best known, when the best known is positive
+	Solution  string   `json:"solution,omitempty"`
+	Error     string   `json:"error,omitempty"`
+}
+
+// benchReport is the JSON output of bench.
+type benchReport struct {
+	TimeLimitMS int64      `json:"time_limit_ms"`
+	Seed        int64      `json:"seed"`
+	Instances   []benchRow `json:"instances"`
+	// GeoMeanRatio is the geometric mean of Ratio over the instances that
+	// have one; null when none has.
+	GeoMeanRatio *float64 `json:"geomean_ratio"`
+	RatioCount   int      `json:"ratio_count"` // instances in the geometric mean
+}
+
+func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
+	if ctx == nil {
+		ctx = context.Background()
+	}
+	if o.timeLimit <= 0 {
+		return withCode(exitError, "--time-limit must be positive, e.g. 60s")
+	}
+	files, err := filepath.Glob(filepath.Join(dir, "*.ctt"))
+	if err != nil || len(files) == 0 {
+		if _, serr := os.Stat(dir); serr != nil {
+			return withCode(exitError, fmt.Sprintf("cannot read %s: %v", dir, serr))
+		}
+		return withCode(exitError, fmt.Sprintf("%s holds no .ctt files; give the folder of benchmark instances", dir))
+	}
+	sort.Strings(files)
+	best, err := benchReadBest(o.best)
+	if err != nil {
+		return withCode(exitError, err.Error())
+	}
+	if err := benchPrepareOut(o, files); err != nil {
+		return withCode(exitError, err.Error())
+	}
+	rep := benchReport{TimeLimitMS: o.timeLimit.Milliseconds(), Seed: o.seed}
+	failed := false
+	for _, path := range files {
+		if ctx.Err() != nil {
+			fmt.Fprintln(e.stderr, "bench: interrupted; results so far follow")
+			break
+		}
+		row := benchOne(ctx, e, o, path)
+		if b, ok := best[row.Instance]; ok {
+			row.BestKnown = &b.Best
+			if row.Cost != nil && row.Feasible && b.Best > 0 {
+				r := float64(*row.Cost) / float64(b.Best)
+				row.Ratio = &r
+			}
+		}
+		failed = failed || row.Status == "error"
+		rep.Instances = append(rep.Instances, row)
+	}
+	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(rep.Instances)
+	if o.json {
+		enc := json.NewEncoder(e.stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(rep); err != nil {
+			return err
+		}
+	} else {
+		benchWriteTable(e.stdout, rep, o.best != "")
+	}
+	if failed {
+		return withCode(exitError, "some instances could not be run; see the error column")
+	}
+	return nil
+}
+
+// benchOne reads, solves, checks and writes one instance.
+func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRow {
+	name := strings.TrimSuffix(filepath.Base(path), ".ctt")
+	row := benchRow{Instance: name, Status: "error"}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		row.Error = err.Error()
+		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
+		return row
+	}
+	term, err := timetable.ReadCTT(bytes.NewReader(data), filepath.Base(path))
+	if err != nil {
+		row.Error = "cannot read the instance"
+		fmt.Fprintf(e.stderr, "bench: %v\n", err)
+		return row
+	}
+	row.Courses, row.Rooms, row.Curricula = len(term.Sections), len(term.Rooms), len(term.Cohorts)
+	for _, s := range term.Sections {
+		row.Lectures += s.Meetings
+	}
+	fmt.Fprintf(e.stderr, "bench: %s: %d courses, %d lectures; solving for up to %s\n", name, row.Courses, row.Lectures, o.timeLimit)
+	ictx, cancel := context.WithTimeout(ctx, o.timeLimit)
+	defer cancel()
+	start := e.now()
+	res, err := benchSolve(ictx, term, encode.SolveOptions{Seed: o.seed})
+	elapsed := e.now().Sub(start)
+	row.TotalMS = elapsed.Milliseconds()
+	if err != nil {
+		row.Error = err.Error()
+		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
+		return row
+	}
+	row.Status = res.Status.String()
+	if res.Status != solver.Satisfiable || res.Schedule == nil {
+		fmt.Fprintf(e.stderr, "bench: %s: %s after %s\n", name, row.Status, benchDuration(elapsed))
+		return row
+	}
+	benchScore(e, &row, term, res.Schedule, elapsed)
+	if o.out != "" {
+		file := filepath.Join(o.out, name+".sol")
+		if err := benchWriteSolution(file, term, res.Schedule); err != nil {
+			row.Status, row.Error = "error", err.Error()
+			fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
+			return row
+		}
+		row.Solution = file
+	}
+	fmt.Fprintf(e.stderr, "bench: %s: cost %d after %s\n", name, *row.Cost, benchDuration(elapsed))
+	return row
+}
+
+// benchScore fills feasibility, cost and times for a timetable found after
+// elapsed. The engine returns its first timetable, so the first and the
+// best are the same.
+func benchScore(e *env, row *benchRow, term *timetable.Term, s *timetable.Schedule, elapsed time.Duration) {
+	hard := timetable.ITCHardViolations(term, s)
+	checked := timetable.HardViolations(timetable.Check(term, s))
+	row.Feasible = hard.Total() == 0 && len(checked) == 0
+	if hard.Total() == 0 && len(checked) > 0 {
+		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
+	}
+	total, parts := timetable.ITCCost(term, s)
+	row.Cost, row.Parts, row.Hard = &total, &parts, &hard
+	if row.Feasible {
+		var own int64
+		for _, c := range timetable.Cost(term, s, nil).Criteria {
+			own += c.Cost
+		}
+		if own != int64(total) {
+			fmt.Fprintf(e.stderr, "bench: %s: termwright's cost %d differs from the competition's %d; please report this\n", row.Instance, own, total)
+		}
+		ms := elapsed.Milliseconds()
+		row.FirstMS, row.BestMS = &ms, &ms
+	}
+}
+
+// benchReadBest reads the best-known table, or nothing when path is "".
+func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
+	if path == "" {
+		return nil, nil
+	}
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, fmt.Errorf("cannot read --best: %v", err)
+	}
+	defer f.Close()
+	return timetable.ReadITCBest(f, filepath.Base(path))
+}
+
+// benchPrepareOut makes the solution folder and refuses, before any
+// instance runs, to replace existing solutions without --force.
+func benchPrepareOut(o *benchOptions, files []string) error {
+	if o.out == "" {
+		return nil
+	}
+	if err := os.MkdirAll(o.out, 0o755); err != nil {
+		return fmt.Errorf("cannot make the solution folder: %v", err)
+	}
+	if o.force {
+		return nil
+	}
+	var exist []string
+	for _, f := range files {
+		sol := filepath.Join(o.out, strings.TrimSuffix(filepath.Base(f), ".ctt")+".sol")
+		if _, err := os.Stat(sol); err == nil {
+			exist = append(exist, sol)
+		} else if !errors.Is(err, fs.ErrNotExist) {
+			return fmt.Errorf("cannot use %s: %v", sol, err)
+		}
+	}
+	if len(exist) > 0 {
+		return fmt.Errorf("%s already exists (and %d more) — choose another --out folder, or add --force to replace them", exist[0], len(exist)-1)
+	}
+	return nil
+}
+
+// benchWriteSolution writes the timetable to a temporary file beside path
+// and renames it into place.
+func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule) error {
+	var buf bytes.Buffer
+	if err := timetable.WriteITCSolution(&buf, term, s); err != nil {
+		return err
+	}
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return fmt.Errorf("cannot write %s: %v", path, err)
+	}
+	_, werr := tmp.Write(buf.Bytes())
+	if cerr := tmp.Close(); werr == nil {
+		werr = cerr
+	}
+	if werr == nil {
+		werr = os.Chmod(tmp.Name(), 0o644)
+	}
+	if werr == nil {
+		werr = os.Rename(tmp.Name(), path)
+	}
+	if werr != nil {
+		os.Remove(tmp.Name())
+		return fmt.Errorf("cannot write %s: %v", path, werr)
+	}
+	return nil
+}
+
+// benchGeoMean is the geometric mean of the rows' ratios and how many
+// rows have one.
+func benchGeoMean(rows []benchRow) (*float64, int) {
+	sum, n, zero := 0.0, 0, false
+	for _, r := range rows {
+		if r.Ratio == nil {
+			continue
+		}
+		n++
+		if *r.Ratio == 0 {
+			zero = true // a zero cost against a positive best makes the mean 0
+			continue
+		}
+		sum += math.Log(*r.Ratio)
+	}
+	if n == 0 {
+		return nil, 0
+	}
+	g := 0.0
+	if !zero {
+		g = math.Exp(sum / float64(n))
+	}
+	return &g, n
+}
+
+// benchWriteTable prints the results as an aligned table.
+func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	head := "instance\tcourses/lectures/rooms/curricula\tfeasible\tcost\tlower bound\tfirst feasible\tbest at"
+	if withBest {
+		head += "\tbest known\tratio"
+	}
+	fmt.Fprintln(tw, head)
+	for _, r := range rep.Instances {
+		feasible := "no"
+		switch {
+		case r.Status == "error":
+			feasible = "error"
+		case r.Feasible:
+			feasible = "yes"
+		case r.Status != solver.Satisfiable.String():
+			feasible = "no (" + r.Status + ")"
+		}
+		line := strings.Join([]string{
+			r.Instance,
+			fmt.Sprintf("%d/%d/%d/%d", r.Courses, r.Lectures, r.Rooms, r.Curricula),
+			feasible, intOrDash(r.Cost), intOrDash(r.Bound), msOrDash(r.FirstMS), msOrDash(r.BestMS),
+		}, "\t")
+		if withBest {
+			ratio := "-"
+			if r.Ratio != nil {
+				ratio = strconv.FormatFloat(*r.Ratio, 'f', 2, 64)
+			}
+			line += "\t" + intOrDash(r.BestKnown) + "\t" + ratio
+		}
+		fmt.Fprintln(tw, line)
+	}
+	tw.Flush()
+	if withBest {
+		if rep.GeoMeanRatio == nil {
+			fmt.Fprintln(w, "geometric mean of cost / best known: - (no instance with a feasible timetable and a positive best known)")
+		} else {
+			fmt.Fprintf(w, "geometric mean of cost / best known: %.2f over %d of %d instances\n", *rep.GeoMeanRatio, rep.RatioCount, len(rep.Instances))
+		}
+	}
+}
+
+func intOrDash(v *int) string {
+	if v == nil {
+		return "-"
+	}
+	return strconv.Itoa(*v)
+}
+
+func msOrDash(v *int64) string {
+	if v == nil {
+		return "-"
+	}
+	return benchDuration(time.Duration(*v) * time.Millisecond)
+}
+
+// benchDuration prints a duration in seconds with two decimals ("1.25s").
+func benchDuration(d time.Duration) string {
+	return strconv.FormatFloat(d.Seconds(), 'f', 2, 64) + "s"
+}
