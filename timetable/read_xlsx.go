@@ -153,6 +153,13 @@ func readXLSXSheets(data []byte, name string) ([]*rawSheet, bool, error) {
 // readXLSXSheet streams one sheet's rows, refusing sheets longer than
 // maxSheetRows.
 func readXLSXSheet(f *excelize.File, sheet string) (*rawSheet, error) {
+	tooLong := fmt.Errorf("has more than %d rows — a term workbook holds far fewer; delete unused rows", maxSheetRows)
+	if dim, err := f.GetSheetDimension(sheet); err == nil {
+		_, last, _ := strings.Cut(dim, ":")
+		if _, row, err := excelize.CellNameToCoordinates(last); err == nil && row > maxSheetRows {
+			return nil, tooLong // the sheet says how far it reaches; refuse before streaming
+		}
+	}
 	rows, err := f.Rows(sheet)
 	if err != nil {
 		return nil, fmt.Errorf("cannot be read (%s) — open and save the workbook again", oneLine(err))
@@ -163,7 +170,7 @@ func readXLSXSheet(f *excelize.File, sheet string) (*rawSheet, error) {
 	for rows.Next() {
 		n++
 		if n > maxSheetRows {
-			return nil, fmt.Errorf("has more than %d rows — a term workbook holds far fewer; delete unused rows", maxSheetRows)
+			return nil, tooLong
 		}
 		cols, err := rows.Columns(excelize.Options{RawCellValue: true})
 		if err != nil {
