@@ -1,6 +1,7 @@
 package timetable
 
 import (
+	"strconv"
 	"strings"
 )
 
@@ -226,7 +227,7 @@ func blankRow(r []string) bool {
 func quoteList(names []string) string {
 	q := make([]string, len(names))
 	for i, n := range names {
-		q[i] = `"` + n + `"`
+		q[i] = strconv.Quote(n)
 	}
 	switch len(q) {
 	case 0:

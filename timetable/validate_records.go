@@ -1,5 +1,7 @@
 package timetable
 
+import "strconv"
+
 // largeRoom is the capacity above which a room gets a caution to check its
 // posted legal occupancy (common practice: few teaching rooms seat more).
 const largeRoom = 500
@@ -157,12 +159,12 @@ func (v *validator) blocked(s *Section, p int) (string, bool) {
 	}
 	for _, id := range s.Staff {
 		if m := v.hardStaff[id]; m != nil && m[p] {
-			return "staff " + `"` + id + `"`, true
+			return "staff " + strconv.Quote(id), true
 		}
 	}
 	for _, id := range s.Cohorts {
 		if m := v.hardCohort[id]; m != nil && m[p] {
-			return "cohort " + `"` + id + `"`, true
+			return "cohort " + strconv.Quote(id), true
 		}
 	}
 	return "", false
