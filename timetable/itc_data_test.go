@@ -2,6 +2,7 @@ package timetable
 
 import (
 	"bufio"
+	"bytes"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -136,4 +137,19 @@ func TestReadCTTComp01Sizes(t *testing.T) {
 	assert.Equal(t, 6, len(term.Rooms))
 	assert.Equal(t, 30, len(term.Periods))
 	assert.Equal(t, 14, len(term.Cohorts))
+}
+
+func BenchmarkReadCTT(b *testing.B) {
+	dir := itcDataDir(b)
+	data, err := os.ReadFile(filepath.Join(dir, "comp07.ctt"))
+	if err != nil {
+		b.Skip("comp07.ctt not found")
+	}
+	b.ReportAllocs()
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ReadCTT(bytes.NewReader(data), "comp07.ctt"); err != nil {
+			b.Fatal(err)
+		}
+	}
 }

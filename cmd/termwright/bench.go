@@ -31,6 +31,7 @@ type benchOptions struct {
 	best      string        // CSV of best-known results; "" = none
 	out       string        // folder for <instance>.sol files; "" = none
 	json      bool          // print the results as JSON
+	jsonOut   string        // also write the JSON results to this file; "" = no
 	seed      int64         // engine seed
 	force     bool          // replace existing .sol files
 }
@@ -63,6 +64,7 @@ func newBenchCmd(e *env) *cobra.Command {
 	f.StringVar(&o.best, "best", "", "CSV of best-known costs (columns instance,best[,lower_bound,source])")
 	f.StringVar(&o.out, "out", "", "folder to write <instance>.sol solutions to")
 	f.BoolVar(&o.json, "json", false, "print the results as JSON")
+	f.StringVar(&o.jsonOut, "json-out", "", "also write the results as JSON to this file")
 	f.Int64Var(&o.seed, "seed", 1, "engine seed (the same seed repeats a run)")
 	f.BoolVar(&o.force, "force", false, "replace existing .sol files in --out")
 	return cmd
@@ -127,6 +129,11 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 	if err := benchPrepareOut(o, files); err != nil {
 		return withCode(exitError, err.Error())
 	}
+	if o.jsonOut != "" && !o.force {
+		if _, err := os.Stat(o.jsonOut); err == nil {
+			return withCode(exitError, fmt.Sprintf("%s already exists — choose another --json-out file, or add --force to replace it", o.jsonOut))
+		}
+	}
 	rep := benchReport{TimeLimitMS: o.timeLimit.Milliseconds(), Seed: o.seed}
 	failed := false
 	for _, path := range files {
@@ -146,10 +153,19 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		rep.Instances = append(rep.Instances, row)
 	}
 	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(rep.Instances)
+	var js bytes.Buffer
+	enc := json.NewEncoder(&js)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(rep); err != nil {
+		return err
+	}
+	if o.jsonOut != "" {
+		if err := benchWriteFile(o.jsonOut, js.Bytes()); err != nil {
+			return withCode(exitError, err.Error())
+		}
+	}
 	if o.json {
-		enc := json.NewEncoder(e.stdout)
-		enc.SetIndent("", "  ")
-		if err := enc.Encode(rep); err != nil {
+		if _, err := e.stdout.Write(js.Bytes()); err != nil {
 			return err
 		}
 	} else {
@@ -277,18 +293,23 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 	return nil
 }
 
-// benchWriteSolution writes the timetable to a temporary file beside path
-// and renames it into place.
+// benchWriteSolution writes the timetable in the competition's format.
 func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule) error {
 	var buf bytes.Buffer
 	if err := timetable.WriteITCSolution(&buf, term, s); err != nil {
 		return err
 	}
+	return benchWriteFile(path, buf.Bytes())
+}
+
+// benchWriteFile writes data to a temporary file beside path and renames
+// it into place, so that a failure never leaves a half-written file.
+func benchWriteFile(path string, data []byte) error {
 	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
 	if err != nil {
 		return fmt.Errorf("cannot write %s: %v", path, err)
 	}
-	_, werr := tmp.Write(buf.Bytes())
+	_, werr := tmp.Write(data)
 	if cerr := tmp.Close(); werr == nil {
 		werr = cerr
 	}

@@ -216,3 +216,21 @@ func TestBenchRealSolveTiny(t *testing.T) {
 	require.NotNil(t, r.Cost)
 	assert.NotContains(t, stderr, "differs")
 }
+
+func TestBenchJSONOut(t *testing.T) {
+	dir := benchDir(t)
+	file := filepath.Join(t.TempDir(), "results.json")
+	code, out, stderr := runBenchWith(t, fakeSolve(t, solver.Satisfiable, nil), dir, "--json-out", file)
+	require.Equal(t, exitOK, code, stderr)
+	assert.True(t, strings.HasPrefix(out, "instance "), "the table still goes to stdout")
+	data, err := os.ReadFile(file)
+	require.NoError(t, err)
+	var rep benchReport
+	require.NoError(t, json.Unmarshal(data, &rep))
+	require.Len(t, rep.Instances, 1)
+	assert.Equal(t, 14, *rep.Instances[0].Cost)
+
+	code, _, stderr = runBenchWith(t, fakeSolve(t, solver.Satisfiable, nil), dir, "--json-out", file)
+	assert.Equal(t, exitError, code)
+	assert.Contains(t, stderr, "already exists")
+}
