@@ -1,0 +1,44 @@
+// Package samples builds terms for demonstration and measurement: the demo
+// workbook of an invented institution (Quillmere Polytechnic, see
+// demo-term.xlsx and the demo folder of CSV files) and a seeded generator of
+// synthetic terms of any size.
+//
+// # Generator
+//
+// Generate and GenerateWithWitness take a Config (section count and seed,
+// plus optional grid and calendar sizes) and return a timetable.Term with
+// realistic proportions: departments with year groups of cohorts, courses
+// made of a lecture and per-cohort laboratory or tutorial sections, electives,
+// staff who teach one to four sections, rooms in buildings with features
+// (lab, projector, step-free) sized to the sections, students enrolled through
+// their cohort plus sometimes an elective, unavailabilities, fixed meetings,
+// relations and criterion weights.
+//
+// Feasibility is by construction. The generator first places every section
+// in a hidden reference timetable (the witness) that respects rooms,
+// capacities, features, week sets and clashes of staff, cohorts and rooms,
+// and only then derives everything that restricts a timetable — hard
+// unavailabilities, fixed meetings, hard relations, staff limits, allowed
+// room lists — from what the witness leaves free. So the witness satisfies
+// every hard requirement of the term it comes with, and the term is feasible.
+//
+// # Determinism
+//
+// Output depends only on the Config: randomness comes from a PCG source
+// seeded with Config.Seed, no map is iterated to build output, and nothing
+// reads the clock. Equal configs give equal terms and byte-identical
+// workbooks. Changing the generator's code changes the output; the demo
+// workbook test catches that and `go generate ./samples` (or
+// `go test ./samples -run TestDemo -update`) rewrites the files.
+//
+// # Local names
+//
+// In this package "plan" data (dept, yearGroup, secInfo) describe how a
+// section came to be; "occ" is witness occupancy: per resource and period,
+// the set of teaching weeks in use; "busy" is that occupancy with weeks
+// ignored.
+//
+// Room capacities generated here are invented. Real capacities must not
+// exceed each room's posted legal occupancy, and staff limits follow local
+// agreements and institution policy.
+package samples
