@@ -77,9 +77,9 @@ type genStats struct {
 
 type dept struct {
 	sub      subject
-	building int    // home building
-	courseNo [5]int // courses made so far per year (1..4)
-	groupNo  [5]int // cohorts made so far per year
+	building int      // home building
+	courseNo [5]int   // courses made so far per year (1..4)
+	groupNo  [5]int   // cohorts made so far per year
 	titles   []string // distinct course titles so far (at most 50: 5 topics × 10 forms)
 }
 
