@@ -2,6 +2,7 @@ package timetable
 
 import (
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -80,4 +81,43 @@ func TestCheckSeesITCHardViolations(t *testing.T) {
 	for _, r := range []string{RuleMeetings, RuleCohortClash, RuleUnavailable, RuleSelfOverlap} {
 		assert.True(t, rules[r], "Check reports %q", r)
 	}
+}
+
+// A zero-cost timetable of the competition's toy instance, made by hand
+// (best-known.csv gives 0 for toy). Rooms: A (32 seats) holds SceCosC (30)
+// and Geotec (18), B (50) holds ArcTec (42) and TecCos (40), so nothing is
+// over capacity and each course keeps one room. Days: SceCosC 0, 2, 4 (3 of
+// 3); ArcTec 0, 1, 3 (>= 2); TecCos every day (>= 4); Geotec every day
+// (>= 4). Curriculum Cur1 {SceCosC, ArcTec, TecCos} per day: d0 p0-p2,
+// d1 p0-p1, d2 p1-p2, d3 p1-p2, d4 p0-p1, each a run of two or three, so no
+// lecture is isolated; Cur2 {TecCos, Geotec}: d0 p1-p2, d1 p1-p2, d2 p2-p3,
+// d3 p0-p1, d4 p1-p2. TecCos avoids d2 p0-p1 and d3 p2-p3, ArcTec avoids d4.
+const toyZero = `SceCosC A 0 0
+SceCosC A 2 1
+SceCosC A 4 0
+ArcTec B 0 2
+ArcTec B 1 0
+ArcTec B 3 2
+TecCos B 0 1
+TecCos B 1 1
+TecCos B 2 2
+TecCos B 3 1
+TecCos B 4 1
+Geotec A 0 2
+Geotec A 1 2
+Geotec A 2 3
+Geotec A 3 0
+Geotec A 4 2
+`
+
+func TestToyZeroCostSolution(t *testing.T) {
+	term := readShared(t, itcDataDir(t), "toy")
+	s, err := ReadITCSolution(strings.NewReader(toyZero), "toy.sol", term)
+	require.NoError(t, err)
+	assert.Equal(t, ITCHard{}, ITCHardViolations(term, s))
+	assert.Empty(t, HardViolations(Check(term, s)))
+	total, parts := ITCCost(term, s)
+	assert.Equal(t, 0, total, "%+v", parts)
+	_, own := costParts(Cost(term, s, nil))
+	assert.Equal(t, 0, own)
 }
