@@ -1,0 +1,263 @@
+package export
+
+import (
+	"math"
+	"strings"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// gridGeo is the geometry of a weekly grid on a page, in mm.
+type gridGeo struct {
+	x0, y0 float64 // top-left corner (of the time label column)
+	labelW float64 // width of the time label column
+	colW   float64 // width of one day column
+	headH  float64 // height of the day header row
+	rowH   float64 // height of one grid row
+}
+
+func (d *pdfDoc) geo() gridGeo {
+	v := d.v
+	g := gridGeo{x0: pdfMargin, y0: pdfGridTop, labelW: 16, headH: 6.5}
+	g.colW = (d.w - 2*pdfMargin - g.labelW) / float64(max(len(v.days), 1))
+	g.rowH = (d.h - pdfFootH - pdfGridTop - g.headH) / float64(max(len(v.rows), 1))
+	return g
+}
+
+func (g gridGeo) colX(c int) float64 { return g.x0 + g.labelW + float64(c)*g.colW }
+func (g gridGeo) rowY(r int) float64 { return g.y0 + g.headH + float64(r)*g.rowH }
+
+// roomCaution is the footer note of room pages.
+const roomCaution = "Seat counts are as entered; the room's posted legal occupancy and local codes take precedence."
+
+// gridPage draws one subject's weekly grid on a new page.
+func (d *pdfDoc) gridPage(who Subject, items []int) {
+	note := ""
+	if who.Kind == timetable.WhoRoom {
+		note = roomCaution
+	}
+	d.page(note)
+	detail := d.v.detail(who)
+	if len(items) == 0 {
+		detail += " · no meetings this term"
+	}
+	d.header(d.v.title(who), detail)
+	g := d.geo()
+	d.gridFrame(g)
+	for _, cl := range d.v.clusters(items) {
+		for _, b := range d.v.boxes(cl) {
+			d.block(g, b)
+		}
+	}
+}
+
+// gridFrame draws the empty grid: day headers, time labels, cells, hatched
+// cells where a day has no such period, and a heavy rule at breaks.
+func (d *pdfDoc) gridFrame(g gridGeo) {
+	f, v := d.f, d.v
+	bottom := g.rowY(len(v.rows))
+	right := g.colX(len(v.days))
+	f.SetFillColor(215, 215, 215)
+	f.SetDrawColor(120, 120, 120)
+	f.SetLineWidth(0.2)
+	f.Rect(g.x0, g.y0, right-g.x0, g.headH, "FD")
+	d.font("B", 8.5)
+	for c, day := range v.days {
+		name := day.String()
+		if d.f.GetStringWidth(name) > g.colW-2 {
+			name = timetable.DayName(day)
+		}
+		d.text(g.colX(c)+(g.colW-f.GetStringWidth(name))/2, g.y0+g.headH-2, name)
+	}
+	f.SetFillColor(242, 242, 242)
+	f.Rect(g.x0, g.y0+g.headH, g.labelW, bottom-g.y0-g.headH, "FD")
+	for r, row := range v.rows {
+		y := g.rowY(r)
+		if g.rowH >= 6.5 {
+			d.font("B", 8)
+			d.text(g.x0+1.5, y+3.4, row.from.String())
+			d.font("", 6.5)
+			d.gray(80)
+			d.text(g.x0+1.5, y+6.2, "to "+row.to.String())
+			d.gray(0)
+		} else {
+			size := math.Min(6, g.rowH/ptToMM*0.8)
+			d.font("", size)
+			d.text(g.x0+1, y+size*ptToMM+0.3, row.from.String()+"–"+row.to.String())
+		}
+		for c := range v.days {
+			if !v.has[r][c] {
+				d.hatch(g.colX(c), y, g.colW, g.rowH)
+			}
+		}
+	}
+	f.SetDrawColor(170, 170, 170)
+	f.SetLineWidth(0.15)
+	for r := 1; r < len(v.rows); r++ {
+		f.Line(g.x0, g.rowY(r), right, g.rowY(r))
+	}
+	for c := 0; c <= len(v.days); c++ {
+		f.Line(g.colX(c), g.y0, g.colX(c), bottom)
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.SetLineWidth(0.6)
+	for r := 1; r < len(v.rows); r++ {
+		if v.rows[r-1].to != v.rows[r].from { // a break (lunch, ...) between periods
+			f.Line(g.x0, g.rowY(r), right, g.rowY(r))
+		}
+	}
+	f.SetLineWidth(0.3)
+	f.Rect(g.x0, g.y0, right-g.x0, bottom-g.y0, "D")
+}
+
+// hatch fills a cell with thin diagonal lines: "no such period that day".
+func (d *pdfDoc) hatch(x, y, w, h float64) {
+	f := d.f
+	f.ClipRect(x, y, w, h, false)
+	f.SetDrawColor(200, 200, 200)
+	f.SetLineWidth(0.15)
+	for s := -h; s < w; s += 2.2 {
+		f.Line(x+s, y+h, x+s+h, y)
+	}
+	f.ClipEnd()
+}
+
+// blockSizes are the font sizes (points) tried for block text, largest first.
+var blockSizes = []float64{8.5, 8, 7.5, 7, 6.5, 6, 5.5}
+
+// block draws one meeting: a framed grey block with a dark bar on its left
+// edge (white with a dashed frame and a lighter bar when the section meets
+// only some weeks), holding section, times, weeks, title, room and staff as
+// space allows, at the largest size that shows it all (or most of it).
+func (d *pdfDoc) block(g gridGeo, b box) {
+	f, v := d.f, d.v
+	m := &v.meetings[b.item]
+	areaTop := g.rowY(b.r0)
+	areaH := float64(b.r1-b.r0+1) * g.rowH
+	x := g.colX(v.dayCol[m.day]) + b.x0*g.colW + 0.5
+	w := (b.x1-b.x0)*g.colW - 1
+	y := areaTop + b.y0*areaH + 0.5
+	h := (b.y1-b.y0)*areaH - 1
+	weeks := v.weeks(m.sec)
+	f.SetLineWidth(0.3)
+	f.SetDrawColor(0, 0, 0)
+	if weeks != "" {
+		f.SetFillColor(252, 252, 252)
+		f.SetDashPattern([]float64{1.2, 0.8}, 0)
+	} else {
+		f.SetFillColor(226, 226, 226)
+	}
+	f.Rect(x, y, w, h, "FD")
+	f.SetDashPattern(nil, 0)
+	bar := 1.2
+	if weeks != "" {
+		f.SetFillColor(150, 150, 150)
+	} else {
+		f.SetFillColor(60, 60, 60)
+	}
+	f.Rect(x, y, bar, h, "F")
+
+	tx, tw := x+bar+1, w-bar-1.8
+	size, lh, n := d.blockSize(m, weeks, tw, h)
+	lines := d.blockLines(m, weeks, size, tw, n)
+	f.ClipRect(x, y, w, h, false)
+	for i, l := range lines {
+		base := y + 0.6 + float64(i)*lh + size*ptToMM*0.92
+		d.font(l.style, size)
+		d.text(tx, base, l.text)
+		if l.tail != "" {
+			at := tx + f.GetStringWidth(l.text)
+			d.font("", size)
+			d.text(at, base, l.tail)
+		}
+	}
+	f.ClipEnd()
+}
+
+// blockSize picks the font size, line height and line count for a block of
+// width w and height h: the largest size at which all the text fits, else
+// the largest giving at least four lines (three, two), else the smallest.
+func (d *pdfDoc) blockSize(m *meeting, weeks string, w, h float64) (size, lh float64, n int) {
+	need := 1
+	for _, s := range []string{weeks, m.sec.Title, roomText(m.room), strings.Join(m.sec.Staff, "")} {
+		if s != "" {
+			need++
+		}
+	}
+	for _, want := range []int{0, 4, 3, 2} {
+		for _, s := range blockSizes {
+			lh = s * ptToMM * 1.2
+			n = int((h - 1) / lh)
+			full := want
+			if want == 0 { // everything: the title wrapped in full
+				d.font("", s)
+				full = need - 1 + len(d.wrap(m.sec.Title, w, 12))
+			}
+			if n >= full {
+				return s, lh, n
+			}
+		}
+	}
+	size = blockSizes[len(blockSizes)-1]
+	lh = size * ptToMM * 1.2
+	return size, lh, max(int((h-1)/lh), 1)
+}
+
+// blockLine is one line of block text: text in style, then tail in the
+// regular style.
+type blockLine struct {
+	text  string
+	style string // "" or "B"
+	tail  string
+}
+
+// blockLines chooses the text of a block with room for n lines of width w
+// at size points. The section always shows (with its times when they fit);
+// then one line each for weeks, room, title and staff as they fit; lines
+// left over continue the title.
+func (d *pdfDoc) blockLines(m *meeting, weeks string, size, w float64, n int) []blockLine {
+	v := d.v
+	d.font("B", size)
+	id := d.fit(m.sec.ID, w)
+	head := blockLine{text: id, style: "B"}
+	rest := w - d.f.GetStringWidth(id)
+	d.font("", size)
+	if tail := " · " + m.from.String() + "–" + m.to.String(); d.f.GetStringWidth(tail) <= rest {
+		head.tail = tail
+	}
+	out := []blockLine{head}
+	room := roomText(m.room)
+	if m.room == nil && m.sec.NoRoom {
+		room = "online / off-site"
+	}
+	staff := strings.Join(v.staffNames(m.sec), ", ")
+	left := n - 1
+	take := func(ok bool) int {
+		if ok && left > 0 {
+			left--
+			return 1
+		}
+		return 0
+	}
+	nWeeks := take(weeks != "")
+	nRoom := take(room != "")
+	nTitle := take(m.sec.Title != "")
+	nStaff := take(staff != "")
+	if nWeeks > 0 {
+		out = append(out, blockLine{text: d.fit(weeks, w)})
+	}
+	if nTitle > 0 {
+		full := d.wrap(m.sec.Title, w, 12)
+		nTitle += min(left, len(full)-1)
+		for _, l := range d.wrap(m.sec.Title, w, nTitle) {
+			out = append(out, blockLine{text: l})
+		}
+	}
+	if nRoom > 0 {
+		out = append(out, blockLine{text: d.fit(room, w)})
+	}
+	if nStaff > 0 {
+		out = append(out, blockLine{text: d.fit(staff, w)})
+	}
+	return out
+}
