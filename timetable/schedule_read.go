@@ -87,7 +87,6 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	r := csv.NewReader(bytes.NewReader(data))
 	r.FieldsPerRecord = -1
-	r.LazyQuotes = true
 	var rows [][]string
 	var lines []int
 	for {

@@ -136,6 +136,9 @@ func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Posi
 	case err != nil:
 		ps.errorf(spos, "start %s", err.Error())
 		ok = false
+	case goodDay && schedStarts(t, day) == "":
+		ps.errorf(dpos, "the grid has no periods on %s — use a day from the Periods sheet (%s)", DayName(day), schedDays(t))
+		ok = false
 	case goodDay:
 		i, found := periods[schedKey{day, start}]
 		if !found {
@@ -148,8 +151,7 @@ func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Posi
 	return p, blank, ok
 }
 
-// schedStarts lists the start times of day in the grid, or says there are
-// none.
+// schedStarts lists the start times of day in the grid ("" when none).
 func schedStarts(t *Term, day time.Weekday) string {
 	var out []string
 	for _, p := range t.Periods {
@@ -157,8 +159,14 @@ func schedStarts(t *Term, day time.Weekday) string {
 			out = append(out, p.Start.String())
 		}
 	}
-	if len(out) == 0 {
-		return "no periods that day"
+	return strings.Join(out, ", ")
+}
+
+// schedDays lists the days of the grid.
+func schedDays(t *Term) string {
+	var out []string
+	for _, d := range t.Days() {
+		out = append(out, DayName(d))
 	}
 	return strings.Join(out, ", ")
 }
