@@ -23,6 +23,10 @@ func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) er
 	if err != nil {
 		return err
 	}
+	return writeCSV(w, v)
+}
+
+func writeCSV(w io.Writer, v *view) error {
 	cw := csv.NewWriter(w)
 	cw.UseCRLF = true
 	if err := cw.Write(CSVColumns); err != nil {
@@ -88,6 +92,11 @@ func WriteTimetableJSON(w io.Writer, t *timetable.Term, s *timetable.Schedule) e
 	if err != nil {
 		return err
 	}
+	return writeJSON(w, v)
+}
+
+func writeJSON(w io.Writer, v *view) error {
+	t := v.t
 	doc := TimetableJSON{Term: TermJSON{
 		Name:           t.Name,
 		TimeZone:       t.TimeZone,
