@@ -4,20 +4,20 @@ import (
 	"encoding/csv"
 	"encoding/json"
 	"io"
-	"strings"
 
 	"github.com/termwright/termwright/timetable"
 )
 
-// CSVColumns are the columns of WriteTimetableCSV: the master Timetable
-// sheet's columns (timetable.TimetableColumns) followed by Building (of the
-// room), Staff names (comma list, in the order of Staff) and Weeks ("all"
-// or a list of teaching weeks and ranges such as "1-6, 9").
-var CSVColumns = append(append([]string(nil), timetable.TimetableColumns...), "Building", "Staff names", "Weeks")
+// CSVColumns are the columns of WriteTimetableCSV: exactly the master
+// Timetable sheet's columns (timetable.TimetableColumns), so that the CSV
+// reads back with timetable.ReadSchedule. WriteTimetableJSON carries the
+// rest (building, staff names, weeks).
+var CSVColumns = append([]string(nil), timetable.TimetableColumns...)
 
 // WriteTimetableCSV writes the master timetable as RFC 4180 CSV (UTF-8,
 // CRLF line ends, header row CSVColumns), one row per meeting sorted by
-// day, start time, section and meeting number.
+// day, start time, section and meeting number; cells as on the Timetable
+// sheet.
 func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
 	v, err := newView(t, s)
 	if err != nil {
@@ -33,15 +33,7 @@ func writeCSV(w io.Writer, v *view) error {
 		return err
 	}
 	for i := range v.meetings {
-		m := &v.meetings[i]
-		weeks := v.weeks(m.sec)
-		if weeks == "" {
-			weeks = "all"
-		} else {
-			weeks = strings.TrimPrefix(weeks, "wks ")
-		}
-		row := append(v.masterRow(m), m.building(), strings.Join(v.staffNames(m.sec), ", "), weeks)
-		if err := cw.Write(row); err != nil {
+		if err := cw.Write(v.masterRow(&v.meetings[i])); err != nil {
 			return err
 		}
 	}
