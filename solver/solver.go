@@ -1,6 +1,7 @@
 package solver
 
 import (
+	"fmt"
 	"math/rand/v2"
 )
 
@@ -282,4 +283,20 @@ func (s *Solver) saveModel() {
 		s.model[a] = s.vals[Pos(Atom(a))] == 1
 	}
 	s.hasModel = true
+}
+
+// AddClause adds the permanent clause lits over atoms of the program
+// (Pos(a): a true, Neg(a): a false), for example to block a model. It may be
+// called between searches; an empty clause makes every later search
+// Unsatisfiable. It returns an error wrapping ErrProgram when a literal names
+// no atom of the program.
+func (s *Solver) AddClause(lits ...Lit) error {
+	for _, l := range lits {
+		if v := int(l >> 1); v < 1 || v > s.numAtoms {
+			return fmt.Errorf("%w: AddClause: literal refers to atom %d, but the program has %d atoms", ErrProgram, v, s.numAtoms)
+		}
+	}
+	s.cancelUntil(0)
+	s.addClauseLevel0(append([]Lit(nil), lits...))
+	return nil
 }
