@@ -114,7 +114,19 @@ type window struct {
 	day      time.Weekday
 	periods  []int
 	from, to timetable.Clock
+	kind     windowKind
 }
+
+// windowKind says which stretch of the day a window is.
+type windowKind int
+
+const (
+	wholeDay windowKind = iota
+	firstRun            // the morning (the periods before the first gap)
+	laterRun            // a run after a gap (the afternoon)
+	earlyTwo            // the first two periods
+	lateTwo             // the last two periods
+)
 
 // windows lists the stretches of day an unavailability may cover: the whole
 // day, each run of consecutive periods (morning, afternoon), the first two
@@ -126,22 +138,25 @@ func (g *gen) windows(day time.Weekday) []window {
 			ps = append(ps, i)
 		}
 	}
-	out := []window{{day: day, periods: ps, from: 0, to: 24 * 60}}
-	add := func(sub []int) {
-		out = append(out, window{day, sub, g.periods[sub[0]].Start, g.periods[sub[len(sub)-1]].End})
+	out := []window{{day: day, periods: ps, from: 0, to: 24 * 60, kind: wholeDay}}
+	add := func(sub []int, kind windowKind) {
+		out = append(out, window{day, sub, g.periods[sub[0]].Start, g.periods[sub[len(sub)-1]].End, kind})
 	}
 	start := 0
 	for k := 1; k <= len(ps); k++ {
 		if k == len(ps) || !g.consecutive(ps[k-1], ps[k]) {
-			if start > 0 || k < len(ps) {
-				add(ps[start:k])
+			switch {
+			case start == 0 && k < len(ps):
+				add(ps[start:k], firstRun)
+			case start > 0:
+				add(ps[start:k], laterRun)
 			}
 			start = k
 		}
 	}
 	if len(ps) >= 4 {
-		add(ps[:2])
-		add(ps[len(ps)-2:])
+		add(ps[:2], earlyTwo)
+		add(ps[len(ps)-2:], lateTwo)
 	}
 	return out
 }
@@ -160,13 +175,35 @@ func (g *gen) freeWindow(busy func(p int) bool) (window, bool) {
 }
 
 var (
-	staffReasons  = []string{"Part-time: not contracted on this day", "Research day", "Caring responsibilities", "Teaches at the harbour campus", "Professional body duties"}
-	staffWishes   = []string{"Prefers no early start", "Would rather keep this time for marking", "Would rather not teach late"}
+	staffReasons  = []string{"Part-time: not contracted at this time", "Research time", "Caring responsibilities", "Teaches at the harbour campus", "Professional body duties"}
 	roomReasons   = []string{"Planned maintenance", "Booked for examinations", "Open-day use"}
-	cohortReasons = []string{"Work placement", "Field trip", "Study day", "Clinical placement"}
+	cohortReasons = []string{"Work placement", "Field trip", "Study time", "Clinical placement"}
 	secReasons    = []string{"Off-site facility closed", "Technician not available"}
-	secWishes     = []string{"Lecturer prefers afternoons", "Students travel from the harbour campus"}
 )
+
+// staffWish and sectionWish give the reason of a preference by the
+// stretch of day it covers.
+func staffWish(k windowKind) string {
+	switch k {
+	case earlyTwo:
+		return "Prefers no early start"
+	case lateTwo:
+		return "Would rather not teach late"
+	case firstRun:
+		return "Would rather keep mornings for research"
+	}
+	return "Would rather keep this time for marking"
+}
+
+func sectionWish(k windowKind) string {
+	switch k {
+	case earlyTwo:
+		return "Students travel from the harbour campus"
+	case firstRun:
+		return "Lecturer prefers afternoons"
+	}
+	return "Lecturer would rather not teach then"
+}
 
 // addUnavailable adds hard unavailabilities where the witness leaves the
 // staff member, room, cohort or section free, and soft ones (preferences)
@@ -175,20 +212,20 @@ func (g *gen) addUnavailable() {
 	for p := range g.staff {
 		busy := func(q int) bool { return g.occStaff[p][q] != 0 }
 		if g.chance(0.12) {
-			g.unavail(timetable.WhoStaff, g.staff[p].id, busy, true, staffReasons)
+			g.unavail(timetable.WhoStaff, g.staff[p].id, busy, g.pickFrom(staffReasons))
 		}
 		if g.chance(0.15) {
-			g.unavail(timetable.WhoStaff, g.staff[p].id, nil, false, staffWishes)
+			g.unavail(timetable.WhoStaff, g.staff[p].id, nil, staffWish)
 		}
 	}
 	for r := range g.rooms {
 		if g.chance(0.05) {
-			g.unavail(timetable.WhoRoom, g.rooms[r].id, func(q int) bool { return g.occRoom[r][q] != 0 }, true, roomReasons)
+			g.unavail(timetable.WhoRoom, g.rooms[r].id, func(q int) bool { return g.occRoom[r][q] != 0 }, g.pickFrom(roomReasons))
 		}
 	}
 	for c := range g.cohorts {
 		if g.chance(0.1) {
-			g.unavail(timetable.WhoCohort, g.cohorts[c].id, func(q int) bool { return g.occCohort[c][q] != 0 }, true, cohortReasons)
+			g.unavail(timetable.WhoCohort, g.cohorts[c].id, func(q int) bool { return g.occCohort[c][q] != 0 }, g.pickFrom(cohortReasons))
 		}
 	}
 	for i := range g.secs {
@@ -202,30 +239,36 @@ func (g *gen) addUnavailable() {
 			return false
 		}
 		if g.chance(0.01) {
-			g.unavail(timetable.WhoSection, s.id, busy, true, secReasons)
+			g.unavail(timetable.WhoSection, s.id, busy, g.pickFrom(secReasons))
 		}
 		if g.chance(0.01) {
-			g.unavail(timetable.WhoSection, s.id, nil, false, secWishes)
+			g.unavail(timetable.WhoSection, s.id, nil, sectionWish)
 		}
 	}
 }
 
-// unavail adds one row: hard ones in a window free of busy, soft ones in any
-// window with a weight of 1 to 3.
-func (g *gen) unavail(kind timetable.WhoKind, who string, busy func(int) bool, hard bool, reasons []string) {
-	if busy == nil {
+// unavail adds one row. A hard row (busy given) goes in a window free of
+// busy; a preference (busy nil) goes in any window with a weight of 1 to 3.
+// reason names the row from its window.
+func (g *gen) unavail(kind timetable.WhoKind, who string, busy func(int) bool, reason func(windowKind) string) {
+	hard := busy != nil
+	if !hard {
 		busy = func(int) bool { return false }
 	}
 	w, ok := g.freeWindow(busy)
 	if !ok {
 		return
 	}
-	u := timetable.Unavailability{Who: who, Kind: kind, Day: w.day, From: w.from, To: w.to, Hard: hard,
-		Reason: reasons[g.rng.IntN(len(reasons))]}
+	u := timetable.Unavailability{Who: who, Kind: kind, Day: w.day, From: w.from, To: w.to, Hard: hard, Reason: reason(w.kind)}
 	if !hard {
 		u.Weight = g.between(1, 3)
 	}
 	g.unavailable = append(g.unavailable, u)
+}
+
+// pickFrom returns a reason function that draws from list at random.
+func (g *gen) pickFrom(list []string) func(windowKind) string {
+	return func(windowKind) string { return list[g.rng.IntN(len(list))] }
 }
 
 // chooseWeights sets the weights of five soft criteria, keeping each

@@ -9,7 +9,7 @@ import (
 // addRelations adds relations the witness satisfies: same time and back to
 // back for the pairs placed that way on purpose, and before, not same time,
 // different days, same day and same room found among the witness's
-// meetings. About a quarter are preferences (a weight) rather than hard.
+// meetings. Every fourth is a preference (a weight) rather than hard.
 func (g *gen) addRelations() {
 	k := g.relationsPerKind()
 	var same, b2b [][]int
@@ -37,26 +37,21 @@ func (g *gen) relate(kind timetable.RelationKind, groups [][]int) {
 		for _, i := range grp {
 			r.Sections = append(r.Sections, g.secs[i].id)
 		}
-		if g.chance(0.25) {
+		if len(g.relations)%4 == 3 { // every fourth relation is a preference
 			r.Hard, r.Weight = false, g.between(1, 5)
 		}
 		g.relations = append(g.relations, r)
 	}
 }
 
-// courseMates lists candidates for pairing with section a: the other
-// sections of its course, lecture first.
+// courseMates lists, for the lecture a of a course, the course's laboratory
+// and tutorial sections (a lecture comes before its groups' sessions).
 func (g *gen) courseMates(a int) []int {
 	s := &g.secs[a]
-	if s.course < 0 {
+	if s.kind != kindLecture {
 		return nil
 	}
-	c := g.courses[s.course]
-	var out []int
-	if c.lecture >= 0 {
-		out = append(out, c.lecture)
-	}
-	return append(out, c.groups...)
+	return g.courses[s.course].groups
 }
 
 // deptMates lists up to a dozen random sections of a's department.

@@ -171,7 +171,8 @@ func (g *gen) coverNeeds() {
 }
 
 // fittingRooms lists the rooms that seat s, have its features and are
-// allowed for it, smallest first (ties in room order).
+// allowed for it, smallest first (ties in room order); laboratories come
+// last for sections that do not need one.
 func (g *gen) fittingRooms(s *sec) []int {
 	if len(g.bySize) != len(g.rooms) {
 		g.bySize = g.bySize[:0]
@@ -180,7 +181,8 @@ func (g *gen) fittingRooms(s *sec) []int {
 		}
 		slices.SortStableFunc(g.bySize, func(a, b int) int { return g.rooms[a].capacity - g.rooms[b].capacity })
 	}
-	var out []int
+	var out, labs []int
+	needsLab := slices.Contains(s.needs, "lab")
 	for _, i := range g.bySize {
 		r := &g.rooms[i]
 		if r.capacity < s.size || !hasAll(r.features, s.needs) {
@@ -189,9 +191,13 @@ func (g *gen) fittingRooms(s *sec) []int {
 		if s.allowed != nil && !containsInt(s.allowed, i) {
 			continue
 		}
-		out = append(out, i)
+		if !needsLab && slices.Contains(r.features, "lab") {
+			labs = append(labs, i)
+		} else {
+			out = append(out, i)
+		}
 	}
-	return out
+	return append(out, labs...)
 }
 
 // addRoomFor adds a room that fits s in its department's building.

@@ -168,8 +168,7 @@ func wtWriteFileAtomic(path string, data []byte) error {
 		return err
 	}
 	_, werr := tmp.Write(data)
-	cerr := tmp.Close()
-	if err := errors.Join(werr, cerr); err != nil {
+	if err := errors.Join(werr, tmp.Close(), os.Chmod(tmp.Name(), 0o644)); err != nil {
 		os.Remove(tmp.Name())
 		return err
 	}
