@@ -229,7 +229,9 @@ func TestVariety(t *testing.T) {
 	for _, s := range term.Staff {
 		names.WriteString(s.Name + " ")
 	}
-	has := func(tab *unicode.RangeTable) bool { return strings.IndexFunc(names.String(), func(r rune) bool { return unicode.Is(tab, r) }) >= 0 }
+	has := func(tab *unicode.RangeTable) bool {
+		return strings.IndexFunc(names.String(), func(r rune) bool { return unicode.Is(tab, r) }) >= 0
+	}
 	assert.True(t, has(unicode.Greek), "a Greek name")
 	assert.True(t, has(unicode.Cyrillic), "a Cyrillic name")
 	assert.True(t, strings.ContainsAny(names.String(), "éèêëóöüáíñłßøåç"), "Latin letters with marks")
