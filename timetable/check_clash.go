@@ -1,6 +1,7 @@
 package timetable
 
 import (
+	"slices"
 	"sort"
 	"strings"
 )
@@ -85,10 +86,27 @@ func chkOverlapPairs(x *occupancy, pls []int, found func(i, j, first, last int))
 // chkStudentPair is a pair of section indexes, lower first.
 type chkStudentPair struct{ a, b int }
 
-// studentPairs counts, for every pair of distinct known sections, the
-// students enrolled in both (each student once per section). Shared by
-// Check and Cost.
-func (x *occupancy) studentPairs() map[chkStudentPair][]int {
+// chkClashPair is a pair of sections that share students, have overlapping
+// week sets and occupy common periods.
+type chkClashPair struct {
+	common   int   // periods both sections occupy
+	students []int // index of the first enrolment of each shared student
+}
+
+// studentClashes finds every pair of distinct known sections with
+// overlapping week sets that occupy a common period and share enrolled
+// students (each student counted once per section). Shared by Check and
+// Cost; O(Σ k²) for k sections per student, with a word-wide set
+// intersection per pair.
+func (x *occupancy) studentClashes() map[chkStudentPair]*chkClashPair {
+	out := map[chkStudentPair]*chkClashPair{}
+	if len(x.t.Enrolments) == 0 {
+		return out
+	}
+	sets := make([]occSet, len(x.t.Sections))
+	for si := range x.t.Sections {
+		sets[si] = x.sectionPeriods(si)
+	}
 	bySt := map[string][]int{}
 	var order []string
 	for ei, e := range x.t.Enrolments {
@@ -100,36 +118,44 @@ func (x *occupancy) studentPairs() map[chkStudentPair][]int {
 		}
 		bySt[e.Student] = append(bySt[e.Student], ei)
 	}
-	pairs := map[chkStudentPair][]int{} // pair -> first enrolment index of each student
+	var secs, first []int
 	for _, st := range order {
-		seen := map[int]int{} // section -> enrolment index
-		var secs []int
+		secs, first = secs[:0], first[:0]
 		for _, ei := range bySt[st] {
 			si := x.secIdx[x.t.Enrolments[ei].Section]
-			if _, dup := seen[si]; !dup {
-				seen[si] = ei
+			if !slices.Contains(secs, si) {
 				secs = append(secs, si)
+				first = append(first, ei)
 			}
 		}
-		sort.Ints(secs)
-		for a := 0; a < len(secs); a++ {
+		for a := range secs {
 			for b := a + 1; b < len(secs); b++ {
-				k := chkStudentPair{secs[a], secs[b]}
-				pairs[k] = append(pairs[k], seen[secs[a]])
+				sa, sb, ea := secs[a], secs[b], first[a]
+				if sa > sb {
+					sa, sb, ea = sb, sa, first[b]
+				}
+				n := sets[sa].commonCount(sets[sb])
+				if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
+					continue
+				}
+				k := chkStudentPair{sa, sb}
+				cp := out[k]
+				if cp == nil {
+					cp = &chkClashPair{common: n}
+					out[k] = cp
+				}
+				cp.students = append(cp.students, ea)
 			}
 		}
 	}
-	return pairs
+	return out
 }
 
 // students reports pairs of sections with overlapping weeks that share a
 // period and share enrolled students, one soft violation per pair.
 func (c *checker) students() {
 	x := c.x
-	if len(x.t.Enrolments) == 0 {
-		return
-	}
-	pairs := x.studentPairs()
+	pairs := x.studentClashes()
 	keys := make([]chkStudentPair, 0, len(pairs))
 	for k := range pairs {
 		keys = append(keys, k)
@@ -140,23 +166,8 @@ func (c *checker) students() {
 		}
 		return keys[i].b < keys[j].b
 	})
-	sets := map[int]occSet{}
-	set := func(si int) occSet {
-		if s, ok := sets[si]; ok {
-			return s
-		}
-		s := x.sectionPeriods(si)
-		sets[si] = s
-		return s
-	}
 	for _, k := range keys {
-		if !x.weeks(k.a).Overlaps(x.weeks(k.b)) {
-			continue
-		}
-		sa, sb := set(k.a), set(k.b)
-		if sa.commonCount(sb) == 0 {
-			continue
-		}
+		sa, sb := x.sectionPeriods(k.a), x.sectionPeriods(k.b)
 		common := x.newPeriodSet()
 		for w := range common {
 			common[w] = sa[w] & sb[w]
@@ -171,7 +182,7 @@ func (c *checker) students() {
 		}
 		srcs := []Source{x.t.Sections[k.a].Src, x.t.Sections[k.b].Src}
 		var names []string
-		for _, ei := range pairs[k] {
+		for _, ei := range pairs[k].students {
 			names = append(names, x.t.Enrolments[ei].Student)
 			srcs = append(srcs, x.t.Enrolments[ei].Src)
 		}

@@ -195,24 +195,8 @@ func (c *coster) avoidTimes() {
 // studentClashes counts, per pair of sections with overlapping weeks, the
 // students in both times the periods both occupy.
 func (c *coster) studentClashes() {
-	x := c.x
-	if len(x.t.Enrolments) == 0 {
-		return
-	}
-	sets := map[int]occSet{}
-	set := func(si int) occSet {
-		if s, ok := sets[si]; ok {
-			return s
-		}
-		s := x.sectionPeriods(si)
-		sets[si] = s
-		return s
-	}
-	for k, students := range x.studentPairs() {
-		if !x.weeks(k.a).Overlaps(x.weeks(k.b)) {
-			continue
-		}
-		n := int64(len(students)) * int64(set(k.a).commonCount(set(k.b)))
+	for _, cp := range c.x.studentClashes() {
+		n := int64(len(cp.students)) * int64(cp.common)
 		c.add(CritStudentClash, n, n, 0, "")
 	}
 }
