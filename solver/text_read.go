@@ -114,7 +114,8 @@ type parser struct {
 	prog  *Program
 	atoms map[string]Atom // name (or reserved _aN form) → atom
 	errs  SyntaxErrors
-	full  bool // maxSyntaxErrors reached
+	full  bool   // maxSyntaxErrors reached
+	name  []byte // scratch: the canonical text of the term being parsed
 }
 
 func (ps *parser) errorAt(line, col int, msg string) {
@@ -513,12 +514,11 @@ func (ps *parser) atom() Atom {
 	if ps.tok.kind != tIdent {
 		ps.fail(ps.tok, "expected an atom, found %s", ps.tok.describe())
 	}
-	var b strings.Builder
-	ps.term(&b, 0)
-	name := b.String()
-	if a, ok := ps.atoms[name]; ok {
+	ps.name = ps.term(ps.name[:0], 0)
+	if a, ok := ps.atoms[string(ps.name)]; ok {
 		return a
 	}
+	name := string(ps.name)
 	var a Atom
 	if isAnonName(name) {
 		a = ps.prog.NewAtom("")
@@ -532,8 +532,8 @@ func (ps *parser) atom() Atom {
 // maxTermDepth limits nesting so that hostile input cannot exhaust the stack.
 const maxTermDepth = 100
 
-// term parses a ground term into b in canonical form.
-func (ps *parser) term(b *strings.Builder, depth int) {
+// term parses a ground term and appends its canonical form to b.
+func (ps *parser) term(b []byte, depth int) []byte {
 	t := ps.tok
 	if depth > maxTermDepth {
 		ps.fail(t, "term is nested more than %d deep", maxTermDepth)
@@ -541,16 +541,16 @@ func (ps *parser) term(b *strings.Builder, depth int) {
 	switch t.kind {
 	case tIdent:
 		ps.advance()
-		b.WriteString(t.text)
+		b = append(b, t.text...)
 		if ps.is("(") {
-			ps.args(b, depth)
+			b = ps.args(b, depth)
 		}
 	case tNum:
 		ps.advance()
-		b.WriteString(canonicalNumber(t.text))
+		b = append(b, canonicalNumber(t.text)...)
 	case tString:
 		ps.advance()
-		b.WriteString(t.text)
+		b = append(b, t.text...)
 	case tPunct:
 		switch t.text {
 		case "-":
@@ -560,11 +560,11 @@ func (ps *parser) term(b *strings.Builder, depth int) {
 			}
 			n := canonicalNumber(ps.advance().text)
 			if n != "0" {
-				b.WriteByte('-')
+				b = append(b, '-')
 			}
-			b.WriteString(n)
+			b = append(b, n...)
 		case "(":
-			ps.args(b, depth)
+			b = ps.args(b, depth)
 		default:
 			ps.fail(t, "expected a term, found %s", t.describe())
 		}
@@ -573,25 +573,26 @@ func (ps *parser) term(b *strings.Builder, depth int) {
 	default:
 		ps.fail(t, "expected a term, found %s", t.describe())
 	}
+	return b
 }
 
-// args parses "(t1,...,tn)" into b.
-func (ps *parser) args(b *strings.Builder, depth int) {
+// args parses "(t1,...,tn)" and appends it to b.
+func (ps *parser) args(b []byte, depth int) []byte {
 	ps.advance() // "("
-	b.WriteByte('(')
+	b = append(b, '(')
 	if ps.is(")") {
 		ps.fail(ps.tok, "empty argument list \"()\": leave out the parentheses")
 	}
 	for {
-		ps.term(b, depth+1)
+		b = ps.term(b, depth+1)
 		if !ps.is(",") {
 			break
 		}
 		ps.advance()
-		b.WriteByte(',')
+		b = append(b, ',')
 	}
 	ps.expect(")", "to close the arguments")
-	b.WriteByte(')')
+	return append(b, ')')
 }
 
 // canonicalNumber removes leading zeros.
@@ -620,6 +621,20 @@ func isAnonName(name string) bool {
 // checkName says why name cannot be printed as an atom, or "" when it can:
 // it must read back as exactly itself.
 func checkName(name string) string {
+	if fastName(name) {
+		return ""
+	}
+	return slowCheckName(name)
+}
+
+// fastName reports names that certainly read back as themselves.
+func fastName(name string) bool {
+	rest, ok := canonicalTerm(name, 0, true)
+	return ok && rest == "" && !isAnonName(name)
+}
+
+// slowCheckName is checkName through the reader itself.
+func slowCheckName(name string) string {
 	if isAnonName(name) {
 		return "names of the form _a<number> are reserved for anonymous atoms"
 	}
@@ -631,7 +646,7 @@ func checkName(name string) string {
 		}
 	})
 	ps.tok = ps.sc.next()
-	var b strings.Builder
+	var b []byte
 	func() {
 		defer func() {
 			if r := recover(); r != nil {
@@ -646,15 +661,98 @@ func checkName(name string) string {
 		if ps.tok.kind != tIdent {
 			ps.fail(ps.tok, "an atom must start with a lower-case letter")
 		}
-		ps.term(&b, 0)
+		b = ps.term(nil, 0)
 	}()
 	switch {
 	case msg != "":
 		return "not a ground term of the text form (" + msg + ")"
 	case ps.tok.kind != tEOF:
 		return "not a ground term of the text form (unexpected " + ps.tok.describe() + ")"
-	case b.String() != name:
-		return "would read back as " + b.String() + " (write terms without blanks and numbers without leading zeros)"
+	case string(b) != name:
+		return "would read back as " + string(b) + " (write terms without blanks and numbers without leading zeros)"
 	}
 	return ""
+}
+
+// canonicalTerm is the allocation-free check behind checkName: it consumes
+// one term in canonical form (as the reader would write it) from the start
+// of s and returns the rest. atom requires a name rather than a number,
+// string or tuple. Reports false where the slow path must decide.
+func canonicalTerm(s string, depth int, atom bool) (string, bool) {
+	if s == "" || depth > maxTermDepth {
+		return s, false
+	}
+	switch c := s[0]; {
+	case c == '_' || isLower(c):
+		i := 0
+		for i < len(s) && s[i] == '_' {
+			i++
+		}
+		if i == len(s) || !isLower(s[i]) {
+			return s, false
+		}
+		for i < len(s) && isIdent(s[i]) {
+			i++
+		}
+		if s[:i] == "not" {
+			return s, false
+		}
+		s = s[i:]
+		if s != "" && s[0] == '(' {
+			return canonicalArgs(s, depth)
+		}
+		return s, true
+	case atom:
+		return s, false
+	case c == '-' || isDigit(c):
+		i := 0
+		if c == '-' {
+			i++
+		}
+		if i == len(s) || !isDigit(s[i]) || s[i] == '0' && (i > 0 || i+1 < len(s) && isDigit(s[i+1])) {
+			return s, false
+		}
+		for i < len(s) && isDigit(s[i]) {
+			i++
+		}
+		return s[i:], true
+	case c == '"':
+		for i := 1; i < len(s); i++ {
+			switch s[i] {
+			case '\\':
+				if i+1 < len(s) && s[i+1] != '\n' {
+					i++
+				}
+			case '\n':
+				return s, false
+			case '"':
+				return s[i+1:], true
+			}
+		}
+		return s, false
+	case c == '(':
+		return canonicalArgs(s, depth)
+	}
+	return s, false
+}
+
+// canonicalArgs consumes "(t1,...,tn)" in canonical form.
+func canonicalArgs(s string, depth int) (string, bool) {
+	s = s[1:]
+	for {
+		var ok bool
+		if s, ok = canonicalTerm(s, depth+1, false); !ok {
+			return s, false
+		}
+		if s == "" {
+			return s, false
+		}
+		if s[0] == ')' {
+			return s[1:], true
+		}
+		if s[0] != ',' {
+			return s, false
+		}
+		s = s[1:]
+	}
 }

@@ -221,6 +221,12 @@ func TestCheckName(t *testing.T) {
 		{"p.", false},
 		{"_a17", false},
 		{"_a0", true},
+		{"p(0,-1,\"a\\\"b\")", true},
+		{"p(-0)", false},
+		{"p(a,)", false},
+		{"p(a))", false},
+		{"_", false},
+		{"__b", true},
 		{"R 204", false},
 		{"p(", false},
 		{`p("x)`, false},
@@ -229,6 +235,7 @@ func TestCheckName(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			msg := checkName(tc.name)
 			assert.Equal(t, tc.ok, msg == "", msg)
+			assert.Equal(t, tc.ok, slowCheckName(tc.name) == "", "slow path")
 		})
 	}
 }

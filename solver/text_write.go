@@ -2,6 +2,7 @@ package solver
 
 import (
 	"bufio"
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"io"
@@ -57,8 +58,8 @@ func WriteProgramComments(w io.Writer, p *Program, comment func(kind string, ind
 	if err := checkLimits(p); err != nil {
 		return err
 	}
-	pr := &printer{p: p, names: names, w: bufio.NewWriter(w), comment: comment}
-	pr.program()
+	pr := &printer{p: p, names: names, w: bufio.NewWriterSize(w, 64<<10), comment: comment}
+	pr.program(pairChoiceBounds(p))
 	return pr.w.Flush()
 }
 
@@ -72,12 +73,12 @@ type printer struct {
 	buf     []byte // scratch for one statement
 }
 
-func (pr *printer) program() {
-	if needsHeader(pr.p) {
+func (pr *printer) program(pairs []int) {
+	if needsHeader(pr.p, pairs) {
 		pr.header()
 	}
 	p := pr.p
-	walkStatements(p, func(kind string, i, bound int) {
+	walkStatements(p, pairs, func(kind string, i, bound int) {
 		pr.note(kind, i)
 		buf := pr.buf[:0]
 		switch kind {
@@ -103,13 +104,13 @@ func (pr *printer) program() {
 
 // walkStatements calls fn for every statement in printing order: Rules,
 // then Choices merged with standalone Bounds (both in their own order), then
-// Weaks, then Shows. For a choice, bound is the index of the Bound printed
-// with it, or -1; it is -1 for every other kind.
-func walkStatements(p *Program, fn func(kind string, index, bound int)) {
+// Weaks, then Shows. pairs is pairChoiceBounds(p). For a choice, bound is
+// the index of the Bound printed with it, or -1; it is -1 for every other
+// kind.
+func walkStatements(p *Program, pairs []int, fn func(kind string, index, bound int)) {
 	for i := range p.Rules {
 		fn(KindRule, i, -1)
 	}
-	pairs := pairChoiceBounds(p)
 	paired := make([]bool, len(p.Bounds))
 	for _, b := range pairs {
 		if b >= 0 {
@@ -266,45 +267,62 @@ func checkLimits(p *Program) error {
 
 // pairChoiceBounds finds, for each choice, the Bound that AddChoice made for
 // it (same heads as positive literals, same body as condition, and a limit
-// that AddChoice would have stored), or -1. Pairs are increasing in both
-// indexes, so printing each pair as one statement keeps both orders.
+// that AddChoice would have stored), or -1: the first such bound after the
+// previous pair. Pairs are increasing in both indexes, so printing each
+// pair as one statement keeps both orders. Linear in the program size.
 func pairChoiceBounds(p *Program) []int {
 	pairs := make([]int, len(p.Choices))
+	// Candidate bounds by the key of their literals and condition, each list
+	// increasing, with a read position that only moves forward.
+	byKey := map[string][]int{}
+	var key []byte
+	for b, bd := range p.Bounds {
+		if bd.Lower > 0 || bd.Upper != NoBound {
+			key = boundKey(key[:0], bd.Lits, bd.Cond)
+			byKey[string(key)] = append(byKey[string(key)], b)
+		}
+	}
 	next := 0
+	heads := []Lit(nil)
 	for i, c := range p.Choices {
 		pairs[i] = -1
-		for b := next; b < len(p.Bounds); b++ {
-			if boundOfChoice(c, p.Bounds[b]) {
-				pairs[i] = b
-				next = b + 1
-				break
-			}
+		heads = heads[:0]
+		for _, h := range c.Heads {
+			heads = append(heads, Pos(h))
+		}
+		key = boundKey(key[:0], heads, c.Body)
+		list := byKey[string(key)]
+		for len(list) > 0 && list[0] < next {
+			list = list[1:]
+		}
+		if len(list) > 0 {
+			pairs[i] = list[0]
+			next = list[0] + 1
+			list = list[1:]
+		}
+		if _, ok := byKey[string(key)]; ok {
+			byKey[string(key)] = list
 		}
 	}
 	return pairs
 }
 
-func boundOfChoice(c Choice, b Bound) bool {
-	if !(b.Lower > 0 || b.Upper != NoBound) || len(b.Lits) != len(c.Heads) || len(b.Cond) != len(c.Body) {
-		return false
+// boundKey encodes a literal list and a condition as map key bytes.
+func boundKey(buf []byte, lits, cond []Lit) []byte {
+	for _, l := range lits {
+		buf = binary.AppendUvarint(buf, uint64(l)+1)
 	}
-	for i, h := range c.Heads {
-		if b.Lits[i] != Pos(h) {
-			return false
-		}
+	buf = append(buf, 0)
+	for _, l := range cond {
+		buf = binary.AppendUvarint(buf, uint64(l)+1)
 	}
-	for i, l := range c.Body {
-		if b.Cond[i] != l {
-			return false
-		}
-	}
-	return true
+	return buf
 }
 
 // needsHeader reports whether reading the printed statements alone would
 // number the atoms differently: some atom occurs nowhere, or atoms first
-// occur out of order.
-func needsHeader(p *Program) bool {
+// occur out of order. pairs is pairChoiceBounds(p).
+func needsHeader(p *Program, pairs []int) bool {
 	n := p.NumAtoms()
 	seen := make([]bool, n+1)
 	next := Atom(1) // the atom that must occur first next
@@ -325,7 +343,7 @@ func needsHeader(p *Program) bool {
 			see(l.Atom())
 		}
 	}
-	walkStatements(p, func(kind string, i, _ int) {
+	walkStatements(p, pairs, func(kind string, i, _ int) {
 		switch kind {
 		case KindRule:
 			see(p.Rules[i].Head)
