@@ -10,10 +10,10 @@ func (v *validator) checkTerm() {
 	t := v.t
 	first, last := t.FirstDay, t.LastDay
 	if first.IsZero() {
-		v.ps.errorf(v.lay.term("first day"), "the term has no first day — add a row with Key \"First day\" and the date (YYYY-MM-DD) in Value")
+		v.missingDate("first day", "First day")
 	}
 	if last.IsZero() {
-		v.ps.errorf(v.lay.term("last day"), "the term has no last day — add a row with Key \"Last day\" and the date (YYYY-MM-DD) in Value")
+		v.missingDate("last day", "Last day")
 	}
 	if !first.IsZero() && !last.IsZero() {
 		switch {
@@ -125,4 +125,16 @@ func (v *validator) daysWithRun(n int) int {
 		}
 	}
 	return len(days)
+}
+
+// missingDate reports a term date that is missing: blank in its row, or
+// without a row.
+func (v *validator) missingDate(key, label string) {
+	if v.lay != nil {
+		if p, ok := v.lay.termKey[key]; ok {
+			v.ps.errorf(p, "the term has no %s: %s is blank — write the date as YYYY-MM-DD", key, label)
+			return
+		}
+	}
+	v.ps.errorf(v.lay.term(key), "the term has no %s — add a row with Key %q and the date (YYYY-MM-DD) in Value", key, label)
 }
