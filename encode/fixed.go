@@ -58,7 +58,10 @@ func (b *builder) compileFixed() {
 				continue
 			}
 			first[p] = g
-			if p >= 0 && m.start[p] != 0 {
+			if f.Room != "" && !m.takesRoom {
+				// A section that takes no room cannot meet in the fixed room.
+				b.rule(0, b.sel(g))
+			} else if p >= 0 && m.start[p] != 0 {
 				b.rule(0, solver.Neg(m.start[p]), b.sel(g))
 			} else {
 				b.rule(0, b.sel(g))

@@ -15,7 +15,7 @@ type roomAssigner struct {
 }
 
 // assignRooms assigns rooms to all meetings that take one: first meetings
-// tied to one room (same-room groups, fixed rooms), then the rest batch by
+// with one candidate room (fixed rooms), then same-room groups, then the rest batch by
 // batch in grid order; failed meetings are re-solved exactly per connected
 // component.
 func (d *decoder) assignRooms() error {
@@ -25,11 +25,11 @@ func (d *decoder) assignRooms() error {
 	for r := range a.occ {
 		a.occ[r] = make([][]int32, nP)
 	}
-	a.preassignGroups()
 	a.preassignSingles()
+	a.preassignGroups()
 	byStart := make([][]int, nP)
 	for i, m := range d.ms {
-		if m.cand >= 0 && m.room < 0 {
+		if m.cand >= 0 && m.room == -1 {
 			byStart[m.start] = append(byStart[m.start], i)
 		}
 	}
@@ -144,8 +144,19 @@ func (a *roomAssigner) preassignGroups() {
 	for _, g := range order {
 		ms := groups[g]
 		rooms := append([]int(nil), d.setMembers(d.ms[ms[0]].cand)...)
-		big := ms[0]
+		var open []int // meetings of the group not placed yet
 		for _, mi := range ms {
+			if r := d.ms[mi].room; r >= 0 {
+				rooms = []int{r} // a fixed room decides the group's room
+			} else if r == -1 {
+				open = append(open, mi)
+			}
+		}
+		if len(open) == 0 {
+			continue
+		}
+		big := open[0]
+		for _, mi := range open {
 			if d.t.Sections[d.ms[mi].sec].Size > d.t.Sections[d.ms[big].sec].Size {
 				big = mi
 			}
@@ -154,14 +165,14 @@ func (a *roomAssigner) preassignGroups() {
 		done := false
 		for _, r := range rooms {
 			ok := true
-			for _, mi := range ms {
+			for _, mi := range open {
 				if !a.free(r, mi) {
 					ok = false
 					break
 				}
 			}
 			if ok {
-				for _, mi := range ms {
+				for _, mi := range open {
 					a.place(mi, r)
 				}
 				done = true
@@ -169,9 +180,9 @@ func (a *roomAssigner) preassignGroups() {
 			}
 		}
 		if !done {
-			a.failed = append(a.failed, ms...)
-			for _, mi := range ms {
-				d.ms[mi].room = -2 // handled by repair
+			for _, mi := range open {
+				d.ms[mi].room = -2 // left for repair
+				a.failed = append(a.failed, mi)
 			}
 		}
 	}
