@@ -1,0 +1,100 @@
+// Package encode compiles a term (package timetable) into a ground logic
+// program (package solver) whose stable models are the term's timetables,
+// decodes models back into schedules, and runs the whole pipeline in Solve:
+// compile, search, solver.Verify, decode, timetable.Check. It is the only
+// package that knows both the domain and the engine.
+//
+// # Decisions
+//
+// A section's meetings are interchangeable, so the decision is the section's
+// set of start periods: an atom start(S,P) for every candidate start P and
+// one choice rule choosing exactly Meetings of them. Meetings are numbered in
+// period order when decoded. One atom set per meeting would let the search
+// see m! copies of every timetable.
+//
+// A candidate start keeps the meeting inside one run of consecutive periods
+// (Term.Span). Normally candidates are also pruned by hard unavailability of
+// the section's staff, cohorts and the section, by room availability (some
+// candidate room free in every period of the meeting) and by fixed meetings.
+// In Explain mode they are not: those requirements become constraints with
+// selectors instead, so that switching a selector off really drops them.
+//
+// # Constraints
+//
+//   - No staff member or cohort in two places: for each of them, each period
+//     and each week scope, one cardinality bound "at most 1" over the start
+//     atoms whose meetings occupy the period. Week scopes: the elementary
+//     classes of the week sets involved (weeks with the same members), keeping
+//     only maximal ones, so sections in disjoint weeks may share a period.
+//   - A section's meetings on different days: at most one start per day
+//     (unless it may share days); its own meetings never overlap.
+//   - Staff limits: busy(T,P) atoms defined by rules from the starts (only
+//     for staff with limits); a bound over a day's busy atoms for the
+//     periods-per-day limit; one constraint per window of k+1 consecutive
+//     periods for a limit of k consecutive periods.
+//   - Hard relations exactly as defined in timetable/term.go, with helper
+//     atoms meets(S,D) (section S meets on day D) and started_by(S,P) (a
+//     meeting of S starts at or before P, a chain of rules) so that "before"
+//     is linear in the candidates.
+//
+// # Rooms: aggregated, never one atom per meeting, period and room
+//
+// Each section has a candidate room set: the allowed list (or all rooms)
+// with the needed features and, unless capacity is soft, enough seats.
+// Sections tied by a hard same-room relation share the intersection of their
+// sets (and any fixed room among them); a fixed meeting with a room has just
+// that room. The program counts instead of choosing: for a room family U and
+// a period p, the meetings occupying p whose candidate set lies inside U, plus
+// the rooms of U unavailable at p, number at most |U|. By Hall's theorem
+// (Hall 1935) these bounds over every U are exactly the condition for a
+// room assignment in each period; for nested sets (rooms that differ only by
+// size) the sets themselves suffice. Compile states them for every distinct
+// candidate set, the union of each connected component of sets, and unions of
+// overlapping pairs (at most maxFamilies per component), and leaves out bounds
+// that can never be exceeded.
+//
+// Decode assigns concrete rooms: it matches the meetings of every period and
+// week scope to their rooms (Hopcroft–Karp); if a matching falls short, the
+// set Z of meetings reachable from an unmatched one by alternating paths and
+// the union U of their candidate sets form a Hall violator (König's theorem),
+// returned as a *HallError; Solve adds U as a new family (for every period)
+// and searches again — lazy room constraints. Otherwise rooms are assigned in
+// grid order by augmenting paths that try the section's room so far first
+// (room stability), then the best fit. Meetings that span several periods,
+// week patterns and same-room groups need one room for all they cover, which
+// per-period counting cannot promise; when the fast assignment fails, the
+// component of meetings involved is solved exactly with explicit room atoms
+// by the engine, and if no assignment exists its unsatisfiable core becomes a
+// clause forbidding that combination of starts (*RoomConflictError).
+//
+// Explicit room atoms in the main program are therefore never needed: the
+// rare cases that would need them (same-room relations, fixed rooms) are
+// handled by narrowing candidate sets plus exact assignment at decode. The
+// price is a limitation in Explain mode: the narrowing by a same-room
+// relation is part of the room model and is not switched off by the
+// relation's selector.
+//
+// # Selectors and the catalog
+//
+// Every requirement group — a staff member's availability, a cohort's
+// no-overlap, a room family's supply, a fixed meeting, a relation row, a
+// section's days, a staff member's day limit, ... — has a selector atom
+// req(kind,key) in the body or condition of each of its constraints. Normally
+// selectors are facts; in Explain mode they are free ({sel}.) and the caller
+// assumes them. "Exactly Meetings meetings" has no selector. The Catalog maps
+// every atom to its meaning, every group to its sentence and workbook rows,
+// and every statement of the program to its group (the compile dump prints
+// them as % comments).
+//
+// # Naming
+//
+// Atoms print as ground terms of the standard rule syntax: start("BIO-101",
+// tue_10_00), busy("S-017",tue_10_00), meets("BIO-101",tue),
+// started_by("BIO-101",tue_10_00), req(staff_no_overlap,"S-017").
+//
+// # Extending
+//
+// Compile runs a list of parts (compile.go); the optimiser adds parts for
+// weak constraints with registerPart from its own files. Options.Keep is
+// passed through for minimal-change re-planning.
+package encode
