@@ -59,7 +59,8 @@ func plural(n int) string {
 // Verify checks that model (the set of true atoms; order and repeats do not
 // matter) is a stable model of p: it equals the least model of the
 // Gelfond–Lifschitz reduct of p by the model (Gelfond & Lifschitz 1988),
-// and every integrity constraint and Bound holds. The reduct keeps each
+// and every integrity constraint and Bound holds (a Bound counts distinct
+// true literals: a literal listed twice counts once). The reduct keeps each
 // normal rule whose negative body is false in the model, without its
 // negative literals; a choice rule whose negative body is false contributes
 // "h :- B+" for each of its heads h in the model. The least model is
@@ -294,13 +295,17 @@ func (v *verifier) constraints() []Problem {
 				Msg: fmt.Sprintf("constraint at rule %d (`%s`) is violated: all of its body is true", i, ruleText(v.p, r))})
 		}
 	}
+	// stamp[l] == i+1 marks literal l as counted for bound i: a literal
+	// listed twice counts once (the elements of a count form a set).
+	stamp := make([]int32, 2*v.n+2)
 	for i, b := range v.p.Bounds {
 		if !v.holds(b.Cond) {
 			continue
 		}
 		k := 0
 		for _, l := range b.Lits {
-			if v.inModel[l.Atom()] != l.IsNeg() {
+			if v.inModel[l.Atom()] != l.IsNeg() && stamp[l] != int32(i+1) {
+				stamp[l] = int32(i + 1)
 				k++
 			}
 		}

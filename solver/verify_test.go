@@ -80,6 +80,8 @@ func TestVerify(t *testing.T) {
 		{"bound negative literals", "{a; b}. :- not 1 {not a; not b} 1.", []string{"a"}, nil, nil},
 		{"bound negative literals fail", "{a; b}. :- not 1 {not a; not b} 1.", nil, []ProblemKind{OutOfBounds}, []string{"2 true literals, more than 1"}},
 		{"bound lower with cond", "{a; b; d}. :- {a; b} 0, d.", []string{"d"}, []ProblemKind{OutOfBounds}, []string{"fewer than 1"}},
+		{"bound counts a set", "{a; b}. :- 2 {a; a; not b}.", []string{"a", "b"}, nil, nil},
+		{"bound counts a set fail", "{a; b}. :- 2 {a; a; not b}.", []string{"a"}, []ProblemKind{OutOfBounds}, []string{"2 true literals"}},
 		{"weak ignored", "{a}. :~ a. [3@1]", []string{"a"}, nil, nil},
 		{"every problem", "a :- not b. {b}. c :- c. :- b.", []string{"b", "c"},
 			[]ProblemKind{Unsupported, Violated}, []string{"atom c", "constraint at rule 2"}},
