@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"flag"
 	"os"
 	"path/filepath"
 	"testing"
@@ -103,4 +104,27 @@ func TestGenerateDefaultsGiveDemo(t *testing.T) {
 	require.NoError(t, err)
 	assert.True(t, bytes.Equal(want, out.Bytes()), "generate - must reproduce samples/demo-term.xlsx")
 	assert.Contains(t, errb.String(), "150 sections")
+}
+
+// TestGenerateHelp compares `generate --help` with its golden file
+// (rewrite with -update).
+func TestGenerateHelp(t *testing.T) {
+	e, out, errb := generateEnv()
+	require.Equal(t, exitOK, run([]string{"generate", "--help"}, e), errb.String())
+	golden := filepath.Join("testdata", "generate-help.golden")
+	if f := flag.Lookup("update"); f != nil && f.Value.String() == "true" {
+		require.NoError(t, os.MkdirAll("testdata", 0o755))
+		require.NoError(t, os.WriteFile(golden, out.Bytes(), 0o644))
+	}
+	want, err := os.ReadFile(golden)
+	require.NoError(t, err, "run go test ./cmd/termwright -run TestGenerateHelp -update")
+	assert.Equal(t, string(want), out.String())
+}
+
+// The -update flag may be defined by another test file of this package;
+// define it here only when nobody has.
+func init() {
+	if flag.Lookup("update") == nil {
+		flag.Bool("update", false, "rewrite golden files under testdata/")
+	}
 }
