@@ -1,0 +1,92 @@
+package solver
+
+import (
+	"context"
+	"testing"
+
+	"github.com/stretchr/testify/require"
+)
+
+// TestUnfoundedLoop: a :- b. b :- a. a :- c. {c}. — without c, {a, b} is an
+// unfounded set (Van Gelder, Ross & Schlipf 1991) and both must be false,
+// although the completion alone would allow them true.
+func TestUnfoundedLoop(t *testing.T) {
+	p := NewProgram()
+	a, b, c := p.NewAtom("a"), p.NewAtom("b"), p.NewAtom("c")
+	p.AddRule(a, Pos(b))
+	p.AddRule(b, Pos(a))
+	p.AddRule(a, Pos(c))
+	p.AddChoice([]Atom{c}, NoBound, NoBound)
+	s := engNew(t, p)
+	require.NotNil(t, s.ufs)
+	require.NotZero(t, s.ufs.comp[a])
+	require.Equal(t, s.ufs.comp[a], s.ufs.comp[b])
+	require.Zero(t, s.ufs.comp[c])
+	require.False(t, engDecide(s, Neg(c)))
+	require.Equal(t, int8(-1), s.value(Pos(a)))
+	require.Equal(t, int8(-1), s.value(Pos(b)))
+	require.Positive(t, s.Stats().LoopFormulas)
+	// The reason of not a is the loop formula not a ∨ c (the external body).
+	r := s.reasonLits(uint32(a))
+	require.Equal(t, []Lit{Neg(a), Pos(c)}, r)
+	s.clearExplanations()
+	s.cancelUntil(0)
+	require.False(t, engDecide(s, Pos(c)))
+	require.Equal(t, int8(1), s.value(Pos(a)))
+	require.Equal(t, int8(1), s.value(Pos(b)))
+}
+
+// TestUnfoundedTrueAtomConflict: deciding a true first, then losing the
+// external support, is a conflict learned from the loop formula.
+func TestUnfoundedTrueAtomConflict(t *testing.T) {
+	p := NewProgram()
+	a, b, c, d := p.NewAtom("a"), p.NewAtom("b"), p.NewAtom("c"), p.NewAtom("d")
+	p.AddRule(a, Pos(b))
+	p.AddRule(b, Pos(a))
+	p.AddRule(a, Pos(c), Pos(d))
+	p.AddChoice([]Atom{c, d}, NoBound, NoBound)
+	s := engNew(t, p)
+	require.False(t, engDecide(s, Pos(a)))
+	require.True(t, engDecide(s, Neg(d)), "{a, b} lost its only external body while a is true")
+	require.Contains(t, s.conflict, Neg(a), "the loop formula of {a, b}")
+	require.Equal(t, int32(1), s.level[a])
+	require.True(t, s.handleConflict())
+	require.Equal(t, int8(1), s.value(Pos(d)), "learned: a needs d")
+	s.cancelUntil(0)
+	require.False(t, engDecide(s, Neg(d)))
+	require.Equal(t, int8(-1), s.value(Pos(a)))
+	s.cancelUntil(0)
+	require.Equal(t, Satisfiable, s.Solve(context.Background()))
+}
+
+// TestUnfoundedSourcesSurviveBacktracking: sources stay valid through many
+// decisions and backjumps; every model of a loop-heavy program verifies.
+func TestUnfoundedSourcesSurviveBacktracking(t *testing.T) {
+	// A ring of n atoms each supporting the next, plus choice external
+	// supports e_i for some; constraint: at least half of the ring true.
+	n := 12
+	p := NewProgram()
+	ring := make([]Atom, n)
+	for i := range ring {
+		ring[i] = p.NewAtom("")
+	}
+	var ext []Atom
+	for i := 0; i < n; i += 4 {
+		e := p.NewAtom("")
+		ext = append(ext, e)
+		p.AddChoice([]Atom{e}, NoBound, NoBound)
+		p.AddRule(ring[i], Pos(e))
+	}
+	for i := range ring {
+		p.AddChoice([]Atom{ring[(i+1)%n]}, NoBound, NoBound, Pos(ring[i]))
+	}
+	lits := make([]Lit, n)
+	for i, a := range ring {
+		lits[i] = Pos(a)
+	}
+	p.AddBound(lits, n/2, NoBound)
+	want := engAllStable(p)
+	got := engModels(t, p, DefaultOptions())
+	require.Equal(t, want, got)
+	require.NotEmpty(t, got)
+}
