@@ -51,6 +51,7 @@ func TestUnfoundedTrueAtomConflict(t *testing.T) {
 	require.Contains(t, s.conflict, Neg(a), "the loop formula of {a, b}")
 	require.Equal(t, int32(1), s.level[a])
 	require.True(t, s.handleConflict())
+	require.False(t, s.propagate())
 	require.Equal(t, int8(1), s.value(Pos(d)), "learned: a needs d")
 	s.cancelUntil(0)
 	require.False(t, engDecide(s, Neg(d)))
