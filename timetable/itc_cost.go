@@ -14,10 +14,10 @@ package timetable
 //   - RoomStability: for each course, 1 per distinct room used beyond the
 //     first.
 type ITCParts struct {
-	RoomCapacity          int
-	MinWorkingDays        int
-	CurriculumCompactness int
-	RoomStability         int
+	RoomCapacity          int `json:"room_capacity"`
+	MinWorkingDays        int `json:"min_working_days"`
+	CurriculumCompactness int `json:"curriculum_compactness"`
+	RoomStability         int `json:"room_stability"`
 }
 
 // Total is the sum of the parts (the competition's objective).

@@ -19,10 +19,10 @@ package timetable
 //   - RoomOccupancy: one lecture per room and period. Counts, per room and
 //     period, the lectures beyond the first.
 type ITCHard struct {
-	Lectures      int
-	Conflicts     int
-	Availability  int
-	RoomOccupancy int
+	Lectures      int `json:"lectures"`
+	Conflicts     int `json:"conflicts"`
+	Availability  int `json:"availability"`
+	RoomOccupancy int `json:"room_occupancy"`
 }
 
 // Total is the number of violations of every kind.

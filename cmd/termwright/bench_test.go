@@ -102,8 +102,8 @@ func TestBenchJSON(t *testing.T) {
     {
       "instance": "tiny", "courses": 3, "lectures": 5, "rooms": 2, "curricula": 2,
       "status": "satisfiable", "feasible": true, "cost": 14,
-      "parts": {"RoomCapacity": 10, "MinWorkingDays": 0, "CurriculumCompactness": 4, "RoomStability": 0},
-      "hard": {"Lectures": 0, "Conflicts": 0, "Availability": 0, "RoomOccupancy": 0},
+      "parts": {"room_capacity": 10, "min_working_days": 0, "curriculum_compactness": 4, "room_stability": 0},
+      "hard": {"lectures": 0, "conflicts": 0, "availability": 0, "room_occupancy": 0},
       "lower_bound": null, "first_feasible_ms": 1500, "best_ms": 1500, "total_ms": 1500
     }
   ],
