@@ -72,7 +72,6 @@ func WriteTermWorkbook(t *Term, w io.Writer) error {
 			return fmt.Errorf("write term workbook: sheet %s: %w", tb.name, err)
 		}
 	}
-	f.SetActiveSheet(0)
 	if _, err := f.WriteTo(w); err != nil {
 		return fmt.Errorf("write term workbook: %w", err)
 	}
