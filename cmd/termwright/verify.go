@@ -164,7 +164,7 @@ func verifyText(w io.Writer, rep verifyReport) {
 	}
 	fmt.Fprintf(w, "%s: %s read from %s\n", name, checkCount(rep.Meetings, "meeting"), rep.Timetable)
 	if len(rep.Problems) > 0 {
-		fmt.Fprintln(w, "\nRows that could not be read as written:")
+		fmt.Fprintln(w, "\nReading the timetable:")
 		for _, p := range rep.Problems {
 			prefix := p.Where + ": "
 			if p.Severity == timetable.Warning.String() {
@@ -185,7 +185,7 @@ func verifyText(w io.Writer, rep verifyReport) {
 		}
 	}
 	section("Hard requirements broken", true, rep.Hard)
-	section("Student clashes (a preference)", false, rep.Soft)
+	section("Student clashes, a preference", false, rep.Soft)
 	fmt.Fprintln(w)
 	switch {
 	case rep.OK:
