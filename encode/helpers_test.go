@@ -1,6 +1,7 @@
 package encode
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"testing"
@@ -184,4 +185,40 @@ func solveRef(tb testing.TB, term *timetable.Term) outcome {
 	}
 	tb.Fatalf("too many rounds")
 	return out
+}
+
+// solveEngine runs Solve (the project's engine); Solve itself verifies every
+// model and checks every timetable, and solveEngine checks the result again.
+func solveEngine(tb testing.TB, term *timetable.Term) outcome {
+	tb.Helper()
+	res, err := Solve(context.Background(), term, SolveOptions{Seed: 1})
+	if err != nil {
+		tb.Fatalf("solve: %v", err)
+	}
+	out := outcome{prog: res.Program, cat: res.Catalog, rounds: res.Rounds, hallCuts: res.HallCuts}
+	switch res.Status {
+	case solver.Satisfiable:
+		if hard := timetable.HardViolations(timetable.Check(term, res.Schedule)); len(hard) > 0 {
+			tb.Fatalf("check: %s", hard[0].Msg)
+		}
+		out.feasible, out.sched = true, res.Schedule
+	case solver.Unsatisfiable:
+	default:
+		tb.Fatalf("solve: status %v (incomplete=%v)", res.Status, res.Incomplete)
+	}
+	return out
+}
+
+// solveBoth solves with the engine and with the reference library and
+// insists that they agree on feasibility; it returns the engine's outcome
+// (with the number of lazy Hall families the reference pipeline needed).
+func solveBoth(tb testing.TB, term *timetable.Term) outcome {
+	tb.Helper()
+	eng := solveEngine(tb, term)
+	ref := solveRef(tb, term)
+	if eng.feasible != ref.feasible {
+		tb.Fatalf("engine says feasible=%v, reference library says %v", eng.feasible, ref.feasible)
+	}
+	eng.hallCuts += ref.hallCuts
+	return eng
 }

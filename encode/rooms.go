@@ -238,6 +238,9 @@ func (b *builder) compileRoomSupply() {
 	}
 	b.compileRoomFit()
 	for _, set := range b.initialFamilies() {
+		if b.lightlyLoaded(set) {
+			continue // left for Decode to find, should it ever run short
+		}
 		b.addFamily(set, false)
 	}
 	b.compileSameRoomOverlap()
@@ -391,6 +394,44 @@ func (b *builder) initialFamilies() []roomSet {
 		}
 	}
 	return out
+}
+
+// Families of more than lazyMinRooms rooms whose weekly demand is under
+// lazyLoad of their room-periods are not stated up front: such a set is
+// rarely short in any period, and if it is, Decode finds it and Solve adds
+// it. This keeps the largest bounds (the most literals) out of most
+// programs.
+const (
+	lazyMinRooms = 8
+	lazyLoad     = 0.4
+)
+
+// lightlyLoaded reports whether family U may be left to lazy addition.
+func (b *builder) lightlyLoaded(U roomSet) bool {
+	size := U.count()
+	if size <= lazyMinRooms {
+		return false
+	}
+	rm := &b.c.rooms
+	demand := 0
+	for s := range b.t.Sections {
+		m := &b.c.secs[s]
+		if !m.takesRoom {
+			continue
+		}
+		if set := rm.sets.sets[m.cand]; set.count() > 0 && set.subsetOf(U) {
+			demand += m.meetings * m.length
+		}
+	}
+	supply := 0
+	U.each(func(r int) {
+		for p := range b.t.Periods {
+			if rm.blocked[r] == nil || !rm.blocked[r][p] {
+				supply++
+			}
+		}
+	})
+	return float64(demand) < lazyLoad*float64(supply)
 }
 
 // addFamily adds room family U with its Hall constraints over every period

@@ -54,13 +54,13 @@ func TestKonigEdgeColouring(t *testing.T) {
 				extra = append(extra, [2]int{tch, (tch + trial) % n})
 			}
 			term = classTeacher(rand.New(rand.NewPCG(uint64(trial), 9)), n, p, p-1, extra)
-			out := solveRef(t, term)
+			out := solveBoth(t, term)
 			if !out.feasible {
 				t.Fatalf("load %d with %d periods: infeasible, want feasible (König)", p, p)
 			}
 			// One more meeting for teacher 0: load P+1.
 			term = classTeacher(rand.New(rand.NewPCG(uint64(trial), 9)), n, p, p-1, append(extra, [2]int{0, 1}))
-			if out := solveRef(t, term); out.feasible {
+			if out := solveBoth(t, term); out.feasible {
 				t.Fatalf("teacher load %d with %d periods: feasible, want infeasible", p+1, p)
 			}
 		})
@@ -124,10 +124,10 @@ func TestMycielskiColouring(t *testing.T) {
 			if testing.Short() && tc.chi > 4 {
 				t.Skip("M5 with 4 periods takes a few seconds")
 			}
-			if out := solveRef(t, colouringTerm(tc.n, tc.edges, tc.chi)); !out.feasible {
+			if out := solveBoth(t, colouringTerm(tc.n, tc.edges, tc.chi)); !out.feasible {
 				t.Fatalf("%d periods: infeasible, want feasible", tc.chi)
 			}
-			if out := solveRef(t, colouringTerm(tc.n, tc.edges, tc.chi-1)); out.feasible {
+			if out := solveBoth(t, colouringTerm(tc.n, tc.edges, tc.chi-1)); out.feasible {
 				t.Fatalf("%d periods: feasible, want infeasible", tc.chi-1)
 			}
 		})
@@ -174,7 +174,7 @@ func TestHallRooms(t *testing.T) {
 			for i, s := range tc.secs {
 				b.section(fmt.Sprintf("S%d", i+1), sized(s.size), roomsOf(s.rooms...))
 			}
-			out := solveRef(t, b.t)
+			out := solveBoth(t, b.t)
 			if out.feasible != tc.feasible {
 				t.Fatalf("feasible = %v, want %v", out.feasible, tc.feasible)
 			}
