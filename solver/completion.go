@@ -217,12 +217,17 @@ func (b *completion) build() {
 		s.addCard(bd.Lits, bd.Lower, bd.Upper, b.lits[id])
 	}
 	for _, w := range p.Weaks {
+		if !slices.Contains(s.levels, w.Level) {
+			s.levels = append(s.levels, w.Level)
+		}
 		id, ok := b.body(w.Body)
 		if !ok || w.Weight == 0 {
 			continue
 		}
 		s.weaks = append(s.weaks, weakLit{lit: b.lits[id], weight: w.Weight, level: w.Level})
 	}
+	slices.Sort(s.levels)
+	slices.Reverse(s.levels)
 	b.unfoundedSets()
 }
 

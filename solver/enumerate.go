@@ -34,6 +34,7 @@ func (s *Solver) Enumerate(ctx context.Context, limit int, project []Atom, fn fu
 		proj = slices.Compact(proj)
 	}
 	s.cancelUntil(0)
+	s.startBudget()
 	act := Pos(Atom(s.newVar()))
 	user := len(assumps)
 	st := s.solve(ctx, append(assumps, act), user)

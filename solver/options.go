@@ -52,6 +52,11 @@ type Options struct {
 	// GlueLBD: learned clauses with literal block distance at most GlueLBD
 	// are never deleted. Default 2.
 	GlueLBD int
+	// CoreBudget is the number of conflicts Optimize spends per priority
+	// level on core-guided lower bounds before switching to model-improving
+	// search; with a ConflictLimit, at most half of it. 0 means the default
+	// 20000; negative skips the core-guided phase.
+	CoreBudget int64
 	// ConflictLimit bounds the conflicts of one Solve, Enumerate or Optimize
 	// call (0 = no limit); when reached the call returns Unknown.
 	ConflictLimit int64
@@ -68,6 +73,7 @@ func DefaultOptions() Options {
 		ReduceFirst:   2000,
 		ReduceInc:     300,
 		GlueLBD:       2,
+		CoreBudget:    20000,
 	}
 }
 
@@ -98,6 +104,9 @@ func (o Options) withDefaults() (Options, error) {
 	}
 	if o.ReduceInc == 0 {
 		o.ReduceInc = d.ReduceInc
+	}
+	if o.CoreBudget == 0 {
+		o.CoreBudget = d.CoreBudget
 	}
 	if o.GlueLBD == 0 {
 		o.GlueLBD = d.GlueLBD

@@ -12,6 +12,7 @@ func (s *Solver) Solve(ctx context.Context) Status {
 		s.core = s.core[:0]
 		return Unknown
 	}
+	s.startBudget()
 	st := s.solve(ctx, assumps, len(assumps))
 	s.cancelUntil(0)
 	return st
@@ -27,7 +28,6 @@ func (s *Solver) solve(ctx context.Context, assumps []Lit, user int) Status {
 	s.hasModel = false
 	s.assumptions = append(s.assumptions[:0], assumps...)
 	s.userAssume = user
-	s.conflictStart = s.stats.Conflicts
 	if !s.ok {
 		return Unsatisfiable
 	}
@@ -109,8 +109,16 @@ func cancelled(done <-chan struct{}) bool {
 	}
 }
 
+// startBudget starts the conflict budget of a public call.
+func (s *Solver) startBudget() {
+	s.budgetEnd = 0
+	if s.opts.ConflictLimit > 0 {
+		s.budgetEnd = s.stats.Conflicts + s.opts.ConflictLimit
+	}
+}
+
 func (s *Solver) conflictsExceeded() bool {
-	return s.opts.ConflictLimit > 0 && s.stats.Conflicts-s.conflictStart >= s.opts.ConflictLimit
+	return s.budgetEnd > 0 && s.stats.Conflicts >= s.budgetEnd
 }
 
 // handleConflict learns from s.conflict and backjumps, asserting the learned

@@ -72,19 +72,25 @@ type Solver struct {
 	hasModel    bool      // model holds a model
 	trueLit     Lit       // a literal true at level 0 (0 until needed)
 	weaks       []weakLit // weak constraints as literals (completion.go)
+	levels      []int     // distinct levels of the program's weak constraints, highest first
+
+	// Optimisation results (optimize.go).
+	bestCost []int64 // cost per level of the best model of the last Optimize call
+	lower    []int64 // proven lower bound per level of the last Optimize call
+	proven   bool    // the last Optimize call proved bestCost optimal
 
 	// Restarts and reductions (search.go, reduce.go).
-	lbdQueue      []int   // LBDs of the most recent learned clauses (ring buffer)
-	lbdQueueHead  int     // next slot of lbdQueue
-	lbdQueueFull  bool    // lbdQueue holds GlucoseWindow values
-	lbdQueueSum   int64   // sum of lbdQueue
-	lbdSum        float64 // sum of all LBDs learned
-	lbdCount      int64   // number of LBDs in lbdSum
-	lubyIndex     int     // restarts done by the Luby policy
-	nextReduce    int64   // conflict count of the next learned-clause reduction
-	reduceIncr    int64   // current interval between reductions
-	simpTrail     int     // level-0 trail length at the last compaction
-	conflictStart int64   // Stats.Conflicts when the current call started
+	lbdQueue     []int   // LBDs of the most recent learned clauses (ring buffer)
+	lbdQueueHead int     // next slot of lbdQueue
+	lbdQueueFull bool    // lbdQueue holds GlucoseWindow values
+	lbdQueueSum  int64   // sum of lbdQueue
+	lbdSum       float64 // sum of all LBDs learned
+	lbdCount     int64   // number of LBDs in lbdSum
+	lubyIndex    int     // restarts done by the Luby policy
+	nextReduce   int64   // conflict count of the next learned-clause reduction
+	reduceIncr   int64   // current interval between reductions
+	simpTrail    int     // level-0 trail length at the last compaction
+	budgetEnd    int64   // Stats.Conflicts value at which search returns Unknown (0 = no limit)
 
 	stats    Stats       // counters since creation
 	progress func(Stats) // called at restarts (may be nil)

@@ -145,3 +145,36 @@ func (s *Solver) explainSum(dst []Lit, k uint32, p Lit, pos int32) []Lit {
 	}
 	return dst
 }
+
+// dropSums removes the sums from index base on (and their members from
+// partsBase on), with their occurrences; called at level 0 when their
+// activation literals are false for good.
+func (s *Solver) dropSums(base, partsBase int) {
+	if base >= len(s.sums) {
+		return
+	}
+	keep := func(p Lit) {
+		occ := s.sumOcc[p]
+		j := 0
+		for _, o := range occ {
+			if (o&1 == 0 && int(o>>1) >= partsBase) || (o&1 == 1 && int(o>>1) >= base) {
+				continue
+			}
+			occ[j] = o
+			j++
+		}
+		s.sumOcc[p] = occ[:j]
+	}
+	for _, p := range s.parts.lits[partsBase:] {
+		keep(p)
+	}
+	for _, w := range s.sums[base:] {
+		if w.cond != 0 {
+			keep(w.cond)
+		}
+	}
+	s.sums = s.sums[:base]
+	s.parts.lits = s.parts.lits[:partsBase]
+	s.parts.w = s.parts.w[:partsBase]
+	s.parts.of = s.parts.of[:partsBase]
+}
