@@ -12,7 +12,8 @@ import (
 // often), choice rules with and without bounds, integrity constraints,
 // standalone bounds with conditions and negative or repeated literals, and
 // weak constraints. Meant for n ≤ 12, where every candidate set can be
-// checked by brute force. The same seed gives the same program.
+// checked by brute force. Lower limits never exceed upper limits (the
+// engine rejects such bounds). The same seed gives the same program.
 func RandomProgram(seed uint64, n int) *solver.Program {
 	r := rand.New(rand.NewPCG(seed, 0x7e57))
 	p := solver.NewProgram()
@@ -50,6 +51,9 @@ func RandomProgram(seed uint64, n int) *solver.Program {
 		lower, upper := solver.NoBound, solver.NoBound
 		if r.IntN(2) == 0 {
 			lower, upper = limit(len(heads)), limit(len(heads))
+			if upper != solver.NoBound && lower > upper {
+				lower, upper = upper, lower
+			}
 		}
 		p.AddChoice(heads, lower, upper, body(2, 30)...)
 	}
@@ -61,7 +65,11 @@ func RandomProgram(seed uint64, n int) *solver.Program {
 	}
 	for range r.IntN(3) {
 		ls := body(4, 30)
-		p.AddBound(ls, limit(len(ls)), limit(len(ls)), body(2, 30)...)
+		lower, upper := limit(len(ls)), limit(len(ls))
+		if upper != solver.NoBound && lower > upper {
+			lower, upper = upper, lower
+		}
+		p.AddBound(ls, lower, upper, body(2, 30)...)
 	}
 	for range r.IntN(3) {
 		p.AddWeak(int64(1+r.IntN(5)), r.IntN(2), body(2, 30)...)
