@@ -8,6 +8,7 @@ import (
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
 	"golang.org/x/image/font/sfnt"
+	"golang.org/x/text/unicode/norm"
 )
 
 // pdfFamily is the font family name registered in every PDF: the Go fonts
@@ -35,14 +36,16 @@ func loadGlyphs() {
 	}
 }
 
-// printable returns s with every character the embedded font cannot draw
-// replaced by '?' (and control characters by spaces), so that nothing is
-// silently dropped and the PDF library never sees a rune outside its tables.
+// printable returns s as the embedded font can draw it: a letter the font
+// lacks is decomposed (NFD) and rebuilt from the parts the font has, so
+// that "ọ́" prints as "ó" rather than vanishing; what still cannot be drawn
+// becomes '?', and control characters become spaces. Nothing is silently
+// dropped, and the PDF library never sees a rune outside its tables.
 func printable(s string) string {
 	glyphs.once.Do(loadGlyphs)
 	ok := true
 	for _, r := range s {
-		if r >= 0x10000 || !glyphs.has[r] {
+		if !hasGlyph(r) {
 			ok = false
 			break
 		}
@@ -50,15 +53,41 @@ func printable(s string) string {
 	if ok {
 		return s
 	}
-	return strings.Map(func(r rune) rune {
-		switch {
-		case r < 0x10000 && glyphs.has[r]:
-			return r
-		case unicode.IsSpace(r) || unicode.IsControl(r):
-			return ' '
+	var b strings.Builder
+	rs := []rune(norm.NFD.String(s))
+	for i := 0; i < len(rs); {
+		j := i + 1 // rs[i:j] is one letter with its combining marks
+		for j < len(rs) && unicode.Is(unicode.Mn, rs[j]) {
+			j++
 		}
-		return '?'
-	}, s)
+		b.WriteString(approximate(rs[i:j]))
+		i = j
+	}
+	return b.String()
+}
+
+func hasGlyph(r rune) bool { return r < 0x10000 && glyphs.has[r] }
+
+// approximate draws one decomposed letter (a base and its combining marks)
+// with what the font has: the marks that compose with the base into a
+// letter of the font are kept, the others dropped; a base the font lacks
+// becomes '?', a space or control character a space.
+func approximate(cluster []rune) string {
+	base := cluster[0]
+	switch {
+	case unicode.IsSpace(base) || unicode.IsControl(base):
+		return " "
+	case !hasGlyph(base):
+		return "?"
+	}
+	kept := []rune{base}
+	for _, mark := range cluster[1:] {
+		c := []rune(norm.NFC.String(string(append(append([]rune{}, kept...), mark))))
+		if len(c) == 1 && hasGlyph(c[0]) {
+			kept = c
+		}
+	}
+	return string(kept)
 }
 
 // fontBytes are the TrueType files embedded for the regular and bold style.

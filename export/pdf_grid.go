@@ -44,10 +44,22 @@ func (d *pdfDoc) gridPage(who Subject, items []int) {
 	d.header(d.v.title(who), detail)
 	g := d.geo()
 	d.gridFrame(g)
+	var boxes []box
 	for _, cl := range d.v.clusters(items) {
-		for _, b := range d.v.boxes(cl) {
-			d.block(g, b)
-		}
+		boxes = append(boxes, d.v.boxes(cl)...)
+	}
+	// One text size for the page where possible: the largest that lets
+	// every block show all its text, but not below pageMinSize; a block
+	// that needs less still gets its own smaller size.
+	sizes := make([]float64, len(boxes))
+	page := blockSizes[0]
+	for i, b := range boxes {
+		_, _, w, h := d.boxRect(g, b)
+		sizes[i] = d.blockSize(&d.v.meetings[b.item], d.v.weeks(d.v.meetings[b.item].sec), w-blockBar-1.8, h)
+		page = min(page, max(sizes[i], pageMinSize))
+	}
+	for i, b := range boxes {
+		d.block(g, b, min(sizes[i], page))
 	}
 }
 
@@ -125,19 +137,32 @@ func (d *pdfDoc) hatch(x, y, w, h float64) {
 // blockSizes are the font sizes (points) tried for block text, largest first.
 var blockSizes = []float64{8.5, 8, 7.5, 7, 6.5, 6, 5.5}
 
-// block draws one meeting: a framed grey block with a dark bar on its left
-// edge (white with a dashed frame and a lighter bar when the section meets
-// only some weeks), holding section, times, weeks, title, room and staff as
-// space allows, at the largest size that shows it all (or most of it).
-func (d *pdfDoc) block(g gridGeo, b box) {
+// pageMinSize is the smallest text size (points) a whole page is set in;
+// blockBar is the width (mm) of the bar on a block's left edge.
+const (
+	pageMinSize = 6.5
+	blockBar    = 1.2
+)
+
+// boxRect is the rectangle (mm) of a box on the page.
+func (d *pdfDoc) boxRect(g gridGeo, b box) (x, y, w, h float64) {
+	m := &d.v.meetings[b.item]
+	areaH := float64(b.r1-b.r0+1) * g.rowH
+	x = g.colX(d.v.dayCol[m.day]) + b.x0*g.colW + 0.5
+	w = (b.x1-b.x0)*g.colW - 1
+	y = g.rowY(b.r0) + b.y0*areaH + 0.5
+	h = (b.y1-b.y0)*areaH - 1
+	return x, y, w, h
+}
+
+// block draws one meeting with text of size points: a framed grey block
+// with a dark bar on its left edge (white with a dashed frame and a lighter
+// bar when the section meets only some weeks), holding section, times,
+// weeks, title, room and staff as space allows.
+func (d *pdfDoc) block(g gridGeo, b box, size float64) {
 	f, v := d.f, d.v
 	m := &v.meetings[b.item]
-	areaTop := g.rowY(b.r0)
-	areaH := float64(b.r1-b.r0+1) * g.rowH
-	x := g.colX(v.dayCol[m.day]) + b.x0*g.colW + 0.5
-	w := (b.x1-b.x0)*g.colW - 1
-	y := areaTop + b.y0*areaH + 0.5
-	h := (b.y1-b.y0)*areaH - 1
+	x, y, w, h := d.boxRect(g, b)
 	weeks := v.weeks(m.sec)
 	f.SetLineWidth(0.3)
 	f.SetDrawColor(0, 0, 0)
@@ -149,16 +174,16 @@ func (d *pdfDoc) block(g gridGeo, b box) {
 	}
 	f.Rect(x, y, w, h, "FD")
 	f.SetDashPattern(nil, 0)
-	bar := 1.2
 	if weeks != "" {
 		f.SetFillColor(150, 150, 150)
 	} else {
 		f.SetFillColor(60, 60, 60)
 	}
-	f.Rect(x, y, bar, h, "F")
+	f.Rect(x, y, blockBar, h, "F")
 
-	tx, tw := x+bar+1, w-bar-1.8
-	size, lh, n := d.blockSize(m, weeks, tw, h)
+	tx, tw := x+blockBar+1, w-blockBar-1.8
+	lh := size * ptToMM * 1.2
+	n := max(int((h-1)/lh), 1)
 	lines := d.blockLines(m, weeks, size, tw, n)
 	f.ClipRect(x, y, w, h, false)
 	for i, l := range lines {
@@ -174,10 +199,10 @@ func (d *pdfDoc) block(g gridGeo, b box) {
 	f.ClipEnd()
 }
 
-// blockSize picks the font size, line height and line count for a block of
-// width w and height h: the largest size at which all the text fits, else
-// the largest giving at least four lines (three, two), else the smallest.
-func (d *pdfDoc) blockSize(m *meeting, weeks string, w, h float64) (size, lh float64, n int) {
+// blockSize picks the text size for a block whose text area is w wide and
+// h high: the largest size at which all the text fits, else the largest
+// giving at least four lines (three, two), else the smallest.
+func (d *pdfDoc) blockSize(m *meeting, weeks string, w, h float64) float64 {
 	need := 1
 	for _, s := range []string{weeks, m.sec.Title, roomText(m.room), strings.Join(m.sec.Staff, "")} {
 		if s != "" {
@@ -186,21 +211,18 @@ func (d *pdfDoc) blockSize(m *meeting, weeks string, w, h float64) (size, lh flo
 	}
 	for _, want := range []int{0, 4, 3, 2} {
 		for _, s := range blockSizes {
-			lh = s * ptToMM * 1.2
-			n = int((h - 1) / lh)
+			n := int((h - 1) / (s * ptToMM * 1.2))
 			full := want
 			if want == 0 { // everything: the title wrapped in full
 				d.font("", s)
 				full = need - 1 + len(d.wrap(m.sec.Title, w, 12))
 			}
 			if n >= full {
-				return s, lh, n
+				return s
 			}
 		}
 	}
-	size = blockSizes[len(blockSizes)-1]
-	lh = size * ptToMM * 1.2
-	return size, lh, max(int((h-1)/lh), 1)
+	return blockSizes[len(blockSizes)-1]
 }
 
 // blockLine is one line of block text: text in style, then tail in the

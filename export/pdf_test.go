@@ -214,4 +214,8 @@ func TestPrintable(t *testing.T) {
 	assert.Equal(t, "Zoë Łódź Straße Ελένη Дмитрий", printable("Zoë Łódź Straße Ελένη Дмитрий"))
 	assert.Equal(t, "a ? b ?", printable("a 😀 b 漢"))
 	assert.Equal(t, "tab here", printable("tab\there"))
+	// Yoruba letters with a dot below (U+1ECD, U+1EB9) are not in WGL4: the
+	// dot goes, the tone marks the font has stay (Unicode canonical decomposition).
+	assert.Equal(t, "Bámìdélé Ògúnlóyè", printable("Bámìdélé Ògúnlọ́yẹ̀"))
+	assert.Equal(t, "o", printable("ọ"))
 }
