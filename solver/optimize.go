@@ -235,7 +235,7 @@ func (o *optimizer) corePhase(ctx context.Context, i int) Status {
 	var sets [][]Lit // cost literals of each relaxed core
 	index := map[Lit]int{}
 	var extra []Lit
-	var lb int64 // raw lower bound: o.lower[i] - o.offset[i]
+	var lb int64          // raw lower bound: o.lower[i] - o.offset[i]
 	threshold := int64(0) // only soft literals of at least this weight are assumed (stratification)
 	for _, sf := range softs {
 		threshold = max(threshold, sf.w)
