@@ -215,6 +215,8 @@ func TestAgainstBruteForce(t *testing.T) {
 	}
 }
 
+func newRand(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, 11)) }
+
 func describeTerm(t *timetable.Term) string {
 	s := fmt.Sprintf("periods: %d (%d days); soft capacity %v\n", len(t.Periods), len(t.Days()), t.SoftCapacity)
 	for _, p := range t.Periods {

@@ -129,6 +129,7 @@ type outcome struct {
 	cat      *Catalog
 	rounds   int
 	hallCuts int
+	nogoods  int
 }
 
 // solveRef runs the Solve pipeline with the reference SAT library instead
@@ -170,6 +171,7 @@ func solveRef(tb testing.TB, term *timetable.Term) outcome {
 			continue
 		case errors.As(err, &rerr):
 			extra = append(extra, rerr.nogoods...)
+			out.nogoods += len(rerr.nogoods)
 			continue
 		case err != nil:
 			tb.Fatalf("decode: %v", err)
@@ -195,7 +197,7 @@ func solveEngine(tb testing.TB, term *timetable.Term) outcome {
 	if err != nil {
 		tb.Fatalf("solve: %v", err)
 	}
-	out := outcome{prog: res.Program, cat: res.Catalog, rounds: res.Rounds, hallCuts: res.HallCuts}
+	out := outcome{prog: res.Program, cat: res.Catalog, rounds: res.Rounds, hallCuts: res.HallCuts, nogoods: res.Nogoods}
 	switch res.Status {
 	case solver.Satisfiable:
 		if hard := timetable.HardViolations(timetable.Check(term, res.Schedule)); len(hard) > 0 {
@@ -220,5 +222,6 @@ func solveBoth(tb testing.TB, term *timetable.Term) outcome {
 		tb.Fatalf("engine says feasible=%v, reference library says %v", eng.feasible, ref.feasible)
 	}
 	eng.hallCuts += ref.hallCuts
+	eng.nogoods += ref.nogoods
 	return eng
 }
