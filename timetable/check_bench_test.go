@@ -1,13 +1,18 @@
 package timetable_test
 
 import (
+	"bytes"
 	"fmt"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"sort"
+	"strconv"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/xuri/excelize/v2"
 
 	"github.com/termwright/termwright/samples"
 	"github.com/termwright/termwright/timetable"
@@ -221,5 +226,42 @@ func BenchmarkCost(b *testing.B) {
 	b.ResetTimer()
 	for range b.N {
 		timetable.Cost(term, w, w)
+	}
+}
+
+// BenchmarkReadSchedule reads the 2,000-section timetable back from a
+// workbook with one row per meeting (written here with plain text cells).
+func BenchmarkReadSchedule(b *testing.B) {
+	term, w := samples.GenerateWithWitness(samples.Config{Sections: 2000, Seed: 1})
+	f := excelize.NewFile()
+	require.NoError(b, f.SetSheetName("Sheet1", timetable.TimetableSheet))
+	sw, err := f.NewStreamWriter(timetable.TimetableSheet)
+	require.NoError(b, err)
+	row := func(r int, cells ...string) {
+		vals := make([]any, len(cells))
+		for i, c := range cells {
+			vals[i] = c
+		}
+		cell, _ := excelize.CoordinatesToCellName(1, r)
+		require.NoError(b, sw.SetRow(cell, vals))
+	}
+	row(1, "Section", "Meeting", "Day", "Start", "Room")
+	for i, p := range w.Placements {
+		per := term.Periods[p.Period]
+		row(i+2, p.Section, strconv.Itoa(p.Meeting), timetable.DayName(per.Day), per.Start.String(), p.Room)
+	}
+	require.NoError(b, sw.Flush())
+	var buf bytes.Buffer
+	_, err = f.WriteTo(&buf)
+	require.NoError(b, err)
+	path := filepath.Join(b.TempDir(), "timetable.xlsx")
+	require.NoError(b, os.WriteFile(path, buf.Bytes(), 0o644))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for range b.N {
+		s, ps, err := timetable.ReadSchedule(path, term)
+		if err != nil || len(ps) > 0 || len(s.Placements) != len(w.Placements) {
+			b.Fatal(err, ps)
+		}
 	}
 }
