@@ -58,6 +58,7 @@ type validator struct {
 	maxRun                          int   // longest run of consecutive periods
 	hardStaff, hardCohort, hardRoom map[string][]bool
 	hardSection                     map[string][]bool
+	largest                         map[string]int // largestRoom cache: needs and allowed rooms -> capacity, -1 for none
 }
 
 // Validate checks a Term — read from a workbook or built in code — and

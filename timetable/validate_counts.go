@@ -208,10 +208,13 @@ func (v *validator) checkFixedRooms(p int, uses []fixedUse, reported map[string]
 				continue
 			}
 			for _, u := range active {
-				if _, ok := v.suits(r, u.sec); ok {
+				if v.fits(r, u.sec) {
 					free++
 					break
 				}
+			}
+			if free >= len(active) {
+				break // enough rooms; no need to count further
 			}
 		}
 		if len(active) > free {

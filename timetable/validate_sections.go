@@ -148,19 +148,18 @@ func (v *validator) suits(r *Room, s *Section) (string, bool) {
 	return "", true
 }
 
+// fits reports whether room r can hold section s (suits without the reason).
+func (v *validator) fits(r *Room, s *Section) bool {
+	return roomAllowed(s, r.ID) && hasFeatures(r, s.Needs) && (v.t.SoftCapacity || r.Capacity >= s.Size)
+}
+
 // checkSectionRoom checks that some room can hold the section.
 func (v *validator) checkSectionRoom(s *Section, d string) {
 	if s.NoRoom || len(v.t.Rooms) == 0 {
 		return // no rooms at all is reported once, by checkRooms
 	}
-	var withFeatures []*Room
-	for i := range v.t.Rooms {
-		r := &v.t.Rooms[i]
-		if roomAllowed(s, r.ID) && hasFeatures(r, s.Needs) {
-			withFeatures = append(withFeatures, r)
-		}
-	}
-	if len(withFeatures) == 0 {
+	largest, any := v.largestRoom(s)
+	if !any {
 		if len(s.Rooms) > 0 && len(unknownIDs(s.Rooms, v.rooms)) == len(s.Rooms) {
 			return // every allowed room is unknown, already reported
 		}
@@ -171,16 +170,32 @@ func (v *validator) checkSectionRoom(s *Section, d string) {
 		v.ps.errorf(v.at(s.Src, col), "%s%s — change Needs, add the feature to a room, or write \"no room\" for an online section", d, what)
 		return
 	}
-	if v.t.SoftCapacity {
-		return
-	}
-	largest := 0
-	for _, r := range withFeatures {
-		largest = max(largest, r.Capacity)
-	}
-	if largest < s.Size {
+	if !v.t.SoftCapacity && largest < s.Size {
 		v.ps.errorf(v.at(s.Src, "Expected size"), "%sno suitable room holds %d students (the largest seats %d) — split the section, lower the expected size or allow a larger room", d, s.Size, largest)
 	}
+}
+
+// largestRoom returns the largest capacity among the rooms that section s
+// may use and that have its features, and whether there is any. Results
+// are cached by the section's needs and allowed rooms, which many sections
+// share.
+func (v *validator) largestRoom(s *Section) (int, bool) {
+	key := strings.Join(s.Needs, "\x00") + "\x01" + strings.Join(s.Rooms, "\x00")
+	if c, ok := v.largest[key]; ok {
+		return c, c >= 0
+	}
+	best := -1
+	for i := range v.t.Rooms {
+		r := &v.t.Rooms[i]
+		if roomAllowed(s, r.ID) && hasFeatures(r, s.Needs) {
+			best = max(best, r.Capacity)
+		}
+	}
+	if v.largest == nil {
+		v.largest = map[string]int{}
+	}
+	v.largest[key] = best
+	return best, best >= 0
 }
 
 // hasRoomsSheet reports whether a read workbook had a Rooms sheet (its
