@@ -1,3 +1,110 @@
 // Package export publishes a timetable: per-person PDF grids, a workbook,
-// iCalendar files, CSV and JSON.
+// iCalendar files, CSV and JSON, written from a timetable.Term and a
+// timetable.Schedule. It knows nothing of logic programs: it imports only
+// timetable and file-format libraries.
+//
+// # What comes out
+//
+// Publish writes a whole directory (see its documentation for the layout);
+// the single writers are WriteTimetableWorkbook, WriteTimetableCSV,
+// WriteTimetableJSON, WritePersonPDF, WriteCombinedPDF and WriteICS. A
+// Subject names whose schedule to write: a staff member, room or cohort
+// (timetable.WhoStaff, WhoRoom, WhoCohort) or a student (WhoStudent).
+//
+// Weekly grid PDF (one landscape page, A4 or US Letter): a header with the
+// person's, room's or cohort's name and details on the left and the term's
+// name, dates, number of teaching weeks and holidays on the right; below it
+// a grid with the days as columns and the term's distinct period times as
+// rows, each row labelled with its start and end. A heavy rule marks a
+// break between periods (such as lunch); a day without a period at that
+// time is hatched. Each meeting is one framed block over all the rows it
+// occupies, with a dark bar on its left edge, holding the section (bold)
+// and its times, then its weeks when it does not meet every week, the title
+// (wrapped, cut with "…" only when there is no room), the room and building
+// (or "online / off-site") and the staff names. A section meeting only in
+// some weeks has a white block with a dashed frame and a lighter bar;
+// sections in disjoint weeks that share the same periods are stacked in the
+// shared area, and meetings that overlap only partly share the column side
+// by side. The page uses one text size where possible, the largest at
+// which every block shows all its text (not below 6.5 pt). Only greys and
+// line styles carry meaning, so it prints in black and white. The footer
+// gives the generation time in the term's time zone and "Page n of m";
+// room pages add a caution that the posted legal occupancy and local codes
+// take precedence over the seat counts entered.
+//
+// Combined PDF: a cover page (term, counts, contents with page numbers, and
+// a caution about legal room occupancy, accessibility and workload rules),
+// the master list of every meeting sorted by day, time and section (column
+// headers on each page, a rule at each new day), then every staff member's,
+// room's and cohort's grid page.
+//
+// Both embed the Go fonts (golang.org/x/image/font/gofont, regular and
+// bold), which cover Latin with its accents, Greek and Cyrillic (the WGL4
+// repertoire). A letter outside it is printed as the nearest letter the font
+// has (its canonical decomposition without the marks the font lacks: "ọ́"
+// prints as "ó"), and only then as '?'; nothing is dropped silently.
+//
+// Workbook: the master sheet timetable.TimetableSheet with exactly the
+// columns timetable.TimetableColumns (Meeting as a number, Day "Tue", Start
+// and End "10:00", Staff and Cohorts as comma-separated IDs), one row per
+// meeting sorted by day, start, section and meeting, frozen header and
+// autofilter, so that timetable.ReadSchedule reads it back; then one grid
+// sheet per staff member (named after the person), room ("Room R204") and
+// cohort ("Cohort C1") with the same layout as the PDF (a merged cell per
+// meeting; meetings sharing periods share one merged cell, each with its
+// times; frozen day headers and time column); the Load sheet (per staff
+// member: sections, meetings and distinct periods a week, busiest day,
+// their limit, periods taught over the whole term date by date; per room:
+// largest class, meetings, occupied grid periods, grid periods and
+// utilisation = occupied / grid periods; and a caution); then
+// Options.Extra. Sheet names go through SheetNames (Excel's limits).
+//
+// CSV: the master sheet's columns and cells exactly (CSVColumns), RFC 4180
+// with CRLF. JSON: TimetableJSON, whose field names are stable.
+//
+// # Calendars (RFC 5545)
+//
+// One VCALENDAR per subject, one VEVENT per meeting. DTSTART and DTEND are
+// local times with TZID set to the term's IANA time zone, and the calendar
+// carries a VTIMEZONE for it generated from Go's zone data (embedded with
+// time/tzdata, so it does not depend on the machine): every offset change
+// from 1 January of the first day's year to the end of the last day's year
+// is one STANDARD or DAYLIGHT observance with its exact onset and no RRULE,
+// so the file stays right across daylight-saving changes in the term and
+// whatever the zone's rules were in other years. DAYLIGHT is chosen by the
+// offset going up (this keeps Europe/Dublin, whose data calls winter time
+// the exception, in the usual form). DTSTART is the first date, on or
+// after the term's first day, on which the meeting takes place;
+// RRULE:FREQ=WEEKLY;UNTIL= gives its last date (UNTIL in UTC, as §3.3.10
+// requires with a TZID start); EXDATE lists, in between, the holidays and
+// the weeks outside the section's Weeks. A meeting that never takes place
+// has no event. SUMMARY is "section title", LOCATION "room, building",
+// DESCRIPTION section and meeting number, title, staff names, cohorts and
+// weeks. UID is a hash of term name, section, meeting number and subject,
+// so publishing again (even with the meeting moved) updates the event
+// instead of adding one; SEQUENCE is the number of minutes from 2020 to
+// Options.Generated, so a later publication always wins; DTSTAMP is
+// Options.Generated. Lines end in CRLF and are folded at 75 octets, never
+// inside a UTF-8 sequence (§3.1); TEXT values are escaped (§3.3.11). A
+// calendar file that was imported (rather than subscribed to) keeps events
+// that a later publication no longer has; people must delete those by hand.
+//
+// # Names and safety
+//
+// File names come from SafeFileNames (no path traversal, no reserved
+// characters or Windows device names, unique ignoring case); manifest.json
+// maps them back to IDs. Publish writes into a temporary directory next to
+// the target and renames it into place; it never replaces a directory that
+// holds anything but an earlier publication.
+//
+// # Representation
+//
+// Every writer first resolves the schedule into a view: meetings with their
+// section, first and last period, times and room, sorted by start period,
+// section and meeting, plus per-subject lists of meeting indexes and the
+// grid (days, distinct period times, which day has which period). A
+// subject's meetings on one day whose rows overlap form a cluster; boxes
+// place a cluster's members (stacked when they cover the same rows, side by
+// side otherwise). A view is read-only once its calendar data is made, so
+// Publish shares one view between its workers (one per CPU).
 package export
