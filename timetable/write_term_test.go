@@ -6,8 +6,11 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"strings"
 	"testing"
 	"time"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -311,4 +314,46 @@ func BenchmarkWriteTermWorkbook(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// FuzzWriteTermRoundTrip writes a small term whose free text, week set and
+// Min days come from the fuzzer, in both forms, and reads it back: it must
+// come back equal and clean. Text is limited to what a cell holds as
+// written: printable, without surrounding spaces.
+func FuzzWriteTermRoundTrip(f *testing.F) {
+	f.Add(uint64(0x555), "Spectroscopy", "Hélène Lefèvre", "Research day", 2)
+	f.Add(uint64(0b1011), "Σύνοψη, \"quoted\"; semi", "Олена Коваленко", "Ó Dálaigh's day", 0)
+	f.Add(uint64(1<<11), "=1+2", "Łukasz", "", 7)
+	f.Add(^uint64(0), "Fúnmiláyọ̀ — ½ ‰ 😀", "x", "y", -1)
+	f.Fuzz(func(t *testing.T, weeks uint64, title, name, reason string, minDays int) {
+		for _, s := range []string{title, name, reason} {
+			if !utf8.ValidString(s) || strings.TrimSpace(s) != s || strings.IndexFunc(s, func(r rune) bool { return !unicode.IsPrint(r) }) >= 0 || len(s) > 200 {
+				t.Skip("not text a cell holds as written")
+			}
+		}
+		term := handTerm()
+		w := timetable.WeekSet(weeks) & term.AllWeeks()
+		if w == 0 {
+			w = 1
+		}
+		term.Sections[0].Title = title
+		term.Sections[0].Weeks = w
+		term.Sections[3].MinDays = max(0, minDays%8)
+		term.Staff[1].Name = name
+		term.Unavailable[0].Reason = reason
+
+		var buf bytes.Buffer
+		require.NoError(t, timetable.WriteTermWorkbook(term, &buf))
+		got, ps, err := timetable.ReadWorkbook(&buf, "fuzz.xlsx")
+		require.NoError(t, err)
+		require.Empty(t, ps.Errors(), "errors:\n%s", ps)
+		assertSameTerm(t, term, got)
+
+		dir := t.TempDir()
+		require.NoError(t, timetable.WriteTermCSV(term, dir))
+		got, ps, err = timetable.ReadCSVDir(dir)
+		require.NoError(t, err)
+		require.Empty(t, ps.Errors(), "errors:\n%s", ps)
+		assertSameTerm(t, term, got)
+	})
 }
