@@ -756,3 +756,65 @@ func canonicalArgs(s string, depth int) (string, bool) {
 		s = s[1:]
 	}
 }
+
+// ReadModel reads a list of atoms of p, for example a candidate model to
+// Verify: ground atoms separated by blanks, commas or semicolons (commas
+// inside an atom's arguments belong to the atom), with "%" comments
+// allowed. Names are compared in the canonical form ReadProgram uses, so
+// "start(s12, 3)" names the atom start(s12,3); _a17 names atom 17 when it
+// is anonymous. name is used in error positions. Every unknown atom and
+// every syntax error is reported, as a SyntaxErrors list.
+func ReadModel(r io.Reader, p *Program, name string) ([]Atom, error) {
+	data, err := io.ReadAll(r)
+	if err != nil {
+		return nil, fmt.Errorf("reading %s: %w", name, err)
+	}
+	if name == "" {
+		name = "input"
+	}
+	index := make(map[string]Atom, p.NumAtoms())
+	for a := Atom(p.NumAtoms()); a >= 1; a-- { // the first atom of a name wins
+		if n := p.Name(a); n != "" {
+			index[n] = a
+		} else {
+			index[anonName(a)] = a
+		}
+	}
+	ps := &parser{file: name, prog: NewProgram(), atoms: make(map[string]Atom)}
+	ps.sc = newScanner(string(data), ps.errorAt)
+	ps.tok = ps.sc.next()
+	var model []Atom
+	for ps.tok.kind != tEOF && !ps.full {
+		func() {
+			defer func() {
+				if r := recover(); r != nil {
+					if r != errBail {
+						panic(r)
+					}
+					// Skip to the next separator.
+					for ps.tok.kind != tEOF && !ps.is(",") && !ps.is(";") {
+						ps.advance()
+					}
+				}
+			}()
+			if ps.is(",") || ps.is(";") || ps.is(".") {
+				ps.advance()
+				return
+			}
+			t := ps.tok
+			if t.kind != tIdent && t.kind != tVar {
+				ps.fail(t, "expected an atom, found %s", t.describe())
+			}
+			ps.name = ps.term(ps.name[:0], 0)
+			a, ok := index[string(ps.name)]
+			if !ok {
+				ps.fail(t, "%s is not an atom of the program: check the spelling", ps.name)
+			}
+			model = append(model, a)
+		}()
+	}
+	if len(ps.errs) > 0 {
+		return nil, ps.errs
+	}
+	return model, nil
+}

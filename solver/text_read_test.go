@@ -239,3 +239,40 @@ func TestCheckName(t *testing.T) {
 		})
 	}
 }
+
+func TestReadModel(t *testing.T) {
+	p := mustRead(t, `start(s12,3) :- not b. b :- not start(s12,3). c(-1,"x y"). #atoms _a9.`)
+	tests := []struct {
+		name, src string
+		want      []Atom
+		errs      []string // "line:col message part"
+	}{
+		{"blanks", "b c(-1,\"x y\")", []Atom{2, 3}, nil},
+		{"commas", "start(s12, 03), b,c(-1,\"x y\").", []Atom{1, 2, 3}, nil},
+		{"semicolons and lines", "b;\n% note\nstart(s12,3)", []Atom{2, 1}, nil},
+		{"anonymous", "_a4", []Atom{4}, nil},
+		{"empty", "  ", nil, nil},
+		{"unknown", "b, ¦d, ¦start(s12,4)", nil, []string{"d is not an atom of the program", "start(s12,4) is not an atom"}},
+		{"syntax", "b ¦) c", nil, []string{"expected an atom, found \")\""}},
+		{"variable", "¦X", nil, []string{"X is a variable"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			src, pos := markedPositions(tc.src)
+			got, err := ReadModel(strings.NewReader(src), p, "m.txt")
+			if tc.errs == nil {
+				require.NoError(t, err)
+				assert.Equal(t, tc.want, got)
+				return
+			}
+			var list SyntaxErrors
+			require.True(t, errors.As(err, &list), "%v", err)
+			require.Len(t, list, len(tc.errs), err.Error())
+			for i, e := range list {
+				assert.Equal(t, pos[i], fmt.Sprintf("%d:%d", e.Line, e.Col))
+				assert.Contains(t, e.Msg, tc.errs[i])
+				assert.True(t, strings.HasPrefix(e.Error(), "m.txt:"))
+			}
+		})
+	}
+}

@@ -13,7 +13,17 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-var update = flag.Bool("update", false, "rewrite golden files in testdata")
+// The -update flag rewrites golden files; another test file may define it.
+func init() {
+	if flag.Lookup("update") == nil {
+		flag.Bool("update", false, "rewrite golden files in testdata")
+	}
+}
+
+func updateGolden() bool {
+	f := flag.Lookup("update")
+	return f != nil && f.Value.String() == "true"
+}
 
 // roundTrip prints p, reads it back, checks that the program is the same
 // and that printing again gives the same bytes; it returns the text.
@@ -225,7 +235,7 @@ func TestWriteProgramCommentsGolden(t *testing.T) {
 	})
 	require.NoError(t, err)
 	golden := filepath.Join("testdata", "comments.golden.lp")
-	if *update {
+	if updateGolden() {
 		require.NoError(t, os.MkdirAll("testdata", 0o755))
 		require.NoError(t, os.WriteFile(golden, b.Bytes(), 0o644))
 	}

@@ -22,6 +22,24 @@ const (
 	OutOfBounds                        // a Bound's condition holds and its count is outside the limits
 )
 
+// String names the kind in lower case: "bad-atom", "unsupported",
+// "unwanted", "violated" or "out-of-bounds".
+func (k ProblemKind) String() string {
+	switch k {
+	case BadAtom:
+		return "bad-atom"
+	case Unsupported:
+		return "unsupported"
+	case Unwanted:
+		return "unwanted"
+	case Violated:
+		return "violated"
+	case OutOfBounds:
+		return "out-of-bounds"
+	}
+	return "unknown"
+}
+
 // Problem is one reason why a candidate is not a stable model.
 type Problem struct {
 	Kind  ProblemKind

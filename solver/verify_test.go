@@ -234,3 +234,12 @@ func BenchmarkVerifyChain(b *testing.B) {
 		}
 	}
 }
+
+func TestProblemKindString(t *testing.T) {
+	assert.Equal(t, "unsupported", Unsupported.String())
+	assert.Equal(t, "unwanted", Unwanted.String())
+	assert.Equal(t, "violated", Violated.String())
+	assert.Equal(t, "out-of-bounds", OutOfBounds.String())
+	assert.Equal(t, "bad-atom", BadAtom.String())
+	assert.Equal(t, "unknown", ProblemKind(0).String())
+}
