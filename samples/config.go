@@ -80,15 +80,22 @@ func departmentCount(s int) int {
 func electiveCount(s int) int { return int(math.Round(float64(s) * 0.08)) }
 
 // staffTarget is the number of staff aimed at: about 0.47 per section for a
-// small term, falling slowly as terms grow (more sections per person).
+// small term, falling slowly as terms grow (more sections per person); it
+// grows like S^(7/8).
 func staffTarget(s int) int {
-	return max(1, int(math.Round(0.47*float64(s)*math.Pow(150/float64(s), 0.1))))
+	return max(1, int(math.Round(0.873*float64(s)/eighthRoot(float64(s)))))
 }
 
 // roomUtilisation is the share of room-periods the rooms are sized to be
-// busy: about 22% for a small term rising to at most 60% for a large one.
+// busy: 22% for 150 sections, growing like S^(1/4) to at most 60%.
 func roomUtilisation(s int) float64 {
-	return math.Min(0.6, math.Max(0.2, 0.22+0.06*math.Log(float64(s)/150)))
+	return math.Min(0.6, 0.22*math.Sqrt(math.Sqrt(float64(s)/150)))
 }
+
+// eighthRoot uses only square roots, which IEEE 754 rounds exactly on every
+// machine (unlike math.Pow or math.Log), so that generated terms are the
+// same everywhere. For the same reason no expression here has the form
+// a*b+c, which a compiler may fuse into one rounding on some machines.
+func eighthRoot(x float64) float64 { return math.Sqrt(math.Sqrt(math.Sqrt(x))) }
 
 func clamp(v, lo, hi int) int { return max(lo, min(v, hi)) }

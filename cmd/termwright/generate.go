@@ -32,7 +32,10 @@ func newGenerateCmd(e *env) *cobra.Command {
 			"(OUT.xlsx, or - for standard output) and/or as a folder of CSV files (--csv DIR).\n" +
 			"The term is built around a hidden timetable that meets every hard requirement,\n" +
 			"so it is feasible. The same flags always give the same bytes; the defaults give\n" +
-			"the demo term (samples/demo-term.xlsx). Existing files are replaced only with --force.",
+			"the demo term (samples/demo-term.xlsx). Existing files are replaced only with --force.\n\n" +
+			"Everything in it is invented, room capacities included: in a real term, capacities\n" +
+			"must not exceed each room's posted legal occupancy, and staff limits follow local\n" +
+			"agreements and institution policy.",
 		Example: "  termwright generate big.xlsx --sections 2000 --seed 7\n" +
 			"  termwright generate --csv demo-folder",
 		Args: cobra.MaximumNArgs(1),
