@@ -343,3 +343,43 @@ func TestICSErrors(t *testing.T) {
 	err = WriteICS(&bytes.Buffer{}, term, s, Subject{timetable.WhoStaff, "nobody"}, Options{})
 	assert.ErrorContains(t, err, `"nobody"`)
 }
+
+// FuzzICSTitle writes a calendar whose section title is arbitrary text and
+// reads it back: it always parses, keeps every line within 75 octets
+// (RFC 5545 §3.1), and the SUMMARY unescapes (§3.3.11) to the title with
+// only control characters removed and line breaks kept.
+func FuzzICSTitle(f *testing.F) {
+	for _, s := range []string{"", "a;b,c\\d", "line\nbreak", "Ωμέγα ✓ 😀", strings.Repeat("é", 80), "\x00\x7f\r\n"} {
+		f.Add(s)
+	}
+	term, s := demoTerm()
+	f.Fuzz(func(t *testing.T, title string) {
+		if !utf8.ValidString(title) {
+			title = strings.ToValidUTF8(title, "\uFFFD")
+		}
+		term.Sections[0].Title = title
+		var buf bytes.Buffer
+		require.NoError(t, WriteICS(&buf, term, s, Subject{timetable.WhoStaff, "S1"}, Options{Generated: fixedClock}))
+		for _, l := range strings.Split(strings.TrimSuffix(buf.String(), "\r\n"), "\r\n") {
+			if len(l) > 75 || !utf8.ValidString(l) {
+				t.Fatalf("bad line %q", l)
+			}
+		}
+		cal, err := ics.ParseCalendar(bytes.NewReader(buf.Bytes()))
+		require.NoError(t, err)
+		want := strings.ReplaceAll(title, "\r\n", "\n")
+		want = strings.Map(func(r rune) rune {
+			if r == '\r' {
+				return '\n'
+			}
+			if (r < 0x20 && r != '\n' && r != '\t') || r == 0x7f {
+				return -1
+			}
+			return r
+		}, want)
+		got := cal.Events()[0].GetProperty(ics.ComponentPropertySummary).Value
+		if got != "CS101 "+want {
+			t.Fatalf("SUMMARY %q, want %q", got, "CS101 "+want)
+		}
+	})
+}
