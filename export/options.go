@@ -20,7 +20,9 @@ type Options struct {
 	// that holds nothing except the files of an earlier publication.
 	Force bool
 	// Extra sheets are appended to the timetable workbook after Load, in
-	// order (for example a Quality sheet from the optimiser).
+	// order (for example a Quality sheet from the optimiser). Their names
+	// go through SheetNames after the grid sheets' names, so a clash gets a
+	// "~2" suffix.
 	Extra []ExtraSheet
 }
 

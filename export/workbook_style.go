@@ -39,7 +39,8 @@ func newStyles(f *excelize.File) (styles, error) {
 		{&st.label, &excelize.Style{Font: &excelize.Font{Bold: true, Size: 9}, Fill: solid("EDEDED"), Border: thin("808080"),
 			Alignment: &excelize.Alignment{Horizontal: "center", Vertical: "top"}}},
 		{&st.free, &excelize.Style{Border: thin("BFBFBF")}},
-		{&st.closed, &excelize.Style{Fill: excelize.Fill{Type: "pattern", Pattern: 12, Color: []string{"A6A6A6"}}, Border: thin("BFBFBF")}},
+		// closed: light upward diagonal hatching (pattern "lightUp"), as in the PDF
+		{&st.closed, &excelize.Style{Fill: excelize.Fill{Type: "pattern", Pattern: 14, Color: []string{"A6A6A6"}}, Border: thin("BFBFBF")}},
 		{&st.block, &excelize.Style{Font: &excelize.Font{Size: 9}, Fill: solid("E4E4E4"),
 			Border: []excelize.Border{
 				{Type: "left", Color: "000000", Style: 5}, {Type: "right", Color: "000000", Style: 2},
