@@ -117,6 +117,10 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 		return res
 	}
 	for res.Rounds < maxRounds {
+		if ctx.Err() != nil {
+			res.Status = solver.Unknown // out of time before this round
+			return finish(), nil
+		}
 		res.Rounds++
 		t1 := time.Now()
 		st := s.Solve(ctx)
