@@ -38,14 +38,15 @@ func TestPublishCommand(t *testing.T) {
 	badDir := t.TempDir()
 	// Two meetings of different sections with a common staff member at the same start: a hard clash.
 	badTerm, badTT := publishFiles(t, badDir, func(term *timetable.Term, s *timetable.Schedule) {
-		staffOf := map[string][]string{}
+		secs := map[string]timetable.Section{}
 		for _, sec := range term.Sections {
-			staffOf[sec.ID] = sec.Staff
+			secs[sec.ID] = sec
 		}
 		for i := range s.Placements {
 			for j := range s.Placements {
-				a, b := s.Placements[i], s.Placements[j]
-				if a.Section != b.Section && len(staffOf[a.Section]) > 0 && len(staffOf[b.Section]) > 0 && staffOf[a.Section][0] == staffOf[b.Section][0] {
+				a, b := secs[s.Placements[i].Section], secs[s.Placements[j].Section]
+				if a.ID != b.ID && a.Length == b.Length && len(a.Staff) > 0 && len(b.Staff) > 0 && a.Staff[0] == b.Staff[0] && a.Weeks.Overlaps(b.Weeks) {
+					a := s.Placements[i]
 					s.Placements[j].Period = a.Period
 					return
 				}
