@@ -351,9 +351,18 @@ func (a *roomAssigner) components() [][]int {
 	return out
 }
 
-// repair re-solves each component that holds a failed meeting exactly; a
-// component with no assignment yields a nogood over its meetings' starts.
+// localHops is how far local repair widens the set of meetings it moves.
+const localHops = 3
+
+// repair first re-solves the failed meetings exactly together with the
+// meetings that block them from their rooms (widening a few times), the
+// rest staying where they are; when that is not enough, it re-solves each
+// whole component that holds a failed meeting, and a component with no
+// assignment yields a nogood over its meetings' starts.
 func (a *roomAssigner) repair() error {
+	if a.localRepair() {
+		return nil
+	}
 	var rerr *RoomConflictError
 	for _, comp := range a.components() {
 		for _, mi := range comp {
@@ -385,4 +394,64 @@ func (a *roomAssigner) repair() error {
 		return rerr
 	}
 	return nil
+}
+
+// localRepair tries to place the failed meetings by moving only meetings
+// near them: those holding, in an overlapping period and week, a room the
+// failed meetings could use (and, widening, their own blockers). Meetings
+// outside the set keep their rooms. It reports success; on failure every
+// meeting is back where it was (failed ones unplaced).
+func (a *roomAssigner) localRepair() bool {
+	d := a.d
+	in := map[int]bool{}
+	set := make([]int, 0, len(a.failed))
+	for _, mi := range a.failed {
+		if !in[mi] {
+			in[mi] = true
+			set = append(set, mi)
+		}
+		d.ms[mi].room = -1
+	}
+	for hop := 0; hop < localHops; hop++ {
+		// Widen by the blockers of every meeting in the set.
+		for _, mi := range append([]int(nil), set...) {
+			m := &d.ms[mi]
+			for _, r := range d.setMembers(m.cand) {
+				for q := m.start; q <= m.end; q++ {
+					for _, j := range a.occ[r][q] {
+						if !in[int(j)] && d.ms[j].weeks&m.weeks != 0 {
+							in[int(j)] = true
+							set = append(set, int(j))
+						}
+					}
+				}
+			}
+			// A same-room group moves as a whole.
+			if m.group >= 0 {
+				for j := range d.ms {
+					if d.ms[j].group == m.group && !in[j] {
+						in[j] = true
+						set = append(set, j)
+					}
+				}
+			}
+		}
+		prev := make([]int, len(set))
+		for k, mi := range set {
+			prev[k] = d.ms[mi].room
+			a.unplace(mi)
+		}
+		if _, _, ok := a.exact(set); ok {
+			return true
+		}
+		for k, mi := range set {
+			if prev[k] >= 0 {
+				a.place(mi, prev[k])
+			}
+		}
+	}
+	for _, mi := range a.failed {
+		d.ms[mi].room = -2
+	}
+	return false
 }

@@ -10,8 +10,8 @@ import (
 // exactConflictLimit bounds the exact room search of one component.
 const exactConflictLimit = 200000
 
-// exact assigns rooms to the meetings of one component by solving a small
-// program with explicit room atoms: x(i,r) for each meeting i and each room
+// exact assigns rooms to a set of unplaced meetings, the others keeping
+// their rooms, by solving a small program with explicit room atoms: x(i,r) for each meeting i and each room
 // r it may use in all its periods; exactly one per meeting (while the
 // meeting's own switch atom is assumed), at most one meeting per room,
 // period and week scope, one room per same-room group. Preferred rooms are
@@ -31,14 +31,7 @@ func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
 		x[k] = map[int]solver.Atom{}
 		var heads []solver.Atom
 		for _, r := range d.setMembers(m.cand) {
-			ok := true
-			for q := m.start; q <= m.end; q++ {
-				if d.blocked(r, q) {
-					ok = false
-					break
-				}
-			}
-			if ok {
+			if a.free(r, mi) { // available, and not held by a meeting outside comp
 				a := p.NewAtom("")
 				x[k][r] = a
 				heads = append(heads, a)
