@@ -1,0 +1,146 @@
+package encode
+
+import (
+	"context"
+	"fmt"
+	"slices"
+	"testing"
+	"time"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/timetable"
+)
+
+// kindsOf lists the kinds of the reasons, sorted.
+func kindsOf(rs []Reason) []string {
+	out := make([]string, len(rs))
+	for i, r := range rs {
+		out[i] = r.Kind
+	}
+	slices.Sort(out)
+	return out
+}
+
+func sectionIDs(c *Conflict) []string {
+	out := make([]string, len(c.Sections))
+	for i, s := range c.Sections {
+		out[i] = s.ID
+	}
+	return out
+}
+
+// TestPlantedConflicts plants conflicts whose minimal cause is known and
+// checks that the explanation names exactly it.
+func TestPlantedConflicts(t *testing.T) {
+	const mon, tue = time.Monday, time.Tuesday
+	for _, k := range []int{2, 3, 4} {
+		// Pigeonhole (Dirichlet's box principle): k+1 sections of cohort C,
+		// each allowed only the same k periods by its own Unavailable rows,
+		// cannot all meet at different times. Two more sections of C are
+		// free and must not be blamed.
+		t.Run(fmt.Sprintf("pigeonhole k=%d", k), func(t *testing.T) {
+			b := newXTerm(2, k+2).room("R1", 30).room("R2", 30)
+			var want []string
+			for i := 1; i <= k+1; i++ {
+				id := fmt.Sprintf("P%d", i)
+				want = append(want, id)
+				b.sec(id, xStaff(fmt.Sprintf("T%d", i)), xCohort("C"))
+				b.unavail(timetable.WhoSection, id, mon, 9+k, 9+k+2) // the last two periods of Monday
+				b.unavail(timetable.WhoSection, id, tue, 9, 9+k+2)   // all of Tuesday
+			}
+			b.sec("F1", xStaff("U1"), xCohort("C")).sec("F2", xStaff("U2"), xCohort("C"))
+			ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+			require.NoError(t, err)
+			require.Equal(t, StatusInfeasible, ex.Status)
+			c := ex.Conflict
+			assert.True(t, c.Minimal)
+			assert.Equal(t, want, sectionIDs(c))
+			wantKinds := []string{KindCohortNoOverlap}
+			for range k + 1 {
+				wantKinds = append(wantKinds, KindSectionAvail)
+			}
+			slices.Sort(wantKinds)
+			assert.Equal(t, wantKinds, kindsOf(c.Reasons))
+			var rows []string
+			for _, r := range c.Reasons {
+				if r.Kind == KindSectionAvail {
+					rows = append(rows, r.Sources[1:]...) // after the section's own row
+				}
+			}
+			assert.Len(t, rows, 2*(k+1), "every Unavailable row of the blamed sections")
+			// Relaxing: the cheapest fix drops one section's availability.
+			require.NotEmpty(t, ex.Corrections)
+			assert.Equal(t, []string{KindSectionAvail}, kindsOf(ex.Corrections[0].Relax))
+		})
+	}
+	for _, k := range []int{1, 2, 3} {
+		// Hall's condition (Hall 1935): k+1 sections needing a lab, all
+		// fixed at Monday 09:00, with k labs, cannot all get a room.
+		t.Run(fmt.Sprintf("hall k=%d", k), func(t *testing.T) {
+			b := newXTerm(1, 3).room("BIG", 100)
+			for i := 1; i <= k; i++ {
+				b.room(fmt.Sprintf("LAB%d", i), 30, "lab")
+			}
+			var want []string
+			for i := 1; i <= k+1; i++ {
+				id := fmt.Sprintf("L%d", i)
+				want = append(want, id)
+				b.sec(id, xStaff(fmt.Sprintf("T%d", i)), xNeeds("lab"), xFixed(mon, 9, ""))
+			}
+			b.sec("X", xStaff("T1"), xFixed(mon, 10, ""))
+			ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+			require.NoError(t, err)
+			require.Equal(t, StatusInfeasible, ex.Status)
+			c := ex.Conflict
+			assert.True(t, c.Minimal)
+			assert.Equal(t, want, sectionIDs(c))
+			var wantKinds []string
+			for range k + 1 {
+				wantKinds = append(wantKinds, KindFixed)
+			}
+			wantKinds = append(wantKinds, KindRoomSupply)
+			slices.Sort(wantKinds)
+			assert.Equal(t, wantKinds, kindsOf(c.Reasons))
+			for _, r := range c.Reasons {
+				if r.Kind == KindRoomSupply {
+					assert.Len(t, r.Sources, k, "the lab rows")
+				}
+			}
+		})
+	}
+	// A fixed meeting at a time its teacher is unavailable.
+	t.Run("fixed meets unavailability", func(t *testing.T) {
+		b := newXTerm(2, 3).room("R1", 30).
+			sec("A", xStaff("T"), xFixed(tue, 10, "")).
+			sec("B", xStaff("T")).sec("C", xStaff("V")).
+			unavail(timetable.WhoStaff, "V", mon, 9, 12).
+			unavail(timetable.WhoStaff, "T", tue, 10, 11)
+		ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+		require.NoError(t, err)
+		require.Equal(t, StatusInfeasible, ex.Status)
+		c := ex.Conflict
+		assert.True(t, c.Minimal)
+		assert.Equal(t, []string{"A"}, sectionIDs(c))
+		require.Len(t, c.Reasons, 2)
+		assert.Equal(t, KindFixed, c.Reasons[0].Kind, "most specific first")
+		assert.Equal(t, KindStaffAvailability, c.Reasons[1].Kind)
+		assert.Equal(t, []string{"Staff row 2", "Unavailable row 3"}, c.Reasons[1].Sources)
+		assert.Contains(t, c.Reasons[1].Sentence, "Staff T (T)")
+		// Two ways out, the cheaper first: move the fixed meeting (40)
+		// or lift the unavailability (50).
+		require.Len(t, ex.Corrections, 2)
+		assert.Equal(t, []string{KindFixed}, kindsOf(ex.Corrections[0].Relax))
+		assert.Equal(t, []string{KindStaffAvailability}, kindsOf(ex.Corrections[1].Relax))
+		assert.True(t, ex.CorrectionsComplete)
+	})
+	t.Run("feasible", func(t *testing.T) {
+		b := newXTerm(1, 3).room("R1", 30).sec("A", xStaff("T")).sec("B", xStaff("T"))
+		ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+		require.NoError(t, err)
+		assert.Equal(t, StatusFeasible, ex.Status)
+		require.NotNil(t, ex.Schedule)
+		assert.Empty(t, timetable.HardViolations(timetable.Check(b.t, ex.Schedule)))
+		assert.Nil(t, ex.Conflict)
+	})
+}
