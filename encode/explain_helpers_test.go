@@ -76,10 +76,14 @@ func (b *xTerm) rel(kind timetable.RelationKind, secs ...string) *xTerm {
 	return b
 }
 
-func xStaff(ids ...string) func(*timetable.Section)  { return func(s *timetable.Section) { s.Staff = ids } }
-func xCohort(ids ...string) func(*timetable.Section) { return func(s *timetable.Section) { s.Cohorts = ids } }
-func xNeeds(f ...string) func(*timetable.Section)    { return func(s *timetable.Section) { s.Needs = f } }
-func xSize(n int) func(*timetable.Section)           { return func(s *timetable.Section) { s.Size = n } }
+func xStaff(ids ...string) func(*timetable.Section) {
+	return func(s *timetable.Section) { s.Staff = ids }
+}
+func xCohort(ids ...string) func(*timetable.Section) {
+	return func(s *timetable.Section) { s.Cohorts = ids }
+}
+func xNeeds(f ...string) func(*timetable.Section) { return func(s *timetable.Section) { s.Needs = f } }
+func xSize(n int) func(*timetable.Section)        { return func(s *timetable.Section) { s.Size = n } }
 func xMeet(m, length int) func(*timetable.Section) {
 	return func(s *timetable.Section) { s.Meetings, s.Length = m, length }
 }
