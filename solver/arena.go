@@ -55,8 +55,12 @@ func (s *Solver) allocClause(lits []Lit, learnt bool, lbd int) uint32 {
 	return c
 }
 
-// attach adds the watches of clause c on its first two literals.
+// attach adds the watches of clause c on its first two literals (deferred
+// to rebuildWatches while New builds the solver).
 func (s *Solver) attach(c uint32) {
+	if s.building {
+		return
+	}
 	lits := s.clauseLits(c)
 	ref := c
 	if len(lits) == 2 {
@@ -171,4 +175,35 @@ func (s *Solver) addClauseInSearch(lits []Lit, learnt bool, lbd int) (conflict b
 		s.assign(lits[0], c)
 	}
 	return false
+}
+
+// rebuildWatches recreates every watch list from the arena. The lists share
+// one allocation, each with some spare capacity; a list that outgrows it is
+// moved by append. O(arena size).
+func (s *Solver) rebuildWatches() {
+	count := make([]uint32, len(s.watches))
+	arena := s.arena
+	for c := clauseHeader; c < len(arena); c += clauseHeader + int(arena[c]>>headerShift) {
+		if arena[c]&flagDeleted == 0 {
+			count[arena[c+clauseHeader]]++
+			count[arena[c+clauseHeader+1]]++
+		}
+	}
+	total := 0
+	for i, n := range count {
+		n += n/4 + 2
+		count[i] = n
+		total += int(n)
+	}
+	buf := make([]watch, total)
+	off := 0
+	for i, n := range count {
+		s.watches[i] = buf[off : off : off+int(n)]
+		off += int(n)
+	}
+	for c := clauseHeader; c < len(arena); c += clauseHeader + int(arena[c]>>headerShift) {
+		if arena[c]&flagDeleted == 0 {
+			s.attach(uint32(c))
+		}
+	}
 }

@@ -97,3 +97,19 @@ func BenchmarkHamiltonianK8(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkTimetableLike builds and solves a synthetic program with 2000
+// sections over 40 periods and 700 resources (about 240 000 atoms).
+func BenchmarkTimetableLike(b *testing.B) {
+	p := engTimetableLike(2000, 40, 700, 1, false)
+	b.ReportAllocs()
+	for b.Loop() {
+		s, err := New(p, DefaultOptions())
+		if err != nil {
+			b.Fatal(err)
+		}
+		if s.Solve(context.Background()) != Satisfiable {
+			b.Fatal("must be satisfiable")
+		}
+	}
+}

@@ -31,9 +31,12 @@ func (s *Solver) addCard(lits []Lit, lower, upper int, cond Lit) {
 	if !s.ok {
 		return
 	}
-	m := append([]Lit(nil), lits...)
+	start := len(s.cardLits)
+	s.cardLits = append(s.cardLits, lits...)
+	m := s.cardLits[start:]
 	slices.Sort(m)
 	m = slices.Compact(m)
+	s.cardLits = s.cardLits[:start+len(m)]
 	n := len(m)
 	if lower < 0 {
 		lower = 0
@@ -41,6 +44,8 @@ func (s *Solver) addCard(lits []Lit, lower, upper int, cond Lit) {
 	if upper < 0 || upper > n {
 		upper = n
 	}
+	end := start // members stay only when a card is made
+	defer func() { s.cardLits = s.cardLits[:end] }()
 	var tmp []Lit
 	clause := func(lits ...Lit) {
 		tmp = append(tmp[:0], lits...)
@@ -70,15 +75,14 @@ func (s *Solver) addCard(lits []Lit, lower, upper int, cond Lit) {
 		return
 	}
 	k := uint32(len(s.cards))
-	c := card{start: uint32(len(s.cardLits)), n: int32(n), lower: int32(lower), upper: int32(upper), cond: cond}
-	s.cardLits = append(s.cardLits, m...)
+	end = start + n
+	c := card{start: uint32(start), n: int32(n), lower: int32(lower), upper: int32(upper), cond: cond}
+	s.cards = append(s.cards, c)
+	if !s.building {
+		s.indexCard(k)
+	}
+	c = s.cards[k]
 	for _, p := range m {
-		if c.upper < c.n {
-			s.cardOcc[p] = append(s.cardOcc[p], k<<2|occTrue)
-		}
-		if c.lower > 0 {
-			s.cardOcc[p^1] = append(s.cardOcc[p^1], k<<2|occFalse)
-		}
 		if s.vals[p] != 0 && int(s.trailPos[p>>1]) < s.qhead {
 			if s.vals[p] == 1 {
 				c.nTrue++
@@ -87,10 +91,7 @@ func (s *Solver) addCard(lits []Lit, lower, upper int, cond Lit) {
 			}
 		}
 	}
-	if cond != 0 {
-		s.cardOcc[cond] = append(s.cardOcc[cond], k<<2|occCond)
-	}
-	s.cards = append(s.cards, c)
+	s.cards[k] = c
 	if s.qhead > 0 && s.cardPropagate(k, occCond) {
 		s.ok = false // only at level 0: the constraint contradicts the facts
 	}
@@ -206,4 +207,52 @@ func (s *Solver) explainCard(dst []Lit, k, kind uint32, pos int32) []Lit {
 		}
 	}
 	return dst
+}
+
+// indexCard adds the occurrences of card k to cardOcc.
+func (s *Solver) indexCard(k uint32) {
+	c := &s.cards[k]
+	for _, p := range s.cardLits[c.start : c.start+uint32(c.n)] {
+		if c.upper < c.n {
+			s.cardOcc[p] = append(s.cardOcc[p], k<<2|occTrue)
+		}
+		if c.lower > 0 {
+			s.cardOcc[p^1] = append(s.cardOcc[p^1], k<<2|occFalse)
+		}
+	}
+	if c.cond != 0 {
+		s.cardOcc[c.cond] = append(s.cardOcc[c.cond], k<<2|occCond)
+	}
+}
+
+// indexCards builds cardOcc for every card in one allocation (end of New).
+func (s *Solver) indexCards() {
+	count := make([]uint32, len(s.cardOcc))
+	for k := range s.cards {
+		c := &s.cards[k]
+		for _, p := range s.cardLits[c.start : c.start+uint32(c.n)] {
+			if c.upper < c.n {
+				count[p]++
+			}
+			if c.lower > 0 {
+				count[p^1]++
+			}
+		}
+		if c.cond != 0 {
+			count[c.cond]++
+		}
+	}
+	total := 0
+	for _, n := range count {
+		total += int(n)
+	}
+	buf := make([]uint32, total)
+	off := 0
+	for i, n := range count {
+		s.cardOcc[i] = buf[off : off : off+int(n)]
+		off += int(n)
+	}
+	for k := range s.cards {
+		s.indexCard(uint32(k))
+	}
 }

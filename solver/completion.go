@@ -28,11 +28,16 @@ func New(p *Program, opts Options) (*Solver, error) {
 	s.rng = rand.New(rand.NewPCG(uint64(o.Seed), 0x9e3779b97f4a7c15))
 	s.initTables()
 	s.numAtoms = p.NumAtoms()
+	s.reserve(s.numAtoms + len(p.Rules) + len(p.Choices) + len(p.Bounds) + len(p.Weaks) + 2)
 	for i := 0; i < s.numAtoms; i++ {
 		s.newVar()
 	}
-	b := completion{s: s, p: p, index: map[uint64][]uint32{}}
+	b := completion{s: s, p: p, index: map[uint64]uint32{}}
+	s.building = true
 	b.build()
+	s.building = false
+	s.rebuildWatches()
+	s.indexCards()
 	s.nextReduce = int64(o.ReduceFirst)
 	s.reduceIncr = int64(o.ReduceInc)
 	s.lbdQueue = make([]int, o.GlucoseWindow)
@@ -102,72 +107,109 @@ func checkProgram(p *Program) error {
 }
 
 // completion translates a Program into the solver's clauses and
-// constraints; it lives only during New.
+// constraints; it lives only during New. Bodies are stored flat; body id 0
+// is the empty body.
 type completion struct {
-	s       *Solver
-	p       *Program
-	index   map[uint64][]uint32 // hash of a normalised body -> body ids with that hash
-	bodies  [][]Lit             // per body id: normalised literals; id 0 is the empty body
-	lits    []Lit               // per body id: literal true iff the body holds (0 for the empty body)
-	support [][]uint32          // per atom: body ids of its rules and choice rules
-	always  []bool              // per atom: has a rule or choice rule with an empty body
-	scratch []Lit               // clause being built
+	s         *Solver
+	p         *Program
+	index     map[uint64]uint32 // hash of a normalised body of 2+ literals -> latest body id with that hash
+	chain     []uint32          // per body id: previous body id with the same hash (0 = none)
+	single    []uint32          // per literal l: id of the body {l}, 0 = none yet
+	bodyStart []uint32          // body id's literals are bodyFlat[bodyStart[id]:bodyStart[id+1]]
+	bodyFlat  []Lit             // normalised literals of all bodies
+	lits      []Lit             // per body id: literal true iff the body holds (0 for the empty body)
+	heads     []headBody        // (atom, body id) for every rule and choice head
+	always    []bool            // per atom: has a rule or choice rule with an empty body
+	scratch   []Lit             // clause being built
 }
+
+// headBody records that body supports atom.
+type headBody struct{ atom, body uint32 }
+
+func (b *completion) bodyLits(id uint32) []Lit { return b.bodyFlat[b.bodyStart[id]:b.bodyStart[id+1]] }
 
 // body returns the id of the body with literals ls (normalised, shared with
 // equal bodies) and false when ls contains a literal and its complement.
 func (b *completion) body(ls []Lit) (uint32, bool) {
+	if len(ls) == 1 {
+		if id := b.single[ls[0]]; id != 0 {
+			return id, true
+		}
+	}
 	norm, taut := normalize(append(b.scratch[:0], ls...))
+	b.scratch = norm
 	if taut {
 		return 0, false
 	}
 	if len(norm) == 0 {
 		return 0, true
 	}
+	if len(norm) == 1 {
+		if id := b.single[norm[0]]; id != 0 {
+			return id, true
+		}
+		id := b.newBody(norm, norm[0])
+		b.single[norm[0]] = id
+		return id, true
+	}
 	h := uint64(14695981039346656037)
 	for _, l := range norm {
 		h = (h ^ uint64(l)) * 1099511628211
 	}
-	for _, id := range b.index[h] {
-		if slices.Equal(b.bodies[id], norm) {
+	first, ok := b.index[h]
+	for id := first; ok && id != 0; id = b.chain[id] {
+		if slices.Equal(b.bodyLits(id), norm) {
 			return id, true
 		}
 	}
-	id := uint32(len(b.bodies))
-	lits := append([]Lit(nil), norm...)
-	b.bodies = append(b.bodies, lits)
-	b.index[h] = append(b.index[h], id)
-	if len(lits) == 1 {
-		b.lits = append(b.lits, lits[0])
-		return id, true
-	}
 	v := Pos(Atom(b.s.newVar()))
-	b.lits = append(b.lits, v)
+	id := b.newBody(norm, v)
+	if ok {
+		b.chain[id] = first
+	}
+	b.index[h] = id
 	// v <-> l1 ∧ ... ∧ lm
+	lits := b.bodyLits(id)
+	var pair [2]Lit
 	for _, l := range lits {
-		b.s.addClauseLevel0(append(b.scratch[:0], v^1, l))
+		pair[0], pair[1] = v^1, l
+		b.s.addClauseLevel0(pair[:])
 	}
 	c := append(b.scratch[:0], v)
 	for _, l := range lits {
 		c = append(c, l^1)
 	}
+	b.scratch = c
 	b.s.addClauseLevel0(c)
 	return id, true
+}
+
+// newBody stores a body with the literal that stands for it.
+func (b *completion) newBody(norm []Lit, lit Lit) uint32 {
+	id := uint32(len(b.lits))
+	b.bodyFlat = append(b.bodyFlat, norm...)
+	b.bodyStart = append(b.bodyStart, uint32(len(b.bodyFlat)))
+	b.lits = append(b.lits, lit)
+	b.chain = append(b.chain, 0)
+	return id
 }
 
 func (b *completion) build() {
 	s, p := b.s, b.p
 	n := s.numAtoms
-	b.bodies = [][]Lit{nil}
+	b.bodyStart = []uint32{0, 0}
 	b.lits = []Lit{0}
-	b.support = make([][]uint32, n+1)
+	b.chain = []uint32{0}
+	b.single = make([]uint32, 2*n+2)
 	b.always = make([]bool, n+1)
+	b.heads = make([]headBody, 0, len(p.Rules))
 	for _, r := range p.Rules {
 		if r.Head == 0 {
 			c := b.scratch[:0]
 			for _, l := range r.Body {
 				c = append(c, l^1)
 			}
+			b.scratch = c
 			s.addClauseLevel0(c)
 			continue
 		}
@@ -182,7 +224,7 @@ func (b *completion) build() {
 			continue
 		}
 		s.addClauseLevel0(append(b.scratch[:0], b.lits[id]^1, h))
-		b.support[r.Head] = append(b.support[r.Head], id)
+		b.heads = append(b.heads, headBody{uint32(r.Head), id})
 	}
 	for _, c := range p.Choices {
 		id, ok := b.body(c.Body)
@@ -193,20 +235,20 @@ func (b *completion) build() {
 			if id == 0 {
 				b.always[h] = true
 			} else {
-				b.support[h] = append(b.support[h], id)
+				b.heads = append(b.heads, headBody{uint32(h), id})
 			}
 		}
 	}
+	supStart, sup := b.supports()
 	for a := 1; a <= n; a++ {
-		slices.Sort(b.support[a])
-		b.support[a] = slices.Compact(b.support[a])
 		if b.always[a] {
 			continue
 		}
 		c := append(b.scratch[:0], Neg(Atom(a)))
-		for _, id := range b.support[a] {
+		for _, id := range sup[supStart[a]:supStart[a+1]] {
 			c = append(c, b.lits[id])
 		}
+		b.scratch = c
 		s.addClauseLevel0(c)
 	}
 	for _, bd := range p.Bounds {
@@ -228,29 +270,65 @@ func (b *completion) build() {
 	}
 	slices.Sort(s.levels)
 	slices.Reverse(s.levels)
-	b.unfoundedSets()
+	b.unfoundedSets(supStart, sup)
+}
+
+// supports groups the bodies of every atom's rules (counting sort by atom,
+// duplicates removed): atom a's bodies are sup[start[a]:start[a+1]].
+func (b *completion) supports() (start, sup []uint32) {
+	n := b.s.numAtoms
+	start = make([]uint32, n+2)
+	for _, hb := range b.heads {
+		start[hb.atom+1]++
+	}
+	for a := 1; a <= n+1; a++ {
+		start[a] += start[a-1]
+	}
+	sup = make([]uint32, len(b.heads))
+	fill := slices.Clone(start)
+	for _, hb := range b.heads {
+		sup[fill[hb.atom]] = hb.body
+		fill[hb.atom]++
+	}
+	// Remove duplicate bodies per atom, compacting in place.
+	out := uint32(0)
+	for a := 1; a <= n; a++ {
+		from, to := start[a], start[a+1]
+		start[a] = out
+		list := sup[from:to]
+		slices.Sort(list)
+		for i, id := range list {
+			if i > 0 && list[i-1] == id {
+				continue
+			}
+			sup[out] = id
+			out++
+		}
+	}
+	start[n+1] = out
+	return start, sup[:out]
 }
 
 // unfoundedSets finds the cycles of the positive dependency graph (edge from
 // a head to each positive atom of its rule bodies) and, if any, installs the
 // unfounded-set checker; without cycles the completion is exact (Fages 1994).
-func (b *completion) unfoundedSets() {
+func (b *completion) unfoundedSets(supStart, sup []uint32) {
 	s := b.s
 	n := s.numAtoms
-	pos := make([][]uint32, len(b.bodies))
-	for id, ls := range b.bodies {
-		for _, l := range ls {
-			if !l.IsNeg() && int(l.Atom()) <= n {
-				pos[id] = append(pos[id], uint32(l.Atom()))
+	posAtoms := func(id uint32, dst []uint32) []uint32 {
+		for _, l := range b.bodyLits(id) {
+			if !l.IsNeg() {
+				dst = append(dst, uint32(l.Atom()))
 			}
 		}
+		return dst
 	}
 	adjStart := make([]uint32, n+2)
 	var adj []uint32
 	for a := 1; a <= n; a++ {
 		adjStart[a] = uint32(len(adj))
-		for _, id := range b.support[a] {
-			adj = append(adj, pos[id]...)
+		for _, id := range sup[supStart[a]:supStart[a+1]] {
+			adj = posAtoms(id, adj)
 		}
 	}
 	adjStart[n+1] = uint32(len(adj))
@@ -258,28 +336,29 @@ func (b *completion) unfoundedSets() {
 	if k == 0 {
 		return
 	}
-	lits := b.lits
-	if b.anyAlways(comp) {
-		t := Pos(Atom(s.newVar()))
-		s.addClauseLevel0([]Lit{t})
-		s.trueLit = t
-		lits = append([]Lit(nil), b.lits...)
-		lits[0] = t
-	}
-	support := b.support
+	in := ufsSupport{support: make([][]uint32, n+1), bodyLit: b.lits, bodyPos: make([][]uint32, len(b.lits))}
 	for a := 1; a <= n; a++ {
-		if comp[a] != 0 && b.always[a] {
-			support[a] = append([]uint32{0}, support[a]...)
+		if comp[a] == 0 {
+			continue
+		}
+		list := sup[supStart[a]:supStart[a+1]]
+		if b.always[a] {
+			if s.trueLit == 0 {
+				s.trueLit = Pos(Atom(s.newVar()))
+				s.addClauseLevel0([]Lit{s.trueLit})
+			}
+			list = append([]uint32{0}, list...)
+		}
+		in.support[a] = list
+		for _, id := range list {
+			if id != 0 && in.bodyPos[id] == nil {
+				in.bodyPos[id] = posAtoms(id, []uint32{})
+			}
 		}
 	}
-	s.ufs = newUnfounded(n, len(s.vals), comp, ufsSupport{support: support, bodyLit: lits, bodyPos: pos})
-}
-
-func (b *completion) anyAlways(comp []uint32) bool {
-	for a, c := range comp {
-		if c != 0 && b.always[a] {
-			return true
-		}
+	if s.trueLit != 0 {
+		in.bodyLit = slices.Clone(b.lits)
+		in.bodyLit[0] = s.trueLit
 	}
-	return false
+	s.ufs = newUnfounded(n, len(s.vals), comp, in)
 }

@@ -271,3 +271,48 @@ func engRandomProgram(r *rand.Rand, n int) *Program {
 	}
 	return p
 }
+
+// engTimetableLike builds a synthetic weekly-timetabling program: each of
+// sections sections picks exactly one of periods periods through a choice
+// rule with bounds; each uses two of resources resources (an instructor and
+// a cohort), and each resource has at most one section per period; busy
+// atoms "busy(r,p) :- start(s,p)" for the sections of r carry the
+// cardinality. With weak constraints for disliked periods when weak is set.
+func engTimetableLike(sections, periods, resources int, seed uint64, weak bool) *Program {
+	r := rand.New(rand.NewPCG(seed, 5))
+	p := NewProgram()
+	start := make([][]Atom, sections)
+	uses := make([][]int, resources)
+	for s := range start {
+		start[s] = make([]Atom, periods)
+		for t := range start[s] {
+			start[s][t] = p.NewAtom(fmt.Sprintf("start(%d,%d)", s, t))
+		}
+		p.AddChoice(start[s], 1, 1)
+		a, b := r.IntN(resources), r.IntN(resources)
+		uses[a] = append(uses[a], s)
+		if b != a {
+			uses[b] = append(uses[b], s)
+		}
+		if weak {
+			for k := 0; k < 3; k++ {
+				p.AddWeak(int64(1+r.IntN(3)), 0, Pos(start[s][r.IntN(periods)]))
+			}
+		}
+	}
+	for res, ss := range uses {
+		if len(ss) < 2 {
+			continue
+		}
+		for t := 0; t < periods; t++ {
+			lits := make([]Lit, len(ss))
+			for i, s := range ss {
+				b := p.NewAtom(fmt.Sprintf("busy(%d,%d,%d)", res, s, t))
+				p.AddRule(b, Pos(start[s][t]))
+				lits[i] = Pos(b)
+			}
+			p.AddBound(lits, NoBound, 1)
+		}
+	}
+	return p
+}

@@ -55,12 +55,13 @@ func (s *Solver) propagateUnits() bool {
 		}
 
 		falseLit := p ^ 1
+		vals, arena := s.vals, s.arena
 		ws := s.watches[falseLit]
 		i, j := 0, 0
 		for i < len(ws) {
 			w := ws[i]
 			i++
-			if s.vals[w.blocker] == 1 {
+			if vals[w.blocker] == 1 {
 				ws[j] = w
 				j++
 				continue
@@ -68,12 +69,8 @@ func (s *Solver) propagateUnits() bool {
 			if w.cref&binaryWatch != 0 {
 				ws[j] = w
 				j++
-				if s.vals[w.blocker] == -1 {
-					for i < len(ws) {
-						ws[j] = ws[i]
-						j++
-						i++
-					}
+				if vals[w.blocker] == -1 {
+					j += copy(ws[j:], ws[i:])
 					s.watches[falseLit] = ws[:j]
 					s.conflict = append(s.conflict[:0], w.blocker, falseLit)
 					return true
@@ -82,20 +79,20 @@ func (s *Solver) propagateUnits() bool {
 				continue
 			}
 			c := w.cref
-			n := uint32(s.arena[c] >> headerShift)
-			lits := s.arena[c+clauseHeader : c+clauseHeader+n]
+			n := uint32(arena[c] >> headerShift)
+			lits := arena[c+clauseHeader : c+clauseHeader+n]
 			if lits[0] == falseLit {
 				lits[0], lits[1] = lits[1], falseLit
 			}
 			first := lits[0]
-			if first != w.blocker && s.vals[first] == 1 {
+			if first != w.blocker && vals[first] == 1 {
 				ws[j] = watch{c, first}
 				j++
 				continue
 			}
 			moved := false
 			for k := 2; k < len(lits); k++ {
-				if q := lits[k]; s.vals[q] != -1 {
+				if q := lits[k]; vals[q] != -1 {
 					lits[1], lits[k] = q, falseLit
 					s.watches[q] = append(s.watches[q], watch{c, first})
 					moved = true
@@ -107,12 +104,8 @@ func (s *Solver) propagateUnits() bool {
 			}
 			ws[j] = watch{c, first}
 			j++
-			if s.vals[first] == -1 {
-				for i < len(ws) {
-					ws[j] = ws[i]
-					j++
-					i++
-				}
+			if vals[first] == -1 {
+				j += copy(ws[j:], ws[i:])
 				s.watches[falseLit] = ws[:j]
 				s.conflict = append(s.conflict[:0], lits...)
 				return true

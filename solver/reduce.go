@@ -81,12 +81,7 @@ func (s *Solver) compact() {
 	}
 	s.arena = arena
 	s.wasted = 0
-	for i := range s.watches {
-		s.watches[i] = s.watches[i][:0]
-	}
-	for c := clauseHeader; c < len(arena); c += clauseHeader + int(arena[c]>>headerShift) {
-		s.attach(uint32(c))
-	}
+	s.rebuildWatches()
 	for _, p := range s.trail {
 		s.reason[p>>1] = 0
 	}

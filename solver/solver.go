@@ -3,6 +3,7 @@ package solver
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 )
 
 // Solver searches for stable models of one program. It is not safe for
@@ -14,6 +15,7 @@ type Solver struct {
 	numAtoms int  // the program's atoms are variables 1..numAtoms
 	numVars  int  // variables are 1..numVars: atoms, body variables, auxiliaries
 	ok       bool // false once the clauses are unsatisfiable at level 0 (permanent)
+	building bool // true inside New: watches and card occurrences are indexed once at the end
 
 	// Assignment.
 	vals     []int8   // per literal: +1 true, -1 false, 0 unassigned; vals[p] == -vals[p^1]
@@ -137,6 +139,26 @@ func (s *Solver) newVar() uint32 {
 		s.trail = t
 	}
 	return v
+}
+
+// reserve makes room for n variables in every per-variable and per-literal
+// table so that creating them does not copy the tables repeatedly.
+func (s *Solver) reserve(n int) {
+	s.vals = slices.Grow(s.vals, 2*n+2-len(s.vals))
+	s.level = slices.Grow(s.level, n+1-len(s.level))
+	s.reason = slices.Grow(s.reason, n+1-len(s.reason))
+	s.trailPos = slices.Grow(s.trailPos, n+1-len(s.trailPos))
+	s.watches = slices.Grow(s.watches, 2*n+2-len(s.watches))
+	s.activity = slices.Grow(s.activity, n+1-len(s.activity))
+	s.polarity = slices.Grow(s.polarity, n+1-len(s.polarity))
+	s.cardOcc = slices.Grow(s.cardOcc, 2*n+2-len(s.cardOcc))
+	s.sumOcc = slices.Grow(s.sumOcc, 2*n+2-len(s.sumOcc))
+	s.seen = slices.Grow(s.seen, n+1-len(s.seen))
+	s.explIndex = slices.Grow(s.explIndex, n+1-len(s.explIndex))
+	s.levelStamp = slices.Grow(s.levelStamp, n+1-len(s.levelStamp))
+	s.order.index = slices.Grow(s.order.index, n+1-len(s.order.index))
+	s.order.heap = slices.Grow(s.order.heap, n-len(s.order.heap))
+	s.trail = slices.Grow(s.trail, n-len(s.trail))
 }
 
 // initTables sizes the tables for variable 0 (unused).
