@@ -460,7 +460,10 @@ func (b *builder) supplySentence(set roomSet) string {
 		}
 		names = append(names, b.t.Rooms[r].ID)
 	}
-	return fmt.Sprintf("the %d room(s) %s hold at most one meeting each at a time, so at most %d meetings that can only use these rooms may meet in the same period (fewer when some are unavailable)",
+	if len(ids) == 1 {
+		return fmt.Sprintf("room %s holds one meeting at a time: at most 1 meeting that can use no other room may meet in any period (none while it is unavailable)", names[0])
+	}
+	return fmt.Sprintf("the %d rooms %s hold one meeting each at a time: at most %d meetings that can use no other rooms may meet in any period (fewer while some are unavailable)",
 		len(ids), strings.Join(names, ", "), len(ids))
 }
 
