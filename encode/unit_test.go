@@ -136,7 +136,9 @@ func TestRoomSet(t *testing.T) {
 func TestCompileErrors(t *testing.T) {
 	term := newTerm(1, 2).room("R1", 30).
 		section("A", staffOf("T1"), roomsOf("R9")).
-		section("B", func(s *timetable.Section) { s.Fixed = []timetable.Fixed{{Day: time.Sunday, Start: 9 * 60, Text: "Sun 09:00"}} }).
+		section("B", func(s *timetable.Section) {
+			s.Fixed = []timetable.Fixed{{Day: time.Sunday, Start: 9 * 60, Text: "Sun 09:00"}}
+		}).
 		relation(timetable.SameTime, "A", "GHOST").t
 	term.Sections[0].Cohorts = []string{"NOPE"}
 	_, _, err := Compile(term, Options{})
