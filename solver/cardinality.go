@@ -256,3 +256,35 @@ func (s *Solver) indexCards() {
 		s.indexCard(uint32(k))
 	}
 }
+
+// dropCards removes the cards from index base on and their members from
+// cardLits[litsBase:], with their occurrences. Called at level 0 once the
+// cards can no longer propagate (their conditions are false for good).
+func (s *Solver) dropCards(base, litsBase int) {
+	if base >= len(s.cards) {
+		return
+	}
+	keep := func(p Lit) {
+		occ := s.cardOcc[p]
+		j := 0
+		for _, o := range occ {
+			if int(o>>2) >= base {
+				continue
+			}
+			occ[j] = o
+			j++
+		}
+		s.cardOcc[p] = occ[:j]
+	}
+	for _, p := range s.cardLits[litsBase:] {
+		keep(p)
+		keep(p ^ 1)
+	}
+	for _, c := range s.cards[base:] {
+		if c.cond != 0 {
+			keep(c.cond)
+		}
+	}
+	s.cards = s.cards[:base]
+	s.cardLits = s.cardLits[:litsBase]
+}

@@ -26,8 +26,9 @@ import (
 // 2014) for up to Options.CoreBudget conflicts, then model-improving search
 // with a native weighted-sum bound "cost ≤ best − 1" until unsatisfiable;
 // the level's optimum is then fixed by a bound while lower levels are
-// optimised. Bounds are guarded by activation literals and removed when the
-// call returns, so later calls are unaffected.
+// optimised. Bounds are guarded by activation literals, and relaxation
+// literals are fixed true when the call returns; both kinds of constraint
+// are then removed, so later calls are unaffected.
 func (s *Solver) Optimize(ctx context.Context, onModel func(cost []int64, model []Atom)) (Status, []int64, error) {
 	assumps, ok := s.takeAssumptions()
 	if !ok {
@@ -78,6 +79,9 @@ type optimizer struct {
 	bestModel []bool      // per atom: the incumbent
 	lower     []int64     // proven lower bound per level
 	acts      []Lit       // activation literals created by this call
+	relax     []Lit       // "at least k" literals of relaxed cores, made true when the call ends
+	cardBase  int         // len(s.cards) before the call
+	cardLits  int         // len(s.cardLits) before the call
 	sumBase   int         // len(s.sums) before the call
 	partsBase int         // len(s.parts.lits) before the call
 	proven    bool        // every level's optimum was proven
@@ -88,7 +92,7 @@ type optimizer struct {
 // the constant w when w < 0; an always-true body adds a constant.
 func newOptimizer(s *Solver, assumps []Lit, onModel func([]int64, []Atom)) (*optimizer, error) {
 	o := &optimizer{s: s, onModel: onModel, base: assumps, user: len(assumps),
-		sumBase: len(s.sums), partsBase: len(s.parts.lits)}
+		sumBase: len(s.sums), partsBase: len(s.parts.lits), cardBase: len(s.cards), cardLits: len(s.cardLits)}
 	n := len(s.levels)
 	o.softs = make([][]softLit, n)
 	o.offset = make([]int64, n)
@@ -293,6 +297,7 @@ func (o *optimizer) corePhase(ctx context.Context, i int) Status {
 		atLeast := func(set, k int) {
 			v := Pos(Atom(s.newVar()))
 			s.addCard(sets[set], NoBound, k-1, v^1) // not v -> at most k-1 true
+			o.relax = append(o.relax, v)
 			softs = append(softs, relaxed{softLit{v, wmin}, set, k})
 		}
 		if len(core) > 1 {
@@ -376,7 +381,13 @@ func (o *optimizer) finish() {
 	for _, a := range o.acts {
 		s.addClauseLevel0([]Lit{a ^ 1})
 	}
+	// Relaxation literals become true: their cards are then inactive and
+	// every learned clause that depends on a card is satisfied.
+	for _, v := range o.relax {
+		s.addClauseLevel0([]Lit{v})
+	}
 	s.dropSums(o.sumBase, o.partsBase)
+	s.dropCards(o.cardBase, o.cardLits)
 	s.bestCost = slices.Clone(o.best)
 	s.proven = o.proven && o.best != nil
 	s.lower = slices.Clone(o.lower)

@@ -38,6 +38,9 @@ func (s *Solver) solve(ctx context.Context, assumps []Lit, user int) Status {
 	if len(s.trail) > s.simpTrail {
 		s.compact()
 	}
+	if ctx.Err() != nil {
+		return Unknown
+	}
 	return s.search(ctx)
 }
 
