@@ -82,15 +82,15 @@ const maxSyntaxErrors = 20
 // (up to 20 errors, each with its position); reading goes on after an error
 // at the next ".".
 func ReadProgram(r io.Reader, name string) (*Program, error) {
-	data, err := io.ReadAll(r)
-	if err != nil {
+	var text strings.Builder
+	if _, err := io.Copy(&text, r); err != nil {
 		return nil, fmt.Errorf("reading %s: %w", name, err)
 	}
 	if name == "" {
 		name = "input"
 	}
 	ps := &parser{file: name, prog: NewProgram(), atoms: make(map[string]Atom)}
-	ps.sc = newScanner(string(data), ps.errorAt)
+	ps.sc = newScanner(text.String(), ps.errorAt)
 	ps.tok = ps.sc.next()
 	ps.program()
 	if len(ps.errs) > 0 {
@@ -116,6 +116,9 @@ type parser struct {
 	errs  SyntaxErrors
 	full  bool   // maxSyntaxErrors reached
 	name  []byte // scratch: the canonical text of the term being parsed
+	body  []Lit  // scratch: the body of the statement (Add methods copy it)
+	elems []Lit  // scratch: the elements of a count
+	heads []Atom // scratch: the heads of a choice
 }
 
 func (ps *parser) errorAt(line, col int, msg string) {
@@ -212,8 +215,10 @@ func (ps *parser) statement() {
 
 // literals parses "l1, l2, ..." up to (not including) the "." that ends
 // the statement; empty is allowed when allowEmpty.
+// The result is the parser's scratch slice, valid until the next statement.
 func (ps *parser) literals(what string, allowEmpty bool) []Lit {
-	var lits []Lit
+	lits := ps.body[:0]
+	defer func() { ps.body = lits[:0] }()
 	if allowEmpty && ps.is(".") {
 		return nil
 	}
@@ -245,7 +250,8 @@ func (ps *parser) literal(what string) Lit {
 
 // constraint parses the rest of ":- body." where the body may hold one count.
 func (ps *parser) constraint() {
-	var cond []Lit
+	cond := ps.body[:0]
+	defer func() { ps.body = cond[:0] }()
 	var agg *aggregate
 	var aggTok token
 	var negated bool
@@ -307,7 +313,8 @@ type aggregate struct {
 // aggregate parses "[L [op]] { e; e; ... } [[op] U]"; atomsOnly rejects
 // "not" elements (choice heads).
 func (ps *parser) aggregate(atomsOnly bool) *aggregate {
-	agg := &aggregate{lower: NoBound, upper: NoBound}
+	agg := &aggregate{lits: ps.elems[:0], lower: NoBound, upper: NoBound}
+	defer func() { ps.elems = agg.lits[:0] }()
 	if ps.tok.kind == tNum {
 		t := ps.tok
 		v := ps.number()
@@ -448,10 +455,11 @@ func (ps *parser) signed(bits int, what string) int64 {
 
 func (ps *parser) choice() {
 	agg := ps.aggregate(true)
-	heads := make([]Atom, len(agg.lits))
-	for i, l := range agg.lits {
-		heads[i] = l.Atom()
+	heads := ps.heads[:0]
+	for _, l := range agg.lits {
+		heads = append(heads, l.Atom())
 	}
+	ps.heads = heads[:0]
 	var body []Lit
 	if ps.is(":-") {
 		ps.advance()
