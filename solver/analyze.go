@@ -36,6 +36,7 @@ func (s *Solver) analyze() (btLevel int, lbd int) {
 		if pathC <= 0 {
 			break
 		}
+		s.refreshLBD(s.reason[p>>1])
 		lits = s.reasonLits(uint32(p >> 1))[1:]
 	}
 	learnt[0] = p ^ 1
@@ -106,6 +107,18 @@ func (s *Solver) litRedundant(p Lit, abstract uint32) bool {
 	}
 	s.analyzeStack = stack
 	return true
+}
+
+// refreshLBD lowers the stored literal block distance of a learned clause
+// used in conflict analysis when it has dropped (Audemard & Simon 2009), so
+// that clauses that keep being useful survive reductions.
+func (s *Solver) refreshLBD(r uint32) {
+	if r>>reasonKindShift != kindClause || s.arena[r]&flagLearnt == 0 || s.arena[r+1] <= 2 {
+		return
+	}
+	if lbd := s.computeLBD(s.clauseLits(r)); Lit(lbd) < s.arena[r+1] {
+		s.arena[r+1] = Lit(lbd)
+	}
 }
 
 // computeLBD counts the distinct decision levels of lits.

@@ -209,3 +209,36 @@ func TestEnumerateHamiltonian(t *testing.T) {
 		})
 	}
 }
+
+// FuzzEngineMatchesDefinition: for any generator seed, the engine's stable
+// models equal those of the definition (Gelfond & Lifschitz 1988), and
+// optimisation finds the least cost.
+func FuzzEngineMatchesDefinition(f *testing.F) {
+	for i := uint64(0); i < 8; i++ {
+		f.Add(i, uint8(i*3), int64(i))
+	}
+	f.Fuzz(func(t *testing.T, seed uint64, size uint8, solverSeed int64) {
+		r := rand.New(rand.NewPCG(seed, uint64(size)))
+		n := 1 + int(size)%12
+		p := engWeakProgram(r, n)
+		want := engAllStable(p)
+		opts := Options{Seed: solverSeed}
+		if solverSeed%2 != 0 {
+			opts.Restarts, opts.LubyUnit, opts.ReduceFirst = RestartLuby, 1, 1
+		}
+		got := engModels(t, p, opts)
+		if !slices.EqualFunc(want, got, slices.Equal) {
+			t.Fatalf("program:\n%s\nwant models %v\ngot %v", engProgramText(p), want, got)
+		}
+		s, err := New(p, opts)
+		require.NoError(t, err)
+		st, cost, err := s.Optimize(context.Background(), nil)
+		require.NoError(t, err)
+		if len(want) == 0 {
+			require.Equal(t, Unsatisfiable, st)
+			return
+		}
+		require.Equal(t, Satisfiable, st)
+		require.Equal(t, engOptimum(p, want, nil), cost)
+	})
+}
