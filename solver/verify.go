@@ -425,7 +425,8 @@ func Levels(p *Program) []int {
 // Cost returns the total weight of the weak constraints whose body holds in
 // model, one entry per level of Levels(p) (highest level first). Each weak
 // constraint counts on its own, even when two are equal. Atoms outside the
-// program are ignored; literals of atoms outside it count as false.
+// program are ignored, and a weak constraint that mentions an atom outside
+// the program never holds.
 func Cost(p *Program, model []Atom) []int64 {
 	levels := Levels(p)
 	at := make(map[int]int, len(levels))

@@ -278,8 +278,12 @@ func runLogicSolve(ctx context.Context, e *env, o *logicOptions, path string) er
 	default:
 		fmt.Fprintln(e.stdout, logicSentence(listed, complete, more))
 	}
+	why := "the search was interrupted"
+	if errors.Is(ctx.Err(), context.DeadlineExceeded) {
+		why = fmt.Sprintf("the time limit of %v ran out", o.timeLimit)
+	}
 	if stopped && listed > 0 {
-		fmt.Fprintf(e.stderr, "termwright: the search stopped (time limit %v or interrupt) after %d model%s; there may be more\n", o.timeLimit, listed, logicPlural(listed))
+		fmt.Fprintf(e.stderr, "termwright: %s after %d model%s; there may be more\n", why, listed, logicPlural(listed))
 	}
 	switch sum.Result {
 	case "satisfiable":
@@ -287,7 +291,7 @@ func runLogicSolve(ctx context.Context, e *env, o *logicOptions, path string) er
 	case "unsatisfiable":
 		return withCode(exitNone, "")
 	}
-	return withCode(exitError, "no model found before the search stopped; try a longer --time-limit")
+	return withCode(exitError, why+" before any model was found; try a longer --time-limit")
 }
 
 // logicPrintModel prints one model's shown atoms, as text or JSON.

@@ -160,7 +160,7 @@ func TestLogicSolveTimeLimit(t *testing.T) {
 	code := run([]string{"logic", "solve", prog, "--time-limit", "1ns"}, e)
 	assert.Equal(t, exitError, code)
 	assert.Equal(t, "No stable model found before the search stopped.\n", out.String())
-	assert.Contains(t, errb.String(), "no model found before the search stopped; try a longer --time-limit")
+	assert.Contains(t, errb.String(), "the time limit of 1ns ran out before any model was found; try a longer --time-limit")
 }
 
 func TestLogicVerify(t *testing.T) {
