@@ -316,3 +316,44 @@ func engTimetableLike(sections, periods, resources int, seed uint64, weak bool) 
 	}
 	return p
 }
+
+// engLoopyProgram builds a random program dominated by positive
+// dependencies (many positive loops through normal and choice rules), with a
+// few negative literals, constraints and bounds: hard cases for unfounded
+// sets.
+func engLoopyProgram(r *rand.Rand, n int) *Program {
+	p := NewProgram()
+	atoms := make([]Atom, n)
+	for i := range atoms {
+		atoms[i] = p.NewAtom(fmt.Sprintf("a%d", i+1))
+	}
+	pick := func() Atom { return atoms[r.IntN(n)] }
+	for i := 0; i < n/3+1; i++ {
+		p.AddChoice([]Atom{pick()}, NoBound, NoBound) // external supports
+	}
+	for i := 0; i < 2*n; i++ {
+		body := []Lit{Pos(pick())}
+		if r.IntN(2) == 0 {
+			body = append(body, Pos(pick()))
+		}
+		if r.IntN(5) == 0 {
+			body = append(body, Neg(pick()))
+		}
+		if r.IntN(4) == 0 {
+			p.AddChoice([]Atom{pick()}, NoBound, NoBound, body...)
+		} else {
+			p.AddRule(pick(), body...)
+		}
+	}
+	for i := r.IntN(3); i > 0; i-- {
+		p.AddConstraint(Neg(pick()), Pos(pick()))
+	}
+	if r.IntN(2) == 0 {
+		var lits []Lit
+		for _, a := range atoms[:n/2] {
+			lits = append(lits, Pos(a))
+		}
+		p.AddBound(lits, 1+r.IntN(n/4+1), NoBound)
+	}
+	return p
+}

@@ -2,6 +2,8 @@ package solver
 
 import (
 	"context"
+	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -90,4 +92,32 @@ func TestUnfoundedSourcesSurviveBacktracking(t *testing.T) {
 	got := engModels(t, p, DefaultOptions())
 	require.Equal(t, want, got)
 	require.NotEmpty(t, got)
+}
+
+// TestUnfoundedLoopyPrograms: on random programs made mostly of positive
+// loops the engine's stable models equal those of the definition (Gelfond
+// & Lifschitz 1988).
+func TestUnfoundedLoopyPrograms(t *testing.T) {
+	count, maxN := 400, 15
+	if testing.Short() {
+		count, maxN = 100, 10
+	}
+	r := rand.New(rand.NewPCG(21, 22))
+	loops := int64(0)
+	for i := 0; i < count; i++ {
+		n := 3 + r.IntN(maxN-2)
+		p := engLoopyProgram(r, n)
+		want := engAllStable(p)
+		opts := Options{Seed: int64(i)}
+		if i%2 == 1 {
+			opts.Restarts, opts.LubyUnit, opts.ReduceFirst = RestartLuby, 2, 5
+		}
+		got := engModels(t, p, opts)
+		require.True(t, slices.EqualFunc(want, got, slices.Equal), "program %d:\n%s\nwant %v\ngot %v", i, engProgramText(p), want, got)
+		s, err := New(p, opts)
+		require.NoError(t, err)
+		s.Enumerate(context.Background(), 0, nil, func([]Atom) bool { return true })
+		loops += s.Stats().LoopFormulas
+	}
+	require.Positive(t, loops)
 }
