@@ -83,17 +83,17 @@ func (pr *printer) program(pairs []int) {
 		buf := pr.buf[:0]
 		switch kind {
 		case KindRule:
-			buf = appendRule(buf, pr.names, p.Rules[i])
+			buf = appendRule(buf, pr.name, p.Rules[i])
 		case KindChoice:
 			var bd *Bound
 			if bound >= 0 {
 				bd = &p.Bounds[bound]
 			}
-			buf = appendChoice(buf, pr.names, p.Choices[i], bd)
+			buf = appendChoice(buf, pr.name, p.Choices[i], bd)
 		case KindBound:
-			buf = appendBound(buf, pr.names, p.Bounds[i])
+			buf = appendBound(buf, pr.name, p.Bounds[i])
 		case KindWeak:
-			buf = appendWeak(buf, pr.names, p.Weaks[i])
+			buf = appendWeak(buf, pr.name, p.Weaks[i])
 		case KindShow:
 			buf = append(append(append(buf, "#show "...), pr.names[p.Shows[i]]...), '.')
 		}
@@ -155,6 +155,9 @@ func (pr *printer) header() {
 		pr.flush()
 	}
 }
+
+// name is the printed form of atom a.
+func (pr *printer) name(a Atom) string { return pr.names[a] }
 
 func (pr *printer) note(kind string, index int) {
 	if pr.comment == nil {
@@ -365,7 +368,7 @@ func needsHeader(p *Program, pairs []int) bool {
 	return !ok || int(next) != n+1
 }
 
-func appendLits(buf []byte, names []string, lits []Lit, sep string) []byte {
+func appendLits(buf []byte, name func(Atom) string, lits []Lit, sep string) []byte {
 	for i, l := range lits {
 		if i > 0 {
 			buf = append(buf, sep...)
@@ -373,14 +376,14 @@ func appendLits(buf []byte, names []string, lits []Lit, sep string) []byte {
 		if l.IsNeg() {
 			buf = append(buf, "not "...)
 		}
-		buf = append(buf, names[l.Atom()]...)
+		buf = append(buf, name(l.Atom())...)
 	}
 	return buf
 }
 
-func appendRule(buf []byte, names []string, r Rule) []byte {
+func appendRule(buf []byte, name func(Atom) string, r Rule) []byte {
 	if r.Head != 0 {
-		buf = append(buf, names[r.Head]...)
+		buf = append(buf, name(r.Head)...)
 		if len(r.Body) == 0 {
 			return append(buf, '.')
 		}
@@ -389,14 +392,14 @@ func appendRule(buf []byte, names []string, r Rule) []byte {
 	buf = append(buf, ":-"...)
 	if len(r.Body) > 0 {
 		buf = append(buf, ' ')
-		buf = appendLits(buf, names, r.Body, ", ")
+		buf = appendLits(buf, name, r.Body, ", ")
 	} else {
 		buf = append(buf, ' ')
 	}
 	return append(buf, '.')
 }
 
-func appendChoice(buf []byte, names []string, c Choice, b *Bound) []byte {
+func appendChoice(buf []byte, name func(Atom) string, c Choice, b *Bound) []byte {
 	lower, upper := NoBound, NoBound
 	if b != nil {
 		lower, upper = b.Lower, b.Upper
@@ -410,7 +413,7 @@ func appendChoice(buf []byte, names []string, c Choice, b *Bound) []byte {
 		if i > 0 {
 			buf = append(buf, "; "...)
 		}
-		buf = append(buf, names[h]...)
+		buf = append(buf, name(h)...)
 	}
 	buf = append(buf, '}')
 	switch {
@@ -423,7 +426,7 @@ func appendChoice(buf []byte, names []string, c Choice, b *Bound) []byte {
 	}
 	if len(c.Body) > 0 {
 		buf = append(buf, " :- "...)
-		buf = appendLits(buf, names, c.Body, ", ")
+		buf = appendLits(buf, name, c.Body, ", ")
 	}
 	return append(buf, '.')
 }
@@ -431,11 +434,11 @@ func appendChoice(buf []byte, names []string, c Choice, b *Bound) []byte {
 // appendBound prints a standalone Bound as an integrity constraint:
 // ":- U+1 {L}, Cond." for an upper limit only, ":- {L} L-1, Cond." for a
 // lower limit (>= 1) only, and ":- not L {L} U, Cond." otherwise.
-func appendBound(buf []byte, names []string, b Bound) []byte {
+func appendBound(buf []byte, name func(Atom) string, b Bound) []byte {
 	buf = append(buf, ":- "...)
 	elems := func(buf []byte) []byte {
 		buf = append(buf, '{')
-		buf = appendLits(buf, names, b.Lits, "; ")
+		buf = appendLits(buf, name, b.Lits, "; ")
 		return append(buf, '}')
 	}
 	switch {
@@ -461,14 +464,14 @@ func appendBound(buf []byte, names []string, b Bound) []byte {
 	}
 	if len(b.Cond) > 0 {
 		buf = append(buf, ", "...)
-		buf = appendLits(buf, names, b.Cond, ", ")
+		buf = appendLits(buf, name, b.Cond, ", ")
 	}
 	return append(buf, '.')
 }
 
-func appendWeak(buf []byte, names []string, w Weak) []byte {
+func appendWeak(buf []byte, name func(Atom) string, w Weak) []byte {
 	buf = append(buf, ":~ "...)
-	buf = appendLits(buf, names, w.Body, ", ")
+	buf = appendLits(buf, name, w.Body, ", ")
 	buf = append(buf, ". ["...)
 	buf = strconv.AppendInt(buf, w.Weight, 10)
 	buf = append(buf, '@')
@@ -478,33 +481,5 @@ func appendWeak(buf []byte, names []string, w Weak) []byte {
 
 // ruleText is the printed form of one rule, for messages.
 func ruleText(p *Program, r Rule) string {
-	return string(appendRule(nil, msgNames{p}.all(r.Body, r.Head), r))
-}
-
-// msgNames builds a sparse name table for the atoms one message mentions.
-type msgNames struct{ p *Program }
-
-func (m msgNames) all(lits []Lit, atoms ...Atom) []string {
-	max := Atom(0)
-	for _, l := range lits {
-		max = maxAtom(max, l.Atom())
-	}
-	for _, a := range atoms {
-		max = maxAtom(max, a)
-	}
-	names := make([]string, max+1)
-	for _, l := range lits {
-		names[l.Atom()] = atomText(m.p, l.Atom())
-	}
-	for _, a := range atoms {
-		names[a] = atomText(m.p, a)
-	}
-	return names
-}
-
-func maxAtom(a, b Atom) Atom {
-	if b > a {
-		return b
-	}
-	return a
+	return string(appendRule(nil, func(a Atom) string { return atomText(p, a) }, r))
 }

@@ -414,7 +414,14 @@ func logicPrintVerdict(e *env, v logicVerdict) {
 		return
 	}
 	fmt.Fprintf(e.stdout, "The candidate is not a stable model (%d problem%s):\n", len(v.Problems), logicPlural(len(v.Problems)))
-	for _, pr := range v.Problems {
+	for i, pr := range v.Problems {
+		if i == logicMostProblems {
+			fmt.Fprintf(e.stdout, "  and %d more (--json lists all)\n", len(v.Problems)-i)
+			break
+		}
 		fmt.Fprintf(e.stdout, "  - %s\n", pr.Message)
 	}
 }
+
+// logicMostProblems is how many problems the text output of verify lists.
+const logicMostProblems = 50

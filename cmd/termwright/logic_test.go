@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"flag"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -206,6 +207,20 @@ func TestLogicVerify(t *testing.T) {
 			assert.Contains(t, errb.String(), tc.stderr)
 		})
 	}
+}
+
+func TestLogicVerifyListsAtMost50Problems(t *testing.T) {
+	// 60 facts, none in the candidate: 60 problems, 50 listed.
+	var b strings.Builder
+	for i := range 60 {
+		fmt.Fprintf(&b, "f(%d).\n", i)
+	}
+	e, out, _ := logicEnv(b.String())
+	require.Equal(t, exitNone, run([]string{"logic", "verify", "-", "--model", ""}, e))
+	lines := strings.Split(strings.TrimSpace(out.String()), "\n")
+	require.Len(t, lines, 52)
+	assert.Equal(t, "The candidate is not a stable model (60 problems):", lines[0])
+	assert.Equal(t, "  and 10 more (--json lists all)", lines[51])
 }
 
 func TestLogicVerifyJSON(t *testing.T) {
