@@ -37,8 +37,8 @@ var fuzzSeeds = []string{
 
 var positionPrefix = regexp.MustCompile(`^fuzz\.lp:[1-9][0-9]*:[1-9][0-9]*: `)
 
-// FuzzReadProgram checks that the reader never panics, that every error
-// carries a line:col position, and that a program that reads prints, reads
+// FuzzReadProgram checks that the reader (and ReadModel) never panics, that
+// every error carries a line:col position, and that a program that reads prints, reads
 // back as the same program and prints again byte for byte.
 func FuzzReadProgram(f *testing.F) {
 	for _, s := range fuzzSeeds {
@@ -55,6 +55,16 @@ func FuzzReadProgram(f *testing.F) {
 			t.Fatalf("fast name check accepts %q: %s", data, slowCheckName(string(data)))
 		}
 		p, err := ReadProgram(bytes.NewReader(data), "fuzz.lp")
+		base := p
+		if base == nil {
+			base = NewProgram()
+		}
+		if _, merr := ReadModel(bytes.NewReader(data), base, "fuzz.txt"); merr != nil {
+			var list SyntaxErrors
+			if !errors.As(merr, &list) || len(list) == 0 {
+				t.Fatalf("ReadModel error is not a syntax error list: %v", merr)
+			}
+		}
 		if err != nil {
 			if p != nil {
 				t.Fatal("a program and an error")
