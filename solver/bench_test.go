@@ -113,3 +113,19 @@ func BenchmarkTimetableLike(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkHamiltonianPlanted200 finds one Hamiltonian cycle in a random
+// 200-vertex digraph (4 arcs per vertex) with a planted cycle, non-tight.
+func BenchmarkHamiltonianPlanted200(b *testing.B) {
+	p, _ := engHamiltonian(200, engPlantedArcs(200, 4, 1))
+	b.ReportAllocs()
+	for b.Loop() {
+		s, err := New(p, DefaultOptions())
+		if err != nil {
+			b.Fatal(err)
+		}
+		if s.Solve(context.Background()) != Satisfiable {
+			b.Fatal("a cycle was planted")
+		}
+	}
+}

@@ -357,3 +357,26 @@ func engLoopyProgram(r *rand.Rand, n int) *Program {
 	}
 	return p
 }
+
+// engPlantedArcs returns a random directed graph on n vertices containing a
+// hidden Hamiltonian cycle, with extra random arcs up to degree arcs per
+// vertex on average, in a deterministic order.
+func engPlantedArcs(n, degree int, seed uint64) [][2]int {
+	r := rand.New(rand.NewPCG(seed, 17))
+	perm := r.Perm(n)
+	seen := map[[2]int]bool{}
+	var arcs [][2]int
+	add := func(u, v int) {
+		if u != v && !seen[[2]int{u, v}] {
+			seen[[2]int{u, v}] = true
+			arcs = append(arcs, [2]int{u, v})
+		}
+	}
+	for i := range perm {
+		add(perm[i], perm[(i+1)%n])
+	}
+	for len(arcs) < degree*n {
+		add(r.IntN(n), r.IntN(n))
+	}
+	return arcs
+}

@@ -21,7 +21,7 @@ func gophersatSolve(n int, clauses [][]int) bool {
 // with gophersat and every model must satisfy every clause (and pass
 // Verify).
 func TestRandom3SATAgainstGophersat(t *testing.T) {
-	instances := 300
+	instances := 240
 	if testing.Short() {
 		instances = 60
 	}

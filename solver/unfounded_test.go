@@ -121,3 +121,36 @@ func TestUnfoundedLoopyPrograms(t *testing.T) {
 	}
 	require.Positive(t, loops)
 }
+
+// TestUnfoundedPlantedHamiltonian: on larger graphs with a planted cycle the
+// model verifies and its chosen arcs form one cycle through every vertex.
+func TestUnfoundedPlantedHamiltonian(t *testing.T) {
+	for _, n := range []int{30, 80, 150} {
+		arcs := engPlantedArcs(n, 4, uint64(n))
+		p, in := engHamiltonian(n, arcs)
+		s, err := New(p, DefaultOptions())
+		require.NoError(t, err)
+		require.Equal(t, Satisfiable, s.Solve(context.Background()))
+		require.NoError(t, Verify(p, s.Model(nil)))
+		next := make([]int, n)
+		for i := range next {
+			next[i] = -1
+		}
+		for i, a := range arcs {
+			if s.Value(in[i]) {
+				require.Equal(t, -1, next[a[0]], "one arc leaves each vertex")
+				next[a[0]] = a[1]
+			}
+		}
+		v, steps := 0, 0
+		for {
+			v = next[v]
+			steps++
+			if v == 0 {
+				break
+			}
+			require.Less(t, steps, n)
+		}
+		require.Equal(t, n, steps, "a single cycle through all %d vertices", n)
+	}
+}
