@@ -388,7 +388,6 @@ func (o *optimizer) finish() {
 	}
 	s.dropSums(o.sumBase, o.partsBase)
 	s.dropCards(o.cardBase, o.cardLits)
-	s.bestCost = slices.Clone(o.best)
 	s.proven = o.proven && o.best != nil
 	s.lower = slices.Clone(o.lower)
 	if s.proven {

@@ -5,7 +5,8 @@ import "context"
 // Solve searches for a stable model under the assumptions set by Assume
 // (which are then cleared). It returns Satisfiable (Model and Value give the
 // model), Unsatisfiable (Core gives failed assumptions) or Unknown when ctx
-// is done or Options.ConflictLimit conflicts were spent.
+// is done or Options.ConflictLimit conflicts were spent (also when an
+// assumption names no atom of the program).
 func (s *Solver) Solve(ctx context.Context) Status {
 	assumps, ok := s.takeAssumptions()
 	if !ok {

@@ -77,9 +77,8 @@ type Solver struct {
 	levels      []int     // distinct levels of the program's weak constraints, highest first
 
 	// Optimisation results (optimize.go).
-	bestCost []int64 // cost per level of the best model of the last Optimize call
-	lower    []int64 // proven lower bound per level of the last Optimize call
-	proven   bool    // the last Optimize call proved bestCost optimal
+	lower  []int64 // proven lower bound per level of the last Optimize call
+	proven bool    // the last Optimize call proved its best cost optimal
 
 	// Restarts and reductions (search.go, reduce.go).
 	lbdQueue     []int   // LBDs of the most recent learned clauses (ring buffer)
