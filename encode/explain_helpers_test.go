@@ -148,7 +148,7 @@ func xRand(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, 0x5eed)) 
 // three to five sections with shared staff and cohorts, hard unavailable
 // rows, fixed meetings and relations.
 func randomXTerm(rng *rand.Rand) *timetable.Term {
-	b := newXTerm(1+rng.IntN(2), 3+rng.IntN(2))
+	b := newXTerm(1+rng.IntN(2), 4+rng.IntN(2))
 	nRooms := 2 + rng.IntN(2)
 	for r := 0; r < nRooms; r++ {
 		if r == 0 && rng.IntN(2) == 0 {
@@ -161,13 +161,16 @@ func randomXTerm(rng *rand.Rand) *timetable.Term {
 	nSec := 3 + rng.IntN(3)
 	for i := 0; i < nSec; i++ {
 		var opts []func(*timetable.Section)
-		opts = append(opts, xStaff(fmt.Sprintf("T%d", rng.IntN(3))), xCohort(fmt.Sprintf("C%d", rng.IntN(2))))
+		opts = append(opts, xStaff(fmt.Sprintf("T%d", rng.IntN(3))), xCohort(fmt.Sprintf("C%d", rng.IntN(3))))
 		if rng.IntN(3) == 0 {
 			opts = append(opts, xMeet(2, 1))
+			if len(days) == 1 || rng.IntN(3) == 0 {
+				opts = append(opts, func(s *timetable.Section) { s.SameDay = true })
+			}
 		} else if rng.IntN(5) == 0 {
 			opts = append(opts, xMeet(1, 2))
 		}
-		if rng.IntN(4) == 0 {
+		if rng.IntN(4) == 0 && (b.t.Rooms[0].ID == "LAB" || rng.IntN(4) == 0) {
 			opts = append(opts, xNeeds("lab"))
 		}
 		opts = append(opts, xSize(10+5*rng.IntN(4)))
@@ -184,7 +187,7 @@ func randomXTerm(rng *rand.Rand) *timetable.Term {
 		case 0:
 			b.unavail(timetable.WhoStaff, fmt.Sprintf("T%d", rng.IntN(3)), d, from, from+1+rng.IntN(2))
 		case 1:
-			b.unavail(timetable.WhoCohort, fmt.Sprintf("C%d", rng.IntN(2)), d, from, from+1)
+			b.unavail(timetable.WhoCohort, fmt.Sprintf("C%d", rng.IntN(3)), d, from, from+1)
 		default:
 			b.unavail(timetable.WhoRoom, b.t.Rooms[rng.IntN(nRooms)].ID, d, from, from+2)
 		}
