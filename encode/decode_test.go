@@ -106,3 +106,26 @@ func TestDecodeRejectsForeignModel(t *testing.T) {
 		t.Fatal("Decode accepted a model without meetings")
 	}
 }
+
+// TestRoomRepairKeepsSameRoom: the fast assignment puts a same-room group
+// in the room a two-period meeting needs; repairing that must move the
+// whole group, not just its meeting in the way.
+func TestRoomRepairKeepsSameRoom(t *testing.T) {
+	term := newTerm(2, 2).room("R1", 30).room("R2", 30).room("R3", 30).room("R4", 30).
+		section("G1", roomsOf("R1", "R4"), fixedAt(time.Monday, 9, "")).
+		section("G2", roomsOf("R1", "R4"), fixedAt(time.Tuesday, 9, "")).
+		section("V", roomsOf("R3"), fixedAt(time.Monday, 10, "")).
+		section("Y", meetings(1, 2), roomsOf("R1", "R3"), fixedAt(time.Monday, 9, "")).
+		relation(timetable.SameRoom, "G1", "G2").t
+	out := solveBoth(t, term)
+	if !out.feasible {
+		t.Fatal("infeasible, want feasible (G1 and G2 in R4, Y in R1)")
+	}
+	rooms := map[string]string{}
+	for _, pl := range out.sched.Placements {
+		rooms[pl.Section] = pl.Room
+	}
+	if rooms["G1"] != "R4" || rooms["G2"] != "R4" || rooms["Y"] != "R1" {
+		t.Fatalf("rooms %v, want G1 and G2 in R4, Y in R1", rooms)
+	}
+}

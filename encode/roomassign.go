@@ -403,14 +403,33 @@ func (a *roomAssigner) repair() error {
 // meeting is back where it was (failed ones unplaced).
 func (a *roomAssigner) localRepair() bool {
 	d := a.d
+	groups := map[int][]int{}
+	for j := range d.ms {
+		if g := d.ms[j].group; g >= 0 && d.ms[j].cand >= 0 {
+			groups[g] = append(groups[g], j)
+		}
+	}
 	in := map[int]bool{}
 	set := make([]int, 0, len(a.failed))
-	for _, mi := range a.failed {
-		if !in[mi] {
-			in[mi] = true
-			set = append(set, mi)
+	add := func(j int) {
+		if in[j] {
+			return
 		}
+		in[j] = true
+		set = append(set, j)
+		// A same-room group moves as a whole.
+		if g := d.ms[j].group; g >= 0 {
+			for _, k := range groups[g] {
+				if !in[k] {
+					in[k] = true
+					set = append(set, k)
+				}
+			}
+		}
+	}
+	for _, mi := range a.failed {
 		d.ms[mi].room = -1
+		add(mi)
 	}
 	for hop := 0; hop < localHops; hop++ {
 		// Widen by the blockers of every meeting in the set.
@@ -419,19 +438,9 @@ func (a *roomAssigner) localRepair() bool {
 			for _, r := range d.setMembers(m.cand) {
 				for q := m.start; q <= m.end; q++ {
 					for _, j := range a.occ[r][q] {
-						if !in[int(j)] && d.ms[j].weeks&m.weeks != 0 {
-							in[int(j)] = true
-							set = append(set, int(j))
+						if d.ms[j].weeks&m.weeks != 0 {
+							add(int(j))
 						}
-					}
-				}
-			}
-			// A same-room group moves as a whole.
-			if m.group >= 0 {
-				for j := range d.ms {
-					if d.ms[j].group == m.group && !in[j] {
-						in[j] = true
-						set = append(set, j)
 					}
 				}
 			}
