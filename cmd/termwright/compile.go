@@ -109,18 +109,18 @@ func writeProgramDump(w io.Writer, t *timetable.Term, p *solver.Program, cat *en
 	return solver.WriteProgramComments(w, p, cat.Commenter())
 }
 
-// loadTerm reads a term and refuses it when it has errors, listing every
-// problem (errors first) on standard error.
+// loadTerm reads a term, prints its problems (errors first) on standard
+// error, and refuses it when it has errors.
 func loadTerm(e *env, path string) (*timetable.Term, error) {
 	term, problems, err := timetable.Load(path)
 	if err != nil {
 		return nil, withCode(exitError, err.Error())
 	}
 	errs := problems.Errors()
+	for _, p := range append(errs, problems.Warnings()...) {
+		fmt.Fprintln(e.stderr, p.String())
+	}
 	if len(errs) > 0 {
-		for _, p := range append(errs, problems.Warnings()...) {
-			fmt.Fprintln(e.stderr, p.String())
-		}
 		return nil, withCode(exitError, fmt.Sprintf("%s has %s — fix them first (termwright check %s lists them)",
 			path, checkCount(len(errs), "error"), path))
 	}
