@@ -28,6 +28,9 @@ type builder struct {
 	meets                                map[int][]solver.Atom // meets[s][day order]: meets(S,D) atoms, made on demand
 	startedBy                            map[int][]solver.Atom // startedBy[s][p]: started_by(S,P) atoms, made on demand
 	busy                                 map[int][]solver.Atom // busy[staff][p]: busy(T,P) atoms, made on demand
+	itemsBySet                           map[int][]roomItem    // candidate meetings by room set id (roomItemsBySet)
+	stamp                                []int32               // stamp[s] == stampGen: section s seen in the current count
+	stampGen                             int32                 // current stamp
 }
 
 // newAtom makes an atom with a name and a meaning.

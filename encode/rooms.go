@@ -477,21 +477,20 @@ func (b *builder) roomSources(set roomSet) []timetable.Source {
 	return src
 }
 
-// hallBounds states family f's Hall constraints.
-func (b *builder) hallBounds(f int) {
-	rm := &b.c.rooms
-	fam := rm.families[f]
-	U := rm.sets.sets[fam.set]
-	size := U.count()
-	nP := len(b.t.Periods)
-	// The meetings counted: (section, start) whose candidate set lies in U.
-	inside := map[int]bool{}
-	type item struct {
-		s, p int
+// roomItem is one candidate meeting that takes a room: a section and a
+// start, with its start literal.
+type roomItem struct {
+	s, p int32
+	lit  solver.Lit
+}
+
+// roomItemsBySet groups every candidate meeting that takes a room by its
+// candidate set id (made once per builder).
+func (b *builder) roomItemsBySet() map[int][]roomItem {
+	if b.itemsBySet != nil {
+		return b.itemsBySet
 	}
-	var items []item
-	secSeen := map[int]bool{}
-	var secs []int
+	b.itemsBySet = map[int][]roomItem{}
 	for s := range b.t.Sections {
 		m := &b.c.secs[s]
 		if !m.takesRoom {
@@ -499,50 +498,89 @@ func (b *builder) hallBounds(f int) {
 		}
 		for _, p := range m.starts {
 			id := m.candAt(p)
-			in, ok := inside[id]
-			if !ok {
-				in = rm.sets.sets[id].count() > 0 && rm.sets.sets[id].subsetOf(U)
-				inside[id] = in
-			}
-			if in {
-				items = append(items, item{s, p})
-				if !secSeen[s] {
-					secSeen[s] = true
-					secs = append(secs, s)
-				}
+			b.itemsBySet[id] = append(b.itemsBySet[id], roomItem{int32(s), int32(p), solver.Pos(m.start[p])})
+		}
+	}
+	return b.itemsBySet
+}
+
+// hallBounds states family f's Hall constraints: at each period and week
+// scope, the candidate meetings there whose candidate set lies inside U,
+// plus U's rooms unavailable then, number at most |U|. Bounds that can never
+// be exceeded (no more distinct sections than rooms) are left out.
+func (b *builder) hallBounds(f int) {
+	rm := &b.c.rooms
+	fam := rm.families[f]
+	U := rm.sets.sets[fam.set]
+	size := U.count()
+	nP := len(b.t.Periods)
+	bySet := b.roomItemsBySet()
+	ids := make([]int, 0, len(bySet))
+	for id := range bySet {
+		if set := rm.sets.sets[id]; set.count() > 0 && set.subsetOf(U) {
+			ids = append(ids, id)
+		}
+	}
+	sort.Ints(ids)
+	// Bucket the items by the periods they occupy (counting sort).
+	start := make([]int, nP+1)
+	total := 0
+	for _, id := range ids {
+		for _, it := range bySet[id] {
+			for q := it.p; q < it.p+int32(b.c.secs[it.s].length); q++ {
+				start[q+1]++
+				total++
 			}
 		}
 	}
-	if len(items) == 0 {
+	if total == 0 {
 		return
 	}
+	for p := 0; p < nP; p++ {
+		start[p+1] += start[p]
+	}
+	flat := make([]roomItem, total)
+	fill := append([]int(nil), start[:nP]...)
+	var secs []int
+	inFam := map[int32]bool{}
+	for _, id := range ids {
+		for _, it := range bySet[id] {
+			for q := it.p; q < it.p+int32(b.c.secs[it.s].length); q++ {
+				flat[fill[q]] = it
+				fill[q]++
+			}
+			if !inFam[it.s] {
+				inFam[it.s] = true
+				secs = append(secs, int(it.s))
+			}
+		}
+	}
 	// Week scopes over the sections involved.
+	sort.Ints(secs)
 	weekSets := make([]timetable.WeekSet, len(secs))
 	for i, s := range secs {
 		weekSets[i] = b.c.secs[s].weeks
 	}
 	scopes := weekScopes(weekSets)
-	inScope := make([]map[int]bool, len(scopes))
-	for k, sc := range scopes {
-		inScope[k] = map[int]bool{}
-		for _, i := range sc {
-			inScope[k][secs[i]] = true
-		}
-	}
-	// Bucket the items by the periods they occupy.
-	byPeriod := make([][]item, nP)
-	for _, it := range items {
-		lo, hi := b.span(it.s, it.p)
-		for q := lo; q <= hi; q++ {
-			byPeriod[q] = append(byPeriod[q], it)
+	var inScope []map[int32]bool // nil when there is a single scope
+	if len(scopes) > 1 {
+		inScope = make([]map[int32]bool, len(scopes))
+		for k, sc := range scopes {
+			inScope[k] = map[int32]bool{}
+			for _, i := range sc {
+				inScope[k][int32(secs[i])] = true
+			}
 		}
 	}
 	b.in(fam.group, KindRoomSupply)
 	sel := b.sel(fam.group)
+	if len(b.stamp) < len(b.t.Sections) {
+		b.stamp = make([]int32, len(b.t.Sections))
+	}
 	var lits []solver.Lit
-	mark := map[int]bool{}
 	for p := 0; p < nP; p++ {
-		if len(byPeriod[p]) == 0 {
+		here := flat[start[p]:start[p+1]]
+		if len(here) == 0 {
 			continue
 		}
 		var blockers []solver.Lit
@@ -553,19 +591,19 @@ func (b *builder) hallBounds(f int) {
 		})
 		for k := range scopes {
 			lits = lits[:0]
-			clear(mark)
+			b.stampGen++
 			distinct := 0
-			for _, it := range byPeriod[p] {
-				if !inScope[k][it.s] {
+			for _, it := range here {
+				if inScope != nil && !inScope[k][it.s] {
 					continue
 				}
-				lits = append(lits, solver.Pos(b.c.secs[it.s].start[it.p]))
-				if !mark[it.s] {
-					mark[it.s] = true
+				lits = append(lits, it.lit)
+				if b.stamp[it.s] != b.stampGen {
+					b.stamp[it.s] = b.stampGen
 					distinct++
 				}
 			}
-			if distinct+len(blockers) <= size || distinct == 0 {
+			if distinct == 0 || distinct+len(blockers) <= size {
 				continue
 			}
 			lits = append(lits, blockers...)
