@@ -144,6 +144,12 @@ func (x *Explainer) reason(g int) Reason {
 	if i := slices.Index(x.reqGroup, g); i >= 0 {
 		r.Request = i + 1
 	}
+	switch gr.Kind {
+	case KindStaffAvailability, KindCohortAvailability, KindSectionAvail, KindRoomAvailability:
+		if times := x.unavailableTimes(gr.Src); times != "" {
+			r.Sentence += " (" + times + ")"
+		}
+	}
 	if g == x.roomAssign && len(x.raSecs) > 0 {
 		r.Sentence += " — here for the meetings of sections " + sectionList(x.work, x.raSecs)
 		var src []timetable.Source
@@ -154,6 +160,32 @@ func (x *Explainer) reason(g int) Reason {
 		r.where = sourcesText(src)
 	}
 	return r
+}
+
+// unavailableTimes lists the hard Unavailable rows among src as times:
+// "Mon 08:00-12:00, Fri all day". The rows' reasons are left out: they may
+// be personal.
+func (x *Explainer) unavailableTimes(src []timetable.Source) string {
+	var parts []string
+	for _, u := range x.work.Unavailable {
+		if !u.Hard || u.Src.Sheet == "" || !slices.Contains(src, u.Src) {
+			continue
+		}
+		first, last := timetable.Clock(24*60), timetable.Clock(0)
+		for _, p := range x.work.Periods {
+			if p.Day == u.Day {
+				first, last = min(first, p.Start), max(last, p.End)
+			}
+		}
+		text := timetable.DayName(u.Day) + " " + u.From.String() + "-" + u.To.String()
+		if u.From <= first && u.To >= last {
+			text = timetable.DayName(u.Day) + " all day"
+		}
+		if !slices.Contains(parts, text) {
+			parts = append(parts, text)
+		}
+	}
+	return strings.Join(parts, ", ")
 }
 
 // reasons describes groups, most specific first.
