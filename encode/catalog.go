@@ -116,6 +116,7 @@ type Catalog struct {
 	boundGroup  []int32        // group of Program.Bounds[i]
 	boundKind   []string       // what Program.Bounds[i] counts, for Stats
 	groupKey    map[string]int // group lookup by kind and key
+	soft        *softModel     // weak constraints of the soft criteria (soft.go); nil in Explain mode
 }
 
 // secModel is what the catalog keeps of one section.
