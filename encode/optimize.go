@@ -1,0 +1,419 @@
+package encode
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"slices"
+	"time"
+
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+// OptimizeOptions control Optimize.
+type OptimizeOptions struct {
+	Seed int64 // engine and neighbourhood seed; see Optimize for when equal seeds give equal results
+	// Keep is the earlier timetable for minimal-change re-planning: its
+	// meetings that move cost "moved meetings".
+	Keep *timetable.Schedule
+	// GlobalConflicts is the conflict budget of the first phase, model-
+	// improving search with core-guided bounds on the whole term; 0 means
+	// DefaultGlobalConflicts. Negative skips the phase after the first
+	// timetable.
+	GlobalConflicts int64
+	// StepConflicts is the conflict budget of one neighbourhood search; 0
+	// means DefaultStepConflicts.
+	StepConflicts int64
+	// MaxStall ends neighbourhood search after this many steps in a row
+	// without improvement; 0 means DefaultMaxStall, negative skips
+	// neighbourhood search.
+	MaxStall int
+	// Progress, when set, is called with the state of the search after each
+	// improvement and about every ProgressEvery while searching.
+	Progress      func(Progress)
+	ProgressEvery time.Duration // 0 means 250 ms
+}
+
+// Defaults of OptimizeOptions.
+const (
+	DefaultGlobalConflicts = 200_000
+	DefaultStepConflicts   = 2_000
+	DefaultMaxStall        = 400
+)
+
+// Progress is a snapshot of an optimisation in progress.
+type Progress struct {
+	Elapsed time.Duration
+	Phase   string  // "first timetable", "whole term" or "neighbourhoods"
+	Levels  []int   // priority levels, highest first
+	Cost    []int64 // cost per level of the best verified timetable; nil before the first
+	Bound   []int64 // proven lower bound per level
+	Steps   int     // neighbourhood steps so far
+	Found   int     // verified timetables that improved on the best so far
+}
+
+// OptimizeResult is the outcome of Optimize: the Result fields of Solve
+// for the best timetable found, and its quality.
+type OptimizeResult struct {
+	Result
+	// Cost is timetable.Cost of Schedule (with Keep): the reported
+	// objective, criterion by criterion.
+	Cost   timetable.CostReport
+	Levels []int   // the levels of Cost, highest first
+	Total  []int64 // Cost.ByLevel per level of Levels
+	// Bound is a lower bound per level of Levels, read lexicographically:
+	// no timetable has a cost vector below it.
+	Bound []int64
+	// Proven says Total equals Bound: no timetable is better.
+	Proven bool
+	// EngineCost is the engine's weak-constraint cost of the best model
+	// per criterion (indexed like timetable.Criteria); it equals TimeCost
+	// of Schedule (the third gate).
+	EngineCost []int64
+	Moves      []Move     // with Keep: meetings whose start or room changed, and new or dropped meetings
+	History    []Progress // one entry per improvement
+	Steps      int        // neighbourhood steps run
+	Stopped    string     // why the search ended: "optimal", "time limit or interrupted", "conflict budget", "no improvement"
+}
+
+// Optimize compiles the term with its soft criteria and searches for the
+// best timetable: first a verified timetable, then model-improving search
+// with core-guided lower bounds on the whole term (solver.Optimize, within
+// GlobalConflicts), then, unless that proved the optimum,
+// large-neighbourhood search (Shaw 1998): most sections stay where the
+// incumbent has them (assumptions on their start atoms) while a
+// neighbourhood of related sections is re-optimised within StepConflicts;
+// improvements are kept and the neighbourhood size adapts.
+//
+// Every timetable it keeps has passed solver.Verify, Decode, room
+// improvement, timetable.Check and the third gate (the engine's cost of
+// the model equals timetable.Cost without rooms); Schedule is always the
+// best such timetable, so a cancelled ctx (time limit, Ctrl-C) still
+// returns the best verified timetable found so far, with Status
+// Satisfiable. Status is Unsatisfiable when no timetable exists, Unknown
+// when ctx ended before the first one.
+//
+// Determinism: the same term, options and seed give the same timetable
+// when the run ends by itself (optimum proven, budgets or stall), because
+// every budget counts conflicts; a run cut short by ctx depends on how
+// far it got.
+func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*OptimizeResult, error) {
+	if opt.GlobalConflicts == 0 {
+		opt.GlobalConflicts = DefaultGlobalConflicts
+	}
+	if opt.StepConflicts <= 0 {
+		opt.StepConflicts = DefaultStepConflicts
+	}
+	if opt.MaxStall == 0 {
+		opt.MaxStall = DefaultMaxStall
+	}
+	if opt.ProgressEvery <= 0 {
+		opt.ProgressEvery = 250 * time.Millisecond
+	}
+	o := &optRun{ctx: ctx, t: t, opt: opt, start: time.Now(), levels: termLevels(t)}
+	o.res = &OptimizeResult{Levels: o.levels}
+	t0 := time.Now()
+	p, cat, err := Compile(t, Options{Keep: opt.Keep})
+	o.res.Timings.Compile = time.Since(t0)
+	if err != nil {
+		return nil, err
+	}
+	o.p, o.cat = p, cat
+	o.res.Program, o.res.Catalog = p, cat
+	o.bound = make([]int64, len(o.levels))
+	if err := o.run(); err != nil {
+		return nil, err
+	}
+	return o.finish(), nil
+}
+
+// termLevels lists the levels of the criteria switched on for t, highest
+// first (the levels of timetable.Cost's ByLevel).
+func termLevels(t *timetable.Term) []int {
+	var out []int
+	for _, c := range timetable.Criteria {
+		if w, l := t.CriterionWeight(c.Name); w != 0 && !slices.Contains(out, l) {
+			out = append(out, l)
+		}
+	}
+	slices.Sort(out)
+	slices.Reverse(out)
+	return out
+}
+
+// optRun is the state of one Optimize call.
+type optRun struct {
+	ctx    context.Context
+	t      *timetable.Term
+	opt    OptimizeOptions
+	p      *solver.Program
+	cat    *Catalog
+	s      *solver.Solver // nil when it must be (re)built
+	res    *OptimizeResult
+	levels []int
+	start  time.Time
+
+	best  *candidate // best verified timetable so far, the incumbent of neighbourhood search
+	bound []int64    // proven lower bound per level of levels
+
+	// Set by the model callback when a model cannot be used.
+	stop     context.CancelFunc // cancels the running engine call
+	hall     *HallError         // rooms short in some period: add families and rebuild
+	conflict *RoomConflictError // room combination without assignment: forbid and search again
+	fatal    error              // a gate failed
+
+	firstOnly bool // stop the engine call at the first verified timetable
+	phase     string
+	lastNote  time.Time
+}
+
+func (o *optRun) run() error {
+	o.phase = "first timetable"
+	if err := o.global(o.opt.GlobalConflicts); err != nil {
+		return err
+	}
+	if o.best == nil || o.res.Proven || o.ctx.Err() != nil {
+		return nil
+	}
+	if o.opt.MaxStall < 0 {
+		o.res.Stopped = "conflict budget"
+		return nil
+	}
+	o.phase = "neighbourhoods"
+	return o.lns()
+}
+
+// engine returns the solver, building it when needed, with the phases of
+// the incumbent.
+func (o *optRun) engine() (*solver.Solver, error) {
+	if o.s != nil {
+		return o.s, nil
+	}
+	t0 := time.Now()
+	defer func() { o.res.Timings.Solve += time.Since(t0) }()
+	eopts := solver.DefaultOptions()
+	eopts.Seed = o.opt.Seed
+	s, err := solver.New(o.p, eopts)
+	if err != nil {
+		return nil, fmt.Errorf("internal error: the engine rejects the compiled program: %w", err)
+	}
+	s.SetProgress(func(solver.Stats) { o.note(false) })
+	o.s = s
+	if o.best != nil {
+		o.setPhases(o.best.model)
+	}
+	return s, nil
+}
+
+// setPhases makes the engine try the given model's start atoms first.
+func (o *optRun) setPhases(model []solver.Atom) {
+	in := make([]bool, o.p.NumAtoms()+1)
+	for _, a := range model {
+		in[a] = true
+	}
+	for s := range o.cat.secs {
+		for _, p := range o.cat.secs[s].starts {
+			a := o.cat.secs[s].start[p]
+			o.s.SetPhase(a, in[a])
+		}
+	}
+}
+
+// optimizeCall runs one solver.Optimize under the given assumptions and
+// conflict budget, handling models through the callback. It reports the
+// status and whether the call ran to its end (not stopped for a room
+// problem or by ctx).
+func (o *optRun) optimizeCall(assume []solver.Lit, conflicts int64, coreBudget int64) (solver.Status, bool, error) {
+	s, err := o.engine()
+	if err != nil {
+		return solver.Unknown, false, err
+	}
+	ctx, cancel := context.WithCancel(o.ctx)
+	defer cancel()
+	o.stop = cancel
+	o.hall, o.conflict, o.fatal = nil, nil, nil
+	s.SetConflictLimit(conflicts)
+	s.SetCoreBudget(coreBudget)
+	s.Assume(assume...)
+	t0 := time.Now()
+	before := s.Stats()
+	o.res.Rounds++
+	st, _, err := s.Optimize(ctx, o.onModel)
+	o.res.Timings.Solve += time.Since(t0)
+	o.res.Engine = addStats(o.res.Engine, diffStats(s.Stats(), before))
+	if err != nil {
+		return st, false, fmt.Errorf("internal error: %w", err)
+	}
+	if o.fatal != nil {
+		return st, false, o.fatal
+	}
+	if err := o.roomProblems(); err != nil {
+		return st, false, err
+	}
+	complete := o.hall == nil && o.conflict == nil && o.ctx.Err() == nil
+	return st, complete, nil
+}
+
+// roomProblems adds what the callback learned about rooms: Hall families
+// (the solver must be rebuilt) and forbidden room combinations (clauses).
+func (o *optRun) roomProblems() error {
+	if o.hall != nil {
+		b := o.cat.extender(o.p)
+		for _, set := range o.hall.sets {
+			if _, added := b.addFamily(set, true); added {
+				o.res.HallCuts++
+			}
+		}
+		o.s = nil
+	}
+	if o.conflict != nil {
+		for _, ng := range o.conflict.nogoods {
+			starts := make([]solver.Lit, len(ng))
+			for i, l := range ng {
+				starts[i] = l.Not()
+			}
+			b := o.cat.extender(o.p)
+			b.in(-1, "room conflict")
+			b.rule(0, starts...)
+			if o.s != nil {
+				if err := o.s.AddClause(ng...); err != nil {
+					return fmt.Errorf("internal error: adding a room conflict: %w", err)
+				}
+			}
+			o.res.Nogoods++
+		}
+		if o.conflict.Incomplete {
+			o.res.Incomplete = true
+		}
+	}
+	return nil
+}
+
+// global finds the first verified timetable (no budget: whatever it
+// takes), then, unless budget is negative, runs model-improving search with
+// core-guided lower bounds on the whole term until the optimum is proven,
+// budget conflicts are spent or ctx ends. Room problems found on the way
+// are added to the program and the search resumes.
+func (o *optRun) global(budget int64) error {
+	for round := 0; o.best == nil; round++ {
+		if o.ctx.Err() != nil || round == 1000 {
+			o.res.Stopped = "time limit or interrupted"
+			return nil
+		}
+		o.firstOnly = true
+		st, complete, err := o.optimizeCall(nil, 0, -1)
+		o.firstOnly = false
+		if err != nil {
+			return err
+		}
+		if complete && st == solver.Unsatisfiable && o.best == nil {
+			o.res.Status = solver.Unsatisfiable
+			if o.res.Incomplete {
+				o.res.Status = solver.Unknown
+			}
+			return nil
+		}
+	}
+	if budget < 0 {
+		return nil
+	}
+	o.phase = "whole term"
+	o.note(true)
+	for round := 0; round < 1000; round++ {
+		if o.ctx.Err() != nil {
+			o.res.Stopped = "time limit or interrupted"
+			return nil
+		}
+		spent := o.res.Engine.Conflicts
+		st, complete, err := o.optimizeCall(nil, budget, 0)
+		if err != nil {
+			return err
+		}
+		if !complete {
+			if o.ctx.Err() == nil {
+				budget = max(budget-(o.res.Engine.Conflicts-spent), 1)
+				continue // room problems were added: search again
+			}
+			o.res.Stopped = "time limit or interrupted"
+			return nil
+		}
+		if st == solver.Satisfiable {
+			o.readBound()
+		}
+		if o.res.Proven {
+			o.res.Stopped = "optimal"
+		}
+		return nil
+	}
+	return errors.New("internal error: room assignment keeps failing after 1000 rounds")
+}
+
+// readBound takes the engine's lower bound after a complete call on the
+// whole term: the time part of the cost is at least the engine's bound,
+// and the room part is never negative.
+func (o *optRun) readBound() {
+	lb := o.s.LowerBound()
+	for i, l := range o.s.Levels() {
+		if k := slices.Index(o.levels, l); k >= 0 && i < len(lb) {
+			o.bound[k] = max(o.bound[k], lb[i])
+		}
+	}
+	o.res.Proven = o.best != nil && slices.Equal(o.best.total, o.bound)
+}
+
+// note reports progress when it is due (or always, when forced).
+func (o *optRun) note(force bool) {
+	if o.opt.Progress == nil {
+		return
+	}
+	now := time.Now()
+	if !force && now.Sub(o.lastNote) < o.opt.ProgressEvery {
+		return
+	}
+	o.lastNote = now
+	o.opt.Progress(o.snapshot())
+}
+
+func (o *optRun) snapshot() Progress {
+	pr := Progress{Elapsed: time.Since(o.start), Phase: o.phase, Levels: o.levels,
+		Bound: slices.Clone(o.bound), Steps: o.res.Steps, Found: len(o.res.History)}
+	if o.best != nil {
+		pr.Cost = slices.Clone(o.best.total)
+	}
+	return pr
+}
+
+// finish fills the result from the best timetable.
+func (o *optRun) finish() *OptimizeResult {
+	res := o.res
+	res.Size = o.cat.Stats(o.p)
+	if o.best == nil {
+		if res.Status == solver.Satisfiable {
+			res.Status = solver.Unknown
+		}
+		return res
+	}
+	res.Status = solver.Satisfiable
+	res.Schedule = o.best.sched
+	res.Cost = o.best.cost
+	res.Total = o.best.total
+	res.EngineCost = o.best.engine
+	res.Bound = o.bound
+	res.Proven = slices.Equal(res.Total, res.Bound)
+	if res.Proven {
+		res.Stopped = "optimal"
+	}
+	if o.opt.Keep != nil {
+		res.Moves = Moves(o.t, o.opt.Keep, res.Schedule)
+	}
+	return res
+}
+
+func diffStats(a, b solver.Stats) solver.Stats {
+	return solver.Stats{
+		Conflicts: a.Conflicts - b.Conflicts, Decisions: a.Decisions - b.Decisions,
+		Propagations: a.Propagations - b.Propagations, Restarts: a.Restarts - b.Restarts,
+		Learned: a.Learned - b.Learned, LoopFormulas: a.LoopFormulas - b.LoopFormulas, Deleted: a.Deleted - b.Deleted,
+	}
+}

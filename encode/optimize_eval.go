@@ -1,0 +1,158 @@
+package encode
+
+import (
+	"errors"
+	"fmt"
+	"slices"
+	"strings"
+	"time"
+
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+// candidate is a model that passed every gate, with its timetable and
+// costs.
+type candidate struct {
+	model  []solver.Atom
+	sched  *timetable.Schedule
+	cost   timetable.CostReport // timetable.Cost with the kept timetable
+	total  []int64              // cost.ByLevel per level of optRun.levels
+	engine []int64              // the engine's cost per criterion
+	time   []int64              // the engine's cost per level of optRun.levels
+}
+
+// onModel is the engine's callback for every model that improves on the
+// engine call's best. A model that places every meeting where the best
+// timetable has it is passed over; any other goes through the gates and
+// becomes the best timetable when its total cost (rooms included) is lower.
+// The engine sees only the time part of the cost, so a model it prefers may
+// still lose on the room criteria. A model whose rooms cannot be assigned
+// stops the call so that the room constraints can be added.
+func (o *optRun) onModel(_ []int64, model []solver.Atom) {
+	if o.fatal != nil || o.hall != nil || o.conflict != nil {
+		return
+	}
+	if o.best != nil && o.sameStarts(model, o.best.model) {
+		return
+	}
+	c, err := o.evaluate(model)
+	var herr *HallError
+	var rerr *RoomConflictError
+	switch {
+	case errors.As(err, &herr):
+		o.hall = herr
+		o.stop()
+		return
+	case errors.As(err, &rerr):
+		o.conflict = rerr
+		o.stop()
+		return
+	case err != nil:
+		o.fatal = err
+		o.stop()
+		return
+	}
+	o.accept(c)
+	if o.firstOnly {
+		o.stop()
+	}
+}
+
+// accept makes c the best timetable when its total cost is lower.
+func (o *optRun) accept(c *candidate) {
+	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
+		o.best = c
+		o.res.History = append(o.res.History, o.snapshot())
+		o.note(true)
+	}
+}
+
+// timeCost is the engine's cost of a model per level of o.levels.
+func (o *optRun) timeCost(model []solver.Atom) []int64 {
+	return o.byLevel(o.cat.EngineCost(o.p, model))
+}
+
+// byLevel sums per-criterion costs into the levels of o.levels.
+func (o *optRun) byLevel(perCrit []int64) []int64 {
+	out := make([]int64, len(o.levels))
+	for k, cr := range timetable.Criteria {
+		if perCrit[k] == 0 {
+			continue
+		}
+		w, l := o.t.CriterionWeight(cr.Name)
+		if i := slices.Index(o.levels, l); i >= 0 && w != 0 {
+			out[i] += perCrit[k]
+		}
+	}
+	return out
+}
+
+// evaluate puts a model through the gates: solver.Verify, Decode (which may
+// report room problems as *HallError or *RoomConflictError), room
+// improvement, timetable.Check and the third gate; then it evaluates
+// timetable.Cost.
+func (o *optRun) evaluate(model []solver.Atom) (*candidate, error) {
+	model = slices.Clone(model)
+	t0 := time.Now()
+	verr := solver.Verify(o.p, model)
+	o.res.Timings.Verify += time.Since(t0)
+	if verr != nil {
+		return nil, fmt.Errorf("internal error: the engine's model fails the verifier: %w", verr)
+	}
+	t1 := time.Now()
+	sched, err := Decode(o.t, o.cat, model)
+	if err == nil {
+		sched = improveRooms(o.t, o.cat, sched, o.opt.Keep)
+	}
+	o.res.Timings.Decode += time.Since(t1)
+	if err != nil {
+		return nil, err
+	}
+	t2 := time.Now()
+	hard := timetable.HardViolations(timetable.Check(o.t, sched))
+	o.res.Timings.Check += time.Since(t2)
+	if len(hard) > 0 {
+		msgs := make([]string, 0, len(hard))
+		for i, v := range hard {
+			if i == 10 {
+				msgs = append(msgs, fmt.Sprintf("and %d more", len(hard)-10))
+				break
+			}
+			msgs = append(msgs, v.Msg)
+		}
+		return nil, fmt.Errorf("%w:\n  %s", ErrCheckFailed, strings.Join(msgs, "\n  "))
+	}
+	if err := o.cat.thirdGate(o.t, o.p, model, sched, o.opt.Keep); err != nil {
+		return nil, err
+	}
+	c := &candidate{model: model, sched: sched, engine: o.cat.EngineCost(o.p, model)}
+	c.cost = timetable.Cost(o.t, sched, o.opt.Keep)
+	c.total = make([]int64, len(o.levels))
+	for i, l := range o.levels {
+		c.total[i] = c.cost.ByLevel[l]
+	}
+	c.time = o.byLevel(c.engine)
+	return c, nil
+}
+
+// sameStarts reports whether two models have the same start atoms.
+func (o *optRun) sameStarts(a, b []solver.Atom) bool {
+	i, j := 0, 0
+	for {
+		for i < len(a) && o.cat.AtomInfo(a[i]).Kind != AtomStart {
+			i++
+		}
+		for j < len(b) && o.cat.AtomInfo(b[j]).Kind != AtomStart {
+			j++
+		}
+		if i == len(a) || j == len(b) {
+			return i == len(a) && j == len(b)
+		}
+		if a[i] != b[j] {
+			return false
+		}
+		i++
+		j++
+	}
+}
