@@ -101,6 +101,18 @@ type ExplainStats struct {
 	Conflicts int64 `json:"conflicts"` // engine conflicts, all checks
 }
 
+// add sums the counters of another explainer's work.
+func (st *ExplainStats) add(o ExplainStats) {
+	st.Checks += o.Checks
+	st.Sat += o.Sat
+	st.Unsat += o.Unsat
+	st.Unknown += o.Unknown
+	st.Rebuilds += o.Rebuilds
+	st.Families += o.Families
+	st.Nogoods += o.Nogoods
+	st.Conflicts += o.Conflicts
+}
+
 // NewExplainer compiles term t in Explain mode with the given requests. It
 // returns a *RequestError when a request names something the term does not
 // have, and a CompileError when the term cannot be compiled.

@@ -149,6 +149,8 @@ func (x *Explainer) reason(g int) Reason {
 		if times := x.unavailableTimes(gr.Src); times != "" {
 			r.Sentence += " (" + times + ")"
 		}
+	case KindRoomFit:
+		r.Sentence += x.requestedRooms(g)
 	}
 	if g == x.roomAssign && len(x.raSecs) > 0 {
 		r.Sentence += " — here for the meetings of sections " + sectionList(x.work, x.raSecs)
@@ -186,6 +188,26 @@ func (x *Explainer) unavailableTimes(src []timetable.Source) string {
 		}
 	}
 	return strings.Join(parts, ", ")
+}
+
+// requestedRooms describes the rooms requested for the section of room
+// fit group g: "; room LAB1 has 24 seats and features lab".
+func (x *Explainer) requestedRooms(g int) string {
+	out := ""
+	roomIdx := x.work.RoomIndex()
+	for i, r := range x.reqs {
+		if r.Room == "" || x.cat.rooms.fitGroup[x.reqSec[i]] != g || strings.Contains(out, "room "+r.Room+" ") {
+			continue
+		}
+		room := &x.work.Rooms[roomIdx[r.Room]]
+		out += fmt.Sprintf("; room %s has %d seats", room.ID, room.Capacity)
+		if len(room.Features) > 0 {
+			out += " and features " + strings.Join(room.Features, ", ")
+		} else {
+			out += " and no listed features"
+		}
+	}
+	return out
 }
 
 // reasons describes groups, most specific first.

@@ -32,14 +32,6 @@ func (r Request) String() string {
 	return s
 }
 
-// where names the request's origin: "Requests row 3" or "the command line".
-func (r Request) where() string {
-	if s := r.Src.String(); s != "" {
-		return s
-	}
-	return "the command line"
-}
-
 // ParseAt reads a day and start time such as "Tue 10:00", "tuesday 9:30"
 // or "Tue 10.00".
 func ParseAt(s string) (time.Weekday, timetable.Clock, error) {
@@ -166,10 +158,10 @@ func planRequests(t *timetable.Term, reqs []Request) (*requestPlan, error) {
 		case same >= 0 && sec.Fixed[same].Room == "":
 			// A fixed time without a room: the request names its room.
 			sec.Fixed[same].Room = r.Room
-			sec.Fixed[same].Text += " in " + r.Room + " (requested)"
+			sec.Fixed[same].Text += " in " + r.Room + ", as requested"
 		default:
 			sec.Fixed = append(sec.Fixed, timetable.Fixed{Day: r.Day, Start: r.Start, Room: r.Room,
-				Text: r.At() + " " + r.Room + " (requested)"})
+				Text: r.At() + ", as requested"})
 			plan.fixed[len(plan.fixed)-1] = len(sec.Fixed) - 1
 		}
 	}
@@ -186,7 +178,7 @@ func (x *Explainer) addRequests(plan *requestPlan) error {
 		s, p := plan.sec[i], plan.start[i]
 		x.reqSec = append(x.reqSec, s)
 		x.reqStart = append(x.reqStart, p)
-		sentence := requestSentence(x.work, r, s, p)
+		sentence := requestSentence(x.work, r, i+1, s, p)
 		src := []timetable.Source{r.Src}
 		if r.Src.Sheet == "" {
 			src = nil
@@ -215,11 +207,11 @@ func (x *Explainer) addRequests(plan *requestPlan) error {
 	return nil
 }
 
-// requestSentence states request r in plain words, saying so when the
-// requested start cannot hold a whole meeting.
-func requestSentence(t *timetable.Term, r Request, s, p int) string {
+// requestSentence states request number n in plain words, saying so when
+// the requested start cannot hold a whole meeting.
+func requestSentence(t *timetable.Term, r Request, n, s, p int) string {
 	sec := &t.Sections[s]
-	out := fmt.Sprintf("the request from %s: section %s meets at %s", r.where(), r.Section, r.At())
+	out := fmt.Sprintf("request %d: section %s meets at %s", n, r.Section, r.At())
 	if r.Room != "" {
 		out += " in room " + r.Room
 	}

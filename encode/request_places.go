@@ -19,15 +19,34 @@ type Place struct {
 // and lists the starts where a meeting can go, in grid order. Each
 // timetable found proves all the starts of that section it uses, which
 // saves checks. The requested start itself is tested only when the request
-// named a room (the time may work in another room). complete is false when
-// some check ran out of budget or time.
+// named a room (the time may work in another room); such a request is
+// compiled into the room model, so a second explainer without it answers.
+// complete is false when some check ran out of budget or time.
 func (x *Explainer) places(ctx context.Context, r int) (out []Place, complete bool, err error) {
-	s, want := x.reqSec[r], x.reqStart[r]
-	on := x.allOn(x.reqGroup[r])
+	if x.reqs[r].Room != "" {
+		// The requested room narrows the section's rooms at the requested
+		// start even with the request off: ask an explainer without it.
+		others := make([]Request, 0, len(x.reqs)-1)
+		others = append(others, x.reqs[:r]...)
+		others = append(others, x.reqs[r+1:]...)
+		y, err := NewExplainer(x.term, others, x.opt)
+		if err != nil {
+			return nil, false, err
+		}
+		out, complete, err = y.placesOf(ctx, x.reqSec[r], -1, y.allOn())
+		x.stats.add(y.Stats())
+		return out, complete, err
+	}
+	return x.placesOf(ctx, x.reqSec[r], x.reqStart[r], x.allOn(x.reqGroup[r]))
+}
+
+// placesOf tests the candidate starts of section s other than skip with
+// the groups of on holding.
+func (x *Explainer) placesOf(ctx context.Context, s, want int, on []bool) (out []Place, complete bool, err error) {
 	room := map[int]string{}
 	complete = true
 	for _, p := range x.cat.Candidates(s) {
-		if _, ok := room[p]; ok || (p == want && x.reqs[r].Room == "") {
+		if _, ok := room[p]; ok || p == want {
 			continue
 		}
 		if ctx.Err() != nil {
@@ -46,7 +65,7 @@ func (x *Explainer) places(ctx context.Context, r int) (out []Place, complete bo
 			id := x.work.Sections[s].ID
 			for _, pl := range res.sched.Placements {
 				if pl.Section == id {
-					if _, ok := room[pl.Period]; !ok && (pl.Period != want || x.reqs[r].Room != "") {
+					if _, ok := room[pl.Period]; !ok && pl.Period != want {
 						room[pl.Period] = pl.Room
 					}
 				}

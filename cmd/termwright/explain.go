@@ -405,6 +405,11 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 			}
 		}
 		fmt.Fprintf(w, "\nSection %s could meet instead at: %s.\n", r.Section, strings.Join(days, "; "))
+		for _, p := range r.Places {
+			if r.Room != "" && p.At == r.At && p.Room != "" {
+				fmt.Fprintf(w, "  At %s itself it could meet in room %s instead of %s.\n", p.At, p.Room, r.Room)
+			}
+		}
 		fmt.Fprintln(w, "  (A full timetable with a room was found for each of these; --json lists the rooms.)")
 		if !r.PlacesComplete {
 			fmt.Fprintln(w, "  (Some times were not decided within the budget.)")
@@ -416,11 +421,24 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 func explainCost(w io.Writer, c *encode.CostComparison) {
 	var parts []string
 	for _, l := range c.Levels {
-		if c.Compared {
-			parts = append(parts, fmt.Sprintf("level %d: %d with the requests, %d without", l.Level, l.With, l.Without))
-		} else {
-			parts = append(parts, fmt.Sprintf("level %d: %d", l.Level, l.With))
+		var items []string
+		for _, k := range c.Criteria {
+			if k.Level == l.Level && (k.With != 0 || k.Without != 0) {
+				if c.Compared {
+					items = append(items, fmt.Sprintf("%s %d/%d", k.Name, k.With, k.Without))
+				} else {
+					items = append(items, fmt.Sprintf("%s %d", k.Name, k.With))
+				}
+			}
 		}
+		part := fmt.Sprintf("level %d: %d", l.Level, l.With)
+		if c.Compared {
+			part = fmt.Sprintf("level %d: %d with the requests, %d without", l.Level, l.With, l.Without)
+		}
+		if len(items) > 0 {
+			part += " (" + strings.Join(items, ", ") + ")"
+		}
+		parts = append(parts, part)
 	}
 	if len(parts) == 0 {
 		return
