@@ -230,12 +230,28 @@ func TestRequestsAgainstBruteForce(t *testing.T) {
 					if room != "" {
 						key += "@" + room
 					}
-					ex, err := Explain(context.Background(), term, []Request{req}, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1, NoPlaces: true})
+					ex, err := Explain(context.Background(), term, []Request{req}, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1})
 					if err != nil {
 						t.Fatal(err)
 					}
 					if got := ex.Status == StatusGranted; got != possible[key] {
 						t.Fatalf("term %d, request %s: granted=%v, exhaustive search %v\n%s", i, req, got, possible[key], describeXTerm(term))
+					}
+					if ex.Status == StatusRefused && !ex.TermInfeasible {
+						// The other places are exactly the starts where
+						// exhaustive search meets the section.
+						var want, got []int
+						for q := range term.Periods {
+							if possible[fmt.Sprintf("%s@%d", sec.ID, q)] && (q != p || room != "") {
+								want = append(want, q)
+							}
+						}
+						for _, pl := range ex.Requests[0].Places {
+							got = append(got, pl.Period)
+						}
+						if !ex.Requests[0].PlacesComplete || !slices.Equal(got, want) {
+							t.Fatalf("term %d, request %s: places %v (complete %v), exhaustive search %v\n%s", i, req, got, ex.Requests[0].PlacesComplete, want, describeXTerm(term))
+						}
 					}
 					if possible[key] {
 						granted++

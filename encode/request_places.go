@@ -2,6 +2,8 @@ package encode
 
 import (
 	"context"
+	"fmt"
+	"slices"
 
 	"github.com/termwright/termwright/solver"
 )
@@ -40,9 +42,12 @@ func (x *Explainer) places(ctx context.Context, r int) (out []Place, complete bo
 	return x.placesOf(ctx, x.reqSec[r], x.reqStart[r], x.allOn(x.reqGroup[r]))
 }
 
-// placesOf tests the candidate starts of section s other than skip with
+// placesOf tests the candidate starts of section s other than want with
 // the groups of on holding.
 func (x *Explainer) placesOf(ctx context.Context, s, want int, on []bool) (out []Place, complete bool, err error) {
+	if x.work.Sections[s].Meetings == 1 {
+		return x.placesOne(ctx, s, want, on)
+	}
 	room := map[int]string{}
 	complete = true
 	for _, p := range x.cat.Candidates(s) {
@@ -75,6 +80,56 @@ func (x *Explainer) placesOf(ctx context.Context, s, want int, on []bool) (out [
 		}
 	}
 	return x.placeList(room), complete, nil
+}
+
+// placesOne finds the places of a one-meeting section by asking for a
+// timetable that puts it anywhere not yet proven (every proven start and
+// want assumed false): each answer proves one more place, and the first
+// "no" rules out every start left, so the checks number the places plus
+// one.
+func (x *Explainer) placesOne(ctx context.Context, s, want int, on []bool) (out []Place, complete bool, err error) {
+	room := map[int]string{}
+	var not []solver.Lit
+	if want >= 0 && x.cat.StartAtom(s, want) != 0 {
+		not = append(not, solver.Neg(x.cat.StartAtom(s, want)))
+	}
+	id := x.work.Sections[s].ID
+	for range x.cat.Candidates(s) {
+		if ctx.Err() != nil {
+			return x.placeList(room), false, nil
+		}
+		res, err := x.check(ctx, on, not)
+		if err != nil {
+			return nil, false, err
+		}
+		switch res.status {
+		case solver.Unsatisfiable:
+			return x.placeList(room), true, nil
+		case solver.Unknown:
+			return x.placeList(room), false, nil
+		}
+		p := -1
+		if res.sched != nil {
+			for _, pl := range res.sched.Placements {
+				if pl.Section == id {
+					p = pl.Period
+					room[p] = pl.Room
+				}
+			}
+		} else {
+			for _, q := range x.cat.Candidates(s) {
+				if a := x.cat.StartAtom(s, q); slices.Contains(res.model, a) {
+					p = q
+					room[p] = ""
+				}
+			}
+		}
+		if p < 0 || p == want {
+			return nil, false, fmt.Errorf("internal error: a timetable places section %s where it was ruled out", id)
+		}
+		not = append(not, solver.Neg(x.cat.StartAtom(s, p)))
+	}
+	return x.placeList(room), true, nil
 }
 
 // placeList orders places by period.
