@@ -49,6 +49,9 @@ type ExplainOptions struct {
 	// NoPlaces skips the search for other periods where a refused request's
 	// section could meet.
 	NoPlaces bool
+	// NoCost skips pricing a granted request: the optimiser's best
+	// timetable with the requests against its best without them.
+	NoCost bool
 	// VerifyModels passes every model of every check through solver.Verify
 	// (tests use it); models that become timetables are always verified.
 	VerifyModels bool

@@ -230,7 +230,7 @@ func TestRequestsAgainstBruteForce(t *testing.T) {
 					if room != "" {
 						key += "@" + room
 					}
-					ex, err := Explain(context.Background(), term, []Request{req}, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1})
+					ex, err := Explain(context.Background(), term, []Request{req}, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1, NoCost: true})
 					if err != nil {
 						t.Fatal(err)
 					}

@@ -2,6 +2,8 @@ package encode
 
 import (
 	"context"
+	"fmt"
+	"slices"
 	"time"
 
 	"github.com/termwright/termwright/solver"
@@ -120,49 +122,78 @@ func (x *Explainer) granted(ctx context.Context, out *Explanation, r checkResult
 	if len(x.reqs) == 0 {
 		return nil
 	}
-	with := timetable.Cost(x.term, r.sched, nil)
-	if len(x.p.Weaks) == 0 {
-		out.Cost = compareCost("first found", with, timetable.CostReport{ByLevel: map[int]int64{}})
-		out.Cost.Compared = false
+	out.Cost = compareCost("first found", timetable.Cost(x.term, r.sched, nil), timetable.CostReport{ByLevel: map[int]int64{}})
+	if x.opt.NoCost || len(termLevels(x.term)) == 0 {
 		return nil
 	}
-	best, err := x.optimised(ctx, x.allOn())
-	if err != nil || best == nil {
+	return x.compareOptimised(ctx, out)
+}
+
+// Budgets of the two optimisations that price a granted request: small,
+// since the comparison is a courtesy ("if cheap").
+const (
+	costGlobalConflicts = 20_000
+	costMaxStall        = 40
+)
+
+// compareOptimised optimises the term with the requests as fixed meetings
+// and without them (each within a small budget and a quarter of the time
+// left) and, when both give timetables, compares their preference costs
+// and keeps the optimised timetable that grants the requests.
+func (x *Explainer) compareOptimised(ctx context.Context, out *Explanation) error {
+	opt := OptimizeOptions{Seed: x.opt.Seed, GlobalConflicts: costGlobalConflicts, MaxStall: costMaxStall}
+	wctx, cancel := share(ctx, 0.25)
+	with, err := Optimize(wctx, requestsFixed(x.term, x.reqs), opt)
+	cancel()
+	if err != nil {
 		return err
 	}
-	without, err := x.optimised(ctx, x.allOn(x.reqGroup...))
-	if err != nil || without == nil {
+	octx, cancel := share(ctx, 0.33)
+	without, err := Optimize(octx, x.term, opt)
+	cancel()
+	if err != nil {
 		return err
 	}
-	out.Schedule = best
-	out.Cost = compareCost("optimised", timetable.Cost(x.term, best, nil), timetable.Cost(x.term, without, nil))
+	if with.Status != solver.Satisfiable || without.Status != solver.Satisfiable {
+		return nil
+	}
+	if hard := timetable.HardViolations(timetable.Check(x.term, with.Schedule)); len(hard) > 0 {
+		return fmt.Errorf("%w: %s", ErrCheckFailed, hard[0].Msg)
+	}
+	for _, req := range x.reqs {
+		if !honours(x.term, with.Schedule, req) {
+			return fmt.Errorf("internal error: the optimised timetable does not grant the request %s", req)
+		}
+	}
+	out.Schedule = with.Schedule
+	out.Cost = compareCost("optimised", timetable.Cost(x.term, with.Schedule, nil), timetable.Cost(x.term, without.Schedule, nil))
 	out.Cost.Compared = true
 	return nil
 }
 
-// optimised runs the engine's optimiser with the groups of on holding and
-// returns the best timetable found, verified and checked, or nil when the
-// best model cannot be given rooms or fails a check (the first timetable
-// found then stands).
-func (x *Explainer) optimised(ctx context.Context, on []bool) (*timetable.Schedule, error) {
-	isOn := func(g int) bool { return g >= len(on) || on[g] }
-	x.s.Assume(x.assumptions(isOn, nil)...)
-	st, _, err := x.s.Optimize(ctx, nil)
-	if err != nil || st != solver.Satisfiable {
-		return nil, nil
+// requestsFixed is a copy of t in which every request is a fixed meeting.
+func requestsFixed(t *timetable.Term, reqs []Request) *timetable.Term {
+	c := *t
+	c.Sections = slices.Clone(t.Sections)
+	idx := t.SectionIndex()
+	for _, r := range reqs {
+		sec := &c.Sections[idx[r.Section]]
+		p := t.PeriodAt(r.Day, r.Start)
+		done := false
+		sec.Fixed = slices.Clone(sec.Fixed)
+		for i, f := range sec.Fixed {
+			if t.PeriodAt(f.Day, f.Start) == p {
+				if f.Room == "" {
+					sec.Fixed[i].Room = r.Room
+				}
+				done = true
+			}
+		}
+		if !done {
+			sec.Fixed = append(sec.Fixed, timetable.Fixed{Day: r.Day, Start: r.Start, Room: r.Room, Text: r.At() + ", as requested"})
+		}
 	}
-	model := x.s.Model(nil)
-	if err := solver.Verify(x.p, model); err != nil {
-		return nil, nil
-	}
-	sched, err := x.decode(model, isOn)
-	if err != nil {
-		return nil, nil
-	}
-	if len(timetable.HardViolations(timetable.Check(x.term, sched))) > 0 {
-		return nil, nil
-	}
-	return sched, nil
+	return &c
 }
 
 // answerRequests checks whether the term works without any request and,

@@ -417,23 +417,27 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 	}
 }
 
-// explainCost prints the preference cost of a granted timetable.
+// explainCost prints the preference cost of a granted timetable, beside
+// the best timetable without the requests when both were optimised.
 func explainCost(w io.Writer, c *encode.CostComparison) {
+	same := true
 	var parts []string
 	for _, l := range c.Levels {
+		same = same && l.With == l.Without
 		var items []string
 		for _, k := range c.Criteria {
-			if k.Level == l.Level && (k.With != 0 || k.Without != 0) {
-				if c.Compared {
-					items = append(items, fmt.Sprintf("%s %d/%d", k.Name, k.With, k.Without))
-				} else {
-					items = append(items, fmt.Sprintf("%s %d", k.Name, k.With))
-				}
+			if k.Level != l.Level {
+				continue
+			}
+			if c.Compared {
+				items = append(items, fmt.Sprintf("%s %d vs %d", k.Name, k.With, k.Without))
+			} else {
+				items = append(items, fmt.Sprintf("%s %d", k.Name, k.With))
 			}
 		}
 		part := fmt.Sprintf("level %d: %d", l.Level, l.With)
 		if c.Compared {
-			part = fmt.Sprintf("level %d: %d with the requests, %d without", l.Level, l.With, l.Without)
+			part = fmt.Sprintf("level %d: %d vs %d", l.Level, l.With, l.Without)
 		}
 		if len(items) > 0 {
 			part += " (" + strings.Join(items, ", ") + ")"
@@ -443,11 +447,15 @@ func explainCost(w io.Writer, c *encode.CostComparison) {
 	if len(parts) == 0 {
 		return
 	}
-	if c.Compared {
-		fmt.Fprintf(w, "Preferences (best found within the budget, most important level first): %s.\n", strings.Join(parts, "; "))
-		return
+	list := strings.Join(parts, "; ")
+	switch {
+	case !c.Compared:
+		fmt.Fprintf(w, "Preferences of this timetable (not optimised; most important level first): %s.\n", list)
+	case same:
+		fmt.Fprintf(w, "Granting costs nothing in preferences: the best timetables found with and without the requests cost the same (%s).\n", list)
+	default:
+		fmt.Fprintf(w, "Preferences, best timetable found with the requests vs without them (within a small budget; most important level first): %s.\n", list)
 	}
-	fmt.Fprintf(w, "Preferences of this timetable (not optimised; most important level first): %s.\n", strings.Join(parts, "; "))
 }
 
 // explainSentence is a reason as a sentence with its rows.

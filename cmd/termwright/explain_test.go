@@ -123,6 +123,24 @@ func TestExplainRequestGranted(t *testing.T) {
 	code, stdout, stderr := runExplainCmd(term, "--section", "CHM110", "--at", "Tue 11:00", "--room", "SEM2", "-o", out)
 	require.Equal(t, exitOK, code, stderr)
 	explainGolden(t, "granted.golden.txt", strings.ReplaceAll(stdout, out, "OUT.xlsx"))
+
+	// A request against a teacher's soft wish (Unavailable row 4, weight
+	// 3) is granted at a price: the optimised timetables with and without
+	// it differ by that wish.
+	code, stdout, stderr = runExplainCmd(term, "--section", "STA100", "--at", "Mon 09:00", "--json")
+	require.Equal(t, exitOK, code, stderr)
+	explainGolden(t, "granted-cost.golden.json", stdout)
+	cost := explainJSON(t, stdout)["cost"].(map[string]any)
+	assert.Equal(t, true, cost["compared"])
+	var avoid map[string]any
+	for _, c := range cost["criteria"].([]any) {
+		if c.(map[string]any)["name"] == timetable.CritAvoidTimes {
+			avoid = c.(map[string]any)
+		}
+	}
+	require.NotNil(t, avoid, "avoid times is priced")
+	assert.Equal(t, float64(3), avoid["with"], "the row's weight 3 for one period")
+	assert.Equal(t, float64(0), avoid["without"])
 	tm, _, err := timetable.Load(term)
 	require.NoError(t, err)
 	s, _, err := timetable.ReadSchedule(out, tm)
