@@ -69,6 +69,7 @@ func (sb *softBuilder) keepMeetings() {
 		if len(kept) == 0 {
 			continue
 		}
+		sb.aboutSection(s)
 		m := &sb.c.secs[s]
 		pairs := min(len(kept), m.meetings)
 		if m.meetings == 1 {

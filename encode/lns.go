@@ -1,3 +1,361 @@
 package encode
 
-func (o *optRun) lns() error { return nil }
+import (
+	"math/rand/v2"
+	"slices"
+
+	"github.com/termwright/termwright/solver"
+)
+
+// Large-neighbourhood search (Shaw 1998). The incumbent is the best
+// verified timetable. Each step frees a neighbourhood of sections, assumes
+// every other section's starts as in the incumbent (assumptions on start
+// atoms, so the solver and its learned clauses are reused), and optimises
+// the freed sections within a conflict budget; every model the engine
+// finds goes through the gates, and one whose total cost is lower becomes
+// the incumbent. The neighbourhood size adapts: when the engine proves a
+// neighbourhood optimal the next one grows, when the budget runs out first
+// it shrinks.
+
+// Bounds of the neighbourhood size (sections).
+const (
+	lnsMinSize = 2
+	lnsMaxSize = 60
+)
+
+// Neighbourhood kinds, tried in turn.
+const (
+	hoodCost    = iota // sections of a costly weak constraint's subject, plus related ones
+	hoodPerson         // a staff member's or cohort's sections, chosen by their share of the cost
+	hoodRelated        // a random section and the sections related to it
+	hoodDay            // sections meeting on one day
+	hoodRandom         // random sections
+	hoodKinds
+)
+
+// lnsState is what neighbourhood search keeps between steps.
+type lnsState struct {
+	rng     *rand.Rand
+	size    int
+	related [][]int // section -> sections sharing staff, cohorts, students or a relation
+	people  [][]int // staff (then cohorts) -> sections
+	nStaff  int
+}
+
+// lns runs neighbourhood steps until MaxStall steps in a row bring no
+// improvement or ctx ends.
+func (o *optRun) lns() error {
+	n := len(o.t.Sections)
+	if n < 2 {
+		return nil
+	}
+	ls := &lnsState{rng: rand.New(rand.NewPCG(uint64(o.opt.Seed), 0x6e656967)), nStaff: len(o.t.Staff)}
+	ls.size = min(max(lnsMinSize, n/40), 12, n)
+	o.indexRelated(ls)
+	stall := 0
+	for stall < o.opt.MaxStall {
+		if o.ctx.Err() != nil {
+			o.res.Stopped = "time limit or interrupted"
+			return nil
+		}
+		o.res.Steps++
+		kind := o.res.Steps % hoodKinds
+		secs := o.neighbourhood(ls, kind)
+		before := o.best
+		st, complete, err := o.step(secs)
+		if err != nil {
+			return err
+		}
+		if !complete {
+			continue
+		}
+		if o.best != before {
+			stall = 0
+		} else {
+			stall++
+		}
+		maxSize := min(lnsMaxSize, n)
+		switch {
+		case st == solver.Satisfiable && o.s.Proven():
+			ls.size = min(ls.size+1+ls.size/8, maxSize)
+		case ls.size > lnsMinSize:
+			ls.size = max(ls.size-1-ls.size/8, lnsMinSize)
+		}
+		o.note(false)
+	}
+	o.res.Stopped = "no improvement"
+	return nil
+}
+
+// step re-optimises the given sections with every other section fixed as
+// in the incumbent.
+func (o *optRun) step(free []int) (solver.Status, bool, error) {
+	isFree := make([]bool, len(o.t.Sections))
+	for _, s := range free {
+		isFree[s] = true
+	}
+	var assume []solver.Lit
+	for _, a := range o.best.model {
+		if info := o.cat.AtomInfo(a); info.Kind == AtomStart && !isFree[info.Section] {
+			assume = append(assume, solver.Pos(a))
+		}
+	}
+	if _, err := o.engine(); err != nil {
+		return solver.Unknown, false, err
+	}
+	o.setPhases(o.best.model)
+	return o.optimizeCall(assume, o.opt.StepConflicts, -1)
+}
+
+// indexRelated builds, once, the relatedness lists of neighbourhood search.
+func (o *optRun) indexRelated(ls *lnsState) {
+	t := o.t
+	n := len(t.Sections)
+	staffIdx, cohIdx := t.StaffIndex(), t.CohortIndex()
+	ls.people = make([][]int, len(t.Staff)+len(t.Cohorts))
+	for s, sec := range t.Sections {
+		for _, id := range uniq(sec.Staff) {
+			ls.people[staffIdx[id]] = append(ls.people[staffIdx[id]], s)
+		}
+		for _, id := range uniq(sec.Cohorts) {
+			k := len(t.Staff) + cohIdx[id]
+			ls.people[k] = append(ls.people[k], s)
+		}
+	}
+	sets := make([]map[int]bool, n)
+	link := func(a, b int) {
+		if a == b {
+			return
+		}
+		if sets[a] == nil {
+			sets[a] = map[int]bool{}
+		}
+		if sets[b] == nil {
+			sets[b] = map[int]bool{}
+		}
+		sets[a][b], sets[b][a] = true, true
+	}
+	for _, secs := range ls.people {
+		for i := range secs {
+			for _, b := range secs[i+1:] {
+				link(secs[i], b)
+			}
+		}
+	}
+	secIdx := t.SectionIndex()
+	byStudent := map[string][]int{}
+	for _, e := range t.Enrolments {
+		if s, ok := secIdx[e.Section]; ok {
+			byStudent[e.Student] = append(byStudent[e.Student], s)
+		}
+	}
+	for _, e := range t.Enrolments { // enrolment order keeps this deterministic
+		secs := byStudent[e.Student]
+		for i := range secs {
+			for _, b := range secs[i+1:] {
+				link(secs[i], b)
+			}
+		}
+		delete(byStudent, e.Student)
+	}
+	for _, r := range t.Relations {
+		for i, a := range r.Sections {
+			for _, b := range r.Sections[i+1:] {
+				sa, oka := secIdx[a]
+				sb, okb := secIdx[b]
+				if oka && okb {
+					link(sa, sb)
+				}
+			}
+		}
+	}
+	ls.related = make([][]int, n)
+	for s, set := range sets {
+		for b := range set {
+			ls.related[s] = append(ls.related[s], b)
+		}
+		slices.Sort(ls.related[s])
+	}
+}
+
+// neighbourhood picks ls.size sections by the given kind.
+func (o *optRun) neighbourhood(ls *lnsState, kind int) []int {
+	var seed []int
+	switch kind {
+	case hoodCost:
+		seed = o.costlySubject(ls)
+	case hoodPerson:
+		seed = o.costlyPerson(ls)
+	case hoodDay:
+		seed = o.dayHood(ls)
+	case hoodRandom:
+		return ls.randomSections(len(o.t.Sections), ls.size)
+	}
+	if len(seed) == 0 {
+		seed = []int{ls.rng.IntN(len(o.t.Sections))}
+	}
+	return ls.grow(seed, ls.size)
+}
+
+// grow returns up to size sections: a random part of seed, then sections
+// related to those chosen (breadth first, random order), then random ones.
+func (ls *lnsState) grow(seed []int, size int) []int {
+	seed = slices.Clone(seed)
+	ls.rng.Shuffle(len(seed), func(i, j int) { seed[i], seed[j] = seed[j], seed[i] })
+	in := map[int]bool{}
+	var out []int
+	add := func(s int) {
+		if !in[s] && len(out) < size {
+			in[s] = true
+			out = append(out, s)
+		}
+	}
+	for _, s := range seed {
+		add(s)
+	}
+	for i := 0; i < len(out) && len(out) < size; i++ {
+		rel := slices.Clone(ls.related[out[i]])
+		ls.rng.Shuffle(len(rel), func(a, b int) { rel[a], rel[b] = rel[b], rel[a] })
+		for _, s := range rel {
+			add(s)
+		}
+	}
+	for _, s := range ls.randomSections(len(ls.related), size) {
+		add(s)
+	}
+	return out
+}
+
+// randomSections picks k distinct sections out of n.
+func (ls *lnsState) randomSections(n, k int) []int {
+	k = min(k, n)
+	perm := ls.rng.Perm(n)
+	return perm[:k]
+}
+
+// costlySubject picks one weak constraint that the incumbent pays, with
+// the highest level first and heavier weights more often, and returns the
+// sections it is about.
+func (o *optRun) costlySubject(ls *lnsState) []int {
+	soft := o.cat.soft
+	if soft == nil {
+		return nil
+	}
+	in := make([]bool, o.p.NumAtoms()+1)
+	for _, a := range o.best.model {
+		in[a] = true
+	}
+	bestLevel := -1 << 31
+	var total int64
+	var picks []int
+	for i, w := range o.p.Weaks {
+		if i >= len(soft.subj) || soft.subj[i] == noSubject || w.Weight <= 0 || w.Level < bestLevel {
+			continue
+		}
+		holds := true
+		for _, l := range w.Body {
+			if in[l.Atom()] == l.IsNeg() {
+				holds = false
+				break
+			}
+		}
+		if !holds {
+			continue
+		}
+		if w.Level > bestLevel {
+			bestLevel, total, picks = w.Level, 0, picks[:0]
+		}
+		picks = append(picks, i)
+		total += w.Weight
+	}
+	if total == 0 {
+		return nil
+	}
+	r := ls.rng.Int64N(total)
+	for _, i := range picks {
+		if r -= o.p.Weaks[i].Weight; r < 0 {
+			return ls.subjectSections(soft.subj[i])
+		}
+	}
+	return nil
+}
+
+// subjectSections lists the sections of a weak constraint's subject.
+func (ls *lnsState) subjectSections(subj int32) []int {
+	if subj >= 0 {
+		return []int{int(subj)}
+	}
+	return ls.people[-1-int(subj)]
+}
+
+// costlyPerson picks a staff member, cohort or section with a share of the
+// incumbent's cost at its most important level (rooms included), heavier
+// shares more often, and returns their sections.
+func (o *optRun) costlyPerson(ls *lnsState) []int {
+	rep := o.best.cost
+	t := o.t
+	type share struct {
+		secs []int
+		cost int64
+	}
+	var shares []share
+	var total int64
+	staffIdx, cohIdx, secIdx := t.StaffIndex(), t.CohortIndex(), t.SectionIndex()
+	for _, id := range sortedKeys(rep.PerStaff) {
+		if c := rep.PerStaff[id]; c > 0 {
+			shares = append(shares, share{ls.people[staffIdx[id]], c})
+			total += c
+		}
+	}
+	for _, id := range sortedKeys(rep.PerCohort) {
+		if c := rep.PerCohort[id]; c > 0 {
+			shares = append(shares, share{ls.people[len(t.Staff)+cohIdx[id]], c})
+			total += c
+		}
+	}
+	for _, id := range sortedKeys(rep.PerSection) {
+		if c := rep.PerSection[id]; c > 0 {
+			shares = append(shares, share{[]int{secIdx[id]}, c})
+			total += c
+		}
+	}
+	if total == 0 {
+		return nil
+	}
+	r := ls.rng.Int64N(total)
+	for _, sh := range shares {
+		if r -= sh.cost; r < 0 {
+			return sh.secs
+		}
+	}
+	return nil
+}
+
+// dayHood returns the sections meeting on a random day of the grid.
+func (o *optRun) dayHood(ls *lnsState) []int {
+	days := o.t.Days()
+	if len(days) == 0 {
+		return nil
+	}
+	d := days[ls.rng.IntN(len(days))]
+	secIdx := o.t.SectionIndex()
+	var out []int
+	for _, pl := range o.best.sched.Placements {
+		if o.t.Periods[pl.Period].Day == d {
+			if s, ok := secIdx[pl.Section]; ok && !slices.Contains(out, s) {
+				out = append(out, s)
+			}
+		}
+	}
+	return out
+}
+
+// sortedKeys lists a map's keys in order (for deterministic choices).
+func sortedKeys(m map[string]int64) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	return keys
+}

@@ -33,8 +33,8 @@ func (o *optRun) onModel(_ []int64, model []solver.Atom) {
 	if o.fatal != nil || o.hall != nil || o.conflict != nil {
 		return
 	}
-	if o.best != nil && o.sameStarts(model, o.best.model) {
-		return
+	if o.best != nil && (o.sameStarts(model, o.best.model) || slices.Compare(o.timeCost(model), o.best.total) >= 0) {
+		return // rooms never cost less than nothing: it cannot beat the best
 	}
 	c, err := o.evaluate(model)
 	var herr *HallError

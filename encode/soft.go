@@ -1,6 +1,7 @@
 package encode
 
 import (
+	"math"
 	"slices"
 
 	"github.com/termwright/termwright/solver"
@@ -14,6 +15,7 @@ func init() { registerPart("soft criteria", (*builder).compileSoft) }
 // pairing for "moved meetings".
 type softModel struct {
 	crit []int8     // crit[i]: index into timetable.Criteria of Program.Weaks[i], -1 for weak constraints written by others
+	subj []int32    // subj[i]: whom Program.Weaks[i] is about (see aboutSection), noSubject when unknown
 	keep *keepModel // nil without Options.Keep
 }
 
@@ -22,6 +24,7 @@ type softModel struct {
 type softBuilder struct {
 	*builder
 	m       *softModel
+	subject int32                   // subject of the weak constraints being written
 	occ     map[int][]solver.Lit    // occ[s][p]: "section s occupies p" (a start literal or an occupies atom), 0 when impossible
 	attends map[int][]solver.Lit    // attends[c][p]: "cohort c has a meeting at p", 0 when impossible
 	blocks  map[string][]solver.Lit // busy rows of blocks of sections (student clashes), by member list
@@ -51,9 +54,11 @@ func (b *builder) compileSoft() {
 		attends: map[int][]solver.Lit{}}
 	b.c.soft = sb.m
 	sb.m.crit = make([]int8, len(b.p.Weaks))
+	sb.m.subj = make([]int32, len(b.p.Weaks))
 	for i := range sb.m.crit {
-		sb.m.crit[i] = -1
+		sb.m.crit[i], sb.m.subj[i] = -1, noSubject
 	}
+	sb.subject = noSubject
 	b.in(-1, "soft")
 	sb.keepMeetings()
 	sb.studentClashes()
@@ -79,7 +84,17 @@ func (sb *softBuilder) weight(name string, row int64) (int64, int, bool) {
 func (sb *softBuilder) weak(name string, w int64, level int, body ...solver.Lit) {
 	sb.p.AddWeak(w, level, body...)
 	sb.m.crit = append(sb.m.crit, critIndex[name])
+	sb.m.subj = append(sb.m.subj, sb.subject)
 }
+
+// noSubject marks a weak constraint about nobody in particular.
+const noSubject = math.MinInt32
+
+// Subjects of weak constraints: a section index s as s, staff index i as
+// -1-i, cohort index c as -1-len(Staff)-c.
+func (sb *softBuilder) aboutSection(s int) { sb.subject = int32(s) }
+func (sb *softBuilder) aboutStaff(i int)   { sb.subject = int32(-1 - i) }
+func (sb *softBuilder) aboutCohort(c int)  { sb.subject = int32(-1 - len(sb.t.Staff) - c) }
 
 // occupies returns the literal "section s occupies period p": the start
 // literal itself when exactly one start covers p, an atom occupies(S,P)

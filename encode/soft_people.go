@@ -28,6 +28,7 @@ func (sb *softBuilder) staffCriteria() {
 		if !teaches[i] {
 			continue
 		}
+		sb.aboutStaff(i)
 		busy := sb.staffBusy(i)
 		if gaps {
 			sb.gaps(timetable.CritStaffGaps, gw, gl, busy, "busy_before("+quote(st.ID), "busy_after("+quote(st.ID))
@@ -61,6 +62,7 @@ func (sb *softBuilder) cohortCriteria() {
 		return
 	}
 	for c, co := range sb.t.Cohorts {
+		sb.aboutCohort(c)
 		busy := sb.cohortAttends(c)
 		if gaps {
 			sb.gaps(timetable.CritCohortGaps, gw, gl, busy, "attends_before("+quote(co.ID), "attends_after("+quote(co.ID))

@@ -59,6 +59,7 @@ func (sb *softBuilder) softRelations() {
 		if len(ways) == 0 {
 			continue
 		}
+		sb.aboutSection(secs[0])
 		a := sb.newAtom("broken(relation,"+quote(relKey(rel, ri))+")", aux(-1, -1))
 		for _, body := range ways {
 			sb.rule(a, body...)

@@ -51,6 +51,7 @@ func (sb *softBuilder) avoidTimes() {
 	}
 	for _, h := range order {
 		if w, l, ok := sb.weight(timetable.CritAvoidTimes, sum[h]); ok {
+			sb.aboutSection(h.s)
 			sb.weak(timetable.CritAvoidTimes, w, l, sb.occupies(h.s, h.p))
 		}
 	}
@@ -84,6 +85,7 @@ func (sb *softBuilder) earlyLate() {
 	}
 	for s := range sb.t.Sections {
 		m := &sb.c.secs[s]
+		sb.aboutSection(s)
 		for _, p := range m.starts {
 			if early && p == first[p] {
 				sb.weak(timetable.CritEarly, ew, el, solver.Pos(m.start[p]))
@@ -111,6 +113,7 @@ func (sb *softBuilder) spreadDays() {
 		if !sec.SameDay || sec.MinDays <= 0 {
 			continue
 		}
+		sb.aboutSection(s)
 		var days []solver.Lit
 		for _, a := range sb.meetsAtoms(s) {
 			if a != 0 {
@@ -154,8 +157,9 @@ func (sb *softBuilder) studentClashes() {
 	groups, weights := sb.enrolmentGroups()
 	type body struct{ x, y solver.Lit }
 	sum := map[body]int64{}
+	rep := map[body]int{}
 	var order []body
-	add := func(x, y solver.Lit, n int64) {
+	add := func(x, y solver.Lit, n int64, s int) {
 		if x == 0 || y == 0 {
 			return
 		}
@@ -165,6 +169,7 @@ func (sb *softBuilder) studentClashes() {
 		k := body{x, y}
 		if _, ok := sum[k]; !ok {
 			order = append(order, k)
+			rep[k] = s
 		}
 		sum[k] += n
 	}
@@ -179,7 +184,7 @@ func (sb *softBuilder) studentClashes() {
 			for i := range rows {
 				for j := i + 1; j < len(rows); j++ {
 					for p := range t.Periods {
-						add(rows[i][p], rows[j][p], n)
+						add(rows[i][p], rows[j][p], n, blocks[i][0])
 					}
 				}
 			}
@@ -191,13 +196,14 @@ func (sb *softBuilder) studentClashes() {
 					continue
 				}
 				for p := range t.Periods {
-					add(sb.occupies(a, p), sb.occupies(b, p), n)
+					add(sb.occupies(a, p), sb.occupies(b, p), n, a)
 				}
 			}
 		}
 	}
 	for _, k := range order {
 		if w, l, ok := sb.weight(timetable.CritStudentClash, sum[k]); ok {
+			sb.aboutSection(rep[k])
 			sb.weak(timetable.CritStudentClash, w, l, k.x, k.y)
 		}
 	}
