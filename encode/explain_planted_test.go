@@ -9,6 +9,7 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -143,4 +144,103 @@ func TestPlantedConflicts(t *testing.T) {
 		assert.Empty(t, timetable.HardViolations(timetable.Check(b.t, ex.Schedule)))
 		assert.Nil(t, ex.Conflict)
 	})
+}
+
+// TestConflictingRequests: two requests that each fit alone but not
+// together are both named, with the shared teacher; relaxations never drop
+// a request.
+func TestConflictingRequests(t *testing.T) {
+	b := newXTerm(1, 3).room("R1", 30).room("R2", 30).
+		sec("A", xStaff("T")).sec("B", xStaff("T")).sec("C", xStaff("U"))
+	reqs := []Request{
+		{Section: "A", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 2}},
+		{Section: "B", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 3}},
+	}
+	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusRefused, ex.Status)
+	assert.False(t, ex.TermInfeasible)
+	for _, r := range ex.Requests {
+		assert.False(t, r.Granted)
+		assert.True(t, r.GrantedAlone, "request %d alone", r.Number)
+		assert.Empty(t, r.Places, "no places for a request that works alone")
+	}
+	assert.Equal(t, []string{KindRequest, KindRequest, KindStaffNoOverlap}, kindsOf(ex.Conflict.Reasons))
+	assert.Equal(t, 1, ex.Conflict.Reasons[0].Request)
+	assert.Equal(t, []string{"Requests row 2"}, ex.Conflict.Reasons[0].Sources)
+	assert.Equal(t, []string{"A", "B"}, sectionIDs(ex.Conflict))
+	require.Len(t, ex.Corrections, 1)
+	assert.Equal(t, []string{KindStaffNoOverlap}, kindsOf(ex.Corrections[0].Relax))
+	assert.True(t, ex.CorrectionsComplete)
+}
+
+// TestRequestAgainstItsOwnSection: a request no relaxation can grant (a
+// one-meeting section asked for twice) says so; a request for a start that
+// cannot hold the meeting names only the request.
+func TestRequestAgainstItsOwnSection(t *testing.T) {
+	b := newXTerm(1, 3).room("R1", 30).sec("A", xStaff("T")).sec("L", xStaff("U"), xMeet(1, 2))
+	reqs := []Request{{Section: "A", Day: time.Monday, Start: 9 * 60}, {Section: "A", Day: time.Monday, Start: 10 * 60}}
+	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusRefused, ex.Status)
+	assert.Equal(t, []string{KindRequest, KindRequest}, kindsOf(ex.Conflict.Reasons))
+	assert.Empty(t, ex.Corrections)
+	assert.True(t, ex.CorrectionsComplete, "no relaxation exists, and that is certain")
+
+	ex, err = Explain(context.Background(), b.t, []Request{{Section: "L", Day: time.Monday, Start: 11 * 60}}, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusRefused, ex.Status)
+	require.Len(t, ex.Conflict.Reasons, 1)
+	assert.Contains(t, ex.Conflict.Reasons[0].Sentence, "cannot start there")
+	assert.Equal(t, []Place{{At: "Mon 09:00", Period: 0, Room: "R1"}, {At: "Mon 10:00", Period: 1, Room: "R1"}}, ex.Requests[0].Places)
+}
+
+// TestSectionThatCannotFit: a section whose meeting is longer than any day
+// is its own reason.
+func TestSectionThatCannotFit(t *testing.T) {
+	b := newXTerm(2, 2).room("R1", 30).sec("A", xStaff("T")).sec("LONG", xStaff("U"), xMeet(1, 3))
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusInfeasible, ex.Status)
+	assert.Equal(t, []string{"LONG"}, sectionIDs(ex.Conflict))
+	require.Len(t, ex.Conflict.Reasons, 1)
+	assert.Equal(t, KindSection, ex.Conflict.Reasons[0].Kind)
+	assert.Contains(t, ex.Conflict.Reasons[0].Sentence, "no run of consecutive periods")
+	assert.Empty(t, ex.Corrections)
+	assert.True(t, ex.CorrectionsComplete)
+}
+
+// TestTinyBudget: with a budget too small to decide anything the answer is
+// "unknown" or a conflict marked not minimal, never a wrong claim.
+func TestTinyBudget(t *testing.T) {
+	b := newXTerm(1, 5)
+	for i := 0; i < 5; i++ {
+		b.room(fmt.Sprintf("R%d", i), 30)
+	}
+	for i := 0; i < 6; i++ {
+		b.sec(fmt.Sprintf("S%d", i), xStaff(fmt.Sprintf("T%d", i)), xCohort("C"))
+	}
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, CheckConflicts: 1})
+	require.NoError(t, err)
+	switch ex.Status {
+	case StatusUnknown:
+		assert.Nil(t, ex.Conflict)
+	case StatusInfeasible:
+		// Pigeonhole: six sections of one cohort in five periods; if the
+		// budget sufficed to prove it, what is named must hold up.
+		x := newTestExplainer(t, b.t)
+		var set []int
+		for _, s := range ex.Conflict.Sections {
+			set = append(set, x.secGroup[slices.IndexFunc(b.t.Sections, func(sec timetable.Section) bool { return sec.ID == s.ID })])
+		}
+		set = append(set, x.cat.groupKey[KindCohortNoOverlap+"\x00C"])
+		assert.Equal(t, solver.Unsatisfiable, x.statusOf(t, x.onlyOn(set)))
+	default:
+		t.Fatalf("status %s: the term has no timetable", ex.Status)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	ex, err = Explain(ctx, b.t, nil, ExplainOptions{Seed: 1})
+	require.NoError(t, err)
+	assert.Equal(t, StatusUnknown, ex.Status, "a cancelled run decides nothing")
 }

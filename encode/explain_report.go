@@ -251,6 +251,20 @@ func (x *Explainer) conflict(mus, core []int, minimal bool) *Conflict {
 		}
 	}
 	c.Reasons = x.reasons(groups)
+	if len(groups) == 0 {
+		// Sections that cannot be scheduled even with every requirement
+		// off: their own shape is the reason.
+		for _, g := range secs {
+			r := x.reason(g)
+			s := slices.Index(x.secGroup, g)
+			if len(x.cat.Candidates(s)) == 0 {
+				r.Sentence += ", but no run of consecutive periods in the grid can hold one meeting"
+			} else {
+				r.Sentence += ", but the grid has too few starts for them"
+			}
+			c.Reasons = append(c.Reasons, r)
+		}
+	}
 	for s, g := range x.secGroup {
 		if slices.Contains(secs, g) {
 			sec := &x.work.Sections[s]
