@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
 )
 
 // Place is a start where a refused request's section could meet instead,
@@ -67,6 +68,9 @@ func (x *Explainer) placesOf(ctx context.Context, s, want int, on []bool) (out [
 				room[p] = ""
 				continue
 			}
+			if err := x.quickPlaces(ctx, s, want, on, res, room); err != nil {
+				return nil, false, err
+			}
 			id := x.work.Sections[s].ID
 			for _, pl := range res.sched.Placements {
 				if pl.Section == id {
@@ -127,9 +131,165 @@ func (x *Explainer) placesOne(ctx context.Context, s, want int, on []bool) (out 
 		if p < 0 || p == want {
 			return nil, false, fmt.Errorf("internal error: a timetable places section %s where it was ruled out", id)
 		}
-		not = append(not, solver.Neg(x.cat.StartAtom(s, p)))
+		if res.sched != nil {
+			if err := x.quickPlaces(ctx, s, want, on, res, room); err != nil {
+				return nil, false, err
+			}
+		}
+		not = not[:0]
+		if want >= 0 && x.cat.StartAtom(s, want) != 0 {
+			not = append(not, solver.Neg(x.cat.StartAtom(s, want)))
+		}
+		for q := range room {
+			not = append(not, solver.Neg(x.cat.StartAtom(s, q)))
+		}
 	}
 	return x.placeList(room), true, nil
+}
+
+// quickPlaces proves places of section s by moving it alone in a
+// timetable res already found: with every other section's starts assumed
+// as they are and a start q assumed for s, a model of the engine gives s's
+// starts; when a room stays free for each of its meetings, res with s's
+// meetings replaced is a new timetable, which must pass timetable.Check,
+// and every start of s in it is a place. Starts it cannot prove this way
+// are left to full checks. Sections whose rooms are tied (same-room
+// relations, fixed rooms) are left out.
+func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res checkResult, room map[int]string) error {
+	m := &x.cat.secs[s]
+	if m.sameRoom >= 0 || len(m.fixedCand) > 0 {
+		return nil
+	}
+	isOn := func(g int) bool { return g >= len(on) || on[g] }
+	id := x.work.Sections[s].ID
+	var fixed []solver.Lit
+	for _, a := range res.model {
+		if info := x.cat.AtomInfo(a); info.Kind == AtomStart && info.Section != s {
+			fixed = append(fixed, solver.Pos(a))
+		}
+	}
+	// Rooms taken by the other meetings of the timetable, period by period
+	// (whatever their weeks: a conservative test).
+	roomIdx, secIdx := x.work.RoomIndex(), x.work.SectionIndex()
+	taken := map[[2]int]bool{}
+	// People of s busy in the timetable, by period: a start where one of
+	// them is busy in a common week cannot work with the rest fixed.
+	sec := &x.work.Sections[s]
+	mineWho := map[string]bool{}
+	for _, w := range sec.Staff {
+		mineWho["s"+w] = true
+	}
+	for _, w := range sec.Cohorts {
+		mineWho["c"+w] = true
+	}
+	busy := map[int]bool{}
+	var others []timetable.Placement
+	for _, pl := range res.sched.Placements {
+		if pl.Section == id {
+			continue
+		}
+		others = append(others, pl)
+		o := &x.work.Sections[secIdx[pl.Section]]
+		shares := false
+		for _, w := range o.Staff {
+			shares = shares || mineWho["s"+w]
+		}
+		for _, w := range o.Cohorts {
+			shares = shares || mineWho["c"+w]
+		}
+		shares = shares && x.cat.secs[secIdx[pl.Section]].weeks.Overlaps(m.weeks)
+		r, hasRoom := roomIdx[pl.Room]
+		for q := pl.Period; q < pl.Period+o.Length; q++ {
+			if hasRoom {
+				taken[[2]int{r, q}] = true
+			}
+			if shares {
+				busy[q] = true
+			}
+		}
+	}
+	for _, q := range x.cat.Candidates(s) {
+		if _, ok := room[q]; ok || q == want {
+			continue
+		}
+		if ctx.Err() != nil {
+			return nil
+		}
+		clash := false
+		for t := q; t < q+m.length; t++ {
+			clash = clash || busy[t]
+		}
+		if clash || (m.takesRoom && x.freeRoom(s, q, isOn, func(k [2]int) bool { return taken[k] }) < 0) {
+			continue
+		}
+		x.stats.Checks++
+		x.s.Assume(x.assumptions(isOn, append(fixed, solver.Pos(x.cat.StartAtom(s, q))))...)
+		switch x.s.Solve(ctx) {
+		case solver.Satisfiable:
+			x.stats.Sat++
+		case solver.Unsatisfiable:
+			x.stats.Unsat++
+			continue
+		default:
+			x.stats.Unknown++
+			continue
+		}
+		moved := &timetable.Schedule{Placements: slices.Clone(others)}
+		mine := map[[2]int]bool{}
+		ok := true
+		n := 0
+		for _, p := range x.cat.Candidates(s) {
+			if !x.s.Value(x.cat.StartAtom(s, p)) {
+				continue
+			}
+			n++
+			pl := timetable.Placement{Section: id, Meeting: n, Period: p}
+			if m.takesRoom {
+				r := x.freeRoom(s, p, isOn, func(k [2]int) bool { return taken[k] || mine[k] })
+				if r < 0 {
+					ok = false
+					break
+				}
+				for t := p; t < p+m.length; t++ {
+					mine[[2]int{r, t}] = true
+				}
+				pl.Room = x.work.Rooms[r].ID
+			}
+			moved.Placements = append(moved.Placements, pl)
+		}
+		if !ok || len(timetable.HardViolations(timetable.Check(x.term, moved))) > 0 {
+			continue
+		}
+		for _, pl := range moved.Placements[len(others):] {
+			if _, seen := room[pl.Period]; !seen && pl.Period != want {
+				room[pl.Period] = pl.Room
+			}
+		}
+	}
+	return nil
+}
+
+// freeRoom returns a candidate room of section s's meeting at start q that
+// is available and not taken in every period of the meeting, or -1.
+func (x *Explainer) freeRoom(s, q int, isOn func(int) bool, taken func([2]int) bool) int {
+	m := &x.cat.secs[s]
+	if !m.takesRoom {
+		return -1
+	}
+	best := -1
+	rm := &x.cat.rooms
+	rm.sets.sets[m.candAt(q)].each(func(r int) {
+		if best >= 0 {
+			return
+		}
+		for p := q; p < q+m.length; p++ {
+			if taken([2]int{r, p}) || (rm.blocked[r] != nil && rm.blocked[r][p] && isOn(rm.blocker[r])) {
+				return
+			}
+		}
+		best = r
+	})
+	return best
 }
 
 // placeList orders places by period.
