@@ -270,24 +270,30 @@ func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res
 }
 
 // freeRoom returns a candidate room of section s's meeting at start q that
-// is available and not taken in every period of the meeting, or -1.
+// is available and not taken in every period of the meeting, the best fit
+// first, or -1.
 func (x *Explainer) freeRoom(s, q int, isOn func(int) bool, taken func([2]int) bool) int {
 	m := &x.cat.secs[s]
 	if !m.takesRoom {
 		return -1
 	}
+	// Best fit: the fewest seats that hold the section, then any.
+	size := x.work.Sections[s].Size
+	fits := func(r int) bool { return x.work.Rooms[r].Capacity >= size }
 	best := -1
 	rm := &x.cat.rooms
 	rm.sets.sets[m.candAt(q)].each(func(r int) {
-		if best >= 0 {
-			return
-		}
 		for p := q; p < q+m.length; p++ {
 			if taken([2]int{r, p}) || (rm.blocked[r] != nil && rm.blocked[r][p] && isOn(rm.blocker[r])) {
 				return
 			}
 		}
-		best = r
+		switch {
+		case best < 0,
+			fits(r) && !fits(best),
+			fits(r) == fits(best) && x.work.Rooms[r].Capacity < x.work.Rooms[best].Capacity:
+			best = r
+		}
 	})
 	return best
 }
