@@ -58,6 +58,10 @@ func (o *optRun) lns() error {
 			o.res.Stopped = "time limit or interrupted"
 			return nil
 		}
+		if o.opt.MaxSteps > 0 && o.res.Steps >= o.opt.MaxSteps {
+			o.res.Stopped = "step limit"
+			return nil
+		}
 		o.res.Steps++
 		kind := o.res.Steps % hoodKinds
 		secs := o.neighbourhood(ls, kind)

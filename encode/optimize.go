@@ -29,6 +29,9 @@ type OptimizeOptions struct {
 	// without improvement; 0 means DefaultMaxStall, negative skips
 	// neighbourhood search.
 	MaxStall int
+	// MaxSteps ends neighbourhood search after this many steps; 0 means
+	// no limit.
+	MaxSteps int
 	// Progress, when set, is called with the state of the search after each
 	// improvement and about every ProgressEvery while searching.
 	Progress      func(Progress)
@@ -71,6 +74,7 @@ type OptimizeResult struct {
 	// per criterion (indexed like timetable.Criteria); it equals TimeCost
 	// of Schedule (the third gate).
 	EngineCost []int64
+	Kept       bool       // Keep was given
 	Moves      []Move     // with Keep: meetings whose start or room changed, and new or dropped meetings
 	History    []Progress // one entry per improvement
 	Steps      int        // neighbourhood steps run
@@ -405,6 +409,7 @@ func (o *optRun) finish() *OptimizeResult {
 		res.Stopped = "optimal"
 	}
 	if o.opt.Keep != nil {
+		res.Kept = true
 		res.Moves = Moves(o.t, o.opt.Keep, res.Schedule)
 	}
 	return res

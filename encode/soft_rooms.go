@@ -23,20 +23,38 @@ const maxRoomPasses = 8
 
 // roomSearch is the state of one improveRooms call.
 type roomSearch struct {
-	t      *timetable.Term
-	c      *Catalog
-	levels []int
-	ms     []roomMeeting
-	bySec  [][]int   // section -> meetings
-	byWho  [][]int   // person (staff, then cohorts) -> meetings
-	whoOf  [][]int   // section -> persons
-	relOf  [][]int   // section -> soft same-room relations (indexes into Term.Relations)
-	relSec [][]int   // relation -> sections
-	occ    [][][]int // occ[r][p]: meetings holding room r at period p
-	avoid  [][]int64 // avoid[r][p]: weight of soft room rows of r covering p (criterion weight included), nil row when none
-	w      map[string]int64
-	lvl    map[string]int // criterion -> index into levels, -1 when off
+	t       *timetable.Term
+	c       *Catalog
+	levels  []int
+	ms      []roomMeeting
+	bySec   [][]int          // section -> meetings
+	byWho   [][]int          // person (staff, then cohorts) -> meetings
+	startAt [][][]int        // person -> start period -> meetings (nil for people without meetings)
+	endAt   [][][]int        // person -> last period -> meetings
+	whoOf   [][]int          // section -> persons
+	relOf   [][]int          // section -> soft same-room relations (indexes into Term.Relations)
+	relSec  [][]int          // relation -> sections
+	occ     [][][]int        // occ[r][p]: meetings holding room r at period p
+	avoid   [][]int64        // avoid[r][p]: weight of soft room rows of r covering p (criterion weight included), nil row when none
+	w       [roomCrits]int64 // criterion weight
+	lvl     [roomCrits]int   // criterion -> index into levels, -1 when off
 }
+
+// The criteria room improvement works on, indexes of roomSearch.w and lvl.
+const (
+	rcStability = iota
+	rcOverCapacity
+	rcWastedSeats
+	rcTravel
+	rcAvoid
+	rcMoved
+	rcRelations
+	roomCrits
+)
+
+// roomCritNames are the criterion names of the rc... indexes.
+var roomCritNames = [roomCrits]string{timetable.CritRoomStability, timetable.CritOverCapacity, timetable.CritWastedSeats,
+	timetable.CritTravel, timetable.CritAvoidTimes, timetable.CritMoved, timetable.CritSoftRelations}
 
 // roomMeeting is one placed meeting that takes a room.
 type roomMeeting struct {
@@ -84,20 +102,19 @@ func improveRooms(t *timetable.Term, c *Catalog, s *timetable.Schedule, kept *ti
 // newRoomSearch indexes the schedule; nil when no room criterion is on or
 // no meeting has a room.
 func newRoomSearch(t *timetable.Term, c *Catalog, s *timetable.Schedule, kept *timetable.Schedule) *roomSearch {
-	rs := &roomSearch{t: t, c: c, levels: termLevels(t), w: map[string]int64{}, lvl: map[string]int{}}
+	rs := &roomSearch{t: t, c: c, levels: termLevels(t)}
 	on := false
-	for _, name := range []string{timetable.CritRoomStability, timetable.CritOverCapacity, timetable.CritWastedSeats,
-		timetable.CritTravel, timetable.CritAvoidTimes, timetable.CritMoved, timetable.CritSoftRelations} {
+	for k, name := range roomCritNames {
 		w, l := t.CriterionWeight(name)
-		rs.w[name] = int64(w)
-		rs.lvl[name] = slices.Index(rs.levels, l)
+		rs.w[k] = int64(w)
+		rs.lvl[k] = slices.Index(rs.levels, l)
 		if w == 0 {
-			rs.lvl[name] = -1
+			rs.lvl[k] = -1
 		}
 		on = on || w != 0
 	}
 	if !t.SoftCapacity {
-		rs.lvl[timetable.CritOverCapacity] = -1
+		rs.lvl[rcOverCapacity] = -1
 	}
 	if !on {
 		return nil
@@ -149,9 +166,16 @@ func (rs *roomSearch) indexPeople() {
 			}
 		}
 	}
+	rs.startAt = make([][][]int, len(rs.byWho))
+	rs.endAt = make([][][]int, len(rs.byWho))
 	for i, m := range rs.ms {
 		for _, k := range rs.whoOf[m.sec] {
 			rs.byWho[k] = append(rs.byWho[k], i)
+			if rs.startAt[k] == nil {
+				rs.startAt[k], rs.endAt[k] = make([][]int, len(t.Periods)), make([][]int, len(t.Periods))
+			}
+			rs.startAt[k][m.start] = append(rs.startAt[k][m.start], i)
+			rs.endAt[k][m.end] = append(rs.endAt[k][m.end], i)
 		}
 	}
 }
@@ -200,7 +224,7 @@ func (rs *roomSearch) indexRooms() {
 				if rs.avoid[r] == nil {
 					rs.avoid[r] = make([]int64, nP)
 				}
-				rs.avoid[r][p] += int64(u.Weight) * rs.w[timetable.CritAvoidTimes]
+				rs.avoid[r][p] += int64(u.Weight) * rs.w[rcAvoid]
 			}
 		}
 	}
@@ -275,7 +299,7 @@ func (rs *roomSearch) sectionMove(sec int) bool {
 	for k, i := range ms {
 		old[k] = rs.ms[i].room
 	}
-	before := rs.cost([]int{sec})
+	before := rs.cost(ms)
 	bestRoom, best := -1, before
 	for _, r := range rooms {
 		ok := true
@@ -291,7 +315,7 @@ func (rs *roomSearch) sectionMove(sec int) bool {
 		for _, i := range ms {
 			rs.setRoom(i, r)
 		}
-		if c := rs.cost([]int{sec}); slices.Compare(c, best) < 0 {
+		if c := rs.cost(ms); slices.Compare(c, best) < 0 {
 			bestRoom, best = r, c
 		}
 		for k, i := range ms {
@@ -325,10 +349,10 @@ func (rs *roomSearch) meetingMove(i int) bool {
 			continue
 		}
 		if rs.free(r, i) {
-			secs := []int{m.sec}
-			before := rs.cost(secs)
+			moved := []int{i}
+			before := rs.cost(moved)
 			rs.setRoom(i, r)
-			after := rs.cost(secs)
+			after := rs.cost(moved)
 			rs.setRoom(i, from)
 			if slices.Compare(after, before) < 0 && (best == nil || slices.Compare(diff(after, before), bestCost) < 0) {
 				best, bestCost = &change{r, -1, -1}, diff(after, before)
@@ -346,14 +370,11 @@ func (rs *roomSearch) meetingMove(i int) bool {
 			if r2 == r || !rs.free(r2, j, i) || !rs.free(r, i, j) {
 				continue
 			}
-			secs := []int{m.sec}
-			if o.sec != m.sec {
-				secs = append(secs, o.sec)
-			}
-			before := rs.cost(secs)
+			moved := []int{i, j}
+			before := rs.cost(moved)
 			rs.setRoom(j, r2)
 			rs.setRoom(i, r)
-			after := rs.cost(secs)
+			after := rs.cost(moved)
 			rs.setRoom(i, from)
 			rs.setRoom(j, r)
 			if slices.Compare(after, before) < 0 && (best == nil || slices.Compare(diff(after, before), bestCost) < 0) {
@@ -403,87 +424,96 @@ func diff(a, b []int64) []int64 {
 	return out
 }
 
-// cost is the room-dependent cost, per level, of everything the rooms of
-// the given sections' meetings affect: the sections' own criteria, travel
-// of their staff and cohorts, and their soft same-room relations.
-// Differences of cost over the same sections are exact differences of the
-// whole room-dependent cost.
-func (rs *roomSearch) cost(secs []int) []int64 {
+// cost is the part of the room-dependent cost, per level, that the rooms
+// of the given meetings can change: their own per-meeting criteria, the
+// room stability of their sections, travel pairs that involve one of them,
+// and their sections' soft same-room relations. The difference of cost
+// over the same meetings before and after they change rooms is exactly the
+// change of the whole room-dependent cost.
+func (rs *roomSearch) cost(moved []int) []int64 {
 	out := make([]int64, len(rs.levels))
-	add := func(name string, v int64) {
-		if k := rs.lvl[name]; k >= 0 && v != 0 {
-			out[k] += rs.w[name] * v
+	add := func(c int, v int64) {
+		if k := rs.lvl[c]; k >= 0 && v != 0 {
+			out[k] += rs.w[c] * v
 		}
 	}
-	addRaw := func(name string, v int64) { // v already weighted
-		if k := rs.lvl[name]; k >= 0 {
-			out[k] += v
+	var secs, rels []int
+	for _, i := range moved {
+		m := &rs.ms[i]
+		size := rs.t.Sections[m.sec].Size
+		capa := rs.t.Rooms[m.room].Capacity
+		if size > capa {
+			add(rcOverCapacity, int64(size-capa))
+		} else {
+			add(rcWastedSeats, int64(capa-size))
 		}
-	}
-	var who, rels []int
-	for _, sec := range secs {
-		var rooms []int
-		size := rs.t.Sections[sec].Size
-		for _, i := range rs.bySec[sec] {
-			m := &rs.ms[i]
-			if !slices.Contains(rooms, m.room) {
-				rooms = append(rooms, m.room)
-			}
-			capa := rs.t.Rooms[m.room].Capacity
-			if size > capa {
-				add(timetable.CritOverCapacity, int64(size-capa))
-			} else {
-				add(timetable.CritWastedSeats, int64(capa-size))
-			}
-			if row := rs.avoid[m.room]; row != nil {
+		if row := rs.avoid[m.room]; row != nil {
+			if k := rs.lvl[rcAvoid]; k >= 0 {
 				for q := m.start; q <= m.end; q++ {
-					addRaw(timetable.CritAvoidTimes, row[q])
+					out[k] += row[q]
 				}
 			}
-			if m.keptRoom >= 0 && m.keptRoom != m.room {
-				add(timetable.CritMoved, 1)
+		}
+		if m.keptRoom >= 0 && m.keptRoom != m.room {
+			add(rcMoved, 1)
+		}
+		if rs.lvl[rcTravel] >= 0 {
+			add(rcTravel, rs.travelAt(i, moved))
+		}
+		if !slices.Contains(secs, m.sec) {
+			secs = append(secs, m.sec)
+		}
+	}
+	for _, sec := range secs {
+		var rooms []int
+		for _, i := range rs.bySec[sec] {
+			if !slices.Contains(rooms, rs.ms[i].room) {
+				rooms = append(rooms, rs.ms[i].room)
 			}
 		}
-		add(timetable.CritRoomStability, int64(max(len(rooms)-1, 0)))
-		for _, k := range rs.whoOf[sec] {
-			if !slices.Contains(who, k) {
-				who = append(who, k)
-			}
-		}
+		add(rcStability, int64(max(len(rooms)-1, 0)))
 		for _, ri := range rs.relOf[sec] {
 			if !slices.Contains(rels, ri) {
 				rels = append(rels, ri)
 			}
 		}
 	}
-	if rs.lvl[timetable.CritTravel] >= 0 {
-		for _, k := range who {
-			add(timetable.CritTravel, rs.travel(k))
-		}
-	}
 	for _, ri := range rels {
 		if rs.relBroken(ri) {
-			add(timetable.CritSoftRelations, int64(rs.t.Relations[ri].Weight))
+			add(rcRelations, int64(rs.t.Relations[ri].Weight))
 		}
 	}
 	return out
 }
 
-// travel counts person k's pairs of meetings where one starts right after
-// the other ends (consecutive, same day) in a different non-blank building.
-func (rs *roomSearch) travel(k int) int64 {
+// travelAt counts, over the staff and cohorts of meeting i, the pairs of
+// meetings in consecutive periods of one day that involve i and are held
+// in different non-blank buildings. A pair with another meeting of moved
+// is counted from its earlier meeting only, so that no pair counts twice.
+func (rs *roomSearch) travelAt(i int, moved []int) int64 {
+	m := &rs.ms[i]
+	t := rs.t
+	b := t.Rooms[m.room].Building
+	if b == "" {
+		return 0
+	}
 	var n int64
-	ms := rs.byWho[k]
-	for _, a := range ms {
-		ma := &rs.ms[a]
-		ba := rs.t.Rooms[ma.room].Building
-		if ba == "" || ma.end+1 >= len(rs.t.Periods) || !rs.t.Consecutive(ma.end, ma.end+1) {
-			continue
+	before := m.start > 0 && t.Consecutive(m.start-1, m.start)
+	after := m.end+1 < len(t.Periods) && t.Consecutive(m.end, m.end+1)
+	for _, k := range rs.whoOf[m.sec] {
+		if after {
+			for _, j := range rs.startAt[k][m.end+1] {
+				if bb := t.Rooms[rs.ms[j].room].Building; j != i && bb != "" && bb != b {
+					n++
+				}
+			}
 		}
-		for _, b := range ms {
-			mb := &rs.ms[b]
-			if mb.start == ma.end+1 {
-				if bb := rs.t.Rooms[mb.room].Building; bb != "" && bb != ba {
+		if before {
+			for _, j := range rs.endAt[k][m.start-1] {
+				if slices.Contains(moved, j) {
+					continue // counted from j
+				}
+				if bb := t.Rooms[rs.ms[j].room].Building; j != i && bb != "" && bb != b {
 					n++
 				}
 			}

@@ -26,23 +26,33 @@ type solveOptions struct {
 	json      bool          // print the report as JSON
 	force     bool          // replace existing outputs
 	publish   string        // also publish everything into this directory
+	quiet     bool          // no progress display
+	keep      string        // earlier timetable to stay close to (minimal change)
+	steps     int           // neighbourhood steps at most; 0 = no limit
 }
 
 func newSolveCmd(e *env) *cobra.Command {
 	o := &solveOptions{}
 	cmd := &cobra.Command{
 		Use:   "solve TERM -o TIMETABLE.xlsx",
-		Short: "Build a conflict-free timetable for a term and write it as a workbook",
+		Short: "Build the best conflict-free timetable for a term and write it as a workbook",
 		Long: "solve reads a term workbook (or folder of CSV files), compiles it into a logic\n" +
-			"program, searches for a timetable that meets every hard requirement, checks the\n" +
-			"result twice — with the engine's own verifier and with an independent check of\n" +
-			"the timetable against the term — and writes the timetable workbook (a Timetable\n" +
-			"sheet and a weekly grid per staff member, room and cohort). A term with errors\n" +
-			"is refused with the list of errors. With --publish DIR it also writes every\n" +
-			"PDF, workbook and calendar file into DIR (see termwright publish).\n\n" +
+			"program, searches for a timetable that meets every hard requirement and then for\n" +
+			"better and better ones by the preferences of the Weights sheet, checks each\n" +
+			"result — with the engine's own verifier, an independent check of the timetable\n" +
+			"against the term and an independent evaluation of its cost — and writes the best\n" +
+			"timetable workbook (a Timetable sheet, a weekly grid per staff member, room and\n" +
+			"cohort, and a Quality sheet). It prints the cost of each preference and a lower\n" +
+			"bound: no timetable costs less. A term with errors is refused with the list of\n" +
+			"errors. With --publish DIR it also writes every PDF, workbook and calendar file\n" +
+			"into DIR (see termwright publish).\n\n" +
+			"The search stops when the best timetable is proven, when it stops improving, at\n" +
+			"--time-limit, or on Ctrl-C; the best timetable found so far is written. With\n" +
+			"--keep LAST.xlsx it re-plans after late edits while moving as few meetings of\n" +
+			"LAST as it can, and lists every meeting that moved and who must be told.\n\n" +
 			"Exit status: 0 when a timetable was written, 2 when no timetable exists (run\n" +
-			"termwright explain TERM to see why), 1 on errors or when the time limit ends\n" +
-			"the search first.",
+			"termwright explain TERM to see why), 1 on errors or when the time limit or\n" +
+			"Ctrl-C ends the search before the first timetable.",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error { return runSolve(cmd.Context(), e, o, args[0]) },
 	}
@@ -53,6 +63,9 @@ func newSolveCmd(e *env) *cobra.Command {
 	f.BoolVar(&o.json, "json", false, "print the report as JSON")
 	f.BoolVar(&o.force, "force", false, "replace an existing output file (and an earlier publication)")
 	f.StringVar(&o.publish, "publish", "", "also publish PDFs, workbook and calendars into this directory")
+	f.BoolVar(&o.quiet, "quiet", false, "show no progress while searching")
+	f.StringVar(&o.keep, "keep", "", "earlier timetable (.xlsx or .csv) to change as little as possible")
+	f.IntVar(&o.steps, "steps", 0, "stop improving after this many neighbourhood steps (0 for no limit); with --time-limit 0 the result depends only on the seed")
 	return cmd
 }
 
@@ -70,6 +83,7 @@ type solveReport struct {
 	HallCuts  int           `json:"room_families_added"`
 	Nogoods   int           `json:"room_conflicts_forbidden"`
 	TimingsMS solveTimingMS `json:"timings_ms"`
+	Quality   *solveQuality `json:"quality,omitempty"`
 	Caution   string        `json:"caution,omitempty"`
 }
 
@@ -116,6 +130,10 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	if err != nil {
 		return err
 	}
+	kept, err := solveReadKept(e, o.keep, term)
+	if err != nil {
+		return err
+	}
 	if ctx == nil {
 		ctx = context.Background()
 	}
@@ -124,11 +142,16 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		ctx, cancel = context.WithTimeout(ctx, o.timeLimit)
 		defer cancel()
 	}
-	res, err := encode.Solve(ctx, term, encode.SolveOptions{Seed: o.seed})
+	progress := newSolveProgress(e, o.quiet || o.json)
+	res, err := encode.Optimize(ctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show})
+	progress.done()
 	if err != nil {
 		return withCode(exitError, err.Error())
 	}
-	rep := solveBuildReport(term, res)
+	rep := solveBuildReport(term, &res.Result)
+	if res.Status == solver.Satisfiable {
+		rep.Quality = solveBuildQuality(term, res)
+	}
 	switch res.Status {
 	case solver.Unsatisfiable:
 		rep.Status = "infeasible"
@@ -141,6 +164,9 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		if err := solvePrint(e, o, rep); err != nil {
 			return err
 		}
+		if res.Incomplete && ctx.Err() == nil {
+			return withCode(exitError, "no timetable was found, but the search could not rule one out (a room assignment search ran out of budget); nothing was written")
+		}
 		if ctx.Err() != nil && !errors.Is(ctx.Err(), context.DeadlineExceeded) {
 			return withCode(exitError, "interrupted before a timetable was found; nothing was written")
 		}
@@ -148,14 +174,14 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	}
 	t0 := time.Now()
 	err = writeFileAtomic(o.out, func(w io.Writer) error {
-		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now()})
+		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: solveQualitySheets(term, res)})
 	})
 	if err != nil {
 		return withCode(exitError, err.Error())
 	}
 	rep.Status, rep.Output = "solved", o.out
 	if o.publish != "" {
-		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force}); err != nil {
+		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: solveQualitySheets(term, res)}); err != nil {
 			return withCode(exitError, fmt.Sprintf("the timetable was written to %s, but publishing failed: %v", o.out, err))
 		}
 		rep.Published = o.publish
@@ -217,6 +243,9 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 		if rep.Published != "" {
 			fmt.Fprintf(w, "Published every schedule to %s.\n", rep.Published)
 		}
+		if rep.Quality != nil {
+			solvePrintQuality(w, rep.Quality)
+		}
 	case "infeasible":
 		fmt.Fprintf(w, "No timetable exists for %s (%s).\n", name, checkCount(rep.Sections, "section"))
 	default:
@@ -235,7 +264,7 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 	fmt.Fprintf(w, "Time: compile %s, search %s, verify %s, decode %s, check %s, write %s.\n",
 		msText(tm.Compile), msText(tm.Search), msText(tm.Verify), msText(tm.Decode), msText(tm.Check), msText(tm.Write))
 	if rep.Status == "solved" {
-		fmt.Fprintln(w, "Both checks passed: the engine's verifier and the independent timetable check.")
+		fmt.Fprintln(w, "Both checks passed: the engine's verifier and the independent timetable check (and the engine's cost agrees with the independent cost evaluation).")
 		fmt.Fprintln(w, rep.Caution)
 	}
 	return nil

@@ -80,7 +80,7 @@ func TestSolveCommandDemo(t *testing.T) {
 	out := filepath.Join(dir, "timetable.xlsx")
 	pub := filepath.Join(dir, "pub")
 	e, stdout, stderr := solveEnv()
-	code := run([]string{"solve", solveDemoPath, "-o", out, "--publish", pub}, e)
+	code := run([]string{"solve", solveDemoPath, "-o", out, "--publish", pub, "--time-limit", "0", "--steps", "5"}, e)
 	require.Equal(t, exitOK, code, "stderr: %s", stderr)
 	assert.Contains(t, stdout.String(), "Solved Autumn 2027: 150 sections")
 	assert.Contains(t, stdout.String(), "Both checks passed")
@@ -103,7 +103,7 @@ func TestSolveCommandDemo(t *testing.T) {
 	// Same seed, same timetable.
 	out2 := filepath.Join(dir, "again.xlsx")
 	e2, _, stderr2 := solveEnv()
-	require.Equal(t, exitOK, run([]string{"solve", solveDemoPath, "-o", out2}, e2), "stderr: %s", stderr2)
+	require.Equal(t, exitOK, run([]string{"solve", solveDemoPath, "-o", out2, "--time-limit", "0", "--steps", "5"}, e2), "stderr: %s", stderr2)
 	s2, _, err := timetable.ReadSchedule(out2, term)
 	require.NoError(t, err)
 	assert.Equal(t, solveStripSrc(s.Placements), solveStripSrc(s2.Placements))

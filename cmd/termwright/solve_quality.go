@@ -1,0 +1,232 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+
+	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/export"
+	"github.com/termwright/termwright/timetable"
+)
+
+// solveQuality is the quality part of the solve report: the cost of the
+// written timetable (timetable.Cost) by level and criterion, the lower
+// bound, and with --keep what moved.
+type solveQuality struct {
+	Levels       []solveLevel              `json:"levels"` // highest level (minimised first) first
+	Proven       bool                      `json:"proven"` // no timetable costs less
+	Stopped      string                    `json:"stopped"`
+	Steps        int                       `json:"neighbourhood_steps"`
+	Improvements int                       `json:"improvements"`
+	Criteria     []timetable.CriterionCost `json:"criteria"`
+	Keep         *solveKeep                `json:"keep,omitempty"`
+}
+
+type solveLevel struct {
+	Level int   `json:"level"`
+	Cost  int64 `json:"cost"`
+	Bound int64 `json:"bound"` // no timetable costs less at this level (with the higher levels at their best)
+}
+
+// solveKeep lists what moved from the kept timetable and whom to tell.
+type solveKeep struct {
+	Moved    int               `json:"moved"` // meetings whose start or room changed
+	Moves    []solveMove       `json:"moves"`
+	Affected []encode.Affected `json:"affected"`
+}
+
+type solveMove struct {
+	Section string   `json:"section"`
+	Meeting int      `json:"meeting"` // the meeting number in the new timetable (in the kept one for dropped meetings)
+	Change  string   `json:"change"`  // "moved", "new" or "dropped"
+	From    string   `json:"from,omitempty"`
+	To      string   `json:"to,omitempty"`
+	Staff   []string `json:"staff"`
+	Cohorts []string `json:"cohorts"`
+}
+
+func solveBuildQuality(t *timetable.Term, res *encode.OptimizeResult) *solveQuality {
+	q := &solveQuality{Proven: res.Proven, Stopped: res.Stopped, Steps: res.Steps,
+		Improvements: len(res.History), Criteria: res.Cost.Criteria, Levels: []solveLevel{}}
+	for i, l := range res.Levels {
+		q.Levels = append(q.Levels, solveLevel{Level: l, Cost: res.Total[i], Bound: res.Bound[i]})
+	}
+	if res.Kept {
+		k := &solveKeep{Moves: []solveMove{}, Affected: encode.Affect(t, res.Moves)}
+		secIdx := t.SectionIndex()
+		for _, mv := range res.Moves {
+			sm := solveMove{Section: mv.Section, Change: mv.Change, Staff: []string{}, Cohorts: []string{}}
+			if mv.From != nil {
+				sm.From, sm.Meeting = solveSlot(t, *mv.From), mv.From.Meeting
+			}
+			if mv.To != nil {
+				sm.To, sm.Meeting = solveSlot(t, *mv.To), mv.To.Meeting
+			}
+			if s, ok := secIdx[mv.Section]; ok {
+				sm.Staff = append(sm.Staff, t.Sections[s].Staff...)
+				sm.Cohorts = append(sm.Cohorts, t.Sections[s].Cohorts...)
+			}
+			if mv.Change == encode.ChangeMoved {
+				k.Moved++
+			}
+			k.Moves = append(k.Moves, sm)
+		}
+		if k.Affected == nil {
+			k.Affected = []encode.Affected{}
+		}
+		q.Keep = k
+	}
+	return q
+}
+
+// solveSlot is "Tue 10:00 R204" (the room left out when there is none).
+func solveSlot(t *timetable.Term, p timetable.Placement) string {
+	s := fmt.Sprintf("period %d", p.Period)
+	if p.Period >= 0 && p.Period < len(t.Periods) {
+		s = t.Periods[p.Period].Label()
+	}
+	if p.Room != "" {
+		s += " " + p.Room
+	}
+	return s
+}
+
+// solvePrintQuality prints the cost breakdown, the bound and the moves.
+func solvePrintQuality(w io.Writer, q *solveQuality) {
+	if len(q.Levels) == 0 {
+		fmt.Fprintln(w, "No preference is switched on (every weight is 0).")
+	} else {
+		fmt.Fprintln(w, "Cost by priority level (lower is better; a higher level counts before any lower one):")
+		for _, l := range q.Levels {
+			fmt.Fprintf(w, "  level %d: cost %d, and no timetable costs less than %d\n", l.Level, l.Cost, l.Bound)
+		}
+		fmt.Fprintln(w, "Cost by preference (weight × units):")
+		for _, c := range q.Criteria {
+			if c.Weight == 0 {
+				continue
+			}
+			fmt.Fprintf(w, "  %-20s level %d  weight %-3d %6d units  cost %d\n", c.Name, c.Level, c.Weight, c.Count, c.Cost)
+		}
+		switch {
+		case q.Proven:
+			fmt.Fprintln(w, "This timetable is optimal: the bound proves that no timetable costs less.")
+		default:
+			fmt.Fprintf(w, "Not proven optimal (search stopped: %s).\n", q.Stopped)
+		}
+	}
+	if q.Keep == nil {
+		return
+	}
+	k := q.Keep
+	if len(k.Moves) == 0 {
+		fmt.Fprintln(w, "Nothing moved from the kept timetable.")
+		return
+	}
+	fmt.Fprintf(w, "Changes from the kept timetable (%s moved):\n", checkCount(k.Moved, "meeting"))
+	for _, m := range k.Moves {
+		fmt.Fprintf(w, "  %s\n", solveMoveText(m))
+	}
+	fmt.Fprintln(w, "Who to tell:")
+	for _, a := range k.Affected {
+		name := a.What + " " + a.ID
+		if a.Name != "" && a.Name != a.ID {
+			name += " (" + a.Name + ")"
+		}
+		parts := make([]string, len(a.Moves))
+		for i, mi := range a.Moves {
+			parts[i] = solveMoveText(k.Moves[mi])
+		}
+		fmt.Fprintf(w, "  %s: %s\n", name, strings.Join(parts, "; "))
+	}
+}
+
+func solveMoveText(m solveMove) string {
+	head := fmt.Sprintf("%s meeting %d", m.Section, m.Meeting)
+	switch m.Change {
+	case encode.ChangeNew:
+		return head + ": new, " + m.To
+	case encode.ChangeDropped:
+		return head + ": dropped (was " + m.From + ")"
+	}
+	return head + ": " + m.From + " → " + m.To
+}
+
+// solveQualitySheets are the extra sheets of the timetable workbook: the
+// Quality sheet (per level, criterion, staff member, cohort and section)
+// and, with --keep, the Changes sheet.
+func solveQualitySheets(t *timetable.Term, res *encode.OptimizeResult) []export.ExtraSheet {
+	rep := res.Cost
+	q := export.ExtraSheet{Name: "Quality", Header: []string{"Part", "Name", "Level", "Weight", "Units", "Cost", "Lower bound"}}
+	for i, l := range res.Levels {
+		q.Rows = append(q.Rows, []any{"level", fmt.Sprintf("level %d", l), l, "", "", res.Total[i], res.Bound[i]})
+	}
+	for _, c := range rep.Criteria {
+		q.Rows = append(q.Rows, []any{"criterion", c.Name, c.Level, c.Weight, c.Count, c.Cost, ""})
+	}
+	names := map[string]string{}
+	for _, st := range t.Staff {
+		names["staff\x00"+st.ID] = st.Name
+	}
+	for _, co := range t.Cohorts {
+		names["cohort\x00"+co.ID] = co.Name
+	}
+	for _, part := range []struct {
+		kind string
+		m    map[string]int64
+	}{{"staff", rep.PerStaff}, {"cohort", rep.PerCohort}, {"section", rep.PerSection}, {"room", rep.PerRoom}} {
+		ids := make([]string, 0, len(part.m))
+		for id, c := range part.m {
+			if c != 0 {
+				ids = append(ids, id)
+			}
+		}
+		sort.Slice(ids, func(i, j int) bool {
+			if part.m[ids[i]] != part.m[ids[j]] {
+				return part.m[ids[i]] > part.m[ids[j]]
+			}
+			return ids[i] < ids[j]
+		})
+		for _, id := range ids {
+			label := id
+			if n := names[part.kind+"\x00"+id]; n != "" && n != id {
+				label += " " + n
+			}
+			q.Rows = append(q.Rows, []any{part.kind, label, "", "", "", part.m[id], ""})
+		}
+	}
+	sheets := []export.ExtraSheet{q}
+	if res.Kept {
+		qual := solveBuildQuality(t, res)
+		ch := export.ExtraSheet{Name: "Changes", Header: []string{"Section", "Meeting", "Change", "From", "To", "Staff", "Cohorts"}}
+		for _, m := range qual.Keep.Moves {
+			ch.Rows = append(ch.Rows, []any{m.Section, m.Meeting, m.Change, m.From, m.To, strings.Join(m.Staff, ", "), strings.Join(m.Cohorts, ", ")})
+		}
+		sheets = append(sheets, ch)
+	}
+	return sheets
+}
+
+// solveReadKept reads the --keep timetable; problems that leave rows out
+// are errors (a partial timetable would count its missing meetings as
+// moved).
+func solveReadKept(e *env, path string, t *timetable.Term) (*timetable.Schedule, error) {
+	if path == "" {
+		return nil, nil
+	}
+	s, ps, err := timetable.ReadSchedule(path, t)
+	if err != nil {
+		return nil, withCode(exitError, err.Error())
+	}
+	for _, p := range ps.Warnings() {
+		fmt.Fprintln(e.stderr, "warning:", p.String())
+	}
+	if errs := ps.Errors(); len(errs) > 0 {
+		for _, p := range errs {
+			fmt.Fprintln(e.stderr, p.String())
+		}
+		return nil, withCode(exitError, fmt.Sprintf("%s has %s that cannot be read — correct them, or leave out --keep", path, checkCount(len(errs), "row")))
+	}
+	return s, nil
+}
