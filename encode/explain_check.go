@@ -10,8 +10,8 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// checkResult is the outcome of one satisfiability check.
-type checkResult struct {
+// explainCheck is the outcome of one satisfiability check.
+type explainCheck struct {
 	status solver.Status
 	core   []int        // Unsatisfiable: groups whose selectors the engine blamed
 	extra  []solver.Lit // Unsatisfiable: extra assumptions the engine blamed
@@ -32,7 +32,7 @@ type checkResult struct {
 // combination that Decode proves impossible (a nogood behind the room
 // assignment group). The status is Unknown when the conflict budget or ctx
 // runs out.
-func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (checkResult, error) {
+func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (explainCheck, error) {
 	x.stats.Checks++
 	isOn := func(g int) bool { return g >= len(on) || on[g] }
 	for round := 0; round < maxCheckRounds; round++ {
@@ -41,7 +41,7 @@ func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (c
 		switch st {
 		case solver.Unknown:
 			x.stats.Unknown++
-			return checkResult{status: solver.Unknown}, nil
+			return explainCheck{status: solver.Unknown}, nil
 		case solver.Unsatisfiable:
 			x.stats.Unsat++
 			return x.unsat(extra), nil
@@ -49,7 +49,7 @@ func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (c
 		model := x.s.Model(nil)
 		if x.opt.VerifyModels {
 			if err := solver.Verify(x.p, model); err != nil {
-				return checkResult{}, fmt.Errorf("internal error: a model of the explanation program fails the verifier: %w", err)
+				return explainCheck{}, fmt.Errorf("internal error: a model of the explanation program fails the verifier: %w", err)
 			}
 		}
 		sched, err := x.decode(model, isOn)
@@ -58,32 +58,32 @@ func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (c
 		switch {
 		case err == nil:
 			x.stats.Sat++
-			return checkResult{status: solver.Satisfiable, model: model, sched: sched}, nil
+			return explainCheck{status: solver.Satisfiable, model: model, sched: sched}, nil
 		case errors.As(err, &herr):
 			added, err := x.addFamilies(herr, model)
 			if err != nil {
-				return checkResult{}, err
+				return explainCheck{}, err
 			}
 			if !added {
 				// Every overfilled room set is stated already: the
 				// shortage comes from room requirements switched off.
 				x.stats.Sat++
-				return checkResult{status: solver.Satisfiable, model: model}, nil
+				return explainCheck{status: solver.Satisfiable, model: model}, nil
 			}
 		case errors.As(err, &rerr):
 			if !isOn(x.roomAssign) {
 				x.stats.Sat++
-				return checkResult{status: solver.Satisfiable, model: model}, nil
+				return explainCheck{status: solver.Satisfiable, model: model}, nil
 			}
 			if err := x.addNogoods(rerr, isOn); err != nil {
-				return checkResult{}, err
+				return explainCheck{}, err
 			}
 		default:
-			return checkResult{}, fmt.Errorf("internal error: %w", err)
+			return explainCheck{}, fmt.Errorf("internal error: %w", err)
 		}
 	}
 	x.stats.Unknown++
-	return checkResult{status: solver.Unknown}, nil
+	return explainCheck{status: solver.Unknown}, nil
 }
 
 // assumptions lists the selector literals of a check: switched-off groups
@@ -108,8 +108,8 @@ func (x *Explainer) assumptions(isOn func(int) bool, extra []solver.Lit) []solve
 }
 
 // unsat reads the engine's core as groups and extra literals.
-func (x *Explainer) unsat(extra []solver.Lit) checkResult {
-	res := checkResult{status: solver.Unsatisfiable}
+func (x *Explainer) unsat(extra []solver.Lit) explainCheck {
+	res := explainCheck{status: solver.Unsatisfiable}
 	for _, l := range x.s.Core(nil) {
 		if g, ok := x.cat.GroupOf(l.Atom()); ok && !l.IsNeg() {
 			res.core = append(res.core, g.ID)

@@ -313,7 +313,7 @@ func compareCost(basis string, with, without timetable.CostReport) *CostComparis
 // the model is a stable model of the program (solver.Verify), the timetable
 // breaks no hard requirement of the term (timetable.Check), and every
 // request is honoured.
-func (x *Explainer) witness(r checkResult) error {
+func (x *Explainer) witness(r explainCheck) error {
 	if err := solver.Verify(x.p, r.model); err != nil {
 		return fmt.Errorf("internal error: the engine's model fails the verifier: %w", err)
 	}

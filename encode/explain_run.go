@@ -107,7 +107,7 @@ func (x *Explainer) alternatives() int {
 
 // granted fills the answer yes: a verified timetable and, with requests,
 // the cost comparison.
-func (x *Explainer) granted(ctx context.Context, out *Explanation, r checkResult) error {
+func (x *Explainer) granted(ctx context.Context, out *Explanation, r explainCheck) error {
 	out.Status = StatusFeasible
 	if len(x.reqs) > 0 {
 		out.Status = StatusGranted

@@ -155,7 +155,7 @@ func (x *Explainer) placesOne(ctx context.Context, s, want int, on []bool) (out 
 // and every start of s in it is a place. Starts it cannot prove this way
 // are left to full checks. Sections whose rooms are tied (same-room
 // relations, fixed rooms) are left out.
-func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res checkResult, room map[int]string) error {
+func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res explainCheck, room map[int]string) error {
 	m := &x.cat.secs[s]
 	if m.sameRoom >= 0 || len(m.fixedCand) > 0 {
 		return nil

@@ -164,3 +164,42 @@ func FuzzParseRequestsCSV(f *testing.F) {
 }
 
 func csvField(s string) string { return `"` + strings.ReplaceAll(s, `"`, `""`) + `"` }
+
+// FuzzParseAt: a time that reads prints back ("Tue 10:00") and reads the
+// same again.
+func FuzzParseAt(f *testing.F) {
+	for _, s := range []string{"Tue 10:00", "monday 9:30", "Fri 23.59", "x", "Sun 00:00", "Wed 7:5"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, in string) {
+		d, c, err := ParseAt(in)
+		if err != nil {
+			return
+		}
+		r := Request{Day: d, Start: c}
+		d2, c2, err := ParseAt(r.At())
+		if err != nil || d2 != d || c2 != c {
+			t.Fatalf("%q reads as %s, which reads back as %v %v (%v)", in, r.At(), d2, c2, err)
+		}
+	})
+}
+
+// FuzzParseRequestsWorkbook: any bytes give requests or an error, never a
+// panic.
+func FuzzParseRequestsWorkbook(f *testing.F) {
+	wb := excelize.NewFile()
+	_ = wb.SetSheetName("Sheet1", RequestsSheet)
+	_ = wb.SetSheetRow(RequestsSheet, "A1", &[]any{"Section", "At", "Room"})
+	_ = wb.SetSheetRow(RequestsSheet, "A2", &[]any{"BIO-101", "Tue 10:00", "L2"})
+	var buf bytes.Buffer
+	_ = wb.Write(&buf)
+	f.Add(buf.Bytes())
+	f.Add([]byte("PK\x03\x04 not really a workbook"))
+	f.Add([]byte{})
+	f.Fuzz(func(t *testing.T, data []byte) {
+		reqs, err := ParseRequestsWorkbook(bytes.NewReader(data))
+		if err == nil && len(reqs) == 0 {
+			t.Fatal("no error and no requests")
+		}
+	})
+}
