@@ -75,14 +75,14 @@ func TestExplainDemoPlanted(t *testing.T) {
 	if ex.Status != StatusInfeasible || ex.Conflict == nil || !ex.Conflict.Minimal {
 		t.Fatalf("status %s, conflict %+v", ex.Status, ex.Conflict)
 	}
-	got := sectionIDs(ex.Conflict)
+	got := conflictSectionIDs(ex.Conflict)
 	slices.Sort(got)
 	want := []string{a, b}
 	slices.Sort(want)
 	if !slices.Equal(got, want) {
 		t.Fatalf("sections involved %v, want %v", got, want)
 	}
-	if k := kindsOf(ex.Conflict.Reasons); !slices.Equal(k, []string{KindCohortNoOverlap, KindRelation}) {
+	if k := reasonKinds(ex.Conflict.Reasons); !slices.Equal(k, []string{KindCohortNoOverlap, KindRelation}) {
 		t.Fatalf("reasons %v, want a cohort's no-overlap and the relation", k)
 	}
 }

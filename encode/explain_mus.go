@@ -108,7 +108,7 @@ func (x *Explainer) deletionOrder(groups []int) []int {
 		case roleRequest:
 			return 2000
 		}
-		return -specificity(x.cat.Groups[g].Kind)
+		return -reasonSpecificity(x.cat.Groups[g].Kind)
 	}
 	sort.SliceStable(out, func(i, j int) bool {
 		ri, rj := rank(out[i]), rank(out[j])
@@ -120,10 +120,10 @@ func (x *Explainer) deletionOrder(groups []int) []int {
 	return out
 }
 
-// specificity ranks group kinds from the most specific (a request, one
+// reasonSpecificity ranks group kinds from the most specific (a request, one
 // fixed meeting) to the broadest (every room of a kind): explanations list
 // reasons in this order.
-func specificity(kind string) int {
+func reasonSpecificity(kind string) int {
 	order := []string{
 		KindRequest, KindFixed, KindSectionAvail, KindSectionDays, KindRoomFit, KindRelation,
 		KindStaffAvailability, KindCohortAvailability, KindRoomAvailability,

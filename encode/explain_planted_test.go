@@ -13,8 +13,8 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// kindsOf lists the kinds of the reasons, sorted.
-func kindsOf(rs []Reason) []string {
+// reasonKinds lists the kinds of the reasons, sorted.
+func reasonKinds(rs []Reason) []string {
 	out := make([]string, len(rs))
 	for i, r := range rs {
 		out[i] = r.Kind
@@ -23,7 +23,7 @@ func kindsOf(rs []Reason) []string {
 	return out
 }
 
-func sectionIDs(c *Conflict) []string {
+func conflictSectionIDs(c *Conflict) []string {
 	out := make([]string, len(c.Sections))
 	for i, s := range c.Sections {
 		out[i] = s.ID
@@ -56,13 +56,13 @@ func TestPlantedConflicts(t *testing.T) {
 			require.Equal(t, StatusInfeasible, ex.Status)
 			c := ex.Conflict
 			assert.True(t, c.Minimal)
-			assert.Equal(t, want, sectionIDs(c))
+			assert.Equal(t, want, conflictSectionIDs(c))
 			wantKinds := []string{KindCohortNoOverlap}
 			for range k + 1 {
 				wantKinds = append(wantKinds, KindSectionAvail)
 			}
 			slices.Sort(wantKinds)
-			assert.Equal(t, wantKinds, kindsOf(c.Reasons))
+			assert.Equal(t, wantKinds, reasonKinds(c.Reasons))
 			var rows []string
 			for _, r := range c.Reasons {
 				if r.Kind == KindSectionAvail {
@@ -72,7 +72,7 @@ func TestPlantedConflicts(t *testing.T) {
 			assert.Len(t, rows, 2*(k+1), "every Unavailable row of the blamed sections")
 			// Relaxing: the cheapest fix drops one section's availability.
 			require.NotEmpty(t, ex.Corrections)
-			assert.Equal(t, []string{KindSectionAvail}, kindsOf(ex.Corrections[0].Relax))
+			assert.Equal(t, []string{KindSectionAvail}, reasonKinds(ex.Corrections[0].Relax))
 		})
 	}
 	for _, k := range []int{1, 2, 3} {
@@ -95,14 +95,14 @@ func TestPlantedConflicts(t *testing.T) {
 			require.Equal(t, StatusInfeasible, ex.Status)
 			c := ex.Conflict
 			assert.True(t, c.Minimal)
-			assert.Equal(t, want, sectionIDs(c))
+			assert.Equal(t, want, conflictSectionIDs(c))
 			var wantKinds []string
 			for range k + 1 {
 				wantKinds = append(wantKinds, KindFixed)
 			}
 			wantKinds = append(wantKinds, KindRoomSupply)
 			slices.Sort(wantKinds)
-			assert.Equal(t, wantKinds, kindsOf(c.Reasons))
+			assert.Equal(t, wantKinds, reasonKinds(c.Reasons))
 			for _, r := range c.Reasons {
 				if r.Kind == KindRoomSupply {
 					assert.Len(t, r.Sources, k, "the lab rows")
@@ -122,7 +122,7 @@ func TestPlantedConflicts(t *testing.T) {
 		require.Equal(t, StatusInfeasible, ex.Status)
 		c := ex.Conflict
 		assert.True(t, c.Minimal)
-		assert.Equal(t, []string{"A"}, sectionIDs(c))
+		assert.Equal(t, []string{"A"}, conflictSectionIDs(c))
 		require.Len(t, c.Reasons, 2)
 		assert.Equal(t, KindFixed, c.Reasons[0].Kind, "most specific first")
 		assert.Equal(t, KindStaffAvailability, c.Reasons[1].Kind)
@@ -131,8 +131,8 @@ func TestPlantedConflicts(t *testing.T) {
 		// Two ways out, the cheaper first: move the fixed meeting (40)
 		// or lift the unavailability (50).
 		require.Len(t, ex.Corrections, 2)
-		assert.Equal(t, []string{KindFixed}, kindsOf(ex.Corrections[0].Relax))
-		assert.Equal(t, []string{KindStaffAvailability}, kindsOf(ex.Corrections[1].Relax))
+		assert.Equal(t, []string{KindFixed}, reasonKinds(ex.Corrections[0].Relax))
+		assert.Equal(t, []string{KindStaffAvailability}, reasonKinds(ex.Corrections[1].Relax))
 		assert.True(t, ex.CorrectionsComplete)
 	})
 	t.Run("feasible", func(t *testing.T) {
@@ -165,12 +165,12 @@ func TestConflictingRequests(t *testing.T) {
 		assert.True(t, r.GrantedAlone, "request %d alone", r.Number)
 		assert.Empty(t, r.Places, "no places for a request that works alone")
 	}
-	assert.Equal(t, []string{KindRequest, KindRequest, KindStaffNoOverlap}, kindsOf(ex.Conflict.Reasons))
+	assert.Equal(t, []string{KindRequest, KindRequest, KindStaffNoOverlap}, reasonKinds(ex.Conflict.Reasons))
 	assert.Equal(t, 1, ex.Conflict.Reasons[0].Request)
 	assert.Equal(t, []string{"Requests row 2"}, ex.Conflict.Reasons[0].Sources)
-	assert.Equal(t, []string{"A", "B"}, sectionIDs(ex.Conflict))
+	assert.Equal(t, []string{"A", "B"}, conflictSectionIDs(ex.Conflict))
 	require.Len(t, ex.Corrections, 1)
-	assert.Equal(t, []string{KindStaffNoOverlap}, kindsOf(ex.Corrections[0].Relax))
+	assert.Equal(t, []string{KindStaffNoOverlap}, reasonKinds(ex.Corrections[0].Relax))
 	assert.True(t, ex.CorrectionsComplete)
 }
 
@@ -183,7 +183,7 @@ func TestRequestAgainstItsOwnSection(t *testing.T) {
 	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
 	require.Equal(t, StatusRefused, ex.Status)
-	assert.Equal(t, []string{KindRequest, KindRequest}, kindsOf(ex.Conflict.Reasons))
+	assert.Equal(t, []string{KindRequest, KindRequest}, reasonKinds(ex.Conflict.Reasons))
 	assert.Empty(t, ex.Corrections)
 	assert.True(t, ex.CorrectionsComplete, "no relaxation exists, and that is certain")
 
@@ -202,7 +202,7 @@ func TestSectionThatCannotFit(t *testing.T) {
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
 	require.Equal(t, StatusInfeasible, ex.Status)
-	assert.Equal(t, []string{"LONG"}, sectionIDs(ex.Conflict))
+	assert.Equal(t, []string{"LONG"}, conflictSectionIDs(ex.Conflict))
 	require.Len(t, ex.Conflict.Reasons, 1)
 	assert.Equal(t, KindSection, ex.Conflict.Reasons[0].Kind)
 	assert.Contains(t, ex.Conflict.Reasons[0].Sentence, "no run of consecutive periods")

@@ -215,7 +215,7 @@ func (x *Explainer) reasons(groups []int) []Reason {
 	gs := slices.Clone(groups)
 	sort.SliceStable(gs, func(i, j int) bool {
 		a, b := &x.cat.Groups[gs[i]], &x.cat.Groups[gs[j]]
-		if sa, sb := specificity(a.Kind), specificity(b.Kind); sa != sb {
+		if sa, sb := reasonSpecificity(a.Kind), reasonSpecificity(b.Kind); sa != sb {
 			return sa > sb
 		}
 		if len(a.Src) != len(b.Src) {
@@ -331,15 +331,15 @@ func (x *Explainer) witness(r explainCheck) error {
 		return fmt.Errorf("%w: %s", ErrCheckFailed, strings.Join(msgs, "; "))
 	}
 	for _, req := range x.reqs {
-		if !honours(x.term, r.sched, req) {
+		if !grantsRequest(x.term, r.sched, req) {
 			return fmt.Errorf("internal error: the timetable found does not grant the request %s", req)
 		}
 	}
 	return nil
 }
 
-// honours reports whether schedule s has a meeting as request r asks.
-func honours(t *timetable.Term, s *timetable.Schedule, r Request) bool {
+// grantsRequest reports whether schedule s has a meeting as request r asks.
+func grantsRequest(t *timetable.Term, s *timetable.Schedule, r Request) bool {
 	p := t.PeriodAt(r.Day, r.Start)
 	for _, pl := range s.Placements {
 		if pl.Section == r.Section && pl.Period == p && (r.Room == "" || pl.Room == r.Room) {

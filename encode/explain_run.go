@@ -53,7 +53,7 @@ func (x *Explainer) Run(ctx context.Context) (*Explanation, error) {
 	if len(x.reqs) > 0 {
 		out.Status = StatusRefused
 	}
-	sctx, cancel := share(ctx, 0.5)
+	sctx, cancel := explainShare(ctx, 0.5)
 	mus, minimal, err := x.shrink(sctx, r.core)
 	cancel()
 	if err != nil {
@@ -66,7 +66,7 @@ func (x *Explainer) Run(ctx context.Context) (*Explanation, error) {
 		}
 	}
 	if k := x.alternatives(); k > 0 {
-		cctx, cancel := share(ctx, 0.5)
+		cctx, cancel := explainShare(ctx, 0.5)
 		found, done, err := x.corrections(cctx, [][]int{mus, r.core}, k)
 		cancel()
 		if err != nil {
@@ -142,13 +142,13 @@ const (
 // and keeps the optimised timetable that grants the requests.
 func (x *Explainer) compareOptimised(ctx context.Context, out *Explanation) error {
 	opt := OptimizeOptions{Seed: x.opt.Seed, GlobalConflicts: costGlobalConflicts, MaxStall: costMaxStall}
-	wctx, cancel := share(ctx, 0.25)
+	wctx, cancel := explainShare(ctx, 0.25)
 	with, err := Optimize(wctx, requestsFixed(x.term, x.reqs), opt)
 	cancel()
 	if err != nil {
 		return err
 	}
-	octx, cancel := share(ctx, 0.33)
+	octx, cancel := explainShare(ctx, 0.33)
 	without, err := Optimize(octx, x.term, opt)
 	cancel()
 	if err != nil {
@@ -161,7 +161,7 @@ func (x *Explainer) compareOptimised(ctx context.Context, out *Explanation) erro
 		return fmt.Errorf("%w: %s", ErrCheckFailed, hard[0].Msg)
 	}
 	for _, req := range x.reqs {
-		if !honours(x.term, with.Schedule, req) {
+		if !grantsRequest(x.term, with.Schedule, req) {
 			return fmt.Errorf("internal error: the optimised timetable does not grant the request %s", req)
 		}
 	}
@@ -223,9 +223,9 @@ func (x *Explainer) answerRequests(ctx context.Context, out *Explanation) error 
 	return nil
 }
 
-// share returns a context whose deadline leaves the given share of the
+// explainShare returns a context whose deadline leaves the given share of the
 // time ctx has left (ctx itself when it has no deadline).
-func share(ctx context.Context, frac float64) (context.Context, context.CancelFunc) {
+func explainShare(ctx context.Context, frac float64) (context.Context, context.CancelFunc) {
 	dl, ok := ctx.Deadline()
 	if !ok {
 		return context.WithCancel(ctx)

@@ -43,15 +43,15 @@ func ParseAt(s string) (time.Weekday, timetable.Clock, error) {
 	if !ok {
 		return 0, 0, fmt.Errorf("%q does not start with a day name: write it like \"Tue 10:00\"", s)
 	}
-	c, ok := parseClock(f[1])
+	c, ok := parseRequestClock(f[1])
 	if !ok {
 		return 0, 0, fmt.Errorf("%q has no valid 24-hour time: write it like \"Tue 10:00\"", s)
 	}
 	return day, c, nil
 }
 
-// parseClock reads "10:00", "9:30" or "10.00" (24-hour).
-func parseClock(s string) (timetable.Clock, bool) {
+// parseRequestClock reads "10:00", "9:30" or "10.00" (24-hour).
+func parseRequestClock(s string) (timetable.Clock, bool) {
 	i := strings.IndexAny(s, ":.")
 	if i < 1 || i > 2 || len(s)-i-1 != 2 {
 		return 0, false

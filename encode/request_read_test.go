@@ -145,7 +145,7 @@ func FuzzParseRequestsCSV(f *testing.F) {
 			if r.Section == "" {
 				t.Fatal("request without a section")
 			}
-			b.WriteString(csvField(r.Section) + "," + r.At() + "," + csvField(r.Room) + "\n")
+			b.WriteString(requestCSVField(r.Section) + "," + r.At() + "," + requestCSVField(r.Room) + "\n")
 		}
 		again, err := ParseRequestsCSV(strings.NewReader(b.String()), "Requests")
 		if err != nil {
@@ -163,7 +163,7 @@ func FuzzParseRequestsCSV(f *testing.F) {
 	})
 }
 
-func csvField(s string) string { return `"` + strings.ReplaceAll(s, `"`, `""`) + `"` }
+func requestCSVField(s string) string { return `"` + strings.ReplaceAll(s, `"`, `""`) + `"` }
 
 // FuzzParseAt: a time that reads prints back ("Tue 10:00") and reads the
 // same again.
