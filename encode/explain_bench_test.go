@@ -166,3 +166,66 @@ func BenchmarkMinHittingSet(b *testing.B) {
 		}
 	}
 }
+
+// plantOverload leaves the cohort with the most weekly periods one period
+// short: hard Unavailable rows cover every period but load-1 of them (a
+// pigeonhole among all its sections, which the term check's counting also
+// reports). It returns the cohort ID and its load.
+func plantOverload(tb testing.TB, t *timetable.Term) (string, int) {
+	tb.Helper()
+	load := map[string]int{}
+	for _, s := range t.Sections {
+		for _, c := range s.Cohorts {
+			load[c] += s.Meetings * s.Length
+		}
+	}
+	best := ""
+	for _, c := range t.Cohorts {
+		if best == "" || load[c.ID] > load[best] {
+			best = c.ID
+		}
+	}
+	// Keep the first load-1 periods of the grid in day order free, spread
+	// over the days so that sections meeting on different days still fit.
+	days := t.Days()
+	keep := map[int]bool{}
+	for k := 0; len(keep) < load[best]-1 && k < len(t.Periods); k++ {
+		for _, d := range days {
+			n := 0
+			for p, per := range t.Periods {
+				if per.Day != d {
+					continue
+				}
+				if n == k && len(keep) < load[best]-1 {
+					keep[p] = true
+				}
+				n++
+			}
+		}
+	}
+	for p, per := range t.Periods {
+		if !keep[p] {
+			t.Unavailable = append(t.Unavailable, timetable.Unavailability{Who: best, Kind: timetable.WhoCohort, Day: per.Day,
+				From: per.Start, To: per.End, Hard: true, Src: timetable.Source{Sheet: "Unavailable", Row: 1000 + p}})
+		}
+	}
+	return best, load[best]
+}
+
+// BenchmarkExplainDemoOverload: whole-term explanation of the demo with a
+// cohort one period short of its weekly load: a conflict among many
+// sections, so the engine's first core and the shrinking have real work.
+func BenchmarkExplainDemoOverload(b *testing.B) {
+	term := samples.Demo()
+	plantOverload(b, term)
+	b.ReportAllocs()
+	var ex *Explanation
+	for b.Loop() {
+		var err error
+		ex, err = Explain(context.Background(), term, nil, ExplainOptions{Seed: 1})
+		if err != nil || ex.Status != StatusInfeasible {
+			b.Fatal(err, ex.Status)
+		}
+	}
+	reportCore(b, ex)
+}

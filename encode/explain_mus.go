@@ -26,9 +26,15 @@ const maxTrimRounds = 3
 // hold; when minimal is true, switching off any one member of it gives a
 // satisfiable check.
 func (x *Explainer) shrink(ctx context.Context, core []int) (mus []int, minimal bool, err error) {
+	return x.shrinkFrom(ctx, core, true)
+}
+
+// shrinkFrom is shrink; trim false skips re-solving the set on itself (for
+// a set proved unsatisfiable otherwise, whose proof by search may be long).
+func (x *Explainer) shrinkFrom(ctx context.Context, core []int, trim bool) (mus []int, minimal bool, err error) {
 	minimal = true
 	set := x.deletionOrder(core)
-	for round := 0; round < maxTrimRounds; round++ {
+	for round := 0; trim && round < maxTrimRounds; round++ {
 		r, err := x.check(ctx, x.onlyOn(set), nil)
 		if err != nil {
 			return nil, false, err

@@ -244,3 +244,30 @@ func TestTinyBudget(t *testing.T) {
 	require.NoError(t, err)
 	assert.Equal(t, StatusUnknown, ex.Status, "a cancelled run decides nothing")
 }
+
+// TestCountedOverload: a teacher with six one-period sections and five
+// free periods is a pigeonhole (Dirichlet's box principle) proved by
+// counting, without a search for the proof; any five of the sections
+// would fit, so the conflict names exactly six sections, the teacher's
+// no-overlap and availability.
+func TestCountedOverload(t *testing.T) {
+	b := newXTerm(2, 4)
+	for i := 0; i < 6; i++ {
+		b.room(fmt.Sprintf("R%d", i), 30)
+	}
+	for i := 0; i < 6; i++ {
+		b.sec(fmt.Sprintf("S%d", i), xStaff("T"), xCohort(fmt.Sprintf("C%d", i)))
+	}
+	b.sec("OTHER", xStaff("U"), xCohort("C0"))
+	b.unavail(timetable.WhoStaff, "T", time.Tuesday, 9, 12)
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusInfeasible, ex.Status)
+	c := ex.Conflict
+	assert.True(t, c.Counted)
+	assert.True(t, c.Minimal)
+	assert.Equal(t, []string{"S0", "S1", "S2", "S3", "S4", "S5"}, conflictSectionIDs(c))
+	assert.Equal(t, []string{KindStaffAvailability, KindStaffNoOverlap}, reasonKinds(c.Reasons))
+	require.NotEmpty(t, ex.Corrections)
+	assert.Equal(t, []string{KindStaffAvailability}, reasonKinds(ex.Corrections[0].Relax))
+}

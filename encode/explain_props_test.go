@@ -142,7 +142,7 @@ func TestExplainProperties(t *testing.T) {
 		n = 40
 	}
 	rng := xRand(6)
-	infeasible := 0
+	infeasible, counted := 0, 0
 	var bruteTime time.Duration
 	for i := 0; i < n; i++ {
 		term := randomTinyXTerm(rng)
@@ -167,6 +167,19 @@ func TestExplainProperties(t *testing.T) {
 				return
 			}
 			infeasible++
+			if cc := x.countingConflict(); cc != nil {
+				// A conflict proved by counting holds up to the engine
+				// and shrinks to a minimal one without a search for it.
+				counted++
+				if st := x.statusOf(t, x.onlyOn(cc)); st != solver.Unsatisfiable {
+					t.Fatalf("counting conflict %v: %v, want unsatisfiable", x.names(cc), st)
+				}
+				mus, minimal, err := x.shrinkFrom(ctx, cc, false)
+				if err != nil || !minimal {
+					t.Fatalf("shrinking a counting conflict: minimal %v, %v", minimal, err)
+				}
+				assertMinimalConflict(t, x, mus)
+			}
 			mus, minimal, err := x.shrink(ctx, r.core)
 			if err != nil {
 				t.Fatal(err)
@@ -192,7 +205,7 @@ func TestExplainProperties(t *testing.T) {
 			}
 		})
 	}
-	t.Logf("%d of %d terms infeasible; brute force %v", infeasible, n, bruteTime)
+	t.Logf("%d of %d terms infeasible (%d proved by counting); brute force %v", infeasible, n, counted, bruteTime)
 	if infeasible < n/5 {
 		t.Fatalf("only %d of %d random terms were infeasible: the generator no longer tests explanations", infeasible, n)
 	}

@@ -5,6 +5,7 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"time"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
@@ -70,6 +71,10 @@ type Conflict struct {
 	CoreGroups   int  `json:"core_groups"`
 	CoreSections int  `json:"core_sections"`
 	Minimal      bool `json:"minimal"` // false when a shrinking check ran out of budget
+	// Counted is set when the conflict was proved by counting (a load
+	// above the periods left), not by search; the core sizes are then
+	// those of the counting argument.
+	Counted bool `json:"counted,omitempty"`
 }
 
 // SectionRef names a section and its row.
@@ -164,28 +169,48 @@ func (x *Explainer) reason(g int) Reason {
 	return r
 }
 
-// unavailableTimes lists the hard Unavailable rows among src as times:
-// "Mon 08:00-12:00, Fri all day". The rows' reasons are left out: they may
-// be personal.
+// unavailableTimes lists the hard Unavailable rows among src as times,
+// touching or overlapping rows of a day merged: "Mon 08:00-12:00, Fri all
+// day". The rows' reasons are left out: they may be personal.
 func (x *Explainer) unavailableTimes(src []timetable.Source) string {
-	var parts []string
+	type span struct {
+		day      time.Weekday
+		from, to timetable.Clock
+	}
+	var spans []span
 	for _, u := range x.work.Unavailable {
-		if !u.Hard || u.Src.Sheet == "" || !slices.Contains(src, u.Src) {
+		if u.Hard && u.Src.Sheet != "" && slices.Contains(src, u.Src) {
+			spans = append(spans, span{u.Day, u.From, u.To})
+		}
+	}
+	sort.Slice(spans, func(i, j int) bool {
+		a, b := spans[i], spans[j]
+		if a.day != b.day {
+			return timetable.WeekOrder(a.day) < timetable.WeekOrder(b.day)
+		}
+		return a.from < b.from
+	})
+	var merged []span
+	for _, sp := range spans {
+		if n := len(merged); n > 0 && merged[n-1].day == sp.day && sp.from <= merged[n-1].to {
+			merged[n-1].to = max(merged[n-1].to, sp.to)
 			continue
 		}
+		merged = append(merged, sp)
+	}
+	var parts []string
+	for _, sp := range merged {
 		first, last := timetable.Clock(24*60), timetable.Clock(0)
 		for _, p := range x.work.Periods {
-			if p.Day == u.Day {
+			if p.Day == sp.day {
 				first, last = min(first, p.Start), max(last, p.End)
 			}
 		}
-		text := timetable.DayName(u.Day) + " " + u.From.String() + "-" + u.To.String()
-		if u.From <= first && u.To >= last {
-			text = timetable.DayName(u.Day) + " all day"
+		text := timetable.DayName(sp.day) + " " + sp.from.String() + "-" + sp.to.String()
+		if sp.from <= first && sp.to >= last {
+			text = timetable.DayName(sp.day) + " all day"
 		}
-		if !slices.Contains(parts, text) {
-			parts = append(parts, text)
-		}
+		parts = append(parts, text)
 	}
 	return strings.Join(parts, ", ")
 }

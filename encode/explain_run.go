@@ -38,36 +38,48 @@ func Explain(ctx context.Context, t *timetable.Term, reqs []Request, opt Explain
 func (x *Explainer) Run(ctx context.Context) (*Explanation, error) {
 	out := &Explanation{Term: x.term.Name, Requests: x.requestResults(), Corrections: []Correction{}}
 	defer func() { out.Stats = x.Stats() }()
-	r, err := x.check(ctx, x.allOn(), nil)
-	if err != nil {
-		return nil, err
-	}
-	switch r.status {
-	case solver.Unknown:
-		out.Status = StatusUnknown
-		return out, nil
-	case solver.Satisfiable:
-		return out, x.granted(ctx, out, r)
+	// A load that exceeds what someone has left is a proof by counting:
+	// start from it instead of searching (pigeonhole conflicts are hard
+	// for the engine).
+	core := x.countingConflict()
+	counted := core != nil
+	if !counted {
+		r, err := x.check(ctx, x.allOn(), nil)
+		if err != nil {
+			return nil, err
+		}
+		switch r.status {
+		case solver.Unknown:
+			out.Status = StatusUnknown
+			return out, nil
+		case solver.Satisfiable:
+			return out, x.granted(ctx, out, r)
+		}
+		core = r.core
 	}
 	out.Status = StatusInfeasible
 	if len(x.reqs) > 0 {
 		out.Status = StatusRefused
 	}
 	sctx, cancel := explainShare(ctx, 0.5)
-	mus, minimal, err := x.shrink(sctx, r.core)
+	mus, minimal, err := x.shrinkFrom(sctx, core, !counted)
 	cancel()
 	if err != nil {
 		return nil, err
 	}
-	out.Conflict = x.conflict(mus, r.core, minimal)
-	if len(x.reqs) > 0 {
+	out.Conflict = x.conflict(mus, core, minimal)
+	out.Conflict.Counted = counted
+	switch {
+	case counted && len(x.reqs) > 0:
+		out.TermInfeasible = true
+	case len(x.reqs) > 0:
 		if err := x.answerRequests(ctx, out); err != nil {
 			return nil, err
 		}
 	}
 	if k := x.alternatives(); k > 0 {
 		cctx, cancel := explainShare(ctx, 0.5)
-		found, done, err := x.corrections(cctx, [][]int{mus, r.core}, k)
+		found, done, err := x.corrections(cctx, [][]int{mus, core}, k)
 		cancel()
 		if err != nil {
 			return nil, err
