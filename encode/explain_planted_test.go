@@ -238,11 +238,22 @@ func TestTinyBudget(t *testing.T) {
 	default:
 		t.Fatalf("status %s: the term has no timetable", ex.Status)
 	}
+	// Cancelled before it starts: the counting proof needs no search, but
+	// nothing confirms that the set is minimal.
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
 	ex, err = Explain(ctx, b.t, nil, ExplainOptions{Seed: 1})
 	require.NoError(t, err)
-	assert.Equal(t, StatusUnknown, ex.Status, "a cancelled run decides nothing")
+	require.Equal(t, StatusInfeasible, ex.Status)
+	assert.True(t, ex.Conflict.Counted)
+	assert.False(t, ex.Conflict.Minimal)
+	// Without a counting proof a cancelled run decides nothing.
+	other := newXTerm(2, 3).room("R1", 30).
+		sec("A", xStaff("T"), xFixed(time.Tuesday, 10, "")).
+		unavail(timetable.WhoStaff, "T", time.Tuesday, 10, 11)
+	ex, err = Explain(ctx, other.t, nil, ExplainOptions{Seed: 1})
+	require.NoError(t, err)
+	assert.Equal(t, StatusUnknown, ex.Status)
 }
 
 // TestCountedOverload: a teacher with six one-period sections and five

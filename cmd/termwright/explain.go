@@ -355,7 +355,10 @@ func explainText(w io.Writer, rep explainReport, o *explainOptions) {
 	if rep.Caution != "" {
 		fmt.Fprintln(w, "\nCaution: "+rep.Caution)
 	}
-	if c := ex.Conflict; c != nil {
+	if c := ex.Conflict; c != nil && c.Counted {
+		fmt.Fprintf(w, "\n(Proved by counting, not by search: %s and %s; %s.)\n",
+			checkCount(c.CoreGroups, "reason"), checkCount(c.CoreSections, "section"), checkCount(ex.Stats.Checks, "check"))
+	} else if c != nil {
 		fmt.Fprintf(w, "\n(%s and %s in the engine's first core; %s and %s after shrinking; %s.)\n",
 			checkCount(c.CoreGroups, "reason"), checkCount(c.CoreSections, "section"),
 			checkCount(len(c.Reasons), "reason"), checkCount(len(c.Sections), "section"),
