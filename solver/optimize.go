@@ -335,6 +335,9 @@ func (o *optimizer) improve(ctx context.Context, i int) Status {
 			s.sums[k].bound = bound // tightening keeps learned clauses valid
 			s.sumPropagate(uint32(k))
 		}
+		for _, sf := range o.softs[i] {
+			s.polarity[sf.lit>>1] = sf.lit&1 == 1 // try the free value first
+		}
 		switch o.solve(ctx, []Lit{act}) {
 		case Unsatisfiable:
 			o.lower[i] = o.best[i]
