@@ -129,3 +129,22 @@ func BenchmarkHamiltonianPlanted200(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkOptimizeTimetableLike proves the optimum of a synthetic weekly
+// timetable (300 sections, 20 periods, 120 resources) with disliked periods
+// on two priority levels, with the default strategy (core-guided lower
+// bounds, then model-improving search).
+func BenchmarkOptimizeTimetableLike(b *testing.B) {
+	p := engTimetableLike(300, 20, 120, 3, true)
+	b.ReportAllocs()
+	for b.Loop() {
+		s, err := New(p, DefaultOptions())
+		if err != nil {
+			b.Fatal(err)
+		}
+		st, _, err := s.Optimize(context.Background(), nil)
+		if err != nil || st != Satisfiable || !s.Proven() {
+			b.Fatal("the optimum must be proven", st, err)
+		}
+	}
+}

@@ -277,7 +277,8 @@ func engRandomProgram(r *rand.Rand, n int) *Program {
 // rule with bounds; each uses two of resources resources (an instructor and
 // a cohort), and each resource has at most one section per period; busy
 // atoms "busy(r,p) :- start(s,p)" for the sections of r carry the
-// cardinality. With weak constraints for disliked periods when weak is set.
+// cardinality. When weak is set, three quarters of the start atoms carry a
+// weak constraint of weight 1..4 at level 0 or 1 (disliked periods).
 func engTimetableLike(sections, periods, resources int, seed uint64, weak bool) *Program {
 	r := rand.New(rand.NewPCG(seed, 5))
 	p := NewProgram()
@@ -294,11 +295,6 @@ func engTimetableLike(sections, periods, resources int, seed uint64, weak bool) 
 		if b != a {
 			uses[b] = append(uses[b], s)
 		}
-		if weak {
-			for k := 0; k < 3; k++ {
-				p.AddWeak(int64(1+r.IntN(3)), 0, Pos(start[s][r.IntN(periods)]))
-			}
-		}
 	}
 	for res, ss := range uses {
 		if len(ss) < 2 {
@@ -312,6 +308,15 @@ func engTimetableLike(sections, periods, resources int, seed uint64, weak bool) 
 				lits[i] = Pos(b)
 			}
 			p.AddBound(lits, NoBound, 1)
+		}
+	}
+	if weak {
+		for _, row := range start {
+			for _, a := range row {
+				if r.IntN(4) != 0 {
+					p.AddWeak(int64(1+r.IntN(4)), r.IntN(2), Pos(a))
+				}
+			}
 		}
 	}
 	return p

@@ -238,3 +238,25 @@ func TestOptimizeStrategiesAgree(t *testing.T) {
 		require.Equal(t, results[0], results[2], "instance %d", i)
 	}
 }
+
+// TestOptimizeTimetableLike: both strategies prove the same optimum on small
+// synthetic timetables; the best model verifies and its cost is Cost's.
+func TestOptimizeTimetableLike(t *testing.T) {
+	for seed := uint64(1); seed <= 6; seed++ {
+		p := engTimetableLike(60, 8, 25, seed, true)
+		var costs [][]int64
+		for _, budget := range []int64{-1, 0} {
+			s, err := New(p, Options{CoreBudget: budget})
+			require.NoError(t, err)
+			st, cost, err := s.Optimize(context.Background(), nil)
+			require.NoError(t, err)
+			require.Equal(t, Satisfiable, st)
+			require.True(t, s.Proven())
+			m := s.Model(nil)
+			require.NoError(t, Verify(p, m))
+			require.Equal(t, Cost(p, m), cost)
+			costs = append(costs, cost)
+		}
+		require.Equal(t, costs[0], costs[1], "seed %d", seed)
+	}
+}
