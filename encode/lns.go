@@ -55,7 +55,7 @@ func (o *optRun) lns() error {
 	stall := 0
 	for stall < o.opt.MaxStall {
 		if o.ctx.Err() != nil {
-			o.res.Stopped = "time limit or interrupted"
+			o.res.Stopped = o.ctxStopped()
 			return nil
 		}
 		if o.opt.MaxSteps > 0 && o.res.Steps >= o.opt.MaxSteps {

@@ -78,7 +78,7 @@ type OptimizeResult struct {
 	Moves      []Move     // with Keep: meetings whose start or room changed, and new or dropped meetings
 	History    []Progress // one entry per improvement
 	Steps      int        // neighbourhood steps run
-	Stopped    string     // why the search ended: "optimal", "time limit or interrupted", "conflict budget", "no improvement"
+	Stopped    string     // why the search ended: "optimal", "time limit", "interrupted", "conflict budget", "step limit", "no improvement"
 }
 
 // Optimize compiles the term with its soft criteria and searches for the
@@ -302,7 +302,7 @@ func (o *optRun) roomProblems() error {
 func (o *optRun) global(budget int64) error {
 	for round := 0; o.best == nil; round++ {
 		if o.ctx.Err() != nil || round == 1000 {
-			o.res.Stopped = "time limit or interrupted"
+			o.res.Stopped = o.ctxStopped()
 			return nil
 		}
 		o.firstOnly = true
@@ -326,7 +326,7 @@ func (o *optRun) global(budget int64) error {
 	o.note(true)
 	for round := 0; round < 1000; round++ {
 		if o.ctx.Err() != nil {
-			o.res.Stopped = "time limit or interrupted"
+			o.res.Stopped = o.ctxStopped()
 			return nil
 		}
 		spent := o.res.Engine.Conflicts
@@ -339,7 +339,7 @@ func (o *optRun) global(budget int64) error {
 				budget = max(budget-(o.res.Engine.Conflicts-spent), 1)
 				continue // room problems were added: search again
 			}
-			o.res.Stopped = "time limit or interrupted"
+			o.res.Stopped = o.ctxStopped()
 			return nil
 		}
 		if st == solver.Satisfiable {
@@ -413,6 +413,15 @@ func (o *optRun) finish() *OptimizeResult {
 		res.Moves = Moves(o.t, o.opt.Keep, res.Schedule)
 	}
 	return res
+}
+
+// ctxStopped names why ctx ended: "time limit" for a deadline, else
+// "interrupted".
+func (o *optRun) ctxStopped() string {
+	if errors.Is(o.ctx.Err(), context.DeadlineExceeded) {
+		return "time limit"
+	}
+	return "interrupted"
 }
 
 func diffStats(a, b solver.Stats) solver.Stats {

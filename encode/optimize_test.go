@@ -195,7 +195,7 @@ func TestOptimizeCancelled(t *testing.T) {
 	require.NoError(t, err)
 	require.NotNil(t, got)
 	checkOptimized(t, term, nil, res)
-	assert.Equal(t, "time limit or interrupted", res.Stopped)
+	assert.Equal(t, "interrupted", res.Stopped)
 
 	done, stop := context.WithCancel(context.Background())
 	stop()
