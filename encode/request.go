@@ -67,6 +67,7 @@ func parseRequestClock(s string) (timetable.Clock, bool) {
 // RequestError lists requests that name something the term does not have.
 type RequestError []InputError
 
+// Error lists the problems, one per line, each with its row.
 func (e RequestError) Error() string {
 	lines := make([]string, len(e))
 	for i, x := range e {
