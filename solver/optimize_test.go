@@ -242,14 +242,19 @@ func TestOptimizeStrategiesAgree(t *testing.T) {
 // TestOptimizeTimetableLike: both strategies prove the same optimum on small
 // synthetic timetables; the best model verifies and its cost is Cost's.
 func TestOptimizeTimetableLike(t *testing.T) {
+	solved := 0
 	for seed := uint64(1); seed <= 6; seed++ {
-		p := engTimetableLike(60, 8, 25, seed, true)
+		p := engTimetableLike(60, 10, 30, seed, true)
 		var costs [][]int64
 		for _, budget := range []int64{-1, 0} {
 			s, err := New(p, Options{CoreBudget: budget})
 			require.NoError(t, err)
 			st, cost, err := s.Optimize(context.Background(), nil)
 			require.NoError(t, err)
+			if st == Unsatisfiable {
+				costs = append(costs, nil)
+				continue
+			}
 			require.Equal(t, Satisfiable, st)
 			require.True(t, s.Proven())
 			m := s.Model(nil)
@@ -258,5 +263,7 @@ func TestOptimizeTimetableLike(t *testing.T) {
 			costs = append(costs, cost)
 		}
 		require.Equal(t, costs[0], costs[1], "seed %d", seed)
+		solved += len(costs[0])
 	}
+	require.Positive(t, solved)
 }
