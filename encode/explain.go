@@ -70,6 +70,14 @@ const maxCheckRounds = 50
 // request and per section, and runs satisfiability checks under
 // assumptions: which groups hold, which are switched off. It is not safe for
 // concurrent use.
+//
+// Switching a group off removes its constraints, with these exceptions of
+// the aggregated room model (see the package documentation): a fixed
+// meeting's room, a requested room and a same-room relation narrow the
+// rooms a meeting may use even while their group is off, so a set found
+// with one of them switched off can be stricter than the words say.
+// Switching a section off removes it from every constraint (constraints
+// that would need its meetings get its selector, see guardAbsent).
 type Explainer struct {
 	term *timetable.Term // the term as given: timetables are checked against it
 	work *timetable.Term // term with requested rooms added as fixed meetings (== term when none)
