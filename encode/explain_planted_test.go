@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"slices"
+	"strings"
 	"testing"
 	"time"
 
@@ -281,4 +282,29 @@ func TestCountedOverload(t *testing.T) {
 	assert.Equal(t, []string{KindStaffAvailability, KindStaffNoOverlap}, reasonKinds(c.Reasons))
 	require.NotEmpty(t, ex.Corrections)
 	assert.Equal(t, []string{KindStaffAvailability}, reasonKinds(ex.Corrections[0].Relax))
+}
+
+// TestLazyRoomFamily: eleven sections fixed at one time with ten rooms. The
+// ten rooms are lightly loaded over the week, so the compiler leaves their
+// Hall constraint for Decode to find; the explanation adds it when a model
+// overfills them, rebuilds the engine and names it.
+func TestLazyRoomFamily(t *testing.T) {
+	b := newXTerm(2, 4)
+	for i := 0; i < 10; i++ {
+		b.room(fmt.Sprintf("R%02d", i), 30)
+	}
+	for i := 0; i < 11; i++ {
+		b.sec(fmt.Sprintf("S%02d", i), xStaff(fmt.Sprintf("T%d", i)), xFixed(time.Monday, 9, ""))
+	}
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusInfeasible, ex.Status)
+	assert.GreaterOrEqual(t, ex.Stats.Families, 1, "a room family was added")
+	assert.GreaterOrEqual(t, ex.Stats.Rebuilds, 1)
+	c := ex.Conflict
+	assert.True(t, c.Minimal)
+	assert.Len(t, c.Sections, 11)
+	kinds := reasonKinds(c.Reasons)
+	assert.Equal(t, 11, strings.Count(strings.Join(kinds, ","), KindFixed))
+	assert.Contains(t, kinds, KindRoomSupply)
 }
