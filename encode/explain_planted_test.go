@@ -308,3 +308,29 @@ func TestLazyRoomFamily(t *testing.T) {
 	assert.Equal(t, 11, strings.Count(strings.Join(kinds, ","), KindFixed))
 	assert.Contains(t, kinds, KindRoomSupply)
 }
+
+// TestRoomAssignmentConflict: every period on its own has rooms enough,
+// but a two-period meeting would have to change rooms halfway: the room
+// nogood that Decode proves is named as the room assignment requirement.
+func TestRoomAssignmentConflict(t *testing.T) {
+	roomsOnly := func(ids ...string) func(*timetable.Section) {
+		return func(s *timetable.Section) { s.Rooms = ids }
+	}
+	b := newXTerm(1, 3).room("R1", 30).room("R2", 30).
+		sec("A", xStaff("TA"), xMeet(1, 2), xFixed(time.Monday, 9, "")).
+		sec("B", xStaff("TB"), roomsOnly("R1"), xFixed(time.Monday, 9, "")).
+		sec("C", xStaff("TC"), roomsOnly("R2"), xFixed(time.Monday, 10, ""))
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusInfeasible, ex.Status)
+	assert.GreaterOrEqual(t, ex.Stats.Nogoods, 1)
+	c := ex.Conflict
+	assert.True(t, c.Minimal)
+	assert.Equal(t, []string{"A", "B", "C"}, conflictSectionIDs(c))
+	assert.Contains(t, reasonKinds(c.Reasons), KindRoomAssignment)
+	for _, r := range c.Reasons {
+		if r.Kind == KindRoomAssignment {
+			assert.Contains(t, r.Sentence, "sections A, B, C")
+		}
+	}
+}
