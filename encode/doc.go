@@ -86,6 +86,61 @@
 // and every statement of the program to its group (the compile dump prints
 // them as % comments).
 //
+// # Soft criteria (soft*.go, keep.go)
+//
+// The criteria of timetable/criteria.go whose value depends only on times
+// are weak constraints of the program, exactly as defined there, with the
+// weights and levels of Term.CriterionWeight (weight 0 adds nothing):
+// avoid times (soft rows of staff, cohorts and sections), staff gaps and
+// days, cohort gaps and isolated periods, spread days, student clashes,
+// early and late periods, soft relations and, with Options.Keep, the time
+// half of moved meetings. Auxiliary atoms keep them near-linear:
+// occupies(S,P) per section and period, attends(C,P) per cohort and
+// period (busy(T,P) for staff), before/after chains per person and day for
+// gaps, short_of_days(S,K) pinned by two bounds for spread days,
+// starts_upto(S,P,J) counters for the sorted pairing of kept meetings, one
+// broken(relation,R) atom per soft row. Student clashes group students with
+// equal sections and split their sections into blocks that can never meet
+// at once (a shared staff member or cohort in common weeks), so one weak
+// constraint per pair of blocks and period counts the clashing pairs.
+// Explain mode adds none of this.
+//
+// The criteria that depend on concrete rooms — room stability, room over
+// capacity, wasted seats, travel, avoid times on room rows, same-room soft
+// relations and the room half of moved meetings — are not in the program:
+// Decode assigns rooms, then a local search (soft_rooms.go) lowers them by
+// moving a section's meetings into one room, single meetings into free
+// rooms, and a meeting into a room whose holder moves elsewhere, never
+// leaving a meeting's candidate rooms.
+//
+// # The three gates and the reported cost
+//
+// Every timetable Optimize keeps has passed solver.Verify, timetable.Check
+// and a third gate: the engine's weak-constraint cost of the model,
+// criterion by criterion, equals timetable.Cost of the timetable and the
+// kept timetable with every room left blank (TimeCost), which is exactly
+// the part of the objective the program encodes — with rooms blank every
+// room-dependent unit is zero. The cost reported is always timetable.Cost of
+// the written timetable, rooms included. The lower bound is the engine's
+// (core-guided and model-improving, per level); the room part is never
+// negative, so it bounds the whole cost, lexicographically. A timetable is
+// proven optimal only when its whole cost meets that bound.
+//
+// # Optimisation (optimize*.go, lns.go)
+//
+// Optimize finds a first verified timetable, runs solver.Optimize on the
+// whole term within a conflict budget, and then large-neighbourhood search
+// (Shaw 1998) on the same solver: the sections outside a neighbourhood are
+// assumed at their starts in the best timetable, the neighbourhood (the
+// subject of a costly weak constraint, a person with a share of the cost,
+// related sections, a day, random sections) is re-optimised within a
+// conflict budget, and every model the engine finds goes through the gates;
+// the best whole cost wins. The neighbourhood grows after a proven step and
+// shrinks after one that ran out of budget. All budgets count conflicts,
+// so a run that ends by itself (proof, stall or step limit) depends only on
+// the term, the options and the seed; a time limit or Ctrl-C ends it with
+// the best verified timetable so far.
+//
 // # Naming
 //
 // Atoms print as ground terms of the standard rule syntax: start("BIO-101",
@@ -94,7 +149,7 @@
 //
 // # Extending
 //
-// Compile runs a list of parts (compile.go); the optimiser adds parts for
-// weak constraints with registerPart from its own files. Options.Keep is
-// passed through for minimal-change re-planning.
+// Compile runs a list of parts (compile.go); the soft criteria are the last
+// part, registered by soft.go. Options.Keep is the kept timetable of
+// minimal-change re-planning.
 package encode
