@@ -241,9 +241,11 @@ func TestOptimizeStrategiesAgree(t *testing.T) {
 
 // TestOptimizeTimetableLike: both strategies prove the same optimum on small
 // synthetic timetables; the best model verifies and its cost is Cost's.
+// (Seed 1 is left out: a resource with more sections than periods makes it
+// a pigeonhole instance, exponential for resolution, Haken 1985.)
 func TestOptimizeTimetableLike(t *testing.T) {
 	solved := 0
-	for seed := uint64(1); seed <= 6; seed++ {
+	for seed := uint64(2); seed <= 10; seed++ {
 		p := engTimetableLike(60, 10, 30, seed, true)
 		var costs [][]int64
 		for _, budget := range []int64{-1, 0} {
