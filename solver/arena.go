@@ -33,8 +33,6 @@ func (s *Solver) clauseLits(c uint32) []Lit {
 	return s.arena[c+clauseHeader : c+clauseHeader+n]
 }
 
-func (s *Solver) isLearnt(c uint32) bool  { return s.arena[c]&flagLearnt != 0 }
-func (s *Solver) isDeleted(c uint32) bool { return s.arena[c]&flagDeleted != 0 }
 
 // allocClause stores lits (at least two) and returns the offset.
 func (s *Solver) allocClause(lits []Lit, learnt bool, lbd int) uint32 {

@@ -96,18 +96,3 @@ func (h *varHeap) down(i int) {
 	h.heap[i] = v
 	h.index[v] = int32(i)
 }
-
-// rebuild replaces the content by vars, in O(n).
-func (h *varHeap) rebuild(vars []uint32) {
-	for _, v := range h.heap {
-		h.index[v] = -1
-	}
-	h.heap = h.heap[:0]
-	for _, v := range vars {
-		h.index[v] = int32(len(h.heap))
-		h.heap = append(h.heap, v)
-	}
-	for i := len(h.heap)/2 - 1; i >= 0; i-- {
-		h.down(i)
-	}
-}
