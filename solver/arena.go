@@ -33,7 +33,6 @@ func (s *Solver) clauseLits(c uint32) []Lit {
 	return s.arena[c+clauseHeader : c+clauseHeader+n]
 }
 
-
 // allocClause stores lits (at least two) and returns the offset.
 func (s *Solver) allocClause(lits []Lit, learnt bool, lbd int) uint32 {
 	c := uint32(len(s.arena))
