@@ -167,9 +167,8 @@ type optRun struct {
 	conflict *RoomConflictError // room combination without assignment: forbid and search again
 	fatal    error              // a gate failed
 
-	firstOnly bool // stop the engine call at the first verified timetable
-	phase     string
-	lastNote  time.Time
+	phase    string
+	lastNote time.Time
 }
 
 func (o *optRun) run() error {
@@ -300,24 +299,8 @@ func (o *optRun) roomProblems() error {
 // budget conflicts are spent or ctx ends. Room problems found on the way
 // are added to the program and the search resumes.
 func (o *optRun) global(budget int64) error {
-	for round := 0; o.best == nil; round++ {
-		if o.ctx.Err() != nil || round == 1000 {
-			o.res.Stopped = o.ctxStopped()
-			return nil
-		}
-		o.firstOnly = true
-		st, complete, err := o.optimizeCall(nil, 0, -1)
-		o.firstOnly = false
-		if err != nil {
-			return err
-		}
-		if complete && st == solver.Unsatisfiable && o.best == nil {
-			o.res.Status = solver.Unsatisfiable
-			if o.res.Incomplete {
-				o.res.Status = solver.Unknown
-			}
-			return nil
-		}
+	if err := o.first(); err != nil || o.best == nil {
+		return err
 	}
 	if budget < 0 {
 		return nil

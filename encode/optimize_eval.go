@@ -54,9 +54,6 @@ func (o *optRun) onModel(_ []int64, model []solver.Atom) {
 		return
 	}
 	o.accept(c)
-	if o.firstOnly {
-		o.stop()
-	}
 }
 
 // accept makes c the best timetable when its total cost is lower.

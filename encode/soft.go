@@ -17,6 +17,10 @@ type softModel struct {
 	crit []int8     // crit[i]: index into timetable.Criteria of Program.Weaks[i], -1 for weak constraints written by others
 	subj []int32    // subj[i]: whom Program.Weaks[i] is about (see aboutSection), noSubject when unknown
 	keep *keepModel // nil without Options.Keep
+	// The statements the soft criteria added: Program.Rules[rules[0]:rules[1]],
+	// and likewise for choices and bounds (they are contiguous: the soft
+	// criteria are the last part of a compilation).
+	rules, choices, bounds [2]int
 }
 
 // softBuilder writes the weak constraints of the soft criteria. It keeps
@@ -59,6 +63,10 @@ func (b *builder) compileSoft() {
 		sb.m.crit[i], sb.m.subj[i] = -1, noSubject
 	}
 	sb.subject = noSubject
+	sb.m.rules[0], sb.m.choices[0], sb.m.bounds[0] = len(b.p.Rules), len(b.p.Choices), len(b.p.Bounds)
+	defer func() {
+		sb.m.rules[1], sb.m.choices[1], sb.m.bounds[1] = len(b.p.Rules), len(b.p.Choices), len(b.p.Bounds)
+	}()
 	b.in(-1, "soft")
 	sb.keepMeetings()
 	sb.studentClashes()

@@ -300,6 +300,9 @@ func (rs *roomSearch) sectionMove(sec int) bool {
 		old[k] = rs.ms[i].room
 	}
 	before := rs.cost(ms)
+	if zero(before) {
+		return false
+	}
 	bestRoom, best := -1, before
 	for _, r := range rooms {
 		ok := true
@@ -340,46 +343,55 @@ func (rs *roomSearch) meetingMove(i int) bool {
 	if !m.movable {
 		return false
 	}
+	single := []int{i}
+	own := rs.cost(single)
+	if zero(own) {
+		return false // nothing of i's own can get cheaper; others may still move i out of their way
+	}
 	from := m.room
 	type change struct{ r, j, r2 int } // j: the meeting moved out of r into r2, -1 for a plain move
 	var best *change
 	var bestCost []int64
+	consider := func(c change, d []int64) {
+		if slices.Compare(d, make([]int64, len(d))) < 0 && (best == nil || slices.Compare(d, bestCost) < 0) {
+			best, bestCost = &c, d
+		}
+	}
 	for _, r := range m.cands {
 		if r == from {
 			continue
 		}
+		// What i itself gains in r (whoever else is there): without a gain
+		// neither a move nor a chain through i is worth trying, since i and
+		// a meeting it displaces overlap in time and share no section.
+		rs.setRoom(i, r)
+		mine := rs.cost(single)
+		rs.setRoom(i, from)
+		if slices.Compare(mine, own) >= 0 {
+			continue
+		}
 		if rs.free(r, i) {
-			moved := []int{i}
-			before := rs.cost(moved)
-			rs.setRoom(i, r)
-			after := rs.cost(moved)
-			rs.setRoom(i, from)
-			if slices.Compare(after, before) < 0 && (best == nil || slices.Compare(diff(after, before), bestCost) < 0) {
-				best, bestCost = &change{r, -1, -1}, diff(after, before)
-			}
+			consider(change{r, -1, -1}, diff(mine, own))
 			continue
 		}
 		j := rs.blocker(r, i)
-		if j < 0 || !rs.ms[j].movable {
+		if j < 0 || !rs.ms[j].movable || !rs.free(r, i, j) {
 			continue
 		}
 		// Move j out of r (to i's room: a swap, or to any other free
 		// room: an ejection chain of two) and i into r.
-		o := &rs.ms[j]
-		for _, r2 := range o.cands {
-			if r2 == r || !rs.free(r2, j, i) || !rs.free(r, i, j) {
+		pair := []int{i, j}
+		before := rs.cost(pair)
+		for _, r2 := range rs.ms[j].cands {
+			if r2 == r || !rs.free(r2, j, i) {
 				continue
 			}
-			moved := []int{i, j}
-			before := rs.cost(moved)
 			rs.setRoom(j, r2)
 			rs.setRoom(i, r)
-			after := rs.cost(moved)
+			after := rs.cost(pair)
 			rs.setRoom(i, from)
 			rs.setRoom(j, r)
-			if slices.Compare(after, before) < 0 && (best == nil || slices.Compare(diff(after, before), bestCost) < 0) {
-				best, bestCost = &change{r, j, r2}, diff(after, before)
-			}
+			consider(change{r, j, r2}, diff(after, before))
 		}
 	}
 	if best == nil {
@@ -414,6 +426,16 @@ func (rs *roomSearch) blocker(r, i int) int {
 		}
 	}
 	return who
+}
+
+// zero reports whether every entry of v is 0.
+func zero(v []int64) bool {
+	for _, x := range v {
+		if x != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 func diff(a, b []int64) []int64 {
