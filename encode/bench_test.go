@@ -2,6 +2,7 @@ package encode
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"testing"
 
@@ -69,6 +70,61 @@ func BenchmarkSolve(b *testing.B) {
 			b.ReportMetric(res.Timings.Verify.Seconds(), "verify-s")
 			b.ReportMetric(res.Timings.Decode.Seconds(), "decode-s")
 			b.ReportMetric(res.Timings.Check.Seconds(), "check-s")
+		})
+	}
+}
+
+// BenchmarkDecode measures Decode (per-period matching and room
+// assignment) on a model of each generated term.
+func BenchmarkDecode(b *testing.B) {
+	for _, n := range benchSizes {
+		term := benchTerm(n)
+		p, cat, err := Compile(term, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		// A model that decodes: add the room families and room conflicts
+		// Decode reports, as Solve does.
+		var model []solver.Atom
+		for {
+			s, err := solver.New(p, solver.DefaultOptions())
+			if err != nil {
+				b.Fatal(err)
+			}
+			if st := s.Solve(context.Background()); st != solver.Satisfiable {
+				b.Fatalf("status %v", st)
+			}
+			model = s.Model(nil)
+			_, err = Decode(term, cat, model)
+			var herr *HallError
+			var rerr *RoomConflictError
+			switch {
+			case errors.As(err, &herr):
+				for _, set := range herr.sets {
+					cat.extender(p).addFamily(set, true)
+				}
+				continue
+			case errors.As(err, &rerr):
+				for _, ng := range rerr.nogoods {
+					starts := make([]solver.Lit, len(ng))
+					for i, l := range ng {
+						starts[i] = l.Not()
+					}
+					cat.extender(p).rule(0, starts...)
+				}
+				continue
+			case err != nil:
+				b.Fatal(err)
+			}
+			break
+		}
+		b.Run(fmt.Sprintf("sections=%d", n), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Decode(term, cat, model); err != nil {
+					b.Fatal(err)
+				}
+			}
 		})
 	}
 }

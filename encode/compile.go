@@ -19,32 +19,37 @@ type Options struct {
 	// Keep is the previous timetable for minimal-change re-planning; the
 	// parts that use it are added by the optimiser.
 	Keep *timetable.Schedule
+	// HardOnly leaves out the parts added with registerPart (the
+	// optimiser's weak constraints and their helper atoms): the program of
+	// a feasibility search, as Solve uses.
+	HardOnly bool
 }
 
 // part is one stage of a compilation. Parts run in order; later parts may
 // use the atoms earlier parts made (start atoms, room sets).
 type part struct {
-	name string
-	run  func(b *builder)
+	name  string
+	run   func(b *builder)
+	extra bool // added with registerPart; left out by Options.HardOnly
 }
 
 // parts is the compilation pipeline. The optimiser appends parts for weak
 // constraints with registerPart from its own files.
 var parts = []part{
-	{"rooms", (*builder).compileRoomSets},
-	{"starts", (*builder).compileStarts},
-	{"fixed", (*builder).compileFixed},
-	{"section days", (*builder).compileSectionDays},
-	{"availability", (*builder).compileAvailability},
-	{"no-overlap", (*builder).compileNoOverlap},
-	{"staff limits", (*builder).compileStaffLimits},
-	{"relations", (*builder).compileRelations},
-	{"room supply", (*builder).compileRoomSupply},
+	{"rooms", (*builder).compileRoomSets, false},
+	{"starts", (*builder).compileStarts, false},
+	{"fixed", (*builder).compileFixed, false},
+	{"section days", (*builder).compileSectionDays, false},
+	{"availability", (*builder).compileAvailability, false},
+	{"no-overlap", (*builder).compileNoOverlap, false},
+	{"staff limits", (*builder).compileStaffLimits, false},
+	{"relations", (*builder).compileRelations, false},
+	{"room supply", (*builder).compileRoomSupply, false},
 }
 
 // registerPart appends a stage to the compilation pipeline (call from init).
 func registerPart(name string, run func(b *builder)) {
-	parts = append(parts, part{name, run})
+	parts = append(parts, part{name, run, true})
 }
 
 // InputError is one problem of the term that stops compilation.
@@ -87,6 +92,9 @@ func Compile(t *timetable.Term, opt Options) (*solver.Program, *Catalog, error) 
 		return nil, nil, b.compileError()
 	}
 	for _, pt := range parts {
+		if pt.extra && opt.HardOnly {
+			continue
+		}
 		b.in(-1, pt.name)
 		pt.run(b)
 	}

@@ -121,6 +121,16 @@ func (d *decoder) readStarts(model []solver.Atom) error {
 	return nil
 }
 
+// secIndex is the index of the section with the given ID.
+func (d *decoder) secIndex(id string) int {
+	for i := range d.t.Sections {
+		if d.t.Sections[i].ID == id {
+			return i
+		}
+	}
+	return -1
+}
+
 func (d *decoder) setMembers(id int) []int {
 	if m, ok := d.members[id]; ok {
 		return m

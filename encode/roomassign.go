@@ -354,46 +354,155 @@ func (a *roomAssigner) components() [][]int {
 // localHops is how far local repair widens the set of meetings it moves.
 const localHops = 3
 
-// repair first re-solves the failed meetings exactly together with the
-// meetings that block them from their rooms (widening a few times), the
-// rest staying where they are; when that is not enough, it re-solves each
-// whole component that holds a failed meeting, and a component with no
-// assignment yields a nogood over its meetings' starts.
+// repair places the meetings the fast assignment left over. First it
+// re-solves them exactly together with the meetings that block them from
+// their rooms (widening a few times), the rest staying where they are. If
+// that fails, it looks for a proof that the failed meetings cannot be
+// roomed: a growing neighbourhood of them, solved on its own (others
+// ignored); an unsatisfiable one yields its core as a nogood over starts.
+// As a last resort each whole component is solved (only when small enough);
+// when nothing is proved within the effort limits, the nogood over the last
+// neighbourhood is returned marked Incomplete.
 func (a *roomAssigner) repair() error {
 	if a.localRepair() {
 		return nil
 	}
-	var rerr *RoomConflictError
+	rerr := &RoomConflictError{}
+	if core, ok := a.isolatedCore(); ok {
+		a.addNogood(rerr, core)
+		return rerr
+	}
 	for _, comp := range a.components() {
+		if len(comp) > maxComponent {
+			rerr.Incomplete = true
+			a.addNogood(rerr, a.neighbourhood(comp))
+			continue
+		}
 		for _, mi := range comp {
 			a.unplace(mi)
 		}
-		core, proved, ok := a.exact(comp)
+		core, proved, ok := a.exact(comp, componentConflictLimit, false)
 		if ok {
 			continue
-		}
-		if rerr == nil {
-			rerr = &RoomConflictError{}
 		}
 		if !proved {
 			rerr.Incomplete = true
 		}
-		clause := make([]solver.Lit, 0, len(core))
-		seen := map[int]bool{}
-		for _, mi := range core {
-			m := &a.d.ms[mi]
-			clause = append(clause, solver.Neg(m.atom))
-			if !seen[m.sec] {
-				seen[m.sec] = true
-				rerr.Sections = append(rerr.Sections, a.d.t.Sections[m.sec].ID)
-			}
-		}
-		rerr.nogoods = append(rerr.nogoods, clause)
+		a.addNogood(rerr, core)
 	}
-	if rerr != nil {
+	if len(rerr.nogoods) > 0 {
 		return rerr
 	}
 	return nil
+}
+
+// addNogood records that the meetings of core cannot all have their starts.
+func (a *roomAssigner) addNogood(rerr *RoomConflictError, core []int) {
+	clause := make([]solver.Lit, 0, len(core))
+	seen := map[int]bool{}
+	for _, s := range rerr.Sections {
+		seen[a.d.secIndex(s)] = true
+	}
+	for _, mi := range core {
+		m := &a.d.ms[mi]
+		clause = append(clause, solver.Neg(m.atom))
+		if !seen[m.sec] {
+			seen[m.sec] = true
+			rerr.Sections = append(rerr.Sections, a.d.t.Sections[m.sec].ID)
+		}
+	}
+	rerr.nogoods = append(rerr.nogoods, clause)
+}
+
+// neighbourhood returns the failed meetings of comp and the meetings that
+// share a period (in overlapping weeks) and a candidate room with them.
+func (a *roomAssigner) neighbourhood(comp []int) []int {
+	failed := map[int]bool{}
+	for _, mi := range a.failed {
+		failed[mi] = true
+	}
+	var out []int
+	for _, mi := range comp {
+		if failed[mi] {
+			out = append(out, mi)
+		}
+	}
+	return a.widen(out, 1)
+}
+
+// widen adds, hops times, every meeting that shares a period in overlapping
+// weeks and a candidate room with a meeting of the set (and whole same-room
+// groups).
+func (a *roomAssigner) widen(set []int, hops int) []int {
+	d := a.d
+	in := map[int]bool{}
+	for _, mi := range set {
+		in[mi] = true
+	}
+	byPeriod := make([][]int, len(d.t.Periods))
+	for i, m := range d.ms {
+		if m.cand < 0 {
+			continue
+		}
+		for q := m.start; q <= m.end; q++ {
+			byPeriod[q] = append(byPeriod[q], i)
+		}
+	}
+	add := func(j int) {
+		if in[j] {
+			return
+		}
+		in[j] = true
+		set = append(set, j)
+		if g := d.ms[j].group; g >= 0 {
+			for k := range d.ms {
+				if d.ms[k].group == g && !in[k] {
+					in[k] = true
+					set = append(set, k)
+				}
+			}
+		}
+	}
+	for h := 0; h < hops; h++ {
+		for _, mi := range append([]int(nil), set...) {
+			m := &d.ms[mi]
+			cand := d.c.rooms.sets.sets[m.cand]
+			for q := m.start; q <= m.end; q++ {
+				for _, j := range byPeriod[q] {
+					o := &d.ms[j]
+					if !in[j] && o.weeks&m.weeks != 0 && d.c.rooms.sets.sets[o.cand].intersects(cand) {
+						add(j)
+					}
+				}
+			}
+		}
+	}
+	return set
+}
+
+// maxIsolated caps the neighbourhoods isolatedCore solves.
+const maxIsolated = 800
+
+// isolatedCore looks for a set of meetings around the failed ones that
+// cannot be roomed even on their own; it returns the engine's core.
+func (a *roomAssigner) isolatedCore() ([]int, bool) {
+	set := append([]int(nil), a.failed...)
+	for hop := 1; hop <= 4; hop++ {
+		set = a.widen(set, 1)
+		if len(set) > maxIsolated {
+			return nil, false
+		}
+		core, proved, ok := a.exact(set, localConflictLimit, true)
+		switch {
+		case ok:
+			continue // roomable on its own: look wider
+		case proved:
+			return core, true
+		default:
+			return nil, false
+		}
+	}
+	return nil, false
 }
 
 // localRepair tries to place the failed meetings by moving only meetings
@@ -450,7 +559,7 @@ func (a *roomAssigner) localRepair() bool {
 			prev[k] = d.ms[mi].room
 			a.unplace(mi)
 		}
-		if _, _, ok := a.exact(set); ok {
+		if _, _, ok := a.exact(set, localConflictLimit, false); ok {
 			return true
 		}
 		for k, mi := range set {

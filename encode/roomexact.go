@@ -7,8 +7,12 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// exactConflictLimit bounds the exact room search of one component.
-const exactConflictLimit = 200000
+// Effort limits of the exact room searches (conflicts of the engine).
+const (
+	localConflictLimit     = 20000 // local repair and isolated proofs
+	componentConflictLimit = 50000 // a whole component, the last resort
+	maxComponent           = 1500  // larger components are not searched whole
+)
 
 // exact assigns rooms to a set of unplaced meetings, the others keeping
 // their rooms, by solving a small program with explicit room atoms: x(i,r) for each meeting i and each room
@@ -18,7 +22,10 @@ const exactConflictLimit = 200000
 // the initial phases. When there is no assignment, the engine's core names
 // meetings that cannot all be roomed together. ok reports success; proved
 // is false when the search ran out of budget.
-func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
+//
+// With isolated, the meetings outside comp are ignored (as if absent) and
+// nothing is placed: a core found then is a conflict of comp on its own.
+func (a *roomAssigner) exact(comp []int, limit int64, isolated bool) (core []int, proved, ok bool) {
 	d := a.d
 	p := solver.NewProgram()
 	sw := make([]solver.Atom, len(comp))
@@ -31,7 +38,7 @@ func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
 		x[k] = map[int]solver.Atom{}
 		var heads []solver.Atom
 		for _, r := range d.setMembers(m.cand) {
-			if a.free(r, mi) { // available, and not held by a meeting outside comp
+			if (isolated && a.availableAll(r, mi)) || (!isolated && a.free(r, mi)) {
 				a := p.NewAtom("")
 				x[k][r] = a
 				heads = append(heads, a)
@@ -111,7 +118,7 @@ func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
 		}
 	}
 	opts := solver.DefaultOptions()
-	opts.ConflictLimit = exactConflictLimit
+	opts.ConflictLimit = limit
 	s, err := solver.New(p, opts)
 	if err != nil {
 		return comp, false, false
@@ -131,6 +138,9 @@ func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
 	s.Assume(assume...)
 	switch s.Solve(context.Background()) {
 	case solver.Satisfiable:
+		if isolated {
+			return nil, true, true
+		}
 		for k, mi := range comp {
 			for _, r := range rooms[k] {
 				if s.Value(x[k][r]) {
@@ -156,4 +166,16 @@ func (a *roomAssigner) exact(comp []int) (core []int, proved, ok bool) {
 		return core, true, false
 	}
 	return comp, false, false
+}
+
+// availableAll reports whether room r is available in every period of
+// meeting mi (whoever else holds it).
+func (a *roomAssigner) availableAll(r, mi int) bool {
+	m := &a.d.ms[mi]
+	for q := m.start; q <= m.end; q++ {
+		if a.d.blocked(r, q) {
+			return false
+		}
+	}
+	return true
 }

@@ -13,7 +13,7 @@ import (
 
 // SolveOptions control Solve.
 type SolveOptions struct {
-	Seed          int64                // engine seed; the same seed gives the same timetable
+	Seed          int64                // engine seed; the same seed gives the same timetable; 0 means 1
 	ConflictLimit int64                // per engine call; 0 = none (use ctx for a time limit)
 	Compile       Options              // compile options (Explain must be false)
 	Progress      func(s solver.Stats) // optional, called by the engine at restarts
@@ -69,7 +69,9 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 	}
 	res := &Result{}
 	t0 := time.Now()
-	p, cat, err := Compile(t, opt.Compile)
+	copt := opt.Compile
+	copt.HardOnly = true // weak constraints are the optimiser's (Optimize)
+	p, cat, err := Compile(t, copt)
 	res.Timings.Compile = time.Since(t0)
 	if err != nil {
 		return nil, err
@@ -77,6 +79,12 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 	res.Program, res.Catalog = p, cat
 	eopts := solver.DefaultOptions()
 	eopts.Seed = opt.Seed
+	if eopts.Seed == 0 {
+		// Without random tie-breaking the engine tries atoms in numbering
+		// order, keeps each section's last candidates, and piles meetings
+		// into the last periods of the week.
+		eopts.Seed = 1
+	}
 	eopts.ConflictLimit = opt.ConflictLimit
 	var s *solver.Solver
 	var last []solver.Atom
