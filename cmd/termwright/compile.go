@@ -22,6 +22,8 @@ type compileOptions struct {
 	out     string // output file; "" or "-" for standard output
 	force   bool   // replace an existing output file
 	explain bool   // free selectors, unpruned candidates
+	cnf     bool   // write the completion as DIMACS CNF (compile_cnf.go)
+	names   bool   // with cnf: comment lines naming the atoms
 }
 
 func newCompileCmd(e *env) *cobra.Command {
@@ -47,6 +49,7 @@ func newCompileCmd(e *env) *cobra.Command {
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "file to write the program to (default: standard output)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
 	cmd.Flags().BoolVar(&o.explain, "explain", false, "write the explanation form: free selectors, no pruning by requirements")
+	addCompileCNFFlags(cmd, o)
 	return cmd
 }
 
@@ -66,6 +69,9 @@ func runCompile(e *env, o *compileOptions, termPath string) error {
 		return withCode(exitError, err.Error())
 	}
 	write := func(w io.Writer) error { return writeProgramDump(w, term, p, cat, o.explain) }
+	if o.cnf {
+		write = func(w io.Writer) error { return writeCNF(w, p, o.names) }
+	}
 	if toStdout {
 		bw := bufio.NewWriter(e.stdout)
 		if err := write(bw); err != nil {
