@@ -39,7 +39,7 @@ func newLogicCmd(e *env) *cobra.Command {
 			return withCode(exitError, "say what to do: termwright logic solve FILE, or termwright logic verify FILE --model ATOMS")
 		},
 	}
-	cmd.AddCommand(newLogicSolveCmd(e), newLogicVerifyCmd(e))
+	cmd.AddCommand(newLogicSolveCmd(e), newLogicVerifyCmd(e), newLogicSatCmd(e))
 	return cmd
 }
 
