@@ -60,7 +60,7 @@ func runCompile(e *env, o *compileOptions, termPath string) error {
 			return err
 		}
 	}
-	term, err := loadTerm(e, termPath)
+	term, err := loadCompileTerm(e, termPath)
 	if err != nil {
 		return err
 	}

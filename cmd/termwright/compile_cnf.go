@@ -1,10 +1,16 @@
 package main
 
 import (
+	"bufio"
+	"fmt"
 	"io"
+	"os"
+	"path/filepath"
+	"strings"
 
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
 )
 
 // addCompileCNFFlags adds --cnf and --cnf-names to `termwright compile`.
@@ -16,4 +22,23 @@ func addCompileCNFFlags(cmd *cobra.Command, o *compileOptions) {
 // writeCNF writes p's completion in the DIMACS format.
 func writeCNF(w io.Writer, p *solver.Program, names bool) error {
 	return solver.WriteDIMACSWith(w, p, solver.DIMACSOptions{Names: names})
+}
+
+// loadCompileTerm reads the term to compile: a term workbook or folder, or
+// a benchmark instance in the ITC-2007 .ctt format (so that the same
+// instances bench solves can be written as CNF).
+func loadCompileTerm(e *env, path string) (*timetable.Term, error) {
+	if !strings.EqualFold(filepath.Ext(path), ".ctt") {
+		return loadTerm(e, path)
+	}
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, withCode(exitError, fmt.Sprintf("cannot open the instance: %v", err))
+	}
+	defer f.Close()
+	term, err := timetable.ReadCTT(bufio.NewReader(f), filepath.Base(path))
+	if err != nil {
+		return nil, withCode(exitError, err.Error())
+	}
+	return term, nil
 }

@@ -93,3 +93,17 @@ func TestLogicSat(t *testing.T) {
 	assert.Equal(t, exitError, run([]string{"logic", "sat", filepath.Join(dir, "missing.cnf")}, e))
 	assert.Contains(t, stderr.String(), "cannot open")
 }
+
+// TestCompileCNFFromCTT: a benchmark instance in the .ctt format compiles
+// to CNF too.
+func TestCompileCNFFromCTT(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "tiny.cnf")
+	e, _, stderr := solveEnv()
+	require.Equal(t, exitOK, run([]string{"compile", tinyCTT, "--cnf", "-o", out}, e), "stderr: %s", stderr)
+	e, stdout, stderr := solveEnv()
+	require.Equal(t, exitOK, run([]string{"logic", "sat", "-q", out}, e), "stderr: %s", stderr)
+	assert.Equal(t, "s SATISFIABLE\n", stdout.String())
+	e, _, stderr = solveEnv()
+	assert.Equal(t, exitError, run([]string{"compile", filepath.Join(t.TempDir(), "none.ctt"), "--cnf"}, e))
+	assert.Contains(t, stderr.String(), "cannot open the instance")
+}
