@@ -62,10 +62,28 @@
 // grid order by augmenting paths that try the section's room so far first
 // (room stability), then the best fit. Meetings that span several periods,
 // week patterns and same-room groups need one room for all they cover, which
-// per-period counting cannot promise; when the fast assignment fails, the
-// component of meetings involved is solved exactly with explicit room atoms
-// by the engine, and if no assignment exists its unsatisfiable core becomes a
-// clause forbidding that combination of starts (*RoomConflictError).
+// per-period counting cannot promise. When the fast assignment fails, the
+// failed meetings and the meetings holding their rooms (widened three times,
+// same-room groups whole) are re-solved exactly with explicit room atoms by
+// the engine, everything else staying put. If that fails, a growing
+// neighbourhood of the failed meetings is solved on its own: when even that
+// has no assignment, the engine's unsatisfiable core becomes a clause
+// forbidding that combination of starts (*RoomConflictError). Whole
+// components are searched only as a last resort and only when small; a
+// conflict that is not proved within the effort limits is still forbidden
+// but marked Incomplete, and Solve then reports "unknown" rather than "no
+// timetable".
+//
+// # Solve
+//
+// Solve compiles the hard requirements only (Options.HardOnly: the soft
+// criteria are Optimize's), searches with the engine, checks each model with
+// solver.Verify, decodes it (adding lazily found room families, which
+// rebuilds the engine starting from the previous model's phases, or adding
+// room-conflict clauses to the running engine), and checks the timetable
+// with timetable.Check. Seed 0 is taken as 1: without random tie-breaking
+// the engine tries atoms in numbering order, keeps each section's last
+// candidates and piles meetings into the last periods of the week.
 //
 // Explicit room atoms in the main program are therefore never needed: the
 // rare cases that would need them (same-room relations, fixed rooms) are
