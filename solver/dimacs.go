@@ -304,6 +304,18 @@ func (c *cnfBuilder) complete(p *Program) {
 	}
 }
 
+// A bound is encoded with a sequential counter (n·k registers and about
+// 4·n·k clauses for n literals and counter width k, propagating as well as
+// the engine's counting) when k <= dimacsCounterWidth or n·k <=
+// dimacsCounterLimit; otherwise (such as the room supply of a period,
+// thousands of literals under a limit of hundreds) with adders (about 2·n
+// variables and 7·n clauses whatever the limit, but weaker propagation).
+// Variables so that tests can exercise both.
+var (
+	dimacsCounterWidth = 4
+	dimacsCounterLimit = 200
+)
+
 // bound encodes lower <= #true(Lits) <= upper under Cond with a sequential
 // counter: register s[i][j] (j = 1..K) is implied by "at least j of the
 // first i literals hold" (upward clauses, needed for the upper limit) and,
@@ -357,6 +369,17 @@ func (c *cnfBuilder) bound(bd Bound) {
 	if lower != NoBound && lower > k {
 		k = lower
 	}
+	if k > dimacsCounterWidth && n*k > dimacsCounterLimit {
+		c.adderBound(xs, nc, lower, upper)
+		return
+	}
+	k = 0
+	if upper != NoBound {
+		k = upper + 1
+	}
+	if lower != NoBound && lower > k {
+		k = lower
+	}
 	down := lower != NoBound
 	// prev[j-1] is s[i-1][j]; 0 means constant false (j > i-1).
 	prev := make([]int32, k)
@@ -402,4 +425,125 @@ func (c *cnfBuilder) bound(bd Bound) {
 	if lower != NoBound {
 		with(prev[lower-1])
 	}
+}
+
+// adderBound encodes lower <= sum(xs) <= upper under the negated condition
+// literals nc with a network of full and half adders that reduces the bits
+// of each weight to one (Eén & Sörensson 2006, after Warners 1998), then
+// compares the binary sum with the limits. Size O(len(xs)), whatever the
+// limits.
+func (c *cnfBuilder) adderBound(xs, nc []int32, lower, upper int) {
+	var buckets [][]int32
+	buckets = append(buckets, slices.Clone(xs))
+	for w := 0; w < len(buckets); w++ {
+		for len(buckets[w]) >= 2 {
+			b := buckets[w]
+			var sum, carry int32
+			if len(b) >= 3 {
+				x, y, z := b[len(b)-1], b[len(b)-2], b[len(b)-3]
+				buckets[w] = b[:len(b)-3]
+				sum, carry = c.fullAdder(x, y, z)
+			} else {
+				x, y := b[1], b[0]
+				buckets[w] = b[:0]
+				sum, carry = c.halfAdder(x, y)
+			}
+			buckets[w] = append(buckets[w], sum)
+			if w+1 == len(buckets) {
+				buckets = append(buckets, nil)
+			}
+			buckets[w+1] = append(buckets[w+1], carry)
+		}
+	}
+	bits := make([]int32, len(buckets)) // 0 for a weight with no bit
+	for w, b := range buckets {
+		if len(b) == 1 {
+			bits[w] = b[0]
+		}
+	}
+	// forbid adds, for each position i where the bit of the sum must not
+	// take value bad given equal higher bits, the clause saying so.
+	forbid := func(limit int, bad bool) {
+		for i := len(bits) - 1; i >= 0; i-- {
+			li := limit>>i&1 == 1
+			// sum > limit is decided at i when limit's bit is 0 and sum's is 1;
+			// sum < limit when limit's bit is 1 and sum's is 0.
+			if li == bad {
+				continue
+			}
+			var cl []int32
+			if bits[i] == 0 {
+				if bad {
+					continue // a missing bit is 0: never 1
+				}
+			} else if bad {
+				cl = append(cl, -bits[i])
+			} else {
+				cl = append(cl, bits[i])
+			}
+			skip := false
+			for j := i + 1; j < len(bits); j++ {
+				lj := limit>>j&1 == 1
+				switch {
+				case bits[j] == 0 && lj:
+					skip = true // sum's bit 0 differs from limit's 1 above: not decided at i
+				case bits[j] == 0:
+				case lj:
+					cl = append(cl, -bits[j])
+				default:
+					cl = append(cl, bits[j])
+				}
+			}
+			if !skip {
+				c.clause(append(cl, nc...)...)
+			}
+		}
+		if limit>>len(bits) != 0 && !bad {
+			c.clause(nc...) // lower limit above any sum
+		}
+	}
+	if upper != NoBound {
+		forbid(upper, true)
+	}
+	if lower != NoBound {
+		forbid(lower, false)
+	}
+}
+
+// fullAdder defines sum = x xor y xor z and carry = at least two of them.
+func (c *cnfBuilder) fullAdder(x, y, z int32) (sum, carry int32) {
+	sum, carry = c.newVar(), c.newVar()
+	for _, sx := range []int32{1, -1} {
+		for _, sy := range []int32{1, -1} {
+			for _, sz := range []int32{1, -1} {
+				// odd number of true among x,y,z <-> sum
+				odd := (sx > 0) != (sy > 0) != (sz > 0)
+				s := sum
+				if !odd {
+					s = -sum
+				}
+				c.clause(-sx*x, -sy*y, -sz*z, s)
+			}
+		}
+	}
+	c.clause(-x, -y, carry)
+	c.clause(-x, -z, carry)
+	c.clause(-y, -z, carry)
+	c.clause(x, y, -carry)
+	c.clause(x, z, -carry)
+	c.clause(y, z, -carry)
+	return sum, carry
+}
+
+// halfAdder defines sum = x xor y and carry = x and y.
+func (c *cnfBuilder) halfAdder(x, y int32) (sum, carry int32) {
+	sum, carry = c.newVar(), c.newVar()
+	c.clause(-x, -y, -sum)
+	c.clause(x, y, -sum)
+	c.clause(-x, y, sum)
+	c.clause(x, -y, sum)
+	c.clause(-x, -y, carry)
+	c.clause(x, -carry)
+	c.clause(y, -carry)
+	return sum, carry
 }

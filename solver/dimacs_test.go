@@ -320,3 +320,21 @@ func FuzzReadDIMACS(f *testing.F) {
 		require.GreaterOrEqual(t, q.NumAtoms(), p.NumAtoms())
 	})
 }
+
+// TestDIMACSAdderBoundsAgree: with every bound forced onto the adder
+// network, the CNF's models still equal the engine's stable models.
+func TestDIMACSAdderBoundsAgree(t *testing.T) {
+	oldW, oldL := dimacsCounterWidth, dimacsCounterLimit
+	dimacsCounterWidth, dimacsCounterLimit = 0, 0
+	defer func() { dimacsCounterWidth, dimacsCounterLimit = oldW, oldL }()
+	for seed := 0; seed < 150; seed++ {
+		r := rand.New(rand.NewPCG(uint64(seed), 11))
+		p := randomBoundProgram(r, 2+r.IntN(7))
+		var buf bytes.Buffer
+		require.NoError(t, WriteDIMACS(&buf, p))
+		vars, clauses := parseCNF(t, buf.String())
+		got := sortModels(cnfModels(p.NumAtoms(), vars, clauses))
+		want := sortModels(engineModels(t, p))
+		require.Equal(t, want, got, "seed %d\n%s", seed, buf.String())
+	}
+}
