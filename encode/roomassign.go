@@ -94,36 +94,48 @@ func (a *roomAssigner) unplace(mi int) {
 	m.room = -1
 }
 
-// prefer sorts rooms by preference for meeting mi: rooms the section
-// already uses, then rooms that fit (fewest empty seats first), then rooms
-// too small (fewest students over first; only possible under SoftCapacity).
+// prefer sorts rooms by preference for meeting mi: rooms where it joins
+// meetings of other weeks (sharing saves a room for meetings that need all
+// weeks), then rooms the section already uses, then rooms that fit (fewest
+// empty seats first), then rooms too small (fewest students over first;
+// only possible under SoftCapacity).
 func (a *roomAssigner) prefer(mi int, rooms []int) {
 	m := &a.d.ms[mi]
 	size := a.d.t.Sections[m.sec].Size
 	used := a.secRooms[m.sec]
-	key := func(r int) (int, int, int) {
-		stab := 1
-		for _, x := range used {
-			if x == r {
-				stab = 0
+	type key [4]int
+	keyOf := func(r int) key {
+		var k key
+		for q := m.start; q <= m.end; q++ {
+			if len(a.occ[r][q]) == 0 {
+				k[0]++ // periods this meeting would have the room to itself
 			}
 		}
-		c := a.d.t.Rooms[r].Capacity
-		if c >= size {
-			return stab, 0, c - size
+		k[1] = 1
+		for _, x := range used {
+			if x == r {
+				k[1] = 0
+			}
 		}
-		return stab, 1, size - c
+		if c := a.d.t.Rooms[r].Capacity; c >= size {
+			k[3] = c - size
+		} else {
+			k[2], k[3] = 1, size-c
+		}
+		return k
+	}
+	keys := make(map[int]key, len(rooms))
+	for _, r := range rooms {
+		keys[r] = keyOf(r)
 	}
 	sort.SliceStable(rooms, func(i, j int) bool {
-		a1, b1, c1 := key(rooms[i])
-		a2, b2, c2 := key(rooms[j])
-		if a1 != a2 {
-			return a1 < a2
+		ki, kj := keys[rooms[i]], keys[rooms[j]]
+		for x := range ki {
+			if ki[x] != kj[x] {
+				return ki[x] < kj[x]
+			}
 		}
-		if b1 != b2 {
-			return b1 < b2
-		}
-		return c1 < c2
+		return false
 	})
 }
 
