@@ -1,8 +1,10 @@
 package encode
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"slices"
+	"time"
 
 	"github.com/termwright/termwright/solver"
 )
@@ -66,7 +68,7 @@ func (o *optRun) lns() error {
 		kind := o.res.Steps % hoodKinds
 		secs := o.neighbourhood(ls, kind)
 		before := o.best
-		st, complete, err := o.step(secs)
+		st, proven, complete, err := o.step(secs)
 		if err != nil {
 			return err
 		}
@@ -80,7 +82,7 @@ func (o *optRun) lns() error {
 		}
 		maxSize := min(lnsMaxSize, n)
 		switch {
-		case st == solver.Satisfiable && o.s.Proven():
+		case st == solver.Satisfiable && proven:
 			ls.size = min(ls.size+1+ls.size/8, maxSize)
 		case ls.size > lnsMinSize:
 			ls.size = max(ls.size-1-ls.size/8, lnsMinSize)
@@ -92,23 +94,103 @@ func (o *optRun) lns() error {
 }
 
 // step re-optimises the given sections with every other section fixed as
-// in the incumbent.
-func (o *optRun) step(free []int) (solver.Status, bool, error) {
+// in the incumbent, and reports whether the engine proved the
+// neighbourhood's optimum.
+func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err error) {
 	isFree := make([]bool, len(o.t.Sections))
 	for _, s := range free {
 		isFree[s] = true
 	}
-	var assume []solver.Lit
+	// A program of its own for the step: the whole program plus the fixed
+	// starts as facts. Everything the fixed sections decide propagates at
+	// level 0 and drops out of the search, so each descent of the engine
+	// is short; building the solver costs about as much as one descent on
+	// the whole program.
+	q := *o.p
+	q.Rules = slices.Clip(o.p.Rules)
 	for _, a := range o.best.model {
 		if info := o.cat.AtomInfo(a); info.Kind == AtomStart && !isFree[info.Section] {
-			assume = append(assume, solver.Pos(a))
+			q.Rules = append(q.Rules, solver.Rule{Head: a})
 		}
 	}
-	if _, err := o.engine(); err != nil {
-		return solver.Unknown, false, err
+	// Weak constraints the freed sections cannot reach are constants of
+	// the step: leaving them out keeps the engine's weighted sums (and the
+	// explanations of their propagations) to what can change.
+	reach := o.reachable(isFree)
+	q.Weaks = nil
+	for _, w := range o.p.Weaks {
+		for _, l := range w.Body {
+			if reach[l.Atom()] {
+				q.Weaks = append(q.Weaks, w)
+				break
+			}
+		}
 	}
-	o.setPhases(o.best.model)
-	return o.optimizeCall(assume, o.opt.StepConflicts, -1)
+	t0 := time.Now()
+	eopts := solver.DefaultOptions()
+	eopts.Seed = o.opt.Seed + int64(o.res.Steps)
+	s, err := solver.New(&q, eopts)
+	o.res.Timings.Solve += time.Since(t0)
+	if err != nil {
+		return solver.Unknown, false, false, fmt.Errorf("internal error: the engine rejects a neighbourhood program: %w", err)
+	}
+	s.SetProgress(func(solver.Stats) { o.note(false) })
+	o.phases(s, o.best.model)
+	o.lastOnly, o.pending = true, nil
+	st, complete, err = o.optimizeCall(s, nil, o.opt.StepConflicts, -1)
+	o.lastOnly = false
+	if err == nil && o.pending != nil {
+		o.take(o.pending)
+		if o.fatal != nil {
+			return st, false, false, o.fatal
+		}
+		if err := o.roomProblems(); err != nil {
+			return st, false, false, err
+		}
+		complete = complete && o.hall == nil && o.conflict == nil
+	}
+	return st, s.Proven(), complete, err
+}
+
+// reachable marks the atoms whose value may change when the free sections
+// move: their start atoms, every atom of a choice rule that is not a start
+// atom, and, through the rules, every head with such an atom in its body.
+func (o *optRun) reachable(isFree []bool) []bool {
+	n := o.p.NumAtoms()
+	if o.uses == nil || len(o.uses) != n+1 {
+		o.uses = make([][]int32, n+1)
+		for i, r := range o.p.Rules {
+			if r.Head == 0 {
+				continue
+			}
+			for _, l := range r.Body {
+				o.uses[l.Atom()] = append(o.uses[l.Atom()], int32(i))
+			}
+		}
+	}
+	reach := make([]bool, n+1)
+	var queue []solver.Atom
+	mark := func(a solver.Atom) {
+		if !reach[a] {
+			reach[a] = true
+			queue = append(queue, a)
+		}
+	}
+	for _, ch := range o.p.Choices {
+		for _, a := range ch.Heads {
+			if info := o.cat.AtomInfo(a); info.Kind != AtomStart || isFree[info.Section] {
+				mark(a)
+			}
+		}
+	}
+	for len(queue) > 0 {
+		a := queue[len(queue)-1]
+		queue = queue[:len(queue)-1]
+		for _, i := range o.uses[a] {
+			mark(o.p.Rules[i].Head)
+		}
+	}
+	return reach
 }
 
 // indexRelated builds, once, the relatedness lists of neighbourhood search.

@@ -167,6 +167,13 @@ type optRun struct {
 	conflict *RoomConflictError // room combination without assignment: forbid and search again
 	fatal    error              // a gate failed
 
+	// In neighbourhood steps only the engine's last model of a call is
+	// put through the gates (each improves on the one before).
+	lastOnly bool
+	pending  []solver.Atom
+
+	uses [][]int32 // atom -> rules with the atom in their body (lns.go), built on first use
+
 	phase    string
 	lastNote time.Time
 }
@@ -204,34 +211,30 @@ func (o *optRun) engine() (*solver.Solver, error) {
 	s.SetProgress(func(solver.Stats) { o.note(false) })
 	o.s = s
 	if o.best != nil {
-		o.setPhases(o.best.model)
+		o.phases(s, o.best.model)
 	}
 	return s, nil
 }
 
-// setPhases makes the engine try the given model's start atoms first.
-func (o *optRun) setPhases(model []solver.Atom) {
+// phases makes engine s try the given model's start atoms first.
+func (o *optRun) phases(s *solver.Solver, model []solver.Atom) {
 	in := make([]bool, o.p.NumAtoms()+1)
 	for _, a := range model {
 		in[a] = true
 	}
-	for s := range o.cat.secs {
-		for _, p := range o.cat.secs[s].starts {
-			a := o.cat.secs[s].start[p]
-			o.s.SetPhase(a, in[a])
+	for sec := range o.cat.secs {
+		for _, p := range o.cat.secs[sec].starts {
+			a := o.cat.secs[sec].start[p]
+			s.SetPhase(a, in[a])
 		}
 	}
 }
 
-// optimizeCall runs one solver.Optimize under the given assumptions and
-// conflict budget, handling models through the callback. It reports the
-// status and whether the call ran to its end (not stopped for a room
-// problem or by ctx).
-func (o *optRun) optimizeCall(assume []solver.Lit, conflicts int64, coreBudget int64) (solver.Status, bool, error) {
-	s, err := o.engine()
-	if err != nil {
-		return solver.Unknown, false, err
-	}
+// optimizeCall runs one solver.Optimize on engine s under the given
+// assumptions and conflict budget, handling models through the callback.
+// It reports the status and whether the call ran to its end (not stopped
+// for a room problem or by ctx).
+func (o *optRun) optimizeCall(s *solver.Solver, assume []solver.Lit, conflicts int64, coreBudget int64) (solver.Status, bool, error) {
 	ctx, cancel := context.WithCancel(o.ctx)
 	defer cancel()
 	o.stop = cancel
@@ -313,7 +316,11 @@ func (o *optRun) global(budget int64) error {
 			return nil
 		}
 		spent := o.res.Engine.Conflicts
-		st, complete, err := o.optimizeCall(nil, budget, 0)
+		s, err := o.engine()
+		if err != nil {
+			return err
+		}
+		st, complete, err := o.optimizeCall(s, nil, budget, 0)
 		if err != nil {
 			return err
 		}

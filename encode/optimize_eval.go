@@ -36,6 +36,15 @@ func (o *optRun) onModel(_ []int64, model []solver.Atom) {
 	if o.best != nil && (o.sameStarts(model, o.best.model) || slices.Compare(o.timeCost(model), o.best.total) >= 0) {
 		return // rooms never cost less than nothing: it cannot beat the best
 	}
+	if o.lastOnly {
+		o.pending = slices.Clone(model) // evaluated when the engine call ends
+		return
+	}
+	o.take(model)
+}
+
+// take puts a model through the gates and keeps it when it is the best.
+func (o *optRun) take(model []solver.Atom) {
 	c, err := o.evaluate(model)
 	var herr *HallError
 	var rerr *RoomConflictError
