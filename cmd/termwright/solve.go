@@ -29,6 +29,7 @@ type solveOptions struct {
 	quiet     bool          // no progress display
 	keep      string        // earlier timetable to stay close to (minimal change)
 	steps     int           // neighbourhood steps at most; 0 = no limit
+	threads   int           // parallel searches (encode.OptimizePortfolio)
 }
 
 func newSolveCmd(e *env) *cobra.Command {
@@ -65,6 +66,7 @@ func newSolveCmd(e *env) *cobra.Command {
 	f.StringVar(&o.publish, "publish", "", "also publish PDFs, workbook and calendars into this directory")
 	f.BoolVar(&o.quiet, "quiet", false, "show no progress while searching")
 	f.StringVar(&o.keep, "keep", "", "earlier timetable (.xlsx or .csv) to change as little as possible")
+	f.IntVar(&o.threads, "threads", 1, "run this many differently seeded searches in parallel and keep the best timetable (more memory)")
 	f.IntVar(&o.steps, "steps", 0, "stop improving after this many neighbourhood steps (0 for no limit); with --time-limit 0 the result depends only on the seed")
 	return cmd
 }
@@ -143,7 +145,7 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		defer cancel()
 	}
 	progress := newSolveProgress(e, o.quiet || o.json)
-	res, err := encode.Optimize(ctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show})
+	res, err := encode.OptimizePortfolio(ctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show}, max(o.threads, 1))
 	progress.done()
 	if err != nil {
 		return withCode(exitError, err.Error())
