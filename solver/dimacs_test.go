@@ -338,3 +338,16 @@ func TestDIMACSAdderBoundsAgree(t *testing.T) {
 		require.Equal(t, want, got, "seed %d\n%s", seed, buf.String())
 	}
 }
+
+// BenchmarkWriteDIMACS: the completion of a synthetic timetabling program
+// as CNF.
+func BenchmarkWriteDIMACS(b *testing.B) {
+	p := engTimetableLike(400, 40, 120, 1, false)
+	b.ReportAllocs()
+	for b.Loop() {
+		var buf bytes.Buffer
+		if err := WriteDIMACS(&buf, p); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
