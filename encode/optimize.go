@@ -19,8 +19,11 @@ type OptimizeOptions struct {
 	Keep *timetable.Schedule
 	// GlobalConflicts is the conflict budget of the first phase, model-
 	// improving search with core-guided bounds on the whole term; 0 means
-	// DefaultGlobalConflicts. Negative skips the phase after the first
-	// timetable.
+	// DefaultGlobalConflicts when the program has at most
+	// GlobalWeakLimit weak constraints, and skipping the phase otherwise
+	// (on large terms each conflict of the whole-term search costs too
+	// much; neighbourhood search does better). Negative skips the phase
+	// after the first timetable.
 	GlobalConflicts int64
 	// StepConflicts is the conflict budget of one neighbourhood search; 0
 	// means DefaultStepConflicts.
@@ -43,6 +46,7 @@ const (
 	DefaultGlobalConflicts = 200_000
 	DefaultStepConflicts   = 2_000
 	DefaultMaxStall        = 400
+	GlobalWeakLimit        = 30_000
 )
 
 // Progress is a snapshot of an optimisation in progress.
@@ -70,6 +74,11 @@ type OptimizeResult struct {
 	Bound []int64
 	// Proven says Total equals Bound: no timetable is better.
 	Proven bool
+	// TimeProven says the engine's part of the cost (every criterion but
+	// the room-dependent ones, see TimeCost) equals Bound: no timetable is
+	// better on those criteria. The room-dependent part is improved by
+	// local search and is not proven.
+	TimeProven bool
 	// EngineCost is the engine's weak-constraint cost of the best model
 	// per criterion (indexed like timetable.Criteria); it equals TimeCost
 	// of Schedule (the third gate).
@@ -103,9 +112,6 @@ type OptimizeResult struct {
 // every budget counts conflicts; a run cut short by ctx depends on how
 // far it got.
 func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*OptimizeResult, error) {
-	if opt.GlobalConflicts == 0 {
-		opt.GlobalConflicts = DefaultGlobalConflicts
-	}
 	if opt.StepConflicts <= 0 {
 		opt.StepConflicts = DefaultStepConflicts
 	}
@@ -125,6 +131,12 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	}
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
+	if o.opt.GlobalConflicts == 0 {
+		o.opt.GlobalConflicts = DefaultGlobalConflicts
+		if len(p.Weaks) > GlobalWeakLimit {
+			o.opt.GlobalConflicts = -1
+		}
+	}
 	o.bound = make([]int64, len(o.levels))
 	if err := o.run(); err != nil {
 		return nil, err
@@ -395,6 +407,7 @@ func (o *optRun) finish() *OptimizeResult {
 	res.EngineCost = o.best.engine
 	res.Bound = o.bound
 	res.Proven = slices.Equal(res.Total, res.Bound)
+	res.TimeProven = slices.Equal(o.best.time, res.Bound)
 	if res.Proven {
 		res.Stopped = "optimal"
 	}

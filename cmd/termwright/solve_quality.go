@@ -15,8 +15,9 @@ import (
 // written timetable (timetable.Cost) by level and criterion, the lower
 // bound, and with --keep what moved.
 type solveQuality struct {
-	Levels       []solveLevel              `json:"levels"` // highest level (minimised first) first
-	Proven       bool                      `json:"proven"` // no timetable costs less
+	Levels       []solveLevel              `json:"levels"`      // highest level (minimised first) first
+	Proven       bool                      `json:"proven"`      // no timetable costs less
+	TimeProven   bool                      `json:"time_proven"` // no timetable costs less on the criteria that do not depend on rooms
 	Stopped      string                    `json:"stopped"`
 	Steps        int                       `json:"neighbourhood_steps"`
 	Improvements int                       `json:"improvements"`
@@ -48,7 +49,7 @@ type solveMove struct {
 }
 
 func solveBuildQuality(t *timetable.Term, res *encode.OptimizeResult) *solveQuality {
-	q := &solveQuality{Proven: res.Proven, Stopped: res.Stopped, Steps: res.Steps,
+	q := &solveQuality{Proven: res.Proven, TimeProven: res.TimeProven, Stopped: res.Stopped, Steps: res.Steps,
 		Improvements: len(res.History), Criteria: res.Cost.Criteria, Levels: []solveLevel{}}
 	for i, l := range res.Levels {
 		q.Levels = append(q.Levels, solveLevel{Level: l, Cost: res.Total[i], Bound: res.Bound[i]})
@@ -112,6 +113,11 @@ func solvePrintQuality(w io.Writer, q *solveQuality) {
 		switch {
 		case q.Proven:
 			fmt.Fprintln(w, "This timetable is optimal: the bound proves that no timetable costs less.")
+		case q.TimeProven:
+			fmt.Fprintf(w, "Not proven optimal (search stopped: %s). The bound covers every preference but the room\n"+
+				"choices (room stability, capacity, wasted seats, travel, and rooms in avoid times, same-room\n"+
+				"relations and moved meetings): on the others no timetable does better; rooms were improved\n"+
+				"by local search.\n", q.Stopped)
 		default:
 			fmt.Fprintf(w, "Not proven optimal (search stopped: %s).\n", q.Stopped)
 		}
