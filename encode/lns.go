@@ -60,6 +60,10 @@ func (o *optRun) lns() error {
 			o.res.Stopped = o.ctxStopped()
 			return nil
 		}
+		if slices.Equal(o.best.total, o.bound) {
+			o.res.Stopped = "optimal" // the bound is met: nothing can be better
+			return nil
+		}
 		if o.opt.MaxSteps > 0 && o.res.Steps >= o.opt.MaxSteps {
 			o.res.Stopped = "step limit"
 			return nil
@@ -136,7 +140,7 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 	}
 	s.SetProgress(func(solver.Stats) { o.note(false) })
 	o.phases(s, o.best.model)
-	o.lastOnly, o.pending = true, nil
+	o.lastOnly, o.pending = len(o.p.Weaks) > GlobalWeakLimit, nil // on large terms the gates cost more than a step
 	st, complete, err = o.optimizeCall(s, nil, o.opt.StepConflicts, -1)
 	o.lastOnly = false
 	if err == nil && o.pending != nil {

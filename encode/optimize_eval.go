@@ -109,7 +109,7 @@ func (o *optRun) evaluate(model []solver.Atom) (*candidate, error) {
 	t1 := time.Now()
 	sched, err := Decode(o.t, o.cat, model)
 	if err == nil {
-		sched = improveRooms(o.t, o.cat, sched, o.opt.Keep)
+		sched = o.bestRooms(sched)
 	}
 	o.res.Timings.Decode += time.Since(t1)
 	if err != nil {
@@ -161,4 +161,29 @@ func (o *optRun) sameStarts(a, b []solver.Atom) bool {
 		i++
 		j++
 	}
+}
+
+// bestRooms improves the rooms of a decoded timetable: local search, then,
+// when the room program is small enough, the engine's exact choice; the
+// better of the two (by timetable.Cost) is kept.
+func (o *optRun) bestRooms(s *timetable.Schedule) *timetable.Schedule {
+	s = improveRooms(o.t, o.cat, s, o.opt.Keep)
+	exact, _ := exactRooms(o.ctx, o.t, o.cat, s, o.opt.Keep, o.opt.Seed)
+	if exact == s {
+		return s
+	}
+	if slices.Compare(o.costVector(exact), o.costVector(s)) < 0 {
+		return exact
+	}
+	return s
+}
+
+// costVector is timetable.Cost of s per level of o.levels.
+func (o *optRun) costVector(s *timetable.Schedule) []int64 {
+	rep := timetable.Cost(o.t, s, o.opt.Keep)
+	out := make([]int64, len(o.levels))
+	for i, l := range o.levels {
+		out[i] = rep.ByLevel[l]
+	}
+	return out
 }

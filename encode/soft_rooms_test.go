@@ -109,3 +109,75 @@ func roomDeltas(t *testing.T, term *timetable.Term, cat *Catalog, sched, kept *t
 	require.LessOrEqual(t, slices.Compare(costVector(term, better, kept), costVector(term, sched, kept)), 0)
 	return checked
 }
+
+// TestExactRoomsAgainstBruteForce: with the times of a timetable fixed,
+// the engine's exact room choice, when proven, costs exactly the least
+// timetable.Cost over every room assignment that passes timetable.Check
+// (exhaustive search on random tiny terms), and never more than the local
+// search's.
+func TestExactRoomsAgainstBruteForce(t *testing.T) {
+	n := 40
+	if testing.Short() {
+		n = 10
+	}
+	rng := newRand(43)
+	proven := 0
+	for k := 0; k < n; k++ {
+		term := randomSoftTerm(rng, false)
+		res, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 1, GlobalConflicts: -1, MaxStall: -1})
+		require.NoError(t, err)
+		if res.Schedule == nil {
+			continue
+		}
+		var kept *timetable.Schedule
+		if k%2 == 0 {
+			if other, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 7, MaxSteps: 3}); err == nil && other.Schedule != nil {
+				kept = other.Schedule
+			}
+		}
+		local := improveRooms(term, res.Catalog, res.Schedule, kept)
+		exact, ok := exactRooms(context.Background(), term, res.Catalog, local, kept, 1)
+		require.Empty(t, timetable.HardViolations(timetable.Check(term, exact)))
+		got := costVector(term, exact, kept)
+		require.LessOrEqual(t, slices.Compare(got, costVector(term, local, kept)), 0)
+		want := bruteRooms(term, res.Schedule, kept)
+		require.LessOrEqual(t, slices.Compare(want, got), 0, "instance %d", k)
+		if ok {
+			proven++
+			require.Equal(t, want, got, "instance %d: proven but not the least cost\n%s", k, describeTerm(term))
+		}
+	}
+	t.Logf("%d exact room choices proven", proven)
+	require.Greater(t, proven, 0)
+}
+
+// bruteRooms is the least cost vector over every room assignment of s's
+// meetings (times kept) that passes timetable.Check.
+func bruteRooms(t *timetable.Term, s, kept *timetable.Schedule) []int64 {
+	pl := slices.Clone(s.Placements)
+	secIdx := t.SectionIndex()
+	var best []int64
+	var dfs func(i int)
+	dfs = func(i int) {
+		if i == len(pl) {
+			sched := &timetable.Schedule{Placements: pl}
+			if len(timetable.HardViolations(timetable.Check(t, sched))) > 0 {
+				return
+			}
+			if v := costVector(t, sched, kept); best == nil || slices.Compare(v, best) < 0 {
+				best = v
+			}
+			return
+		}
+		if t.Sections[secIdx[pl[i].Section]].NoRoom {
+			dfs(i + 1)
+			return
+		}
+		for _, r := range t.Rooms {
+			pl[i].Room = r.ID
+			dfs(i + 1)
+		}
+	}
+	dfs(0)
+	return best
+}
