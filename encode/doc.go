@@ -129,7 +129,13 @@
 // Decode assigns rooms, then a local search (soft_rooms.go) lowers them by
 // moving a section's meetings into one room, single meetings into free
 // rooms, and a meeting into a room whose holder moves elsewhere, never
-// leaving a meeting's candidate rooms.
+// leaving a meeting's candidate rooms. When the room program is small
+// enough (soft_rooms_exact.go), the engine then chooses rooms exactly for
+// the times found: explicit atoms in(meeting, room), at most one meeting
+// per room, period and week scope, and weak constraints for every room
+// criterion (times being fixed, travel is known pair by pair). So on small
+// terms each timetable considered gets its best rooms, and a cost that
+// meets the engine's bound is proven optimal.
 //
 // # The three gates and the reported cost
 //

@@ -116,8 +116,8 @@ func solvePrintQuality(w io.Writer, q *solveQuality) {
 		case q.TimeProven:
 			fmt.Fprintf(w, "Not proven optimal (search stopped: %s). The bound covers every preference but the room\n"+
 				"choices (room stability, capacity, wasted seats, travel, and rooms in avoid times, same-room\n"+
-				"relations and moved meetings): on the others no timetable does better; rooms were improved\n"+
-				"by local search.\n", q.Stopped)
+				"relations and moved meetings): on the others no timetable does better; rooms were chosen\n"+
+				"by local search and, on small terms, exactly for the times found.\n", q.Stopped)
 		default:
 			fmt.Fprintf(w, "Not proven optimal (search stopped: %s).\n", q.Stopped)
 		}
