@@ -38,15 +38,15 @@ const tinyC = "alg big 0 2\nalg big 1 0\ngeo small 1 2\ngeo small 1 1\nhis big 0
 // fakeSolve returns a solver that answers with status and, when
 // satisfiable, the tiny timetable tinyC; the clock moves on 1.5 s per
 // reading so that times are fixed.
-func fakeSolve(t *testing.T, status solver.Status, err error) func(context.Context, *timetable.Term, encode.SolveOptions) (*encode.Result, error) {
-	return func(ctx context.Context, term *timetable.Term, opt encode.SolveOptions) (*encode.Result, error) {
+func fakeSolve(t *testing.T, status solver.Status, err error) func(context.Context, *timetable.Term, int64, int) (*encode.OptimizeResult, error) {
+	return func(ctx context.Context, term *timetable.Term, seed int64, threads int) (*encode.OptimizeResult, error) {
 		if err != nil {
 			return nil, err
 		}
 		if _, has := ctx.Deadline(); !has {
 			t.Error("bench must give the solver a deadline")
 		}
-		res := &encode.Result{Status: status}
+		res := &encode.OptimizeResult{Result: encode.Result{Status: status}}
 		if status == solver.Satisfiable {
 			s, rerr := timetable.ReadITCSolution(strings.NewReader(tinyC), "fake.sol", term)
 			require.NoError(t, rerr)
@@ -60,7 +60,7 @@ func fakeSolve(t *testing.T, status solver.Status, err error) func(context.Conte
 }
 
 // runBenchWith runs the bench command with solve in place of encode.Solve.
-func runBenchWith(t *testing.T, solve func(context.Context, *timetable.Term, encode.SolveOptions) (*encode.Result, error), args ...string) (code int, stdout, stderr string) {
+func runBenchWith(t *testing.T, solve func(context.Context, *timetable.Term, int64, int) (*encode.OptimizeResult, error), args ...string) (code int, stdout, stderr string) {
 	t.Helper()
 	if solve != nil {
 		old := benchSolve
