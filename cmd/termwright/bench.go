@@ -165,7 +165,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		return err
 	}
 	if o.jsonOut != "" {
-		if err := benchWriteFile(o.jsonOut, js.Bytes()); err != nil {
+		if err := writeBytesAtomic(o.jsonOut, js.Bytes()); err != nil {
 			return withCode(exitError, err.Error())
 		}
 	}
@@ -324,31 +324,7 @@ func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule
 	if err := timetable.WriteITCSolution(&buf, term, s); err != nil {
 		return err
 	}
-	return benchWriteFile(path, buf.Bytes())
-}
-
-// benchWriteFile writes data to a temporary file beside path and renames
-// it into place, so that a failure never leaves a half-written file.
-func benchWriteFile(path string, data []byte) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
-	if err != nil {
-		return fmt.Errorf("cannot write %s: %v", path, err)
-	}
-	_, werr := tmp.Write(data)
-	if cerr := tmp.Close(); werr == nil {
-		werr = cerr
-	}
-	if werr == nil {
-		werr = os.Chmod(tmp.Name(), 0o644)
-	}
-	if werr == nil {
-		werr = os.Rename(tmp.Name(), path)
-	}
-	if werr != nil {
-		os.Remove(tmp.Name())
-		return fmt.Errorf("cannot write %s: %v", path, werr)
-	}
-	return nil
+	return writeBytesAtomic(path, buf.Bytes())
 }
 
 // benchGeoMean is the geometric mean of the rows' ratios and how many

@@ -81,7 +81,7 @@ func runGenerate(e *env, o *generateOptions, out string) error {
 			if _, err := e.stdout.Write(buf.Bytes()); err != nil {
 				return withCode(exitError, fmt.Sprintf("cannot write to standard output: %v", err))
 			}
-		} else if err := generateWriteFile(out, buf.Bytes()); err != nil {
+		} else if err := writeBytesAtomic(out, buf.Bytes()); err != nil {
 			return withCode(exitError, err.Error())
 		}
 	}
@@ -130,25 +130,6 @@ func generateRefuseExisting(out string, o *generateOptions) error {
 		} else if !errors.Is(err, fs.ErrNotExist) {
 			return withCode(exitError, fmt.Sprintf("cannot use %s: %v", p, err))
 		}
-	}
-	return nil
-}
-
-// generateWriteFile writes data to a temporary file beside path and renames
-// it into place, so that a failure never leaves a half-written file.
-func generateWriteFile(path string, data []byte) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
-	if err != nil {
-		return fmt.Errorf("cannot write in %s: %v", filepath.Dir(path), err)
-	}
-	_, werr := tmp.Write(data)
-	werr = errors.Join(werr, tmp.Close(), os.Chmod(tmp.Name(), 0o644))
-	if werr == nil {
-		werr = os.Rename(tmp.Name(), path)
-	}
-	if werr != nil {
-		os.Remove(tmp.Name())
-		return fmt.Errorf("cannot write %s: %v", path, werr)
 	}
 	return nil
 }

@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"io/fs"
 	"os"
-	"path/filepath"
 
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/timetable"
@@ -44,36 +43,9 @@ func runNew(e *env, o *newOptions, path string) error {
 	if err := timetable.WriteTemplate(&buf); err != nil {
 		return withCode(exitError, fmt.Sprintf("cannot make the template: %v", err))
 	}
-	if err := writeTemplateFile(path, buf.Bytes()); err != nil {
+	if err := writeBytesAtomic(path, buf.Bytes()); err != nil {
 		return withCode(exitError, err.Error())
 	}
 	fmt.Fprintf(e.stderr, "wrote %s: fill in each sheet, then run: termwright check %s\n", path, path)
-	return nil
-}
-
-// writeTemplateFile writes data to a temporary file beside path and renames it
-// into place, so that a failure never leaves a half-written file.
-func writeTemplateFile(path string, data []byte) error {
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".*.tmp")
-	if err != nil {
-		return fmt.Errorf("cannot write in %s: %v", dir, err)
-	}
-	name := tmp.Name()
-	_, werr := tmp.Write(data)
-	cerr := tmp.Close()
-	if werr == nil {
-		werr = cerr
-	}
-	if werr == nil {
-		werr = os.Chmod(name, 0o644)
-	}
-	if werr == nil {
-		werr = os.Rename(name, path)
-	}
-	if werr != nil {
-		os.Remove(name)
-		return fmt.Errorf("cannot write %s: %v", path, werr)
-	}
 	return nil
 }
