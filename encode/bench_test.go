@@ -96,8 +96,10 @@ func BenchmarkDecode(b *testing.B) {
 		// A model that decodes: add the room families and room conflicts
 		// Decode reports, as Solve does.
 		var model []solver.Atom
+		opts := solver.DefaultOptions()
+		opts.Seed = 1 // as Solve does
 		for {
-			s, err := solver.New(p, solver.DefaultOptions())
+			s, err := solver.New(p, opts)
 			if err != nil {
 				b.Fatal(err)
 			}
