@@ -61,6 +61,7 @@ type InputError struct {
 // CompileError lists every problem found while compiling, sorted by row.
 type CompileError []InputError
 
+// Error lists every problem, one per line, each with its row.
 func (e CompileError) Error() string {
 	lines := make([]string, len(e))
 	for i, x := range e {

@@ -22,6 +22,7 @@ type HallError struct {
 	label    string
 }
 
+// Error names the period, the meetings and the rooms they are short of.
 func (e *HallError) Error() string {
 	return fmt.Sprintf("%s: %d meetings (%s) can only use %d room(s) (%s)",
 		e.label, len(e.Sections), strings.Join(e.Sections, ", "), len(e.Rooms), strings.Join(e.Rooms, ", "))
@@ -41,6 +42,7 @@ type RoomConflictError struct {
 	nogoods    [][]solver.Lit // each a clause: not all of these starts
 }
 
+// Error names the sections whose meetings cannot all get rooms.
 func (e *RoomConflictError) Error() string {
 	return fmt.Sprintf("no room assignment for the meetings of %s", strings.Join(e.Sections, ", "))
 }
