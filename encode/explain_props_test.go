@@ -99,7 +99,7 @@ func xBrute(t *timetable.Term, fn func(*timetable.Schedule) bool) {
 			rooms = rooms[:0]
 			for i := range t.Rooms {
 				r := &t.Rooms[i]
-				if (t.SoftCapacity || r.Capacity >= sec.Size) && hasFeatures(r, sec.Needs) &&
+				if (t.SoftCapacity || r.Capacity >= sec.Size) && r.HasFeatures(sec.Needs) &&
 					(len(sec.Rooms) == 0 || slices.Contains(sec.Rooms, r.ID)) {
 					rooms = append(rooms, r.ID)
 				}

@@ -109,28 +109,12 @@ func (b *builder) baseRooms(sec *timetable.Section) roomSet {
 	}
 	for r := range t.Rooms {
 		room := &t.Rooms[r]
-		if !allowed(r) || (!t.SoftCapacity && room.Capacity < sec.Size) || !hasFeatures(room, sec.Needs) {
+		if !allowed(r) || (!t.SoftCapacity && room.Capacity < sec.Size) || !room.HasFeatures(sec.Needs) {
 			continue
 		}
 		set.add(r)
 	}
 	return set
-}
-
-func hasFeatures(room *timetable.Room, needs []string) bool {
-	for _, n := range needs {
-		found := false
-		for _, f := range room.Features {
-			if strings.EqualFold(f, n) {
-				found = true
-				break
-			}
-		}
-		if !found {
-			return false
-		}
-	}
-	return true
 }
 
 // sameRoomGroups merges the sections of hard same-room relations (sections

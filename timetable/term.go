@@ -1,6 +1,7 @@
 package timetable
 
 import (
+	"strings"
 	"time"
 )
 
@@ -55,6 +56,24 @@ type Room struct {
 	Features []string // lower-case features, e.g. "lab", "projector", "step-free"
 	Building string   // building name or code; "" when unknown
 	Src      Source
+}
+
+// HasFeatures reports whether the room has every feature in needs
+// (compared without regard to case).
+func (r *Room) HasFeatures(needs []string) bool {
+	for _, n := range needs {
+		found := false
+		for _, f := range r.Features {
+			if strings.EqualFold(f, n) {
+				found = true
+				break
+			}
+		}
+		if !found {
+			return false
+		}
+	}
+	return true
 }
 
 // Staff is an instructor or other member of staff who teaches sections.

@@ -104,23 +104,6 @@ func weekText(w WeekSet) string {
 	return strings.Join(parts, ", ")
 }
 
-// hasFeatures reports whether room r has every feature in needs.
-func hasFeatures(r *Room, needs []string) bool {
-	for _, n := range needs {
-		found := false
-		for _, f := range r.Features {
-			if strings.EqualFold(f, n) {
-				found = true
-				break
-			}
-		}
-		if !found {
-			return false
-		}
-	}
-	return true
-}
-
 // allowed reports whether room id is in the section's allowed list (an
 // empty list allows every room).
 func roomAllowed(s *Section, id string) bool {
@@ -140,7 +123,7 @@ func (v *validator) suits(r *Room, s *Section) (string, bool) {
 	switch {
 	case !roomAllowed(s, r.ID):
 		return "it is not in the section's Rooms list", false
-	case !hasFeatures(r, s.Needs):
+	case !r.HasFeatures(s.Needs):
 		return "it lacks " + strings.Join(s.Needs, ", "), false
 	case !v.t.SoftCapacity && r.Capacity < s.Size:
 		return fmt.Sprintf("it seats %d, fewer than the %d expected", r.Capacity, s.Size), false
@@ -150,7 +133,7 @@ func (v *validator) suits(r *Room, s *Section) (string, bool) {
 
 // fits reports whether room r can hold section s (suits without the reason).
 func (v *validator) fits(r *Room, s *Section) bool {
-	return roomAllowed(s, r.ID) && hasFeatures(r, s.Needs) && (v.t.SoftCapacity || r.Capacity >= s.Size)
+	return roomAllowed(s, r.ID) && r.HasFeatures(s.Needs) && (v.t.SoftCapacity || r.Capacity >= s.Size)
 }
 
 // checkSectionRoom checks that some room can hold the section.
@@ -187,7 +170,7 @@ func (v *validator) largestRoom(s *Section) (int, bool) {
 	best := -1
 	for i := range v.t.Rooms {
 		r := &v.t.Rooms[i]
-		if roomAllowed(s, r.ID) && hasFeatures(r, s.Needs) {
+		if roomAllowed(s, r.ID) && r.HasFeatures(s.Needs) {
 			best = max(best, r.Capacity)
 		}
 	}
