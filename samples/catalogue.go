@@ -74,11 +74,11 @@ func letters(n int) string {
 	return s
 }
 
-// course adds a course for members: a lecture for all of them (sometimes
+// course adds a course for members: a plenary for all of them (sometimes
 // joined by a cohort of another department), and per cohort maybe a
 // laboratory or tutorial section. It returns the number of sections added.
 func (g *gen) course(d, year int, members []int, budget int) int {
-	meetings, length := g.lectureShape()
+	meetings, length := g.plenaryShape()
 	if !g.cohortsFit(members, meetings*length) {
 		meetings, length = 1, 1
 		if !g.cohortsFit(members, 1) {
@@ -89,7 +89,7 @@ func (g *gen) course(d, year int, members []int, budget int) int {
 	dp.courseNo[year]++
 	code := fmt.Sprintf("%s%d%02d", dp.sub.code, year, dp.courseNo[year])
 	ci := len(g.courses)
-	g.courses = append(g.courses, course{dept: d, year: year, title: g.courseTitle(d), lecture: -1})
+	g.courses = append(g.courses, course{dept: d, year: year, title: g.courseTitle(d), plenary: -1})
 	co := &g.courses[ci]
 
 	lecCohorts := slices.Clone(members)
@@ -98,19 +98,19 @@ func (g *gen) course(d, year int, members []int, budget int) int {
 			lecCohorts = append(lecCohorts, other)
 		}
 	}
-	lec := g.newSection(sec{id: code + "-L", title: co.title, dept: d, course: ci, kind: kindLecture,
+	plen := g.newSection(sec{id: code + "-L", title: co.title, dept: d, course: ci, kind: kindPlenary,
 		cohorts: lecCohorts, meetings: meetings, length: length, weeks: g.all})
 	if g.chance(0.4) {
-		g.secs[lec].needs = append(g.secs[lec].needs, "projector")
+		g.secs[plen].needs = append(g.secs[plen].needs, "projector")
 	}
 	if g.chance(0.02) {
-		g.secs[lec].noRoom = true
-		g.secs[lec].title += " (online)"
+		g.secs[plen].noRoom = true
+		g.secs[plen].title += " (online)"
 	}
 	if meetings >= 2 && g.chance(0.05) {
-		g.secs[lec].sameDay, g.secs[lec].minDays = true, meetings
+		g.secs[plen].sameDay, g.secs[plen].minDays = true, meetings
 	}
-	g.courses[ci].lecture = lec
+	g.courses[ci].plenary = plen
 	added := 1
 
 	labs, tuts := 0, 0
@@ -152,8 +152,8 @@ func (g *gen) boolInt(b bool) int {
 	return 0
 }
 
-// lectureShape draws meetings per week and periods per meeting of a lecture.
-func (g *gen) lectureShape() (meetings, length int) {
+// plenaryShape draws meetings per week and periods per meeting of a plenary.
+func (g *gen) plenaryShape() (meetings, length int) {
 	meetings = []int{1, 2, 2, 3}[g.rng.IntN(4)]
 	length = 1
 	if meetings < 3 && g.chance(0.35) {
@@ -199,7 +199,7 @@ func (g *gen) cohortsFit(cs []int, load int) bool {
 }
 
 // guestCohort finds a cohort of the same year in another department that
-// can join a lecture of load periods, or -1.
+// can join a plenary of load periods, or -1.
 func (g *gen) guestCohort(d, year, load int) int {
 	for range 10 {
 		c := g.rng.IntN(len(g.cohorts))
@@ -236,7 +236,7 @@ func (g *gen) elective() {
 	dp.courseNo[year]++
 	code := fmt.Sprintf("%s%d%02d", dp.sub.code, year, dp.courseNo[year])
 	ci := len(g.courses)
-	g.courses = append(g.courses, course{dept: d, year: year, title: g.courseTitle(d), lecture: len(g.secs)})
+	g.courses = append(g.courses, course{dept: d, year: year, title: g.courseTitle(d), plenary: len(g.secs)})
 	meetings := min(g.between(1, 2), len(g.days))
 	length := 1
 	if meetings == 1 && g.chance(0.5) {

@@ -200,9 +200,9 @@ func sectionWish(k windowKind) string {
 	case earlyTwo:
 		return "Students travel from the harbour campus"
 	case firstRun:
-		return "Lecturer prefers afternoons"
+		return "Teacher prefers afternoons"
 	}
-	return "Lecturer would rather not teach then"
+	return "Teacher would rather not teach then"
 }
 
 // addUnavailable adds hard unavailabilities where the witness leaves the

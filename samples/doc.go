@@ -8,7 +8,7 @@
 // Generate and GenerateWithWitness take a Config (section count and seed,
 // plus optional grid and calendar sizes) and return a timetable.Term with
 // realistic proportions: departments with year groups of cohorts, courses
-// made of a lecture and per-cohort laboratory or tutorial sections, electives,
+// made of a plenary and per-cohort laboratory or tutorial sections, electives,
 // staff who teach one to four sections, rooms in buildings with features
 // (lab, projector, step-free) sized to the sections, students enrolled through
 // their cohort plus sometimes an elective, unavailabilities, fixed meetings,

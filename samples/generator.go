@@ -86,13 +86,13 @@ type dept struct {
 type course struct {
 	dept, year int
 	title      string
-	lecture    int   // section index of the lecture, -1 for none
+	plenary    int   // section index of the plenary, -1 for none
 	groups     []int // section indexes of its laboratory/tutorial sections
 }
 
 // Section kinds.
 const (
-	kindLecture  = 'L'
+	kindPlenary  = 'L'
 	kindLab      = 'P' // practical (laboratory)
 	kindTutorial = 'T'
 	kindElective = 'E'
@@ -102,7 +102,7 @@ type sec struct {
 	id, title string
 	dept      int
 	course    int  // index into courses; -1 for electives
-	kind      byte // kindLecture ...
+	kind      byte // kindPlenary ...
 	staff     []int
 	cohorts   []int
 	size      int

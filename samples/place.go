@@ -14,7 +14,7 @@ type weekSet = timetable.WeekSet
 
 // placeAll places every section in the witness. Some courses are chosen to
 // have two parallel laboratory or tutorial groups at the same time, and some
-// a tutorial straight after the lecture; those become relations when the
+// a tutorial straight after the plenary; those become relations when the
 // witness manages them.
 func (g *gen) placeAll() {
 	g.occStaff = g.newOcc(len(g.staff))
@@ -67,7 +67,7 @@ func (g *gen) difficulty(i int) int {
 }
 
 // choosePairs marks about one course in 75 to hold two of its groups at the
-// same time, and about as many to hold a tutorial right after the lecture.
+// same time, and about as many to hold a tutorial right after the plenary.
 func (g *gen) choosePairs() {
 	want := max(1, int(math.Round(float64(len(g.secs))/75)))
 	same, b2b := 0, 0
@@ -81,10 +81,10 @@ func (g *gen) choosePairs() {
 				continue
 			}
 		}
-		if c.lecture >= 0 && len(c.groups) >= 1 && b2b < want {
+		if c.plenary >= 0 && len(c.groups) >= 1 && b2b < want {
 			t := &g.secs[c.groups[len(c.groups)-1]]
-			if t.kind == kindTutorial && t.partner < 0 && g.secs[c.lecture].kind == kindLecture {
-				t.follows = c.lecture
+			if t.kind == kindTutorial && t.partner < 0 && g.secs[c.plenary].kind == kindPlenary {
+				t.follows = c.plenary
 				b2b++
 			}
 		}

@@ -44,11 +44,11 @@ func (g *gen) relate(kind timetable.RelationKind, groups [][]int) {
 	}
 }
 
-// courseMates lists, for the lecture a of a course, the course's laboratory
-// and tutorial sections (a lecture comes before its groups' sessions).
+// courseMates lists, for the plenary a of a course, the course's laboratory
+// and tutorial sections (a plenary comes before its groups' sessions).
 func (g *gen) courseMates(a int) []int {
 	s := &g.secs[a]
-	if s.kind != kindLecture {
+	if s.kind != kindPlenary {
 		return nil
 	}
 	return g.courses[s.course].groups

@@ -9,7 +9,7 @@ import (
 
 // Room size classes: the capacity ceilings of teaching rooms and of
 // laboratories (common practice for a mixed estate: seminar rooms,
-// classrooms, lecture theatres; laboratories of 24 to 48 places).
+// classrooms, tiered halls; laboratories of 24 to 48 places).
 var (
 	roomClasses = []int{20, 30, 40, 60, 90, 130, 200, 300}
 	labClasses  = []int{24, 32, 40, 48}

@@ -7,7 +7,7 @@ import (
 )
 
 // assignStaff gives every section a lead teacher from its department, and
-// some a second (laboratory demonstrators, co-taught lectures). Each person
+// some a second (laboratory demonstrators, co-taught plenaries). Each person
 // teaches one to four sections and at most capLoad periods a week; people
 // are added where a department runs short.
 func (g *gen) assignStaff() {

@@ -27,7 +27,7 @@ func costParts(r CostReport) (ITCParts, int) {
 // Cost under the ITC mapping must equal the competition's definition
 // (Di Gaspero, McCollum, Schaerf 2007), here evaluated by ITCCost, on every
 // hard-feasible timetable. On infeasible ones the two may differ: the
-// competition counts each clashing lecture as isolated, Cost counts the
+// competition counts each clashing meeting as isolated, Cost counts the
 // busy period once.
 func TestCostAgreesWithITCOnTiny(t *testing.T) {
 	term := readTiny(t)
@@ -90,7 +90,7 @@ func TestCheckSeesITCHardViolations(t *testing.T) {
 // 3); ArcTec 0, 1, 3 (>= 2); TecCos every day (>= 4); Geotec every day
 // (>= 4). Curriculum Cur1 {SceCosC, ArcTec, TecCos} per day: d0 p0-p2,
 // d1 p0-p1, d2 p1-p2, d3 p1-p2, d4 p0-p1, each a run of two or three, so no
-// lecture is isolated; Cur2 {TecCos, Geotec}: d0 p1-p2, d1 p1-p2, d2 p2-p3,
+// meeting is isolated; Cur2 {TecCos, Geotec}: d0 p1-p2, d1 p1-p2, d2 p2-p3,
 // d3 p0-p1, d4 p1-p2. TecCos avoids d2 p0-p1 and d3 p2-p3, ArcTec avoids d4.
 const toyZero = `SceCosC A 0 0
 SceCosC A 2 1

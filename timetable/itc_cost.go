@@ -4,12 +4,12 @@ package timetable
 // each already multiplied by its weight (Di Gaspero, McCollum, Schaerf 2007,
 // "soft constraints"):
 //
-//   - RoomCapacity: for each lecture, the students of its course over the
+//   - RoomCapacity: for each meeting, the students of its course over the
 //     capacity of its room (weight 1).
 //   - MinWorkingDays: for each course, 5 per day below its minimum number of
-//     working days (the distinct days its lectures use).
-//   - CurriculumCompactness: for each curriculum, 2 per lecture of the
-//     curriculum that is isolated: no lecture of the same curriculum in the
+//     working days (the distinct days its meetings use).
+//   - CurriculumCompactness: for each curriculum, 2 per meeting of the
+//     curriculum that is isolated: no meeting of the same curriculum in the
 //     period right before or right after it on the same day.
 //   - RoomStability: for each course, 1 per distinct room used beyond the
 //     first.
@@ -27,11 +27,11 @@ func (p ITCParts) Total() int {
 
 // ITCCost evaluates the competition's soft cost of s directly from its
 // published definitions, reading the Term as ReadCTT builds it: a course is
-// a Section (students = Size, lectures = placements, minimum working days =
+// a Section (students = Size, meetings = placements, minimum working days =
 // MinDays), a curriculum is a Cohort (its courses are the sections listing
 // it), days and slots follow the grid order. It shares no code with Cost, so
 // that the two check each other. Placements naming an unknown section, room
-// or period are skipped (ITCHardViolations counts them); lectures that
+// or period are skipped (ITCHardViolations counts them); meetings that
 // clash are still each counted, as the competition's validator does.
 func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
 	g := newITCGrid(t)
@@ -42,7 +42,7 @@ func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
 
 	days := make([]map[int]bool, len(t.Sections))     // per course: days used
 	rooms := make([]map[string]bool, len(t.Sections)) // per course: rooms used
-	busy := make([][]int, len(t.Cohorts))             // per curriculum and period: lectures
+	busy := make([][]int, len(t.Cohorts))             // per curriculum and period: meetings
 	for i := range busy {
 		busy[i] = make([]int, nP)
 	}

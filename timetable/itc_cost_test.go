@@ -10,11 +10,11 @@ import (
 
 // The expected values below are worked out by hand from the competition's
 // cost definition (Di Gaspero, McCollum, Schaerf 2007, "soft constraints":
-// RoomCapacity 1 per student over capacity per lecture; MinimumWorkingDays
+// RoomCapacity 1 per student over capacity per meeting; MinimumWorkingDays
 // 5 per day below the minimum; CurriculumCompactness 2 per isolated
-// lecture; RoomStability 1 per room beyond the first). The tiny instance
+// meeting; RoomStability 1 per room beyond the first). The tiny instance
 // (testdata/itc/tiny.ctt) has 2 days of 3 periods, rooms big (35) and small
-// (25), courses alg (Ada, 2 lectures, min 2 days, 40 students), geo (Bo, 2,
+// (25), courses alg (Ada, 2 meetings, min 2 days, 40 students), geo (Bo, 2,
 // min 1, 20) and his (Ada, 1, min 1, 30); curricula y1 = {alg, geo},
 // y2 = {his}; geo is unavailable on day 0 period 0.
 var tinyCosts = []struct {
@@ -26,19 +26,19 @@ var tinyCosts = []struct {
 	//   RoomCapacity: alg in big 40-35 = 5, alg in small 40-25 = 15; others fit: 20.
 	//   MinWorkingDays: alg uses 1 day of 2: 1*5 = 5; geo 2 days >= 1, his 1 >= 1.
 	//   Compactness: y1 busy (0,0) (0,1) (0,2) (1,2): only (1,2) isolated; y2
-	//   busy (1,0) isolated: 2 lectures * 2 = 4.
+	//   busy (1,0) isolated: 2 meetings * 2 = 4.
 	//   RoomStability: alg {big, small} 1, geo {small, big} 1: 2.
 	//   Total 20 + 5 + 4 + 2 = 31.
 	{"tiny-a", ITCParts{RoomCapacity: 20, MinWorkingDays: 5, CurriculumCompactness: 4, RoomStability: 2}, ITCHard{}},
-	// tiny-b: alg big 0 0 twice, geo small 0 0, his small 1 1 (geo's second lecture missing).
-	//   Hard: Lectures 2 (alg twice in one period, geo one missing), Conflicts 1
+	// tiny-b: alg big 0 0 twice, geo small 0 0, his small 1 1 (geo's second meeting missing).
+	//   Hard: Meetings 2 (alg twice in one period, geo one missing), Conflicts 1
 	//   (alg and geo share y1 at (0,0)), Availability 1 (geo at (0,0)),
-	//   RoomOccupancy 1 (big holds 2 lectures at (0,0)).
+	//   RoomOccupancy 1 (big holds 2 meetings at (0,0)).
 	//   RoomCapacity: alg 5 + 5, his in small 30-25 = 5: 15.
 	//   MinWorkingDays: alg 1 day of 2: 5.
-	//   Compactness: y1 has 3 lectures at (0,0), isolated: 3*2 = 6; y2 (1,1): 2. Total 8.
+	//   Compactness: y1 has 3 meetings at (0,0), isolated: 3*2 = 6; y2 (1,1): 2. Total 8.
 	//   RoomStability: 0. Total 15 + 5 + 8 = 28.
-	{"tiny-b", ITCParts{RoomCapacity: 15, MinWorkingDays: 5, CurriculumCompactness: 8}, ITCHard{Lectures: 2, Conflicts: 1, Availability: 1, RoomOccupancy: 1}},
+	{"tiny-b", ITCParts{RoomCapacity: 15, MinWorkingDays: 5, CurriculumCompactness: 8}, ITCHard{Meetings: 2, Conflicts: 1, Availability: 1, RoomOccupancy: 1}},
 	// tiny-c: alg big 0 2, alg big 1 0, geo small 1 2, geo small 1 1, his big 0 0.
 	//   RoomCapacity: alg 5 + 5 = 10. MinWorkingDays: alg days {0,1}: 0.
 	//   Compactness: y1 busy (0,2), (1,0), (1,1), (1,2): (0,2) is isolated because
@@ -72,8 +72,8 @@ func TestITCCostSkipsUnknown(t *testing.T) {
 	// alg 2 days missing (10) + geo 1 (5) + his 1 (5) = 20.
 	assert.Equal(t, 20, total)
 	h := ITCHardViolations(term, s)
-	// 3 unusable placements + 5 lectures missing (alg 2, geo 2, his 1).
-	assert.Equal(t, ITCHard{Lectures: 8}, h)
+	// 3 unusable placements + 5 meetings missing (alg 2, geo 2, his 1).
+	assert.Equal(t, ITCHard{Meetings: 8}, h)
 }
 
 func TestITCHardTeacherConflict(t *testing.T) {
@@ -89,8 +89,8 @@ func TestITCHardTeacherConflict(t *testing.T) {
 	assert.Equal(t, ITCHard{Conflicts: 1}, ITCHardViolations(term, s))
 }
 
-// randomITCSchedule places every lecture of t at random, keeping the
-// competition's hard constraints (distinct periods per course, one lecture
+// randomITCSchedule places every meeting of t at random, keeping the
+// competition's hard constraints (distinct periods per course, one meeting
 // per room and period, no curriculum or teacher clash, availability); it
 // restarts when it paints itself into a corner.
 func randomITCSchedule(rng *rand.Rand, t *Term) *Schedule {

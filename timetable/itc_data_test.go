@@ -63,13 +63,13 @@ func readShared(t testing.TB, dir, name string) *Term {
 }
 
 // cttHeaderCounts reads the header numbers of a .ctt file by hand, apart
-// from ReadCTT, and counts the lectures in its COURSES section.
+// from ReadCTT, and counts the meetings in its COURSES section.
 func cttHeaderCounts(t *testing.T, path string) (map[string]int, int) {
 	f, err := os.Open(path)
 	require.NoError(t, err)
 	defer f.Close()
 	counts := map[string]int{}
-	lectures := 0
+	meetings := 0
 	inCourses := false
 	sc := bufio.NewScanner(f)
 	for sc.Scan() {
@@ -87,11 +87,11 @@ func cttHeaderCounts(t *testing.T, path string) (map[string]int, int) {
 		case inCourses && line != "":
 			n, err := strconv.Atoi(strings.Fields(line)[2])
 			require.NoError(t, err)
-			lectures += n
+			meetings += n
 		}
 	}
 	require.NoError(t, sc.Err())
-	return counts, lectures
+	return counts, meetings
 }
 
 func TestReadCTTSharedInstances(t *testing.T) {
@@ -105,7 +105,7 @@ func TestReadCTTSharedInstances(t *testing.T) {
 			defer f.Close()
 			term, err := ReadCTT(f, filepath.Base(path))
 			require.NoError(t, err)
-			h, lectures := cttHeaderCounts(t, path)
+			h, meetings := cttHeaderCounts(t, path)
 			assert.Len(t, term.Sections, h["Courses"])
 			assert.Len(t, term.Rooms, h["Rooms"])
 			assert.Len(t, term.Periods, h["Days"]*h["Periods_per_day"])
@@ -117,23 +117,23 @@ func TestReadCTTSharedInstances(t *testing.T) {
 				total += s.Meetings
 				require.Len(t, s.Staff, 1)
 			}
-			assert.Equal(t, lectures, total)
+			assert.Equal(t, meetings, total)
 			assert.Empty(t, Validate(term).Errors(), "the term passes termwright's validation")
 		})
 	}
 }
 
 // Sizes of the first instance as published with the competition's
-// instances (comp01: 30 courses, 160 lectures, 6 rooms, 30 periods,
+// instances (comp01: 30 courses, 160 meetings, 6 rooms, 30 periods,
 // 14 curricula) — from memory; the file header agrees.
 func TestReadCTTComp01Sizes(t *testing.T) {
 	term := readShared(t, itcDataDir(t), "comp01")
-	lectures := 0
+	meetings := 0
 	for _, s := range term.Sections {
-		lectures += s.Meetings
+		meetings += s.Meetings
 	}
 	assert.Equal(t, 30, len(term.Sections))
-	assert.Equal(t, 160, lectures)
+	assert.Equal(t, 160, meetings)
 	assert.Equal(t, 6, len(term.Rooms))
 	assert.Equal(t, 30, len(term.Periods))
 	assert.Equal(t, 14, len(term.Cohorts))

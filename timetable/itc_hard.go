@@ -4,29 +4,29 @@ package timetable
 // (Di Gaspero, McCollum, Schaerf 2007, "hard constraints"); a timetable is
 // feasible when every count is zero.
 //
-//   - Lectures: all lectures of a course are scheduled, at distinct periods.
-//     Counts, per course, each lecture missing or extra, and each lecture
+//   - Meetings: all meetings of a course are scheduled, at distinct periods.
+//     Counts, per course, each meeting missing or extra, and each meeting
 //     sharing a period with an earlier one of the same course; plus each
 //     placement naming no known course, room or period.
-//   - Conflicts: lectures of courses in one curriculum or taught by one
+//   - Conflicts: meetings of courses in one curriculum or taught by one
 //     teacher are at distinct periods. Counts, per period, each pair of
-//     distinct courses with lectures there that share a curriculum or a
+//     distinct courses with meetings there that share a curriculum or a
 //     teacher.
 //   - Availability: a course is not scheduled in a period it is unavailable.
-//     Counts each lecture in a period covered by a hard unavailability of
+//     Counts each meeting in a period covered by a hard unavailability of
 //     its course (or of its teacher, curriculum or room, which .ctt files do
 //     not have but a Term may).
-//   - RoomOccupancy: one lecture per room and period. Counts, per room and
-//     period, the lectures beyond the first.
+//   - RoomOccupancy: one meeting per room and period. Counts, per room and
+//     period, the meetings beyond the first.
 type ITCHard struct {
-	Lectures      int `json:"lectures"`
+	Meetings      int `json:"meetings"`
 	Conflicts     int `json:"conflicts"`
 	Availability  int `json:"availability"`
 	RoomOccupancy int `json:"room_occupancy"`
 }
 
 // Total is the number of violations of every kind.
-func (h ITCHard) Total() int { return h.Lectures + h.Conflicts + h.Availability + h.RoomOccupancy }
+func (h ITCHard) Total() int { return h.Meetings + h.Conflicts + h.Availability + h.RoomOccupancy }
 
 // ITCHardViolations counts the violations of the competition's hard
 // constraints by s on t.
@@ -37,13 +37,13 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 	nP := len(t.Periods)
 	count := make([]int, len(t.Sections))
 	at := make([][]int, nP)             // per period: section indexes there (with repeats)
-	roomUse := make(map[[2]int]int, nP) // (room, period) -> lectures
+	roomUse := make(map[[2]int]int, nP) // (room, period) -> meetings
 	blocks := newITCBlocks(t)
 	for _, p := range s.Placements {
 		si, ok := secIdx[p.Section]
 		ri, rok := roomIdx[p.Room]
 		if !ok || !rok || p.Period < 0 || p.Period >= nP {
-			h.Lectures++
+			h.Meetings++
 			continue
 		}
 		count[si]++
@@ -55,9 +55,9 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 	}
 	for si, sec := range t.Sections {
 		if d := count[si] - sec.Meetings; d > 0 {
-			h.Lectures += d
+			h.Meetings += d
 		} else {
-			h.Lectures -= d
+			h.Meetings -= d
 		}
 	}
 	for _, here := range at {
@@ -65,7 +65,7 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 		var distinct []int
 		for _, si := range here {
 			if seen[si] {
-				h.Lectures++ // same course twice in one period
+				h.Meetings++ // same course twice in one period
 				continue
 			}
 			seen[si] = true
@@ -121,7 +121,7 @@ func newITCBlocks(t *Term) itcBlocks {
 	return b
 }
 
-// blocked reports whether lecture p of sec falls in a hard unavailability
+// blocked reports whether meeting p of sec falls in a hard unavailability
 // of the course, its teacher, a curriculum or its room.
 func (b itcBlocks) blocked(t *Term, sec *Section, p Placement) bool {
 	per := t.Periods[p.Period]

@@ -14,7 +14,7 @@ import (
 // (Di Gaspero, McCollum, Schaerf 2007, technical report
 // QUB/IEEE/Tech/ITC2007/CurriculumCTT/v1.0): a header of "Key: value" lines
 // (Name, Courses, Rooms, Days, Periods_per_day, Curricula, Constraints), then
-// the sections COURSES: (id teacher lectures min_working_days students),
+// the sections COURSES: (id teacher meetings min_working_days students),
 // ROOMS: (id capacity), CURRICULA: (id n course1 .. course_n) and
 // UNAVAILABILITY_CONSTRAINTS: (course day period, both 0-based), then END.
 
@@ -56,7 +56,7 @@ func cttSlotLength(perDay int) Clock {
 // ITC criterion weights of the competition's cost (Di Gaspero, McCollum,
 // Schaerf 2007, section on soft constraints): room capacity 1 per student
 // over, minimum working days 5 per missing day, curriculum compactness 2
-// per isolated lecture, room stability 1 per extra room.
+// per isolated meeting, room stability 1 per extra room.
 const (
 	ITCWeightRoomCapacity   = 1
 	ITCWeightMinWorkingDays = 5
@@ -90,7 +90,7 @@ type cttFile struct {
 // has no dates); Days × Periods_per_day one-hour periods from 08:00, Monday
 // first, touching within a day; each course becomes a Section with its
 // teacher as sole Staff, the curricula containing it as Cohorts, Size =
-// students, Meetings = lectures, Length 1, SameDay and MinDays =
+// students, Meetings = the course's count, Length 1, SameDay and MinDays =
 // min_working_days; each unavailability line becomes a hard WhoSection row
 // covering exactly that period; capacity is soft (SoftCapacity) and Weights
 // set every criterion: room over capacity 1, spread days 5, cohort isolated
@@ -340,14 +340,14 @@ func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string
 	staffAt := map[string]bool{}
 	for _, r := range recs {
 		if len(r.fields) != 5 {
-			errs.add(r.line, fmt.Sprintf("a course line has 5 fields (course teacher lectures min_working_days students), found %d", len(r.fields)))
+			errs.add(r.line, fmt.Sprintf("a course line has 5 fields (course teacher meetings min_working_days students), found %d", len(r.fields)))
 			if _, dup := index[r.fields[0]]; !dup {
 				index[r.fields[0]], lineOf[r.fields[0]] = -1, r.line
 			}
 			continue
 		}
 		id, teacher := r.fields[0], r.fields[1]
-		lectures, ok1 := cttInt(errs, r.line, "lectures of course "+clip(id), r.fields[2], 1)
+		meetings, ok1 := cttInt(errs, r.line, "meetings of course "+clip(id), r.fields[2], 1)
 		minDays, ok2 := cttInt(errs, r.line, "min_working_days of course "+clip(id), r.fields[3], 0)
 		students, ok3 := cttInt(errs, r.line, "students of course "+clip(id), r.fields[4], 0)
 		if _, dup := index[id]; dup {
@@ -362,7 +362,7 @@ func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string
 		index[id] = len(t.Sections)
 		t.Sections = append(t.Sections, Section{
 			ID: id, Title: id, Staff: []string{teacher}, Size: students,
-			Meetings: lectures, Length: 1, SameDay: true, MinDays: minDays,
+			Meetings: meetings, Length: 1, SameDay: true, MinDays: minDays,
 			Src: Source{Sheet: name, Row: r.line},
 		})
 		if !staffAt[teacher] {

@@ -164,8 +164,8 @@ func TestReadCTTErrors(t *testing.T) {
 		want  []string // substrings of the message, one per marked line
 	}{
 		{"course with 4 fields", body([]string{"!a t1 2 1", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"5 fields"}},
-		{"lectures not a number", body([]string{"!a t1 two 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"not a whole number"}},
-		{"zero lectures", body([]string{"!a t1 0 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"at least 1"}},
+		{"meetings not a number", body([]string{"!a t1 two 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"not a whole number"}},
+		{"zero meetings", body([]string{"!a t1 0 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"at least 1"}},
 		{"duplicate course", body([]string{"a t1 2 1 10", "!a t2 1 1 10"}, okRooms, []string{"q 1 a"}, okUnav), []string{"already defined on line 10"}},
 		{"negative capacity", body(okCourses, []string{"!r -3"}, okCur, okUnav), []string{"at least 0"}},
 		{"curriculum count wrong", body(okCourses, okRooms, []string{"!q 3 a b"}, okUnav), []string{"says it has 3 courses but lists 2"}},
@@ -180,7 +180,7 @@ func TestReadCTTErrors(t *testing.T) {
 			l[8] = "!" + l[8] // COURSES: line
 			return l
 		}(), []string{"has 1 lines but the header says Courses: 2"}},
-		{"unknown header key", append([]string{"!Lecturers: 3"}, body(okCourses, okRooms, okCur, okUnav)...), []string{"unknown header key"}},
+		{"unknown header key", append([]string{"!Teachers: 3"}, body(okCourses, okRooms, okCur, okUnav)...), []string{"unknown header key"}},
 		{"header value missing", func() []string {
 			l := body(okCourses, okRooms, okCur, okUnav)
 			l[3] = "!Days:"

@@ -11,7 +11,7 @@ import (
 )
 
 // The competition's solution format (Di Gaspero, McCollum, Schaerf 2007,
-// section "Output format"): one line per lecture, "course room day period",
+// section "Output format"): one line per meeting, "course room day period",
 // day and period 0-based, fields separated by white space, in any order.
 
 // WriteITCSolution writes s in the competition's solution format, one line
@@ -28,7 +28,7 @@ func WriteITCSolution(w io.Writer, t *Term, s *Schedule) error {
 			return fmt.Errorf("write solution: meeting %d of section %q: the section is not in the term", p.Meeting, p.Section)
 		}
 		if p.Room == "" {
-			return fmt.Errorf("write solution: meeting %d of section %q has no room; the benchmark format needs one for every lecture", p.Meeting, p.Section)
+			return fmt.Errorf("write solution: meeting %d of section %q has no room; the benchmark format needs one for every meeting", p.Meeting, p.Section)
 		}
 		if strings.IndexFunc(p.Room, unicode.IsSpace) >= 0 || strings.IndexFunc(p.Section, unicode.IsSpace) >= 0 {
 			return fmt.Errorf("write solution: meeting %d of section %q: IDs with spaces cannot be written in the benchmark format", p.Meeting, p.Section)
@@ -64,7 +64,7 @@ func WriteITCSolution(w io.Writer, t *Term, s *Schedule) error {
 // start-period order and placements come out in the course order of t. It
 // reports malformed lines, unknown courses and rooms and days or periods
 // outside the grid, every one as "name:LINE: ..." in ITCErrors; it accepts
-// too few or too many lectures and clashes, which ITCHardViolations counts.
+// too few or too many meetings and clashes, which ITCHardViolations counts.
 func ReadITCSolution(r io.Reader, name string, t *Term) (*Schedule, error) {
 	g := newITCGrid(t)
 	sec := t.SectionIndex()

@@ -51,13 +51,13 @@ func newBenchCmd(e *env) *cobra.Command {
 		Long: "bench runs every .ctt file in DIR (the ITC-2007 curriculum-based course\n" +
 			"timetabling format) through the same compile, search, verify and check steps\n" +
 			"as a real term, with --time-limit per instance. It prints one row per\n" +
-			"instance: size (courses/lectures/rooms/curricula), whether the timetable meets\n" +
+			"instance: size (courses/meetings/rooms/curricula), whether the timetable meets\n" +
 			"every hard constraint, its cost under the competition's definition, the lower\n" +
 			"bound proved (\"-\" when none), the time to the first feasible timetable and\n" +
 			"the time of the best. With --best, each cost is compared with the best known\n" +
 			"and the geometric mean of the ratios is printed. With --out, each timetable is\n" +
 			"written as SOLDIR/<instance>.sol in the competition's solution format\n" +
-			"(\"course room day period\" per lecture), never over an existing file unless\n" +
+			"(\"course room day period\" per meeting), never over an existing file unless\n" +
 			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
 			"fails, and 0 otherwise (instances left without a timetable show in the table).",
 		Args: cobra.ExactArgs(1),
@@ -79,7 +79,7 @@ func newBenchCmd(e *env) *cobra.Command {
 type benchRow struct {
 	Instance  string `json:"instance"`
 	Courses   int    `json:"courses"`
-	Lectures  int    `json:"lectures"`
+	Meetings  int    `json:"meetings"`
 	Rooms     int    `json:"rooms"`
 	Curricula int    `json:"curricula"`
 	// Status is the engine's outcome: "satisfiable", "unsatisfiable",
@@ -200,9 +200,9 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 	}
 	row.Courses, row.Rooms, row.Curricula = len(term.Sections), len(term.Rooms), len(term.Cohorts)
 	for _, s := range term.Sections {
-		row.Lectures += s.Meetings
+		row.Meetings += s.Meetings
 	}
-	fmt.Fprintf(e.stderr, "bench: %s: %d courses, %d lectures; solving for up to %s\n", name, row.Courses, row.Lectures, o.timeLimit)
+	fmt.Fprintf(e.stderr, "bench: %s: %d courses, %d meetings; solving for up to %s\n", name, row.Courses, row.Meetings, o.timeLimit)
 	ictx, cancel := context.WithTimeout(ctx, o.timeLimit)
 	defer cancel()
 	start := e.now()
@@ -355,7 +355,7 @@ func benchGeoMean(rows []benchRow) (*float64, int) {
 // benchWriteTable prints the results as an aligned table.
 func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	head := "instance\tcourses/lectures/rooms/curricula\tfeasible\tcost\tlower bound\tfirst feasible\tbest at"
+	head := "instance\tcourses/meetings/rooms/curricula\tfeasible\tcost\tlower bound\tfirst feasible\tbest at"
 	if withBest {
 		head += "\tbest known\tratio"
 	}
@@ -372,7 +372,7 @@ func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 		}
 		line := strings.Join([]string{
 			r.Instance,
-			fmt.Sprintf("%d/%d/%d/%d", r.Courses, r.Lectures, r.Rooms, r.Curricula),
+			fmt.Sprintf("%d/%d/%d/%d", r.Courses, r.Meetings, r.Rooms, r.Curricula),
 			feasible, intOrDash(r.Cost), intOrDash(r.Bound), msOrDash(r.FirstMS), msOrDash(r.BestMS),
 		}, "\t")
 		if withBest {

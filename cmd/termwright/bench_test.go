@@ -84,7 +84,7 @@ func TestBenchTable(t *testing.T) {
 	code, out, stderr := runBenchWith(t, fakeSolve(t, solver.Satisfiable, nil), dir, "--time-limit", "5s", "--best", best)
 	require.Equal(t, exitOK, code, stderr)
 	want := "" +
-		"instance  courses/lectures/rooms/curricula  feasible  cost  lower bound  first feasible  best at  best known  ratio\n" +
+		"instance  courses/meetings/rooms/curricula  feasible  cost  lower bound  first feasible  best at  best known  ratio\n" +
 		"tiny      3/5/2/2                           yes       14    -            1.50s           1.50s    7           2.00\n" +
 		"geometric mean of cost / best known: 2.00 over 1 of 1 instances\n"
 	assert.Equal(t, want, out)
@@ -100,10 +100,10 @@ func TestBenchJSON(t *testing.T) {
   "seed": 9,
   "instances": [
     {
-      "instance": "tiny", "courses": 3, "lectures": 5, "rooms": 2, "curricula": 2,
+      "instance": "tiny", "courses": 3, "meetings": 5, "rooms": 2, "curricula": 2,
       "status": "satisfiable", "feasible": true, "cost": 14,
       "parts": {"room_capacity": 10, "min_working_days": 0, "curriculum_compactness": 4, "room_stability": 0},
-      "hard": {"lectures": 0, "conflicts": 0, "availability": 0, "room_occupancy": 0},
+      "hard": {"meetings": 0, "conflicts": 0, "availability": 0, "room_occupancy": 0},
       "lower_bound": null, "first_feasible_ms": 1500, "best_ms": 1500, "total_ms": 1500
     }
   ],
