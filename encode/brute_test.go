@@ -3,6 +3,7 @@ package encode
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"testing"
 	"time"
 
@@ -116,52 +117,7 @@ func randomTinyTerm(rng *rand.Rand) *timetable.Term {
 // periods of every section, every room for every meeting) for one that
 // timetable.Check accepts. It shares nothing with the encoder.
 func bruteFeasible(t *timetable.Term) (bool, int) {
-	type option []timetable.Placement
-	opts := make([][]option, len(t.Sections))
-	for s, sec := range t.Sections {
-		var starts []int
-		for p := range t.Periods {
-			if _, ok := t.Span(p, sec.Length); ok {
-				starts = append(starts, p)
-			}
-		}
-		rooms := []string{""}
-		if !sec.NoRoom {
-			rooms = nil
-			for _, r := range t.Rooms {
-				rooms = append(rooms, r.ID)
-			}
-		}
-		var sets func(from int, chosen []int)
-		sets = func(from int, chosen []int) {
-			if len(chosen) == sec.Meetings {
-				var rooms2 func(k int, pl option)
-				rooms2 = func(k int, pl option) {
-					if k == len(chosen) {
-						opts[s] = append(opts[s], append(option(nil), pl...))
-						return
-					}
-					for _, r := range rooms {
-						rooms2(k+1, append(pl, timetable.Placement{Section: sec.ID, Meeting: k + 1, Period: chosen[k], Room: r}))
-					}
-				}
-				rooms2(0, nil)
-				return
-			}
-			for i := from; i < len(starts); i++ {
-				sets(i+1, append(chosen, starts[i]))
-			}
-		}
-		sets(0, nil)
-	}
-	// Violations that more placements of other sections can never repair
-	// prune the search early; everything is decided by Check at the leaves.
-	monotone := map[string]bool{
-		timetable.RuleStaffClash: true, timetable.RuleCohortClash: true, timetable.RuleRoomClash: true,
-		timetable.RuleSelfOverlap: true, timetable.RuleCapacity: true, timetable.RuleFeatures: true,
-		timetable.RuleRoomNotAllowed: true, timetable.RuleUnavailable: true, timetable.RuleSameDay: true,
-		timetable.RuleMaxPerDay: true, timetable.RuleMaxConsecutive: true, timetable.RuleNoRoom: true,
-	}
+	opts := bruteOptions(t)
 	leaves := 0
 	var dfs func(s int, pl []timetable.Placement) bool
 	dfs = func(s int, pl []timetable.Placement) bool {
@@ -171,7 +127,7 @@ func bruteFeasible(t *timetable.Term) (bool, int) {
 			return len(vs) == 0
 		}
 		for _, v := range vs {
-			if monotone[v.Rule] {
+			if bruteMonotone[v.Rule] {
 				return false
 			}
 		}
@@ -239,4 +195,48 @@ func describeTerm(t *timetable.Term) string {
 		s += fmt.Sprintf("relation %s %v\n", r.Kind, r.Sections)
 	}
 	return s
+}
+
+// bruteOptions lists, per section of a tiny term, every way to place all
+// its meetings: each set of Meetings start periods where a meeting fits,
+// with every room (or none for sections that take none) for each meeting.
+func bruteOptions(t *timetable.Term) [][][]timetable.Placement {
+	opts := make([][][]timetable.Placement, len(t.Sections))
+	for s, sec := range t.Sections {
+		var starts []int
+		for p := range t.Periods {
+			if _, ok := t.Span(p, sec.Length); ok {
+				starts = append(starts, p)
+			}
+		}
+		rooms := []string{""}
+		if !sec.NoRoom {
+			rooms = nil
+			for _, r := range t.Rooms {
+				rooms = append(rooms, r.ID)
+			}
+		}
+		var sets func(from int, chosen []int)
+		sets = func(from int, chosen []int) {
+			if len(chosen) == sec.Meetings {
+				var withRooms func(k int, pl []timetable.Placement)
+				withRooms = func(k int, pl []timetable.Placement) {
+					if k == len(chosen) {
+						opts[s] = append(opts[s], slices.Clone(pl))
+						return
+					}
+					for _, r := range rooms {
+						withRooms(k+1, append(pl, timetable.Placement{Section: sec.ID, Meeting: k + 1, Period: chosen[k], Room: r}))
+					}
+				}
+				withRooms(0, nil)
+				return
+			}
+			for i := from; i < len(starts); i++ {
+				sets(i+1, append(chosen, starts[i]))
+			}
+		}
+		sets(0, nil)
+	}
+	return opts
 }

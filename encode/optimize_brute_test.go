@@ -113,44 +113,7 @@ func randomSoftTerm(rng *rand.Rand, timeOnly bool) *timetable.Term {
 // among those timetable.Check accepts. It shares nothing with the encoder.
 func bruteOptimum(t *timetable.Term, kept *timetable.Schedule) ([]int64, bool) {
 	levels := termLevels(t)
-	type option []timetable.Placement
-	opts := make([][]option, len(t.Sections))
-	for s, sec := range t.Sections {
-		var starts []int
-		for p := range t.Periods {
-			if _, ok := t.Span(p, sec.Length); ok {
-				starts = append(starts, p)
-			}
-		}
-		rooms := []string{""}
-		if !sec.NoRoom {
-			rooms = nil
-			for _, r := range t.Rooms {
-				rooms = append(rooms, r.ID)
-			}
-		}
-		var sets func(from int, chosen []int)
-		sets = func(from int, chosen []int) {
-			if len(chosen) == sec.Meetings {
-				var withRooms func(k int, pl option)
-				withRooms = func(k int, pl option) {
-					if k == len(chosen) {
-						opts[s] = append(opts[s], slices.Clone(pl))
-						return
-					}
-					for _, r := range rooms {
-						withRooms(k+1, append(pl, timetable.Placement{Section: sec.ID, Meeting: k + 1, Period: chosen[k], Room: r}))
-					}
-				}
-				withRooms(0, nil)
-				return
-			}
-			for i := from; i < len(starts); i++ {
-				sets(i+1, append(chosen, starts[i]))
-			}
-		}
-		sets(0, nil)
-	}
+	opts := bruteOptions(t)
 	var best []int64
 	var dfs func(s int, pl []timetable.Placement)
 	dfs = func(s int, pl []timetable.Placement) {
