@@ -259,7 +259,7 @@ func (o *optRun) optimizeCall(s *solver.Solver, assume []solver.Lit, conflicts i
 	o.res.Rounds++
 	st, _, err := s.Optimize(ctx, o.onModel)
 	o.res.Timings.Solve += time.Since(t0)
-	o.res.Engine = addStats(o.res.Engine, diffStats(s.Stats(), before))
+	o.res.Engine = o.res.Engine.Add(s.Stats().Since(before))
 	if err != nil {
 		return st, false, fmt.Errorf("internal error: %w", err)
 	}
@@ -425,12 +425,4 @@ func (o *optRun) ctxStopped() string {
 		return "time limit"
 	}
 	return "interrupted"
-}
-
-func diffStats(a, b solver.Stats) solver.Stats {
-	return solver.Stats{
-		Conflicts: a.Conflicts - b.Conflicts, Decisions: a.Decisions - b.Decisions,
-		Propagations: a.Propagations - b.Propagations, Restarts: a.Restarts - b.Restarts,
-		Learned: a.Learned - b.Learned, LoopFormulas: a.LoopFormulas - b.LoopFormulas, Deleted: a.Deleted - b.Deleted,
-	}
 }

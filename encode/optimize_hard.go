@@ -68,7 +68,7 @@ func (o *optRun) first() error {
 		hs.SetProgress(func(solver.Stats) { o.note(false) })
 		o.res.Rounds++
 		st := hs.Solve(o.ctx)
-		o.res.Engine = addStats(o.res.Engine, hs.Stats())
+		o.res.Engine = o.res.Engine.Add(hs.Stats())
 		o.res.Timings.Solve += time.Since(t0)
 		switch st {
 		case solver.Unsatisfiable:
@@ -93,7 +93,7 @@ func (o *optRun) first() error {
 		t1 := time.Now()
 		before := s.Stats()
 		st = s.Solve(o.ctx)
-		o.res.Engine = addStats(o.res.Engine, diffStats(s.Stats(), before))
+		o.res.Engine = o.res.Engine.Add(s.Stats().Since(before))
 		o.res.Timings.Solve += time.Since(t1)
 		if st != solver.Satisfiable {
 			if o.ctx.Err() != nil {

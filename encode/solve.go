@@ -92,7 +92,7 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 		t1 := time.Now()
 		defer func() { res.Timings.Solve += time.Since(t1) }()
 		if s != nil {
-			res.Engine = addStats(res.Engine, s.Stats())
+			res.Engine = res.Engine.Add(s.Stats())
 		}
 		var err error
 		s, err = solver.New(p, eopts)
@@ -120,7 +120,7 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 		return nil, err
 	}
 	finish := func() *Result {
-		res.Engine = addStats(res.Engine, s.Stats())
+		res.Engine = res.Engine.Add(s.Stats())
 		res.Size = cat.Stats(p)
 		return res
 	}
@@ -206,15 +206,4 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 	}
 	res.Status = solver.Unknown
 	return finish(), nil
-}
-
-func addStats(a, b solver.Stats) solver.Stats {
-	a.Conflicts += b.Conflicts
-	a.Decisions += b.Decisions
-	a.Propagations += b.Propagations
-	a.Restarts += b.Restarts
-	a.Learned += b.Learned
-	a.LoopFormulas += b.LoopFormulas
-	a.Deleted += b.Deleted
-	return a
 }

@@ -34,3 +34,28 @@ type Stats struct {
 	LoopFormulas int64 // loop formulas added by unfounded-set checks
 	Deleted      int64 // learned clauses deleted
 }
+
+// Add returns the field-wise sum of s and o (work of several solvers).
+func (s Stats) Add(o Stats) Stats {
+	s.Conflicts += o.Conflicts
+	s.Decisions += o.Decisions
+	s.Propagations += o.Propagations
+	s.Restarts += o.Restarts
+	s.Learned += o.Learned
+	s.LoopFormulas += o.LoopFormulas
+	s.Deleted += o.Deleted
+	return s
+}
+
+// Since returns the work done since an earlier snapshot before of the same
+// solver (field-wise s - before).
+func (s Stats) Since(before Stats) Stats {
+	s.Conflicts -= before.Conflicts
+	s.Decisions -= before.Decisions
+	s.Propagations -= before.Propagations
+	s.Restarts -= before.Restarts
+	s.Learned -= before.Learned
+	s.LoopFormulas -= before.LoopFormulas
+	s.Deleted -= before.Deleted
+	return s
+}
