@@ -42,16 +42,16 @@ func TestPlantedConflicts(t *testing.T) {
 		// cannot all meet at different times. Two more sections of C are
 		// free and must not be blamed.
 		t.Run(fmt.Sprintf("pigeonhole k=%d", k), func(t *testing.T) {
-			b := newXTerm(2, k+2).room("R1", 30).room("R2", 30)
+			b := newTerm(2, k+2).room("R1", 30).room("R2", 30)
 			var want []string
 			for i := 1; i <= k+1; i++ {
 				id := fmt.Sprintf("P%d", i)
 				want = append(want, id)
-				b.sec(id, xStaff(fmt.Sprintf("T%d", i)), xCohort("C"))
-				b.unavail(timetable.WhoSection, id, mon, 9+k, 9+k+2) // the last two periods of Monday
-				b.unavail(timetable.WhoSection, id, tue, 9, 9+k+2)   // all of Tuesday
+				b.section(id, staffOf(fmt.Sprintf("T%d", i)), cohortsOf("C"))
+				b.unavailable(timetable.WhoSection, id, mon, 9+k, 9+k+2) // the last two periods of Monday
+				b.unavailable(timetable.WhoSection, id, tue, 9, 9+k+2)   // all of Tuesday
 			}
-			b.sec("F1", xStaff("U1"), xCohort("C")).sec("F2", xStaff("U2"), xCohort("C"))
+			b.section("F1", staffOf("U1"), cohortsOf("C")).section("F2", staffOf("U2"), cohortsOf("C"))
 			ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 			require.NoError(t, err)
 			require.Equal(t, StatusInfeasible, ex.Status)
@@ -80,7 +80,7 @@ func TestPlantedConflicts(t *testing.T) {
 		// Hall's condition (Hall 1935): k+1 sections needing a lab, all
 		// fixed at Monday 09:00, with k labs, cannot all get a room.
 		t.Run(fmt.Sprintf("hall k=%d", k), func(t *testing.T) {
-			b := newXTerm(1, 3).room("BIG", 100)
+			b := newTerm(1, 3).room("BIG", 100)
 			for i := 1; i <= k; i++ {
 				b.room(fmt.Sprintf("LAB%d", i), 30, "lab")
 			}
@@ -88,9 +88,9 @@ func TestPlantedConflicts(t *testing.T) {
 			for i := 1; i <= k+1; i++ {
 				id := fmt.Sprintf("L%d", i)
 				want = append(want, id)
-				b.sec(id, xStaff(fmt.Sprintf("T%d", i)), xNeeds("lab"), xFixed(mon, 9, ""))
+				b.section(id, staffOf(fmt.Sprintf("T%d", i)), needs("lab"), fixedAt(mon, 9, ""))
 			}
-			b.sec("X", xStaff("T1"), xFixed(mon, 10, ""))
+			b.section("X", staffOf("T1"), fixedAt(mon, 10, ""))
 			ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 			require.NoError(t, err)
 			require.Equal(t, StatusInfeasible, ex.Status)
@@ -113,11 +113,11 @@ func TestPlantedConflicts(t *testing.T) {
 	}
 	// A fixed meeting at a time its teacher is unavailable.
 	t.Run("fixed meets unavailability", func(t *testing.T) {
-		b := newXTerm(2, 3).room("R1", 30).
-			sec("A", xStaff("T"), xFixed(tue, 10, "")).
-			sec("B", xStaff("T")).sec("C", xStaff("V")).
-			unavail(timetable.WhoStaff, "V", mon, 9, 12).
-			unavail(timetable.WhoStaff, "T", tue, 10, 11)
+		b := newTerm(2, 3).room("R1", 30).
+			section("A", staffOf("T"), fixedAt(tue, 10, "")).
+			section("B", staffOf("T")).section("C", staffOf("V")).
+			unavailable(timetable.WhoStaff, "V", mon, 9, 12).
+			unavailable(timetable.WhoStaff, "T", tue, 10, 11)
 		ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 		require.NoError(t, err)
 		require.Equal(t, StatusInfeasible, ex.Status)
@@ -137,7 +137,7 @@ func TestPlantedConflicts(t *testing.T) {
 		assert.True(t, ex.CorrectionsComplete)
 	})
 	t.Run("feasible", func(t *testing.T) {
-		b := newXTerm(1, 3).room("R1", 30).sec("A", xStaff("T")).sec("B", xStaff("T"))
+		b := newTerm(1, 3).room("R1", 30).section("A", staffOf("T")).section("B", staffOf("T"))
 		ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 		require.NoError(t, err)
 		assert.Equal(t, StatusFeasible, ex.Status)
@@ -151,8 +151,8 @@ func TestPlantedConflicts(t *testing.T) {
 // together are both named, with the shared teacher; relaxations never drop
 // a request.
 func TestConflictingRequests(t *testing.T) {
-	b := newXTerm(1, 3).room("R1", 30).room("R2", 30).
-		sec("A", xStaff("T")).sec("B", xStaff("T")).sec("C", xStaff("U"))
+	b := newTerm(1, 3).room("R1", 30).room("R2", 30).
+		section("A", staffOf("T")).section("B", staffOf("T")).section("C", staffOf("U"))
 	reqs := []Request{
 		{Section: "A", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 2}},
 		{Section: "B", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 3}},
@@ -179,7 +179,7 @@ func TestConflictingRequests(t *testing.T) {
 // one-meeting section asked for twice) says so; a request for a start that
 // cannot hold the meeting names only the request.
 func TestRequestAgainstItsOwnSection(t *testing.T) {
-	b := newXTerm(1, 3).room("R1", 30).sec("A", xStaff("T")).sec("L", xStaff("U"), xMeet(1, 2))
+	b := newTerm(1, 3).room("R1", 30).section("A", staffOf("T")).section("L", staffOf("U"), meetings(1, 2))
 	reqs := []Request{{Section: "A", Day: time.Monday, Start: 9 * 60}, {Section: "A", Day: time.Monday, Start: 10 * 60}}
 	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
@@ -199,7 +199,7 @@ func TestRequestAgainstItsOwnSection(t *testing.T) {
 // TestSectionThatCannotFit: a section whose meeting is longer than any day
 // is its own reason.
 func TestSectionThatCannotFit(t *testing.T) {
-	b := newXTerm(2, 2).room("R1", 30).sec("A", xStaff("T")).sec("LONG", xStaff("U"), xMeet(1, 3))
+	b := newTerm(2, 2).room("R1", 30).section("A", staffOf("T")).section("LONG", staffOf("U"), meetings(1, 3))
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
 	require.Equal(t, StatusInfeasible, ex.Status)
@@ -214,12 +214,12 @@ func TestSectionThatCannotFit(t *testing.T) {
 // TestTinyBudget: with a budget too small to decide anything the answer is
 // "unknown" or a conflict marked not minimal, never a wrong claim.
 func TestTinyBudget(t *testing.T) {
-	b := newXTerm(1, 5)
+	b := newTerm(1, 5)
 	for i := 0; i < 5; i++ {
 		b.room(fmt.Sprintf("R%d", i), 30)
 	}
 	for i := 0; i < 6; i++ {
-		b.sec(fmt.Sprintf("S%d", i), xStaff(fmt.Sprintf("T%d", i)), xCohort("C"))
+		b.section(fmt.Sprintf("S%d", i), staffOf(fmt.Sprintf("T%d", i)), cohortsOf("C"))
 	}
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, CheckConflicts: 1})
 	require.NoError(t, err)
@@ -249,9 +249,9 @@ func TestTinyBudget(t *testing.T) {
 	assert.True(t, ex.Conflict.Counted)
 	assert.False(t, ex.Conflict.Minimal)
 	// Without a counting proof a cancelled run decides nothing.
-	other := newXTerm(2, 3).room("R1", 30).
-		sec("A", xStaff("T"), xFixed(time.Tuesday, 10, "")).
-		unavail(timetable.WhoStaff, "T", time.Tuesday, 10, 11)
+	other := newTerm(2, 3).room("R1", 30).
+		section("A", staffOf("T"), fixedAt(time.Tuesday, 10, "")).
+		unavailable(timetable.WhoStaff, "T", time.Tuesday, 10, 11)
 	ex, err = Explain(ctx, other.t, nil, ExplainOptions{Seed: 1})
 	require.NoError(t, err)
 	assert.Equal(t, StatusUnknown, ex.Status)
@@ -263,15 +263,15 @@ func TestTinyBudget(t *testing.T) {
 // would fit, so the conflict names exactly six sections, the teacher's
 // no-overlap and availability.
 func TestCountedOverload(t *testing.T) {
-	b := newXTerm(2, 4)
+	b := newTerm(2, 4)
 	for i := 0; i < 6; i++ {
 		b.room(fmt.Sprintf("R%d", i), 30)
 	}
 	for i := 0; i < 6; i++ {
-		b.sec(fmt.Sprintf("S%d", i), xStaff("T"), xCohort(fmt.Sprintf("C%d", i)))
+		b.section(fmt.Sprintf("S%d", i), staffOf("T"), cohortsOf(fmt.Sprintf("C%d", i)))
 	}
-	b.sec("OTHER", xStaff("U"), xCohort("C0"))
-	b.unavail(timetable.WhoStaff, "T", time.Tuesday, 9, 12)
+	b.section("OTHER", staffOf("U"), cohortsOf("C0"))
+	b.unavailable(timetable.WhoStaff, "T", time.Tuesday, 9, 12)
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
 	require.Equal(t, StatusInfeasible, ex.Status)
@@ -289,12 +289,12 @@ func TestCountedOverload(t *testing.T) {
 // Hall constraint for Decode to find; the explanation adds it when a model
 // overfills them, rebuilds the engine and names it.
 func TestLazyRoomFamily(t *testing.T) {
-	b := newXTerm(2, 4)
+	b := newTerm(2, 4)
 	for i := 0; i < 10; i++ {
 		b.room(fmt.Sprintf("R%02d", i), 30)
 	}
 	for i := 0; i < 11; i++ {
-		b.sec(fmt.Sprintf("S%02d", i), xStaff(fmt.Sprintf("T%d", i)), xFixed(time.Monday, 9, ""))
+		b.section(fmt.Sprintf("S%02d", i), staffOf(fmt.Sprintf("T%d", i)), fixedAt(time.Monday, 9, ""))
 	}
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
@@ -316,10 +316,10 @@ func TestRoomAssignmentConflict(t *testing.T) {
 	roomsOnly := func(ids ...string) func(*timetable.Section) {
 		return func(s *timetable.Section) { s.Rooms = ids }
 	}
-	b := newXTerm(1, 3).room("R1", 30).room("R2", 30).
-		sec("A", xStaff("TA"), xMeet(1, 2), xFixed(time.Monday, 9, "")).
-		sec("B", xStaff("TB"), roomsOnly("R1"), xFixed(time.Monday, 9, "")).
-		sec("C", xStaff("TC"), roomsOnly("R2"), xFixed(time.Monday, 10, ""))
+	b := newTerm(1, 3).room("R1", 30).room("R2", 30).
+		section("A", staffOf("TA"), meetings(1, 2), fixedAt(time.Monday, 9, "")).
+		section("B", staffOf("TB"), roomsOnly("R1"), fixedAt(time.Monday, 9, "")).
+		section("C", staffOf("TC"), roomsOnly("R2"), fixedAt(time.Monday, 10, ""))
 	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
 	require.Equal(t, StatusInfeasible, ex.Status)
