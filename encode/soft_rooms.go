@@ -58,15 +58,15 @@ var roomCritNames = [roomCrits]string{timetable.CritRoomStability, timetable.Cri
 
 // roomMeeting is one placed meeting that takes a room.
 type roomMeeting struct {
-	pl       int // index into Schedule.Placements
-	sec      int
-	start    int
-	end      int
-	weeks    timetable.WeekSet
-	room     int   // current room
-	cands    []int // candidate rooms
-	movable  bool  // false for meetings of hard same-room groups and single candidates
-	keptRoom int   // room of the kept meeting it pairs with at the same start, -1 when none
+	pl        int // index into Schedule.Placements
+	sec       int
+	start     int
+	end       int
+	weeks     timetable.WeekSet
+	room      int   // current room
+	cands     []int // candidate rooms
+	movable   bool  // false for meetings of hard same-room groups and single candidates
+	keptRooms []int // rooms (-1: none in the term) of its section's kept meetings at its start; nil when none
 }
 
 // improveRooms returns s with rooms changed to lower the room-dependent
@@ -133,7 +133,7 @@ func newRoomSearch(t *timetable.Term, c *Catalog, s *timetable.Schedule, kept *t
 			continue
 		}
 		rm := roomMeeting{pl: i, sec: si, start: p.Period, end: p.Period + m.length - 1, weeks: m.weeks,
-			room: r, cands: c.rooms.sets.sets[cand].members(), keptRoom: -1}
+			room: r, cands: c.rooms.sets.sets[cand].members()}
 		rm.movable = m.sameRoom < 0 && len(rm.cands) > 1
 		rs.bySec[si] = append(rs.bySec[si], len(rs.ms))
 		rs.ms = append(rs.ms, rm)
@@ -230,9 +230,10 @@ func (rs *roomSearch) indexRooms() {
 	}
 }
 
-// indexKept pairs each section's meetings with the kept ones in start
-// order (as "moved meetings" does) and notes the kept room of meetings
-// that keep their start.
+// indexKept notes, per meeting, the rooms of its section's kept meetings
+// at the same start: the meeting keeps one of them ("moved meetings")
+// only in one of those rooms; elsewhere it adds the room half of the
+// criterion (the engine counts the time half).
 func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 	if kept == nil {
 		return
@@ -240,12 +241,16 @@ func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 	km := newKeepModel(rs.t, kept)
 	roomIdx := rs.t.RoomIndex()
 	for si, ms := range rs.bySec {
-		old := km.secs[si]
-		cur := slices.Clone(ms)
-		slices.SortFunc(cur, func(a, b int) int { return rs.ms[a].start - rs.ms[b].start })
-		for k := 0; k < len(cur) && k < len(old); k++ {
-			if r, ok := roomIdx[old[k].Room]; ok && old[k].Period == rs.ms[cur[k]].start {
-				rs.ms[cur[k]].keptRoom = r
+		for _, i := range ms {
+			for _, p := range km.secs[si] {
+				if p.Period != rs.ms[i].start {
+					continue
+				}
+				r, ok := roomIdx[p.Room]
+				if !ok || p.Room == "" {
+					r = -1
+				}
+				rs.ms[i].keptRooms = append(rs.ms[i].keptRooms, r)
 			}
 		}
 	}
@@ -476,7 +481,7 @@ func (rs *roomSearch) cost(moved []int) []int64 {
 				}
 			}
 		}
-		if m.keptRoom >= 0 && m.keptRoom != m.room {
+		if m.keptRooms != nil && !slices.Contains(m.keptRooms, m.room) {
 			add(rcMoved, 1)
 		}
 		if rs.lvl[rcTravel] >= 0 {
