@@ -58,15 +58,15 @@ var roomCritNames = [roomCrits]string{timetable.CritRoomStability, timetable.Cri
 
 // roomMeeting is one placed meeting that takes a room.
 type roomMeeting struct {
-	pl        int // index into Schedule.Placements
-	sec       int
-	start     int
-	end       int
-	weeks     timetable.WeekSet
-	room      int   // current room
-	cands     []int // candidate rooms
-	movable   bool  // false for meetings of hard same-room groups and single candidates
-	keptRooms []int // rooms (-1: none in the term) of its section's kept meetings at its start; nil when none
+	pl       int // index into Schedule.Placements
+	sec      int
+	start    int
+	end      int
+	weeks    timetable.WeekSet
+	room     int   // current room
+	cands    []int // candidate rooms
+	movable  bool  // false for meetings of hard same-room groups and single candidates
+	oldRooms []int // rooms (-1: none in the term) of its section's kept meetings at its start; nil when none
 }
 
 // improveRooms returns s with rooms changed to lower the room-dependent
@@ -231,9 +231,9 @@ func (rs *roomSearch) indexRooms() {
 }
 
 // indexKept notes, per meeting, the rooms of its section's kept meetings
-// at the same start: the meeting keeps one of them ("moved meetings")
-// only in one of those rooms; elsewhere it adds the room half of the
-// criterion (the engine counts the time half).
+// at the same start. The meeting keeps one of those kept meetings ("moved
+// meetings") only in one of their rooms; in any other room it costs one
+// unit, the room half of the criterion (the engine counts the time half).
 func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 	if kept == nil {
 		return
@@ -250,7 +250,7 @@ func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 				if !ok || p.Room == "" {
 					r = -1
 				}
-				rs.ms[i].keptRooms = append(rs.ms[i].keptRooms, r)
+				rs.ms[i].oldRooms = append(rs.ms[i].oldRooms, r)
 			}
 		}
 	}
@@ -481,7 +481,7 @@ func (rs *roomSearch) cost(moved []int) []int64 {
 				}
 			}
 		}
-		if m.keptRooms != nil && !slices.Contains(m.keptRooms, m.room) {
+		if m.oldRooms != nil && !slices.Contains(m.oldRooms, m.room) {
 			add(rcMoved, 1)
 		}
 		if rs.lvl[rcTravel] >= 0 {
