@@ -122,8 +122,8 @@ func TestCheckUnreadable(t *testing.T) {
 	bad := filepath.Join(t.TempDir(), "term.xlsx")
 	require.NoError(t, os.WriteFile(bad, []byte("not a workbook at all"), 0o644))
 	for _, tc := range []struct {
-		name string
-		args []string
+		name  string
+		args  []string
 		want  string
 		lines int // a command-line mistake adds the usage line and a pointer to --help
 	}{

@@ -261,7 +261,7 @@ func TestSolveProgressLog(t *testing.T) {
 		clock = clock.Add(after)
 		p.show(encode.Progress{Phase: phase, Levels: []int{0}, Cost: []int64{7}, Bound: []int64{0}})
 	}
-	step("first timetable", 0)          // first line
+	step("first timetable", 0)           // first line
 	step("first timetable", time.Second) // too soon
 	step("whole term", time.Second)      // phase changed
 	step("whole term", 4*time.Second)    // too soon
