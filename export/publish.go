@@ -108,16 +108,16 @@ func Publish(dir string, t *timetable.Term, s *timetable.Schedule, opt Options) 
 	if _, err := v.calendar(); err != nil { // also fills v.cal before the workers share v
 		return m, err
 	}
+	parent, base := filepath.Split(filepath.Clean(dir))
+	if parent == "" {
+		parent = "."
+	}
+	cleanLeftovers(parent, base, dir) // first: it may move a publication back to dir
 	if err := checkTarget(dir, opt.Force); err != nil {
 		return m, err
 	}
 	opt.Generated = opt.generated()
 	m.Generated = opt.Generated.Format("2006-01-02T15:04:05Z07:00")
-	parent, base := filepath.Split(filepath.Clean(dir))
-	if parent == "" {
-		parent = "."
-	}
-	cleanLeftovers(parent, base, dir)
 	tmp, err := os.MkdirTemp(parent, "."+base+partialInfix)
 	if err != nil {
 		return m, fmt.Errorf("export: cannot create a working directory next to %s: %w", dir, err)

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"runtime/debug"
 	"sort"
 	"syscall"
 	"time"
@@ -75,14 +76,27 @@ func notifyStop() (<-chan os.Signal, func()) {
 // interrupted is the cause of run's context when a stop signal arrived.
 type interrupted struct{ sig os.Signal }
 
-func (i interrupted) Error() string { return "interrupted (" + i.sig.String() + ")" }
+func (i interrupted) Error() string { return "interrupted (" + signalName(i.sig) + ")" }
 
-// interruptedBy names the signal that cancelled ctx ("interrupt",
-// "terminated", "hangup"), or "" when none did.
+// signalName is the name people know a stop signal by.
+func signalName(sig os.Signal) string {
+	switch sig {
+	case os.Interrupt:
+		return "Ctrl-C"
+	case syscall.SIGTERM:
+		return "SIGTERM"
+	case syscall.SIGHUP:
+		return "SIGHUP"
+	}
+	return sig.String()
+}
+
+// interruptedBy names the signal that cancelled ctx ("Ctrl-C", "SIGTERM",
+// "SIGHUP"), or "" when none did.
 func interruptedBy(ctx context.Context) string {
 	var i interrupted
 	if ctx != nil && errors.As(context.Cause(ctx), &i) {
-		return i.sig.String()
+		return signalName(i.sig)
 	}
 	return ""
 }
@@ -135,7 +149,9 @@ func newRoot(e *env) *cobra.Command {
 		Short:         "Build, check, explain and publish a term's timetable",
 		SilenceErrors: true,
 		SilenceUsage:  true,
+		Version:       version(debug.ReadBuildInfo()),
 	}
+	root.SetVersionTemplate("termwright {{.Version}}\n")
 	root.SetIn(e.stdin)
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
@@ -150,6 +166,44 @@ func newRoot(e *env) *cobra.Command {
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return &usageError{cmd: c, err: err} })
 	wrapArgs(root)
 	return root
+}
+
+// version describes this build from its build information: the module
+// version ("v1.2.0" for go install of a release, "(devel)" for a build
+// from a checkout) and, when the build recorded them, the version control
+// revision, its time and whether the tree had uncommitted changes.
+func version(bi *debug.BuildInfo, ok bool) string {
+	if !ok || bi == nil {
+		return "(unknown version: built without module information)"
+	}
+	v := bi.Main.Version
+	if v == "" {
+		v = "(devel)"
+	}
+	var rev, at, dirty string
+	for _, s := range bi.Settings {
+		switch s.Key {
+		case "vcs.revision":
+			rev = s.Value
+		case "vcs.time":
+			at = s.Value
+		case "vcs.modified":
+			if s.Value == "true" {
+				dirty = ", with uncommitted changes"
+			}
+		}
+	}
+	if rev != "" {
+		if len(rev) > 12 {
+			rev = rev[:12]
+		}
+		v += " (revision " + rev
+		if at != "" {
+			v += " of " + at
+		}
+		v += dirty + ")"
+	}
+	return v + ", " + bi.GoVersion
 }
 
 // usageError is a mistake in the command line itself (an unknown flag, a

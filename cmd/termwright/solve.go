@@ -93,7 +93,7 @@ type solveReport struct {
 	// term check finds them before any search.
 	Reasons []checkProblem `json:"reasons,omitempty"`
 	// Interrupted names the signal that ended the search early
-	// ("interrupt", "terminated", "hangup").
+	// ("Ctrl-C", "SIGTERM", "SIGHUP").
 	Interrupted string `json:"interrupted,omitempty"`
 	TimeLimit   string `json:"time_limit,omitempty"` // with status "unknown"
 	Threads     int    `json:"threads,omitempty"`

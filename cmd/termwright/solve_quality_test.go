@@ -162,12 +162,12 @@ func TestSolveStopSignals(t *testing.T) {
 	}
 	for _, tc := range []struct {
 		sig  syscall.Signal
-		name string // os.Signal.String of sig
+		name string // signalName of sig
 		tty  bool
 	}{
-		{syscall.SIGINT, "interrupt", true},
-		{syscall.SIGTERM, "terminated", false},
-		{syscall.SIGHUP, "hangup", false},
+		{syscall.SIGINT, "Ctrl-C", true},
+		{syscall.SIGTERM, "SIGTERM", false},
+		{syscall.SIGHUP, "SIGHUP", false},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			dir := t.TempDir()
