@@ -204,9 +204,7 @@ func explainLoad(e *env, path string) (*timetable.Term, timetable.Problems, erro
 		return nil, nil, wrapCode(exitError, err)
 	}
 	semantic := timetable.Validate(term).Errors()
-	same := func(a, b timetable.Problem) bool {
-		return a.Pos.Sheet == b.Pos.Sheet && a.Pos.Row == b.Pos.Row && a.Msg == b.Msg
-	}
+	same := sameProblem
 	var reading timetable.Problems
 	for _, p := range problems.Errors() {
 		found := false

@@ -242,9 +242,12 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 }
 
 // sameProblem says two problems are one: the reader's positions have
-// column letters that Validate's lack, so sheet, row and message decide.
+// column letters, and for whole-sheet problems sheet names, that
+// Validate's lack, so the message and row decide, and the sheet where both
+// know it.
 func sameProblem(a, b timetable.Problem) bool {
-	return a.Pos.Sheet == b.Pos.Sheet && a.Pos.Row == b.Pos.Row && a.Msg == b.Msg
+	sheet := a.Pos.Sheet == b.Pos.Sheet || a.Pos.Sheet == "" || b.Pos.Sheet == ""
+	return sheet && a.Pos.Row == b.Pos.Row && a.Msg == b.Msg
 }
 
 // solveLoad reads the term like loadTerm, except that a term whose only
