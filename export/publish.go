@@ -118,13 +118,11 @@ func Publish(dir string, t *timetable.Term, s *timetable.Schedule, opt Options) 
 	}
 	opt.Generated = opt.generated()
 	m.Generated = opt.Generated.Format("2006-01-02T15:04:05Z07:00")
-	tmp, err := os.MkdirTemp(parent, "."+base+partialInfix)
+	tmp, release, err := newWorkDir(parent, base)
 	if err != nil {
 		return m, fmt.Errorf("export: cannot create a working directory next to %s: %w", dir, err)
 	}
-	if release, held, err := lockDir(tmp); err == nil && !held {
-		defer release() // after the removal below: deferred calls run last first
-	}
+	defer release()         // after the removal below: deferred calls run last first
 	defer os.RemoveAll(tmp) // a no-op once renamed into place; the earlier publication after an exchange
 	files, err := runJobs(tmp, v.publishJobs(opt))
 	if err != nil {
@@ -336,10 +334,35 @@ func checkTarget(dir string, force bool) error {
 // partialInfix follows ".<base>" in the names of working directories.
 const partialInfix = ".partial-"
 
-// staleAfter is how long a working directory must have been left unchanged
-// before another run may take it for a leftover: a run locks its directory
-// a moment after creating it, and the lock alone decides after that.
-const staleAfter = time.Minute
+// newWorkDir creates a working directory .<base>.partial-* in parent and
+// locks it for as long as this run lives (lockDir). Between its creation
+// and its lock another run's cleanLeftovers may take it for a leftover;
+// that run then holds the lock and removes it, so a new one is made. On a
+// file system without locks the directory is used unlocked (and other runs
+// leave it alone, as they cannot lock it either).
+func newWorkDir(parent, base string) (string, func(), error) {
+	for range 8 {
+		tmp, err := os.MkdirTemp(parent, "."+base+partialInfix)
+		if err != nil {
+			return "", nil, err
+		}
+		release, held, err := lockDir(tmp)
+		switch {
+		case err == nil && !held:
+			if _, serr := os.Lstat(tmp); serr == nil {
+				return tmp, release, nil
+			}
+			release()
+		case err != nil:
+			if _, serr := os.Lstat(tmp); serr == nil {
+				return tmp, func() {}, nil // no locks here
+			}
+		case !haveLocks:
+			return tmp, func() {}, nil
+		}
+	}
+	return "", nil, errors.New("other runs kept taking the working directory")
+}
 
 // swapInto puts the finished directory tmp at dir.
 //
@@ -381,8 +404,9 @@ func swapInto(tmp, dir string) error {
 // cleanLeftovers removes what earlier runs publishing to dir (= parent/base)
 // left behind when they were killed: directories in parent named
 // .<base>.partial-* (working directories, and earlier publications moved
-// aside, ending in .old) that no live run holds locked and that have not
-// changed for staleAfter. Nothing else is touched. When dir itself is
+// aside, ending in .old) that no live run holds locked. A run's lock dies
+// with it, kill -9 included, so an unlocked one is a leftover. Nothing
+// else is touched. When dir itself is
 // missing — a kill between the two renames of swapInto's fallback — the
 // newest complete publication among them (one with a manifest, which
 // Publish writes last) is moved back to dir instead of being removed.
@@ -409,7 +433,7 @@ func cleanLeftovers(parent, base, dir string) {
 			continue
 		}
 		p := filepath.Join(parent, en.Name())
-		if fi, err := os.Lstat(p); err != nil || !fi.IsDir() || time.Since(fi.ModTime()) < staleAfter {
+		if fi, err := os.Lstat(p); err != nil || !fi.IsDir() {
 			continue
 		}
 		release, held, err := lockDir(p)

@@ -8,6 +8,9 @@ import (
 	"syscall"
 )
 
+// haveLocks says whether lockDir takes real locks here.
+const haveLocks = true
+
 // lockDir takes an exclusive advisory lock (flock) on directory dir, held
 // until release is called or the process ends in any way, kill -9
 // included: the kernel drops the lock with the process. held reports that

@@ -169,8 +169,8 @@ func snapshot(t *testing.T, dir string) map[string]string {
 	return out
 }
 
-// agedDir makes a directory (with one file) last changed two staleAfter
-// ago, as a run killed that long ago leaves it.
+// agedDir makes a directory (with one file) last changed an hour ago, as
+// a run killed then leaves it.
 func agedDir(t *testing.T, p string, withManifest bool, manifestTime time.Time) {
 	t.Helper()
 	require.NoError(t, os.MkdirAll(filepath.Join(p, "pdf"), 0o755))
@@ -180,13 +180,14 @@ func agedDir(t *testing.T, p string, withManifest bool, manifestTime time.Time) 
 		require.NoError(t, os.WriteFile(m, []byte(`{"generator":"termwright","files":[{"path":"pdf/half.pdf"}]}`), 0o644))
 		require.NoError(t, os.Chtimes(m, manifestTime, manifestTime))
 	}
-	old := time.Now().Add(-2 * staleAfter)
+	old := time.Now().Add(-time.Hour)
 	require.NoError(t, os.Chtimes(p, old, old))
 }
 
 // TestPublishCleansStaleLeftovers: working directories of killed runs
-// (.out.partial-*, and .old ones moved aside) are removed; a fresh one, one
-// a live run holds locked, and anything not named as ours are kept.
+// (.out.partial-*, and .old ones moved aside, however recent: no live run
+// holds their lock) are removed; one a live run holds locked, and anything
+// not named as ours, are kept.
 func TestPublishCleansStaleLeftovers(t *testing.T) {
 	term, s := demoTerm()
 	parent := t.TempDir()
@@ -196,7 +197,7 @@ func TestPublishCleansStaleLeftovers(t *testing.T) {
 	agedDir(t, at(".out.partial-444"), false, time.Time{})
 	agedDir(t, at(".other.partial-555"), false, time.Time{})
 	agedDir(t, at("out.partial-666"), false, time.Time{})
-	require.NoError(t, os.Mkdir(at(".out.partial-333"), 0o755)) // just created by a live run
+	require.NoError(t, os.Mkdir(at(".out.partial-333"), 0o755)) // a run killed just now
 	release, held, err := lockDir(at(".out.partial-444"))
 	require.NoError(t, err)
 	require.False(t, held)
@@ -204,7 +205,7 @@ func TestPublishCleansStaleLeftovers(t *testing.T) {
 
 	_, err = Publish(at("out"), term, s, Options{Generated: fixedClock})
 	require.NoError(t, err)
-	assertNoLeftovers(t, parent, "out", ".out.partial-333", ".out.partial-444", ".other.partial-555", "out.partial-666")
+	assertNoLeftovers(t, parent, "out", ".out.partial-444", ".other.partial-555", "out.partial-666")
 }
 
 // TestPublishRecoversAnInterruptedSwap: a run killed between the two
