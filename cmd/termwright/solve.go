@@ -50,12 +50,19 @@ func newSolveCmd(e *env) *cobra.Command {
 			"errors. With --publish DIR it also writes every PDF, workbook and calendar file\n" +
 			"into DIR (see termwright publish).\n\n" +
 			"The search stops when the best timetable is proven, when it stops improving, at\n" +
-			"--time-limit, or on Ctrl-C; the best timetable found so far is written. With\n" +
-			"--keep LAST.xlsx it re-plans after late edits while moving as few meetings of\n" +
-			"LAST as it can, and lists every meeting that moved and who must be told.\n\n" +
-			"Exit status: 0 when a timetable was written, 2 when no timetable exists (run\n" +
-			"termwright explain TERM to see why), 1 on errors or when the time limit or\n" +
-			"Ctrl-C ends the search before the first timetable.",
+			"--time-limit, or on Ctrl-C, SIGTERM or SIGHUP (a second one stops at once); the\n" +
+			"best timetable found so far is checked and written. -o is checked before the\n" +
+			"search (a new .xlsx name in a folder you may write to, outside the term's own\n" +
+			"files; --force replaces only a regular file) and created at the end only if it\n" +
+			"still does not exist (otherwise the timetable goes to NAME-2.xlsx and solve says\n" +
+			"so). Progress goes to standard error: one line redrawn on a terminal, a plain\n" +
+			"line every few seconds otherwise. With --keep LAST.xlsx it re-plans after late\n" +
+			"edits while moving as few meetings of LAST as it can, and lists every meeting\n" +
+			"that moved and who must be told.\n\n" +
+			"Exit status: 0 when a timetable was written, 2 when no timetable exists (found\n" +
+			"by the search, or at once by the term check's counting; run termwright explain\n" +
+			"TERM to see why), 1 on errors or when the time limit or a stop signal ends the\n" +
+			"search before the first timetable.",
 		Args: cobra.ExactArgs(1),
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runSolve(cmd.Context(), e, o, args[0]) }),
 	}
