@@ -133,7 +133,7 @@ func logicInputError(e *env, err error, what string) error {
 	for _, se := range list {
 		fmt.Fprintln(e.stderr, se.Error())
 	}
-	return withCode(exitError, fmt.Sprintf("%d error%s in %s; nothing was done", len(list), logicPlural(len(list)), what))
+	return wrapMsg(exitError, fmt.Sprintf("%d error%s in %s; nothing was done", len(list), logicPlural(len(list)), what), err)
 }
 
 func logicPlural(n int) string {

@@ -132,6 +132,21 @@ func withCode(code int, msg string) error {
 // err's chain.
 func wrapCode(code int, err error) error { return &exitCodeError{code: code, err: err} }
 
+// wrapMsg makes an error that exits with code and prints msg in place of
+// err's own text (already printed in detail), keeping err's chain.
+func wrapMsg(code int, msg string, err error) error {
+	return &exitCodeError{code: code, err: &summaryError{msg: msg, err: err}}
+}
+
+// summaryError reads as msg and unwraps to err.
+type summaryError struct {
+	msg string
+	err error
+}
+
+func (s *summaryError) Error() string { return s.msg }
+func (s *summaryError) Unwrap() error { return s.err }
+
 // failf is wrapCode of fmt.Errorf: a %w verb keeps the cause's chain.
 func failf(code int, format string, args ...any) error {
 	return &exitCodeError{code: code, err: fmt.Errorf(format, args...)}

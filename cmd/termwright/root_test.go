@@ -15,6 +15,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/samples"
+	"github.com/termwright/termwright/solver"
 )
 
 // parseOnly runs a command line with the parsing hook set and returns the
@@ -125,6 +126,24 @@ func TestErrorsKeepTheirChain(t *testing.T) {
 			assert.Equal(t, exitError, ce.code)
 		})
 	}
+}
+
+// TestSyntaxErrorsKeepTheirList: logic solve prints each syntax error on
+// its own line and a one-line summary, and the returned error still holds
+// the engine's error list.
+func TestSyntaxErrorsKeepTheirList(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "bad.lp")
+	require.NoError(t, os.WriteFile(path, []byte("a :- .\nb c.\n"), 0o644))
+	e, _, errb := checkEnv()
+	root := newRoot(e)
+	root.SetArgs([]string{"logic", "solve", path})
+	err := root.Execute()
+	require.Error(t, err)
+	var list solver.SyntaxErrors
+	require.True(t, errors.As(err, &list), "chain lost: %v", err)
+	assert.NotEmpty(t, list)
+	assert.Contains(t, err.Error(), "in the program; nothing was done")
+	assert.Contains(t, errb.String(), path)
 }
 
 // TestVersion reads the version from the build information, with the
