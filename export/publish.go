@@ -273,14 +273,18 @@ func writeManifest(dir string, m Manifest) error {
 }
 
 // checkTarget accepts a missing or empty dir, and with force a directory
-// holding only the files its manifest lists.
+// holding only the files its manifest lists; never a symbolic link.
 func checkTarget(dir string, force bool) error {
-	fi, err := os.Stat(dir)
+	fi, err := os.Lstat(dir)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil
 	}
 	if err != nil {
 		return fmt.Errorf("export: %w", err)
+	}
+	if fi.Mode()&fs.ModeSymlink != 0 {
+		// Swapping a new folder in would replace the link itself.
+		return fmt.Errorf("export: %s is a symbolic link; give the folder it points to, or a new folder name", dir)
 	}
 	if !fi.IsDir() {
 		return fmt.Errorf("export: %s exists and is not a directory; choose a new directory name", dir)

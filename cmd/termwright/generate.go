@@ -107,11 +107,9 @@ func runGenerate(e *env, o *generateOptions, out string) error {
 }
 
 // generateRefuseExisting fails when an output already exists and --force
-// was not given, naming the file.
+// was not given, naming the file, and on anything but a regular file at an
+// output's name even with --force.
 func generateRefuseExisting(out string, o *generateOptions) error {
-	if o.force {
-		return nil
-	}
 	var paths []string
 	if out != "" && out != "-" {
 		paths = append(paths, out)
@@ -125,8 +123,13 @@ func generateRefuseExisting(out string, o *generateOptions) error {
 		}
 	}
 	for _, p := range paths {
-		if _, err := os.Stat(p); err == nil {
-			return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", p))
+		if fi, err := os.Lstat(p); err == nil {
+			if err := refuseNonRegular(p, fi); err != nil {
+				return err
+			}
+			if !o.force {
+				return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", p))
+			}
 		} else if !errors.Is(err, fs.ErrNotExist) {
 			return failf(exitError, "cannot use %s: %w", p, err)
 		}

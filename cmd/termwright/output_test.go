@@ -242,3 +242,41 @@ func TestSolveSecondRunToSameOutput(t *testing.T) {
 	require.NoError(t, err)
 	assert.Equal(t, first, second)
 }
+
+// TestGenerateAndPublishRefuseLinks: generate --force will not replace a
+// symbolic link among its CSV files, and publish will not swap a folder in
+// over a symbolic link to an earlier publication, nor publish inside the
+// term's own folder.
+func TestGenerateAndPublishRefuseLinks(t *testing.T) {
+	dir := t.TempDir()
+	csvDir := filepath.Join(dir, "csv")
+	require.NoError(t, os.Mkdir(csvDir, 0o755))
+	target := filepath.Join(dir, "mine.csv")
+	require.NoError(t, os.WriteFile(target, []byte("mine"), 0o644))
+	require.NoError(t, os.Symlink(target, filepath.Join(csvDir, "Rooms.csv")))
+	e, _, errb := checkEnv()
+	assert.Equal(t, exitError, run([]string{"generate", "--csv", csvDir, "--force", "--sections", "10"}, e))
+	assert.Contains(t, errb.String(), "Rooms.csv is a symbolic link, not a regular file")
+	data, err := os.ReadFile(target)
+	require.NoError(t, err)
+	assert.Equal(t, "mine", string(data))
+
+	termPath, ttPath := publishFiles(t, dir, nil)
+	real := filepath.Join(dir, "real")
+	e, _, errb = checkEnv()
+	require.Equal(t, exitOK, run([]string{"publish", termPath, ttPath, "-o", real}, e), errb.String())
+	link := filepath.Join(dir, "link")
+	require.NoError(t, os.Symlink(real, link))
+	e, _, errb = checkEnv()
+	assert.Equal(t, exitError, run([]string{"publish", termPath, ttPath, "-o", link, "--force"}, e))
+	assert.Contains(t, errb.String(), "is a symbolic link")
+	fi, err := os.Lstat(link)
+	require.NoError(t, err)
+	assert.Equal(t, fs.ModeSymlink, fi.Mode().Type(), "the link is still a link")
+
+	e, _, _ = checkEnv()
+	require.Equal(t, exitOK, run([]string{"new", filepath.Join(dir, "T") + "/"}, e))
+	e, _, errb = checkEnv()
+	assert.Equal(t, exitError, run([]string{"publish", filepath.Join(dir, "T"), ttPath, "-o", filepath.Join(dir, "T", "out")}, e))
+	assert.Contains(t, errb.String(), "is inside the term folder")
+}

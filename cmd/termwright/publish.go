@@ -51,6 +51,9 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 	if o.out == "" {
 		return withCode(exitError, "publish needs an output directory: add -o DIR")
 	}
+	if err := checkPublishDir(o.out, o.force, termPath); err != nil {
+		return err
+	}
 	term, problems, err := timetable.Load(termPath)
 	if err != nil {
 		return wrapCode(exitError, err)
