@@ -11,13 +11,15 @@ import (
 // CSVColumns are the columns of WriteTimetableCSV: exactly the master
 // Timetable sheet's columns (timetable.TimetableColumns), so that the CSV
 // reads back with timetable.ReadSchedule. WriteTimetableJSON carries the
-// rest (building, staff names, weeks).
+// rest (building, week numbers).
 var CSVColumns = append([]string(nil), timetable.TimetableColumns...)
 
 // WriteTimetableCSV writes the master timetable as RFC 4180 CSV (UTF-8,
 // CRLF line ends, header row CSVColumns), one row per meeting sorted by
 // day, start time, section and meeting number; cells as on the Timetable
-// sheet.
+// sheet, except that a cell a spreadsheet would take for a formula gets a
+// single quote in front (timetable.SafeCSVCell, OWASP "CSV Injection");
+// timetable.ReadSchedule takes it off again.
 func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
 	v, err := newView(t, s)
 	if err != nil {
@@ -33,7 +35,11 @@ func writeCSV(w io.Writer, v *view) error {
 		return err
 	}
 	for i := range v.meetings {
-		if err := cw.Write(v.masterRow(&v.meetings[i])); err != nil {
+		row := v.masterRow(&v.meetings[i])
+		for k, c := range row {
+			row[k] = timetable.SafeCSVCell(c)
+		}
+		if err := cw.Write(row); err != nil {
 			return err
 		}
 	}

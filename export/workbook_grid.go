@@ -88,6 +88,9 @@ func (wb *workbook) grid(sheet string, who Subject) error {
 			return err
 		}
 	}
+	if err := wb.pageSetup(sheet, fmt.Sprintf("$%d:$%d", gridHeaderRow, gridHeaderRow), "$A:$A"); err != nil {
+		return err
+	}
 	return f.SetPanes(sheet, &excelize.Panes{Freeze: true, XSplit: 1, YSplit: gridHeaderRow,
 		TopLeftCell: gridCell(0, 0), ActivePane: "bottomRight"})
 }

@@ -55,7 +55,7 @@ func TestWorkbookMaster(t *testing.T) {
 		got := append(rows[i+1], make([]string, len(want))...)[:len(want)] // GetRows drops trailing blanks
 		assert.Equal(t, want, got)
 	}
-	assert.Equal(t, []string{"CS103", "Online Seminar", "1", "Fri", "12:00", "13:00", "", "S1, S2", "C1"}, rows[len(rows)-1])
+	assert.Equal(t, []string{"CS103", "Online Seminar", "1", "Fri", "12:00", "13:00", "", "S1, S2", "C1", "all", "Zoë Ó Briain, Łukasz Wróbel"}, rows[len(rows)-1])
 	panes, err := f.GetPanes(timetable.TimetableSheet)
 	require.NoError(t, err)
 	assert.True(t, panes.Freeze)
