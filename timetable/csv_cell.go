@@ -20,7 +20,7 @@ func csvTrigger(c byte) bool {
 }
 
 // csvGuarded reports whether s is quotes followed by a formula trigger
-// ("'=x", "''@x"): the form SafeCSVCell writes for a dangerous cell.
+// ("'=x", "”@x"): the form SafeCSVCell writes for a dangerous cell.
 func csvGuarded(s string) bool {
 	i := 0
 	for i < len(s) && s[i] == '\'' {

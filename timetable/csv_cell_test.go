@@ -14,7 +14,7 @@ func TestSafeCSVCell(t *testing.T) {
 		{"", ""},
 		{"Organic Chemistry", "Organic Chemistry"},
 		{`=HYPERLINK("http://evil.example","x")`, `'=HYPERLINK("http://evil.example","x")`}, // OWASP
-		{"@SUM(A1)", "'@SUM(A1)"},                                                       // OWASP
+		{"@SUM(A1)", "'@SUM(A1)"},                                                           // OWASP
 		{"+1+2", "'+1+2"},
 		{"-2+3", "'-2+3"}, // a spreadsheet evaluates this: not a plain number
 		{"\tx", "'\tx"},
@@ -25,8 +25,8 @@ func TestSafeCSVCell(t *testing.T) {
 		{"-0.25", "-0.25"},
 		{"-5.", "'-5."},
 		{"5", "5"},
-		{"a=b", "a=b"},   // only the first character matters
-		{"'=x", "''=x"},  // looks guarded already: one more quote, so it reads back
+		{"a=b", "a=b"},  // only the first character matters
+		{"'=x", "''=x"}, // looks guarded already: one more quote, so it reads back
 		{"''@x", "'''@x"},
 		{"'quoted'", "'quoted'"},
 		{"'", "'"},
