@@ -19,8 +19,9 @@ func csvTrigger(c byte) bool {
 	return false
 }
 
-// csvGuarded reports whether s is quotes followed by a formula trigger
-// ("'=x", "”@x"): the form SafeCSVCell writes for a dangerous cell.
+// csvGuarded reports whether s is one or more single quotes followed by a
+// formula trigger, such as '=x: the form SafeCSVCell writes for a
+// dangerous cell.
 func csvGuarded(s string) bool {
 	i := 0
 	for i < len(s) && s[i] == '\'' {
