@@ -82,8 +82,9 @@
 // DESCRIPTION section and meeting number, title, staff names, cohorts and
 // weeks. UID is a hash of term name, section, meeting number and subject,
 // so publishing again (even with the meeting moved) updates the event
-// instead of adding one; SEQUENCE is the number of minutes from 2020 to
-// Options.Generated, so a later publication always wins; DTSTAMP is
+// instead of adding one; SEQUENCE is the number of seconds from 2020 to
+// Options.Generated, so a later publication always wins (two in the same
+// second share it); DTSTAMP is
 // Options.Generated. Lines end in CRLF and are folded at 75 octets, never
 // inside a UTF-8 sequence (§3.1); TEXT values are escaped (§3.3.11). A
 // calendar file that was imported (rather than subscribed to) keeps events

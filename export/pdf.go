@@ -26,7 +26,7 @@ func paperSize(p string) (string, error) {
 	case "letter", "us letter":
 		return "Letter", nil
 	}
-	return "", fmt.Errorf("export: paper size %q is not supported; use A4 or Letter", p)
+	return "", fmt.Errorf("the paper size %q is not supported; choose A4 or Letter", p)
 }
 
 // WritePersonPDF writes one landscape page with who's weekly grid: days
@@ -124,7 +124,7 @@ func (v *view) newPDF(opt Options, title string) (*pdfDoc, error) {
 // output finishes the document.
 func (d *pdfDoc) output(w io.Writer) error {
 	if err := d.f.Output(w); err != nil {
-		return fmt.Errorf("export: writing PDF: %w", err)
+		return fmt.Errorf("the PDF could not be written (%w); check that there is room on the disk and try again", err)
 	}
 	return nil
 }

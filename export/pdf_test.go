@@ -67,7 +67,7 @@ func TestPDFStructure(t *testing.T) {
 func TestPDFPaper(t *testing.T) {
 	term, s := demoTerm()
 	err := WritePersonPDF(&bytes.Buffer{}, term, s, Subject{timetable.WhoStaff, "S1"}, Options{Paper: "A3"})
-	assert.ErrorContains(t, err, "use A4 or Letter")
+	assert.ErrorContains(t, err, "choose A4 or Letter")
 	err = WritePersonPDF(&bytes.Buffer{}, term, s, Subject{timetable.WhoStaff, "nobody"}, Options{})
 	assert.ErrorContains(t, err, `"nobody"`)
 }

@@ -65,15 +65,15 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 	names := SheetNames(wanted, timetable.TimetableSheet, LoadSheet)
 	for i, who := range subjects {
 		if err := wb.grid(names[i], who); err != nil {
-			return fmt.Errorf("export: sheet %q: %w", names[i], err)
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", names[i], err)
 		}
 	}
 	if err := wb.load(); err != nil {
-		return fmt.Errorf("export: sheet %q: %w", LoadSheet, err)
+		return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", LoadSheet, err)
 	}
 	for i, x := range opt.Extra {
 		if err := wb.extra(names[len(subjects)+i], x); err != nil {
-			return fmt.Errorf("export: sheet %q: %w", names[len(subjects)+i], err)
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", names[len(subjects)+i], err)
 		}
 	}
 	gen := opt.generated().UTC().Format("2006-01-02T15:04:05Z")
