@@ -56,14 +56,17 @@ type TimetableJSON struct {
 
 // TermJSON describes the term in TimetableJSON.
 type TermJSON struct {
-	Name           string   `json:"name"`
-	FirstDay       string   `json:"first_day"` // YYYY-MM-DD
-	LastDay        string   `json:"last_day"`  // YYYY-MM-DD
-	TimeZone       string   `json:"time_zone"` // IANA name
-	TeachingWeeks  int      `json:"teaching_weeks"`
-	Holidays       []string `json:"holidays"` // YYYY-MM-DD
-	Days           []string `json:"days"`     // grid days, "Mon" first
-	PeriodsPerWeek int      `json:"periods_per_week"`
+	Name          string `json:"name"`
+	FirstDay      string `json:"first_day"`      // YYYY-MM-DD
+	LastDay       string `json:"last_day"`       // YYYY-MM-DD
+	TimeZone      string `json:"time_zone"`      // IANA name
+	TeachingWeeks int    `json:"teaching_weeks"` // weeks numbered 1..n from the first day's week to the last day's
+	// WeeksWithTeaching counts the numbered weeks with at least one day of
+	// teaching (a week of holidays does not count).
+	WeeksWithTeaching int      `json:"weeks_with_teaching"`
+	Holidays          []string `json:"holidays"` // YYYY-MM-DD
+	Days              []string `json:"days"`     // grid days, "Mon" first
+	PeriodsPerWeek    int      `json:"periods_per_week"`
 }
 
 // MeetingJSON is one meeting in TimetableJSON; meetings are sorted by day,
@@ -96,12 +99,13 @@ func WriteTimetableJSON(w io.Writer, t *timetable.Term, s *timetable.Schedule) e
 func writeJSON(w io.Writer, v *view) error {
 	t := v.t
 	doc := TimetableJSON{Term: TermJSON{
-		Name:           t.Name,
-		TimeZone:       t.TimeZone,
-		TeachingWeeks:  t.TeachingWeeks(),
-		Holidays:       []string{},
-		Days:           []string{},
-		PeriodsPerWeek: len(t.Periods),
+		Name:              t.Name,
+		TimeZone:          t.TimeZone,
+		TeachingWeeks:     t.TeachingWeeks(),
+		WeeksWithTeaching: v.weeksWithTeaching(),
+		Holidays:          []string{},
+		Days:              []string{},
+		PeriodsPerWeek:    len(t.Periods),
 	}, Meetings: make([]MeetingJSON, 0, len(v.meetings))}
 	if !t.FirstDay.IsZero() {
 		doc.Term.FirstDay = t.FirstDay.Format("2006-01-02")

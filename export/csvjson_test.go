@@ -99,6 +99,7 @@ func TestTimetableJSON(t *testing.T) {
 	require.Len(t, doc.Meetings, len(s.Placements))
 	assert.Equal(t, "2027-09-13", doc.Term.FirstDay)
 	assert.Equal(t, 13, doc.Term.TeachingWeeks)
+	assert.Equal(t, 13, doc.Term.WeeksWithTeaching) // one holiday on a Monday leaves its week with teaching
 	ch201 := doc.Meetings[0]
 	for _, m := range doc.Meetings {
 		if m.Section == "CH201" {

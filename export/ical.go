@@ -5,8 +5,8 @@ import (
 	"encoding/hex"
 	"errors"
 	"fmt"
-	"math"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 	"time"
@@ -210,8 +210,8 @@ func (v *view) describe(m *meeting) string {
 	if m.room == nil && m.sec.NoRoom {
 		lines = append(lines, "No room: online or off-site")
 	}
-	if wk := v.weeks(m.sec); wk != "" {
-		lines = append(lines, "Teaching weeks: "+strings.TrimPrefix(wk, "wks "))
+	if wk := v.weekRanges(m.sec); wk != "" {
+		lines = append(lines, "Teaching weeks: "+wk)
 	}
 	return strings.Join(lines, "\n")
 }

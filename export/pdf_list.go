@@ -57,18 +57,23 @@ func (d *pdfDoc) cover(listPages int) {
 		{"Staff", fmt.Sprint(len(t.Staff))},
 		{"Rooms", fmt.Sprint(len(t.Rooms))},
 		{"Cohorts", fmt.Sprint(len(t.Cohorts))},
-		{"Teaching weeks", fmt.Sprint(t.TeachingWeeks())},
+		{"Teaching weeks", v.teachingWeeksValue()},
 		{"Time zone", t.TimeZone},
 	}
-	if len(t.Holidays) > 0 {
-		facts = append(facts, [2]string{"No teaching", holidayText(t.Holidays)})
+	if hs := v.holidayTexts(); len(hs) > 0 {
+		facts = append(facts, [2]string{"No teaching", strings.Join(hs, ", ")})
 	}
+	valueW := d.w/2 - pdfMargin - 60
 	for _, fct := range facts {
 		d.font("", 10)
 		d.text(pdfMargin+10, y, fct[0])
 		d.font("B", 10)
-		d.text(pdfMargin+60, y, d.fit(fct[1], d.w/2-pdfMargin-60))
-		y += 6
+		// Long values (many days without teaching) wrap over lines.
+		for _, l := range d.wrap(fct[1], valueW, 8) {
+			d.text(pdfMargin+60, y, l)
+			y += 5
+		}
+		y++
 	}
 	staffPage := 2 + listPages
 	contents := [][2]string{
@@ -138,7 +143,7 @@ func (d *pdfDoc) masterList() {
 			f.SetLineWidth(0.5)
 			f.Line(pdfMargin, y, pdfMargin+width, y)
 		}
-		weeks := strings.TrimPrefix(v.weeks(m.sec), "wks ")
+		weeks := v.weekRanges(m.sec)
 		if weeks == "" {
 			weeks = "all"
 		}

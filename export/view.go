@@ -336,14 +336,31 @@ func (v *view) staffNames(sec *timetable.Section) []string {
 	return out
 }
 
-// weeks is the "wks 1-6, 9" label of a section's weeks, or "" when the
-// section meets every teaching week.
+// weeks is the label of a section's weeks on grids: "wks 1-6, 9", "odd
+// weeks", "even weeks", or "" when the section meets every teaching week.
 func (v *view) weeks(sec *timetable.Section) string {
+	switch r := v.weekRanges(sec); r {
+	case "":
+		return ""
+	case "odd", "even":
+		return r + " weeks"
+	default:
+		return "wks " + r
+	}
+}
+
+// weekRanges is a section's weeks as lists and tables show them: "1-6, 9",
+// "odd" or "even" (as on the Sections sheet), or "" when the section meets
+// every teaching week.
+func (v *view) weekRanges(sec *timetable.Section) string {
 	w := sec.Weeks
 	if w == 0 || w&v.allWeeks == v.allWeeks {
 		return ""
 	}
-	return "wks " + weekList(w&v.allWeeks)
+	if t := v.t.WeeksText(w & v.allWeeks); t == "odd" || t == "even" {
+		return t
+	}
+	return weekList(w & v.allWeeks)
 }
 
 // weekList formats a week set as ranges: "1-6, 9, 11-12".
