@@ -195,5 +195,9 @@ func (wb *workbook) extra(name string, x ExtraSheet) error {
 			return err
 		}
 	}
-	return nil
+	titles := ""
+	if len(x.Header) > 0 {
+		titles = "$1:$1"
+	}
+	return wb.pageSetup(name, titles, "")
 }
