@@ -14,8 +14,8 @@ type listCol struct {
 }
 
 var listCols = []listCol{
-	{"Day", 0.045}, {"Time", 0.075}, {"Section", 0.08}, {"Title", 0.27}, {"Room", 0.14},
-	{"Staff", 0.18}, {"Cohorts", 0.12}, {"Weeks", 0.09},
+	{"Day", 0.045}, {"Time", 0.075}, {"Section", 0.08}, {"Title", 0.29}, {"Room", 0.13},
+	{"Staff", 0.21}, {"Cohorts", 0.10}, {"Weeks", 0.07},
 }
 
 // Master list geometry (mm).
@@ -161,7 +161,12 @@ func (d *pdfDoc) masterList() {
 			if k == 0 && !newDay && i%per != 0 {
 				continue // the day shows once per day and page
 			}
-			d.font(style, 7.5)
+			// A long cell is set smaller before it is cut with "…".
+			size := 7.5
+			for size > 6 && d.widthAt(style, size, c) > xs[k+1]-xs[k]-2 {
+				size -= 0.5
+			}
+			d.font(style, size)
 			d.text(xs[k]+1, y+3.3, d.fit(c, xs[k+1]-xs[k]-2))
 		}
 		y += listRowH
@@ -170,4 +175,10 @@ func (d *pdfDoc) masterList() {
 		d.page("")
 		d.header("Master list", "No meetings")
 	}
+}
+
+// widthAt is the width of s in style at size points.
+func (d *pdfDoc) widthAt(style string, size float64, s string) float64 {
+	d.font(style, size)
+	return d.width(s)
 }
