@@ -14,31 +14,31 @@
 // Weekly grid PDF (one landscape page, A4 or US Letter): a header with the
 // person's, room's or cohort's name and details on the left and the term's
 // name, dates, number of teaching weeks (weeks with at least one day of
-// teaching: a week of holidays does not count) and the days without
-// teaching as ranges ("25 Oct – 1 Nov, 8 Dec", runs joined over weekends;
-// as many as fit, then "and n more") on the right; below it
-// a grid with the days as columns and the term's distinct period times as
-// rows, each row labelled with its start and end. A heavy rule marks a
-// break between periods (such as lunch); a day without a period at that
-// time is hatched; the subject's unavailable times from the Unavailable
-// sheet are cross-hatched ("Unavailable: reason") or, for preferences,
-// light grey ("Preferably free: reason"). Each meeting is one framed block over all the rows it
-// occupies, with a dark bar on its left edge, holding the section (bold)
-// and its times, then its weeks when it does not meet every week, the title
+// teaching: a week of holidays does not count) and the days without teaching
+// as ranges ("25 Oct – 1 Nov, 8 Dec", runs joined over weekends; as many as
+// fit, then "and n more") on the right; below it a grid with the days as
+// columns and the term's distinct period times as rows, each row labelled
+// with its start and end. A heavy rule marks a break between periods (such
+// as lunch); a day without a period at that time is hatched; the subject's
+// unavailable times from the Unavailable sheet are cross-hatched
+// ("Unavailable: reason") or, for preferences, light grey ("Preferably free:
+// reason"). Each meeting is one framed block over all the rows it occupies,
+// with a dark bar on its left edge, holding the section (bold) and its
+// times, then its weeks when it does not meet every week, the title
 // (wrapped, cut with "…" only when there is no room), the room and building
 // (or "online / off-site"; left out on that room's own page) and the staff
 // names (wrapped between names; left out on the page of a section's only
 // staff member). When a block has too few lines for all of it, the weeks
-// move into the section's line in place of the times. A section meeting only in
-// some weeks has a white block with a dashed frame and a lighter bar;
+// move into the section's line in place of the times. A section meeting only
+// in some weeks has a white block with a dashed frame and a lighter bar;
 // sections in disjoint weeks that share the same periods are stacked in the
 // shared area, and meetings that overlap only partly share the column side
-// by side. The page uses one text size where possible, the largest at
-// which every block shows all its text (not below 6.5 pt). Only greys and
-// line styles carry meaning, so it prints in black and white. The footer
-// gives the generation time in the term's time zone and "Page n of m";
-// room pages add a caution that the posted legal occupancy and local codes
-// take precedence over the seat counts entered.
+// by side. The page uses one text size where possible, the largest at which
+// every block shows all its text (not below 6.5 pt). Only greys and line
+// styles carry meaning, so it prints in black and white. The footer gives
+// the generation time in the term's time zone and "Page n of m"; room pages
+// add a caution that the posted legal occupancy and local codes take
+// precedence over the seat counts entered.
 //
 // Combined PDF: a cover page (term, counts, teaching weeks with their
 // numbering explained when a week has no teaching, every day without
