@@ -220,6 +220,22 @@ func expectedGrid(v *view, who Subject) [][]string {
 		cells[0] = row.from.String() + "–" + row.to.String()
 		rows[gridHeaderRow+r] = cells
 	}
+	// the subject's unavailable times from the Unavailable sheet, labelled at the top of each run
+	for _, u := range v.t.Unavailable {
+		if u.Kind != who.Kind || u.Who != who.ID {
+			continue
+		}
+		label := "Preferably free"
+		if u.Hard {
+			label = "Unavailable"
+		}
+		for r, row := range v.rows {
+			if row.from < u.To && u.From < row.to {
+				rows[gridHeaderRow+r][1+v.dayCol[u.Day]] = label + ": " + u.Reason
+				break
+			}
+		}
+	}
 	for _, cl := range v.clusters(items) {
 		var parts []string
 		for _, i := range cl.items {

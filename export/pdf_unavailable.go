@@ -62,13 +62,7 @@ func (d *pdfDoc) unavailable(g gridGeo, who Subject) {
 			for end+1 < len(v.rows) && level[end+1][c] == l && reason[end+1][c] == reason[r][c] {
 				end++
 			}
-			label := "Preferably free"
-			if l == unavailHard {
-				label = "Unavailable"
-			}
-			if reason[r][c] != "" {
-				label += ": " + reason[r][c]
-			}
+			label := unavailableLabel(l, reason[r][c])
 			f.SetFillColor(240, 240, 240)
 			for k := r; k <= end; k++ {
 				if !v.has[k][c] {
@@ -105,4 +99,17 @@ func (d *pdfDoc) crossHatch(x, y, w, h float64) {
 		f.Line(x+s, y, x+s+h, y+h)
 	}
 	f.ClipEnd()
+}
+
+// unavailableLabel is the text on a run of unavailable cells:
+// "Unavailable: reason" or "Preferably free: reason".
+func unavailableLabel(level int, reason string) string {
+	label := "Preferably free"
+	if level == unavailHard {
+		label = "Unavailable"
+	}
+	if reason != "" {
+		label += ": " + reason
+	}
+	return label
 }
