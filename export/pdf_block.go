@@ -6,10 +6,10 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// blockText is what a grid block can show about one meeting on one
+// blockInfo is what a grid block can show about one meeting on one
 // subject's page. Facts the page already gives are left out: the room on
 // that room's page, the staff line on a page of its only staff member.
-type blockText struct {
+type blockInfo struct {
 	m     *meeting
 	weeks string // "wks 1-6", or "" when the section meets every week
 	title string
@@ -18,8 +18,8 @@ type blockText struct {
 }
 
 // blockContent gathers the text of meeting m for who's page.
-func (v *view) blockContent(m *meeting, who Subject) blockText {
-	b := blockText{m: m, weeks: v.weeks(m.sec), title: m.sec.Title, room: roomText(m.room)}
+func (v *view) blockContent(m *meeting, who Subject) blockInfo {
+	b := blockInfo{m: m, weeks: v.weeks(m.sec), title: m.sec.Title, room: roomText(m.room)}
 	if m.room == nil && m.sec.NoRoom {
 		b.room = "online / off-site"
 	}
@@ -58,7 +58,7 @@ func lineHeight(size float64) float64 { return size * ptToMM * 1.2 }
 // which all of it fits with the weeks moved up into the section's line;
 // else the largest giving at least four lines (three, two); else the
 // smallest.
-func (d *pdfDoc) blockSize(b blockText, w, h float64) float64 {
+func (d *pdfDoc) blockSize(b blockInfo, w, h float64) float64 {
 	for _, compact := range []bool{false, true} {
 		for _, s := range blockSizes {
 			full, short := d.blockNeed(b, s, w)
@@ -84,7 +84,7 @@ func (d *pdfDoc) blockSize(b blockText, w, h float64) float64 {
 // blockNeed counts the lines b takes in full at size points in width w:
 // with the weeks on a line of their own (full) and in the section's line
 // (short).
-func (d *pdfDoc) blockNeed(b blockText, size, w float64) (full, short int) {
+func (d *pdfDoc) blockNeed(b blockInfo, size, w float64) (full, short int) {
 	d.font("", size)
 	n := 1 + len(d.wrap(b.title, w, 12)) + len(d.wrapList(b.staff, w, 6))
 	if b.room != "" {
@@ -102,7 +102,7 @@ func (d *pdfDoc) blockNeed(b blockText, size, w float64) (full, short int) {
 // section's line in place of the times (the grid rows give the times).
 // Then one line each for weeks, title, room and staff as they fit; lines
 // left over continue the title, then the staff names.
-func (d *pdfDoc) blockLines(b blockText, size, w float64, n int) []blockLine {
+func (d *pdfDoc) blockLines(b blockInfo, size, w float64, n int) []blockLine {
 	m := b.m
 	d.font("B", size)
 	id := d.fit(m.sec.ID, w)
