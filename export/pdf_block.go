@@ -86,10 +86,7 @@ func (d *pdfDoc) blockSize(b blockInfo, w, h float64) float64 {
 // (short).
 func (d *pdfDoc) blockNeed(b blockInfo, size, w float64) (full, short int) {
 	d.font("", size)
-	n := 1 + len(d.wrap(b.title, w, 12)) + len(d.wrapList(b.staff, w, 6))
-	if b.room != "" {
-		n++
-	}
+	n := 1 + len(d.wrap(b.title, w, 12)) + len(d.wrapList(b.staff, w, 6)) + len(d.wrap(b.room, w, 3))
 	if b.weeks != "" {
 		return n + 1, n
 	}
@@ -101,7 +98,7 @@ func (d *pdfDoc) blockNeed(b blockInfo, size, w float64) (full, short int) {
 // When the lines are too few for everything, the weeks move into the
 // section's line in place of the times (the grid rows give the times).
 // Then one line each for weeks, title, room and staff as they fit; lines
-// left over continue the title, then the staff names.
+// left over continue the title, then the staff names, then the room.
 func (d *pdfDoc) blockLines(b blockInfo, size, w float64, n int) []blockLine {
 	m := b.m
 	d.font("B", size)
@@ -111,6 +108,7 @@ func (d *pdfDoc) blockLines(b blockInfo, size, w float64, n int) []blockLine {
 	d.font("", size)
 	title := d.wrap(b.title, w, 12)
 	staff := d.wrapList(b.staff, w, 6)
+	room := d.wrap(b.room, w, 3)
 	full, _ := d.blockNeed(b, size, w)
 	weeksLine := b.weeks != ""
 	if weeksLine && full > n {
@@ -131,16 +129,19 @@ func (d *pdfDoc) blockLines(b blockInfo, size, w float64, n int) []blockLine {
 	}
 	nWeeks := take(weeksLine)
 	nTitle := take(len(title) > 0)
-	nRoom := take(b.room != "")
+	nRoom := take(len(room) > 0)
 	nStaff := take(len(staff) > 0)
-	if nTitle > 0 {
-		more := min(left, len(title)-1)
-		nTitle += more
-		left -= more
+	more := func(have, of int) int { // lines left over, given in turn
+		if have == 0 {
+			return 0
+		}
+		k := min(left, of-1)
+		left -= k
+		return have + k
 	}
-	if nStaff > 0 {
-		nStaff += min(left, len(staff)-1)
-	}
+	nTitle = more(nTitle, len(title))
+	nStaff = more(nStaff, len(staff))
+	nRoom = more(nRoom, len(room))
 	out := []blockLine{head}
 	if nWeeks > 0 {
 		out = append(out, blockLine{text: d.fit(b.weeks, w)})
@@ -148,8 +149,8 @@ func (d *pdfDoc) blockLines(b blockInfo, size, w float64, n int) []blockLine {
 	for _, l := range d.wrapAt(b.title, w, nTitle) {
 		out = append(out, blockLine{text: l})
 	}
-	if nRoom > 0 {
-		out = append(out, blockLine{text: d.fit(b.room, w)})
+	for _, l := range d.wrapAt(b.room, w, nRoom) {
+		out = append(out, blockLine{text: l})
 	}
 	if nStaff > 0 {
 		for _, l := range d.wrapList(b.staff, w, nStaff) {
