@@ -117,6 +117,7 @@ func readCSV(data []byte, sheet string) (*rawSheet, *Problem) {
 			return nil, &Problem{Pos: Position{Sheet: sheet}, Severity: Error,
 				Msg: "the file has more than 1000000 lines — a term file holds far fewer; delete unused rows"}
 		}
+		unguardCSVRecord(rec) // the quote SafeCSVCell put in front of formula-like cells
 		if !blankRow(rec) {
 			rs.rows = append(rs.rows, rec)
 			rs.line = append(rs.line, line)

@@ -101,6 +101,7 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 		if len(rows) >= schedMaxRows {
 			return nil, nil, schedUnreadable("%s has more than %d rows — a timetable holds far fewer", name, schedMaxRows)
 		}
+		unguardCSVRecord(rec) // the quote SafeCSVCell put in front of formula-like cells
 		if !schedBlank(rec) {
 			rows = append(rows, rec)
 			lines = append(lines, line)
