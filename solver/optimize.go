@@ -30,9 +30,9 @@ import (
 // literals are fixed true when the call returns; both kinds of constraint
 // are then removed, so later calls are unaffected.
 func (s *Solver) Optimize(ctx context.Context, onModel func(cost []int64, model []Atom)) (Status, []int64, error) {
-	assumps, ok := s.takeAssumptions()
-	if !ok {
-		return Unknown, nil, fmt.Errorf("%w: Optimize: an assumption refers to no atom of the program (it has %d atoms)", ErrProgram, s.numAtoms)
+	assumps, err := s.takeAssumptions("Optimize")
+	if err != nil {
+		return Unknown, nil, err
 	}
 	s.cancelUntil(0)
 	s.startBudget()
