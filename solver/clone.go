@@ -1,6 +1,9 @@
 package solver
 
-import "math/rand/v2"
+import (
+	"math/rand/v2"
+	"slices"
+)
 
 // Clone returns an independent copy of s at decision level 0: the same
 // clauses (original and learned), constraints, level-0 assignment,
@@ -22,51 +25,51 @@ func (s *Solver) Clone() *Solver {
 	c.pcg = &pcg
 	c.rng = rand.New(c.pcg)
 
-	c.added = cloneCap(s.added)
-	c.vals = cloneCap(s.vals)
-	c.level = cloneCap(s.level)
-	c.reason = cloneCap(s.reason)
-	c.trailPos = cloneCap(s.trailPos)
-	c.trail = cloneCap(s.trail)
-	c.trailLim = cloneCap(s.trailLim)
+	c.added = slices.Clone(s.added)
+	c.vals = slices.Clone(s.vals)
+	c.level = slices.Clone(s.level)
+	c.reason = slices.Clone(s.reason)
+	c.trailPos = slices.Clone(s.trailPos)
+	c.trail = cloneCap(s.trail) // assign appends without allocating: cap(trail) >= numVars
+	c.trailLim = slices.Clone(s.trailLim)
 
-	c.arena = cloneCap(s.arena)
-	c.watches = cloneLists(s.watches)
-	c.learnts = cloneCap(s.learnts)
+	c.arena = slices.Clone(s.arena)
+	c.watches = cloneLists(s.watches, watchSpare)
+	c.learnts = slices.Clone(s.learnts)
 
-	c.activity = cloneCap(s.activity)
-	c.order = varHeap{heap: cloneCap(s.order.heap), index: cloneCap(s.order.index), activity: &c.activity}
-	c.polarity = cloneCap(s.polarity)
+	c.activity = slices.Clone(s.activity)
+	c.order = varHeap{heap: slices.Clone(s.order.heap), index: slices.Clone(s.order.index), activity: &c.activity}
+	c.polarity = slices.Clone(s.polarity)
 
-	c.cards = cloneCap(s.cards)
-	c.cardLits = cloneCap(s.cardLits)
-	c.cardOcc = cloneLists(s.cardOcc)
-	c.sums = cloneCap(s.sums)
-	c.parts = sumParts{lits: cloneCap(s.parts.lits), w: cloneCap(s.parts.w), of: cloneCap(s.parts.of)}
-	c.sumOcc = cloneLists(s.sumOcc)
+	c.cards = slices.Clone(s.cards)
+	c.cardLits = slices.Clone(s.cardLits)
+	c.cardOcc = cloneLists(s.cardOcc, noSpare)
+	c.sums = slices.Clone(s.sums)
+	c.parts = sumParts{lits: slices.Clone(s.parts.lits), w: slices.Clone(s.parts.w), of: slices.Clone(s.parts.of)}
+	c.sumOcc = cloneLists(s.sumOcc, noSpare)
 	if s.ufs != nil {
 		c.ufs = s.ufs.clone()
 	}
 
-	c.conflict = cloneCap(s.conflict)
-	c.seen = cloneCap(s.seen)
-	c.analyzeLearnt = cloneCap(s.analyzeLearnt)
-	c.analyzeStack = cloneCap(s.analyzeStack)
-	c.analyzeToClear = cloneCap(s.analyzeToClear)
-	c.levelStamp = cloneCap(s.levelStamp)
-	c.explArena = cloneCap(s.explArena)
-	c.explIndex = cloneCap(s.explIndex)
-	c.explVars = cloneCap(s.explVars)
+	c.conflict = slices.Clone(s.conflict)
+	c.seen = slices.Clone(s.seen)
+	c.analyzeLearnt = slices.Clone(s.analyzeLearnt)
+	c.analyzeStack = slices.Clone(s.analyzeStack)
+	c.analyzeToClear = slices.Clone(s.analyzeToClear)
+	c.levelStamp = slices.Clone(s.levelStamp)
+	c.explArena = slices.Clone(s.explArena)
+	c.explIndex = slices.Clone(s.explIndex)
+	c.explVars = slices.Clone(s.explVars)
 
-	c.assumptions = cloneCap(s.assumptions)
-	c.pending = cloneCap(s.pending)
-	c.core = cloneCap(s.core)
-	c.failed = cloneCap(s.failed)
-	c.model = cloneCap(s.model)
-	c.weaks = cloneCap(s.weaks)
-	c.levels = cloneCap(s.levels)
-	c.lower = cloneCap(s.lower)
-	c.lbdQueue = cloneCap(s.lbdQueue)
+	c.assumptions = slices.Clone(s.assumptions)
+	c.pending = slices.Clone(s.pending)
+	c.core = slices.Clone(s.core)
+	c.failed = slices.Clone(s.failed)
+	c.model = slices.Clone(s.model)
+	c.weaks = slices.Clone(s.weaks)
+	c.levels = slices.Clone(s.levels)
+	c.lower = slices.Clone(s.lower)
+	c.lbdQueue = slices.Clone(s.lbdQueue)
 
 	c.stats = Stats{}
 	c.nextReduce = s.nextReduce - s.stats.Conflicts // reductions are scheduled by the conflict count
@@ -85,32 +88,42 @@ func cloneCap[T any](x []T) []T {
 }
 
 // cloneLists copies per-literal lists into one allocation, each list with
-// the spare room rebuildWatches gives (a quarter plus two).
-func cloneLists[T any](lists [][]T) [][]T {
+// spare room for spare(len) more entries; an empty list without spare room
+// stays nil.
+func cloneLists[T any](lists [][]T, spare func(int) int) [][]T {
 	total := 0
 	for _, l := range lists {
-		total += len(l) + len(l)/4 + 2
+		total += len(l) + spare(len(l))
 	}
 	buf := make([]T, total)
-	out := make([][]T, len(lists), cap(lists))
+	out := make([][]T, len(lists))
 	off := 0
 	for i, l := range lists {
-		n := len(l) + len(l)/4 + 2
-		out[i] = append(buf[off:off:off+n], l...)
+		n := len(l) + spare(len(l))
+		if n > 0 {
+			out[i] = append(buf[off:off:off+n], l...)
+		}
 		off += n
 	}
 	return out
 }
 
+// watchSpare is the spare room of a copied watch list, as rebuildWatches
+// gives it: propagation moves watches between lists.
+func watchSpare(n int) int { return n/4 + 2 }
+
+// noSpare: occurrence lists grow only when a constraint is added.
+func noSpare(int) int { return 0 }
+
 // clone copies the mutable state of the checker (sources, counters, queues,
 // scratch) and shares the support graph, which is read-only after New.
 func (u *unfounded) clone() *unfounded {
 	c := *u
-	c.unsourced = cloneCap(u.unsourced)
-	c.src = cloneCap(u.src)
-	c.todo = cloneCap(u.todo)
-	c.inTodo = cloneCap(u.inTodo)
-	c.falseQueue = cloneCap(u.falseQueue)
+	c.unsourced = slices.Clone(u.unsourced)
+	c.src = slices.Clone(u.src)
+	c.todo = slices.Clone(u.todo)
+	c.inTodo = slices.Clone(u.inTodo)
+	c.falseQueue = slices.Clone(u.falseQueue)
 	c.work = nil
 	c.inSet = make([]bool, len(u.inSet))
 	c.nodeMark = make([]bool, len(u.nodeMark))

@@ -435,7 +435,9 @@ func TestLiveUnsatisfiable(t *testing.T) {
 		assumeA bool // solve under the assumption a
 	}{
 		{"conflict/bound", &broken, func(s *solver.Solver) error { return s.AddBound(posLits([]solver.Atom{a, b}), 1, 1) }, solver.Unsatisfiable, false},
-		{"conflict/sum", &broken, func(s *solver.Solver) error { return s.AddWeightSum([]solver.Lit{solver.Pos(a)}, []int64{5}, 2, solver.Pos(b)) }, solver.Unsatisfiable, false},
+		{"conflict/sum", &broken, func(s *solver.Solver) error {
+			return s.AddWeightSum([]solver.Lit{solver.Pos(a)}, []int64{5}, 2, solver.Pos(b))
+		}, solver.Unsatisfiable, false},
 		{"conflict/clause", &broken, func(s *solver.Solver) error { return s.AddClause(solver.Pos(a)) }, solver.Unsatisfiable, false},
 		{"conflict/atoms", &broken, func(s *solver.Solver) error { s.AddAtoms(3); return nil }, solver.Unsatisfiable, false},
 		{"bound lower above size", p, func(s *solver.Solver) error { return s.AddBound([]solver.Lit{solver.Pos(a)}, 2, solver.NoBound) }, solver.Unsatisfiable, false},
@@ -507,7 +509,9 @@ func TestLiveErrors(t *testing.T) {
 		{"sum/overflow", func(s *solver.Solver) error {
 			return s.AddWeightSum(posLits([]solver.Atom{a, b}), []int64{math.MaxInt64, 1}, 0)
 		}},
-		{"sum/min weight", func(s *solver.Solver) error { return s.AddWeightSum([]solver.Lit{solver.Pos(a)}, []int64{math.MinInt64}, 0) }},
+		{"sum/min weight", func(s *solver.Solver) error {
+			return s.AddWeightSum([]solver.Lit{solver.Pos(a)}, []int64{math.MinInt64}, 0)
+		}},
 		{"sum/negative overflow", func(s *solver.Solver) error {
 			return s.AddWeightSum([]solver.Lit{solver.Pos(a)}, []int64{-2}, math.MaxInt64-1)
 		}},

@@ -15,9 +15,9 @@ type Solver struct {
 
 	numAtoms int    // the program's atoms are variables 1..numAtoms
 	added    []bool // per variable up to the last atom made by AddAtoms: true for those atoms (empty when none)
-	numVars  int  // variables are 1..numVars: atoms, body variables, auxiliaries
-	ok       bool // false once the clauses are unsatisfiable at level 0 (permanent)
-	building bool // true inside New: watches and card occurrences are indexed once at the end
+	numVars  int    // variables are 1..numVars: atoms, body variables, auxiliaries
+	ok       bool   // false once the clauses are unsatisfiable at level 0 (permanent)
+	building bool   // true inside New: watches and card occurrences are indexed once at the end
 
 	// Assignment.
 	vals     []int8   // per literal: +1 true, -1 false, 0 unassigned; vals[p] == -vals[p^1]
