@@ -70,7 +70,10 @@ func BenchmarkAddBound(b *testing.B) {
 //   - new: build a solver from the program plus the fixed starts as facts
 //     (what a caller without a live solver does);
 //   - clone: clone a built solver and add the fixed starts as unit clauses;
-//   - assume: one live solver, the fixed starts as assumptions.
+//   - assume: one live solver, the fixed starts as assumptions;
+//   - activation: one live solver, the fixed starts as clauses "not act ∨
+//     start" over a fresh atom act (AddAtoms) that is assumed for the step
+//     and retired by the clause "not act" afterwards.
 func BenchmarkNeighbourhoodStep(b *testing.B) {
 	const sections, periods, free = 600, 40, 12
 	p := benchLiveProgram()
@@ -149,6 +152,23 @@ func BenchmarkNeighbourhoodStep(b *testing.B) {
 			for b.Loop() {
 				live.Assume(fixed()...)
 				run(b, live, optimize)
+			}
+		})
+		b.Run(fmt.Sprintf("%s/activation", kind), func(b *testing.B) {
+			s := live.Clone()
+			b.ReportAllocs()
+			for b.Loop() {
+				act := Pos(s.AddAtoms(1))
+				for _, l := range fixed() {
+					if err := s.AddClause(act^1, l); err != nil {
+						b.Fatal(err)
+					}
+				}
+				s.Assume(act)
+				run(b, s, optimize)
+				if err := s.AddClause(act ^ 1); err != nil {
+					b.Fatal(err)
+				}
 			}
 		})
 	}

@@ -6,8 +6,10 @@ import (
 	"slices"
 )
 
-// Solver searches for stable models of one program. It is not safe for
-// concurrent use. Create it with New.
+// Solver searches for stable models of one program and grows between
+// searches (AddClause, AddBound, AddWeightSum, AddAtoms). It is not safe for
+// concurrent use; clones are independent of it. Create it with New or
+// Clone.
 type Solver struct {
 	opts Options    // validated tuning constants
 	pcg  *rand.PCG  // state of rng's source (copied by Clone)
