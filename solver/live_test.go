@@ -279,7 +279,8 @@ func (a liveAddition) holds(m []solver.Atom) bool {
 // over the definition (Gelfond & Lifschitz 1988), of the program with the
 // clauses and bounds added that also satisfy the sums; after clauses and
 // bounds only, it also agrees with New on that program. A clone made
-// before the last round and given the same round agrees too.
+// before the last round and given the same round agrees too, and Optimize
+// on both finds the least cost among those models (brute force).
 func TestLiveMatchesDefinition(t *testing.T) {
 	count := 600
 	if testing.Short() {
@@ -330,6 +331,25 @@ func TestLiveMatchesDefinition(t *testing.T) {
 		assertSameModels(t, what+" clone", want, liveModels(t, clone, &full, nil))
 		if len(sums) == 0 {
 			assertSameModels(t, what+" New", want, modelsOfNew(t, &full, nil))
+		}
+		var best []int64 // least cost by brute force, lexicographic from the highest level
+		for _, m := range want {
+			if c := solver.Cost(&full, m); best == nil || slices.Compare(c, best) < 0 {
+				best = c
+			}
+		}
+		for name, x := range map[string]*solver.Solver{"live": s, "clone": clone} {
+			st, cost, err := x.Optimize(context.Background(), nil)
+			require.NoError(t, err)
+			if len(want) == 0 {
+				require.Equal(t, solver.Unsatisfiable, st, "%s %s Optimize", what, name)
+				continue
+			}
+			require.Equal(t, solver.Satisfiable, st, "%s %s Optimize", what, name)
+			require.True(t, x.Proven())
+			require.Equal(t, best, cost, "%s %s: optimum by brute force", what, name)
+			require.NoError(t, solver.Verify(&full, x.Model(nil)))
+			require.Contains(t, want, x.Model([]solver.Atom{}), "%s %s: the optimum satisfies the sums", what, name)
 		}
 		if t.Failed() {
 			t.Logf("%s, program before additions:\n%s", what, programText(p))
@@ -585,6 +605,7 @@ func TestAssumptionNamingNoAtom(t *testing.T) {
 		require.Equal(t, solver.Satisfiable, s.Solve(ctx))
 		require.NoError(t, s.Err())
 		require.True(t, s.Value(x))
+		require.NoError(t, solver.Verify(p, s.Model(nil)))
 	})
 }
 
@@ -666,16 +687,19 @@ func TestCloneDiverges(t *testing.T) {
 // TestCloneConcurrent: a solver and its clones search at the same time
 // from different goroutines (run with -race to check that they share no
 // mutable state) and each finds the 92 solutions of 8 queens (OEIS
-// A000170).
+// A000170), each passing Verify.
 func TestCloneConcurrent(t *testing.T) {
-	s, err := solver.New(testprog.Queens(8), solver.DefaultOptions())
+	p := testprog.Queens(8)
+	s, err := solver.New(p, solver.DefaultOptions())
 	require.NoError(t, err)
 	require.Equal(t, solver.Satisfiable, s.Solve(context.Background()))
 	solvers := []*solver.Solver{s, s.Clone(), s.Clone(), s.Clone()}
 	counts := make(chan int, len(solvers))
 	for _, x := range solvers {
 		go func() {
-			n, _ := x.Enumerate(context.Background(), 0, nil, func([]solver.Atom) bool { return true })
+			n, _ := x.Enumerate(context.Background(), 0, nil, func(m []solver.Atom) bool {
+				return solver.Verify(p, m) == nil
+			})
 			counts <- n
 		}()
 	}
@@ -697,4 +721,30 @@ func TestCloneStats(t *testing.T) {
 	modelsOf(t, c)
 	require.Positive(t, c.Stats().Decisions)
 	require.Equal(t, before, s.Stats(), "the original did no work")
+}
+
+// TestCloneSearchesAlike: a clone made after some search repeats its
+// original's next search exactly (same status, model and work), since it
+// copies activities, phases, learned clauses and the random state; models
+// pass Verify.
+func TestCloneSearchesAlike(t *testing.T) {
+	for seed := range uint64(6) {
+		p := testprog.SATProgram(150, testprog.Random3SAT(seed, 150, 620))
+		opts := solver.DefaultOptions()
+		opts.Seed, opts.RandomFreq = int64(seed)+1, 0.02
+		s, err := solver.New(p, opts)
+		require.NoError(t, err)
+		s.Solve(context.Background())
+		require.NoError(t, s.AddClause(solver.Neg(1), solver.Neg(2)))
+		c := s.Clone()
+		before := s.Stats()
+		st := s.Solve(context.Background())
+		require.Equal(t, st, c.Solve(context.Background()), "seed %d", seed)
+		require.Equal(t, s.Model(nil), c.Model(nil), "seed %d", seed)
+		require.Equal(t, s.Stats().Since(before), c.Stats(), "seed %d", seed)
+		require.Positive(t, c.Stats().Conflicts, "seed %d: the compared search does work", seed)
+		if st == solver.Satisfiable {
+			require.NoError(t, solver.Verify(p, c.Model(nil)))
+		}
+	}
 }
