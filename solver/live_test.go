@@ -723,20 +723,22 @@ func TestCloneStats(t *testing.T) {
 	require.Equal(t, before, s.Stats(), "the original did no work")
 }
 
-// TestCloneSearchesAlike: a clone made after some search repeats its
-// original's next search exactly (same status, model and work), since it
-// copies activities, phases, learned clauses and the random state; models
-// pass Verify.
+// TestCloneSearchesAlike: a clone made in the middle of a search (after
+// a search stopped by its conflict budget) repeats its original's next
+// search exactly (same status, model and work), since it copies
+// activities, phases, learned clauses and the random state; models pass
+// Verify.
 func TestCloneSearchesAlike(t *testing.T) {
-	for seed := range uint64(6) {
+	for _, seed := range []uint64{0, 1, 3} { // instances that need over 100 conflicts
 		p := testprog.SATProgram(150, testprog.Random3SAT(seed, 150, 620))
 		opts := solver.DefaultOptions()
-		opts.Seed, opts.RandomFreq = int64(seed)+1, 0.02
+		opts.Seed, opts.RandomFreq, opts.ConflictLimit = int64(seed)+1, 0.02, 100
 		s, err := solver.New(p, opts)
 		require.NoError(t, err)
-		s.Solve(context.Background())
-		require.NoError(t, s.AddClause(solver.Neg(1), solver.Neg(2)))
+		require.Equal(t, solver.Unknown, s.Solve(context.Background()), "seed %d: the budget stops the first search", seed)
 		c := s.Clone()
+		s.SetConflictLimit(0)
+		c.SetConflictLimit(0)
 		before := s.Stats()
 		st := s.Solve(context.Background())
 		require.Equal(t, st, c.Solve(context.Background()), "seed %d", seed)
