@@ -23,9 +23,9 @@ import (
 //
 // Method: level-0 consequences are propagated first, and weak constraints
 // whose literal they fix are constants of the call. Then, per level from
-// the highest: core-guided lower bounds with
-// stratification (Fu & Malik 2006; OLL, Morgado, Dodaro & Marques-Silva
-// 2014) for up to Options.CoreBudget conflicts, then model-improving search
+// the highest: core-guided lower bounds with stratification (Fu & Malik
+// 2006; OLL, Morgado, Dodaro & Marques-Silva 2014) for up to
+// Options.CoreBudget conflicts, then model-improving search
 // with a native weighted-sum bound "cost ≤ best − 1" until unsatisfiable;
 // the level's optimum is then fixed by a bound while lower levels are
 // optimised. Bounds are guarded by activation literals, and relaxation
