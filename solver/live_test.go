@@ -556,8 +556,8 @@ func modelsOf(t *testing.T, s *solver.Solver) int {
 
 // TestAssumptionNamingNoAtom: Solve, Enumerate and Optimize treat an
 // assumption naming no atom alike: no search (Unknown, no model), Err
-// wraps ErrProgram (Optimize also returns it), and the next call without
-// the misuse clears Err.
+// wraps ErrProgram (Optimize also returns it), the previous model is
+// forgotten, and the next call without the misuse clears Err.
 func TestAssumptionNamingNoAtom(t *testing.T) {
 	ctx := context.Background()
 	p := solver.NewProgram()
@@ -570,7 +570,9 @@ func TestAssumptionNamingNoAtom(t *testing.T) {
 			t.Run(fmt.Sprintf("%s/%d", call, l), func(t *testing.T) {
 				s, err := solver.New(p, solver.DefaultOptions())
 				require.NoError(t, err)
+				s.Assume(solver.Pos(a))
 				require.Equal(t, solver.Satisfiable, s.Solve(ctx))
+				require.Equal(t, []solver.Atom{a}, s.Model(nil))
 				s.Assume(solver.Pos(a), l)
 				switch call {
 				case "Solve":
@@ -588,9 +590,8 @@ func TestAssumptionNamingNoAtom(t *testing.T) {
 				}
 				require.ErrorIs(t, s.Err(), solver.ErrProgram)
 				require.Contains(t, s.Err().Error(), call)
-				if call == "Solve" {
-					require.Empty(t, s.Model(nil), "no model after a refused call")
-				}
+				require.Empty(t, s.Model(nil), "no model after a refused call")
+				require.False(t, s.Value(a))
 				s.Assume(solver.Neg(a))
 				require.Equal(t, solver.Satisfiable, s.Solve(ctx), "the bad assumption was consumed")
 				require.NoError(t, s.Err())

@@ -12,8 +12,6 @@ import "context"
 func (s *Solver) Solve(ctx context.Context) Status {
 	assumps, err := s.takeAssumptions("Solve")
 	if err != nil {
-		s.core = s.core[:0]
-		s.hasModel = false
 		return Unknown
 	}
 	s.startBudget()

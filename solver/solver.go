@@ -251,8 +251,9 @@ func (s *Solver) Assume(lits ...Lit) { s.pending = append(s.pending, lits...) }
 
 // takeAssumptions returns and clears the pending user assumptions, checking
 // their atoms, and sets s.err: an error wrapping ErrProgram when one refers
-// to no atom (then the returned slice is nil), nil otherwise. call names the
-// public method for the message.
+// to no atom (then the returned slice is nil and the last model and core
+// are forgotten, as by a call that found nothing), nil otherwise. call
+// names the public method for the message.
 func (s *Solver) takeAssumptions(call string) ([]Lit, error) {
 	a := append([]Lit(nil), s.pending...)
 	s.pending = s.pending[:0]
@@ -261,6 +262,8 @@ func (s *Solver) takeAssumptions(call string) ([]Lit, error) {
 		if !s.isAtom(p.Atom()) {
 			s.err = fmt.Errorf("%w: %s: an assumption refers to atom %d, which is neither an atom of the program (it has %d) nor one made by AddAtoms",
 				ErrProgram, call, p.Atom(), s.numAtoms)
+			s.core = s.core[:0]
+			s.hasModel = false
 			return nil, s.err
 		}
 	}
