@@ -11,11 +11,13 @@ import (
 // (and the same explanations for conflict analysis) as the constraints New
 // builds, and AddAtoms makes free atoms for activation literals. Every
 // addition is permanent; a contradiction makes every later search
-// Unsatisfiable.
+// Unsatisfiable. The Add methods are called between searches, never from
+// an Enumerate, Optimize or progress callback (they return the solver to
+// level 0).
 
 // AddClause adds the permanent clause lits (Pos(a): a true, Neg(a): a
 // false) over atoms of the program or made by AddAtoms, for example to block
-// a model. It may be called between searches; an empty clause makes every
+// a model. Call it between searches; an empty clause makes every
 // later search Unsatisfiable. It returns an error wrapping ErrProgram when a
 // literal names no atom, and then adds nothing.
 func (s *Solver) AddClause(lits ...Lit) error {
@@ -35,6 +37,7 @@ func (s *Solver) AddClause(lits ...Lit) error {
 // ErrProgram, and adds nothing, when a literal names no atom of the program
 // or of AddAtoms, a limit is below NoBound, or lower exceeds upper. On a
 // solver that is already unsatisfiable it does nothing and returns nil.
+// Call it between searches.
 //
 // A cond of two or more literals gets a fresh internal variable defined as
 // their conjunction (not shared between calls).
@@ -67,7 +70,8 @@ func (s *Solver) AddBound(lits []Lit, lower, upper int, cond ...Lit) error {
 // an error wrapping ErrProgram, and adds nothing, when a literal names no
 // atom of the program or of AddAtoms, the slices differ in length, or the
 // weights and upper add up beyond the range of int64. On a solver that is
-// already unsatisfiable it does nothing and returns nil.
+// already unsatisfiable it does nothing and returns nil. Call it between
+// searches.
 func (s *Solver) AddWeightSum(lits []Lit, weights []int64, upper int64, cond ...Lit) error {
 	if len(weights) != len(lits) {
 		return fmt.Errorf("%w: AddWeightSum: %d literals but %d weights; give one weight per literal", ErrProgram, len(lits), len(weights))
@@ -126,7 +130,7 @@ func (s *Solver) AddWeightSum(lits []Lit, weights []int64, upper int64, cond ...
 // literals (a clause "not act ∨ C" holds only while act is assumed; the
 // clause "not act" retires it). They are numbered after the engine's
 // internal variables, are not counted by NumAtoms and not listed by Model.
-// It returns 0 when n < 1.
+// It returns 0 when n < 1. Call it between searches.
 func (s *Solver) AddAtoms(n int) Atom {
 	if n < 1 {
 		return 0
