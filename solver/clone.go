@@ -15,8 +15,9 @@ import (
 // once) and it has no progress callback (see SetProgress).
 //
 // Cost: one copy of every table, O(size of the solver), without redoing
-// the completion of New; only the unfounded-set checker's graph, which no
-// method changes after New, is shared.
+// the completion of New; only what no method changes after New is shared:
+// the unfounded-set checker's support graph and the weak constraints. Call
+// it between searches (it returns s to level 0).
 func (s *Solver) Clone() *Solver {
 	s.cancelUntil(0)
 	c := new(Solver)
@@ -66,8 +67,7 @@ func (s *Solver) Clone() *Solver {
 	c.core = slices.Clone(s.core)
 	c.failed = slices.Clone(s.failed)
 	c.model = slices.Clone(s.model)
-	c.weaks = slices.Clone(s.weaks)
-	c.levels = slices.Clone(s.levels)
+	// weaks and levels are shared: nothing changes them after New.
 	c.lower = slices.Clone(s.lower)
 	c.lbdQueue = slices.Clone(s.lbdQueue)
 

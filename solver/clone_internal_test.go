@@ -9,8 +9,10 @@ import (
 )
 
 // engSharedBacking lists, by field path, the slices Clone may share: the
-// unfounded-set checker's support graph, read-only after New.
+// weak constraints and the unfounded-set checker's support graph,
+// read-only after New.
 var engSharedBacking = map[string]bool{
+	"weaks": true, "levels": true,
 	"ufs.comp": true, "ufs.nodeBody": true, "ufs.nodeIntStart": true, "ufs.nodeInt": true,
 	"ufs.nodeHeadStart": true, "ufs.nodeHeads": true, "ufs.supStart": true, "ufs.sup": true,
 	"ufs.depStart": true, "ufs.dep": true, "ufs.bodyStart": true, "ufs.bodyNodes": true,
@@ -57,8 +59,8 @@ func engSharedSlices(path string, a, b reflect.Value, out *[]string) {
 }
 
 // TestCloneSharesNoMutableTable: after Clone, every slice, list and pointer
-// of the solver is the clone's own except the read-only support graph (a
-// new field that Clone forgets to copy fails here).
+// of the solver is the clone's own except the read-only weak constraints
+// and support graph (a new field that Clone forgets to copy fails here).
 func TestCloneSharesNoMutableTable(t *testing.T) {
 	p, _ := engHamiltonian(6, engCompleteArcs(6)) // non-tight: the checker exists
 	s := engNew(t, p)

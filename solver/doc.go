@@ -27,11 +27,13 @@
 // a fresh variable defined by clauses. Learned clauses stay valid, since
 // additions only remove models. A contradiction found while adding makes
 // every later search Unsatisfiable; literals naming no atom are errors
-// wrapping ErrProgram. Clone (clone.go) copies a solver at level 0 in one
-// pass over its tables — much cheaper than New, which redoes the
-// completion — so that a neighbourhood step can add unit clauses to a copy
-// and leave the original untouched; only the unfounded-set checker's
-// support graph, read-only after New, is shared. For one Solve, assumptions
+// wrapping ErrProgram.
+//
+// Clone (clone.go) copies a solver at level 0 in one pass over its tables,
+// much cheaper than New, which redoes the completion, so that a
+// neighbourhood step can add unit clauses to a copy and leave the original
+// untouched. Only the unfounded-set checker's support graph and the weak
+// constraints, read-only after New, are shared. For one Solve, assumptions
 // or an assumed activation literal on the one solver cost less than a
 // clone; for Optimize, whose many searches re-propagate every assumption,
 // units in a clone (simplified away at level 0) cost far less.
