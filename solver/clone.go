@@ -27,39 +27,39 @@ func (s *Solver) Clone() *Solver {
 	c.rng = rand.New(c.pcg)
 
 	c.added = slices.Clone(s.added)
-	c.vals = slices.Clone(s.vals)
-	c.level = slices.Clone(s.level)
-	c.reason = slices.Clone(s.reason)
-	c.trailPos = slices.Clone(s.trailPos)
+	c.vals = withRoom(s.vals, 2*cloneVarRoom)
+	c.level = withRoom(s.level, cloneVarRoom)
+	c.reason = withRoom(s.reason, cloneVarRoom)
+	c.trailPos = withRoom(s.trailPos, cloneVarRoom)
 	c.trail = cloneCap(s.trail) // assign appends without allocating: cap(trail) >= numVars
 	c.trailLim = slices.Clone(s.trailLim)
 
 	c.arena = slices.Clone(s.arena)
-	c.watches = cloneLists(s.watches, watchSpare)
+	c.watches = cloneLists(s.watches, watchSpare, 2*cloneVarRoom)
 	c.learnts = slices.Clone(s.learnts)
 
-	c.activity = slices.Clone(s.activity)
-	c.order = varHeap{heap: slices.Clone(s.order.heap), index: slices.Clone(s.order.index), activity: &c.activity}
-	c.polarity = slices.Clone(s.polarity)
+	c.activity = withRoom(s.activity, cloneVarRoom)
+	c.order = varHeap{heap: withRoom(s.order.heap, cloneVarRoom), index: withRoom(s.order.index, cloneVarRoom), activity: &c.activity}
+	c.polarity = withRoom(s.polarity, cloneVarRoom)
 
 	c.cards = slices.Clone(s.cards)
 	c.cardLits = slices.Clone(s.cardLits)
-	c.cardOcc = cloneLists(s.cardOcc, noSpare)
+	c.cardOcc = cloneLists(s.cardOcc, noSpare, 2*cloneVarRoom)
 	c.sums = slices.Clone(s.sums)
 	c.parts = sumParts{lits: slices.Clone(s.parts.lits), w: slices.Clone(s.parts.w), of: slices.Clone(s.parts.of)}
-	c.sumOcc = cloneLists(s.sumOcc, noSpare)
+	c.sumOcc = cloneLists(s.sumOcc, noSpare, 2*cloneVarRoom)
 	if s.ufs != nil {
 		c.ufs = s.ufs.clone()
 	}
 
 	c.conflict = slices.Clone(s.conflict)
-	c.seen = slices.Clone(s.seen)
+	c.seen = withRoom(s.seen, cloneVarRoom)
 	c.analyzeLearnt = slices.Clone(s.analyzeLearnt)
 	c.analyzeStack = slices.Clone(s.analyzeStack)
 	c.analyzeToClear = slices.Clone(s.analyzeToClear)
-	c.levelStamp = slices.Clone(s.levelStamp)
+	c.levelStamp = withRoom(s.levelStamp, cloneVarRoom)
 	c.explArena = slices.Clone(s.explArena)
-	c.explIndex = slices.Clone(s.explIndex)
+	c.explIndex = withRoom(s.explIndex, cloneVarRoom)
 	c.explVars = slices.Clone(s.explVars)
 
 	c.assumptions = slices.Clone(s.assumptions)
@@ -78,6 +78,15 @@ func (s *Solver) Clone() *Solver {
 	return c
 }
 
+// cloneVarRoom is the number of new variables a clone can get without
+// copying its per-variable tables (Optimize and Enumerate make a few).
+const cloneVarRoom = 256
+
+// withRoom copies x with room for extra more elements.
+func withRoom[T any](x []T, extra int) []T {
+	return append(make([]T, 0, len(x)+extra), x...)
+}
+
 // cloneCap copies x keeping its capacity, so that appends on hot paths
 // (the trail, scratch buffers) allocate no more in the copy than in x.
 func cloneCap[T any](x []T) []T {
@@ -88,15 +97,15 @@ func cloneCap[T any](x []T) []T {
 }
 
 // cloneLists copies per-literal lists into one allocation, each list with
-// spare room for spare(len) more entries; an empty list without spare room
-// stays nil.
-func cloneLists[T any](lists [][]T, spare func(int) int) [][]T {
+// spare room for spare(len) more entries (an empty list without spare room
+// stays nil), and room for extra more lists.
+func cloneLists[T any](lists [][]T, spare func(int) int, extra int) [][]T {
 	total := 0
 	for _, l := range lists {
 		total += len(l) + spare(len(l))
 	}
 	buf := make([]T, total)
-	out := make([][]T, len(lists))
+	out := make([][]T, len(lists), len(lists)+extra)
 	off := 0
 	for i, l := range lists {
 		n := len(l) + spare(len(l))
