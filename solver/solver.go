@@ -272,8 +272,9 @@ func (s *Solver) takeAssumptions(call string) ([]Lit, error) {
 
 // Err returns the misuse found by the last Solve, Enumerate or Optimize
 // call, nil when there was none: an error wrapping ErrProgram when an
-// assumption named no atom (that call then returned Unknown without
-// searching). Optimize also returns it directly.
+// assumption named no atom (that call then returned without searching:
+// Unknown, or 0 and false from Enumerate). Optimize also returns it
+// directly.
 func (s *Solver) Err() error { return s.err }
 
 // isAtom reports whether a is an atom of the program or one made by
