@@ -39,12 +39,15 @@ func ReadCSVDir(dir string) (*Term, Problems, error) {
 		if err != nil {
 			return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
 		}
+		if !fi.Mode().IsRegular() {
+			return nil, nil, notRegular(p, fi)
+		}
 		if fi.Size() > maxFileBytes {
 			return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a term file may be — remove unneeded rows and try again", p, fi.Size()>>20, maxFileBytes>>20)
 		}
-		data, err := os.ReadFile(p)
+		data, err := readAtMost(p, maxFileBytes)
 		if err != nil {
-			return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
+			return nil, nil, err
 		}
 		files = append(files, csvFile{name: e.Name(), data: data})
 	}
@@ -122,4 +125,22 @@ func readCSV(data []byte, sheet string) (*rawSheet, *Problem) {
 			rs.line = append(rs.line, line)
 		}
 	}
+}
+
+// readAtMost reads a regular file, refusing it when it holds more than
+// limit bytes by the time it is read (it may grow after the size check).
+func readAtMost(p string, limit int64) ([]byte, error) {
+	f, err := os.Open(p)
+	if err != nil {
+		return nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, limit+1))
+	if err != nil {
+		return nil, unreadablef("%s cannot be read (%v) — check the file and try again", p, err)
+	}
+	if int64(len(data)) > limit {
+		return nil, unreadablef("%s is larger than the %d MB a term file may be — remove unneeded rows and try again", p, limit>>20)
+	}
+	return data, nil
 }
