@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/termwright/termwright/timetable"
 	"github.com/xuri/excelize/v2"
@@ -140,6 +141,10 @@ func parseRequestRows(rows [][]string, lines []int, sheet string) ([]Request, er
 			errs = append(errs, InputError{Src: src, Msg: "the Section is empty — give the section ID"})
 			continue
 		}
+		if long := longestCell(sec, at, room); long != "" {
+			errs = append(errs, InputError{Src: src, Msg: fmt.Sprintf("a cell holds %s, more than the %d characters a request cell may hold — shorten it", timetable.Quote(long), timetable.MaxCellChars)})
+			continue
+		}
 		day, start, err := ParseAt(at)
 		if err != nil {
 			errs = append(errs, InputError{Src: src, Msg: "At: " + err.Error()})
@@ -154,6 +159,17 @@ func parseRequestRows(rows [][]string, lines []int, sheet string) ([]Request, er
 		return nil, RequestError{{Src: timetable.Source{Sheet: sheet}, Msg: "there are no requests below the header — add one row per request"}}
 	}
 	return out, nil
+}
+
+// longestCell returns the first cell longer than timetable.MaxCellChars,
+// or "".
+func longestCell(cells ...string) string {
+	for _, c := range cells {
+		if utf8.RuneCountInString(c) > timetable.MaxCellChars {
+			return c
+		}
+	}
+	return ""
 }
 
 func titleWord(s string) string { return strings.ToUpper(s[:1]) + s[1:] }

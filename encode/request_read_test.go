@@ -69,6 +69,8 @@ func TestParseRequestsCSV(t *testing.T) {
 			[]string{"Requests row 2: the Section is empty", "Requests row 3: At:", "Requests row 5: At:"}},
 		{"empty", "", nil, []string{"Requests: there are no requests"}},
 		{"header only", "Section,At\n", nil, []string{"Requests: there are no requests below the header"}},
+		{"100 MB section ID quoted short, once", "Section,At\n" + strings.Repeat("S", 100<<20) + ",Tue 10:00\n", nil,
+			[]string{`Requests row 2: a cell holds "` + strings.Repeat("S", 40) + `…" (104,857,600 characters), more than the 1000 characters`}},
 		{"bad quotes", "Section,At\n\"X,Tue 10:00\n", nil, []string{"Requests row 2: the CSV text cannot be read"}},
 	}
 	for _, tc := range cases {

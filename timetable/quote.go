@@ -1,6 +1,8 @@
 package timetable
 
 import (
+	"fmt"
+	"io"
 	"strconv"
 	"unicode/utf8"
 )
@@ -32,4 +34,28 @@ func groupThousands(n int) string {
 		s = s[:i] + "," + s[i:]
 	}
 	return s
+}
+
+// quotedArg is a message argument that prints through Quote under %q and
+// as itself under every other verb.
+type quotedArg string
+
+// Format implements fmt.Formatter.
+func (a quotedArg) Format(f fmt.State, verb rune) {
+	if verb == 'q' && !f.Flag('#') && !f.Flag('+') {
+		io.WriteString(f, Quote(string(a)))
+		return
+	}
+	fmt.Fprintf(f, fmt.FormatString(f, verb), string(a))
+}
+
+// shortArgs makes every string argument of a message print through Quote
+// under %q, so that no problem message echoes a long value whole.
+func shortArgs(args []any) []any {
+	for i, a := range args {
+		if s, ok := a.(string); ok && len(s) > 60 {
+			args[i] = quotedArg(s)
+		}
+	}
+	return args
 }

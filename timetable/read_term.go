@@ -1,7 +1,6 @@
 package timetable
 
 import (
-	"fmt"
 	"sort"
 	"strings"
 	"time"
@@ -469,5 +468,5 @@ func subjectPrefix(src Source, kind, id string) string {
 	if src.Sheet != "" {
 		return ""
 	}
-	return fmt.Sprintf("%s %q: ", kind, id)
+	return kind + " " + Quote(id) + ": "
 }
