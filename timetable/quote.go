@@ -15,16 +15,28 @@ const quoteKeep = 40
 // and its length, so that a huge cell never makes a huge message. Every
 // message that echoes a value from a file uses it.
 func Quote(s string) string {
-	if len(s) <= 60 || utf8.RuneCountInString(s) <= 60 {
+	short, n := shorten(s)
+	if short == s {
 		return strconv.Quote(s)
 	}
-	i, n := 0, 0
-	for i < len(s) && n < quoteKeep {
+	return strconv.Quote(short) + " (" + groupThousands(n) + " characters)"
+}
+
+// shorten returns s, or when it has more than 60 characters its first 40
+// followed by "…"; n is the number of characters of s.
+func shorten(s string) (short string, n int) {
+	if len(s) <= 60 {
+		return s, len(s)
+	}
+	if n = utf8.RuneCountInString(s); n <= 60 {
+		return s, n
+	}
+	i := 0
+	for k := 0; k < quoteKeep; k++ {
 		_, w := utf8.DecodeRuneInString(s[i:])
 		i += w
-		n++
 	}
-	return strconv.Quote(s[:i]+"…") + " (" + groupThousands(utf8.RuneCountInString(s)) + " characters)"
+	return s[:i] + "…", n
 }
 
 // groupThousands writes n with commas between groups of three digits.
