@@ -389,10 +389,8 @@ func (r *termReader) readRelations() {
 	r.rows(shRelations, func(t *table, row tableRow) {
 		kindText := t.get(row, "Kind")
 		var kind RelationKind
-		for _, k := range RelationKinds {
-			if normWords(kindText) == k.Name {
-				kind = k.Kind
-			}
+		if i := pickChoice(relationChoices, kindText); i >= 0 {
+			kind = RelationKinds[i].Kind
 		}
 		if kind == 0 {
 			r.ps.errorf(t.pos(row, "Kind"), "Kind %q is not a relation — write one of %s", kindText, quoteList(relationNames()))
@@ -408,18 +406,17 @@ func (r *termReader) readRelations() {
 	})
 }
 
-func relationNames() []string {
-	out := make([]string, len(RelationKinds))
-	for i, k := range RelationKinds {
-		out[i] = k.Name
-	}
-	return out
-}
+// relationNames are the canonical spellings of the relation kinds.
+func relationNames() []string { return canonical(relationChoices) }
 
-func criterionNames() []string {
-	out := make([]string, len(Criteria))
-	for i, c := range Criteria {
-		out[i] = c.Name
+// criterionNames are the canonical names of the soft criteria.
+func criterionNames() []string { return canonical(criterionChoices) }
+
+// canonical lists the first spelling of each choice.
+func canonical(choices []choice) []string {
+	out := make([]string, len(choices))
+	for i, c := range choices {
+		out[i] = c[0]
 	}
 	return out
 }
@@ -429,10 +426,8 @@ func (r *termReader) readWeights() {
 	r.rows(shWeights, func(t *table, row tableRow) {
 		text := t.get(row, "Criterion")
 		var crit *Criterion
-		for i := range Criteria {
-			if normWords(text) == Criteria[i].Name {
-				crit = &Criteria[i]
-			}
+		if i := pickChoice(criterionChoices, text); i >= 0 {
+			crit = &Criteria[i]
 		}
 		if crit == nil {
 			r.ps.errorf(t.pos(row, "Criterion"), "Criterion %q is not known — write one of %s", text, quoteList(criterionNames()))
