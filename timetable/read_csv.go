@@ -23,8 +23,10 @@ type csvFile struct {
 // named after the sheet ("Sections.csv", any case), with the same headers as
 // the workbook. Problems name the file stem as the sheet ("Sections!D14",
 // where the row is the line of the file). The error wraps ErrUnreadable only
-// when the folder cannot be read or holds no CSV files.
-func ReadCSVDir(dir string) (*Term, Problems, error) {
+// when the folder cannot be read or holds no CSV files. Options such as
+// WithColumns change how it reads; a Columns.csv file renames columns like
+// the workbook's Columns sheet.
+func ReadCSVDir(dir string, opts ...LoadOption) (*Term, Problems, error) {
 	entries, err := os.ReadDir(dir)
 	if err != nil {
 		return nil, nil, unreadablef("the folder %s cannot be read (%v) — check the path and its permissions", dir, err)
@@ -54,12 +56,12 @@ func ReadCSVDir(dir string) (*Term, Problems, error) {
 	if len(files) == 0 {
 		return nil, nil, unreadablef("the folder %s holds no .csv files — put one CSV file per sheet in it (Term.csv, Periods.csv, Rooms.csv, ...)", dir)
 	}
-	t, ps := readCSVFiles(files)
+	t, ps := readCSVFiles(files, newLoadConfig(opts))
 	return t, ps, nil
 }
 
 // readCSVFiles decodes CSV files into raw sheets and builds the term.
-func readCSVFiles(files []csvFile) (*Term, Problems) {
+func readCSVFiles(files []csvFile, cfg *loadConfig) (*Term, Problems) {
 	sort.Slice(files, func(i, j int) bool { return files[i].name < files[j].name })
 	var sheets []*rawSheet
 	var ps Problems
@@ -73,7 +75,7 @@ func readCSVFiles(files []csvFile) (*Term, Problems) {
 			sheets = append(sheets, rs)
 		}
 	}
-	t, more := buildTerm(sheets, false)
+	t, more := buildTerm(sheets, false, cfg)
 	ps = append(ps, more...)
 	ps.Sort()
 	return t, ps

@@ -120,6 +120,11 @@ var sheetSpecs = []sheetSpec{
 		"Whole number from 0 (off) upwards.",
 		"Priority level (optional); higher levels are minimised first.",
 	}},
+	{name: shColumns, cols: []string{colMapSheet, colMapTheir, colMapOur}, need: []string{colMapSheet, colMapTheir, colMapOur}, notes: []string{
+		"Optional. The sheet whose column is renamed, e.g. Sections.",
+		"The header as your export has it, e.g. Crs Nbr.",
+		"Our column it holds, e.g. Section.",
+	}},
 }
 
 // specFor finds the spec of a sheet by name, in any case.
@@ -143,10 +148,12 @@ type rawSheet struct {
 
 // table is a sheet matched to its spec: which column holds which header.
 type table struct {
-	spec  *sheetSpec
-	sheet string         // name as the registrar sees it
-	col   map[string]int // canonical header (normalised) -> 0-based column
-	rows  []tableRow     // non-blank data rows
+	spec    *sheetSpec
+	sheet   string         // name as the registrar sees it
+	col     map[string]int // canonical header (normalised) -> 0-based column
+	rows    []tableRow     // non-blank data rows
+	renamed    []ColumnRename        // renames applied, with From as the header reads, in column order
+	renamedCol map[int]*ColumnRename // 0-based column -> the rename that gave its header
 }
 
 // tableRow is one non-blank data row.
@@ -156,9 +163,10 @@ type tableRow struct {
 }
 
 // newTable matches the header row of raw against spec, reporting missing
-// required headers, duplicate and unknown headers.
-func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems) *table {
-	t := &table{spec: spec, sheet: raw.name, col: map[string]int{}}
+// required headers, duplicate and unknown headers. ren renames headers
+// (normalised header as the file has it -> rename) before they are matched.
+func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems, ren map[string]*ColumnRename) *table {
+	t := &table{spec: spec, sheet: raw.name, col: map[string]int{}, renamedCol: map[int]*ColumnRename{}}
 	known := map[string]string{}
 	for _, c := range spec.cols {
 		known[normHeader(c)] = c
@@ -188,15 +196,29 @@ func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems) *table {
 		if n == "" {
 			continue
 		}
+		rn := ren[n]
+		if rn != nil {
+			n = normHeader(rn.To)
+		}
 		if _, ok := known[n]; !ok {
 			ps.warnf(pos, "column %q is not part of the %s sheet and is ignored — the columns are %s", strings.TrimSpace(h), spec.name, quoteList(spec.cols))
 			continue
 		}
-		if _, dup := t.col[n]; dup {
-			ps.warnf(pos, "column %q appears twice — only the first (column %s) is read", strings.TrimSpace(h), colLetter(t.col[n]))
+		if prev, dup := t.col[n]; dup {
+			if rn != nil || t.renamedCol[prev] != nil {
+				ps.errorf(pos, "column %q and column %s would both be read as %q (a rename on the Columns sheet) — delete one of the two columns or the rename", strings.TrimSpace(h), colLetter(prev), known[n])
+				continue
+			}
+			ps.warnf(pos, "column %q appears twice — only the first (column %s) is read", strings.TrimSpace(h), colLetter(prev))
 			continue
 		}
 		t.col[n] = i
+		if rn != nil {
+			applied := *rn
+			applied.From = strings.TrimSpace(h)
+			t.renamed = append(t.renamed, applied)
+			t.renamedCol[i] = rn
+		}
 	}
 	for _, c := range spec.need {
 		if _, ok := t.col[normHeader(c)]; !ok {

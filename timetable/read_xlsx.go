@@ -24,7 +24,8 @@ var (
 // (one per sheet, named after the sheet). It returns the best Term that
 // could be read and every problem of the whole workbook, sorted; the error
 // is non-nil (and wraps ErrUnreadable) only when nothing could be read.
-func Load(path string) (*Term, Problems, error) {
+// Options such as WithColumns change how it reads.
+func Load(path string, opts ...LoadOption) (*Term, Problems, error) {
 	fi, err := os.Stat(path)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
@@ -33,7 +34,7 @@ func Load(path string) (*Term, Problems, error) {
 		return nil, nil, unreadablef("%s cannot be opened (%v) — check the path and its permissions", path, err)
 	}
 	if fi.IsDir() {
-		return ReadCSVDir(path)
+		return ReadCSVDir(path, opts...)
 	}
 	if !fi.Mode().IsRegular() {
 		return nil, nil, notRegular(path, fi)
@@ -49,41 +50,47 @@ func Load(path string) (*Term, Problems, error) {
 		return nil, nil, unreadablef("%s cannot be opened (%v) — check its permissions", path, err)
 	}
 	defer f.Close()
-	return ReadWorkbook(f, filepath.Base(path))
+	return ReadWorkbook(f, filepath.Base(path), opts...)
 }
 
 // ReadWorkbook reads a term workbook in .xlsx form from r; name is used in
 // messages. Like Load it returns a best-effort Term with all problems, and an
 // error wrapping ErrUnreadable only when the bytes are not a readable
 // workbook (not an .xlsx file, damaged, password-protected, too large).
-func ReadWorkbook(r io.Reader, name string) (t *Term, ps Problems, err error) {
+func ReadWorkbook(r io.Reader, name string, opts ...LoadOption) (*Term, Problems, error) {
+	sheets, date1904, err := readWorkbookSheets(r, name)
+	if err != nil {
+		return nil, nil, err
+	}
+	t, ps := buildTerm(sheets, date1904, newLoadConfig(opts))
+	return t, ps, nil
+}
+
+// readWorkbookSheets reads, checks and unpacks an .xlsx workbook into raw
+// sheets, and says whether it uses the 1904 date base system.
+func readWorkbookSheets(r io.Reader, name string) (sheets []*rawSheet, date1904 bool, err error) {
 	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
 	if err != nil {
-		return nil, nil, unreadablef("%s could not be read (%v) — check the file and try again", name, err)
+		return nil, false, unreadablef("%s could not be read (%v) — check the file and try again", name, err)
 	}
 	if len(data) > maxFileBytes {
-		return nil, nil, unreadablef("%s is larger than the %d MB a term workbook may be — remove unneeded sheets or data and try again", name, maxFileBytes>>20)
+		return nil, false, unreadablef("%s is larger than the %d MB a term workbook may be — remove unneeded sheets or data and try again", name, maxFileBytes>>20)
 	}
 	if err := sniffWorkbook(data, name); err != nil {
-		return nil, nil, err
+		return nil, false, err
 	}
 	census, err := checkPackage(data, name)
 	if err != nil {
-		return nil, nil, err
+		return nil, false, err
 	}
 	defer func() {
 		// The spreadsheet library may panic on malformed package parts; a
 		// damaged file must give a sentence, not a stack trace.
 		if rec := recover(); rec != nil {
-			t, ps, err = nil, nil, unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
+			sheets, date1904, err = nil, false, unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
 		}
 	}()
-	sheets, date1904, err := readXLSXSheets(data, name, census)
-	if err != nil {
-		return nil, nil, err
-	}
-	t, ps = buildTerm(sheets, date1904)
-	return t, ps, nil
+	return readXLSXSheets(data, name, census)
 }
 
 // sniffWorkbook refuses, with one sentence each, the common kinds of file
