@@ -148,10 +148,10 @@ type rawSheet struct {
 
 // table is a sheet matched to its spec: which column holds which header.
 type table struct {
-	spec    *sheetSpec
-	sheet   string         // name as the registrar sees it
-	col     map[string]int // canonical header (normalised) -> 0-based column
-	rows    []tableRow     // non-blank data rows
+	spec       *sheetSpec
+	sheet      string                // name as the registrar sees it
+	col        map[string]int        // canonical header (normalised) -> 0-based column
+	rows       []tableRow            // non-blank data rows
 	renamed    []ColumnRename        // renames applied, with From as the header reads, in column order
 	renamedCol map[int]*ColumnRename // 0-based column -> the rename that gave its header
 }
