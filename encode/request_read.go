@@ -26,6 +26,9 @@ const maxRequests = 10000
 // sheet of a workbook (.xlsx). Every row with a problem is reported, each
 // with its sheet and row, in one RequestError.
 func ReadRequests(path string) ([]Request, error) {
+	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
+		return nil, fmt.Errorf("%s is not a regular file (a device, pipe or folder) — give the requests .csv or .xlsx file itself", path)
+	}
 	data, err := os.ReadFile(path)
 	if err != nil {
 		return nil, fmt.Errorf("cannot read the requests: %w", err)
@@ -34,6 +37,9 @@ func ReadRequests(path string) ([]Request, error) {
 	case ".csv":
 		return ParseRequestsCSV(bytes.NewReader(data), strings.TrimSuffix(filepath.Base(path), filepath.Ext(path)))
 	case ".xlsx", ".xlsm":
+		if err := timetable.CheckXLSX(data, filepath.Base(path)); err != nil {
+			return nil, err
+		}
 		return ParseRequestsWorkbook(bytes.NewReader(data))
 	}
 	return nil, fmt.Errorf("%s: requests must be a .csv file or an .xlsx workbook with a sheet named %q", path, RequestsSheet)

@@ -153,6 +153,17 @@ func TestDemoRowCounts(t *testing.T) {
 	}
 }
 
+var rowRE = regexp.MustCompile(`<row r="\d+"[^>]*>.*?</row>`)
+
+// swapRows stores a sheet's row 3 before its row 2.
+func swapRows(b []byte) []byte {
+	rows := rowRE.FindAllIndex(b, 3)
+	r2, r3 := b[rows[1][0]:rows[1][1]], b[rows[2][0]:rows[2][1]]
+	out := append([]byte{}, b[:rows[1][0]]...)
+	out = append(append(append(out, r3...), r2...), b[rows[2][1]:]...)
+	return out
+}
+
 // TestDamagedSheets rewrites one sheet's XML inside the demo workbook and
 // expects one sentence naming the sheet instead of a term with rows missing.
 func TestDamagedSheets(t *testing.T) {
@@ -162,14 +173,6 @@ func TestDamagedSheets(t *testing.T) {
 			i := bytes.Index(b, []byte("</row>")) + len("</row>")
 			return append(append(append([]byte{}, b[:i]...), insert...), b[i:]...)
 		}
-	}
-	rowRE := regexp.MustCompile(`<row r="\d+"[^>]*>.*?</row>`)
-	swapRows := func(b []byte) []byte { // store row 3 before row 2
-		rows := rowRE.FindAllIndex(b, 3)
-		r2, r3 := b[rows[1][0]:rows[1][1]], b[rows[2][0]:rows[2][1]]
-		out := append([]byte{}, b[:rows[1][0]]...)
-		out = append(append(append(out, r3...), r2...), b[rows[2][1]:]...)
-		return out
 	}
 	for _, tc := range []struct {
 		name, sheet string
