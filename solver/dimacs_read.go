@@ -115,7 +115,7 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 				return nil, bad(tk.col, "%s is not a whole number; clauses are lists of non-zero integers ended by 0", shortQuote(tk.text))
 			}
 			if err != nil || v < -int64(vars) || v > int64(vars) {
-				return nil, bad(tk.col, "literal %s is out of range: the header announces %d variables, so literals lie between -%d and %d", shortText(tk.text), vars, vars, vars)
+				return nil, bad(tk.col, "literal %s refers to variable %s, but the header announces %d variables, so literals lie between -%d and %d", shortText(tk.text), shortText(strings.TrimPrefix(tk.text, "-")), vars, vars, vars)
 			}
 			if v == 0 {
 				if got >= want {

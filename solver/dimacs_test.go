@@ -253,9 +253,9 @@ func TestReadDIMACSErrors(t *testing.T) {
 		{"bad header", "p dnf 1 1\n", "f.cnf:1: header"},
 		{"two headers", "p cnf 1 0\np cnf 1 0\n", "f.cnf:2: a second header"},
 		{"not a number", "p cnf 2 1\n1 x 0\n", "f.cnf:2:3: \"x\" is not a whole number"},
-		{"out of range", "p cnf 2 1\nc\n1 -3 0\n", "f.cnf:3:3: literal -3 is out of range: the header announces 2 variables"},
-		{"most negative int64", "p cnf 2 1\n  -9223372036854775808 0\n", "f.cnf:2:3: literal -9223372036854775808 is out of range"},
-		{"beyond int64", "p cnf 2 1\n1 99999999999999999999 0\n", "f.cnf:2:3: literal 99999999999999999999 is out of range"},
+		{"out of range", "p cnf 2 1\nc\n1 -3 0\n", "f.cnf:3:3: literal -3 refers to variable 3, but the header announces 2 variables"},
+		{"most negative int64", "p cnf 2 1\n  -9223372036854775808 0\n", "f.cnf:2:3: literal -9223372036854775808 refers to variable 9223372036854775808, but the header announces 2 variables"},
+		{"beyond int64", "p cnf 2 1\n1 99999999999999999999 0\n", "f.cnf:2:3: literal 99999999999999999999 refers to variable 99999999999999999999"},
 		{"negative count", "p cnf 2 -1\n", "f.cnf:1:9: \"-1\" in the header is not a non-negative whole number"},
 		// A 20-byte header announcing 2^28 variables would take gigabytes.
 		{"header beyond the file", "p cnf 268435456 1\n", "f.cnf:1:7: the header announces 268435456 variables, more than the 65608 a 18-byte file can use"},
