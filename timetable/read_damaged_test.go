@@ -8,6 +8,7 @@ import (
 	"io"
 	"os"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -95,6 +96,9 @@ func independentRowCount(t testing.TB, part, shared []byte) int {
 				V  string `xml:"v"`
 				IS struct {
 					T string `xml:"t"`
+					R []struct {
+						T string `xml:"t"`
+					} `xml:"r"`
 				} `xml:"is"`
 			} `xml:"c"`
 		} `xml:"sheetData>row"`
@@ -104,16 +108,21 @@ func independentRowCount(t testing.TB, part, shared []byte) int {
 	for _, r := range sheet.Rows {
 		text := ""
 		for _, c := range r.C {
-			v := c.V + c.IS.T
-			if c.T == "s" {
-				i := 0
-				for _, ch := range c.V {
-					i = i*10 + int(ch-'0')
-				}
-				si := sst.SI[i]
-				v = strings.Join(si.T, "")
-				for _, run := range si.R {
+			v := c.V
+			switch c.T {
+			case "inlineStr":
+				v = c.IS.T
+				for _, run := range c.IS.R {
 					v += run.T
+				}
+			case "s":
+				i, err := strconv.Atoi(strings.TrimSpace(c.V))
+				if err == nil && i >= 0 && i < len(sst.SI) {
+					si := sst.SI[i]
+					v = strings.Join(si.T, "")
+					for _, run := range si.R {
+						v += run.T
+					}
 				}
 			}
 			text += strings.TrimSpace(v)
@@ -321,4 +330,48 @@ func TestCSVNotRegular(t *testing.T) {
 	}
 	_, _, err = Load(dir)
 	assertOneSentence(t, err, "Sections.csv is a pipe (FIFO), not a regular file")
+}
+
+// FuzzSheetXML inserts arbitrary text after the first row of the Rooms
+// sheet's XML in a small workbook. Either the reader refuses the workbook
+// with one sentence naming a sheet, or it read exactly as many non-blank
+// rows as an independent count with encoding/xml finds in that part.
+func FuzzSheetXML(f *testing.F) {
+	book := xlsxBytes(f, goodSheets())
+	part := demoPart(f, book, "Rooms")
+	for _, s := range []string{"", "&bogus;", "&#x1;", `<row r="9"><c r="A9" t="inlineStr"><is><t>X</t></is></c></row>`,
+		`<row r="1"/>`, `<row><c><v>1</v></c></row>`, "\xe9", `<row r="20"><c r="B20"/><c r="A20"/></row>`} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, insert string) {
+		bad := rewritePart(t, book, part, func(b []byte) []byte {
+			i := bytes.Index(b, []byte("</row>")) + len("</row>")
+			return append(append(append([]byte{}, b[:i]...), insert...), b[i:]...)
+		})
+		census, err := checkPackage(bad, "fuzz.xlsx")
+		if err == nil {
+			var sheets []*rawSheet
+			sheets, _, err = readXLSXSheets(bad, "fuzz.xlsx", census)
+			if err == nil {
+				files := map[string][]byte{}
+				zr, zerr := zip.NewReader(bytes.NewReader(bad), int64(len(bad)))
+				require.NoError(t, zerr)
+				for _, zf := range zr.File {
+					rc, _ := zf.Open()
+					files[zf.Name], _ = io.ReadAll(rc)
+					rc.Close()
+				}
+				for _, rs := range sheets {
+					if rs.name == "Rooms" {
+						want := independentRowCount(t, files[part], files["xl/sharedStrings.xml"])
+						require.Equal(t, want, len(rs.rows), "rows read from the Rooms sheet after inserting %q", insert)
+					}
+				}
+				return
+			}
+		}
+		require.True(t, errors.Is(err, ErrUnreadable), "%v", err)
+		require.NotContains(t, err.Error(), "\n")
+		require.Contains(t, err.Error(), "sheet")
+	})
 }
