@@ -191,6 +191,11 @@ func TestDamagedSheets(t *testing.T) {
 		{"unknown entity between rows", "Unavailable", afterFirstRow("&bogus;"), `the "Unavailable" sheet is damaged: its XML has an error on line 2 (invalid character entity &bogus;)`},
 		{"control character reference", "Sections", afterFirstRow("&#x1;"), `the "Sections" sheet is damaged: its XML has an error on line 2 (illegal character code U+0001)`},
 		{"control character in a cell", "Staff", func(b []byte) []byte { return bytes.Replace(b, []byte("</t>"), []byte("&#x1;</t>"), 3) }, `the "Staff" sheet is damaged`},
+		{"mismatched end tag in the last row", "Rooms", func(b []byte) []byte {
+			i := bytes.LastIndex(b, []byte("</c>"))
+			return append(append(append([]byte{}, b[:i]...), "</x>"...), b[i:]...)
+		}, `the "Rooms" sheet is damaged: its XML has an error on line 2 (element </x> closes an element it does not match)`},
+		{"part ends inside the sheet", "Rooms", func(b []byte) []byte { return b[:bytes.LastIndex(b, []byte("</row>"))] }, `the "Rooms" sheet is damaged`},
 		{"rows out of order", "Rooms", swapRows, `the "Rooms" sheet stores row 2 after row 3, out of order`},
 		{"cells out of order", "Rooms", func(b []byte) []byte {
 			return bytes.Replace(b, []byte(`<c r="B2">`), []byte(`<c r="A2"><v>1</v></c><c r="B2">`), 1)
