@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode"
@@ -15,10 +16,12 @@ import (
 const (
 	// MaxDIMACSBytes is the largest DIMACS input read.
 	MaxDIMACSBytes = 1 << 30
-	// dimacsFreeVars is how many variables a header may announce beyond
-	// four per byte of the input: a variable used in a clause takes at
-	// least two bytes ("1 "), so only unused variables come on top.
+	// dimacsFreeVars is how many variables a header may announce that no
+	// clause uses: each used variable appears in the input, so with this
+	// bound the atoms made follow what the file holds.
 	dimacsFreeVars = 1 << 16
+	// dimacsMaxVars bounds the announced variables outright.
+	dimacsMaxVars = 1 << 28
 )
 
 // DIMACSError is a problem in a DIMACS CNF file, with its 1-based line and,
@@ -48,7 +51,7 @@ func (e *DIMACSError) Error() string {
 // models are exactly the models of the formula. name is used in error
 // messages, which are *DIMACSError values naming the line (and column).
 // Memory is bounded by the input: at most MaxDIMACSBytes are read, and a
-// header may announce at most four variables per byte of input plus 65,536.
+// header may announce at most 65,536 variables that no clause uses.
 func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 	data, err := io.ReadAll(io.LimitReader(r, MaxDIMACSBytes+1))
 	if err != nil {
@@ -57,17 +60,17 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 	if len(data) > MaxDIMACSBytes {
 		return nil, &DIMACSError{Name: name, Line: 1, Msg: fmt.Sprintf("the input is larger than %d MB, the most read — split the formula", MaxDIMACSBytes>>20)}
 	}
-	maxVars := dimacsFreeVars + 4*len(data)
 	sc := bufio.NewScanner(bytes.NewReader(data))
 	sc.Buffer(make([]byte, 64*1024), 1<<26)
 	line := 0
 	bad := func(col int, format string, args ...any) error {
 		return &DIMACSError{Name: name, Line: line, Col: col, Msg: fmt.Sprintf(format, args...)}
 	}
-	var p *Program
-	vars, want, got := 0, 0, 0
-	var clause []Lit
-	clauseLine := 0
+	header := false
+	vars, want, headerLine, varsCol := 0, 0, 0, 0
+	var lits []Lit // every clause's forbidding literals, clause after clause
+	var ends []int // ends[i] is the end of clause i in lits
+	clauseLine, inClause := 0, false
 	for sc.Scan() {
 		line++
 		raw := sc.Text()
@@ -80,7 +83,7 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 		}
 		toks := fieldsAt(raw)
 		if text[0] == 'p' {
-			if p != nil {
+			if header {
 				return nil, bad(0, "a second header line; a DIMACS file has one \"p cnf VARS CLAUSES\" line")
 			}
 			if len(toks) != 4 || toks[0].text != "p" || toks[1].text != "cnf" {
@@ -93,20 +96,13 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 			}
 			vars, _ = strconv.Atoi(toks[2].text)
 			want, _ = strconv.Atoi(toks[3].text)
-			if vars > maxVars {
-				return nil, bad(toks[2].col, "the header announces %d variables, more than the %d a %d-byte file can use — correct the header", vars, maxVars, len(data))
+			if vars > dimacsMaxVars {
+				return nil, bad(toks[2].col, "the header announces %d variables, more than the %d this reader takes — correct the header", vars, dimacsMaxVars)
 			}
-			p = NewProgram()
-			heads := make([]Atom, vars)
-			for i := range heads {
-				heads[i] = p.NewAtom("x" + strconv.Itoa(i+1))
-			}
-			if vars > 0 {
-				p.AddChoice(heads, NoBound, NoBound)
-			}
+			header, headerLine, varsCol = true, line, toks[2].col
 			continue
 		}
-		if p == nil {
+		if !header {
 			return nil, bad(0, "clause before the header; start the file with \"p cnf VARS CLAUSES\"")
 		}
 		for _, tk := range toks {
@@ -118,22 +114,20 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 				return nil, bad(tk.col, "literal %s refers to variable %s, but the header announces %d variables, so literals lie between -%d and %d", shortText(tk.text), shortText(strings.TrimPrefix(tk.text, "-")), vars, vars, vars)
 			}
 			if v == 0 {
-				if got >= want {
+				if len(ends) >= want {
 					return nil, bad(tk.col, "more clauses than the %d the header announces; correct the header", want)
 				}
-				p.AddConstraint(clause...)
-				clause = clause[:0]
-				got++
+				ends, inClause = append(ends, len(lits)), false
 				continue
 			}
-			if len(clause) == 0 {
-				clauseLine = line
+			if !inClause {
+				clauseLine, inClause = line, true
 			}
 			// The clause (l1 or ... or lk) forbids every li false.
 			if v > 0 {
-				clause = append(clause, Neg(Atom(v)))
+				lits = append(lits, Neg(Atom(v)))
 			} else {
-				clause = append(clause, Pos(Atom(-v)))
+				lits = append(lits, Pos(Atom(-v)))
 			}
 		}
 	}
@@ -141,17 +135,45 @@ func ReadDIMACS(r io.Reader, name string) (*Program, error) {
 		line++
 		return nil, bad(0, "cannot read: %v", err)
 	}
-	if p == nil {
+	if !header {
 		return nil, bad(0, "no header; a DIMACS file needs a line \"p cnf VARS CLAUSES\"")
 	}
-	if len(clause) > 0 {
+	if inClause {
 		line = clauseLine
 		return nil, bad(0, "the last clause is not ended by 0")
 	}
-	if got != want {
-		return nil, bad(0, "%d clauses, but the header announces %d; correct the header", got, want)
+	if len(ends) != want {
+		return nil, bad(0, "%d clauses, but the header announces %d; correct the header", len(ends), want)
+	}
+	if used := distinctAtoms(lits); vars-used > dimacsFreeVars {
+		line = headerLine
+		return nil, bad(varsCol, "the header announces %d variables, but the clauses use only %d; at most %d unused variables are accepted — correct the header", vars, used, dimacsFreeVars)
+	}
+	p := NewProgram()
+	heads := make([]Atom, vars)
+	for i := range heads {
+		heads[i] = p.NewAtom("x" + strconv.Itoa(i+1))
+	}
+	if vars > 0 {
+		p.AddChoice(heads, NoBound, NoBound)
+	}
+	start := 0
+	for _, end := range ends {
+		p.AddConstraint(lits[start:end]...)
+		start = end
 	}
 	return p, nil
+}
+
+// distinctAtoms counts the distinct atoms of lits, in memory proportional
+// to len(lits).
+func distinctAtoms(lits []Lit) int {
+	atoms := make([]Atom, len(lits))
+	for i, l := range lits {
+		atoms[i] = l.Atom()
+	}
+	slices.Sort(atoms)
+	return len(slices.Compact(atoms))
 }
 
 // dimacsField is a white-space separated field with its 1-based column.
