@@ -276,7 +276,7 @@ func TestReadScheduleDamaged(t *testing.T) {
 		edit func([]byte) []byte
 		want string
 	}{
-		"unknown entity": {func(b []byte) []byte { return bytes.Replace(b, []byte("</row>"), []byte("</row>&bogus;"), 1) }, `the "Timetable" sheet is damaged: its XML has an error`},
+		"unknown entity":    {func(b []byte) []byte { return bytes.Replace(b, []byte("</row>"), []byte("</row>&bogus;"), 1) }, `the "Timetable" sheet is damaged: its XML has an error`},
 		"rows out of order": {swapRows, `the "Timetable" sheet stores row 2 after row 3, out of order`},
 	} {
 		t.Run(name, func(t *testing.T) {
