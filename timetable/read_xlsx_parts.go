@@ -211,9 +211,13 @@ func censusSheet(f *zip.File) (sheetCensus, error) {
 		if !ok {
 			continue
 		}
+		parent := ""
+		if len(open) > 0 {
+			parent = open[len(open)-1].Local
+		}
 		open = append(open, se.Name)
-		switch se.Name.Local {
-		case "row":
+		switch {
+		case se.Name.Local == "row" && parent == "sheetData":
 			n := c.lastRow + 1
 			if v := attr(se, "r"); v != "" {
 				if n, err = strconv.Atoi(v); err != nil || n < 1 {
@@ -227,7 +231,7 @@ func censusSheet(f *zip.File) (sheetCensus, error) {
 				return c, fmt.Errorf("has more than %d rows — a term workbook holds far fewer; delete unused rows", maxSheetRows)
 			}
 			c.lastRow, c.rows, lastCol = n, c.rows+1, 0
-		case "c":
+		case se.Name.Local == "c" && parent == "row":
 			if cells++; cells > maxSheetCells {
 				return c, fmt.Errorf("has more than %d cells (blank or not) — a term workbook holds far fewer; delete unused rows and columns", maxSheetCells)
 			}
