@@ -82,15 +82,16 @@ const maxSyntaxErrors = 20
 // (up to 20 errors, each with its position); reading goes on after an error
 // at the next ".".
 func ReadProgram(r io.Reader, name string) (*Program, error) {
-	var text strings.Builder
-	if _, err := io.Copy(&text, r); err != nil {
-		return nil, fmt.Errorf("reading %s: %w", name, err)
-	}
 	if name == "" {
 		name = "input"
 	}
+	data, err := readBounded(r, name, MaxTextBytes)
+	if err != nil {
+		return nil, err
+	}
+	text := string(data)
 	ps := &parser{file: name, prog: NewProgram(), atoms: make(map[string]Atom)}
-	ps.sc = newScanner(text.String(), ps.errorAt)
+	ps.sc = newScanner(text, ps.errorAt)
 	ps.tok = ps.sc.next()
 	ps.program()
 	if len(ps.errs) > 0 {
@@ -793,12 +794,12 @@ func canonicalArgs(s string, depth int) (string, bool) {
 // is anonymous. name is used in error positions. Every unknown atom and
 // every syntax error is reported, as a SyntaxErrors list.
 func ReadModel(r io.Reader, p *Program, name string) ([]Atom, error) {
-	data, err := io.ReadAll(r)
-	if err != nil {
-		return nil, fmt.Errorf("reading %s: %w", name, err)
-	}
 	if name == "" {
 		name = "input"
+	}
+	data, err := readBounded(r, name, MaxTextBytes)
+	if err != nil {
+		return nil, err
 	}
 	index := make(map[string]Atom, p.NumAtoms())
 	for a := Atom(p.NumAtoms()); a >= 1; a-- { // the first atom of a name wins
@@ -845,4 +846,29 @@ func ReadModel(r io.Reader, p *Program, name string) ([]Atom, error) {
 		return nil, ps.errs
 	}
 	return model, nil
+}
+
+// MaxTextBytes is the largest program or model text read.
+const MaxTextBytes = 1 << 30
+
+// readBounded reads at most limit bytes; a longer input is a syntax error
+// at its first position, so that a device or an endless pipe cannot
+// exhaust memory.
+func readBounded(r io.Reader, name string, limit int) ([]byte, error) {
+	data, err := io.ReadAll(io.LimitReader(r, int64(limit)+1))
+	if err != nil {
+		return nil, fmt.Errorf("reading %s: %w", name, err)
+	}
+	if len(data) > limit {
+		return nil, SyntaxErrors{{File: name, Line: 1, Col: 1, Msg: fmt.Sprintf("the input is larger than %s, the most read — split it or check that this is the right file", byteSize(limit))}}
+	}
+	return data, nil
+}
+
+// byteSize writes a limit in MB, or in bytes below one MB.
+func byteSize(n int) string {
+	if n >= 1<<20 {
+		return fmt.Sprintf("%d MB", n>>20)
+	}
+	return fmt.Sprintf("%d bytes", n)
 }

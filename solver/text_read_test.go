@@ -280,3 +280,25 @@ func TestReadModel(t *testing.T) {
 		})
 	}
 }
+
+// endless is a reader that never ends, like /dev/zero.
+type endless struct{}
+
+func (endless) Read(p []byte) (int, error) {
+	for i := range p {
+		p[i] = 'a'
+	}
+	return len(p), nil
+}
+
+// TestReadBoundedEndless: an endless input stops at the limit with a
+// positioned syntax error instead of exhausting memory.
+func TestReadBoundedEndless(t *testing.T) {
+	_, err := readBounded(endless{}, "zero.lp", 1000)
+	require.Error(t, err)
+	assert.True(t, errors.Is(err, ErrSyntax))
+	assert.Contains(t, err.Error(), "zero.lp:1:1: the input is larger than 1000 bytes")
+	data, err := readBounded(strings.NewReader("a."), "small.lp", 1000)
+	require.NoError(t, err)
+	assert.Equal(t, "a.", string(data))
+}
