@@ -50,10 +50,10 @@ func withHyphens(name string) choice {
 
 // pickChoice returns the index of the choice that text spells, or -1.
 func pickChoice(choices []choice, text string) int {
-	text = strings.TrimSpace(text)
+	text = strings.ToLower(strings.TrimSpace(text))
 	for i, c := range choices {
 		for _, sp := range c {
-			if strings.EqualFold(text, sp) {
+			if text == strings.ToLower(sp) { // not EqualFold: "ſun" is no day
 				return i
 			}
 		}
