@@ -273,12 +273,6 @@ func capCells(row tableRow, sheet string, limits []int, ps *Problems) {
 	}
 }
 
-// has reports whether the table has a column for header.
-func (t *table) has(header string) bool {
-	_, ok := t.col[normHeader(header)]
-	return ok
-}
-
 // letter is the column letter of header, or "" when the column is absent.
 func (t *table) letter(header string) string {
 	if i, ok := t.col[normHeader(header)]; ok {

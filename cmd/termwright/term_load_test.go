@@ -19,11 +19,11 @@ func TestCheckColumnsFile(t *testing.T) {
 	cols := filepath.Join(t.TempDir(), "columns.csv")
 	require.NoError(t, os.WriteFile(cols, []byte("Sheet,Their column,Our column\nSections,Crs Nbr,Section\nStaff,Instructor name,Name\n"), 0o644))
 
-	e, out, errb := checkEnv()
+	e, out, _ := checkEnv()
 	code := run([]string{"check", term}, e)
 	assert.Equal(t, exitError, code, "without the renames the Section column is missing: %s", out.String())
 
-	e, out, errb = checkEnv()
+	e, out, errb := checkEnv()
 	code = run([]string{"check", "--columns", cols, term}, e)
 	require.Equal(t, exitOK, code, out.String()+errb.String())
 	assert.Contains(t, out.String(), `Sections: column "Crs Nbr" read as "Section"`)
