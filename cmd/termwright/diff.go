@@ -64,6 +64,7 @@ type diffInput struct {
 	term             *timetable.Term // nil without TERM
 	cmp              *timetable.Comparison
 	affected         []timetable.Affected
+	newHard          []timetable.Violation // hard requirements the new timetable breaks (with a term)
 }
 
 // loadDiff reads both timetables (with the term when termPath is not ""),
@@ -90,8 +91,12 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 			return nil, err
 		}
 		if d.term != nil {
-			if err := diffFits(e.stderr, d.term, p, termPath); err != nil {
+			hard, err := diffFits(e.stderr, d.term, p, termPath, i == 0)
+			if err != nil {
 				return nil, err
+			}
+			if i == 1 {
+				d.newHard = hard
 			}
 		}
 		sides[i] = ms
@@ -112,31 +117,39 @@ func diffProblems(w io.Writer, path string, ps timetable.Problems) error {
 	return nil
 }
 
-// diffFits checks that a timetable fits the term: every section and room
-// known and every meeting on the grid. Other broken requirements (a
-// clash, a full room) are only noted: comparing is still meaningful.
-func diffFits(w io.Writer, t *timetable.Term, path, termPath string) error {
+// diffFits checks that a timetable fits the term: every room known and
+// every meeting on the grid, and, for the new timetable, every section
+// known (the old one may hold sections the term no longer has: they are
+// compared by the timetable's own cells). Other broken requirements (a
+// clash, a full room) are only noted: comparing is still meaningful. It
+// returns the timetable's hard violations.
+func diffFits(w io.Writer, t *timetable.Term, path, termPath string, old bool) ([]timetable.Violation, error) {
 	s, _, err := timetable.ReadSchedule(path, t)
 	if err != nil {
-		return wrapCode(exitError, err)
+		return nil, wrapCode(exitError, err)
 	}
 	hard := timetable.HardViolations(timetable.Check(t, s))
-	misfits := 0
+	misfits, gone := 0, 0
 	for _, v := range hard {
-		switch v.Rule {
-		case timetable.RuleUnknownSection, timetable.RuleUnknownRoom, timetable.RuleOutsideGrid:
+		switch {
+		case v.Rule == timetable.RuleUnknownSection && old:
+			gone++
+		case v.Rule == timetable.RuleUnknownSection, v.Rule == timetable.RuleUnknownRoom, v.Rule == timetable.RuleOutsideGrid:
 			fmt.Fprintf(w, "%s: %s: %s\n", path, v.Rule, v.Msg)
 			misfits++
 		}
 	}
 	if misfits > 0 {
-		return withCode(exitError, fmt.Sprintf("%s does not fit %s (%s); give the term both timetables were made for, or leave TERM out to compare the timetables alone",
+		return nil, withCode(exitError, fmt.Sprintf("%s does not fit %s (%s); give the term the timetables were made for, or leave TERM out to compare the timetables alone",
 			path, termPath, checkCount(misfits, "problem")))
 	}
-	if n := len(hard); n > 0 {
+	if gone > 0 {
+		fmt.Fprintf(w, "note: %s has %s that %s no longer has; their meetings are compared as the timetable's own cells give them\n", path, checkCount(gone, "section"), termPath)
+	}
+	if n := len(hard) - gone; n > 0 {
 		fmt.Fprintf(w, "note: %s breaks %s of %s (run termwright verify for the details); compared anyway\n", path, checkCount(n, "hard requirement"), termPath)
 	}
-	return nil
+	return hard, nil
 }
 
 // diffStudents maps each section to its enrolled students (nil without a term).

@@ -53,7 +53,8 @@ func at(d time.Weekday, h int) int { return (timetable.WeekOrder(d))*3 + h - 9 }
 // diffFiles writes diffTerm and two timetables for it into dir, worked by
 // hand: A's Wednesday meeting moves to Thursday (its Monday one stays), E
 // and F swap rooms, C is dropped and D added, B's weeks become 1-6 (the
-// new timetable is written for a term where B meets in weeks 1-6 only).
+// new timetable is written for a term where B meets in weeks 1-6 only and
+// C is cancelled: the new timetable is valid for it).
 // It returns the paths and the term the new timetable was written for.
 func diffFiles(t *testing.T, dir string) (termPath, oldPath, newPath string, term *timetable.Term, old, cur *timetable.Schedule) {
 	t.Helper()
@@ -71,6 +72,7 @@ func diffFiles(t *testing.T, dir string) (termPath, oldPath, newPath string, ter
 	}}
 	oldTerm, newTerm := diffTerm(), diffTerm()
 	newTerm.Sections[1].Weeks = 0b111111
+	newTerm.Sections = append(newTerm.Sections[:2], newTerm.Sections[3:]...) // C is cancelled
 	var buf bytes.Buffer
 	require.NoError(t, timetable.WriteTermWorkbook(newTerm, &buf))
 	termPath = filepath.Join(dir, "term.xlsx")
@@ -139,15 +141,15 @@ func TestDiffJSONHand(t *testing.T) {
 		"room R1": 4, "room R2": 4, // R1: A moved within it, C and E out, F in; R2: B moved within it, D and E in, F out
 		"cohort C1": 2, "student P1": 1, "student P2": 1,
 	}, subjects)
-	assert.Contains(t, errb.String(), "note:", "the incomplete timetables are noted, not refused")
+	assert.Contains(t, errb.String(), "old.xlsx has 1 section that", "the cancelled section is noted, not refused")
 }
 
 func TestDiffErrors(t *testing.T) {
 	dir := t.TempDir()
 	termPath, oldPath, newPath, _, _, _ := diffFiles(t, dir)
-	// A term without section C: the old timetable does not fit it.
+	// A term without section D: the new timetable does not fit it.
 	small := diffTerm()
-	small.Sections = append(small.Sections[:2], small.Sections[3:]...)
+	small.Sections = append(small.Sections[:3], small.Sections[4:]...)
 	var buf bytes.Buffer
 	require.NoError(t, timetable.WriteTermWorkbook(small, &buf))
 	smallPath := filepath.Join(dir, "small.xlsx")
