@@ -80,7 +80,7 @@ func WriteNotice(w io.Writer, t *timetable.Term, s *timetable.Schedule, c *timet
 			"the events of an earlier termwright calendar in place (same event identifiers, a higher\n"+
 			"sequence number).", calendarFile)
 		if dropped {
-			fmt.Fprint(bw, " A cancelled meeting is not in it: if you imported an earlier\ncalendar file, delete that meeting's events by hand.")
+			fmt.Fprint(bw, " A cancelled meeting is in it as cancelled; if your calendar\nprogram still shows it, delete that meeting's events by hand.")
 		}
 		fmt.Fprintln(bw)
 	}

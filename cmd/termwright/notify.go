@@ -84,7 +84,7 @@ func runNotify(e *env, o *notifyOptions, termPath, oldPath, newPath string) erro
 			return wrapCode(exitError, err)
 		}
 		if _, err := writeOutput(filepath.Join(dir, ics), false, func(w io.Writer) error {
-			return export.WriteICS(w, d.term, cal, j.who, opt)
+			return export.WriteNoticeICS(w, d.term, cal, j.who, j.cancelled(d.cmp), opt)
 		}); err != nil {
 			return wrapCode(exitError, err)
 		}
@@ -100,6 +100,17 @@ type notifyJob struct {
 	who  export.Subject
 	dir  string // staff, cohorts or students
 	stem string // file name without extension
+}
+
+// cancelled lists the earlier meetings the job's subject no longer attends.
+func (j notifyJob) cancelled(c *timetable.Comparison) []timetable.Meeting {
+	var out []timetable.Meeting
+	for _, sc := range j.a.Changes {
+		if ch := c.Changes[sc.Change]; sc.Kind == timetable.ChangeDropped && ch.Old != nil {
+			out = append(out, *ch.Old)
+		}
+	}
+	return out
 }
 
 // notifyJobs lists the notices to write (rooms get none), with file names
