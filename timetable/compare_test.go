@@ -1,11 +1,15 @@
 package timetable
 
 import (
+	"encoding/csv"
 	"math/rand"
 	"os"
 	"path/filepath"
+	"strconv"
+	"strings"
 	"testing"
 	"time"
+	"unicode/utf8"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -210,4 +214,88 @@ func TestReadMeetingsAlone(t *testing.T) {
 	assert.Equal(t, "all", ms[1].Weeks)
 	assert.Equal(t, []string{"Ann Bell"}, ms[0].StaffNames)
 	assert.Equal(t, Clock(600), ms[0].End)
+}
+
+// TestReadMeetingsWithTerm reads a CSV timetable for a term built here:
+// title, end, staff and cohorts come from the term; the Weeks cell wins
+// when filled in (a timetable published before the weeks changed), the
+// term's weeks when blank; a section the term lacks keeps its own cells.
+func TestReadMeetingsWithTerm(t *testing.T) {
+	term := &Term{
+		Name:     "T",
+		FirstDay: time.Date(2028, 1, 10, 0, 0, 0, 0, time.UTC), LastDay: time.Date(2028, 3, 31, 0, 0, 0, 0, time.UTC),
+		Periods: []Period{{Index: 0, Day: time.Monday, Start: 540, End: 600}, {Index: 1, Day: time.Monday, Start: 600, End: 660}},
+		Rooms:   []Room{{ID: "R1", Capacity: 30}},
+		Staff:   []Staff{{ID: "S1", Name: "Ann Bell"}},
+		Cohorts: []Cohort{{ID: "C1", Name: "Year one"}},
+	}
+	term.Sections = []Section{{ID: "A", Title: "Algebra", Staff: []string{"S1"}, Cohorts: []string{"C1"}, Meetings: 2, Length: 2, Weeks: 0b111}}
+	dir := t.TempDir()
+	p := filepath.Join(dir, "tt.csv")
+	csv := "Section,Title,Meeting,Day,Start,End,Room,Staff,Cohorts,Weeks\n" +
+		"A,Old title,1,Mon,09:00,,R1,,,all\n" +
+		"A,,2,Mon,09:00,,R1,,,\n" +
+		"Z,Zoology,1,Mon,10:00,11:00,R1,S9,C1,1-2\n"
+	require.NoError(t, os.WriteFile(p, []byte(csv), 0o644))
+	ms, ps, err := ReadMeetings(p, term)
+	require.NoError(t, err)
+	require.Empty(t, ps.Errors(), ps.String())
+	require.Len(t, ms, 3)
+	assert.Equal(t, Meeting{Section: "A", Number: 1, Title: "Algebra", Day: time.Monday, Start: 540, End: 660, Room: "R1",
+		Weeks: "all", Staff: []string{"S1"}, StaffNames: []string{"Ann Bell"}, Cohorts: []string{"C1"}, Src: Source{Sheet: "tt", Row: 2}}, ms[0])
+	assert.Equal(t, "1-3", ms[1].Weeks, "blank Weeks: the term's")
+	assert.Equal(t, "Zoology", ms[2].Title)
+	assert.Equal(t, []string{"S9"}, ms[2].Staff)
+	assert.Equal(t, "1-2", ms[2].Weeks)
+
+	bad := filepath.Join(dir, "bad.csv")
+	require.NoError(t, os.WriteFile(bad, []byte("Section,Meeting,Day,Start,Room\nA,1,Tue,09:00,R1\n"), 0o644))
+	ms, ps, err = ReadMeetings(bad, term)
+	require.NoError(t, err)
+	assert.Nil(t, ms)
+	require.Len(t, ps.Errors(), 1)
+	assert.Equal(t, "bad!C2", ps.Errors()[0].Pos.String(), "a day the grid lacks does not fit the term")
+}
+
+// FuzzReadMeetingsRoundTrip writes one meeting as a CSV row and reads it
+// back without a term: every field comes back as written.
+func FuzzReadMeetingsRoundTrip(f *testing.F) {
+	f.Add(uint8(1), uint16(540), uint16(60), "R1", uint64(0b1011), "A-1", 2)
+	f.Add(uint8(0), uint16(0), uint16(1), "", uint64(0), "x", 1)
+	f.Fuzz(func(t *testing.T, day uint8, start, length uint16, room string, weeks uint64, sec string, num int) {
+		d := time.Weekday(day % 7)
+		st := Clock(start % (24 * 60))
+		end := st + Clock(1+length%120)
+		if end > 24*60 || num < 1 || num > 1000 {
+			return
+		}
+		clean := func(s string) string { // keep what a plain cell holds: no control, list or quote characters
+			return strings.Map(func(r rune) rune {
+				if r < ' ' || r == 0x7f || r == utf8.RuneError || strings.ContainsRune(",;\"'", r) {
+					return -1
+				}
+				return r
+			}, s)
+		}
+		sec, room = strings.TrimSpace(clean(sec)), strings.TrimSpace(clean(room))
+		if sec == "" || !utf8.ValidString(sec+room) {
+			return
+		}
+		wk := "all"
+		if w := WeekSet(weeks); w != 0 {
+			wk = weekText(w)
+		}
+		row := []string{sec, strconv.Itoa(num), DayName(d), st.String(), end.String(), room, wk}
+		var b strings.Builder
+		cw := csv.NewWriter(&b)
+		require.NoError(t, cw.WriteAll([][]string{{"Section", "Meeting", "Day", "Start", "End", "Room", "Weeks"}, row}))
+		p := filepath.Join(t.TempDir(), "f.csv")
+		require.NoError(t, os.WriteFile(p, []byte(b.String()), 0o644))
+		ms, ps, err := ReadMeetings(p, nil)
+		require.NoError(t, err)
+		require.Empty(t, ps, "%s", row)
+		require.Len(t, ms, 1)
+		m := ms[0]
+		assert.Equal(t, []any{sec, num, d, st, end, room, wk}, []any{m.Section, m.Number, m.Day, m.Start, m.End, m.Room, m.Weeks})
+	})
 }
