@@ -228,3 +228,30 @@ func TestNotifyRefuses(t *testing.T) {
 	_, err := os.Stat(filepath.Join(dir, "n2"))
 	assert.True(t, os.IsNotExist(err), "a refused run creates no folder")
 }
+
+func TestDiffNotifyHelp(t *testing.T) {
+	for _, name := range []string{"diff", "notify"} {
+		t.Run(name, func(t *testing.T) {
+			e, out, _ := checkEnv()
+			require.Equal(t, exitOK, run([]string{name, "--help"}, e))
+			path := filepath.Join("testdata", name+"-help.golden")
+			if updateGolden() {
+				require.NoError(t, os.WriteFile(path, out.Bytes(), 0o644))
+			}
+			want, err := os.ReadFile(path)
+			require.NoError(t, err)
+			assert.Equal(t, string(want), out.String())
+		})
+	}
+}
+
+// TestNotifyOptions checks flag parsing alone (env.parsed).
+func TestNotifyOptions(t *testing.T) {
+	e, _, _ := checkEnv()
+	var got *notifyOptions
+	var args []string
+	e.parsed = func(o any, a []string) { got, args = o.(*notifyOptions), a }
+	require.Equal(t, exitOK, run([]string{"notify", "t.xlsx", "a.xlsx", "b.xlsx", "-o", "out"}, e))
+	assert.Equal(t, &notifyOptions{out: "out"}, got)
+	assert.Equal(t, []string{"t.xlsx", "a.xlsx", "b.xlsx"}, args)
+}
