@@ -257,3 +257,8 @@ func meetingsFromTerm(t *Term, s *Schedule, cells []Meeting) []Meeting {
 	}
 	return out
 }
+
+// MeetingsOf gives the meetings of a schedule for term t, with the term's
+// titles, times, weeks, staff and cohorts: the in-memory counterpart of
+// ReadMeetings, for comparing two versions that are not files.
+func MeetingsOf(t *Term, s *Schedule) []Meeting { return meetingsFromTerm(t, s, nil) }

@@ -53,13 +53,16 @@ func (c *Comparison) Affected(students map[string][]string) []Affected {
 		}
 		a.Changes = append(a.Changes, SubjectChange{Kind: kind, Change: i})
 	}
-	subjects := func(m *Meeting) []key {
+	// subjects lists who a meeting concerns, each once, with the set of them.
+	subjects := func(m *Meeting) ([]key, map[key]bool) {
 		if m == nil {
-			return nil
+			return nil, nil
 		}
 		var out []key
+		set := map[key]bool{}
 		put := func(kind, id string) {
-			if k := (key{kind, id}); id != "" && !slices.Contains(out, k) {
+			if k := (key{kind, id}); id != "" && !set[k] {
+				set[k] = true
 				out = append(out, k)
 			}
 		}
@@ -73,20 +76,24 @@ func (c *Comparison) Affected(students map[string][]string) []Affected {
 		for _, id := range students[m.Section] {
 			put(SubjectStudent, id)
 		}
-		return out
+		return out, set
 	}
 	for i, ch := range c.Changes {
-		olds, news := subjects(ch.Old), subjects(ch.New)
+		if ch.Kind == ChangeUnchanged && (ch.Old == nil || ch.New == nil || sameAttendance(ch.Old, ch.New)) {
+			continue // nobody's view of it changed
+		}
+		olds, oldSet := subjects(ch.Old)
+		news, newSet := subjects(ch.New)
 		for _, k := range olds {
 			switch {
-			case !slices.Contains(news, k):
+			case !newSet[k]:
 				add(k, ChangeDropped, i, ch.Old)
 			case ch.Kind == ChangeMoved:
 				add(k, ChangeMoved, i, ch.New)
 			}
 		}
 		for _, k := range news {
-			if !slices.Contains(olds, k) {
+			if !oldSet[k] {
 				add(k, ChangeAdded, i, ch.New)
 			}
 		}
@@ -99,4 +106,11 @@ func (c *Comparison) Affected(students map[string][]string) []Affected {
 		return cmp.Or(cmp.Compare(subjectRank[x.Kind], subjectRank[y.Kind]), cmp.Compare(x.ID, y.ID))
 	})
 	return out
+}
+
+// sameAttendance reports whether two meetings of a section have the same
+// staff and cohorts in the same order (students follow the section, rooms
+// the place), the common case that needs no per-subject look.
+func sameAttendance(x, y *Meeting) bool {
+	return slices.Equal(x.Staff, y.Staff) && slices.Equal(x.Cohorts, y.Cohorts)
 }
