@@ -29,18 +29,21 @@ type Meeting struct {
 // ReadMeetings reads the meetings of a timetable file (the workbook or CSV
 // that ReadSchedule reads). With t nil it relies on the file alone: day,
 // start, end, room, weeks, title, staff (IDs and names) and cohorts as the
-// cells give them. With a term, the file must fit it: the rows are read by
-// ReadSchedule (whose problems are returned, so a day or time outside the
-// grid is an error), and title, end, staff and cohorts come from the
-// term's Sections sheet for every section it has. The Weeks cell is taken
-// from the file even with a term, when it is filled in and readable: a
+// cells give them, and the schedule is nil. With a term, the file must fit
+// it: the rows are read as ReadSchedule reads them (the schedule and
+// problems are exactly ReadSchedule's, so a day or time outside the grid
+// is an error), and title, end, staff and cohorts come from the term's
+// Sections sheet for every section it has. The Weeks cell is taken from
+// the file even with a term, when it is filled in and readable: a
 // timetable written before the term's weeks changed still says the weeks
-// it was published with, which is what a comparison must see. The error
-// is non-nil, and wraps ErrUnreadable, only when the file cannot be read.
-func ReadMeetings(path string, t *Term) ([]Meeting, Problems, error) {
+// it was published with, which is what a comparison must see. When the
+// problems hold an error the meetings are nil. The error is non-nil, and
+// wraps ErrUnreadable, only when the file cannot be read; the file is
+// read once.
+func ReadMeetings(path string, t *Term) ([]Meeting, *Schedule, Problems, error) {
 	sheet, rows, lines, err := schedFileRows(path)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	ms, ps := meetingsFromCells(sheet, rows, lines)
 	if t == nil {
@@ -50,16 +53,17 @@ func ReadMeetings(path string, t *Term) ([]Meeting, Problems, error) {
 			}
 		}
 		ps.Sort()
-		return ms, ps, nil
+		if len(ps.Errors()) > 0 {
+			return nil, nil, ps, nil
+		}
+		return ms, nil, ps, nil
 	}
-	s, ps, err := ReadSchedule(path, t)
-	if err != nil {
-		return nil, nil, err
-	}
+	s, ps := schedParse(t, sheet, rows, lines) // ReadSchedule on the same rows
+	ps.Sort()
 	if len(ps.Errors()) > 0 {
-		return nil, ps, nil
+		return nil, s, ps, nil
 	}
-	return meetingsFromTerm(t, s, ms), ps, nil
+	return meetingsFromTerm(t, s, ms), s, ps, nil
 }
 
 // schedFileRows opens a timetable file as ReadSchedule does and returns

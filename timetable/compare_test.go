@@ -204,11 +204,17 @@ func TestReadMeetingsAlone(t *testing.T) {
 		"A,Algebra,1,Wed,09:00,10:00,R1,S1,C1,all,Ann Bell\n" +
 		"B,Botany,1,Funday,09:00,10:00,R2,S2,C1,,Bo Dunn\n"
 	require.NoError(t, os.WriteFile(p, []byte(csv), 0o644))
-	ms, ps, err := ReadMeetings(p, nil)
+	ms, _, ps, err := ReadMeetings(p, nil)
 	require.NoError(t, err)
 	require.Len(t, ps.Errors(), 1)
 	assert.Equal(t, "tt!D4", ps.Errors()[0].Pos.String())
-	require.Len(t, ms, 2)
+	assert.Nil(t, ms, "no meetings when a row could not be read")
+	require.NoError(t, os.WriteFile(p, []byte(strings.Replace(csv, "Funday", "Fri", 1)), 0o644))
+	ms, s, ps, err := ReadMeetings(p, nil)
+	require.NoError(t, err)
+	require.Empty(t, ps)
+	assert.Nil(t, s, "no schedule without a term")
+	require.Len(t, ms, 3)
 	assert.Equal(t, 2, ms[0].Number, "a blank meeting takes the lowest number left, as ReadSchedule does")
 	assert.Equal(t, "1-3, 5", ms[0].Weeks)
 	assert.Equal(t, "all", ms[1].Weeks)
@@ -237,9 +243,13 @@ func TestReadMeetingsWithTerm(t *testing.T) {
 		"A,,2,Mon,09:00,,R1,,,\n" +
 		"Z,Zoology,1,Mon,10:00,11:00,R1,S9,C1,1-2\n"
 	require.NoError(t, os.WriteFile(p, []byte(csv), 0o644))
-	ms, ps, err := ReadMeetings(p, term)
+	ms, s, ps, err := ReadMeetings(p, term)
 	require.NoError(t, err)
 	require.Empty(t, ps.Errors(), ps.String())
+	want, wantPs, err := ReadSchedule(p, term)
+	require.NoError(t, err)
+	assert.Equal(t, want, s, "the schedule is ReadSchedule's")
+	assert.Equal(t, wantPs, ps, "the problems are ReadSchedule's")
 	require.Len(t, ms, 3)
 	assert.Equal(t, Meeting{Section: "A", Number: 1, Title: "Algebra", Day: time.Monday, Start: 540, End: 660, Room: "R1",
 		Weeks: "all", Staff: []string{"S1"}, StaffNames: []string{"Ann Bell"}, Cohorts: []string{"C1"}, Src: Source{Sheet: "tt", Row: 2}}, ms[0])
@@ -250,7 +260,7 @@ func TestReadMeetingsWithTerm(t *testing.T) {
 
 	bad := filepath.Join(dir, "bad.csv")
 	require.NoError(t, os.WriteFile(bad, []byte("Section,Meeting,Day,Start,Room\nA,1,Tue,09:00,R1\n"), 0o644))
-	ms, ps, err = ReadMeetings(bad, term)
+	ms, _, ps, err = ReadMeetings(bad, term)
 	require.NoError(t, err)
 	assert.Nil(t, ms)
 	require.Len(t, ps.Errors(), 1)
@@ -291,7 +301,7 @@ func FuzzReadMeetingsRoundTrip(f *testing.F) {
 		require.NoError(t, cw.WriteAll([][]string{{"Section", "Meeting", "Day", "Start", "End", "Room", "Weeks"}, row}))
 		p := filepath.Join(t.TempDir(), "f.csv")
 		require.NoError(t, os.WriteFile(p, []byte(b.String()), 0o644))
-		ms, ps, err := ReadMeetings(p, nil)
+		ms, _, ps, err := ReadMeetings(p, nil)
 		require.NoError(t, err)
 		require.Empty(t, ps, "%s", row)
 		require.Len(t, ms, 1)

@@ -65,6 +65,7 @@ type diffInput struct {
 	cmp              *timetable.Comparison
 	affected         []timetable.Affected
 	newHard          []timetable.Violation // hard requirements the new timetable breaks (with a term)
+	newSched         *timetable.Schedule   // the new timetable as read for the term (with a term)
 }
 
 // loadDiff reads both timetables (with the term when termPath is not ""),
@@ -76,27 +77,27 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 		if err != nil {
 			return nil, wrapCode(exitError, err)
 		}
-		if err := diffProblems(e.stderr, termPath, ps); err != nil {
+		if err := diffProblems(e.stderr, termPath, ps, ""); err != nil {
 			return nil, err
 		}
 		d.term = t
 	}
 	var sides [2][]timetable.Meeting
 	for i, p := range []string{oldPath, newPath} {
-		ms, ps, err := timetable.ReadMeetings(p, d.term)
+		ms, s, ps, err := timetable.ReadMeetings(p, d.term)
 		if err != nil {
 			return nil, wrapCode(exitError, err)
 		}
-		if err := diffProblems(e.stderr, p, ps); err != nil {
+		if err := diffProblems(e.stderr, p, ps, termPath); err != nil {
 			return nil, err
 		}
 		if d.term != nil {
-			hard, err := diffFits(e.stderr, d.term, p, termPath, i == 0)
+			hard, err := diffFits(e.stderr, d.term, s, p, termPath, i == 0)
 			if err != nil {
 				return nil, err
 			}
 			if i == 1 {
-				d.newHard = hard
+				d.newHard, d.newSched = hard, s
 			}
 		}
 		sides[i] = ms
@@ -106,35 +107,37 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 	return d, nil
 }
 
-// diffProblems prints a reader's problems and fails when any is an error.
-func diffProblems(w io.Writer, path string, ps timetable.Problems) error {
+// diffProblems prints a reader's problems and fails when any is an error;
+// termPath, when not "", is the term a timetable was read for.
+func diffProblems(w io.Writer, path string, ps timetable.Problems, termPath string) error {
 	for _, p := range append(ps.Errors(), ps.Warnings()...) {
 		fmt.Fprintln(w, p.String())
 	}
 	if n := len(ps.Errors()); n > 0 {
-		return withCode(exitError, fmt.Sprintf("%s has %s; fix them and compare again", path, checkCount(n, "error")))
+		hint := "fix them and compare again"
+		if termPath != "" {
+			hint = fmt.Sprintf("fix them, or, if %s changed its grid since, leave TERM out to compare the timetables alone", termPath)
+		}
+		return withCode(exitError, fmt.Sprintf("%s has %s; %s", path, checkCount(n, "error"), hint))
 	}
 	return nil
 }
 
-// diffFits checks that a timetable fits the term: every room known and
-// every meeting on the grid, and, for the new timetable, every section
-// known (the old one may hold sections the term no longer has: they are
-// compared by the timetable's own cells). Other broken requirements (a
-// clash, a full room) are only noted: comparing is still meaningful. It
-// returns the timetable's hard violations.
-func diffFits(w io.Writer, t *timetable.Term, path, termPath string, old bool) ([]timetable.Violation, error) {
-	s, _, err := timetable.ReadSchedule(path, t)
-	if err != nil {
-		return nil, wrapCode(exitError, err)
-	}
+// diffFits checks that timetable s, read from path, fits the term: for
+// the new timetable every section and room known (the old one may hold
+// sections and rooms the term no longer has: they are compared by the
+// timetable's own cells). Other broken requirements (a clash, a full
+// room) are only noted: comparing is still meaningful. It returns the
+// timetable's hard violations.
+func diffFits(w io.Writer, t *timetable.Term, s *timetable.Schedule, path, termPath string, old bool) ([]timetable.Violation, error) {
 	hard := timetable.HardViolations(timetable.Check(t, s))
 	misfits, gone := 0, 0
 	for _, v := range hard {
+		unknown := v.Rule == timetable.RuleUnknownSection || v.Rule == timetable.RuleUnknownRoom
 		switch {
-		case v.Rule == timetable.RuleUnknownSection && old:
+		case unknown && old:
 			gone++
-		case v.Rule == timetable.RuleUnknownSection, v.Rule == timetable.RuleUnknownRoom, v.Rule == timetable.RuleOutsideGrid:
+		case unknown, v.Rule == timetable.RuleOutsideGrid:
 			fmt.Fprintf(w, "%s: %s: %s\n", path, v.Rule, v.Msg)
 			misfits++
 		}
@@ -144,7 +147,8 @@ func diffFits(w io.Writer, t *timetable.Term, path, termPath string, old bool) (
 			path, termPath, checkCount(misfits, "problem")))
 	}
 	if gone > 0 {
-		fmt.Fprintf(w, "note: %s has %s that %s no longer has; their meetings are compared as the timetable's own cells give them\n", path, checkCount(gone, "section"), termPath)
+		fmt.Fprintf(w, "note: %s names %s that %s no longer has; those meetings are compared as the timetable's own cells give them\n",
+			path, checkCount(gone, "section or room"), termPath)
 	}
 	if n := len(hard) - gone; n > 0 {
 		fmt.Fprintf(w, "note: %s breaks %s of %s (run termwright verify for the details); compared anyway\n", path, checkCount(n, "hard requirement"), termPath)
@@ -328,17 +332,22 @@ func diffChangeText(ch diffChange) string {
 	}
 	switch {
 	case ch.From != nil && ch.To != nil:
-		return head + ": " + diffPlaceText(ch.From) + " → " + diffPlaceText(ch.To)
+		to := *ch.To
+		to.Meeting = 0 // the meeting is the old one's; its number in the new file is in --json
+		return head + ": " + diffPlaceText(ch.From) + " → " + diffPlaceText(&to)
 	case ch.From != nil:
 		return head + ": " + diffPlaceText(ch.From)
 	}
 	return head + ": " + diffPlaceText(ch.To)
 }
 
-// diffPlaceText is "meeting 2, Wed 09:00–10:00 in R1, weeks 1-6" (weeks
-// left out when it meets every week).
+// diffPlaceText is "meeting 2, Wed 09:00–10:00 in R1, weeks 1-6" (the
+// meeting left out when 0, weeks when it meets every week).
 func diffPlaceText(p *diffPlace) string {
-	s := fmt.Sprintf("meeting %d, %s %s", p.Meeting, p.Day, p.Start)
+	s := fmt.Sprintf("%s %s", p.Day, p.Start)
+	if p.Meeting > 0 {
+		s = fmt.Sprintf("meeting %d, %s", p.Meeting, s)
+	}
 	if p.End != "" {
 		s += "–" + p.End
 	}

@@ -141,7 +141,7 @@ func TestDiffJSONHand(t *testing.T) {
 		"room R1": 4, "room R2": 4, // R1: A moved within it, C and E out, F in; R2: B moved within it, D and E in, F out
 		"cohort C1": 2, "student P1": 1, "student P2": 1,
 	}, subjects)
-	assert.Contains(t, errb.String(), "old.xlsx has 1 section that", "the cancelled section is noted, not refused")
+	assert.Contains(t, errb.String(), "old.xlsx names 1 section or room that", "the cancelled section is noted, not refused")
 }
 
 func TestDiffErrors(t *testing.T) {

@@ -57,10 +57,7 @@ func runNotify(e *env, o *notifyOptions, termPath, oldPath, newPath string) erro
 		}
 		return withCode(exitError, fmt.Sprintf("%s breaks %s, so no notices were written; fix the timetable first", newPath, checkCount(n, "hard requirement")))
 	}
-	s, _, err := timetable.ReadSchedule(newPath, d.term)
-	if err != nil {
-		return wrapCode(exitError, err)
-	}
+	s := d.newSched
 	cal := d.cmp.Renumber(s) // a meeting keeps its number, so its calendar UID
 	jobs := notifyJobs(d.affected)
 	if len(jobs) == 0 {
