@@ -25,28 +25,62 @@ func NoticeSubject(a timetable.Affected) (who Subject, ok bool) {
 	return Subject{}, false
 }
 
-// WriteNotice writes the change notice of one affected staff member,
-// cohort or student as plain text ready to paste into an e-mail: a
-// subject line, a greeting with their name, then per changed meeting what
-// it was and what it is now, in the term's wording (weekdays, 24-hour
-// times, rooms with their building, weeks when not every week, and the
-// first and last date a new or moved meeting takes place), and a closing
-// paragraph that names calendarFile (the updated calendar, "" when none is
-// sent). s is the new timetable for t, c the comparison whose new meetings
-// were read from it, a one entry of c.Affected.
-func WriteNotice(w io.Writer, t *timetable.Term, s *timetable.Schedule, c *timetable.Comparison, a timetable.Affected, calendarFile string) error {
+// Notices writes the change notices of one comparison: per affected staff
+// member, cohort or student a text (Text) and an updated calendar
+// (Calendar). It resolves the timetable once for all of them.
+type Notices struct {
+	c    *timetable.Comparison
+	cur  *view             // the new timetable as read: meeting numbers as in c's new meetings
+	cal  *view             // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
+	at   map[noticeKey]int // section and meeting number -> index into cur.meetings
+	days *calendarInfo     // the term's dates
+}
+
+// noticeKey names a meeting of the new timetable.
+type noticeKey struct {
+	sec string
+	num int
+}
+
+// NewNotices prepares the notices for comparison c of an earlier
+// timetable with s, the new timetable for t (c's new meetings must have
+// been read from s). The calendars use c.Renumber(s), so that a meeting
+// keeps the UID an earlier calendar gave it. It fails when s does not fit
+// t or the term has no dates.
+func NewNotices(t *timetable.Term, s *timetable.Schedule, c *timetable.Comparison) (*Notices, error) {
+	cur, err := newView(t, s)
+	if err != nil {
+		return nil, err
+	}
+	cal, err := newView(t, c.Renumber(s))
+	if err != nil {
+		return nil, err
+	}
+	days, err := cur.termDays()
+	if err != nil {
+		return nil, err
+	}
+	n := &Notices{c: c, cur: cur, cal: cal, days: days, at: make(map[noticeKey]int, len(cur.meetings))}
+	for i, m := range cur.meetings {
+		n.at[noticeKey{m.sec.ID, m.num}] = i
+	}
+	return n, nil
+}
+
+// Text writes the change notice of a, one entry of the comparison's
+// Affected (a staff member, cohort or student), as plain text ready to
+// paste into an e-mail: a subject line, a greeting with their name, then
+// per changed meeting what it was and what it is now, in the term's
+// wording (weekdays, 24-hour times, rooms with their building, weeks when
+// not every week, and the first and last date a new or moved meeting
+// takes place), and a closing paragraph that names calendarFile (the
+// updated calendar; "" when none is sent).
+func (n *Notices) Text(w io.Writer, a timetable.Affected, calendarFile string) error {
 	who, ok := NoticeSubject(a)
 	if !ok {
 		return fmt.Errorf("change notices go to staff, cohorts and students, not to a %s", a.Kind)
 	}
-	v, err := newView(t, s)
-	if err != nil {
-		return err
-	}
-	cal, err := v.termDays()
-	if err != nil {
-		return err
-	}
+	v, t := n.cur, n.cur.t
 	term := t.Name
 	if term == "" {
 		term = "the term"
@@ -57,7 +91,7 @@ func WriteNotice(w io.Writer, t *timetable.Term, s *timetable.Schedule, c *timet
 	fmt.Fprintf(bw, "%s for %s (%s) has changed:\n", v.whose(who), term, termDates(t))
 	dropped := false
 	for _, sc := range a.Changes {
-		ch := c.Changes[sc.Change]
+		ch := n.c.Changes[sc.Change]
 		m := ch.New
 		if m == nil {
 			m = ch.Old
@@ -68,7 +102,7 @@ func WriteNotice(w io.Writer, t *timetable.Term, s *timetable.Schedule, c *timet
 			fmt.Fprintf(bw, "  was: %s\n", v.noticePlace(ch.Old))
 		}
 		if sc.Kind != timetable.ChangeDropped && ch.New != nil {
-			fmt.Fprintf(bw, "  now: %s%s\n", v.noticePlace(ch.New), v.noticeDates(cal, ch.New))
+			fmt.Fprintf(bw, "  now: %s%s\n", v.noticePlace(ch.New), n.dates(ch.New))
 		}
 		if sc.Kind == timetable.ChangeDropped {
 			dropped = true
@@ -131,26 +165,23 @@ func (v *view) noticePlace(m *timetable.Meeting) string {
 	return s
 }
 
-// noticeDates is ", from 13 Jan 2028 to 30 Mar 2028" (", on 13 Jan 2028"
-// for a single date): the dates the new meeting m takes place, holidays
-// and weeks outside its section's weeks left out; "" when the term has no
-// dates or the timetable does not hold m.
-func (v *view) noticeDates(cal *calendarInfo, m *timetable.Meeting) string {
-	for i := range v.meetings {
-		vm := &v.meetings[i]
-		if vm.sec.ID != m.Section || vm.num != m.Number || vm.day != m.Day || vm.from != m.Start {
-			continue
-		}
-		on, _ := v.occurrences(cal, vm)
-		switch len(on) {
-		case 0:
-			return " (no date of the term falls on it)"
-		case 1:
-			return ", on " + noticeDate(on[0])
-		}
-		return ", from " + noticeDate(on[0]) + " to " + noticeDate(on[len(on)-1])
+// dates is ", from Thu 13 Jan 2028 to Thu 30 Mar 2028" (", on ..." for a
+// single date): the dates the new meeting m takes place, holidays and
+// weeks outside its section's weeks left out; "" when the timetable does
+// not hold m.
+func (n *Notices) dates(m *timetable.Meeting) string {
+	i, ok := n.at[noticeKey{m.Section, m.Number}]
+	if !ok {
+		return ""
 	}
-	return ""
+	on, _ := n.cur.occurrences(n.days, &n.cur.meetings[i])
+	switch len(on) {
+	case 0:
+		return " (no date of the term falls on it)"
+	case 1:
+		return ", on " + noticeDate(on[0])
+	}
+	return ", from " + noticeDate(on[0]) + " to " + noticeDate(on[len(on)-1])
 }
 
 // noticeDate is "Thu 13 Jan 2028".

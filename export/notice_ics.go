@@ -8,22 +8,18 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// WriteNoticeICS writes who's updated calendar: exactly what WriteICS
-// writes for t and s, plus, for each meeting in cancelled (meetings of an
-// earlier timetable that who no longer attends), a VEVENT with that
-// meeting's UID (the UID an earlier calendar of the same term gave it),
-// STATUS:CANCELLED (RFC 5545 §3.8.1.11) and the SEQUENCE of this
-// publication, so that a calendar program importing the file marks the
-// earlier event cancelled instead of keeping it. A cancelled event has
-// one occurrence, the first date of the term on the meeting's weekday, as
-// §3.6.1 requires DTSTART in a calendar without METHOD. s must number a
-// section's meetings as the earlier timetable did (Comparison.Renumber),
-// so that the events of moved meetings keep their UIDs too.
-func WriteNoticeICS(w io.Writer, t *timetable.Term, s *timetable.Schedule, who Subject, cancelled []timetable.Meeting, opt Options) error {
-	v, err := newView(t, s)
-	if err != nil {
-		return err
-	}
+// Calendar writes who's updated calendar: exactly what WriteICS writes
+// for the term and the renumbered new timetable, plus, for each meeting in
+// cancelled (meetings of the earlier timetable that who no longer
+// attends), a VEVENT with that meeting's UID (the UID an earlier calendar
+// of the same term gave it), STATUS:CANCELLED (RFC 5545 §3.8.1.11) and
+// the SEQUENCE of this publication, so that a calendar program importing
+// the file marks the earlier event cancelled instead of keeping it. A
+// cancelled event has one occurrence, the first date of the term on the
+// meeting's weekday, as §3.6.1 requires DTSTART in a calendar without
+// METHOD.
+func (n *Notices) Calendar(w io.Writer, who Subject, cancelled []timetable.Meeting, opt Options) error {
+	v := n.cal
 	items, err := v.of(who)
 	if err != nil {
 		return err

@@ -42,8 +42,12 @@ func TestNoticeSubject(t *testing.T) {
 		assert.Equal(t, tc.want, who.Kind, tc.kind)
 	}
 	term, s := noticeTerm()
-	err := WriteNotice(&bytes.Buffer{}, term, s, &timetable.Comparison{}, timetable.Affected{Kind: timetable.SubjectRoom, ID: "R1"}, "")
-	assert.ErrorContains(t, err, "not to a room")
+	n, err := NewNotices(term, s, &timetable.Comparison{})
+	require.NoError(t, err)
+	assert.ErrorContains(t, n.Text(&bytes.Buffer{}, timetable.Affected{Kind: timetable.SubjectRoom, ID: "R1"}, ""), "not to a room")
+	term.FirstDay = time.Time{}
+	_, err = NewNotices(term, s, &timetable.Comparison{})
+	assert.ErrorContains(t, err, "First day", "dates are needed")
 }
 
 // TestWriteNoticeMoved checks one moved meeting's notice, worked out by
@@ -57,7 +61,9 @@ func TestWriteNoticeMoved(t *testing.T) {
 	aff := c.Affected(nil)
 	require.Len(t, aff, 2) // S1 and R1
 	var b bytes.Buffer
-	require.NoError(t, WriteNotice(&b, term, s, c, aff[0], ""))
+	n, err := NewNotices(term, s, c)
+	require.NoError(t, err)
+	require.NoError(t, n.Text(&b, aff[0], ""))
 	assert.Equal(t, "Subject: Timetable change for Ines Karr (S1) — Short 2028\n\n"+
 		"Dear Ines Karr,\n\n"+
 		"Your timetable for Short 2028 (10 Jan 2028 – 21 Jan 2028) has changed:\n\n"+
@@ -77,7 +83,9 @@ func TestWriteNoticeICSCancelled(t *testing.T) {
 	who := Subject{Kind: timetable.WhoStaff, ID: "S1"}
 	gone := timetable.Meeting{Section: "Z", Number: 2, Title: "Zoology", Day: time.Wednesday, Start: 600}
 	var b bytes.Buffer
-	require.NoError(t, WriteNoticeICS(&b, term, s, who, []timetable.Meeting{gone}, Options{Generated: time.Date(2028, 1, 5, 8, 0, 0, 0, time.UTC)}))
+	n, err := NewNotices(term, s, &timetable.Comparison{})
+	require.NoError(t, err)
+	require.NoError(t, n.Calendar(&b, who, []timetable.Meeting{gone}, Options{Generated: time.Date(2028, 1, 5, 8, 0, 0, 0, time.UTC)}))
 	cal, err := ics.ParseCalendar(bytes.NewReader(b.Bytes()))
 	require.NoError(t, err)
 	evs := cal.Events()

@@ -57,33 +57,57 @@ func runNotify(e *env, o *notifyOptions, termPath, oldPath, newPath string) erro
 		}
 		return withCode(exitError, fmt.Sprintf("%s breaks %s, so no notices were written; fix the timetable first", newPath, checkCount(n, "hard requirement")))
 	}
-	s := d.newSched
-	cal := d.cmp.Renumber(s) // a meeting keeps its number, so its calendar UID
+	notices, err := export.NewNotices(d.term, d.newSched, d.cmp)
+	if err != nil {
+		return wrapCode(exitError, err)
+	}
 	jobs := notifyJobs(d.affected)
 	if len(jobs) == 0 {
 		fmt.Fprintln(e.stdout, "No one is affected: no notices written.")
 		return nil
 	}
-	if err := os.MkdirAll(o.out, 0o755); err != nil {
-		return failf(exitError, "cannot create %s: %w", o.out, err)
-	}
 	opt := export.Options{Generated: e.now()}
+	var made []string // files and folders this run created, removed again when it fails
+	fail := func(err error) error {
+		for i := len(made) - 1; i >= 0; i-- {
+			os.Remove(made[i]) // a folder goes only when empty: nothing of anyone else's
+		}
+		return err
+	}
+	mkdir := func(dir string) error {
+		if err := os.Mkdir(dir, 0o755); err == nil {
+			made = append(made, dir)
+		} else if !os.IsExist(err) {
+			return failf(exitError, "cannot create %s: %w", dir, err)
+		}
+		return nil
+	}
+	if err := mkdir(o.out); err != nil {
+		return err
+	}
 	for _, j := range jobs {
 		dir := filepath.Join(o.out, j.dir)
-		if err := os.MkdirAll(dir, 0o755); err != nil {
-			return failf(exitError, "cannot create %s: %w", dir, err)
+		if err := mkdir(dir); err != nil {
+			return fail(err)
 		}
 		ics := j.stem + ".ics"
 		txt, err := writeOutput(filepath.Join(dir, j.stem+".txt"), false, func(w io.Writer) error {
-			return export.WriteNotice(w, d.term, s, d.cmp, j.a, ics)
+			return notices.Text(w, j.a, ics)
 		})
-		if err != nil {
-			return wrapCode(exitError, err)
+		if txt != "" {
+			made = append(made, txt)
 		}
-		if _, err := writeOutput(filepath.Join(dir, ics), false, func(w io.Writer) error {
-			return export.WriteNoticeICS(w, d.term, cal, j.who, j.cancelled(d.cmp), opt)
-		}); err != nil {
-			return wrapCode(exitError, err)
+		if err != nil {
+			return fail(wrapCode(exitError, err))
+		}
+		cal, err := writeOutput(filepath.Join(dir, ics), false, func(w io.Writer) error {
+			return notices.Calendar(w, j.who, j.cancelled(d.cmp), opt)
+		})
+		if cal != "" {
+			made = append(made, cal)
+		}
+		if err != nil {
+			return fail(wrapCode(exitError, err))
 		}
 		fmt.Fprintf(e.stdout, "%s  %s: %s\n", txt, j.a.ID, checkCount(len(j.a.Changes), "change"))
 	}
