@@ -14,6 +14,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/export"
+	"github.com/termwright/termwright/samples"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -254,4 +255,79 @@ func TestNotifyOptions(t *testing.T) {
 	require.Equal(t, exitOK, run([]string{"notify", "t.xlsx", "a.xlsx", "b.xlsx", "-o", "out"}, e))
 	assert.Equal(t, &notifyOptions{out: "out"}, got)
 	assert.Equal(t, []string{"t.xlsx", "a.xlsx", "b.xlsx"}, args)
+}
+
+// TestNotifyDemo moves three meetings of the demo term's reference
+// timetable (samples.DemoConfig) to other rooms where timetable.Check
+// still passes, and expects one notice per staff member, cohort and
+// enrolled student of those three sections (counted from the term
+// here), each calendar readable by github.com/arran4/golang-ical.
+func TestNotifyDemo(t *testing.T) {
+	if testing.Short() {
+		t.Skip("writes a few hundred notices")
+	}
+	term, s := samples.GenerateWithWitness(samples.DemoConfig)
+	dir := t.TempDir()
+	cur := &timetable.Schedule{Placements: append([]timetable.Placement(nil), s.Placements...)}
+	moved := map[string]bool{}
+	for i := 0; i < len(cur.Placements) && len(moved) < 3; i += 7 {
+		p := &cur.Placements[i]
+		if moved[p.Section] || p.Room == "" {
+			continue
+		}
+		was := p.Room
+		for _, r := range term.Rooms {
+			if r.ID == was {
+				continue
+			}
+			p.Room = r.ID
+			if len(timetable.HardViolations(timetable.Check(term, cur))) == 0 {
+				moved[p.Section] = true
+				break
+			}
+			p.Room = was
+		}
+	}
+	require.Len(t, moved, 3)
+	want := map[string]bool{}
+	for _, sec := range term.Sections {
+		if moved[sec.ID] {
+			for _, id := range sec.Staff {
+				want["staff/"+id] = true
+			}
+			for _, id := range sec.Cohorts {
+				want["cohorts/"+id] = true
+			}
+		}
+	}
+	for _, en := range term.Enrolments {
+		if moved[en.Section] {
+			want["students/"+en.Student] = true
+		}
+	}
+	termPath := filepath.Join(dir, "term.xlsx")
+	var b bytes.Buffer
+	require.NoError(t, timetable.WriteTermWorkbook(term, &b))
+	require.NoError(t, os.WriteFile(termPath, b.Bytes(), 0o644))
+	paths := map[string]*timetable.Schedule{"old.xlsx": s, "new.xlsx": cur}
+	for name, sc := range paths {
+		b.Reset()
+		require.NoError(t, export.WriteTimetableWorkbook(&b, term, sc, export.Options{}))
+		require.NoError(t, os.WriteFile(filepath.Join(dir, name), b.Bytes(), 0o644))
+	}
+	out := filepath.Join(dir, "notices")
+	e, _, errb := notifyEnv()
+	require.Equal(t, exitOK, run([]string{"notify", termPath, filepath.Join(dir, "old.xlsx"), filepath.Join(dir, "new.xlsx"), "-o", out}, e), errb.String())
+	got := map[string]bool{}
+	for kind := range map[string]bool{"staff": true, "cohorts": true, "students": true} {
+		entries, _ := os.ReadDir(filepath.Join(out, kind))
+		for _, en := range entries {
+			stem := strings.TrimSuffix(en.Name(), filepath.Ext(en.Name()))
+			got[kind+"/"+stem] = true
+			if strings.HasSuffix(en.Name(), ".ics") {
+				calEvents(t, mustRead(t, filepath.Join(out, kind, en.Name())))
+			}
+		}
+	}
+	assert.Equal(t, want, got)
 }
