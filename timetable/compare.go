@@ -40,7 +40,7 @@ type Comparison struct {
 	Changes []Change
 }
 
-// Compare pairs the meetings of two timetables. Per section, an old
+// Compare pairs the meetings of an old and a current timetable. Per section, an old
 // meeting is unchanged when a new meeting of its section sits at its day,
 // start and room (a maximum matching on equal places; among equal places,
 // meetings with the same end and weeks pair first). The rest pair by a
@@ -50,8 +50,8 @@ type Comparison struct {
 // that stays on its day pairs before one that leaves it. What is left is
 // dropped (old) or added (new). Meeting numbers play no part: renumbering
 // the meetings of a section changes nothing.
-func Compare(old, new []Meeting) *Comparison {
-	a, b := bySection(old), bySection(new)
+func Compare(old, cur []Meeting) *Comparison {
+	a, b := bySection(old), bySection(cur)
 	ids := make([]string, 0, len(a)+len(b))
 	for id := range a {
 		ids = append(ids, id)
