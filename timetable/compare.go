@@ -127,7 +127,7 @@ func pairSection(id string, a, b []*Meeting) []Change {
 				cost[i][j] = distance(a[x], b[y])
 			}
 		}
-		for i, j := range leastCostPairs(cost) {
+		for i, j := range LeastCostPairs(cost) {
 			if j >= 0 {
 				partner[left[i]], taken[right[j]] = right[j], true
 			}

@@ -1,13 +1,13 @@
 package timetable
 
-// leastCostPairs pairs the rows of cost with distinct columns, as many
+// LeastCostPairs pairs the rows of cost with distinct columns, as many
 // pairs as the smaller side has, so that the sum of the chosen entries is
 // least: the Hungarian method (Kuhn, Naval Res. Logist. Q. 2, 1955) in the
 // shortest-augmenting-path form with potentials, O(n²·m) for n ≤ m. It
 // returns, per row, its column or -1. cost must be rectangular with
-// non-negative entries. (encode has its own copy for the solve report;
-// timetable must not import encode.)
-func leastCostPairs(cost [][]int64) []int {
+// non-negative entries. Both the comparison of two timetables and the
+// solve report's moves (encode) pair meetings with it.
+func LeastCostPairs(cost [][]int64) []int {
 	n := len(cost)
 	if n == 0 {
 		return nil
@@ -25,7 +25,7 @@ func leastCostPairs(cost [][]int64) []int {
 		for i := range out {
 			out[i] = -1
 		}
-		for j, i := range leastCostPairs(tr) {
+		for j, i := range LeastCostPairs(tr) {
 			out[i] = j
 		}
 		return out

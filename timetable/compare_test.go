@@ -157,7 +157,7 @@ func TestLeastCostPairs(t *testing.T) {
 				cost[i][j] = int64(rng.Intn(16))
 			}
 		}
-		got := leastCostPairs(cost)
+		got := LeastCostPairs(cost)
 		require.Len(t, got, n)
 		var sum int64
 		seen := map[int]bool{}
