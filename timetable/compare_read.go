@@ -72,19 +72,19 @@ func schedFileRows(path string) (sheet string, rows [][]string, lines []int, err
 	fi, err := os.Stat(path)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return "", nil, nil, schedUnreadable("%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
+			return "", nil, nil, unreadablef("%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
 		}
-		return "", nil, nil, schedUnreadable("%s cannot be opened (%v) — check the path and its permissions", path, err)
+		return "", nil, nil, unreadablef("%s cannot be opened (%v) — check the path and its permissions", path, err)
 	}
 	if fi.IsDir() {
-		return "", nil, nil, schedUnreadable("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
+		return "", nil, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
 	}
 	if fi.Size() > schedMaxBytes {
-		return "", nil, nil, schedUnreadable("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
+		return "", nil, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
 	}
 	data, err := os.ReadFile(path)
 	if err != nil {
-		return "", nil, nil, schedUnreadable("%s cannot be read (%v) — check its permissions", path, err)
+		return "", nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
 	}
 	name := filepath.Base(path)
 	if strings.EqualFold(filepath.Ext(path), ".csv") {
