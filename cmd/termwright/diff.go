@@ -40,6 +40,7 @@ func newDiffCmd(e *env) *cobra.Command {
 		}),
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "print the comparison as JSON")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 
@@ -73,7 +74,7 @@ type diffInput struct {
 func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 	d := &diffInput{oldPath: oldPath, newPath: newPath}
 	if termPath != "" {
-		t, ps, err := timetable.Load(termPath)
+		t, ps, err := readTerm(e, termPath)
 		if err != nil {
 			return nil, wrapCode(exitError, err)
 		}

@@ -37,6 +37,7 @@ func newNotifyCmd(e *env) *cobra.Command {
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runNotify(e, o, args[0], args[1], args[2]) }),
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "directory to write the notices into (required; new or empty)")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 
