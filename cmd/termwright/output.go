@@ -113,7 +113,11 @@ func probeFolder(dir string) error {
 		return failf(exitError, "cannot write in %s: %w — choose a folder you may write to", dir, err)
 	}
 	name := f.Name()
-	return errors.Join(f.Close(), os.Remove(name))
+	err = f.Close()
+	if rerr := os.Remove(name); rerr != nil && !errors.Is(rerr, fs.ErrNotExist) {
+		err = errors.Join(err, rerr)
+	}
+	return err
 }
 
 // writeOutput writes path through a temporary file beside it, so that a
@@ -124,11 +128,18 @@ func probeFolder(dir string) error {
 // path-3.ext, ..., which is returned with an error that says so. With
 // force only a regular file is replaced. It returns the path written.
 func writeOutput(path string, force bool, write func(io.Writer) error) (string, error) {
+	removeStaleTemps(filepath.Dir(path), filepath.Base(path))
 	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
 	if err != nil {
 		return "", fmt.Errorf("cannot write in %s: %w", filepath.Dir(path), err)
 	}
 	defer os.Remove(tmp.Name()) // a no-op once the file is in place
+	// The lock, held until the file is in place, marks it as this live
+	// run's; a run killed before the end leaves an unlocked file that the
+	// next write beside it removes.
+	if release, _, err := lockFile(tmp.Name()); err == nil {
+		defer release()
+	}
 	bw := bufio.NewWriter(tmp)
 	werr := write(bw)
 	if werr == nil {
