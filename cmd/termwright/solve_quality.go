@@ -33,7 +33,9 @@ type solveLevel struct {
 
 // solveKeep lists what moved from the kept timetable and whom to tell.
 type solveKeep struct {
-	Moved    int               `json:"moved"` // meetings whose start or room changed
+	Moved    int               `json:"moved"`   // kept meetings no meeting of their section holds any more, replaced by one elsewhere
+	Dropped  int               `json:"dropped"` // kept meetings with no meeting to replace them (a section removed or meeting fewer times)
+	New      int               `json:"new"`     // meetings with no kept meeting (a new section or an extra meeting)
 	Moves    []solveMove       `json:"moves"`
 	Affected []encode.Affected `json:"affected"`
 }
@@ -69,8 +71,13 @@ func solveBuildQuality(t *timetable.Term, res *encode.OptimizeResult) *solveQual
 				sm.Staff = append(sm.Staff, t.Sections[s].Staff...)
 				sm.Cohorts = append(sm.Cohorts, t.Sections[s].Cohorts...)
 			}
-			if mv.Change == encode.ChangeMoved {
+			switch mv.Change {
+			case encode.ChangeMoved:
 				k.Moved++
+			case encode.ChangeDropped:
+				k.Dropped++
+			case encode.ChangeNew:
+				k.New++
 			}
 			k.Moves = append(k.Moves, sm)
 		}
@@ -130,7 +137,7 @@ func solvePrintQuality(w io.Writer, q *solveQuality) {
 		fmt.Fprintln(w, "Nothing moved from the kept timetable.")
 		return
 	}
-	fmt.Fprintf(w, "Changes from the kept timetable (%s moved):\n", checkCount(k.Moved, "meeting"))
+	fmt.Fprintf(w, "Changes from the kept timetable (%s):\n", keepCounts(k))
 	for _, m := range k.Moves {
 		fmt.Fprintf(w, "  %s\n", solveMoveText(m))
 	}
@@ -235,4 +242,17 @@ func solveReadKept(e *env, path string, t *timetable.Term) (*timetable.Schedule,
 		return nil, withCode(exitError, fmt.Sprintf("%s has %s that cannot be read — correct them, or leave out --keep", path, checkCount(len(errs), "row")))
 	}
 	return s, nil
+}
+
+// keepCounts says how many kept meetings moved or were dropped and how
+// many meetings are new: "3 meetings moved, 1 dropped".
+func keepCounts(k *solveKeep) string {
+	parts := []string{checkCount(k.Moved, "meeting") + " moved"}
+	if k.Dropped > 0 {
+		parts = append(parts, fmt.Sprintf("%d dropped", k.Dropped))
+	}
+	if k.New > 0 {
+		parts = append(parts, fmt.Sprintf("%d new", k.New))
+	}
+	return strings.Join(parts, ", ")
 }

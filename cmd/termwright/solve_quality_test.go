@@ -276,3 +276,18 @@ func TestSolveProgressLog(t *testing.T) {
 	assert.True(t, strings.HasPrefix(lines[2], "progress: whole term"), lines[2])
 	assert.NotContains(t, errb.String(), "\r", "no terminal codes in a log")
 }
+
+// The solve report counts what changed from the kept timetable the way the
+// move definition does: moved, dropped and new apart.
+func TestKeepCounts(t *testing.T) {
+	for _, c := range []struct {
+		k    solveKeep
+		want string
+	}{
+		{solveKeep{Moved: 1}, "1 meeting moved"},
+		{solveKeep{Moved: 3, Dropped: 1}, "3 meetings moved, 1 dropped"},
+		{solveKeep{Dropped: 2, New: 1}, "0 meetings moved, 2 dropped, 1 new"},
+	} {
+		assert.Equal(t, c.want, keepCounts(&c.k))
+	}
+}
