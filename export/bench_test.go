@@ -29,7 +29,7 @@ func BenchmarkICS(b *testing.B) {
 	}
 	b.ReportAllocs()
 	for b.Loop() {
-		if err := v.writeICS(io.Discard, Subject{timetable.WhoStaff, "S1"}, Options{Generated: fixedClock}); err != nil {
+		if err := v.writeICS(io.Discard, Subject{timetable.WhoStaff, "S1"}, Options{Generated: fixedClock}, nil); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -39,10 +39,12 @@ func WriteICS(w io.Writer, t *timetable.Term, s *timetable.Schedule, who Subject
 	if err != nil {
 		return err
 	}
-	return v.writeICS(w, who, opt)
+	return v.writeICS(w, who, opt, nil)
 }
 
-func (v *view) writeICS(w io.Writer, who Subject, opt Options) error {
+// writeICS writes who's calendar; more, when not nil, adds events after
+// the meetings' own (the cancellations of a change notice).
+func (v *view) writeICS(w io.Writer, who Subject, opt Options, more func(iw *icsWriter, cal *calendarInfo, gen time.Time)) error {
 	items, err := v.of(who)
 	if err != nil {
 		return err
@@ -67,6 +69,9 @@ func (v *view) writeICS(w io.Writer, who Subject, opt Options) error {
 	writeVTimezone(iw, cal.tzid, cal.obs)
 	for _, i := range items {
 		v.writeEvent(iw, cal, &v.meetings[i], who, gen)
+	}
+	if more != nil {
+		more(iw, cal, gen)
 	}
 	iw.line("END:VCALENDAR")
 	return iw.flush()

@@ -20,37 +20,11 @@ import (
 // METHOD.
 func (n *Notices) Calendar(w io.Writer, who Subject, cancelled []timetable.Meeting, opt Options) error {
 	v := n.cal
-	items, err := v.of(who)
-	if err != nil {
-		return err
-	}
-	cal, err := v.calendar()
-	if err != nil {
-		return err
-	}
-	gen := opt.generated().UTC()
-	iw := newICSWriter(w)
-	// The same header as writeICS (ical.go).
-	iw.line("BEGIN:VCALENDAR")
-	iw.line("VERSION:2.0")
-	iw.line("PRODID:" + icsProdID)
-	iw.line("CALSCALE:GREGORIAN")
-	name := v.title(who)
-	if v.t.Name != "" {
-		name += " — " + v.t.Name
-	}
-	iw.prop("NAME", name) // RFC 7986 §5.1
-	iw.prop("X-WR-CALNAME", name)
-	iw.prop("X-WR-TIMEZONE", cal.tzid)
-	writeVTimezone(iw, cal.tzid, cal.obs)
-	for _, i := range items {
-		v.writeEvent(iw, cal, &v.meetings[i], who, gen)
-	}
-	for i := range cancelled {
-		v.writeCancelled(iw, cal, &cancelled[i], who, gen)
-	}
-	iw.line("END:VCALENDAR")
-	return iw.flush()
+	return v.writeICS(w, who, opt, func(iw *icsWriter, cal *calendarInfo, gen time.Time) {
+		for i := range cancelled {
+			v.writeCancelled(iw, cal, &cancelled[i], who, gen)
+		}
+	})
 }
 
 // writeCancelled writes the VEVENT that cancels an earlier meeting m.

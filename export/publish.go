@@ -182,7 +182,7 @@ func (v *view) publishJobs(opt Options) []publishJob {
 			}
 			jobs = append(jobs, publishJob{
 				ManifestFile{Path: path.Join("calendar", kindDir(who.Kind), names[i]+".ics"), Format: "ics", Kind: kind, ID: who.ID},
-				func(w io.Writer) error { return v.writeICS(w, who, opt) }})
+				func(w io.Writer) error { return v.writeICS(w, who, opt, nil) }})
 		}
 	}
 	return jobs
@@ -339,7 +339,7 @@ func checkTarget(dir string, force bool) error {
 const partialInfix = ".partial-"
 
 // newWorkDir creates a working directory .<base>.partial-* in parent and
-// locks it for as long as this run lives (lockDir). Between its creation
+// locks it for as long as this run lives (TryLock). Between its creation
 // and its lock another run's cleanLeftovers may take it for a leftover;
 // that run then holds the lock and removes it, so a new one is made. On a
 // file system without locks the directory is used unlocked (and other runs
@@ -350,7 +350,7 @@ func newWorkDir(parent, base string) (string, func(), error) {
 		if err != nil {
 			return "", nil, err
 		}
-		release, held, err := lockDir(tmp)
+		release, held, err := TryLock(tmp)
 		switch {
 		case err == nil && !held:
 			if _, serr := os.Lstat(tmp); serr == nil {
@@ -361,7 +361,7 @@ func newWorkDir(parent, base string) (string, func(), error) {
 			if _, serr := os.Lstat(tmp); serr == nil {
 				return tmp, func() {}, nil // no locks here
 			}
-		case !haveLocks:
+		case !HaveLocks:
 			return tmp, func() {}, nil
 		}
 	}
@@ -389,7 +389,7 @@ func swapInto(tmp, dir string) error {
 	if err := exchange(tmp, dir); err == nil {
 		return nil
 	}
-	if release, held, err := lockDir(dir); err == nil && !held {
+	if release, held, err := TryLock(dir); err == nil && !held {
 		defer release()
 	}
 	old := tmp + ".old"
@@ -440,7 +440,7 @@ func cleanLeftovers(parent, base, dir string) {
 		if fi, err := os.Lstat(p); err != nil || !fi.IsDir() {
 			continue
 		}
-		release, held, err := lockDir(p)
+		release, held, err := TryLock(p)
 		if err != nil || held {
 			continue
 		}

@@ -198,7 +198,7 @@ func TestPublishCleansStaleLeftovers(t *testing.T) {
 	agedDir(t, at(".other.partial-555"), false, time.Time{})
 	agedDir(t, at("out.partial-666"), false, time.Time{})
 	require.NoError(t, os.Mkdir(at(".out.partial-333"), 0o755)) // a run killed just now
-	release, held, err := lockDir(at(".out.partial-444"))
+	release, held, err := TryLock(at(".out.partial-444"))
 	require.NoError(t, err)
 	require.False(t, held)
 	defer release()

@@ -9,6 +9,8 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"github.com/termwright/termwright/export"
 )
 
 // An output file is checked twice. checkOutput runs before any work, so
@@ -137,7 +139,7 @@ func writeOutput(path string, force bool, write func(io.Writer) error) (string, 
 	// The lock, held until the file is in place, marks it as this live
 	// run's; a run killed before the end leaves an unlocked file that the
 	// next write beside it removes.
-	if release, _, err := lockFile(tmp.Name()); err == nil {
+	if release, _, err := export.TryLock(tmp.Name()); err == nil {
 		defer release()
 	}
 	bw := bufio.NewWriter(tmp)

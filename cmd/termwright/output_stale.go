@@ -3,12 +3,14 @@ package main
 import (
 	"os"
 	"path/filepath"
+
+	"github.com/termwright/termwright/export"
 )
 
 // removeStaleTemps removes what killed runs left beside an output: the
 // temporary files of writeOutput (".NAME.*.tmp") and of probeFolder
 // (".termwright-probe-*"). A live run holds a lock on each of its own
-// (lockFile), so only files whose run has ended are removed; nothing else
+// (export.TryLock), so only files whose run has ended are removed; nothing else
 // is touched. Errors are ignored: a leftover is untidy, not harmful.
 func removeStaleTemps(dir, base string) {
 	for _, pattern := range []string{"." + escapeGlob(base) + ".*.tmp", ".termwright-probe-*"} {
@@ -17,7 +19,7 @@ func removeStaleTemps(dir, base string) {
 			if fi, err := os.Lstat(name); err != nil || !fi.Mode().IsRegular() {
 				continue
 			}
-			release, held, err := lockFile(name)
+			release, held, err := export.TryLock(name)
 			if err != nil || held {
 				continue
 			}

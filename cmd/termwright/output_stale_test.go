@@ -9,6 +9,7 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/export"
 )
 
 // A run killed while writing leaves its temporary file (and perhaps a
@@ -28,7 +29,7 @@ func TestWriteOutputRemovesStaleTemps(t *testing.T) {
 	for _, p := range []string{stale, probe, live, other, mine} {
 		require.NoError(t, os.WriteFile(p, []byte("x"), 0o644))
 	}
-	release, held, err := lockFile(live) // a run that is still writing
+	release, held, err := export.TryLock(live) // a run that is still writing
 	require.NoError(t, err)
 	require.False(t, held)
 	defer release()
