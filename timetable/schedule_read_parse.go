@@ -171,9 +171,16 @@ func schedDays(t *Term) string {
 	return strings.Join(out, ", ")
 }
 
-// schedReadOnlyCells warns when End, Staff or Cohorts disagree with the term:
-// the term decides them and the cells are ignored.
+// schedReadOnlyCells warns when End, Weeks, Staff or Cohorts disagree with
+// the term: the term decides them and the cells are ignored.
 func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (string, Position), ps *Problems) {
+	if v, pos := cell("Weeks"); v != "" {
+		got, err := parseWeeks(v, t.AllWeeks())
+		if want := sec.Weeks; err != nil || got != want {
+			ps.warnf(pos, "weeks %s differ from the Sections sheet: %s meets in weeks %q; the Sections sheet decides the weeks, so change them there — this cell is ignored",
+				Quote(v), sec.ID, t.WeeksText(want))
+		}
+	}
 	if v, pos := cell("End"); v != "" {
 		end, err := ParseClock(v)
 		if span, fits := t.Span(p.Period, occLength(sec)); err == nil && fits {

@@ -154,6 +154,9 @@ func TestReadScheduleProblems(t *testing.T) {
 		{"staff disagrees", [][]string{header, with(7, "!S2")}, 1, "warning"},
 		{"cohorts disagree", [][]string{header, with(8, "!C1, C2")}, 1, "warning"},
 		{"unknown column", [][]string{append(header[:9:9], "!Notes"), append(good[:9:9], "moved by hand")}, 1, "warning"},
+		{"weeks agree", [][]string{append(header[:9:9], "Weeks"), append(good[:9:9], "all")}, 1, ""},
+		{"weeks disagree", [][]string{append(header[:9:9], "Weeks"), append(good[:9:9], "!odd")}, 1, "warning"},
+		{"weeks unreadable", [][]string{append(header[:9:9], "Weeks"), append(good[:9:9], "!fortnightly")}, 1, "warning"},
 		{"unknown section kept for Check", [][]string{header, with(0, "NEW-1")}, 1, ""},
 		{"unknown room kept for Check", [][]string{header, with(6, "R99")}, 1, ""},
 	}
