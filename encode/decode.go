@@ -1,6 +1,7 @@
 package encode
 
 import (
+	"context"
 	"fmt"
 	"sort"
 	"strings"
@@ -59,7 +60,10 @@ type meeting struct {
 
 // decoder turns one model into a schedule.
 type decoder struct {
-	t  *timetable.Term
+	// ctx bounds the exact room searches; when it ends, decoding stops
+	// with its error.
+	ctx context.Context
+	t   *timetable.Term
 	c  *Catalog
 	ms []meeting
 	// members caches the member list of each room set.
@@ -78,7 +82,13 @@ type decoder struct {
 // fewest students over first). A batch that cannot be completed is solved
 // exactly; when that fails too, the result is a *RoomConflictError.
 func Decode(t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Schedule, error) {
-	d := &decoder{t: t, c: c, members: map[int][]int{}}
+	return DecodeContext(context.Background(), t, c, model)
+}
+
+// DecodeContext is Decode within ctx: the exact room searches stop when
+// ctx ends, and then it returns ctx's error.
+func DecodeContext(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Schedule, error) {
+	d := &decoder{ctx: ctx, t: t, c: c, members: map[int][]int{}}
 	if err := d.readStarts(model); err != nil {
 		return nil, err
 	}

@@ -1,10 +1,8 @@
 package encode
 
 import (
-	"fmt"
 	"math/rand/v2"
 	"slices"
-	"time"
 
 	"github.com/termwright/termwright/solver"
 )
@@ -105,41 +103,28 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 	for _, s := range free {
 		isFree[s] = true
 	}
-	// A program of its own for the step: the whole program plus the fixed
-	// starts as facts. Everything the fixed sections decide propagates at
-	// level 0 and drops out of the search, so each descent of the engine
-	// is short; building the solver costs about as much as one descent on
-	// the whole program.
-	q := *o.p
-	q.Rules = slices.Clip(o.p.Rules)
+	var fixed []solver.Atom
 	for _, a := range o.best.model {
 		if info := o.cat.AtomInfo(a); info.Kind == AtomStart && !isFree[info.Section] {
-			q.Rules = append(q.Rules, solver.Rule{Head: a})
+			fixed = append(fixed, a)
 		}
 	}
 	// Weak constraints the freed sections cannot reach are constants of
 	// the step: leaving them out keeps the engine's weighted sums (and the
 	// explanations of their propagations) to what can change.
 	reach := o.reachable(isFree)
-	q.Weaks = nil
-	for _, w := range o.p.Weaks {
-		for _, l := range w.Body {
+	keepWeak := func(i int) bool {
+		for _, l := range o.p.Weaks[i].Body {
 			if reach[l.Atom()] {
-				q.Weaks = append(q.Weaks, w)
-				break
+				return true
 			}
 		}
+		return false
 	}
-	t0 := time.Now()
-	eopts := solver.DefaultOptions()
-	eopts.Seed = o.opt.Seed + int64(o.res.Steps)
-	s, err := solver.New(&q, eopts)
-	o.res.Timings.Solve += time.Since(t0)
+	s, err := o.x.Derive(fixed, keepWeak, o.opt.Seed+int64(o.res.Steps), o.best.model)
 	if err != nil {
-		return solver.Unknown, false, false, fmt.Errorf("internal error: the engine rejects a neighbourhood program: %w", err)
+		return solver.Unknown, false, false, err
 	}
-	s.SetProgress(func(solver.Stats) { o.note(false) })
-	o.phases(s, o.best.model)
 	o.lastOnly, o.pending = len(o.p.Weaks) > GlobalWeakLimit, nil // on large terms the gates cost more than a step
 	st, complete, err = o.optimizeCall(s, nil, o.opt.StepConflicts, -1)
 	o.lastOnly = false
@@ -148,9 +133,7 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 		if o.fatal != nil {
 			return st, false, false, o.fatal
 		}
-		if err := o.roomProblems(); err != nil {
-			return st, false, false, err
-		}
+		o.roomProblems()
 		complete = complete && o.hall == nil && o.conflict == nil
 	}
 	return st, s.Proven(), complete, err

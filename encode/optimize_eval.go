@@ -2,10 +2,7 @@ package encode
 
 import (
 	"errors"
-	"fmt"
 	"slices"
-	"strings"
-	"time"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
@@ -57,6 +54,9 @@ func (o *optRun) take(model []solver.Atom) {
 		o.conflict = rerr
 		o.stop()
 		return
+	case o.ctx.Err() != nil && errors.Is(err, o.ctx.Err()):
+		o.stop() // out of time while decoding: the model is not taken
+		return
 	case err != nil:
 		o.fatal = err
 		o.stop()
@@ -69,6 +69,7 @@ func (o *optRun) take(model []solver.Atom) {
 func (o *optRun) accept(c *candidate) {
 	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
 		o.best = c
+		o.x.Prefer(c.model) // a rebuilt engine starts from the incumbent
 		o.res.History = append(o.res.History, o.snapshot())
 		o.note(true)
 	}
@@ -94,40 +95,15 @@ func (o *optRun) byLevel(perCrit []int64) []int64 {
 	return out
 }
 
-// evaluate puts a model through the gates: solver.Verify, Decode (which may
-// report room problems as *HallError or *RoomConflictError), room
-// improvement, timetable.Check and the third gate; then it evaluates
-// timetable.Cost.
+// evaluate puts a model through the gates: Search.Gates (solver.Verify,
+// Decode, which may report room problems as *HallError or
+// *RoomConflictError, room improvement, timetable.Check) and the third
+// gate; then it evaluates timetable.Cost.
 func (o *optRun) evaluate(model []solver.Atom) (*candidate, error) {
 	model = slices.Clone(model)
-	t0 := time.Now()
-	verr := solver.Verify(o.p, model)
-	o.res.Timings.Verify += time.Since(t0)
-	if verr != nil {
-		return nil, fmt.Errorf("internal error: the engine's model fails the verifier: %w", verr)
-	}
-	t1 := time.Now()
-	sched, err := Decode(o.t, o.cat, model)
-	if err == nil {
-		sched = o.bestRooms(sched)
-	}
-	o.res.Timings.Decode += time.Since(t1)
+	sched, err := o.x.Gates(o.ctx, model)
 	if err != nil {
 		return nil, err
-	}
-	t2 := time.Now()
-	hard := timetable.HardViolations(timetable.Check(o.t, sched))
-	o.res.Timings.Check += time.Since(t2)
-	if len(hard) > 0 {
-		msgs := make([]string, 0, len(hard))
-		for i, v := range hard {
-			if i == 10 {
-				msgs = append(msgs, fmt.Sprintf("and %d more", len(hard)-10))
-				break
-			}
-			msgs = append(msgs, v.Msg)
-		}
-		return nil, fmt.Errorf("%w:\n  %s", ErrCheckFailed, strings.Join(msgs, "\n  "))
 	}
 	if err := o.cat.thirdGate(o.t, o.p, model, sched, o.opt.Keep); err != nil {
 		return nil, err

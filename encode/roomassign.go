@@ -379,12 +379,18 @@ func (a *roomAssigner) repair() error {
 	if a.localRepair() {
 		return nil
 	}
+	if err := a.d.ctx.Err(); err != nil {
+		return err // out of time: no conflict was proved
+	}
 	rerr := &RoomConflictError{}
 	if core, ok := a.isolatedCore(); ok {
 		a.addNogood(rerr, core)
 		return rerr
 	}
 	for _, comp := range a.components() {
+		if err := a.d.ctx.Err(); err != nil {
+			return err
+		}
 		if len(comp) > maxComponent {
 			rerr.Incomplete = true
 			a.addNogood(rerr, a.neighbourhood(comp))
@@ -396,6 +402,9 @@ func (a *roomAssigner) repair() error {
 		core, proved, ok := a.exact(comp, componentConflictLimit, false)
 		if ok {
 			continue
+		}
+		if err := a.d.ctx.Err(); err != nil {
+			return err
 		}
 		if !proved {
 			rerr.Incomplete = true
@@ -552,7 +561,7 @@ func (a *roomAssigner) localRepair() bool {
 		d.ms[mi].room = -1
 		add(mi)
 	}
-	for hop := 0; hop < localHops; hop++ {
+	for hop := 0; hop < localHops && a.d.ctx.Err() == nil; hop++ {
 		// Widen by the blockers of every meeting in the set.
 		for _, mi := range append([]int(nil), set...) {
 			m := &d.ms[mi]

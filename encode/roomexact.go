@@ -1,8 +1,6 @@
 package encode
 
 import (
-	"context"
-
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -136,7 +134,7 @@ func (a *roomAssigner) exact(comp []int, limit int64, isolated bool) (core []int
 		assume[k] = solver.Pos(sw[k])
 	}
 	s.Assume(assume...)
-	switch s.Solve(context.Background()) {
+	switch s.Solve(d.ctx) {
 	case solver.Satisfiable:
 		if isolated {
 			return nil, true, true
