@@ -41,7 +41,6 @@ type Search struct {
 	tally *Result // counters and timings, shared by the Searches of one run
 
 	progress func(solver.Stats)
-	decode   func(ctx context.Context, model []solver.Atom) (*timetable.Schedule, error)
 	improve  func(*timetable.Schedule) *timetable.Schedule
 
 	s      *solver.Solver
@@ -59,9 +58,6 @@ type SearchOptions struct {
 	// weak constraints and none of the soft criteria's auxiliary atoms.
 	HardOnly bool
 	Progress func(solver.Stats) // optional, given to every engine
-	// Decode replaces Decode in Gates (explanations decode for a relaxed
-	// term); nil means DecodeContext on the search's term and catalog.
-	Decode func(ctx context.Context, model []solver.Atom) (*timetable.Schedule, error)
 	// Improve, when set, improves the rooms of every decoded timetable
 	// before it is checked (the optimiser's room search).
 	Improve func(*timetable.Schedule) *timetable.Schedule
@@ -82,7 +78,7 @@ func markOf(p *solver.Program) programMark {
 // NewSearch makes the search of program p compiled from term t with
 // catalog cat. The engine is built on first use.
 func NewSearch(t *timetable.Term, p *solver.Program, cat *Catalog, opt SearchOptions) *Search {
-	x := &Search{t: t, p: p, cat: cat, opts: opt.Engine, tally: opt.Tally, progress: opt.Progress, decode: opt.Decode, improve: opt.Improve}
+	x := &Search{t: t, p: p, cat: cat, opts: opt.Engine, tally: opt.Tally, progress: opt.Progress, improve: opt.Improve}
 	if x.tally == nil {
 		x.tally = &Result{}
 	}
@@ -304,6 +300,14 @@ func (x *Search) withFacts(model []solver.Atom) []solver.Atom {
 	return append(model, x.facts...)
 }
 
+// Value reports atom a's value in the live engine's last model.
+func (x *Search) Value(a solver.Atom) bool {
+	if int(a) > x.s.NumAtoms() {
+		return x.isFact[a]
+	}
+	return x.s.Value(a)
+}
+
 // Core returns the live engine's last unsatisfiable core.
 func (x *Search) Core() []solver.Lit { return x.s.Core(nil) }
 
@@ -321,7 +325,7 @@ func (x *Search) Gates(ctx context.Context, model []solver.Atom) (*timetable.Sch
 		return nil, fmt.Errorf("internal error: the engine's model fails the verifier: %w", verr)
 	}
 	t1 := time.Now()
-	sched, err := x.decodeModel(ctx, model)
+	sched, err := DecodeContext(ctx, x.t, x.cat, model)
 	if err == nil && x.improve != nil {
 		sched = x.improve(sched)
 	}
@@ -336,13 +340,6 @@ func (x *Search) Gates(ctx context.Context, model []solver.Atom) (*timetable.Sch
 		return nil, fmt.Errorf("internal error: %w", err)
 	}
 	return sched, x.Check(sched)
-}
-
-func (x *Search) decodeModel(ctx context.Context, model []solver.Atom) (*timetable.Schedule, error) {
-	if x.decode != nil {
-		return x.decode(ctx, model)
-	}
-	return DecodeContext(ctx, x.t, x.cat, model)
 }
 
 // Check runs timetable.Check on a decoded timetable; a hard violation is
@@ -411,17 +408,22 @@ type Gate func(ctx context.Context, model []solver.Atom) error
 // errSearchAgain is returned by a Gate that has added cuts itself.
 var errSearchAgain = errors.New("search again")
 
-// Find searches until a model passes the gate: solve under assume, then
+// Find searches until a model passes the gate: solve under the literals
+// assume returns (nil: none), then
 // the gate; after a room problem it cuts, prefers the model's starts for a
 // rebuilt engine and searches again, for at most maxRounds rounds
 // (Unknown after that). It returns Satisfiable with the accepted model,
 // or the engine's Unsatisfiable or Unknown.
-func (x *Search) Find(ctx context.Context, assume []solver.Lit, gate Gate, maxRounds int) (solver.Status, []solver.Atom, error) {
+func (x *Search) Find(ctx context.Context, assume func() []solver.Lit, gate Gate, maxRounds int) (solver.Status, []solver.Atom, error) {
 	for round := 0; round < maxRounds; round++ {
 		if ctx.Err() != nil {
 			return solver.Unknown, nil, nil
 		}
-		st, err := x.Solve(ctx, assume...)
+		var lits []solver.Lit
+		if assume != nil {
+			lits = assume() // again each round: cuts may add groups to assume
+		}
+		st, err := x.Solve(ctx, lits...)
 		if err != nil || st != solver.Satisfiable {
 			return st, nil, err
 		}
