@@ -64,8 +64,8 @@ type decoder struct {
 	// with its error.
 	ctx context.Context
 	t   *timetable.Term
-	c  *Catalog
-	ms []meeting
+	c   *Catalog
+	ms  []meeting
 	// members caches the member list of each room set.
 	members map[int][]int
 }

@@ -44,8 +44,8 @@ type Search struct {
 	improve  func(*timetable.Schedule) *timetable.Schedule
 
 	s      *solver.Solver
-	mark   programMark     // the part of p that s holds
-	facts  []solver.Atom   // atoms of p beyond s that are facts, added to every model
+	mark   programMark   // the part of p that s holds
+	facts  []solver.Atom // atoms of p beyond s that are facts, added to every model
 	isFact map[solver.Atom]bool
 	prefer []solver.Atom // model whose start atoms a new engine tries first
 	builds int           // engines built
