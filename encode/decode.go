@@ -62,10 +62,11 @@ type meeting struct {
 type decoder struct {
 	// ctx bounds the exact room searches; when it ends, decoding stops
 	// with its error.
-	ctx context.Context
-	t   *timetable.Term
-	c   *Catalog
-	ms  []meeting
+	ctx    context.Context
+	effort roomEffort // limits of the exact room searches
+	t      *timetable.Term
+	c      *Catalog
+	ms     []meeting
 	// members caches the member list of each room set.
 	members map[int][]int
 }
@@ -88,7 +89,12 @@ func Decode(t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Sche
 // DecodeContext is Decode within ctx: the exact room searches stop when
 // ctx ends, and then it returns ctx's error.
 func DecodeContext(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Schedule, error) {
-	d := &decoder{ctx: ctx, t: t, c: c, members: map[int][]int{}}
+	return decodeWith(ctx, t, c, model, defaultRoomEffort)
+}
+
+// decodeWith is DecodeContext with the given effort limits.
+func decodeWith(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom, effort roomEffort) (*timetable.Schedule, error) {
+	d := &decoder{ctx: ctx, effort: effort, t: t, c: c, members: map[int][]int{}}
 	if err := d.readStarts(model); err != nil {
 		return nil, err
 	}

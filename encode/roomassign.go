@@ -363,9 +363,6 @@ func (a *roomAssigner) components() [][]int {
 	return out
 }
 
-// localHops is how far local repair widens the set of meetings it moves.
-const localHops = 3
-
 // repair places the meetings the fast assignment left over. First it
 // re-solves them exactly together with the meetings that block them from
 // their rooms (widening a few times), the rest staying where they are. If
@@ -391,7 +388,7 @@ func (a *roomAssigner) repair() error {
 		if err := a.d.ctx.Err(); err != nil {
 			return err
 		}
-		if len(comp) > maxComponent {
+		if len(comp) > a.d.effort.maxComponent {
 			rerr.Incomplete = true
 			a.addNogood(rerr, a.neighbourhood(comp))
 			continue
@@ -399,7 +396,7 @@ func (a *roomAssigner) repair() error {
 		for _, mi := range comp {
 			a.unplace(mi)
 		}
-		core, proved, ok := a.exact(comp, componentConflictLimit, false)
+		core, proved, ok := a.exact(comp, a.d.effort.componentConflicts, false)
 		if ok {
 			continue
 		}
@@ -501,19 +498,16 @@ func (a *roomAssigner) widen(set []int, hops int) []int {
 	return set
 }
 
-// maxIsolated caps the neighbourhoods isolatedCore solves.
-const maxIsolated = 800
-
 // isolatedCore looks for a set of meetings around the failed ones that
 // cannot be roomed even on their own; it returns the engine's core.
 func (a *roomAssigner) isolatedCore() ([]int, bool) {
 	set := append([]int(nil), a.failed...)
-	for hop := 1; hop <= 4; hop++ {
+	for hop := 1; hop <= a.d.effort.isolatedHops; hop++ {
 		set = a.widen(set, 1)
-		if len(set) > maxIsolated {
+		if len(set) > a.d.effort.maxIsolated {
 			return nil, false
 		}
-		core, proved, ok := a.exact(set, localConflictLimit, true)
+		core, proved, ok := a.exact(set, a.d.effort.localConflicts, true)
 		switch {
 		case ok:
 			continue // roomable on its own: look wider
@@ -561,7 +555,7 @@ func (a *roomAssigner) localRepair() bool {
 		d.ms[mi].room = -1
 		add(mi)
 	}
-	for hop := 0; hop < localHops && a.d.ctx.Err() == nil; hop++ {
+	for hop := 0; hop < a.d.effort.localHops && a.d.ctx.Err() == nil; hop++ {
 		// Widen by the blockers of every meeting in the set.
 		for _, mi := range append([]int(nil), set...) {
 			m := &d.ms[mi]
@@ -580,7 +574,7 @@ func (a *roomAssigner) localRepair() bool {
 			prev[k] = d.ms[mi].room
 			a.unplace(mi)
 		}
-		if _, _, ok := a.exact(set, localConflictLimit, false); ok {
+		if _, _, ok := a.exact(set, a.d.effort.localConflicts, false); ok {
 			return true
 		}
 		for k, mi := range set {
