@@ -8,12 +8,13 @@ import (
 )
 
 // Large-neighbourhood search (Shaw 1998). The incumbent is the best
-// verified timetable. Each step frees a neighbourhood of sections, assumes
-// every other section's starts as in the incumbent (assumptions on start
-// atoms, so the solver and its learned clauses are reused), and optimises
-// the freed sections within a conflict budget; every model the engine
-// finds goes through the gates, and one whose total cost is lower becomes
-// the incumbent. The neighbourhood size adapts: when the engine proves a
+// verified timetable. Each step frees a neighbourhood of sections and
+// optimises them within a conflict budget on an engine of its own
+// (Search.Derive): the whole program with every other section's starts
+// fixed as in the incumbent (facts, decided at level 0) and only the weak
+// constraints the freed sections can reach. Every model the engine finds
+// goes through the gates, and one whose total cost is lower becomes the
+// incumbent; room problems become cuts of the whole program. The neighbourhood size adapts: when the engine proves a
 // neighbourhood optimal the next one grows, when the budget runs out first
 // it shrinks.
 
