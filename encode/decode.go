@@ -12,7 +12,7 @@ import (
 
 // HallError says that in some period the meetings that can only use the
 // rooms of a set U outnumber the rooms of U available then, so no room
-// assignment exists for the model (Hall 1935). Solve adds the Hall
+// assignment exists for the model (Hall 1935). Search.Cut adds the Hall
 // constraints of every such U to the program and searches again.
 type HallError struct {
 	Period   int               // index into Term.Periods

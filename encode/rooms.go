@@ -382,7 +382,7 @@ func (b *builder) initialFamilies() []roomSet {
 
 // Families of more than lazyMinRooms rooms whose weekly demand is under
 // lazyLoad of their room-periods are not stated up front: such a set is
-// rarely short in any period, and if it is, Decode finds it and Solve adds
+// rarely short in any period, and if it is, Decode finds it and Search.Cut adds
 // it. This keeps the largest bounds (the most literals) out of most
 // programs.
 const (

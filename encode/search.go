@@ -117,7 +117,10 @@ func (x *Search) Engine() (*solver.Solver, error) {
 // build makes a new engine from the program (or its view).
 func (x *Search) build() error {
 	t0 := time.Now()
-	defer func() { x.tally.Timings.Solve += time.Since(t0) }()
+	defer func() {
+		x.tally.Timings.Solve += time.Since(t0)
+		x.tally.Timings.Build += time.Since(t0)
+	}()
 	q := x.p
 	if x.view != nil {
 		q = x.view(x.p)
@@ -450,7 +453,10 @@ func (x *Search) Find(ctx context.Context, assume func() []solver.Lit, gate Gate
 // first. Its models are models of the program.
 func (x *Search) Derive(fixed []solver.Atom, keepWeak func(i int) bool, seed int64, model []solver.Atom) (*solver.Solver, error) {
 	t0 := time.Now()
-	defer func() { x.tally.Timings.Solve += time.Since(t0) }()
+	defer func() {
+		x.tally.Timings.Solve += time.Since(t0)
+		x.tally.Timings.Build += time.Since(t0)
+	}()
 	// A program of its own for the step: the whole program plus the fixed
 	// starts as facts. Everything the fixed sections decide propagates at
 	// level 0 and drops out of the search, so each descent of the engine
