@@ -127,15 +127,14 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 		return solver.Unknown, false, false, err
 	}
 	o.lastOnly, o.pending = len(o.p.Weaks) > GlobalWeakLimit, nil // on large terms the gates cost more than a step
-	st, complete, err = o.optimizeCall(s, nil, o.opt.StepConflicts, -1)
+	st, complete, err = o.x.Improve(o.ctx, s, nil, o.opt.StepConflicts, -1, o.onModel)
 	o.lastOnly = false
 	if err == nil && o.pending != nil {
-		o.take(o.pending)
-		if o.fatal != nil {
-			return st, false, false, o.fatal
+		ok, err := o.x.Settle(o.ctx, o.take(o.pending))
+		if err != nil {
+			return st, false, false, err
 		}
-		o.roomProblems()
-		complete = complete && o.hall == nil && o.conflict == nil
+		complete = complete && ok
 	}
 	return st, s.Proven(), complete, err
 }

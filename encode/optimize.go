@@ -178,12 +178,6 @@ type optRun struct {
 	best  *candidate // best verified timetable so far, the incumbent of neighbourhood search
 	bound []int64    // proven lower bound per level of levels
 
-	// Set by the model callback when a model cannot be used.
-	stop     context.CancelFunc // cancels the running engine call
-	hall     *HallError         // rooms short in some period: add families
-	conflict *RoomConflictError // room combination without assignment: forbid and search again
-	fatal    error              // a gate failed
-
 	// In neighbourhood steps only the engine's last model of a call is
 	// put through the gates (each improves on the one before).
 	lastOnly bool
@@ -211,45 +205,6 @@ func (o *optRun) run() error {
 	return o.lns()
 }
 
-// optimizeCall runs one solver.Optimize under the given assumptions and
-// conflict budget, on the whole-term engine or, when s is given, on an
-// engine derived for a neighbourhood step, handling models through the
-// callback and turning room problems into cuts. It reports the status and
-// whether the call ran to its end (not stopped for a room problem or by
-// ctx).
-func (o *optRun) optimizeCall(s *solver.Solver, assume []solver.Lit, conflicts int64, coreBudget int64) (solver.Status, bool, error) {
-	ctx, cancel := context.WithCancel(o.ctx)
-	defer cancel()
-	o.stop = cancel
-	o.hall, o.conflict, o.fatal = nil, nil, nil
-	var st solver.Status
-	var err error
-	if s == nil {
-		st, err = o.x.Optimize(ctx, assume, conflicts, coreBudget, o.onModel)
-	} else {
-		st, err = o.x.optimizeOn(ctx, s, assume, conflicts, coreBudget, o.onModel)
-	}
-	if err != nil {
-		return st, false, err
-	}
-	if o.fatal != nil {
-		return st, false, o.fatal
-	}
-	o.roomProblems()
-	complete := o.hall == nil && o.conflict == nil && o.ctx.Err() == nil
-	return st, complete, nil
-}
-
-// roomProblems turns what the callback learned about rooms into cuts.
-func (o *optRun) roomProblems() {
-	if o.hall != nil {
-		o.x.Cut(o.hall)
-	}
-	if o.conflict != nil {
-		o.x.Cut(o.conflict)
-	}
-}
-
 // global finds the first verified timetable (no budget: whatever it
 // takes), then, unless budget is negative, runs model-improving search with
 // core-guided lower bounds on the whole term until the optimum is proven,
@@ -270,7 +225,7 @@ func (o *optRun) global(budget int64) error {
 			return nil
 		}
 		spent := o.res.Engine.Conflicts
-		st, complete, err := o.optimizeCall(nil, nil, budget, 0)
+		st, complete, err := o.x.Improve(o.ctx, nil, nil, budget, 0, o.onModel)
 		if err != nil {
 			return err
 		}

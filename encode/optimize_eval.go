@@ -1,7 +1,7 @@
 package encode
 
 import (
-	"errors"
+	"context"
 	"slices"
 
 	"github.com/termwright/termwright/solver"
@@ -19,50 +19,32 @@ type candidate struct {
 	time   []int64              // the engine's cost per level of optRun.levels
 }
 
-// onModel is the engine's callback for every model that improves on the
-// engine call's best. A model that places every meeting where the best
+// onModel is the gate of every model that improves on the engine call's
+// best. A model that places every meeting where the best
 // timetable has it is passed over; any other goes through the gates and
 // becomes the best timetable when its total cost (rooms included) is lower.
 // The engine sees only the time part of the cost, so a model it prefers may
 // still lose on the room criteria. A model whose rooms cannot be assigned
-// stops the call so that the room constraints can be added.
-func (o *optRun) onModel(_ []int64, model []solver.Atom) {
-	if o.fatal != nil || o.hall != nil || o.conflict != nil {
-		return
-	}
+// stops the call so that the room constraints can be added (Search.Improve).
+func (o *optRun) onModel(_ context.Context, model []solver.Atom) error {
 	if o.best != nil && (o.sameStarts(model, o.best.model) || slices.Compare(o.timeCost(model), o.best.total) >= 0) {
-		return // rooms never cost less than nothing: it cannot beat the best
+		return nil // rooms never cost less than nothing: it cannot beat the best
 	}
 	if o.lastOnly {
 		o.pending = slices.Clone(model) // evaluated when the engine call ends
-		return
+		return nil
 	}
-	o.take(model)
+	return o.take(model)
 }
 
 // take puts a model through the gates and keeps it when it is the best.
-func (o *optRun) take(model []solver.Atom) {
+func (o *optRun) take(model []solver.Atom) error {
 	c, err := o.evaluate(model)
-	var herr *HallError
-	var rerr *RoomConflictError
-	switch {
-	case errors.As(err, &herr):
-		o.hall = herr
-		o.stop()
-		return
-	case errors.As(err, &rerr):
-		o.conflict = rerr
-		o.stop()
-		return
-	case o.ctx.Err() != nil && errors.Is(err, o.ctx.Err()):
-		o.stop() // out of time while decoding: the model is not taken
-		return
-	case err != nil:
-		o.fatal = err
-		o.stop()
-		return
+	if err != nil {
+		return err
 	}
 	o.accept(c)
+	return nil
 }
 
 // accept makes c the best timetable when its total cost is lower.

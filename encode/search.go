@@ -257,17 +257,6 @@ func (x *Search) Solve(ctx context.Context, assume ...solver.Lit) (solver.Status
 	return st, nil
 }
 
-// Optimize runs one solver.Optimize call under the given assumptions and
-// budgets (conflicts; coreBudget as solver.Solver.SetCoreBudget), calling
-// onModel for every improving model.
-func (x *Search) Optimize(ctx context.Context, assume []solver.Lit, conflicts, coreBudget int64, onModel func(cost []int64, model []solver.Atom)) (solver.Status, error) {
-	s, err := x.Engine()
-	if err != nil {
-		return solver.Unknown, err
-	}
-	return x.optimizeOn(ctx, s, assume, conflicts, coreBudget, onModel)
-}
-
 // optimizeOn runs solver.Optimize on engine s (the live one or one
 // derived from it), counting its work in the tally.
 func (x *Search) optimizeOn(ctx context.Context, s *solver.Solver, assume []solver.Lit, conflicts, coreBudget int64, onModel func(cost []int64, model []solver.Atom)) (solver.Status, error) {
@@ -290,6 +279,50 @@ func (x *Search) optimizeOn(ctx context.Context, s *solver.Solver, assume []solv
 		return st, fmt.Errorf("internal error: %w", err)
 	}
 	return st, nil
+}
+
+// Improve runs one solver.Optimize call under the given assumptions and
+// budgets (conflicts; coreBudget as solver.Solver.SetCoreBudget) on the
+// live engine, or on s when given (an engine from Derive), and puts every
+// improving model through gate. A gate error stops the call: a room
+// problem becomes a cut, an ended ctx ends it, any other error is
+// returned. complete reports that the call ran to its end.
+func (x *Search) Improve(ctx context.Context, s *solver.Solver, assume []solver.Lit, conflicts, coreBudget int64, gate Gate) (st solver.Status, complete bool, err error) {
+	if s == nil {
+		if s, err = x.Engine(); err != nil {
+			return solver.Unknown, false, err
+		}
+	}
+	cctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	var stop error
+	st, err = x.optimizeOn(cctx, s, assume, conflicts, coreBudget, func(_ []int64, model []solver.Atom) {
+		if stop == nil {
+			if stop = gate(ctx, model); stop != nil {
+				cancel()
+			}
+		}
+	})
+	if err != nil {
+		return st, false, err
+	}
+	ok, err := x.Settle(ctx, stop)
+	return st, ok && ctx.Err() == nil, err
+}
+
+// Settle handles a gate's verdict outside Find: nil settles it; a room
+// problem becomes a cut and an ended ctx ends the search (both unsettled,
+// no error); any other error is returned.
+func (x *Search) Settle(ctx context.Context, err error) (bool, error) {
+	switch {
+	case err == nil:
+		return true, nil
+	case errors.Is(err, errSearchAgain) || x.Cut(err):
+		return false, nil
+	case ctx.Err() != nil && errors.Is(err, ctx.Err()):
+		return false, nil
+	}
+	return false, err
 }
 
 // Model returns the live engine's last model as a model of the program.
