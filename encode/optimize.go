@@ -141,7 +141,7 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	eopts.Seed = o.opt.Seed
 	note := func(solver.Stats) { o.note(false) }
 	o.x = NewSearch(t, p, cat, SearchOptions{Engine: eopts, Progress: note, Tally: &o.res.Result, Improve: o.bestRooms})
-	o.h = NewSearch(t, p, cat, SearchOptions{Engine: eopts, Progress: note, Tally: &o.res.Result, HardOnly: true})
+	o.h = NewSearch(t, p, cat, SearchOptions{Engine: firstTimetableOptions(eopts, p), Progress: note, Tally: &o.res.Result, HardOnly: true})
 	if err := o.run(); err != nil {
 		return nil, err
 	}

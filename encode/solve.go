@@ -85,7 +85,7 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 		eopts.Seed = 1
 	}
 	eopts.ConflictLimit = opt.ConflictLimit
-	x := NewSearch(t, p, cat, SearchOptions{Engine: eopts, Progress: opt.Progress, Tally: res})
+	x := NewSearch(t, p, cat, SearchOptions{Engine: firstTimetableOptions(eopts, p), Progress: opt.Progress, Tally: res})
 	var sched *timetable.Schedule
 	st, _, err := x.Find(ctx, nil, func(ctx context.Context, model []solver.Atom) error {
 		var err error
