@@ -132,7 +132,10 @@ func (x *Search) Engine() (*solver.Solver, error) {
 			return x.s, nil
 		}
 	}
-	return x.s, x.build()
+	if err := x.build(); err != nil {
+		return nil, err
+	}
+	return x.s, nil
 }
 
 // build makes a new engine from the program (or its view).
