@@ -104,12 +104,6 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 	for _, s := range free {
 		isFree[s] = true
 	}
-	var fixed []solver.Atom
-	for _, a := range o.best.model {
-		if info := o.cat.AtomInfo(a); info.Kind == AtomStart && !isFree[info.Section] {
-			fixed = append(fixed, a)
-		}
-	}
 	// Weak constraints the freed sections cannot reach are constants of
 	// the step: leaving them out keeps the engine's weighted sums (and the
 	// explanations of their propagations) to what can change.
@@ -122,7 +116,7 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 		}
 		return false
 	}
-	s, err := o.x.Derive(fixed, keepWeak, o.opt.Seed+int64(o.res.Steps), o.best.model)
+	s, err := o.x.Derive(reach, keepWeak, o.opt.Seed+int64(o.res.Steps), o.best.model)
 	if err != nil {
 		return solver.Unknown, false, false, err
 	}

@@ -307,22 +307,24 @@ func (x *Search) optimizeOn(ctx context.Context, s *solver.Solver, assume []solv
 
 // Improve runs one solver.Optimize call under the given assumptions and
 // budgets (conflicts; coreBudget as solver.Solver.SetCoreBudget) on the
-// live engine, or on s when given (an engine from Derive), and puts every
-// improving model through gate. A gate error stops the call: a room
+// live engine, or on d when given (an engine from Derive), and puts every
+// improving model (as a model of the program) through gate. A gate error stops the call: a room
 // problem becomes a cut, an ended ctx ends it, any other error is
 // returned. complete reports that the call ran to its end.
-func (x *Search) Improve(ctx context.Context, s *solver.Solver, assume []solver.Lit, conflicts, coreBudget int64, gate Gate) (st solver.Status, complete bool, err error) {
-	if s == nil {
-		if s, err = x.Engine(); err != nil {
+func (x *Search) Improve(ctx context.Context, d *Derived, assume []solver.Lit, conflicts, coreBudget int64, gate Gate) (st solver.Status, complete bool, err error) {
+	if d == nil {
+		s, err := x.Engine()
+		if err != nil {
 			return solver.Unknown, false, err
 		}
+		d = &Derived{s: s}
 	}
 	cctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	var stop error
-	st, err = x.optimizeOn(cctx, s, assume, conflicts, coreBudget, func(_ []int64, model []solver.Atom) {
+	st, err = x.optimizeOn(cctx, d.s, assume, conflicts, coreBudget, func(_ []int64, model []solver.Atom) {
 		if stop == nil {
-			if stop = gate(ctx, model); stop != nil {
+			if stop = gate(ctx, d.whole(model)); stop != nil {
 				cancel()
 			}
 		}
@@ -503,35 +505,63 @@ func (x *Search) Find(ctx context.Context, assume func() []solver.Lit, gate Gate
 	return solver.Unknown, nil, nil
 }
 
+// Derived is an engine for one neighbourhood step (see Search.Derive).
+type Derived struct {
+	s     *solver.Solver
+	split *splitStep // nil: the engine holds the whole program
+}
+
+// Proven reports whether the engine's last optimisation call proved the
+// neighbourhood's optimum.
+func (d *Derived) Proven() bool { return d.s.Proven() }
+
+// whole turns a model of the derived engine into a model of the program.
+func (d *Derived) whole(model []solver.Atom) []solver.Atom {
+	if d.split == nil {
+		return model
+	}
+	return d.split.model(model)
+}
+
 // Derive returns an engine for one neighbourhood step: the program with
-// the given start atoms fixed true (the sections outside the
-// neighbourhood) and only the weak constraints keepWeak accepts (those the
-// freed sections can change), seeded with seed and trying model's starts
-// first. Its models are models of the program.
-func (x *Search) Derive(fixed []solver.Atom, keepWeak func(i int) bool, seed int64, model []solver.Atom) (*solver.Solver, error) {
+// every atom outside reach (the start atoms of the sections that stay, and
+// what depends on them alone) at its value in the incumbent, and only the
+// weak constraints keepWeak accepts, seeded with seed and trying the
+// incumbent's starts first. Normally the engine holds only the part of the
+// program that can change (splitProgram), so building it costs what the
+// neighbourhood touches; when the fixed atoms are no splitting set, it
+// holds the whole program with the fixed starts as facts. Either way they
+// are decided at level 0 and its models, read through Improve, are models
+// of the program.
+func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, incumbent []solver.Atom) (*Derived, error) {
 	t0 := time.Now()
 	defer func() {
 		x.tally.Timings.Solve += time.Since(t0)
 		x.tally.Timings.Build += time.Since(t0)
 	}()
-	// A program of its own for the step: the whole program plus the fixed
-	// starts as facts. Everything the fixed sections decide propagates at
-	// level 0 and drops out of the search, so each descent of the engine
-	// is short.
-	q := *x.p
-	q.Rules = x.p.Rules[:len(x.p.Rules):len(x.p.Rules)]
-	for _, a := range fixed {
-		q.Rules = append(q.Rules, solver.Rule{Head: a})
-	}
-	q.Weaks = nil
-	for i, w := range x.p.Weaks {
-		if keepWeak(i) {
-			q.Weaks = append(q.Weaks, w)
+	d := &Derived{}
+	q := x.p
+	if split, ok := splitProgram(x.p, reach, incumbent, keepWeak); ok {
+		d.split, q = split, split.q
+	} else {
+		w := *x.p
+		w.Rules = x.p.Rules[:len(x.p.Rules):len(x.p.Rules)]
+		for _, a := range incumbent {
+			if !reach[a] && x.cat.AtomInfo(a).Kind == AtomStart {
+				w.Rules = append(w.Rules, solver.Rule{Head: a})
+			}
 		}
+		w.Weaks = nil
+		for i, wk := range x.p.Weaks {
+			if keepWeak(i) {
+				w.Weaks = append(w.Weaks, wk)
+			}
+		}
+		q = &w
 	}
 	opts := x.opts
 	opts.Seed = seed
-	s, err := solver.New(&q, opts)
+	s, err := solver.New(q, opts)
 	if err != nil {
 		return nil, fmt.Errorf("internal error: the engine rejects a neighbourhood program: %w", err)
 	}
@@ -539,6 +569,7 @@ func (x *Search) Derive(fixed []solver.Atom, keepWeak func(i int) bool, seed int
 	if x.progress != nil {
 		s.SetProgress(x.progress)
 	}
-	setStartPhases(s, x.cat, x.p.NumAtoms(), model)
-	return s, nil
+	setStartPhases(s, x.cat, x.p.NumAtoms(), incumbent)
+	d.s = s
+	return d, nil
 }
