@@ -369,18 +369,30 @@ func (a *roomAssigner) components() [][]int {
 // that fails, it looks for a proof that the failed meetings cannot be
 // roomed: a growing neighbourhood of them, solved on its own (others
 // ignored); an unsatisfiable one yields its core as a nogood over starts.
+// (The smallest such neighbourhood is tried before the repair: when it is
+// unsatisfiable, so is every repair.)
 // As a last resort each whole component is solved (only when small enough);
 // when nothing is proved within the effort limits, the nogood over the last
 // neighbourhood is returned marked Incomplete.
 func (a *roomAssigner) repair() error {
+	rerr := &RoomConflictError{}
+	// A conflict of the failed meetings and their direct neighbours on
+	// their own is cheap to prove, and no local repair can undo it: look
+	// for it first (the result is the same as after a failed repair).
+	iso := &isolation{}
+	if a.d.effort.isolatedHops > 0 {
+		if core, ok := a.isolatedCore(iso, 1); ok {
+			a.addNogood(rerr, core)
+			return rerr
+		}
+	}
 	if a.localRepair() {
 		return nil
 	}
 	if err := a.d.ctx.Err(); err != nil {
 		return err // out of time: no conflict was proved
 	}
-	rerr := &RoomConflictError{}
-	if core, ok := a.isolatedCore(); ok {
+	if core, ok := a.isolatedCore(iso, a.d.effort.isolatedHops); ok {
 		a.addNogood(rerr, core)
 		return rerr
 	}
@@ -498,22 +510,37 @@ func (a *roomAssigner) widen(set []int, hops int) []int {
 	return set
 }
 
-// isolatedCore looks for a set of meetings around the failed ones that
-// cannot be roomed even on their own; it returns the engine's core.
-func (a *roomAssigner) isolatedCore() ([]int, bool) {
-	set := append([]int(nil), a.failed...)
-	for hop := 1; hop <= a.d.effort.isolatedHops; hop++ {
-		set = a.widen(set, 1)
-		if len(set) > a.d.effort.maxIsolated {
+// isolation is the state of the search for an isolated core: the set
+// solved on its own so far and how far it was widened.
+type isolation struct {
+	set  []int // the failed meetings widened hop times
+	hop  int
+	done bool // a neighbourhood was too large or ran out of budget: stop looking
+}
+
+// isolatedCore looks, widening up to hops times in all, for a set of
+// meetings around the failed ones that cannot be roomed even on their own;
+// it returns the engine's core. It resumes where an earlier call with the
+// same iso stopped.
+func (a *roomAssigner) isolatedCore(iso *isolation, hops int) ([]int, bool) {
+	if iso.set == nil {
+		iso.set = append([]int(nil), a.failed...)
+	}
+	for !iso.done && iso.hop < hops {
+		iso.hop++
+		iso.set = a.widen(iso.set, 1)
+		if len(iso.set) > a.d.effort.maxIsolated {
+			iso.done = true
 			return nil, false
 		}
-		core, proved, ok := a.exact(set, a.d.effort.localConflicts, true)
+		core, proved, ok := a.exact(iso.set, a.d.effort.localConflicts, true)
 		switch {
 		case ok:
 			continue // roomable on its own: look wider
 		case proved:
 			return core, true
 		default:
+			iso.done = true
 			return nil, false
 		}
 	}
