@@ -30,7 +30,7 @@ type groupRole uint8
 
 const (
 	roleRequirement groupRole = iota // a requirement of the term: may be relaxed
-	roleRequest                      // a request: part of the question, never relaxed
+	roleRequest                      // a request: part of the question; a correction may drop it
 	roleSection                      // a section is scheduled: never relaxed
 )
 

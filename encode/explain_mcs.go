@@ -10,10 +10,12 @@ import (
 // maxCorrectionRounds caps the checks of one search for corrections.
 const maxCorrectionRounds = 100
 
-// corrections finds up to k relaxations: sets of requirement groups
-// (never sections or requests) whose switching off lets every other group
-// hold, each minimal (no proper subset works), cheapest first by summed
-// RelaxCost. It uses the hitting-set duality between minimal unsatisfiable
+// corrections finds up to k relaxations: sets of requirement groups and,
+// with several requests, requests (never sections) whose switching off
+// lets every other group hold, each minimal (no proper subset works),
+// cheapest first by summed relaxCost; dropping one of several requests is
+// a way out like relaxing a requirement (dropping the only request is
+// the question itself, not an answer). It uses the hitting-set duality between minimal unsatisfiable
 // sets and minimal correction sets (Reiter 1987; Liffiton & Sakallah 2008)
 // as an implicit hitting-set loop: a minimum-cost set hitting every known
 // conflict is tried; if the rest still cannot hold, the engine's core is a
@@ -26,7 +28,7 @@ func (x *Explainer) corrections(ctx context.Context, seeds [][]int, k int) (foun
 	relaxable := func(gs []int) []int {
 		var out []int
 		for _, g := range gs {
-			if x.role(g) == roleRequirement {
+			if x.relaxable(g) {
 				out = append(out, g)
 			}
 		}
@@ -36,12 +38,11 @@ func (x *Explainer) corrections(ctx context.Context, seeds [][]int, k int) (foun
 	for _, s := range seeds {
 		conflicts = append(conflicts, relaxable(s))
 	}
-	cost := func(g int) int { return max(1, x.cat.Groups[g].RelaxCost) }
 	for round := 0; round < maxCorrectionRounds && len(found) < k; round++ {
 		if ctx.Err() != nil {
 			return found, false, nil
 		}
-		h, ok, proven := minHittingSet(conflicts, found, cost)
+		h, ok, proven := minHittingSet(conflicts, found, x.relaxCost)
 		if !ok {
 			return found, proven, nil
 		}
@@ -55,7 +56,7 @@ func (x *Explainer) corrections(ctx context.Context, seeds [][]int, k int) (foun
 		case solver.Unsatisfiable:
 			c := relaxable(r.core)
 			if len(c) == 0 {
-				// Sections and requests alone conflict: nothing to relax.
+				// Sections (and a single request) alone conflict: nothing to relax.
 				return found, true, nil
 			}
 			c = x.trim(ctx, r.core, c)
@@ -70,13 +71,17 @@ func (x *Explainer) corrections(ctx context.Context, seeds [][]int, k int) (foun
 // trim re-solves a core on itself once (everything else off) and returns
 // the relaxable part of the smaller core when that is still a conflict.
 func (x *Explainer) trim(ctx context.Context, core, relaxable []int) []int {
-	r, err := x.check(ctx, x.onlyOn(core, roleSection, roleRequest), nil)
+	keep := []groupRole{roleSection}
+	if len(x.reqs) < 2 { // a single request stays: it is not relaxable
+		keep = append(keep, roleRequest)
+	}
+	r, err := x.check(ctx, x.onlyOn(core, keep...), nil)
 	if err != nil || r.status != solver.Unsatisfiable {
 		return relaxable
 	}
 	var out []int
 	for _, g := range r.core {
-		if x.role(g) == roleRequirement {
+		if x.relaxable(g) {
 			out = append(out, g)
 		}
 	}
@@ -84,4 +89,21 @@ func (x *Explainer) trim(ctx context.Context, core, relaxable []int) []int {
 		return relaxable
 	}
 	return slices.Clip(out)
+}
+
+// relaxCost is what giving up group g costs a correction: its RelaxCost,
+// and at least 1, so that a request (RelaxCost 0) counts like the mildest
+// preference and every member makes a correction dearer.
+func (x *Explainer) relaxCost(g int) int { return max(1, x.cat.Groups[g].RelaxCost) }
+
+// relaxable reports whether a correction may switch group g off: a
+// requirement, or a request when there are several.
+func (x *Explainer) relaxable(g int) bool {
+	switch x.role(g) {
+	case roleRequirement:
+		return true
+	case roleRequest:
+		return len(x.reqs) > 1
+	}
+	return false
 }

@@ -148,8 +148,8 @@ func TestPlantedConflicts(t *testing.T) {
 }
 
 // TestConflictingRequests: two requests that each fit alone but not
-// together are both named, with the shared teacher; relaxations never drop
-// a request.
+// together are both named, with the shared teacher; the ways out are to
+// drop either request (cheapest) or to let the teacher be in two places.
 func TestConflictingRequests(t *testing.T) {
 	b := newTerm(1, 3).room("R1", 30).room("R2", 30).
 		section("A", staffOf("T")).section("B", staffOf("T")).section("C", staffOf("U"))
@@ -157,7 +157,7 @@ func TestConflictingRequests(t *testing.T) {
 		{Section: "A", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 2}},
 		{Section: "B", Day: time.Monday, Start: 9 * 60, Src: timetable.Source{Sheet: "Requests", Row: 3}},
 	}
-	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true})
+	ex, err := Explain(context.Background(), b.t, reqs, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: 4})
 	require.NoError(t, err)
 	require.Equal(t, StatusRefused, ex.Status)
 	assert.False(t, ex.TermInfeasible)
@@ -170,14 +170,29 @@ func TestConflictingRequests(t *testing.T) {
 	assert.Equal(t, 1, ex.Conflict.Reasons[0].Request)
 	assert.Equal(t, []string{"Requests row 2"}, ex.Conflict.Reasons[0].Sources)
 	assert.Equal(t, []string{"A", "B"}, conflictSectionIDs(ex.Conflict))
-	require.Len(t, ex.Corrections, 1)
-	assert.Equal(t, []string{KindStaffNoOverlap}, reasonKinds(ex.Corrections[0].Relax))
+	require.Len(t, ex.Corrections, 3, "%+v", ex.Corrections)
+	var dropped []string
+	for _, c := range ex.Corrections[:2] {
+		require.Len(t, c.Relax, 1)
+		assert.Equal(t, KindRequest, c.Relax[0].Kind)
+		dropped = append(dropped, c.Relax[0].Sentence)
+	}
+	slices.Sort(dropped)
+	assert.Equal(t, []string{"drop request 1: section A meets at Mon 09:00", "drop request 2: section B meets at Mon 09:00"}, dropped)
+	assert.Equal(t, []string{KindStaffNoOverlap}, reasonKinds(ex.Corrections[2].Relax))
+	assert.Less(t, ex.Corrections[1].Cost, ex.Corrections[2].Cost, "dropping a request is cheaper than double-booking")
 	assert.True(t, ex.CorrectionsComplete)
+	// Each way out works: the term with the other request alone has a timetable.
+	for i := range reqs {
+		other, err := Explain(context.Background(), b.t, reqs[1-i:2-i], ExplainOptions{Seed: 1, VerifyModels: true, NoCost: true})
+		require.NoError(t, err)
+		assert.Equal(t, StatusGranted, other.Status)
+	}
 }
 
-// TestRequestAgainstItsOwnSection: a request no relaxation can grant (a
-// one-meeting section asked for twice) says so; a request for a start that
-// cannot hold the meeting names only the request.
+// TestRequestAgainstItsOwnSection: a one-meeting section asked for twice
+// can only drop one of the requests (no requirement's relaxation helps); a
+// request for a start that cannot hold the meeting names only the request.
 func TestRequestAgainstItsOwnSection(t *testing.T) {
 	b := newTerm(1, 3).room("R1", 30).section("A", staffOf("T")).section("L", staffOf("U"), meetings(1, 2))
 	reqs := []Request{{Section: "A", Day: time.Monday, Start: 9 * 60}, {Section: "A", Day: time.Monday, Start: 10 * 60}}
@@ -185,8 +200,15 @@ func TestRequestAgainstItsOwnSection(t *testing.T) {
 	require.NoError(t, err)
 	require.Equal(t, StatusRefused, ex.Status)
 	assert.Equal(t, []string{KindRequest, KindRequest}, reasonKinds(ex.Conflict.Reasons))
-	assert.Empty(t, ex.Corrections)
-	assert.True(t, ex.CorrectionsComplete, "no relaxation exists, and that is certain")
+	// Dropping the 10:00 request leaves A at 09:00 and room R1 free for L
+	// at 10:00-12:00; dropping the 09:00 one leaves A at 10:00, where L
+	// needs R1 too, so the room supply must give as well.
+	require.Len(t, ex.Corrections, 2)
+	assert.Equal(t, []string{KindRequest}, reasonKinds(ex.Corrections[0].Relax))
+	assert.Equal(t, 2, ex.Corrections[0].Relax[0].Request)
+	assert.Equal(t, []string{KindRequest, KindRoomSupply}, reasonKinds(ex.Corrections[1].Relax))
+	assert.Equal(t, 1, ex.Corrections[1].Relax[0].Request)
+	assert.True(t, ex.CorrectionsComplete, "no other relaxation exists, and that is certain")
 
 	ex, err = Explain(context.Background(), b.t, []Request{{Section: "L", Day: time.Monday, Start: 11 * 60}}, ExplainOptions{Seed: 1, VerifyModels: true})
 	require.NoError(t, err)
@@ -333,4 +355,30 @@ func TestRoomAssignmentConflict(t *testing.T) {
 			assert.Contains(t, r.Sentence, "sections A, B, C")
 		}
 	}
+}
+
+// TestReasonsInWorkbookOrder (issue 12, item 23): reasons of one kind and
+// the corrections of equal cost come in workbook row order — "Pair 2 before
+// Pair 10" on Relations row 3 before "Pair 10 before Pair 11" on row 11 —
+// although their sentences sort the other way.
+func TestReasonsInWorkbookOrder(t *testing.T) {
+	b := newTerm(1, 2)
+	for _, id := range []string{"Pair 2", "Pair 10", "Pair 11"} {
+		b.section(id, staffOf("T"+id), noRoom)
+	}
+	rel := func(row int, secs ...string) timetable.Relation {
+		return timetable.Relation{Kind: timetable.Before, Sections: secs, Hard: true, Src: timetable.Source{Sheet: "Relations", Row: row}}
+	}
+	b.t.Relations = []timetable.Relation{rel(11, "Pair 10", "Pair 11"), rel(3, "Pair 2", "Pair 10")}
+	ex, err := Explain(context.Background(), b.t, nil, ExplainOptions{Seed: 1, VerifyModels: true})
+	require.NoError(t, err)
+	require.Equal(t, StatusInfeasible, ex.Status)
+	var rows []string
+	for _, r := range ex.Conflict.Reasons {
+		rows = append(rows, r.Sources...)
+	}
+	assert.Equal(t, []string{"Relations row 3", "Relations row 11"}, rows)
+	require.Len(t, ex.Corrections, 2)
+	assert.Equal(t, []string{"Relations row 3"}, ex.Corrections[0].Relax[0].Sources)
+	assert.Equal(t, []string{"Relations row 11"}, ex.Corrections[1].Relax[0].Sources)
 }

@@ -56,6 +56,7 @@ type Reason struct {
 	RelaxCost int      `json:"relax_cost"` // how hard it is to give up (Relax... constants)
 	Request   int      `json:"request,omitempty"`
 	where     string
+	src       []timetable.Source // the rows, for ordering
 }
 
 // Where lists the reason's rows compactly: "Staff row 9; Unavailable rows
@@ -140,7 +141,7 @@ type CriterionCost struct {
 // reason describes group g.
 func (x *Explainer) reason(g int) Reason {
 	gr := &x.cat.Groups[g]
-	r := Reason{Kind: gr.Kind, Sentence: gr.Sentence, Sources: []string{}, RelaxCost: gr.RelaxCost, where: sourcesText(gr.Src)}
+	r := Reason{Kind: gr.Kind, Sentence: gr.Sentence, Sources: []string{}, RelaxCost: gr.RelaxCost, where: sourcesText(gr.Src), src: gr.Src}
 	for _, s := range gr.Src {
 		if str := s.String(); str != "" {
 			r.Sources = append(r.Sources, str)
@@ -164,7 +165,7 @@ func (x *Explainer) reason(g int) Reason {
 			src = append(src, x.work.Sections[s].Src)
 			r.Sources = append(r.Sources, x.work.Sections[s].Src.String())
 		}
-		r.where = sourcesText(src)
+		r.where, r.src = sourcesText(src), src
 	}
 	return r
 }
@@ -235,7 +236,9 @@ func (x *Explainer) requestedRooms(g int) string {
 	return out
 }
 
-// reasons describes groups, most specific first.
+// reasons describes groups, most specific first, then in workbook order
+// of their rows (sheet order, then row number: "Relations row 2" before
+// "Relations row 10", whatever the sentences say).
 func (x *Explainer) reasons(groups []int) []Reason {
 	gs := slices.Clone(groups)
 	sort.SliceStable(gs, func(i, j int) bool {
@@ -243,8 +246,8 @@ func (x *Explainer) reasons(groups []int) []Reason {
 		if sa, sb := reasonSpecificity(a.Kind), reasonSpecificity(b.Kind); sa != sb {
 			return sa > sb
 		}
-		if len(a.Src) != len(b.Src) {
-			return len(a.Src) < len(b.Src)
+		if c := compareRows(a.Src, b.Src); c != 0 {
+			return c < 0
 		}
 		return a.Sentence < b.Sentence
 	})
@@ -253,6 +256,28 @@ func (x *Explainer) reasons(groups []int) []Reason {
 		out = append(out, x.reason(g))
 	}
 	return out
+}
+
+// compareRows orders two lists of workbook rows by their rows in
+// workbook order (timetable.Source.Compare), each list read from its
+// first row on; a list that is a prefix of the other comes first.
+func compareRows(a, b []timetable.Source) int {
+	sa, sb := slices.Clone(a), slices.Clone(b)
+	slices.SortFunc(sa, timetable.Source.Compare)
+	slices.SortFunc(sb, timetable.Source.Compare)
+	return slices.CompareFunc(sa, sb, timetable.Source.Compare)
+}
+
+// sortCorrections orders corrections cheapest first and, at equal cost,
+// by the workbook rows of their reasons (each correction's reasons are
+// already in reasons order).
+func sortCorrections(cs []Correction) {
+	sort.SliceStable(cs, func(i, j int) bool {
+		if cs[i].Cost != cs[j].Cost {
+			return cs[i].Cost < cs[j].Cost
+		}
+		return slices.CompareFunc(cs[i].Relax, cs[j].Relax, func(a, b Reason) int { return compareRows(a.src, b.src) }) < 0
+	})
 }
 
 // conflict describes a shrunk set: the requirements and requests as
@@ -299,11 +324,18 @@ func (x *Explainer) conflict(mus, core []int, minimal bool) *Conflict {
 	return c
 }
 
-// correction describes a relaxation.
+// correction describes a relaxation; a request in it reads "drop request
+// N: ...".
 func (x *Explainer) correction(groups []int) Correction {
 	c := Correction{Relax: x.reasons(groups)}
+	for i, r := range c.Relax {
+		if r.Request > 0 {
+			c.Relax[i].Sentence = "drop " + r.Sentence
+			c.Relax[i].RelaxCost = max(1, r.RelaxCost)
+		}
+	}
 	for _, g := range groups {
-		c.Cost += x.cat.Groups[g].RelaxCost
+		c.Cost += x.relaxCost(g)
 	}
 	return c
 }

@@ -87,6 +87,7 @@ func (x *Explainer) Run(ctx context.Context) (*Explanation, error) {
 		for _, h := range found {
 			out.Corrections = append(out.Corrections, x.correction(h))
 		}
+		sortCorrections(out.Corrections)
 		out.CorrectionsComplete = done
 	}
 	if len(x.reqs) > 0 && !x.opt.NoPlaces && !out.TermInfeasible {

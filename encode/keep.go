@@ -1,7 +1,6 @@
 package encode
 
 import (
-	"fmt"
 	"slices"
 
 	"github.com/termwright/termwright/solver"
@@ -9,8 +8,8 @@ import (
 )
 
 // keepModel is the kept timetable (Options.Keep) as the soft criteria see
-// it: per section, its kept meetings in the order "moved meetings" pairs
-// them (start period, then room, then meeting number).
+// it: per section, its kept meetings ordered by start period, room and
+// meeting number.
 type keepModel struct {
 	secs [][]timetable.Placement // per section index; nil when the section has no kept meeting
 }
@@ -32,7 +31,7 @@ func newKeepModel(t *timetable.Term, kept *timetable.Schedule) *keepModel {
 }
 
 // sortMeetings orders one section's placements by start period, room and
-// meeting number: the pairing order of "moved meetings".
+// meeting number.
 func sortMeetings(ps []timetable.Placement) {
 	slices.SortStableFunc(ps, func(a, b timetable.Placement) int {
 		switch {
@@ -48,13 +47,18 @@ func sortMeetings(ps []timetable.Placement) {
 	})
 }
 
-// keepMeetings writes the time half of "moved meetings": the i-th meeting
-// of a section (in start order) pairs with the i-th kept meeting and costs
-// the criterion's weight unless it starts at the same period. "The i-th
-// start is K" holds when start(S,K) holds and exactly i starts come before
-// K, which a sequential counter over the section's candidates tells:
-// upto(S,c,j) means at least j starts at or before candidate c. The room
-// half is decided by room assignment, which prefers the kept room.
+// keepMeetings writes the time half of "moved meetings". A kept meeting is
+// kept when some meeting of its section sits at its day, time and room, and
+// moved otherwise (timetable.Cost counts the same way). The engine sees
+// times only, so here a kept meeting moves when its section does not start
+// at its period: one weak constraint "not start(S,p)" per kept meeting. A
+// section starts at most once per period, so of several kept meetings at
+// one period (possible in an edited file) all but one move whatever the
+// timetable; a kept period that is no candidate any more moves too. The
+// room half (the section starts there, in none of the kept rooms) is added
+// by room improvement (roomSearch.indexKept); both halves together are the
+// count of the definition, and this half alone never exceeds it, so the
+// engine's bounds stay bounds.
 func (sb *softBuilder) keepMeetings() {
 	if sb.opt.Keep == nil {
 		return
@@ -71,46 +75,13 @@ func (sb *softBuilder) keepMeetings() {
 		}
 		sb.aboutSection(s)
 		m := &sb.c.secs[s]
-		pairs := min(len(kept), m.meetings)
-		if m.meetings == 1 {
-			if a := m.startAt(kept[0].Period); a != 0 {
-				sb.weak(timetable.CritMoved, w, l, solver.Neg(a))
-			} else {
-				sb.weak(timetable.CritMoved, w, l)
-			}
-			continue
-		}
-		upto := sb.counter(s, pairs)
-		for i := 0; i < pairs; i++ {
-			k := kept[i].Period
-			a := m.startAt(k)
-			if a == 0 {
-				sb.weak(timetable.CritMoved, w, l) // that start is gone: the meeting moves
+		for i, p := range kept {
+			a := m.startAt(p.Period)
+			if a == 0 || (i > 0 && kept[i-1].Period == p.Period) {
+				sb.weak(timetable.CritMoved, w, l) // that start is gone, or taken by another kept meeting
 				continue
 			}
-			body := []solver.Lit{solver.Pos(a)}
-			prev := candidatesBelow(m.starts, k) - 1 // index of the last candidate before k
-			if prev < 0 {
-				if i > 0 {
-					sb.weak(timetable.CritMoved, w, l) // cannot be the i-th start
-					continue
-				}
-			} else {
-				if i > 0 {
-					if lit := upto[prev][i]; lit != 0 {
-						body = append(body, lit)
-					} else {
-						sb.weak(timetable.CritMoved, w, l)
-						continue
-					}
-				}
-				if lit := upto[prev][i+1]; lit != 0 {
-					body = append(body, lit.Not())
-				}
-			}
-			keptAt := sb.newAtom(fmt.Sprintf("kept(%s,%d)", quote(sb.t.Sections[s].ID), i+1), aux(s, k))
-			sb.rule(keptAt, body...)
-			sb.weak(timetable.CritMoved, w, l, solver.Neg(keptAt))
+			sb.weak(timetable.CritMoved, w, l, solver.Neg(a))
 		}
 	}
 }
@@ -122,50 +93,4 @@ func (m *secModel) startAt(p int) solver.Atom {
 		return 0
 	}
 	return m.start[p]
-}
-
-// candidatesBelow is the number of candidates below p.
-func candidatesBelow(starts []int, p int) int {
-	i, _ := slices.BinarySearch(starts, p)
-	return i
-}
-
-// counter returns, for section s, upto[c][j] for candidate index c and
-// j = 0..most+1: a literal that holds when at least j of the section's
-// starts lie at or before candidate c (0 when that can never hold; j = 0
-// is never used). Rules: upto(c,1) :- start(c); upto(c,j) :- upto(c-1,j);
-// upto(c,j) :- upto(c-1,j-1), start(c).
-func (sb *softBuilder) counter(s, most int) [][]solver.Lit {
-	m := &sb.c.secs[s]
-	id := quote(sb.t.Sections[s].ID)
-	top := min(most+1, m.meetings)
-	upto := make([][]solver.Lit, len(m.starts))
-	for c, p := range m.starts {
-		upto[c] = make([]solver.Lit, most+2)
-		st := solver.Pos(m.start[p])
-		for j := 1; j <= min(top, c+1); j++ {
-			var bodies [][]solver.Lit
-			if j == 1 {
-				bodies = append(bodies, []solver.Lit{st})
-			} else if prev := upto[c-1][j-1]; prev != 0 {
-				bodies = append(bodies, []solver.Lit{prev, st})
-			}
-			if c > 0 && upto[c-1][j] != 0 {
-				bodies = append(bodies, []solver.Lit{upto[c-1][j]})
-			}
-			if len(bodies) == 0 {
-				continue
-			}
-			if len(bodies) == 1 && len(bodies[0]) == 1 {
-				upto[c][j] = bodies[0][0]
-				continue
-			}
-			a := sb.newAtom(fmt.Sprintf("starts_upto(%s,%s,%d)", id, periodName(sb.t.Periods[p]), j), aux(s, p))
-			for _, body := range bodies {
-				sb.rule(a, body...)
-			}
-			upto[c][j] = solver.Pos(a)
-		}
-	}
-	return upto
 }

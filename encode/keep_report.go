@@ -9,15 +9,15 @@ import (
 
 // Change kinds of a Move.
 const (
-	ChangeMoved   = "moved"   // the meeting starts at another period or uses another room
+	ChangeMoved   = "moved"   // a kept meeting no meeting of its section holds any more, paired with the meeting that replaces it
 	ChangeNew     = "new"     // a meeting with no kept meeting to pair with (a new section or an extra meeting)
 	ChangeDropped = "dropped" // a kept meeting with no meeting to pair with (a section removed or meeting fewer times)
 )
 
 // Move is one meeting that differs between the kept timetable and the new
-// one. Meetings pair as "moved meetings" pairs them: per section, both
-// sides sorted by start period, room and meeting number, the i-th with the
-// i-th.
+// one. A kept meeting is unchanged when a meeting of its section sits at
+// its day, start time and room; the others of the section (in both
+// timetables) pair up as closely as they can: see Moves.
 type Move struct {
 	Section string               `json:"section"`
 	Change  string               `json:"change"`         // ChangeMoved, ChangeNew or ChangeDropped
@@ -27,7 +27,15 @@ type Move struct {
 
 // Moves lists every meeting of s that differs from kept, section by
 // section in the order of the term (sections of kept that the term no
-// longer has come last), meetings in start order.
+// longer has come last). Per section, kept meetings that s holds at the
+// same period and room are matched to those meetings (a maximum matching,
+// so as many as possible stay unchanged); of the rest, kept and new
+// meetings pair by a minimum-cost assignment (moveCost: a change of day
+// costs most, then of start time, then of room) as ChangeMoved, and what
+// is left is ChangeDropped or ChangeNew. Within a section, moves come in
+// the start order of the kept meeting, new meetings last. The moved and
+// dropped meetings of the term's sections are exactly what the criterion
+// "moved meetings" counts (timetable.Cost).
 func Moves(t *timetable.Term, kept, s *timetable.Schedule) []Move {
 	if kept == nil || s == nil {
 		return nil
@@ -60,19 +68,92 @@ func Moves(t *timetable.Term, kept, s *timetable.Schedule) []Move {
 	order = append(order, gone...)
 	var out []Move
 	for _, id := range order {
-		a, b := old[id], cur[id]
-		for k := 0; k < max(len(a), len(b)); k++ {
-			switch {
-			case k >= len(a):
-				out = append(out, Move{Section: id, Change: ChangeNew, To: &b[k]})
-			case k >= len(b):
-				out = append(out, Move{Section: id, Change: ChangeDropped, From: &a[k]})
-			case a[k].Period != b[k].Period || a[k].Room != b[k].Room:
-				out = append(out, Move{Section: id, Change: ChangeMoved, From: &a[k], To: &b[k]})
-			}
+		out = append(out, sectionMoves(t, id, old[id], cur[id])...)
+	}
+	return out
+}
+
+// sectionMoves is Moves for one section's kept meetings a and new
+// meetings b (both in start order).
+func sectionMoves(t *timetable.Term, id string, a, b []timetable.Placement) []Move {
+	left, right := unchanged(a, b)
+	cost := make([][]int64, len(left))
+	for i, x := range left {
+		cost[i] = make([]int64, len(right))
+		for j, y := range right {
+			cost[i][j] = moveCost(t, a[x], b[y])
+		}
+	}
+	pair := minCostAssignment(cost)
+	var out []Move
+	paired := make([]bool, len(right))
+	for i, x := range left {
+		if len(right) > 0 && pair[i] >= 0 {
+			y := right[pair[i]]
+			paired[pair[i]] = true
+			out = append(out, Move{Section: id, Change: ChangeMoved, From: &a[x], To: &b[y]})
+		} else {
+			out = append(out, Move{Section: id, Change: ChangeDropped, From: &a[x]})
+		}
+	}
+	for j, y := range right {
+		if !paired[j] {
+			out = append(out, Move{Section: id, Change: ChangeNew, To: &b[y]})
 		}
 	}
 	return out
+}
+
+// unchanged matches kept meetings a to new meetings b at the same period
+// and room (a maximum matching: Hopcroft–Karp on the equal-slot edges) and
+// returns the indexes left unmatched on each side, ascending.
+func unchanged(a, b []timetable.Placement) (left, right []int) {
+	adj := make([][]int, len(a))
+	for i, x := range a {
+		for j, y := range b {
+			if x.Period == y.Period && x.Room == y.Room {
+				adj[i] = append(adj[i], j)
+			}
+		}
+	}
+	g := newBipartite(adj, len(b))
+	g.maxMatching()
+	for i, r := range g.matchL {
+		if r < 0 {
+			left = append(left, i)
+		}
+	}
+	for j, l := range g.matchR {
+		if l < 0 {
+			right = append(right, j)
+		}
+	}
+	return left, right
+}
+
+// moveCost is how far meeting y is from kept meeting x, for pairing the
+// moved ones: 4 for another day, 2 for another start time, 1 for another
+// room (so a meeting that stays on its day pairs before one that does not).
+func moveCost(t *timetable.Term, x, y timetable.Placement) int64 {
+	var c int64
+	if x.Room != y.Room {
+		c++
+	}
+	n := len(t.Periods)
+	if x.Period < 0 || x.Period >= n || y.Period < 0 || y.Period >= n {
+		if x.Period != y.Period {
+			c += 6
+		}
+		return c
+	}
+	px, py := t.Periods[x.Period], t.Periods[y.Period]
+	if px.Day != py.Day {
+		c += 4
+	}
+	if px.Start != py.Start {
+		c += 2
+	}
+	return c
 }
 
 // Affected is one person or room touched by moves, with the moves (indexes

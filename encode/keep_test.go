@@ -2,6 +2,7 @@ package encode
 
 import (
 	"context"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -105,4 +106,57 @@ func TestMovesAndAffect(t *testing.T) {
 	assert.Equal(t, []int{0}, aff[0].Moves)
 	assert.Equal(t, []int{1, 2}, aff[4].Moves, "R2 gains B and loses OLD")
 	assert.Nil(t, Moves(term, nil, now))
+}
+
+// TestKeepObjectiveEqualsReport: on the solved demo with one meeting of a
+// two-meeting section made impossible at its time, the optimiser's moved
+// meetings (timetable.Cost of the written timetable) equal what the move
+// report lists, the engine's half never exceeds it, no reported move
+// starts from a place its section still holds, and the level's bound is
+// below the cost.
+func TestKeepObjectiveEqualsReport(t *testing.T) {
+	term, last := keepBase(t)
+	count := map[string]int{}
+	for _, p := range last.Placements {
+		count[p.Section]++
+	}
+	var hit *timetable.Placement
+	for i, p := range last.Placements {
+		if count[p.Section] >= 2 {
+			hit = &last.Placements[i]
+			break
+		}
+	}
+	require.NotNil(t, hit, "the demo has a section that meets twice")
+	per := term.Periods[hit.Period]
+	term.Unavailable = append(term.Unavailable, timetable.Unavailability{Who: hit.Section, Kind: timetable.WhoSection, Day: per.Day,
+		From: per.Start, To: per.End, Hard: true, Reason: "test", Src: timetable.Source{Sheet: "Unavailable", Row: 99}})
+	res, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 9, Keep: last, MaxSteps: 2})
+	require.NoError(t, err)
+	checkOptimized(t, term, last, res)
+	crit := res.Cost.Criterion(timetable.CritMoved)
+	held := map[[2]int]map[string]bool{}
+	secIdx := term.SectionIndex()
+	for _, p := range res.Schedule.Placements {
+		k := [2]int{secIdx[p.Section], p.Period}
+		if held[k] == nil {
+			held[k] = map[string]bool{}
+		}
+		held[k][p.Room] = true
+	}
+	var report int64
+	for _, mv := range res.Moves {
+		if mv.Change == ChangeNew {
+			continue
+		}
+		report++
+		assert.False(t, held[[2]int{secIdx[mv.Section], mv.From.Period}][mv.From.Room], "%s meeting %d is reported moved but still held", mv.Section, mv.From.Meeting)
+	}
+	assert.GreaterOrEqual(t, report, int64(1), "the blocked meeting moves")
+	assert.Equal(t, crit.Count, report, "moves: %+v", res.Moves)
+	ci := slices.IndexFunc(timetable.Criteria, func(c timetable.Criterion) bool { return c.Name == timetable.CritMoved })
+	assert.LessOrEqual(t, res.EngineCost[ci], crit.Count*int64(crit.Weight), "the engine's half is part of the count")
+	li := slices.Index(res.Levels, crit.Level)
+	require.GreaterOrEqual(t, li, 0)
+	assert.LessOrEqual(t, res.Bound[li], res.Total[li])
 }

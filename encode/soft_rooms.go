@@ -66,7 +66,7 @@ type roomMeeting struct {
 	room     int   // current room
 	cands    []int // candidate rooms
 	movable  bool  // false for meetings of hard same-room groups and single candidates
-	keptRoom int   // room of the kept meeting it pairs with at the same start, -1 when none
+	oldRooms []int // rooms (-1: none in the term) of its section's kept meetings at its start; nil when none
 }
 
 // improveRooms returns s with rooms changed to lower the room-dependent
@@ -133,7 +133,7 @@ func newRoomSearch(t *timetable.Term, c *Catalog, s *timetable.Schedule, kept *t
 			continue
 		}
 		rm := roomMeeting{pl: i, sec: si, start: p.Period, end: p.Period + m.length - 1, weeks: m.weeks,
-			room: r, cands: c.rooms.sets.sets[cand].members(), keptRoom: -1}
+			room: r, cands: c.rooms.sets.sets[cand].members()}
 		rm.movable = m.sameRoom < 0 && len(rm.cands) > 1
 		rs.bySec[si] = append(rs.bySec[si], len(rs.ms))
 		rs.ms = append(rs.ms, rm)
@@ -230,9 +230,10 @@ func (rs *roomSearch) indexRooms() {
 	}
 }
 
-// indexKept pairs each section's meetings with the kept ones in start
-// order (as "moved meetings" does) and notes the kept room of meetings
-// that keep their start.
+// indexKept notes, per meeting, the rooms of its section's kept meetings
+// at the same start. The meeting keeps one of those kept meetings ("moved
+// meetings") only in one of their rooms; in any other room it costs one
+// unit, the room half of the criterion (the engine counts the time half).
 func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 	if kept == nil {
 		return
@@ -240,12 +241,16 @@ func (rs *roomSearch) indexKept(kept *timetable.Schedule) {
 	km := newKeepModel(rs.t, kept)
 	roomIdx := rs.t.RoomIndex()
 	for si, ms := range rs.bySec {
-		old := km.secs[si]
-		cur := slices.Clone(ms)
-		slices.SortFunc(cur, func(a, b int) int { return rs.ms[a].start - rs.ms[b].start })
-		for k := 0; k < len(cur) && k < len(old); k++ {
-			if r, ok := roomIdx[old[k].Room]; ok && old[k].Period == rs.ms[cur[k]].start {
-				rs.ms[cur[k]].keptRoom = r
+		for _, i := range ms {
+			for _, p := range km.secs[si] {
+				if p.Period != rs.ms[i].start {
+					continue
+				}
+				r, ok := roomIdx[p.Room]
+				if !ok || p.Room == "" {
+					r = -1
+				}
+				rs.ms[i].oldRooms = append(rs.ms[i].oldRooms, r)
 			}
 		}
 	}
@@ -476,7 +481,7 @@ func (rs *roomSearch) cost(moved []int) []int64 {
 				}
 			}
 		}
-		if m.keptRoom >= 0 && m.keptRoom != m.room {
+		if m.oldRooms != nil && !slices.Contains(m.oldRooms, m.room) {
 			add(rcMoved, 1)
 		}
 		if rs.lvl[rcTravel] >= 0 {

@@ -135,7 +135,7 @@ func (ep *exactProgram) perMeeting(i, r int, a solver.Atom) {
 		}
 		ep.weak(rcAvoid, sum, solver.Pos(a))
 	}
-	if m.keptRoom >= 0 && r != m.keptRoom {
+	if m.oldRooms != nil && !slices.Contains(m.oldRooms, r) {
 		ep.weak(rcMoved, 1, solver.Pos(a))
 	}
 }

@@ -245,9 +245,9 @@ func TestSoftRelationsByHand(t *testing.T) {
 	}
 }
 
-// TestMovedMeetingsByHand: meetings pair in start order with the kept
-// ones; a pair counts when its start differs (the sections take no room,
-// so rooms never differ).
+// TestMovedMeetingsByHand: a kept meeting counts as moved when the section
+// no longer starts at its period (the sections take no room, so rooms
+// never differ), whatever order the meetings are numbered in.
 func TestMovedMeetingsByHand(t *testing.T) {
 	keptAt := func(periods ...int) *timetable.Schedule {
 		s := &timetable.Schedule{}
@@ -264,15 +264,20 @@ func TestMovedMeetingsByHand(t *testing.T) {
 	}{
 		{"unchanged", keptAt(0, 2, 4), []int{0, 2, 4}, 0},
 		{"first moved", keptAt(0, 2, 4), []int{1, 2, 4}, 1},
-		// Sorted pairs (1,0), (3,1), (4,3): all three differ, though 1 and
-		// 3 are still used.
-		{"shifted", keptAt(0, 1, 3), []int{1, 3, 4}, 3},
+		// Periods 1 and 3 are still used: only the meeting at 0 moved (a
+		// pairing in start order would count all three).
+		{"shifted", keptAt(0, 1, 3), []int{1, 3, 4}, 1},
 		{"kept in another order", keptAt(4, 0, 2), []int{0, 2, 4}, 0},
-		// Only two kept meetings: the third new one pairs with nothing.
-		{"fewer kept", keptAt(2, 4), []int{0, 2, 4}, 2},
+		// Only two kept meetings, both still held: the third is new.
+		{"fewer kept", keptAt(2, 4), []int{0, 2, 4}, 0},
 		// A kept start that is no candidate any more (period 5 is
 		// unavailable): that meeting must move.
 		{"kept start gone", keptAt(0, 2, 5), []int{0, 2, 4}, 1},
+		// Two kept meetings at one period (an edited file): the section
+		// starts there once, so one of them moved.
+		{"kept twice at one period", keptAt(0, 0, 2), []int{0, 2, 4}, 1},
+		// Four kept meetings for three: at least one is gone.
+		{"more kept", keptAt(0, 1, 2, 4), []int{0, 2, 4}, 1},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

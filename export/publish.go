@@ -14,6 +14,7 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"time"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -89,9 +90,12 @@ type publishJob struct {
 // where <name> comes from SafeFileNames of the IDs (manifest.json maps
 // files to IDs). It refuses an existing non-empty dir unless opt.Force, and
 // even then replaces only a directory holding nothing but an earlier
-// publication's files. Everything is written into a temporary directory
-// next to dir and renamed into place at the end, so dir never holds a
-// half-written publication; on error nothing of the user's is touched.
+// publication's files. Everything is written into a working directory
+// .<dir>.partial-* next to dir, locked while this run lives, and put in
+// place at the end (swapInto), so dir never holds a half-written
+// publication; on error nothing of the user's is touched. Working
+// directories of earlier runs that were killed are removed first
+// (cleanLeftovers).
 func Publish(dir string, t *timetable.Term, s *timetable.Schedule, opt Options) (Manifest, error) {
 	m := Manifest{Dir: dir, Generator: "termwright", Term: t.Name}
 	v, err := newView(t, s)
@@ -104,20 +108,22 @@ func Publish(dir string, t *timetable.Term, s *timetable.Schedule, opt Options) 
 	if _, err := v.calendar(); err != nil { // also fills v.cal before the workers share v
 		return m, err
 	}
+	parent, base := filepath.Split(filepath.Clean(dir))
+	if parent == "" {
+		parent = "."
+	}
+	cleanLeftovers(parent, base, dir) // first: it may move a publication back to dir
 	if err := checkTarget(dir, opt.Force); err != nil {
 		return m, err
 	}
 	opt.Generated = opt.generated()
 	m.Generated = opt.Generated.Format("2006-01-02T15:04:05Z07:00")
-	parent, base := filepath.Split(filepath.Clean(dir))
-	if parent == "" {
-		parent = "."
-	}
-	tmp, err := os.MkdirTemp(parent, "."+base+".partial-")
+	tmp, release, err := newWorkDir(parent, base)
 	if err != nil {
 		return m, fmt.Errorf("export: cannot create a working directory next to %s: %w", dir, err)
 	}
-	defer os.RemoveAll(tmp) // a no-op once renamed into place
+	defer release()         // after the removal below: deferred calls run last first
+	defer os.RemoveAll(tmp) // a no-op once renamed into place; the earlier publication after an exchange
 	files, err := runJobs(tmp, v.publishJobs(opt))
 	if err != nil {
 		return m, err
@@ -267,14 +273,18 @@ func writeManifest(dir string, m Manifest) error {
 }
 
 // checkTarget accepts a missing or empty dir, and with force a directory
-// holding only the files its manifest lists.
+// holding only the files its manifest lists; never a symbolic link.
 func checkTarget(dir string, force bool) error {
-	fi, err := os.Stat(dir)
+	fi, err := os.Lstat(dir)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil
 	}
 	if err != nil {
 		return fmt.Errorf("export: %w", err)
+	}
+	if fi.Mode()&fs.ModeSymlink != 0 {
+		// Swapping a new folder in would replace the link itself.
+		return fmt.Errorf("export: %s is a symbolic link; give the folder it points to, or a new folder name", dir)
 	}
 	if !fi.IsDir() {
 		return fmt.Errorf("export: %s exists and is not a directory; choose a new directory name", dir)
@@ -325,14 +335,62 @@ func checkTarget(dir string, force bool) error {
 	return nil
 }
 
-// swapInto renames the finished directory tmp to dir, moving an existing
-// dir aside first and deleting it only once tmp is in place.
+// partialInfix follows ".<base>" in the names of working directories.
+const partialInfix = ".partial-"
+
+// newWorkDir creates a working directory .<base>.partial-* in parent and
+// locks it for as long as this run lives (lockDir). Between its creation
+// and its lock another run's cleanLeftovers may take it for a leftover;
+// that run then holds the lock and removes it, so a new one is made. On a
+// file system without locks the directory is used unlocked (and other runs
+// leave it alone, as they cannot lock it either).
+func newWorkDir(parent, base string) (string, func(), error) {
+	for range 8 {
+		tmp, err := os.MkdirTemp(parent, "."+base+partialInfix)
+		if err != nil {
+			return "", nil, err
+		}
+		release, held, err := lockDir(tmp)
+		switch {
+		case err == nil && !held:
+			if _, serr := os.Lstat(tmp); serr == nil {
+				return tmp, release, nil
+			}
+			release()
+		case err != nil:
+			if _, serr := os.Lstat(tmp); serr == nil {
+				return tmp, func() {}, nil // no locks here
+			}
+		case !haveLocks:
+			return tmp, func() {}, nil
+		}
+	}
+	return "", nil, errors.New("other runs kept taking the working directory")
+}
+
+// swapInto puts the finished directory tmp at dir.
+//
+// A new dir is one rename. An earlier publication at dir is exchanged with
+// tmp in one step where the file system can (exchange): dir holds the
+// earlier publication until the instant it holds the new one, never
+// nothing, and the earlier one, now at tmp, is removed by Publish. Where it
+// cannot, the earlier one is moved aside to tmp+".old" (locked first, so
+// that no other run takes it for a leftover) and tmp renamed in; a kill
+// between those two renames leaves dir missing with both complete
+// publications beside it, and the next Publish moves the newer one back
+// (cleanLeftovers).
 func swapInto(tmp, dir string) error {
-	if _, err := os.Stat(dir); errors.Is(err, fs.ErrNotExist) {
+	if _, err := os.Lstat(dir); errors.Is(err, fs.ErrNotExist) {
 		if err := os.Rename(tmp, dir); err != nil {
 			return fmt.Errorf("export: moving the publication into %s: %w", dir, err)
 		}
 		return nil
+	}
+	if err := exchange(tmp, dir); err == nil {
+		return nil
+	}
+	if release, held, err := lockDir(dir); err == nil && !held {
+		defer release()
 	}
 	old := tmp + ".old"
 	if err := os.Rename(dir, old); err != nil {
@@ -345,4 +403,76 @@ func swapInto(tmp, dir string) error {
 		return fmt.Errorf("export: moving the publication into %s: %w", dir, err)
 	}
 	return os.RemoveAll(old)
+}
+
+// cleanLeftovers removes what earlier runs publishing to dir (= parent/base)
+// left behind when they were killed: directories in parent named
+// .<base>.partial-* (working directories, and earlier publications moved
+// aside, ending in .old) that no live run holds locked. A run's lock dies
+// with it, kill -9 included, so an unlocked one is a leftover. Nothing
+// else is touched. When dir itself is
+// missing — a kill between the two renames of swapInto's fallback — the
+// newest complete publication among them (one with a manifest, which
+// Publish writes last) is moved back to dir instead of being removed.
+// Failures are ignored: a leftover that cannot be removed is no reason to
+// refuse a publication.
+func cleanLeftovers(parent, base, dir string) {
+	entries, err := os.ReadDir(parent)
+	if err != nil {
+		return
+	}
+	type leftover struct {
+		path    string
+		release func()
+	}
+	var stale []leftover
+	defer func() {
+		for _, l := range stale {
+			l.release()
+		}
+	}()
+	prefix := "." + base + partialInfix
+	for _, en := range entries {
+		if !en.IsDir() || !strings.HasPrefix(en.Name(), prefix) {
+			continue
+		}
+		p := filepath.Join(parent, en.Name())
+		if fi, err := os.Lstat(p); err != nil || !fi.IsDir() {
+			continue
+		}
+		release, held, err := lockDir(p)
+		if err != nil || held {
+			continue
+		}
+		stale = append(stale, leftover{p, release})
+	}
+	if _, err := os.Lstat(dir); errors.Is(err, fs.ErrNotExist) {
+		best, bestTime := "", time.Time{}
+		for _, l := range stale {
+			fi, err := os.Stat(filepath.Join(l.path, ManifestName))
+			if err == nil && isPublication(l.path) && (best == "" || fi.ModTime().After(bestTime)) {
+				best, bestTime = l.path, fi.ModTime()
+			}
+		}
+		if best != "" && os.Rename(best, dir) == nil {
+			for i, l := range stale {
+				if l.path == best {
+					l.release()
+					stale = append(stale[:i], stale[i+1:]...)
+					break
+				}
+			}
+		}
+	}
+	for _, l := range stale {
+		os.RemoveAll(l.path)
+	}
+}
+
+// isPublication reports whether dir holds a valid manifest written by
+// termwright.
+func isPublication(dir string) bool {
+	b, err := os.ReadFile(filepath.Join(dir, ManifestName))
+	var m Manifest
+	return err == nil && json.Unmarshal(b, &m) == nil && m.Generator == "termwright"
 }

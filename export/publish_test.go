@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -166,4 +167,103 @@ func snapshot(t *testing.T, dir string) map[string]string {
 		return err
 	}))
 	return out
+}
+
+// agedDir makes a directory (with one file) last changed an hour ago, as
+// a run killed then leaves it.
+func agedDir(t *testing.T, p string, withManifest bool, manifestTime time.Time) {
+	t.Helper()
+	require.NoError(t, os.MkdirAll(filepath.Join(p, "pdf"), 0o755))
+	require.NoError(t, os.WriteFile(filepath.Join(p, "pdf", "half.pdf"), []byte("%PDF-"), 0o644))
+	if withManifest {
+		m := filepath.Join(p, ManifestName)
+		require.NoError(t, os.WriteFile(m, []byte(`{"generator":"termwright","files":[{"path":"pdf/half.pdf"}]}`), 0o644))
+		require.NoError(t, os.Chtimes(m, manifestTime, manifestTime))
+	}
+	old := time.Now().Add(-time.Hour)
+	require.NoError(t, os.Chtimes(p, old, old))
+}
+
+// TestPublishCleansStaleLeftovers: working directories of killed runs
+// (.out.partial-*, and .old ones moved aside, however recent: no live run
+// holds their lock) are removed; one a live run holds locked, and anything
+// not named as ours, are kept.
+func TestPublishCleansStaleLeftovers(t *testing.T) {
+	term, s := demoTerm()
+	parent := t.TempDir()
+	at := func(name string) string { return filepath.Join(parent, name) }
+	agedDir(t, at(".out.partial-111"), false, time.Time{})
+	agedDir(t, at(".out.partial-222.old"), false, time.Time{})
+	agedDir(t, at(".out.partial-444"), false, time.Time{})
+	agedDir(t, at(".other.partial-555"), false, time.Time{})
+	agedDir(t, at("out.partial-666"), false, time.Time{})
+	require.NoError(t, os.Mkdir(at(".out.partial-333"), 0o755)) // a run killed just now
+	release, held, err := lockDir(at(".out.partial-444"))
+	require.NoError(t, err)
+	require.False(t, held)
+	defer release()
+
+	_, err = Publish(at("out"), term, s, Options{Generated: fixedClock})
+	require.NoError(t, err)
+	assertNoLeftovers(t, parent, "out", ".out.partial-444", ".other.partial-555", "out.partial-666")
+}
+
+// TestPublishRecoversAnInterruptedSwap: a run killed between the two
+// renames of the fallback swap leaves dir missing with the new and the
+// earlier publication beside it; the next run moves the newer back to dir
+// (so dir holds a complete publication again), and then treats it like
+// any earlier publication: refused without --force, replaced with it.
+func TestPublishRecoversAnInterruptedSwap(t *testing.T) {
+	term, s := demoTerm()
+	parent := t.TempDir()
+	dir := filepath.Join(parent, "out")
+	older, newer := time.Now().Add(-time.Hour), time.Now().Add(-10*time.Minute)
+	agedDir(t, filepath.Join(parent, ".out.partial-777.old"), true, older)
+	agedDir(t, filepath.Join(parent, ".out.partial-777"), true, newer)
+
+	_, err := Publish(dir, term, s, Options{Generated: fixedClock})
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "already holds files")
+	fi, err := os.Stat(filepath.Join(dir, ManifestName))
+	require.NoError(t, err, "the publication is back at its name")
+	assert.WithinDuration(t, newer, fi.ModTime(), time.Second, "the newer of the two came back")
+	assertNoLeftovers(t, parent, "out")
+
+	_, err = Publish(dir, term, s, Options{Generated: fixedClock, Force: true})
+	require.NoError(t, err)
+	assertNoLeftovers(t, parent, "out")
+}
+
+// TestPublishReplaceInOneStep: replacing an earlier publication leaves
+// only the new one at the name and nothing beside it.
+func TestPublishReplaceInOneStep(t *testing.T) {
+	term, s := demoTerm()
+	parent := t.TempDir()
+	dir := filepath.Join(parent, "out")
+	_, err := Publish(dir, term, s, Options{Generated: fixedClock})
+	require.NoError(t, err)
+	later := fixedClock.Add(time.Hour)
+	_, err = Publish(dir, term, s, Options{Generated: later, Force: true})
+	require.NoError(t, err)
+	var m Manifest
+	b, err := os.ReadFile(filepath.Join(dir, ManifestName))
+	require.NoError(t, err)
+	require.NoError(t, json.Unmarshal(b, &m))
+	assert.Equal(t, later.Format(time.RFC3339), m.Generated)
+	assertNoLeftovers(t, parent, "out")
+}
+
+// TestExchange swaps two directories in one step where the system offers
+// it (renameat2 RENAME_EXCHANGE, Linux man page rename(2)).
+func TestExchange(t *testing.T) {
+	a, b := filepath.Join(t.TempDir(), "a"), filepath.Join(t.TempDir(), "b")
+	require.NoError(t, os.MkdirAll(a, 0o755))
+	require.NoError(t, os.MkdirAll(b, 0o755))
+	require.NoError(t, os.WriteFile(filepath.Join(a, "from-a"), nil, 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(b, "from-b"), nil, 0o644))
+	if err := exchange(a, b); err != nil {
+		t.Skipf("no one-step exchange here (%v): swapInto falls back to two renames", err)
+	}
+	assert.FileExists(t, filepath.Join(a, "from-b"))
+	assert.FileExists(t, filepath.Join(b, "from-a"))
 }

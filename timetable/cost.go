@@ -67,10 +67,12 @@ func (r CostReport) Criterion(name string) CriterionCost {
 // clashes", whose definition names them. Readings of the definitions:
 //   - "avoid times": Count is the number of (row, meeting, period) hits;
 //     each hit costs the row's weight times the criterion weight.
-//   - "moved meetings": a section's meetings in s and in kept are each
-//     sorted by start period (then room, then meeting number) and paired in
-//     that order; a pair counts when its start or room differs. Meetings
-//     with no partner (new sections, extra meetings) do not count.
+//   - "moved meetings": a kept meeting of a section of t counts unless a
+//     meeting of its section in s has its start period and room, each
+//     meeting of s standing for one kept meeting at most (a maximum
+//     matching on equal places); meeting numbers play no part. New
+//     sections and extra meetings do not count; kept meetings of a section
+//     that now meets fewer times do.
 //   - "room stability": distinct non-blank rooms minus 1, when positive.
 //   - "travel": per staff member or cohort, one unit per pair of its
 //     meetings where one ends in the period right before (consecutive, same

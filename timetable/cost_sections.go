@@ -1,9 +1,6 @@
 package timetable
 
-import (
-	"slices"
-	"sort"
-)
+import "slices"
 
 // sections evaluates the per-section and per-meeting criteria: spread days,
 // room stability, room over capacity, wasted seats, early and late periods.
@@ -53,50 +50,42 @@ func (c *coster) sections() {
 	}
 }
 
-// moved pairs each section's meetings in s and kept in start-period order
-// and counts pairs whose start period or room differs.
+// moved counts, per section, the kept meetings that s does not hold: a
+// kept meeting is kept when a meeting of its section sits at its start
+// period in its room, each meeting of s keeping at most one kept meeting
+// (a maximum matching; with equal slots as the only edges it is the sum
+// over slots of the smaller number of meetings there).
 func (c *coster) moved(kept *Schedule) {
 	if kept == nil {
 		return
 	}
 	x := c.x
-	old := map[string][]Placement{}
+	type slot struct {
+		period int
+		room   string
+	}
+	old := map[string][]slot{}
 	for _, p := range kept.Placements {
-		old[p.Section] = append(old[p.Section], p)
+		old[p.Section] = append(old[p.Section], slot{p.Period, p.Room})
 	}
 	for si, sec := range x.t.Sections {
 		prev := old[sec.ID]
 		if len(prev) == 0 {
 			continue
 		}
-		cur := make([]Placement, 0, len(x.bySection[si]))
+		free := map[slot]int{}
 		for _, i := range x.bySection[si] {
-			cur = append(cur, x.s.Placements[i])
+			p := x.s.Placements[i]
+			free[slot{p.Period, p.Room}]++
 		}
-		costSortMeetings(cur)
-		prev = slices.Clone(prev)
-		costSortMeetings(prev)
 		var n int64
-		for k := 0; k < len(cur) && k < len(prev); k++ {
-			if cur[k].Period != prev[k].Period || cur[k].Room != prev[k].Room {
+		for _, k := range prev {
+			if free[k] > 0 {
+				free[k]--
+			} else {
 				n++
 			}
 		}
 		c.add(CritMoved, n, n, WhoSection, sec.ID)
 	}
-}
-
-// costSortMeetings orders one section's placements by start period, room
-// and meeting number.
-func costSortMeetings(ps []Placement) {
-	sort.SliceStable(ps, func(i, j int) bool {
-		a, b := ps[i], ps[j]
-		if a.Period != b.Period {
-			return a.Period < b.Period
-		}
-		if a.Room != b.Room {
-			return a.Room < b.Room
-		}
-		return a.Meeting < b.Meeting
-	})
 }

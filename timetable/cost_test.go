@@ -156,14 +156,21 @@ func TestCostCriteria(t *testing.T) {
 		{"hard relation costs nothing", func(_ *Term, s *Schedule) { ckPlace(s, 2, 11, "R2") }, nil, CritSoftRelations, 0, 0},
 		// Kept equals the new timetable → 0 moved.
 		{"moved none", func(*Term, *Schedule) {}, func(*Schedule) {}, CritMoved, 0, 0},
-		// BIO-101's meeting numbers swapped in the kept file: matched in start order, nothing moved.
+		// BIO-101's meeting numbers swapped in the kept file: both meetings still sit at their day, time and room → 0.
 		{"moved ignores meeting numbers", func(*Term, *Schedule) {}, func(k *Schedule) {
 			k.Placements[0].Meeting, k.Placements[1].Meeting = 2, 1
 		}, CritMoved, 0, 0},
 		// CHE-210 to Tue 10:00 (period differs) and PHY-110 to R1 (room differs) → 2.
 		{"moved", func(_ *Term, s *Schedule) { ckPlace(s, 2, 6, "R2"); s.Placements[3].Room = "R1" }, func(*Schedule) {}, CritMoved, 2, 2},
-		// BIO-101 m2 from Wed 09:00 to Mon 14:00: new order p0, p4 vs kept p0, p10 → second pair differs → 1.
-		{"moved in start order", func(_ *Term, s *Schedule) { ckPlace(s, 1, 4, "R1") }, func(*Schedule) {}, CritMoved, 1, 1},
+		// BIO-101 m2 from Wed 09:00 to Mon 14:00: kept p10 has no meeting any more, kept p0 still has → 1.
+		{"moved one of two", func(_ *Term, s *Schedule) { ckPlace(s, 1, 4, "R1") }, func(*Schedule) {}, CritMoved, 1, 1},
+		// Issue 12 item 3: BIO-101 m1 from Mon 09:00 to Wed 13:00 (p13); the Wed 09:00 meeting (p10) stays.
+		// Paired in start order (p10↔p0, p13↔p10) both would differ; by the definition only the Monday one moved → 1.
+		{"moved the earlier of two", func(_ *Term, s *Schedule) { ckPlace(s, 0, 13, "R1") }, func(*Schedule) {}, CritMoved, 1, 1},
+		// The kept file lists BIO-101 three times; the section meets twice, both at kept places → the third moved: 1.
+		{"moved kept meeting the section no longer has", func(*Term, *Schedule) {}, func(k *Schedule) {
+			k.Placements = append(k.Placements, Placement{Section: "BIO-101", Meeting: 3, Period: 2, Room: "R1"})
+		}, CritMoved, 1, 1},
 		// A section absent from the kept timetable moves nothing.
 		{"moved new section", func(*Term, *Schedule) {}, func(k *Schedule) { k.Placements = k.Placements[:5] }, CritMoved, 0, 0},
 	}

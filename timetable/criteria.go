@@ -37,7 +37,7 @@ const (
 // x (a staff member, cohort, room or student through their sections) occupies
 // period p; "day" means the periods of one weekday in grid order.
 var Criteria = []Criterion{
-	{CritMoved, 1, 3, "per meeting placed at a different start period or room than in the kept timetable (--keep); meetings are matched per section in start-period order"},
+	{CritMoved, 1, 3, "per meeting of the kept timetable (--keep) that no meeting of its section holds any more at its day, start time and room (meetings a section no longer has count too)"},
 	{CritStudentClash, 1, 2, "per student, per pair of that student's enrolled sections whose week sets overlap, per period both occupy"},
 	{CritAvoidTimes, 1, 1, "for each soft Unavailable row (weight w), w per occupied period of a meeting involving its staff/room/cohort/section that overlaps the row's time; the criterion weight multiplies w"},
 	{CritStaffGaps, 1, 1, "per staff member and day, number of periods not busy that lie between their first and last busy period of that day"},

@@ -1,6 +1,7 @@
 package timetable
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"sort"
@@ -122,6 +123,28 @@ func sheetRank(name string) int {
 		}
 	}
 	return len(sheetSpecs)
+}
+
+// Compare orders sources as a reader of the workbook meets them: by sheet
+// in workbook order (other sheets after, by name), then by row; a source
+// without a sheet comes last. It returns -1, 0 or +1.
+func (s Source) Compare(o Source) int {
+	switch {
+	case s.Sheet == "" || o.Sheet == "":
+		return cmp.Compare(boolRank(s.Sheet == ""), boolRank(o.Sheet == ""))
+	case sheetRank(s.Sheet) != sheetRank(o.Sheet):
+		return cmp.Compare(sheetRank(s.Sheet), sheetRank(o.Sheet))
+	case s.Sheet != o.Sheet:
+		return strings.Compare(s.Sheet, o.Sheet)
+	}
+	return cmp.Compare(s.Row, o.Row)
+}
+
+func boolRank(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // Sort orders the problems by sheet (in workbook order), row, column and

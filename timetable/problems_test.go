@@ -2,6 +2,7 @@ package timetable
 
 import (
 	"errors"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -58,4 +59,16 @@ func TestErrUnreadableIs(t *testing.T) {
 	err := unreadablef("%s is damaged — copy it again", "x.xlsx")
 	assert.True(t, errors.Is(err, ErrUnreadable))
 	assert.Equal(t, "x.xlsx is damaged — copy it again", err.Error())
+}
+
+// TestSourceOrder: sheets in workbook order, rows by number, unknown last.
+func TestSourceOrder(t *testing.T) {
+	srcs := []Source{{}, {Sheet: "Relations", Row: 10}, {Sheet: "Relations", Row: 2}, {Sheet: "Sections", Row: 14},
+		{Sheet: "Requests", Row: 1}, {Sheet: "Rooms", Row: 3}}
+	slices.SortFunc(srcs, Source.Compare)
+	var got []string
+	for _, s := range srcs {
+		got = append(got, s.String())
+	}
+	assert.Equal(t, []string{"Rooms row 3", "Sections row 14", "Relations row 2", "Relations row 10", "Requests row 1", ""}, got)
 }

@@ -61,7 +61,7 @@ func newBenchCmd(e *env) *cobra.Command {
 			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
 			"fails, and 0 otherwise (instances left without a timetable show in the table).",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runBench(cmd.Context(), e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runBench(cmd.Context(), e, o, args[0]) }),
 	}
 	f := cmd.Flags()
 	f.DurationVar(&o.timeLimit, "time-limit", 60*time.Second, "time allowed per instance")
@@ -122,17 +122,17 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 	files, err := filepath.Glob(filepath.Join(dir, "*.ctt"))
 	if err != nil || len(files) == 0 {
 		if _, serr := os.Stat(dir); serr != nil {
-			return withCode(exitError, fmt.Sprintf("cannot read %s: %v", dir, serr))
+			return failf(exitError, "cannot read %s: %w", dir, serr)
 		}
 		return withCode(exitError, fmt.Sprintf("%s holds no .ctt files; give the folder of benchmark instances", dir))
 	}
 	sort.Strings(files)
 	best, err := benchReadBest(o.best)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if err := benchPrepareOut(o, files); err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if o.jsonOut != "" && !o.force {
 		if _, err := os.Stat(o.jsonOut); err == nil {
@@ -166,7 +166,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 	}
 	if o.jsonOut != "" {
 		if err := writeBytesAtomic(o.jsonOut, js.Bytes()); err != nil {
-			return withCode(exitError, err.Error())
+			return wrapCode(exitError, err)
 		}
 	}
 	if o.json {
@@ -285,7 +285,7 @@ func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
 	}
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, fmt.Errorf("cannot read --best: %v", err)
+		return nil, fmt.Errorf("cannot read --best: %w", err)
 	}
 	defer f.Close()
 	return timetable.ReadITCBest(f, filepath.Base(path))
@@ -298,7 +298,7 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 		return nil
 	}
 	if err := os.MkdirAll(o.out, 0o755); err != nil {
-		return fmt.Errorf("cannot make the solution folder: %v", err)
+		return fmt.Errorf("cannot make the solution folder: %w", err)
 	}
 	if o.force {
 		return nil
@@ -309,7 +309,7 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 		if _, err := os.Stat(sol); err == nil {
 			exist = append(exist, sol)
 		} else if !errors.Is(err, fs.ErrNotExist) {
-			return fmt.Errorf("cannot use %s: %v", sol, err)
+			return fmt.Errorf("cannot use %s: %w", sol, err)
 		}
 	}
 	if len(exist) > 0 {

@@ -69,7 +69,7 @@ func newScaleCmd(e *env) *cobra.Command {
 		Example: "  termwright scale --sections 300,2000 --time-limit 60s\n" +
 			"  termwright scale --sections 10000 --first-limit 10m --time-limit 0 --json",
 		Args: cobra.NoArgs,
-		RunE: func(cmd *cobra.Command, args []string) error { return runScale(cmd.Context(), e, o) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runScale(cmd.Context(), e, o) }),
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.sizes, "sections", "300,2000,10000", "comma-separated numbers of sections")

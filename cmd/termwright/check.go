@@ -26,7 +26,7 @@ func newCheckCmd(e *env) *cobra.Command {
 			"sheet, column and row to fix (\"Sections!D14: ...\"). It exits with status 1\n" +
 			"when there are errors and 0 when there are none (warnings allowed).",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runCheck(e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runCheck(e, o, args[0]) }),
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "print the summary and problems as JSON")
 	return cmd
@@ -47,7 +47,7 @@ type checkProblem struct {
 func runCheck(e *env, o *checkOptions, path string) error {
 	term, problems, err := timetable.Load(path)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	ordered := append(problems.Errors(), problems.Warnings()...)
 	counts := timetable.Summary(term)

@@ -122,20 +122,21 @@ func TestCheckUnreadable(t *testing.T) {
 	bad := filepath.Join(t.TempDir(), "term.xlsx")
 	require.NoError(t, os.WriteFile(bad, []byte("not a workbook at all"), 0o644))
 	for _, tc := range []struct {
-		name string
-		args []string
-		want string
+		name  string
+		args  []string
+		want  string
+		lines int // a command-line mistake adds the usage line and a pointer to --help
 	}{
-		{"text file", []string{"check", bad}, "termwright: term.xlsx is a text file, not an .xlsx workbook"},
-		{"missing", []string{"check", filepath.Join(t.TempDir(), "none.xlsx")}, "does not exist"},
-		{"no argument", []string{"check"}, "accepts 1 arg"},
+		{"text file", []string{"check", bad}, "termwright: term.xlsx is a text file, not an .xlsx workbook", 1},
+		{"missing", []string{"check", filepath.Join(t.TempDir(), "none.xlsx")}, "does not exist", 1},
+		{"no argument", []string{"check"}, "accepts 1 arg(s), received 0\nUsage: termwright check TERM [flags]\n", 3},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			e, out, errb := checkEnv()
 			assert.Equal(t, exitError, run(tc.args, e))
 			assert.Empty(t, out.String())
 			assert.Contains(t, errb.String(), tc.want)
-			assert.Equal(t, 1, strings.Count(errb.String(), "\n"), "one line: %q", errb.String())
+			assert.Equal(t, tc.lines, strings.Count(errb.String(), "\n"), "%q", errb.String())
 		})
 	}
 }

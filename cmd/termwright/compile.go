@@ -2,12 +2,8 @@ package main
 
 import (
 	"bufio"
-	"errors"
 	"fmt"
 	"io"
-	"io/fs"
-	"os"
-	"path/filepath"
 
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/encode"
@@ -44,7 +40,7 @@ func newCompileCmd(e *env) *cobra.Command {
 			"The program goes to -o (refused when the file exists, unless --force) or to\n" +
 			"standard output; a size summary goes to standard error.",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runCompile(e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runCompile(e, o, args[0]) }),
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "file to write the program to (default: standard output)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
@@ -56,7 +52,7 @@ func newCompileCmd(e *env) *cobra.Command {
 func runCompile(e *env, o *compileOptions, termPath string) error {
 	toStdout := o.out == "" || o.out == "-"
 	if !toStdout {
-		if err := refuseOutput(o.out, termPath, o.force); err != nil {
+		if err := checkOutput(o.out, o.force, "", termPath); err != nil {
 			return err
 		}
 	}
@@ -66,7 +62,7 @@ func runCompile(e *env, o *compileOptions, termPath string) error {
 	}
 	p, cat, err := encode.Compile(term, encode.Options{Explain: o.explain})
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	write := func(w io.Writer) error { return writeProgramDump(w, term, p, cat, o.explain) }
 	if o.cnf {
@@ -75,13 +71,13 @@ func runCompile(e *env, o *compileOptions, termPath string) error {
 	if toStdout {
 		bw := bufio.NewWriter(e.stdout)
 		if err := write(bw); err != nil {
-			return withCode(exitError, "cannot print the program: "+err.Error())
+			return failf(exitError, "cannot print the program: %w", err)
 		}
 		if err := bw.Flush(); err != nil {
 			return err
 		}
-	} else if err := writeFileAtomic(o.out, write); err != nil {
-		return withCode(exitError, err.Error())
+	} else if _, err := writeOutput(o.out, o.force, write); err != nil {
+		return wrapCode(exitError, err)
 	}
 	st := cat.Stats(p)
 	where := o.out
@@ -120,7 +116,7 @@ func writeProgramDump(w io.Writer, t *timetable.Term, p *solver.Program, cat *en
 func loadTerm(e *env, path string) (*timetable.Term, error) {
 	term, problems, err := timetable.Load(path)
 	if err != nil {
-		return nil, withCode(exitError, err.Error())
+		return nil, wrapCode(exitError, err)
 	}
 	errs := problems.Errors()
 	for _, p := range append(errs, problems.Warnings()...) {
@@ -138,67 +134,4 @@ func termName(t *timetable.Term) string {
 		return "the term"
 	}
 	return fmt.Sprintf("%q", t.Name)
-}
-
-// refuseOutput refuses to write over the input or, without force, over
-// any existing file.
-func refuseOutput(out, input string, force bool) error {
-	if same, _ := samePath(out, input); same {
-		return withCode(exitError, fmt.Sprintf("%s is the input term; choose another output file", out))
-	}
-	fi, err := os.Stat(out)
-	switch {
-	case err == nil && fi.IsDir():
-		return withCode(exitError, fmt.Sprintf("%s is a folder; give a file name", out))
-	case err == nil && !force:
-		return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", out))
-	case err != nil && !errors.Is(err, fs.ErrNotExist):
-		return withCode(exitError, fmt.Sprintf("cannot use %s: %v", out, err))
-	}
-	return nil
-}
-
-// samePath reports whether two paths name the same file (or would, when
-// neither exists yet).
-func samePath(a, b string) (bool, error) {
-	fa, errA := os.Stat(a)
-	fb, errB := os.Stat(b)
-	if errA == nil && errB == nil {
-		return os.SameFile(fa, fb), nil
-	}
-	absA, err := filepath.Abs(a)
-	if err != nil {
-		return false, err
-	}
-	absB, err := filepath.Abs(b)
-	if err != nil {
-		return false, err
-	}
-	return absA == absB, nil
-}
-
-// writeFileAtomic writes through a temporary file beside path and renames
-// it into place, so that a failure never leaves a half-written file.
-func writeFileAtomic(path string, write func(io.Writer) error) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
-	if err != nil {
-		return fmt.Errorf("cannot write in %s: %v", filepath.Dir(path), err)
-	}
-	bw := bufio.NewWriter(tmp)
-	werr := write(bw)
-	if werr == nil {
-		werr = bw.Flush()
-	}
-	werr = errors.Join(werr, tmp.Close())
-	if werr == nil {
-		werr = os.Chmod(tmp.Name(), 0o644)
-	}
-	if werr == nil {
-		werr = os.Rename(tmp.Name(), path)
-	}
-	if werr != nil {
-		os.Remove(tmp.Name())
-		return fmt.Errorf("cannot write %s: %v", path, werr)
-	}
-	return nil
 }

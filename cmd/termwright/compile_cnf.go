@@ -2,7 +2,6 @@ package main
 
 import (
 	"bufio"
-	"fmt"
 	"io"
 	"os"
 	"path/filepath"
@@ -33,12 +32,12 @@ func loadCompileTerm(e *env, path string) (*timetable.Term, error) {
 	}
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, withCode(exitError, fmt.Sprintf("cannot open the instance: %v", err))
+		return nil, failf(exitError, "cannot open the instance: %w", err)
 	}
 	defer f.Close()
 	term, err := timetable.ReadCTT(bufio.NewReader(f), filepath.Base(path))
 	if err != nil {
-		return nil, withCode(exitError, err.Error())
+		return nil, wrapCode(exitError, err)
 	}
 	return term, nil
 }

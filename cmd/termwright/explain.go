@@ -57,7 +57,7 @@ func newExplainCmd(e *env) *cobra.Command {
 			"Exit status: 0 a timetable exists / the requests are granted, 2 none exists /\n" +
 			"refused (explained), 1 error or no answer within the time limit.",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runExplain(cmd.Context(), e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runExplain(cmd.Context(), e, o, args[0]) }),
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.section, "section", "", "section of a request (with --at)")
@@ -93,7 +93,7 @@ func runExplain(ctx context.Context, e *env, o *explainOptions, termPath string)
 		return err
 	}
 	if o.out != "" {
-		if err := refuseOutput(o.out, termPath, o.force); err != nil {
+		if err := checkOutput(o.out, o.force, ".xlsx", termPath, o.requests); err != nil {
 			return err
 		}
 	}
@@ -124,23 +124,25 @@ func runExplain(ctx context.Context, e *env, o *explainOptions, termPath string)
 	if err != nil {
 		var re encode.RequestError
 		if errors.As(err, &re) {
-			return withCode(exitError, re.Error())
+			return wrapCode(exitError, re)
 		}
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	rep.Explanation = ex
 	if explainNeedsCaution(ex) {
 		rep.Caution = explainCaution
 	}
 	yes := ex.Status == encode.StatusFeasible || ex.Status == encode.StatusGranted
+	var outErr error
 	if yes && o.out != "" {
-		err := writeFileAtomic(o.out, func(w io.Writer) error {
+		written, err := writeOutput(o.out, o.force, func(w io.Writer) error {
 			return export.WriteTimetableWorkbook(w, term, ex.Schedule, export.Options{Generated: e.now()})
 		})
-		if err != nil {
-			return withCode(exitError, err.Error())
+		if written == "" {
+			return wrapCode(exitError, err)
 		}
-		rep.Output = o.out
+		rep.Output = written
+		outErr = err // written under another name: said after the answer
 	}
 	if o.json {
 		enc := json.NewEncoder(e.stdout)
@@ -153,6 +155,9 @@ func runExplain(ctx context.Context, e *env, o *explainOptions, termPath string)
 	}
 	switch ex.Status {
 	case encode.StatusFeasible, encode.StatusGranted:
+		if outErr != nil {
+			return wrapCode(exitError, outErr)
+		}
 		return nil
 	case encode.StatusInfeasible, encode.StatusRefused:
 		if o.out != "" {
@@ -175,7 +180,7 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 	case o.requests != "":
 		reqs, err := encode.ReadRequests(o.requests)
 		if err != nil {
-			return nil, withCode(exitError, err.Error())
+			return nil, wrapCode(exitError, err)
 		}
 		return reqs, nil
 	case !one:
@@ -185,7 +190,7 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 	}
 	day, start, err := encode.ParseAt(o.at)
 	if err != nil {
-		return nil, withCode(exitError, "--at: "+err.Error())
+		return nil, failf(exitError, "--at: %w", err)
 	}
 	return []encode.Request{{Section: o.section, Day: day, Start: start, Room: o.room}}, nil
 }
@@ -196,12 +201,10 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 func explainLoad(e *env, path string) (*timetable.Term, timetable.Problems, error) {
 	term, problems, err := timetable.Load(path)
 	if err != nil {
-		return nil, nil, withCode(exitError, err.Error())
+		return nil, nil, wrapCode(exitError, err)
 	}
 	semantic := timetable.Validate(term).Errors()
-	same := func(a, b timetable.Problem) bool {
-		return a.Pos.Sheet == b.Pos.Sheet && a.Pos.Row == b.Pos.Row && a.Msg == b.Msg
-	}
+	same := sameProblem
 	var reading timetable.Problems
 	for _, p := range problems.Errors() {
 		found := false

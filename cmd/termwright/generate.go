@@ -39,13 +39,13 @@ func newGenerateCmd(e *env) *cobra.Command {
 		Example: "  termwright generate big.xlsx --sections 2000 --seed 7\n" +
 			"  termwright generate --csv demo-folder",
 		Args: cobra.MaximumNArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error {
 			out := ""
 			if len(args) == 1 {
 				out = args[0]
 			}
 			return runGenerate(e, o, out)
-		},
+		}),
 	}
 	f := cmd.Flags()
 	f.IntVar(&o.cfg.Sections, "sections", samples.DemoConfig.Sections, "number of sections")
@@ -75,19 +75,19 @@ func runGenerate(e *env, o *generateOptions, out string) error {
 	if out != "" {
 		var buf bytes.Buffer
 		if err := timetable.WriteTermWorkbook(term, &buf); err != nil {
-			return withCode(exitError, fmt.Sprintf("cannot make the workbook: %v", err))
+			return failf(exitError, "cannot make the workbook: %w", err)
 		}
 		if out == "-" {
 			if _, err := e.stdout.Write(buf.Bytes()); err != nil {
-				return withCode(exitError, fmt.Sprintf("cannot write to standard output: %v", err))
+				return failf(exitError, "cannot write to standard output: %w", err)
 			}
 		} else if err := writeBytesAtomic(out, buf.Bytes()); err != nil {
-			return withCode(exitError, err.Error())
+			return wrapCode(exitError, err)
 		}
 	}
 	if o.csvDir != "" {
 		if err := timetable.WriteTermCSV(term, o.csvDir); err != nil {
-			return withCode(exitError, fmt.Sprintf("cannot write the CSV files into %s: %v", o.csvDir, err))
+			return failf(exitError, "cannot write the CSV files into %s: %w", o.csvDir, err)
 		}
 	}
 	n := timetable.Summary(term)
@@ -107,11 +107,9 @@ func runGenerate(e *env, o *generateOptions, out string) error {
 }
 
 // generateRefuseExisting fails when an output already exists and --force
-// was not given, naming the file.
+// was not given, naming the file, and on anything but a regular file at an
+// output's name even with --force.
 func generateRefuseExisting(out string, o *generateOptions) error {
-	if o.force {
-		return nil
-	}
 	var paths []string
 	if out != "" && out != "-" {
 		paths = append(paths, out)
@@ -125,10 +123,15 @@ func generateRefuseExisting(out string, o *generateOptions) error {
 		}
 	}
 	for _, p := range paths {
-		if _, err := os.Stat(p); err == nil {
-			return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", p))
+		if fi, err := os.Lstat(p); err == nil {
+			if err := refuseNonRegular(p, fi); err != nil {
+				return err
+			}
+			if !o.force {
+				return withCode(exitError, fmt.Sprintf("%s already exists — choose another name, or add --force to replace it", p))
+			}
 		} else if !errors.Is(err, fs.ErrNotExist) {
-			return withCode(exitError, fmt.Sprintf("cannot use %s: %v", p, err))
+			return failf(exitError, "cannot use %s: %w", p, err)
 		}
 	}
 	return nil

@@ -58,12 +58,14 @@ func newLogicSolveCmd(e *env) *cobra.Command {
 		Example: "  termwright logic solve queens.lp --models 0\n" +
 			"  termwright logic solve - --count --time-limit 30s < big.lp",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
+		PreRun: func(cmd *cobra.Command, args []string) {
 			if !cmd.Flags().Changed("models") && o.count {
-				o.models = 0
+				o.models = 0 // --count alone counts every model
 			}
-			return runLogicSolve(cmd.Context(), e, o, args[0])
 		},
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error {
+			return runLogicSolve(cmd.Context(), e, o, args[0])
+		}),
 	}
 	f := cmd.Flags()
 	f.IntVar(&o.models, "models", 1, "list at most `N` models (0 lists all)")
@@ -90,9 +92,9 @@ func newLogicVerifyCmd(e *env) *cobra.Command {
 		Example: "  termwright logic verify prog.lp --model \"a, start(s12,3)\"\n" +
 			"  termwright logic verify prog.lp --model-file answer.txt",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error {
 			return runLogicVerify(e, o, args[0], cmd.Flags().Changed("model"))
-		},
+		}),
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.model, "model", "", "the candidate's true atoms, e.g. \"a, b, p(1,2)\" (\"\" for none)")
@@ -109,7 +111,7 @@ func logicRead(e *env, path string) (*solver.Program, error) {
 	if path != "-" {
 		f, err := os.Open(path)
 		if err != nil {
-			return nil, withCode(exitError, fmt.Sprintf("cannot open the program: %v", err))
+			return nil, failf(exitError, "cannot open the program: %w", err)
 		}
 		defer f.Close()
 		r, name = f, path
@@ -126,12 +128,12 @@ func logicInputError(e *env, err error, what string) error {
 	}
 	var list solver.SyntaxErrors
 	if !errors.As(err, &list) {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	for _, se := range list {
 		fmt.Fprintln(e.stderr, se.Error())
 	}
-	return withCode(exitError, fmt.Sprintf("%d error%s in %s; nothing was done", len(list), logicPlural(len(list)), what))
+	return wrapMsg(exitError, fmt.Sprintf("%d error%s in %s; nothing was done", len(list), logicPlural(len(list)), what), err)
 }
 
 func logicPlural(n int) string {
@@ -211,7 +213,7 @@ func runLogicSolve(ctx context.Context, e *env, o *logicOptions, path string) er
 	}
 	s, err := solver.New(p, solver.DefaultOptions())
 	if err != nil {
-		return withCode(exitError, fmt.Sprintf("cannot solve %s: %v", path, err))
+		return failf(exitError, "cannot solve %s: %w", path, err)
 	}
 	if ctx == nil {
 		ctx = context.Background()
@@ -253,7 +255,7 @@ func runLogicSolve(ctx context.Context, e *env, o *logicOptions, path string) er
 		return true
 	})
 	if verr != nil {
-		return withCode(exitError, fmt.Sprintf("internal error: the engine returned a candidate that the verifier rejects (%v); please report this with the program", verr))
+		return failf(exitError, "internal error: the engine returned a candidate that the verifier rejects (%w); please report this with the program", verr)
 	}
 	complete = complete && !more
 	stopped := !complete && !more
@@ -364,7 +366,7 @@ func runLogicVerify(e *env, o *logicOptions, path string, modelGiven bool) error
 	default:
 		f, err := os.Open(o.modelFile)
 		if err != nil {
-			return withCode(exitError, fmt.Sprintf("cannot open the candidate: %v", err))
+			return failf(exitError, "cannot open the candidate: %w", err)
 		}
 		defer f.Close()
 		r, name = f, o.modelFile
@@ -392,7 +394,7 @@ func runLogicVerify(e *env, o *logicOptions, path string, modelGiven bool) error
 			verdict.Problems = append(verdict.Problems, lp)
 		}
 	default:
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if o.json {
 		json.NewEncoder(e.stdout).Encode(verdict)

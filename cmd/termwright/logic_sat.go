@@ -35,7 +35,7 @@ func newLogicSatCmd(e *env) *cobra.Command {
 		Example: "  termwright compile term.xlsx --cnf -o term.cnf\n" +
 			"  termwright logic sat term.cnf --time-limit 60s --quiet",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runLogicSat(cmd.Context(), e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runLogicSat(cmd.Context(), e, o, args[0]) }),
 	}
 	cmd.Flags().DurationVar(&o.timeLimit, "time-limit", 0, "stop searching after this long, e.g. 10s or 2m (0 means no limit)")
 	cmd.Flags().BoolVarP(&o.quiet, "quiet", "q", false, "print only the \"s\" line, not the model")
@@ -54,13 +54,13 @@ func runLogicSat(ctx context.Context, e *env, o *logicSatOptions, path string) e
 	} else {
 		f, ferr := os.Open(path)
 		if ferr != nil {
-			return withCode(exitError, fmt.Sprintf("cannot open the formula: %v", ferr))
+			return failf(exitError, "cannot open the formula: %w", ferr)
 		}
 		p, err = solver.ReadDIMACS(bufio.NewReaderSize(f, 1<<16), path)
 		f.Close()
 	}
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if ctx == nil {
 		ctx = context.Background()
@@ -73,7 +73,7 @@ func runLogicSat(ctx context.Context, e *env, o *logicSatOptions, path string) e
 	t1 := time.Now()
 	s, err := solver.New(p, solver.DefaultOptions())
 	if err != nil {
-		return withCode(exitError, fmt.Sprintf("cannot solve %s: %v", path, err))
+		return failf(exitError, "cannot solve %s: %w", path, err)
 	}
 	st := s.Solve(ctx)
 	t2 := time.Now()
@@ -87,7 +87,7 @@ func runLogicSat(ctx context.Context, e *env, o *logicSatOptions, path string) e
 	case solver.Satisfiable:
 		model := s.Model(nil)
 		if err := solver.Verify(p, model); err != nil {
-			return withCode(exitError, fmt.Sprintf("internal error: the engine returned an assignment that the verifier rejects (%v); please report this with the formula", err))
+			return failf(exitError, "internal error: the engine returned an assignment that the verifier rejects (%w); please report this with the formula", err)
 		}
 		fmt.Fprintln(w, "s SATISFIABLE")
 		if !o.quiet {

@@ -38,7 +38,7 @@ func newPublishCmd(e *env) *cobra.Command {
 			"listed and publish exits with status 1. DIR must be new or empty; --force\n" +
 			"replaces an earlier publication, never a folder holding other files.",
 		Args: cobra.ExactArgs(2),
-		RunE: func(cmd *cobra.Command, args []string) error { return runPublish(e, o, args[0], args[1]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runPublish(e, o, args[0], args[1]) }),
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "directory to publish into (required; new, empty, or an earlier publication with --force)")
 	cmd.Flags().StringVar(&o.paper, "paper", "A4", "PDF paper size: A4 or Letter")
@@ -51,16 +51,19 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 	if o.out == "" {
 		return withCode(exitError, "publish needs an output directory: add -o DIR")
 	}
+	if err := checkPublishDir(o.out, o.force, termPath); err != nil {
+		return err
+	}
 	term, problems, err := timetable.Load(termPath)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if err := reportProblems(e.stderr, termPath, problems); err != nil {
 		return err
 	}
 	s, problems, err := timetable.ReadSchedule(timetablePath, term)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if err := reportProblems(e.stderr, timetablePath, problems); err != nil {
 		return err
@@ -80,7 +83,7 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 		Paper: o.paper, Generated: e.now(), Students: o.students, Force: o.force,
 	})
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	writeManifest(e.stdout, m)
 	return nil

@@ -2,9 +2,13 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"strings"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -123,4 +127,48 @@ func TestPublishHelp(t *testing.T) {
 	want, err := os.ReadFile(path)
 	require.NoError(t, err)
 	assert.Equal(t, string(want), out.String())
+}
+
+// TestPublishKilled kills (SIGKILL, which no program can catch) a child
+// process that republishes over an earlier publication with --force, at a
+// different moment in each trial, and requires that the folder always
+// holds a complete publication (a valid manifest whose files all exist)
+// and that the next publication leaves nothing hidden beside it.
+func TestPublishKilled(t *testing.T) {
+	if args := os.Getenv("TERMWRIGHT_PUBLISH_CHILD"); args != "" {
+		os.Exit(run(strings.Split(args, "\x1f"), newEnv()))
+	}
+	dir := t.TempDir()
+	termPath, ttPath := publishFiles(t, dir, nil)
+	out := filepath.Join(dir, "out")
+	args := []string{"publish", termPath, ttPath, "-o", out, "--force"}
+	e, _, errb := checkEnv()
+	require.Equal(t, exitOK, run(args, e), errb.String())
+	for trial := range 6 {
+		cmd := exec.Command(os.Args[0], "-test.run=^TestPublishKilled$")
+		cmd.Env = append(os.Environ(), "TERMWRIGHT_PUBLISH_CHILD="+strings.Join(args, "\x1f"))
+		require.NoError(t, cmd.Start())
+		// Some moment during the child's run; where exactly does not matter:
+		// the property must hold at every one.
+		time.Sleep(time.Duration(trial) * 40 * time.Millisecond)
+		require.NoError(t, cmd.Process.Kill())
+		_ = cmd.Wait()
+		b, err := os.ReadFile(filepath.Join(out, export.ManifestName))
+		require.NoError(t, err, "trial %d: no complete publication at %s", trial, out)
+		var m export.Manifest
+		require.NoError(t, json.Unmarshal(b, &m))
+		for _, f := range m.Files {
+			require.FileExists(t, filepath.Join(out, filepath.FromSlash(f.Path)), "trial %d", trial)
+		}
+	}
+	before, err := filepath.Glob(filepath.Join(dir, ".out.partial-*"))
+	require.NoError(t, err)
+	t.Logf("%d working directories left by the killed runs", len(before))
+	e, _, errb = checkEnv()
+	require.Equal(t, exitOK, run(args, e), errb.String())
+	entries, err := os.ReadDir(dir)
+	require.NoError(t, err)
+	for _, en := range entries {
+		assert.False(t, strings.Contains(en.Name(), ".partial-"), "leftover %s", en.Name())
+	}
 }

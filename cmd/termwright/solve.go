@@ -6,7 +6,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
+	"path/filepath"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -48,14 +50,21 @@ func newSolveCmd(e *env) *cobra.Command {
 			"errors. With --publish DIR it also writes every PDF, workbook and calendar file\n" +
 			"into DIR (see termwright publish).\n\n" +
 			"The search stops when the best timetable is proven, when it stops improving, at\n" +
-			"--time-limit, or on Ctrl-C; the best timetable found so far is written. With\n" +
-			"--keep LAST.xlsx it re-plans after late edits while moving as few meetings of\n" +
-			"LAST as it can, and lists every meeting that moved and who must be told.\n\n" +
-			"Exit status: 0 when a timetable was written, 2 when no timetable exists (run\n" +
-			"termwright explain TERM to see why), 1 on errors or when the time limit or\n" +
-			"Ctrl-C ends the search before the first timetable.",
+			"--time-limit, or on Ctrl-C, SIGTERM or SIGHUP (a second one stops at once); the\n" +
+			"best timetable found so far is checked and written. -o is checked before the\n" +
+			"search (a new .xlsx name in a folder you may write to, outside the term's own\n" +
+			"files; --force replaces only a regular file) and created at the end only if it\n" +
+			"still does not exist (otherwise the timetable goes to NAME-2.xlsx and solve says\n" +
+			"so). Progress goes to standard error: one line redrawn on a terminal, a plain\n" +
+			"line every few seconds otherwise. With --keep LAST.xlsx it re-plans after late\n" +
+			"edits while moving as few meetings of LAST as it can, and lists every meeting\n" +
+			"that moved and who must be told.\n\n" +
+			"Exit status: 0 when a timetable was written, 2 when no timetable exists (found\n" +
+			"by the search, or at once by the term check's counting; run termwright explain\n" +
+			"TERM to see why), 1 on errors or when the time limit or a stop signal ends the\n" +
+			"search before the first timetable.",
 		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error { return runSolve(cmd.Context(), e, o, args[0]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runSolve(cmd.Context(), e, o, args[0]) }),
 	}
 	f := cmd.Flags()
 	f.StringVarP(&o.out, "out", "o", "", "timetable workbook to write (.xlsx; required)")
@@ -87,6 +96,14 @@ type solveReport struct {
 	TimingsMS solveTimingMS `json:"timings_ms"`
 	Quality   *solveQuality `json:"quality,omitempty"`
 	Caution   string        `json:"caution,omitempty"`
+	// Reasons are the counting proofs that no timetable exists, when the
+	// term check finds them before any search.
+	Reasons []checkProblem `json:"reasons,omitempty"`
+	// Interrupted names the signal that ended the search early
+	// ("Ctrl-C", "SIGTERM", "SIGHUP").
+	Interrupted string `json:"interrupted,omitempty"`
+	TimeLimit   string `json:"time_limit,omitempty"` // with status "unknown"
+	Threads     int    `json:"threads,omitempty"`
 }
 
 type solveProgram struct {
@@ -107,102 +124,212 @@ type solveEngine struct {
 	Restarts     int64 `json:"restarts"`
 }
 
+// solveTimingMS are the times of a solve. Read, SearchWall and Write are
+// wall-clock times one after the other, and Total is all of them (with the
+// checks of the outputs); Compile, Search, Verify, Decode and Check are the
+// engine phases inside SearchWall as encode measures them: the verify,
+// decode and check of each timetable found run inside the engine's search
+// callback (so they are part of Search too), and with several threads
+// every phase is summed over the parallel searches.
 type solveTimingMS struct {
-	Compile float64 `json:"compile"`
-	Search  float64 `json:"search"`
-	Verify  float64 `json:"verify"`
-	Decode  float64 `json:"decode"`
-	Check   float64 `json:"check"`
-	Write   float64 `json:"write"`
+	Compile    float64 `json:"compile"`
+	Search     float64 `json:"search"`
+	Verify     float64 `json:"verify"`
+	Decode     float64 `json:"decode"`
+	Check      float64 `json:"check"`
+	Write      float64 `json:"write"`
+	Read       float64 `json:"read"`        // reading and checking the term (and --keep)
+	SearchWall float64 `json:"search_wall"` // wall time of compile, search and checks
+	Total      float64 `json:"total"`       // wall time of the whole command
 }
 
 func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) error {
 	if o.out == "" {
 		return withCode(exitError, "solve needs an output file: add -o TIMETABLE.xlsx")
 	}
-	if err := refuseOutput(o.out, termPath, o.force); err != nil {
+	if ctx == nil {
+		ctx = context.Background()
+	}
+	began := time.Now()
+	if err := checkOutput(o.out, o.force, ".xlsx", termPath, o.keep); err != nil {
 		return err
 	}
 	if o.publish != "" {
-		if err := refusePublishDir(o.publish, o.force); err != nil {
+		if err := checkPublishDir(o.publish, o.force, termPath); err != nil {
 			return err
 		}
 	}
-	term, err := loadTerm(e, termPath)
+	term, proofs, err := solveLoad(e, termPath)
 	if err != nil {
 		return err
+	}
+	if len(proofs) > 0 {
+		return solveImpossible(e, o, term, termPath, proofs)
 	}
 	kept, err := solveReadKept(e, o.keep, term)
 	if err != nil {
 		return err
 	}
-	if ctx == nil {
-		ctx = context.Background()
-	}
+	read := time.Since(began)
+	sctx := ctx
 	if o.timeLimit > 0 {
 		var cancel context.CancelFunc
-		ctx, cancel = context.WithTimeout(ctx, o.timeLimit)
+		sctx, cancel = context.WithTimeout(ctx, o.timeLimit)
 		defer cancel()
 	}
-	progress := newSolveProgress(e, o.quiet || o.json)
-	res, err := encode.OptimizePortfolio(ctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show}, max(o.threads, 1))
+	progress := newSolveProgress(e, o.quiet || o.json, term)
+	t0 := time.Now()
+	res, err := encode.OptimizePortfolio(sctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show}, max(o.threads, 1))
+	searched := time.Since(t0)
 	progress.done()
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	rep := solveBuildReport(term, &res.Result)
+	rep.TimingsMS.Read, rep.TimingsMS.SearchWall = ms(read), ms(searched)
+	rep.Threads = max(o.threads, 1)
+	if sig := interruptedBy(ctx); sig != "" {
+		rep.Interrupted = sig
+	}
 	if res.Status == solver.Satisfiable {
 		rep.Quality = solveBuildQuality(term, res)
+		if rep.Interrupted != "" {
+			rep.Quality.Stopped = "interrupted (" + rep.Interrupted + ")"
+		}
+	}
+	finish := func() {
+		rep.TimingsMS.Total = ms(time.Since(began))
 	}
 	switch res.Status {
 	case solver.Unsatisfiable:
 		rep.Status = "infeasible"
+		finish()
 		if err := solvePrint(e, o, rep); err != nil {
 			return err
 		}
 		return withCode(exitNone, fmt.Sprintf("no timetable exists for %s: its hard requirements contradict each other — run `termwright explain %s` to see why", termPath, termPath))
 	case solver.Unknown:
 		rep.Status = "unknown"
+		rep.TimeLimit = o.timeLimit.String()
+		finish()
 		if err := solvePrint(e, o, rep); err != nil {
 			return err
 		}
-		if res.Incomplete && ctx.Err() == nil {
+		switch {
+		case rep.Interrupted != "":
+			return withCode(exitError, fmt.Sprintf("the search was interrupted (%s) before the first timetable was found; nothing was written", rep.Interrupted))
+		case res.Incomplete && sctx.Err() == nil:
 			return withCode(exitError, "no timetable was found, but the search could not rule one out (a room assignment search ran out of budget); nothing was written")
-		}
-		if ctx.Err() != nil && !errors.Is(ctx.Err(), context.DeadlineExceeded) {
-			return withCode(exitError, "interrupted before a timetable was found; nothing was written")
 		}
 		return withCode(exitError, fmt.Sprintf("no timetable found within %v; nothing was written — allow more time with --time-limit", o.timeLimit))
 	}
-	t0 := time.Now()
-	err = writeFileAtomic(o.out, func(w io.Writer) error {
+	tw := time.Now()
+	written, werr := writeOutput(o.out, o.force, func(w io.Writer) error {
 		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: solveQualitySheets(term, res)})
 	})
-	if err != nil {
-		return withCode(exitError, err.Error())
+	if written == "" {
+		return wrapCode(exitError, werr)
 	}
-	rep.Status, rep.Output = "solved", o.out
-	if o.publish != "" {
+	rep.Status, rep.Output = "solved", written
+	if o.publish != "" && werr == nil {
 		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: solveQualitySheets(term, res)}); err != nil {
-			return withCode(exitError, fmt.Sprintf("the timetable was written to %s, but publishing failed: %v", o.out, err))
+			return failf(exitError, "the timetable was written to %s, but publishing failed: %w", written, err)
 		}
 		rep.Published = o.publish
 	}
-	rep.TimingsMS.Write = ms(time.Since(t0))
-	return solvePrint(e, o, rep)
+	rep.TimingsMS.Write = ms(time.Since(tw))
+	finish()
+	if err := solvePrint(e, o, rep); err != nil {
+		return err
+	}
+	if werr != nil {
+		return wrapCode(exitError, werr)
+	}
+	return nil
 }
 
-// refusePublishDir refuses a non-empty publication directory without
-// --force (export.Publish decides what --force may replace).
-func refusePublishDir(dir string, force bool) error {
+// sameProblem says two problems are one: the reader's positions have
+// column letters, and for whole-sheet problems sheet names, that
+// Validate's lack, so the message and row decide, and the sheet where both
+// know it.
+func sameProblem(a, b timetable.Problem) bool {
+	sheet := a.Pos.Sheet == b.Pos.Sheet || a.Pos.Sheet == "" || b.Pos.Sheet == ""
+	return sheet && a.Pos.Row == b.Pos.Row && a.Msg == b.Msg
+}
+
+// solveLoad reads the term like loadTerm, except that a term whose only
+// errors are counting proofs that no timetable exists
+// (timetable.Impossible) is returned with those errors: that is an answer
+// (exit 2), not a mistake in the data.
+func solveLoad(e *env, path string) (*timetable.Term, timetable.Problems, error) {
+	term, problems, err := timetable.Load(path)
+	if err != nil {
+		return nil, nil, wrapCode(exitError, err)
+	}
+	errs := problems.Errors()
+	for _, p := range problems.Warnings() {
+		fmt.Fprintln(e.stderr, p.String())
+	}
+	if len(errs) == 0 {
+		return term, nil, nil
+	}
+	proofs := timetable.Impossible(term)
+	other := 0
+	for _, p := range errs {
+		if !containsProblem(proofs, p, sameProblem) {
+			other++
+		}
+	}
+	if other == 0 {
+		return term, errs, nil
+	}
+	for _, p := range errs {
+		fmt.Fprintln(e.stderr, p.String())
+	}
+	return nil, nil, withCode(exitError, fmt.Sprintf("%s has %s — fix them first (termwright check %s lists them)",
+		path, checkCount(len(errs), "error"), path))
+}
+
+// solveImpossible reports a term that the counting checks prove has no
+// timetable: the reasons, and where to look next.
+func solveImpossible(e *env, o *solveOptions, t *timetable.Term, path string, proofs timetable.Problems) error {
+	rep := solveReport{Term: t.Name, Status: "infeasible", Sections: len(t.Sections), Reasons: []checkProblem{}}
+	for _, p := range proofs {
+		rep.Reasons = append(rep.Reasons, checkProblem{Where: p.Pos.String(), Severity: p.Severity.String(), Message: p.Msg})
+	}
+	if o.json {
+		if err := solvePrint(e, o, rep); err != nil {
+			return err
+		}
+	} else {
+		name := t.Name
+		if name == "" {
+			name = "the term"
+		}
+		fmt.Fprintf(e.stdout, "No timetable exists for %s (%s): counting alone proves it, before any search:\n", name, checkCount(rep.Sections, "section"))
+		for _, p := range proofs {
+			fmt.Fprintln(e.stdout, "  - "+p.String())
+		}
+	}
+	return withCode(exitNone, fmt.Sprintf("no timetable exists for %s — run `termwright explain %s` to see the requirements that cannot all hold and what would have to give", path, path))
+}
+
+// checkPublishDir refuses, before the search, a publication folder that
+// cannot be used: a non-empty one without --force (export.Publish decides
+// what --force may replace), the input's own folder or one inside it, and
+// one whose parent folder termwright cannot create in.
+func checkPublishDir(dir string, force bool, input string) error {
+	if err := refuseInsideInput(filepath.Join(dir, export.ManifestName), input); err != nil {
+		return err
+	}
 	entries, err := os.ReadDir(dir)
-	if err == nil && len(entries) > 0 && !force {
+	switch {
+	case err == nil && len(entries) > 0 && !force:
 		return withCode(exitError, fmt.Sprintf("%s is not empty — choose a new folder, or add --force to replace an earlier publication", dir))
+	case err != nil && !errors.Is(err, fs.ErrNotExist):
+		return failf(exitError, "cannot use %s: %w", dir, err)
 	}
-	if err == nil || errors.Is(err, os.ErrNotExist) {
-		return nil
-	}
-	return withCode(exitError, fmt.Sprintf("cannot use %s: %v", dir, err))
+	return probeFolder(filepath.Dir(filepath.Clean(dir)))
 }
 
 func ms(d time.Duration) float64 { return float64(d.Microseconds()) / 1000 }
@@ -250,8 +377,18 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 		}
 	case "infeasible":
 		fmt.Fprintf(w, "No timetable exists for %s (%s).\n", name, checkCount(rep.Sections, "section"))
-	default:
-		fmt.Fprintf(w, "No timetable found for %s in the time allowed.\n", name)
+		if rep.Reasons != nil {
+			return nil // solveImpossible prints the reasons; nothing was compiled
+		}
+	case "unknown":
+		if rep.Interrupted != "" {
+			fmt.Fprintf(w, "No timetable found for %s: the search was interrupted (%s) before the first timetable.\n", name, rep.Interrupted)
+		} else {
+			fmt.Fprintf(w, "No timetable found for %s in the time allowed (%s).\n", name, rep.TimeLimit)
+		}
+	}
+	if rep.Status == "solved" && rep.Interrupted != "" {
+		fmt.Fprintf(w, "The search was interrupted (%s); the best timetable found until then was checked and written.\n", rep.Interrupted)
 	}
 	p := rep.Program
 	fmt.Fprintf(w, "Program: %d atoms (%d start), %d rules, %d choices, %d bounds (%d literals), %s, %d room famil%s.\n",
@@ -262,14 +399,26 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 		fmt.Fprintf(w, " (%d room famil%s added, %s forbidden)", rep.HallCuts, plural(rep.HallCuts, "y", "ies"), checkCount(rep.Nogoods, "room conflict"))
 	}
 	fmt.Fprintln(w, ".")
-	tm := rep.TimingsMS
-	fmt.Fprintf(w, "Time: compile %s, search %s, verify %s, decode %s, check %s, write %s.\n",
-		msText(tm.Compile), msText(tm.Search), msText(tm.Verify), msText(tm.Decode), msText(tm.Check), msText(tm.Write))
+	solvePrintTimes(w, rep)
 	if rep.Status == "solved" {
 		fmt.Fprintln(w, "Both checks passed: the engine's verifier and the independent timetable check (and the engine's cost agrees with the independent cost evaluation).")
 		fmt.Fprintln(w, rep.Caution)
 	}
 	return nil
+}
+
+// solvePrintTimes prints the wall times, which add up to the whole, and
+// then the engine's phases inside the search, which overlap.
+func solvePrintTimes(w io.Writer, rep solveReport) {
+	tm := rep.TimingsMS
+	fmt.Fprintf(w, "Time: %s in all: read and check the term %s, compile and search %s, write %s.\n",
+		msText(tm.Total), msText(tm.Read), msText(tm.SearchWall), msText(tm.Write))
+	summed := ""
+	if rep.Threads > 1 {
+		summed = fmt.Sprintf("; each is summed over the %d parallel searches", rep.Threads)
+	}
+	fmt.Fprintf(w, "  Inside compile and search: compile %s, engine %s, verify %s, decode and rooms %s, check %s (these overlap: most timetables are verified, decoded and checked while the engine searches%s).\n",
+		msText(tm.Compile), msText(tm.Search), msText(tm.Verify), msText(tm.Decode), msText(tm.Check), summed)
 }
 
 func msText(v float64) string {

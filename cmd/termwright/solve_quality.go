@@ -223,7 +223,7 @@ func solveReadKept(e *env, path string, t *timetable.Term) (*timetable.Schedule,
 	}
 	s, ps, err := timetable.ReadSchedule(path, t)
 	if err != nil {
-		return nil, withCode(exitError, err.Error())
+		return nil, wrapCode(exitError, err)
 	}
 	for _, p := range ps.Warnings() {
 		fmt.Fprintln(e.stderr, "warning:", p.String())

@@ -148,65 +148,131 @@ func TestSolveTimeLimitWritesBest(t *testing.T) {
 	solveCheckWritten(t, solveDemoPath, out)
 }
 
-// TestSolveInterrupt sends SIGINT to a solve running in a child process
-// (this test binary, re-run as the command) once it has shown its first
-// timetable's cost, and requires the best timetable so far to be written
-// and to pass the check.
-func TestSolveInterrupt(t *testing.T) {
-	if os.Getenv("TERMWRIGHT_SOLVE_CHILD") != "" {
+// TestSolveStopSignals sends each stop signal to a solve running in a
+// child process (this test binary, re-run as the command) once it has
+// shown its first timetable's cost, and requires the best timetable so far
+// to be written and to pass the check, and the report to say which signal
+// ended the search. It runs with stderr as a terminal (the redrawn line)
+// and as a pipe (plain log lines).
+func TestSolveStopSignals(t *testing.T) {
+	if args := os.Getenv("TERMWRIGHT_SOLVE_CHILD"); args != "" {
 		e := newEnv()
-		e.stderrIsTerminal = true // draw progress, which the parent watches
-		os.Exit(run(strings.Split(os.Getenv("TERMWRIGHT_SOLVE_CHILD"), "\x1f"), e))
+		e.stderrIsTerminal = os.Getenv("TERMWRIGHT_SOLVE_TTY") != ""
+		os.Exit(run(strings.Split(args, "\x1f"), e))
 	}
-	dir := t.TempDir()
-	out := filepath.Join(dir, "tt.xlsx")
-	demo, err := filepath.Abs(solveDemoPath)
-	require.NoError(t, err)
-	cmd := exec.Command(os.Args[0], "-test.run=^TestSolveInterrupt$")
-	cmd.Env = append(os.Environ(), "TERMWRIGHT_SOLVE_CHILD="+strings.Join([]string{"solve", demo, "-o", out, "--time-limit", "0"}, "\x1f"))
-	var stdout bytes.Buffer
-	cmd.Stdout = &stdout
-	stderr, err := cmd.StderrPipe()
-	require.NoError(t, err)
-	require.NoError(t, cmd.Start())
-	// Progress lines end in \r or \n; wait for one with a cost.
-	sc := bufio.NewScanner(stderr)
-	sc.Split(func(data []byte, atEOF bool) (int, []byte, error) {
-		if i := bytes.IndexAny(data, "\r\n"); i >= 0 {
-			return i + 1, data[:i], nil
-		}
-		if atEOF && len(data) > 0 {
-			return len(data), data, nil
-		}
-		return 0, nil, nil
-	})
-	sent := false
-	var seen []string
-	for sc.Scan() {
-		line := sc.Text()
-		seen = append(seen, line)
-		if !sent && strings.Contains(line, " cost ") && !strings.Contains(line, "none yet") {
-			require.NoError(t, cmd.Process.Signal(syscall.SIGINT))
-			sent = true
-		}
+	for _, tc := range []struct {
+		sig  syscall.Signal
+		name string // signalName of sig
+		tty  bool
+	}{
+		{syscall.SIGINT, "Ctrl-C", true},
+		{syscall.SIGTERM, "SIGTERM", false},
+		{syscall.SIGHUP, "SIGHUP", false},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			out := filepath.Join(dir, "tt.xlsx")
+			demo, err := filepath.Abs(solveDemoPath)
+			require.NoError(t, err)
+			cmd := exec.Command(os.Args[0], "-test.run=^TestSolveStopSignals$")
+			cmd.Env = append(os.Environ(), "TERMWRIGHT_SOLVE_CHILD="+strings.Join([]string{"solve", demo, "-o", out, "--time-limit", "0"}, "\x1f"))
+			if tc.tty {
+				cmd.Env = append(cmd.Env, "TERMWRIGHT_SOLVE_TTY=1")
+			}
+			var stdout bytes.Buffer
+			cmd.Stdout = &stdout
+			stderr, err := cmd.StderrPipe()
+			require.NoError(t, err)
+			require.NoError(t, cmd.Start())
+			// Progress lines end in \r or \n; wait for one with a cost.
+			sc := bufio.NewScanner(stderr)
+			sc.Split(func(data []byte, atEOF bool) (int, []byte, error) {
+				if i := bytes.IndexAny(data, "\r\n"); i >= 0 {
+					return i + 1, data[:i], nil
+				}
+				if atEOF && len(data) > 0 {
+					return len(data), data, nil
+				}
+				return 0, nil, nil
+			})
+			sent := false
+			var seen []string
+			for sc.Scan() {
+				line := sc.Text()
+				seen = append(seen, line)
+				if !sent && strings.Contains(line, ": cost ") {
+					require.NoError(t, cmd.Process.Signal(tc.sig))
+					sent = true
+				}
+			}
+			err = cmd.Wait()
+			require.True(t, sent, "no progress with a cost was shown: %q", seen)
+			require.NoError(t, err, "stdout: %s\nstderr: %q", stdout.String(), seen)
+			assert.Contains(t, stdout.String(), "search stopped: interrupted ("+tc.name+")")
+			assert.Contains(t, stdout.String(), "The search was interrupted ("+tc.name+"); the best timetable found until then was checked and written.")
+			solveCheckWritten(t, solveDemoPath, out)
+		})
 	}
-	err = cmd.Wait()
-	require.True(t, sent, "no progress with a cost was shown: %q", seen)
-	require.NoError(t, err, "stdout: %s\nstderr: %q", stdout.String(), seen)
-	assert.Contains(t, stdout.String(), "search stopped: interrupted")
-	solveCheckWritten(t, solveDemoPath, out)
 }
 
 func TestSolveProgressLine(t *testing.T) {
-	assert.Equal(t, "whole term       cost 0/23/20  bound 0/0/4    1.5 s  12 steps",
-		solveProgressLine(encode.Progress{Phase: "whole term", Cost: []int64{0, 23, 20}, Bound: []int64{0, 0, 4}, Elapsed: 1500 * time.Millisecond, Steps: 12}))
-	assert.Contains(t, solveProgressLine(encode.Progress{Phase: "first timetable", Bound: []int64{0}}), "cost none yet")
+	for _, tc := range []struct {
+		name string
+		pr   encode.Progress
+		want string
+	}{
+		{"labelled levels", encode.Progress{Phase: "whole term", Levels: []int{3, 2, 1}, Cost: []int64{0, 23, 20}, Bound: []int64{0, 0, 4}, Elapsed: 1500 * time.Millisecond, Steps: 12},
+			"whole term        level 3: cost 0 (bound 0)  level 2: cost 23 (bound 0)  level 1: cost 20 (bound 4)  1.5 s  12 steps"},
+		{"before the first timetable", encode.Progress{Phase: "first timetable", Levels: []int{1}, Bound: []int64{0}},
+			"first timetable  no timetable yet  level 1: (bound 0)  0.0 s"},
+		{"no preference weighted", encode.Progress{Phase: "whole term", Cost: []int64{}},
+			"whole term       timetable found (no preference is weighted)  0.0 s"},
+	} {
+		t.Run(tc.name, func(t *testing.T) { assert.Equal(t, tc.want, solveProgressLine(tc.pr)) })
+	}
+}
+
+func TestSolveProgressTerminal(t *testing.T) {
+	term := &timetable.Term{Weights: map[string]timetable.Weight{}}
+	for _, c := range timetable.Criteria {
+		term.Weights[c.Name] = timetable.Weight{}
+	}
+	term.Weights[timetable.Criteria[0].Name] = timetable.Weight{Weight: 2, Level: 1}
 	e, _, errb := solveEnv()
-	assert.Nil(t, newSolveProgress(e, false), "no drawing when stderr is not a terminal")
 	e.stderrIsTerminal = true
-	assert.Nil(t, newSolveProgress(e, true), "--quiet")
-	p := newSolveProgress(e, false)
-	p.show(encode.Progress{Phase: "whole term", Cost: []int64{1}, Bound: []int64{0}})
+	assert.Nil(t, newSolveProgress(e, true, term), "--quiet")
+	p := newSolveProgress(e, false, term)
+	p.show(encode.Progress{Phase: "whole term", Levels: []int{1}, Cost: []int64{1}, Bound: []int64{0}})
 	p.done()
-	assert.Equal(t, "\r\x1b[Kwhole term       cost 1  bound 0    0.0 s\n", errb.String())
+	assert.Equal(t, "Priority levels (highest first): level 1: "+timetable.Criteria[0].Name+".\n"+
+		"\r\x1b[Kwhole term        level 1: cost 1 (bound 0)  0.0 s\n", errb.String())
+}
+
+// TestSolveProgressLog checks the plain lines written when stderr is not a
+// terminal: one at each change of phase, and otherwise at most one per
+// interval of the injected clock.
+func TestSolveProgressLog(t *testing.T) {
+	e, _, errb := solveEnv()
+	clock := time.Date(2027, 9, 1, 9, 0, 0, 0, time.UTC)
+	e.now = func() time.Time { return clock }
+	e.logEvery = 5 * time.Second
+	p := newSolveProgress(e, false, &timetable.Term{})
+	step := func(phase string, after time.Duration) {
+		clock = clock.Add(after)
+		p.show(encode.Progress{Phase: phase, Levels: []int{0}, Cost: []int64{7}, Bound: []int64{0}})
+	}
+	step("first timetable", 0)           // first line
+	step("first timetable", time.Second) // too soon
+	step("whole term", time.Second)      // phase changed
+	step("whole term", 4*time.Second)    // too soon
+	step("whole term", time.Second)      // 5 s after the last line
+	p.done()
+	all := strings.Split(strings.TrimSuffix(errb.String(), "\n"), "\n")
+	require.True(t, strings.HasPrefix(all[0], "Priority levels (highest first): "), all[0])
+	lines := all[1:]
+	require.Len(t, lines, 3, errb.String())
+	assert.True(t, strings.HasPrefix(lines[0], "progress: first timetable"), lines[0])
+	assert.True(t, strings.HasPrefix(lines[1], "progress: whole term"), lines[1])
+	assert.True(t, strings.HasPrefix(lines[2], "progress: whole term"), lines[2])
+	assert.NotContains(t, errb.String(), "\r", "no terminal codes in a log")
 }

@@ -30,7 +30,7 @@ func newVerifyCmd(e *env) *cobra.Command {
 			"per preference. It exits with status 1 when a hard requirement is broken or\n" +
 			"the timetable cannot be read, and 0 otherwise.",
 		Args: cobra.ExactArgs(2),
-		RunE: func(cmd *cobra.Command, args []string) error { return runVerify(e, o, args[0], args[1]) },
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runVerify(e, o, args[0], args[1]) }),
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "print the report as JSON")
 	return cmd
@@ -77,7 +77,7 @@ const verifyCaution = "Room capacities, room features such as step-free access, 
 func runVerify(e *env, o *verifyOptions, termPath, ttPath string) error {
 	term, tps, err := timetable.Load(termPath)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	if errs := tps.Errors(); len(errs) > 0 {
 		fmt.Fprintln(e.stderr, errs.String())
@@ -86,7 +86,7 @@ func runVerify(e *env, o *verifyOptions, termPath, ttPath string) error {
 	}
 	s, sps, err := timetable.ReadSchedule(ttPath, term)
 	if err != nil {
-		return withCode(exitError, err.Error())
+		return wrapCode(exitError, err)
 	}
 	vs := timetable.Check(term, s)
 	rep := verifyBuild(term, ttPath, s, sps, vs, timetable.Cost(term, s, nil))
