@@ -22,22 +22,106 @@ import (
 // splitStep is the program of one neighbourhood step and how to read its
 // models back.
 type splitStep struct {
-	q     *solver.Program // the rest, atoms numbered as in the whole program
+	q     *solver.Program // the rest, over its own atoms
+	orig  []solver.Atom   // orig[i]: the program's atom that atom i of q stands for
 	fixed []solver.Atom   // the incumbent's true fixed atoms, sorted
 }
 
+// Statement kinds of a stmtIndex reference (the top two bits).
+const (
+	refRule uint32 = iota << 30
+	refChoice
+	refBound
+	refWeak
+	refMask = 3 << 30
+)
+
+// stmtIndex lists, for every atom of a program, the statements it occurs
+// in, so that a step visits only what its free atoms touch.
+type stmtIndex struct {
+	mark   programMark
+	byAtom [][]uint32 // atom -> kind|index of each statement mentioning it
+	stamp  []uint32   // per statement kind and index: last visit (see gen)
+	gen    uint32
+	newID  []solver.Atom // per program atom: its atom in the step's program, 0 for none
+}
+
+// index returns the statement index of p, rebuilt when p has grown.
+func (ix *stmtIndex) update(p *solver.Program) {
+	if ix.byAtom != nil && ix.mark == markOf(p) {
+		return
+	}
+	n := p.NumAtoms()
+	ix.mark = markOf(p)
+	ix.byAtom = make([][]uint32, n+1)
+	ix.newID = make([]solver.Atom, n+1)
+	add := func(a solver.Atom, ref uint32) {
+		if l := ix.byAtom[a]; len(l) == 0 || l[len(l)-1] != ref {
+			ix.byAtom[a] = append(l, ref)
+		}
+	}
+	for i, r := range p.Rules {
+		if r.Head != 0 {
+			add(r.Head, refRule|uint32(i))
+		}
+		for _, l := range r.Body {
+			add(l.Atom(), refRule|uint32(i))
+		}
+	}
+	for i, ch := range p.Choices {
+		for _, h := range ch.Heads {
+			add(h, refChoice|uint32(i))
+		}
+		for _, l := range ch.Body {
+			add(l.Atom(), refChoice|uint32(i))
+		}
+	}
+	for i, b := range p.Bounds {
+		for _, l := range b.Lits {
+			add(l.Atom(), refBound|uint32(i))
+		}
+		for _, l := range b.Cond {
+			add(l.Atom(), refBound|uint32(i))
+		}
+	}
+	for i, w := range p.Weaks {
+		for _, l := range w.Body {
+			add(l.Atom(), refWeak|uint32(i))
+		}
+	}
+	ix.stamp = make([]uint32, len(p.Rules)+len(p.Choices)+len(p.Bounds)+len(p.Weaks))
+	ix.gen = 0
+}
+
 // splitProgram partially evaluates p on the incumbent's values of the atoms
-// not in reach. keepWeak filters the weak constraints (by index). It
+// not in reach, visiting only the statements that mention an atom in
+// reach (every other statement holds in the incumbent, or is a constant
+// weak constraint). keepWeak filters the weak constraints (by index). It
 // returns false when the fixed atoms do not form a splitting set (a choice
 // rule or a rule defining a fixed atom depends on a changeable one); the
 // caller then builds from the whole program.
-func splitProgram(p *solver.Program, reach []bool, incumbent []solver.Atom, keepWeak func(int) bool) (*splitStep, bool) {
+func splitProgram(p *solver.Program, ix *stmtIndex, reach []bool, incumbent []solver.Atom, keepWeak func(int) bool) (*splitStep, bool) {
+	ix.update(p)
 	n := p.NumAtoms()
 	val := make([]bool, n+1)
 	for _, a := range incumbent {
 		val[a] = true
 	}
-	st := &splitStep{q: &solver.Program{}}
+	st := &splitStep{q: solver.NewProgram(), orig: []solver.Atom{0}}
+	q := st.q
+	defer func() {
+		for _, a := range st.orig[1:] {
+			ix.newID[a] = 0
+		}
+	}()
+	for a := 1; a <= n; a++ {
+		if reach[a] {
+			ix.newID[a] = q.NewAtom("")
+			st.orig = append(st.orig, solver.Atom(a))
+		} else if val[a] {
+			st.fixed = append(st.fixed, solver.Atom(a))
+		}
+	}
 	// value reports whether literal l is fixed and then its value.
 	value := func(l solver.Lit) (fixed, holds bool) {
 		a := l.Atom()
@@ -46,119 +130,137 @@ func splitProgram(p *solver.Program, reach []bool, incumbent []solver.Atom, keep
 		}
 		return true, val[a] != l.IsNeg()
 	}
-	// rest drops the fixed literals of a conjunction; ok is false when one
-	// of them is false (the conjunction is).
-	var scratch []solver.Lit
+	mapLit := func(l solver.Lit) solver.Lit {
+		if l.IsNeg() {
+			return solver.Neg(ix.newID[l.Atom()])
+		}
+		return solver.Pos(ix.newID[l.Atom()])
+	}
+	// rest maps the changeable literals of a conjunction and drops the
+	// fixed ones; ok is false when one of them is false (the conjunction
+	// is).
 	rest := func(body []solver.Lit) (out []solver.Lit, ok bool) {
-		scratch = scratch[:0]
 		for _, l := range body {
 			fixed, holds := value(l)
 			if !fixed {
-				scratch = append(scratch, l)
+				out = append(out, mapLit(l))
 				continue
 			}
 			if !holds {
 				return nil, false
 			}
 		}
-		return slices.Clone(scratch), true
+		return out, true
 	}
-	q := st.q
-	*q = *solver.NewProgram()
-	for a := 1; a <= n; a++ {
-		q.NewAtom(p.Name(solver.Atom(a)))
-	}
-	for _, r := range p.Rules {
-		if r.Head != 0 && !reach[r.Head] {
-			for _, l := range r.Body {
-				if reach[l.Atom()] {
-					return nil, false
-				}
-			}
-			continue // defines a fixed atom: the bottom part
-		}
-		body, ok := rest(r.Body)
-		if !ok {
-			continue
-		}
-		q.Rules = append(q.Rules, solver.Rule{Head: r.Head, Body: body})
-	}
-	for _, ch := range p.Choices {
-		var heads []solver.Atom
-		for _, h := range ch.Heads {
-			if reach[h] {
-				heads = append(heads, h)
+	hasReach := func(lits []solver.Lit) bool {
+		for _, l := range lits {
+			if reach[l.Atom()] {
+				return true
 			}
 		}
-		if len(heads) < len(ch.Heads) {
-			for _, l := range ch.Body {
-				if reach[l.Atom()] {
-					return nil, false
-				}
-			}
-		}
-		if len(heads) == 0 {
-			continue
-		}
-		body, ok := rest(ch.Body)
-		if !ok {
-			continue
-		}
-		q.Choices = append(q.Choices, solver.Choice{Heads: heads, Body: body})
+		return false
 	}
-	for _, b := range p.Bounds {
-		cond, ok := rest(b.Cond)
-		if !ok {
-			continue
-		}
-		var lits []solver.Lit
-		t := 0
-		for _, l := range b.Lits {
-			fixed, holds := value(l)
-			switch {
-			case !fixed:
-				lits = append(lits, l)
-			case holds:
-				t++
+	nr, nc, nb := uint32(len(p.Rules)), uint32(len(p.Choices)), uint32(len(p.Bounds))
+	ix.gen++
+	for _, a := range st.orig[1:] {
+		for _, ref := range ix.byAtom[a] {
+			i := ref &^ refMask
+			slot := i
+			switch ref & refMask {
+			case refChoice:
+				slot += nr
+			case refBound:
+				slot += nr + nc
+			case refWeak:
+				slot += nr + nc + nb
 			}
-		}
-		lower, upper := b.Lower, b.Upper
-		if lower != solver.NoBound {
-			lower = max(lower-t, 0)
-		}
-		if upper != solver.NoBound {
-			upper -= t
-			if upper < 0 {
-				// The incumbent breaks it: impossible for a model, but
-				// keep the program honest rather than drop the bound.
-				q.Rules = append(q.Rules, solver.Rule{Body: cond})
+			if ix.stamp[slot] == ix.gen {
 				continue
 			}
-		}
-		if len(lits) == 0 && lower <= 0 {
-			continue
-		}
-		if (lower == solver.NoBound || lower == 0) && (upper == solver.NoBound || upper >= len(lits)) {
-			continue // can never be broken
-		}
-		q.Bounds = append(q.Bounds, solver.Bound{Lits: lits, Lower: lower, Upper: upper, Cond: cond})
-	}
-	for i, w := range p.Weaks {
-		if !keepWeak(i) {
-			continue
-		}
-		body, ok := rest(w.Body)
-		if !ok || len(body) == 0 {
-			continue // never paid, or paid whatever the step does: a constant
-		}
-		q.Weaks = append(q.Weaks, solver.Weak{Body: body, Weight: w.Weight, Level: w.Level})
-	}
-	for a := 1; a <= n; a++ {
-		if !reach[a] && val[a] {
-			st.fixed = append(st.fixed, solver.Atom(a))
+			ix.stamp[slot] = ix.gen
+			switch ref & refMask {
+			case refRule:
+				r := p.Rules[i]
+				if r.Head != 0 && !reach[r.Head] {
+					return nil, false // a fixed atom defined from a changeable one
+				}
+				body, ok := rest(r.Body)
+				if !ok {
+					continue
+				}
+				h := solver.Atom(0)
+				if r.Head != 0 {
+					h = ix.newID[r.Head]
+				}
+				q.Rules = append(q.Rules, solver.Rule{Head: h, Body: body})
+			case refChoice:
+				ch := p.Choices[i]
+				var heads []solver.Atom
+				for _, h := range ch.Heads {
+					if reach[h] {
+						heads = append(heads, ix.newID[h])
+					}
+				}
+				if len(heads) < len(ch.Heads) && hasReach(ch.Body) {
+					return nil, false
+				}
+				if len(heads) == 0 {
+					continue
+				}
+				body, ok := rest(ch.Body)
+				if !ok {
+					continue
+				}
+				q.Choices = append(q.Choices, solver.Choice{Heads: heads, Body: body})
+			case refBound:
+				splitBound(q, p.Bounds[i], value, mapLit, rest)
+			case refWeak:
+				w := p.Weaks[i]
+				if !keepWeak(int(i)) {
+					continue
+				}
+				body, ok := rest(w.Body)
+				if !ok || len(body) == 0 {
+					continue // never paid, or paid whatever the step does: a constant
+				}
+				q.Weaks = append(q.Weaks, solver.Weak{Body: body, Weight: w.Weight, Level: w.Level})
+			}
 		}
 	}
 	return st, true
+}
+
+// splitBound adds bound b evaluated on the fixed literals to q.
+func splitBound(q *solver.Program, b solver.Bound, value func(solver.Lit) (bool, bool), mapLit func(solver.Lit) solver.Lit, rest func([]solver.Lit) ([]solver.Lit, bool)) {
+	cond, ok := rest(b.Cond)
+	if !ok {
+		return
+	}
+	var lits []solver.Lit
+	t := 0
+	for _, l := range b.Lits {
+		fixed, holds := value(l)
+		switch {
+		case !fixed:
+			lits = append(lits, mapLit(l))
+		case holds:
+			t++
+		}
+	}
+	lower, upper := b.Lower, b.Upper
+	if lower != solver.NoBound {
+		lower = max(lower-t, 0)
+	}
+	if upper != solver.NoBound {
+		if upper -= t; upper < 0 {
+			q.Rules = append(q.Rules, solver.Rule{Body: cond}) // broken whenever cond holds
+			return
+		}
+	}
+	if lower <= 0 && (upper == solver.NoBound || upper >= len(lits)) {
+		return // can never be broken
+	}
+	q.Bounds = append(q.Bounds, solver.Bound{Lits: lits, Lower: lower, Upper: upper, Cond: cond})
 }
 
 // model joins a model of the step's program with the fixed part: a model
@@ -166,7 +268,9 @@ func splitProgram(p *solver.Program, reach []bool, incumbent []solver.Atom, keep
 func (st *splitStep) model(m []solver.Atom) []solver.Atom {
 	out := make([]solver.Atom, 0, len(m)+len(st.fixed))
 	out = append(out, st.fixed...)
-	out = append(out, m...)
+	for _, a := range m {
+		out = append(out, st.orig[a])
+	}
 	slices.Sort(out)
-	return slices.Compact(out)
+	return out
 }

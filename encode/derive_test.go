@@ -71,7 +71,7 @@ func TestSplitProgramSameModels(t *testing.T) {
 		if !ok {
 			continue // too many placements to compare in a test
 		}
-		split, ok := splitProgram(p, reach, incumbent, all)
+		split, ok := splitProgram(p, &stmtIndex{}, reach, incumbent, all)
 		if !ok {
 			t.Fatalf("free %v: the fixed atoms are no splitting set", free)
 		}
@@ -83,8 +83,19 @@ func TestSplitProgramSameModels(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		_, complete := s.Enumerate(context.Background(), 20000, project, func(m []solver.Atom) bool {
-			got = append(got, fmt.Sprint(m))
+		var local []solver.Atom // project in the step's numbering
+		for i, a := range split.orig {
+			if i > 0 && slices.Contains(project, a) {
+				local = append(local, solver.Atom(i))
+			}
+		}
+		_, complete := s.Enumerate(context.Background(), 20000, local, func(m []solver.Atom) bool {
+			back := make([]solver.Atom, len(m))
+			for i, a := range m {
+				back[i] = split.orig[a]
+			}
+			slices.Sort(back)
+			got = append(got, fmt.Sprint(back))
 			return true
 		})
 		// Every model of the step's program, joined with the fixed part,

@@ -49,6 +49,7 @@ type Search struct {
 	isFact map[solver.Atom]bool
 	prefer []solver.Atom // model whose start atoms a new engine tries first
 	builds int           // engines built
+	index  stmtIndex     // statements by atom, for the programs of neighbourhood steps
 }
 
 // SearchOptions configure a Search.
@@ -541,7 +542,7 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 	}()
 	d := &Derived{}
 	q := x.p
-	if split, ok := splitProgram(x.p, reach, incumbent, keepWeak); ok {
+	if split, ok := splitProgram(x.p, &x.index, reach, incumbent, keepWeak); ok {
 		d.split, q = split, split.q
 	} else {
 		w := *x.p
@@ -569,7 +570,19 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 	if x.progress != nil {
 		s.SetProgress(x.progress)
 	}
-	setStartPhases(s, x.cat, x.p.NumAtoms(), incumbent)
+	if d.split == nil {
+		setStartPhases(s, x.cat, x.p.NumAtoms(), incumbent)
+	} else {
+		in := make(map[solver.Atom]bool, len(incumbent))
+		for _, a := range incumbent {
+			in[a] = true
+		}
+		for i, a := range d.split.orig[1:] {
+			if x.cat.AtomInfo(a).Kind == AtomStart {
+				s.SetPhase(solver.Atom(i+1), in[a])
+			}
+		}
+	}
 	d.s = s
 	return d, nil
 }
