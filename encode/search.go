@@ -266,7 +266,8 @@ func liveBound(_ *solver.Solver, _ []solver.Lit, _, _ int, _ []solver.Lit) error
 	return errNotLive
 }
 
-// Solve runs one engine call under the given assumptions.
+// Solve runs one engine call under the given assumptions (not counted as
+// a round: Find's rounds and Improve's calls are).
 func (x *Search) Solve(ctx context.Context, assume ...solver.Lit) (solver.Status, error) {
 	s, err := x.Engine()
 	if err != nil {
@@ -274,7 +275,6 @@ func (x *Search) Solve(ctx context.Context, assume ...solver.Lit) (solver.Status
 	}
 	t0 := time.Now()
 	before := s.Stats()
-	x.tally.Rounds++
 	s.Assume(assume...)
 	st := s.Solve(ctx)
 	x.tally.Timings.Solve += time.Since(t0)
@@ -482,6 +482,7 @@ func (x *Search) Find(ctx context.Context, assume func() []solver.Lit, gate Gate
 		if ctx.Err() != nil {
 			return solver.Unknown, nil, nil
 		}
+		x.tally.Rounds++
 		var lits []solver.Lit
 		if assume != nil {
 			lits = assume() // again each round: cuts may add groups to assume
