@@ -539,7 +539,7 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 	t0 := time.Now()
 	defer func() {
 		x.tally.Timings.Solve += time.Since(t0)
-		x.tally.Timings.Build += time.Since(t0)
+		x.tally.Timings.Derive += time.Since(t0)
 	}()
 	d := &Derived{}
 	q := x.p

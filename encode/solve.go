@@ -24,7 +24,8 @@ type SolveOptions struct {
 type Timings struct {
 	Compile time.Duration `json:"compile"`
 	Solve   time.Duration `json:"solve"` // engine construction and search, all rounds
-	Build   time.Duration `json:"build"` // engine construction alone (part of Solve)
+	Build   time.Duration `json:"build"`  // construction of the live engines (part of Solve)
+	Derive  time.Duration `json:"derive"` // construction of neighbourhood steps' engines (part of Solve)
 	Verify  time.Duration `json:"verify"`
 	Decode  time.Duration `json:"decode"`
 	Check   time.Duration `json:"check"`
