@@ -23,7 +23,7 @@ type SolveOptions struct {
 // Timings are the wall-clock times of the phases of Solve.
 type Timings struct {
 	Compile time.Duration `json:"compile"`
-	Solve   time.Duration `json:"solve"` // engine construction and search, all rounds
+	Solve   time.Duration `json:"solve"`  // engine construction and search, all rounds
 	Build   time.Duration `json:"build"`  // construction of the live engines (part of Solve)
 	Derive  time.Duration `json:"derive"` // construction of neighbourhood steps' engines (part of Solve)
 	Verify  time.Duration `json:"verify"`
