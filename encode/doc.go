@@ -91,7 +91,10 @@
 // what it cannot take yet (the Hall bounds of a new family, a new choice
 // in Explain mode) makes it rebuild from the preferred phases. Solve, the
 // optimiser (first timetable, whole term, neighbourhood steps through
-// Search.Derive) and every explanation check are short callers.
+// Search.Derive and Search.Improve) and every explanation check are short
+// callers. A first timetable of a very large program (over 500,000
+// atoms) is searched with rare restarts: each restart there re-decides
+// hundreds of thousands of atoms.
 //
 // # Solve
 //
@@ -172,10 +175,14 @@
 // program, each model completed on the whole program's Search by assuming
 // its starts), runs solver.Optimize on the whole term within a conflict
 // budget, and then large-neighbourhood search (Shaw 1998): for each step
-// Search.Derive makes an engine of the whole program with the sections
-// outside the neighbourhood fixed at their starts in the best timetable
-// (facts, so they propagate at level 0) and only the weak constraints the
-// neighbourhood can change; the neighbourhood (the subject of a costly
+// Search.Derive makes an engine of the part of the program that the
+// neighbourhood can change — the atoms that depend only on the other
+// sections' starts form a splitting set (Lifschitz and Turner 1994), so
+// the program is partially evaluated on the best timetable's values of
+// them (derive.go), visiting only the statements the free atoms occur in;
+// its models joined with the fixed part are models of the whole program.
+// So building a step's engine costs what the neighbourhood touches, not
+// the term. The neighbourhood (the subject of a costly
 // weak constraint, a person with a share of the cost, related sections, a
 // day, random sections) is re-optimised within a conflict budget, and
 // every model the engine finds goes through the gates; the best whole cost

@@ -10,9 +10,10 @@ import (
 // Large-neighbourhood search (Shaw 1998). The incumbent is the best
 // verified timetable. Each step frees a neighbourhood of sections and
 // optimises them within a conflict budget on an engine of its own
-// (Search.Derive): the whole program with every other section's starts
-// fixed as in the incumbent (facts, decided at level 0) and only the weak
-// constraints the freed sections can reach. Every model the engine finds
+// (Search.Derive): the part of the program the freed sections can change,
+// partially evaluated on the incumbent's values of everything else (the
+// other sections' starts and what depends on them alone), with only the
+// weak constraints the freed sections can reach. Every model the engine finds
 // goes through the gates, and one whose total cost is lower becomes the
 // incumbent; room problems become cuts of the whole program. The neighbourhood size adapts: when the engine proves a
 // neighbourhood optimal the next one grows, when the budget runs out first
