@@ -376,18 +376,11 @@ func (a *roomAssigner) components() [][]int {
 // neighbourhood is returned marked Incomplete.
 func (a *roomAssigner) repair() error {
 	rerr := &RoomConflictError{}
-	// A conflict of failed meetings and their direct neighbours on their
-	// own is cheap to prove, and no local repair can undo it: look for
-	// one around each failed meeting first, so that one decode forbids
-	// every such conflict of the model, then around all of them together.
+	// A conflict of the failed meetings and their direct neighbours on
+	// their own is cheap to prove, and no local repair can undo it: look
+	// for it first (the result is the same as after a failed repair).
 	iso := &isolation{}
 	if a.d.effort.isolatedHops > 0 {
-		if cores := a.separateCores(); len(cores) > 0 {
-			for _, core := range cores {
-				a.addNogood(rerr, core)
-			}
-			return rerr
-		}
 		if core, ok := a.isolatedCore(iso, 1); ok {
 			a.addNogood(rerr, core)
 			return rerr
@@ -552,31 +545,6 @@ func (a *roomAssigner) isolatedCore(iso *isolation, hops int) ([]int, bool) {
 		}
 	}
 	return nil, false
-}
-
-// maxSeparate caps the failed meetings separateCores looks around.
-const maxSeparate = 64
-
-// separateCores looks around each failed meeting (up to maxSeparate of
-// them) for a conflict of it and its direct neighbours on their own, and
-// returns the engine's cores, each meeting in at most one.
-func (a *roomAssigner) separateCores() [][]int {
-	var cores [][]int
-	covered := map[int]bool{}
-	tried := 0
-	for _, mi := range a.failed {
-		if covered[mi] || tried == maxSeparate || a.d.ctx.Err() != nil {
-			continue
-		}
-		tried++
-		if core, ok := a.isolatedCore(&isolation{set: []int{mi}}, 1); ok {
-			cores = append(cores, core)
-			for _, c := range core {
-				covered[c] = true
-			}
-		}
-	}
-	return cores
 }
 
 // localRepair tries to place the failed meetings by moving only meetings
