@@ -364,8 +364,9 @@ func (a *roomAssigner) components() [][]int {
 }
 
 // repair places the meetings the fast assignment left over. First it
-// re-solves them exactly together with the meetings that block them from
-// their rooms (widening a few times), the rest staying where they are. If
+// re-solves each exactly with the meetings that block it from its rooms
+// (repairEach), then the rest together with the meetings that block them
+// (widening a few times), everything else staying where it is. If
 // that fails, it looks for a proof that the failed meetings cannot be
 // roomed: a growing neighbourhood of them, solved on its own (others
 // ignored); an unsatisfiable one yields its core as a nogood over starts.
@@ -375,6 +376,11 @@ func (a *roomAssigner) components() [][]int {
 // when nothing is proved within the effort limits, the nogood over the last
 // neighbourhood is returned marked Incomplete.
 func (a *roomAssigner) repair() error {
+	if a.d.effort.localHops > 0 {
+		if a.repairEach(); len(a.failed) == 0 {
+			return nil
+		}
+	}
 	rerr := &RoomConflictError{}
 	// A conflict of the failed meetings and their direct neighbours on
 	// their own is cheap to prove, and no local repair can undo it: look
@@ -545,6 +551,80 @@ func (a *roomAssigner) isolatedCore(iso *isolation, hops int) ([]int, bool) {
 		}
 	}
 	return nil, false
+}
+
+// repairEach re-solves the failed meetings one at a time, each with the
+// meetings that hold one of its candidate rooms during its periods in
+// overlapping weeks (and their whole same-room groups); every other
+// meeting keeps its room. It leaves in a.failed the meetings it could not
+// place. On a large term the failed meetings are scattered, and solving
+// them together with all their blockers (localRepair) means solving most
+// of the term's rooms at once.
+func (a *roomAssigner) repairEach() {
+	d := a.d
+	groups := map[int][]int{}
+	for j := range d.ms {
+		if g := d.ms[j].group; g >= 0 && d.ms[j].cand >= 0 {
+			groups[g] = append(groups[g], j)
+		}
+	}
+	var left []int
+	for _, mi := range a.failed {
+		if d.ctx.Err() != nil {
+			left = append(left, mi)
+			continue
+		}
+		in := map[int]bool{}
+		var set []int
+		add := func(j int) {
+			if in[j] {
+				return
+			}
+			in[j] = true
+			set = append(set, j)
+			if g := d.ms[j].group; g >= 0 {
+				for _, k := range groups[g] {
+					if !in[k] {
+						in[k] = true
+						set = append(set, k)
+					}
+				}
+			}
+		}
+		add(mi)
+		m := &d.ms[mi]
+		for _, r := range d.setMembers(m.cand) {
+			for q := m.start; q <= m.end; q++ {
+				for _, j := range a.occ[r][q] {
+					if d.ms[j].weeks&m.weeks != 0 {
+						add(int(j))
+					}
+				}
+			}
+		}
+		if len(set) > d.effort.maxIsolated {
+			left = append(left, mi)
+			continue
+		}
+		prev := make([]int, len(set))
+		for k, j := range set {
+			prev[k] = d.ms[j].room
+			a.unplace(j)
+			d.ms[j].room = -1
+		}
+		if _, _, ok := a.exact(set, d.effort.localConflicts, false); ok {
+			continue
+		}
+		for k, j := range set {
+			if prev[k] >= 0 {
+				a.place(j, prev[k])
+			} else {
+				d.ms[j].room = prev[k]
+			}
+		}
+		left = append(left, mi)
+	}
+	a.failed = left
 }
 
 // localRepair tries to place the failed meetings by moving only meetings

@@ -7,7 +7,7 @@ import (
 
 // roomEffort limits the exact room searches of Decode's repair.
 type roomEffort struct {
-	localHops          int   // how far local repair widens the set of meetings it moves
+	localHops          int   // how far local repair widens the set of meetings it moves; 0: no local repair
 	isolatedHops       int   // how far isolatedCore widens the failed meetings
 	maxIsolated        int   // larger neighbourhoods are not solved on their own
 	maxComponent       int   // larger components are not searched whole
