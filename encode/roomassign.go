@@ -612,7 +612,7 @@ func (a *roomAssigner) repairEach() {
 			a.unplace(j)
 			d.ms[j].room = -1
 		}
-		if _, _, ok := a.exact(set, d.effort.localConflicts, false); ok {
+		if _, _, ok := a.exact(set, d.effort.eachConflicts, false); ok {
 			continue
 		}
 		for k, j := range set {
@@ -675,6 +675,9 @@ func (a *roomAssigner) localRepair() bool {
 					}
 				}
 			}
+		}
+		if len(set) > d.effort.maxComponent {
+			break // most of a large term's rooms at once: not solved within the budget
 		}
 		prev := make([]int, len(set))
 		for k, mi := range set {

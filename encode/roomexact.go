@@ -12,13 +12,14 @@ type roomEffort struct {
 	maxIsolated        int   // larger neighbourhoods are not solved on their own
 	maxComponent       int   // larger components are not searched whole
 	localConflicts     int64 // engine conflicts of local repair and isolated proofs
+	eachConflicts      int64 // engine conflicts of repairing one failed meeting (repairEach)
 	componentConflicts int64 // engine conflicts of a whole component, the last resort
 }
 
 // defaultRoomEffort is the effort of Decode.
 var defaultRoomEffort = roomEffort{
 	localHops: 3, isolatedHops: 4, maxIsolated: 800, maxComponent: 1500,
-	localConflicts: 20000, componentConflicts: 50000,
+	localConflicts: 20000, eachConflicts: 1000, componentConflicts: 50000,
 }
 
 // exact assigns rooms to a set of unplaced meetings, the others keeping
