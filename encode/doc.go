@@ -58,17 +58,21 @@
 // set Z of meetings reachable from an unmatched one by alternating paths and
 // the union U of their candidate sets form a Hall violator (König's theorem),
 // returned as a *HallError; the search (Search.Cut) adds U as a new family
-// (for every period) and searches again — lazy room constraints. Otherwise rooms are assigned in
-// grid order by augmenting paths that try the section's room so far first
-// (room stability), then the best fit. Meetings that span several periods,
-// week patterns and same-room groups need one room for all they cover, which
-// per-period counting cannot promise. When the fast assignment fails, the
-// failed meetings and the meetings holding their rooms (widened three times,
-// same-room groups whole) are re-solved exactly with explicit room atoms by
-// the engine, everything else staying put. If that fails, a growing
-// neighbourhood of the failed meetings is solved on its own: when even that
-// has no assignment, the engine's unsatisfiable core becomes a clause
-// forbidding that combination of starts (*RoomConflictError). Whole
+// (for every period) and searches again — lazy room constraints. Otherwise
+// rooms are assigned in grid order by augmenting paths that try the
+// section's room so far first (room stability), then the best fit.
+// Meetings that span several periods, week patterns and same-room groups
+// need one room for all they cover, which per-period counting cannot
+// promise. When the fast assignment fails, Decode repairs (roomassign.go),
+// with explicit room atoms solved by the engine and everything else
+// staying put: each failed meeting with the meetings holding its rooms
+// (same-room groups whole, a small conflict budget); then, for the
+// meetings still failed, the smallest neighbourhood of them solved on its
+// own (when it has no assignment, no repair can help: the engine's
+// unsatisfiable core becomes a clause forbidding that combination of
+// starts, *RoomConflictError); then all of them with their blockers
+// (widened up to three times, while the set stays below the largest
+// component searched); then growing neighbourhoods on their own. Whole
 // components are searched only as a last resort and only when small; a
 // conflict that is not proved within the effort limits (roomEffort) is
 // still forbidden but marked Incomplete, and Solve then reports "unknown"
