@@ -370,8 +370,8 @@ func (a *roomAssigner) components() [][]int {
 // that fails, it looks for a proof that the failed meetings cannot be
 // roomed: a growing neighbourhood of them, solved on its own (others
 // ignored); an unsatisfiable one yields its core as a nogood over starts.
-// (The smallest such neighbourhood is tried before the repair: when it is
-// unsatisfiable, so is every repair.)
+// (The smallest such neighbourhood is tried before the repair of all
+// failed meetings together: when it is unsatisfiable, so is every repair.)
 // As a last resort each whole component is solved (only when small enough);
 // when nothing is proved within the effort limits, the nogood over the last
 // neighbourhood is returned marked Incomplete.
