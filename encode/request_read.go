@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/termwright/termwright/timetable"
 	"github.com/xuri/excelize/v2"
@@ -25,6 +26,9 @@ const maxRequests = 10000
 // sheet of a workbook (.xlsx). Every row with a problem is reported, each
 // with its sheet and row, in one RequestError.
 func ReadRequests(path string) ([]Request, error) {
+	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
+		return nil, fmt.Errorf("%s is not a regular file (a device, pipe or folder) — give the requests .csv or .xlsx file itself", path)
+	}
 	data, err := os.ReadFile(path)
 	if err != nil {
 		return nil, fmt.Errorf("cannot read the requests: %w", err)
@@ -33,6 +37,9 @@ func ReadRequests(path string) ([]Request, error) {
 	case ".csv":
 		return ParseRequestsCSV(bytes.NewReader(data), strings.TrimSuffix(filepath.Base(path), filepath.Ext(path)))
 	case ".xlsx", ".xlsm":
+		if err := timetable.CheckXLSX(data, filepath.Base(path)); err != nil {
+			return nil, err
+		}
 		return ParseRequestsWorkbook(bytes.NewReader(data))
 	}
 	return nil, fmt.Errorf("%s: requests must be a .csv file or an .xlsx workbook with a sheet named %q", path, RequestsSheet)
@@ -140,6 +147,10 @@ func parseRequestRows(rows [][]string, lines []int, sheet string) ([]Request, er
 			errs = append(errs, InputError{Src: src, Msg: "the Section is empty — give the section ID"})
 			continue
 		}
+		if long := longestCell(sec, at, room); long != "" {
+			errs = append(errs, InputError{Src: src, Msg: fmt.Sprintf("a cell holds %s, more than the %d characters a request cell may hold — shorten it", timetable.Quote(long), timetable.MaxCellChars)})
+			continue
+		}
 		day, start, err := ParseAt(at)
 		if err != nil {
 			errs = append(errs, InputError{Src: src, Msg: "At: " + err.Error()})
@@ -154,6 +165,17 @@ func parseRequestRows(rows [][]string, lines []int, sheet string) ([]Request, er
 		return nil, RequestError{{Src: timetable.Source{Sheet: sheet}, Msg: "there are no requests below the header — add one row per request"}}
 	}
 	return out, nil
+}
+
+// longestCell returns the first cell longer than timetable.MaxCellChars,
+// or "".
+func longestCell(cells ...string) string {
+	for _, c := range cells {
+		if utf8.RuneCountInString(c) > timetable.MaxCellChars {
+			return c
+		}
+	}
+	return ""
 }
 
 func titleWord(s string) string { return strings.ToUpper(s[:1]) + s[1:] }

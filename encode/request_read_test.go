@@ -1,8 +1,10 @@
 package encode
 
 import (
+	"archive/zip"
 	"bytes"
 	"errors"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -69,6 +71,8 @@ func TestParseRequestsCSV(t *testing.T) {
 			[]string{"Requests row 2: the Section is empty", "Requests row 3: At:", "Requests row 5: At:"}},
 		{"empty", "", nil, []string{"Requests: there are no requests"}},
 		{"header only", "Section,At\n", nil, []string{"Requests: there are no requests below the header"}},
+		{"100 MB section ID quoted short, once", "Section,At\n" + strings.Repeat("S", 100<<20) + ",Tue 10:00\n", nil,
+			[]string{`Requests row 2: a cell holds "` + strings.Repeat("S", 40) + `…" (104,857,600 characters), more than the 1000 characters`}},
 		{"bad quotes", "Section,At\n\"X,Tue 10:00\n", nil, []string{"Requests row 2: the CSV text cannot be read"}},
 	}
 	for _, tc := range cases {
@@ -120,6 +124,38 @@ func TestReadRequestsWorkbook(t *testing.T) {
 	require.NoError(t, os.WriteFile(csvPath, []byte("Section,At\nA,Mon 9:00\nB,Mon 25:00\n"), 0o644))
 	_, err = ReadRequests(csvPath)
 	require.ErrorContains(t, err, "asks row 3: At:")
+
+	// A damaged Requests sheet (an unknown entity between its rows) is
+	// refused by name, not read in part.
+	data, err := os.ReadFile(path)
+	require.NoError(t, err)
+	zr, err := zip.NewReader(bytes.NewReader(data), int64(len(data)))
+	require.NoError(t, err)
+	var out bytes.Buffer
+	zw := zip.NewWriter(&out)
+	for _, zf := range zr.File {
+		rc, err := zf.Open()
+		require.NoError(t, err)
+		body, err := io.ReadAll(rc)
+		require.NoError(t, err)
+		rc.Close()
+		if zf.Name == "xl/worksheets/sheet2.xml" {
+			body = bytes.Replace(body, []byte("</row>"), []byte("</row>&bogus;"), 1)
+		}
+		w, err := zw.Create(zf.Name)
+		require.NoError(t, err)
+		_, err = w.Write(body)
+		require.NoError(t, err)
+	}
+	require.NoError(t, zw.Close())
+	damaged := filepath.Join(dir, "damaged.xlsx")
+	require.NoError(t, os.WriteFile(damaged, out.Bytes(), 0o644))
+	_, err = ReadRequests(damaged)
+	require.ErrorContains(t, err, `damaged.xlsx: the "requests" sheet is damaged`)
+
+	// A device is refused instead of read without end.
+	_, err = ReadRequests("/dev/zero")
+	require.ErrorContains(t, err, "is not a regular file")
 }
 
 // FuzzParseRequestsCSV: any input gives requests or a RequestError, never

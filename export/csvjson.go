@@ -11,13 +11,15 @@ import (
 // CSVColumns are the columns of WriteTimetableCSV: exactly the master
 // Timetable sheet's columns (timetable.TimetableColumns), so that the CSV
 // reads back with timetable.ReadSchedule. WriteTimetableJSON carries the
-// rest (building, staff names, weeks).
+// rest (building, week numbers).
 var CSVColumns = append([]string(nil), timetable.TimetableColumns...)
 
 // WriteTimetableCSV writes the master timetable as RFC 4180 CSV (UTF-8,
 // CRLF line ends, header row CSVColumns), one row per meeting sorted by
 // day, start time, section and meeting number; cells as on the Timetable
-// sheet.
+// sheet, except that a cell a spreadsheet would take for a formula gets a
+// single quote in front (timetable.SafeCSVCell, OWASP "CSV Injection");
+// timetable.ReadSchedule takes it off again.
 func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
 	v, err := newView(t, s)
 	if err != nil {
@@ -33,7 +35,11 @@ func writeCSV(w io.Writer, v *view) error {
 		return err
 	}
 	for i := range v.meetings {
-		if err := cw.Write(v.masterRow(&v.meetings[i])); err != nil {
+		row := v.masterRow(&v.meetings[i])
+		for k, c := range row {
+			row[k] = timetable.SafeCSVCell(c)
+		}
+		if err := cw.Write(row); err != nil {
 			return err
 		}
 	}
@@ -50,14 +56,17 @@ type TimetableJSON struct {
 
 // TermJSON describes the term in TimetableJSON.
 type TermJSON struct {
-	Name           string   `json:"name"`
-	FirstDay       string   `json:"first_day"` // YYYY-MM-DD
-	LastDay        string   `json:"last_day"`  // YYYY-MM-DD
-	TimeZone       string   `json:"time_zone"` // IANA name
-	TeachingWeeks  int      `json:"teaching_weeks"`
-	Holidays       []string `json:"holidays"` // YYYY-MM-DD
-	Days           []string `json:"days"`     // grid days, "Mon" first
-	PeriodsPerWeek int      `json:"periods_per_week"`
+	Name          string `json:"name"`
+	FirstDay      string `json:"first_day"`      // YYYY-MM-DD
+	LastDay       string `json:"last_day"`       // YYYY-MM-DD
+	TimeZone      string `json:"time_zone"`      // IANA name
+	TeachingWeeks int    `json:"teaching_weeks"` // weeks numbered 1..n from the first day's week to the last day's
+	// WeeksWithTeaching counts the numbered weeks with at least one day of
+	// teaching (a week of holidays does not count).
+	WeeksWithTeaching int      `json:"weeks_with_teaching"`
+	Holidays          []string `json:"holidays"` // YYYY-MM-DD
+	Days              []string `json:"days"`     // grid days, "Mon" first
+	PeriodsPerWeek    int      `json:"periods_per_week"`
 }
 
 // MeetingJSON is one meeting in TimetableJSON; meetings are sorted by day,
@@ -90,12 +99,13 @@ func WriteTimetableJSON(w io.Writer, t *timetable.Term, s *timetable.Schedule) e
 func writeJSON(w io.Writer, v *view) error {
 	t := v.t
 	doc := TimetableJSON{Term: TermJSON{
-		Name:           t.Name,
-		TimeZone:       t.TimeZone,
-		TeachingWeeks:  t.TeachingWeeks(),
-		Holidays:       []string{},
-		Days:           []string{},
-		PeriodsPerWeek: len(t.Periods),
+		Name:              t.Name,
+		TimeZone:          t.TimeZone,
+		TeachingWeeks:     t.TeachingWeeks(),
+		WeeksWithTeaching: v.weeksWithTeaching(),
+		Holidays:          []string{},
+		Days:              []string{},
+		PeriodsPerWeek:    len(t.Periods),
 	}, Meetings: make([]MeetingJSON, 0, len(v.meetings))}
 	if !t.FirstDay.IsZero() {
 		doc.Term.FirstDay = t.FirstDay.Format("2006-01-02")

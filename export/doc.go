@@ -13,27 +13,37 @@
 //
 // Weekly grid PDF (one landscape page, A4 or US Letter): a header with the
 // person's, room's or cohort's name and details on the left and the term's
-// name, dates, number of teaching weeks and holidays on the right; below it
-// a grid with the days as columns and the term's distinct period times as
-// rows, each row labelled with its start and end. A heavy rule marks a
-// break between periods (such as lunch); a day without a period at that
-// time is hatched. Each meeting is one framed block over all the rows it
-// occupies, with a dark bar on its left edge, holding the section (bold)
-// and its times, then its weeks when it does not meet every week, the title
+// name, dates, number of teaching weeks (weeks with at least one day of
+// teaching: a week of holidays does not count) and the days without teaching
+// as ranges ("25 Oct – 1 Nov, 8 Dec", runs joined over weekends; as many as
+// fit, then "and n more") on the right; below it a grid with the days as
+// columns and the term's distinct period times as rows, each row labelled
+// with its start and end. A heavy rule marks a break between periods (such
+// as lunch); a day without a period at that time is hatched; the subject's
+// unavailable times from the Unavailable sheet are cross-hatched
+// ("Unavailable: reason") or, for preferences, light grey ("Preferably free:
+// reason"). Each meeting is one framed block over all the rows it occupies,
+// with a dark bar on its left edge, holding the section (bold) and its
+// times, then its weeks when it does not meet every week, the title
 // (wrapped, cut with "…" only when there is no room), the room and building
-// (or "online / off-site") and the staff names. A section meeting only in
-// some weeks has a white block with a dashed frame and a lighter bar;
+// (or "online / off-site"; left out on that room's own page) and the staff
+// names (wrapped between names; left out on the page of a section's only
+// staff member). When a block has too few lines for all of it, the weeks
+// move into the section's line in place of the times. A section meeting only
+// in some weeks has a white block with a dashed frame and a lighter bar;
 // sections in disjoint weeks that share the same periods are stacked in the
 // shared area, and meetings that overlap only partly share the column side
-// by side. The page uses one text size where possible, the largest at
-// which every block shows all its text (not below 6.5 pt). Only greys and
-// line styles carry meaning, so it prints in black and white. The footer
-// gives the generation time in the term's time zone and "Page n of m";
-// room pages add a caution that the posted legal occupancy and local codes
-// take precedence over the seat counts entered.
+// by side. The page uses one text size where possible, the largest at which
+// every block shows all its text (not below 6.5 pt). Only greys and line
+// styles carry meaning, so it prints in black and white. The footer gives
+// the generation time in the term's time zone and "Page n of m"; room pages
+// add a caution that the posted legal occupancy and local codes take
+// precedence over the seat counts entered.
 //
-// Combined PDF: a cover page (term, counts, contents with page numbers, and
-// a caution about legal room occupancy, accessibility and workload rules),
+// Combined PDF: a cover page (term, counts, teaching weeks with their
+// numbering explained when a week has no teaching, every day without
+// teaching as ranges, contents with page numbers, and a caution about legal
+// room occupancy, accessibility and workload rules),
 // the master list of every meeting sorted by day, time and section (column
 // headers on each page, a rule at each new day), then every staff member's,
 // room's and cohort's grid page.
@@ -46,9 +56,11 @@
 //
 // Workbook: the master sheet timetable.TimetableSheet with exactly the
 // columns timetable.TimetableColumns (Meeting as a number, Day "Tue", Start
-// and End "10:00", Staff and Cohorts as comma-separated IDs), one row per
-// meeting sorted by day, start, section and meeting, frozen header and
-// autofilter, so that timetable.ReadSchedule reads it back; then one grid
+// and End "10:00", Staff and Cohorts as comma-separated IDs, Weeks as on the
+// Sections sheet, Staff names), one row per meeting sorted by day, start,
+// section and meeting, frozen header and a real AutoFilter (the sheet's
+// autoFilter element, not only the hidden name), so that
+// timetable.ReadSchedule reads it back; then one grid
 // sheet per staff member (named after the person), room ("Room R204") and
 // cohort ("Cohort C1") with the same layout as the PDF (a merged cell per
 // meeting; meetings sharing periods share one merged cell, each with its
@@ -57,10 +69,16 @@
 // their limit, periods taught over the whole term date by date; per room:
 // largest class, meetings, occupied grid periods, grid periods and
 // utilisation = occupied / grid periods; and a caution); then
-// Options.Extra. Sheet names go through SheetNames (Excel's limits).
+// Options.Extra. Sheet names go through SheetNames (Excel's limits). Every
+// sheet prints landscape on Options.Paper, one page wide, with its header
+// row (grids: day headers and time column) repeated on each page.
 //
 // CSV: the master sheet's columns and cells exactly (CSVColumns), RFC 4180
-// with CRLF. JSON: TimetableJSON, whose field names are stable.
+// with CRLF, except that a cell a spreadsheet would take for a formula
+// (beginning with = + - @ tab or carriage return, OWASP "CSV Injection")
+// gets a single quote in front (timetable.SafeCSVCell; the readers take it
+// off). Workbook cells are typed strings and never formulas. JSON:
+// TimetableJSON, whose field names are stable.
 //
 // # Calendars (RFC 5545)
 //
@@ -82,8 +100,9 @@
 // DESCRIPTION section and meeting number, title, staff names, cohorts and
 // weeks. UID is a hash of term name, section, meeting number and subject,
 // so publishing again (even with the meeting moved) updates the event
-// instead of adding one; SEQUENCE is the number of minutes from 2020 to
-// Options.Generated, so a later publication always wins; DTSTAMP is
+// instead of adding one; SEQUENCE is the number of seconds from 2020 to
+// Options.Generated, so a later publication always wins (two in the same
+// second share it); DTSTAMP is
 // Options.Generated. Lines end in CRLF and are folded at 75 octets, never
 // inside a UTF-8 sequence (§3.1); TEXT values are escaped (§3.3.11). A
 // calendar file that was imported (rather than subscribed to) keeps events

@@ -98,3 +98,33 @@ func golden(t *testing.T, name string, got []byte) {
 		t.Errorf("%s differs from the golden file; run with -update if the change is intended\n--- got ---\n%s", path, got)
 	}
 }
+
+// busyTerm is demoTerm with what a real term has more of: a whole week
+// without teaching (25-29 Oct 2027, joined to Monday 1 Nov over the
+// weekend) and another holiday, unavailable times for room R101 (hard and
+// a preference) and staff S1, two sections in odd and even weeks stacked
+// in one one-hour period, and a section taught by three people.
+func busyTerm() (*timetable.Term, *timetable.Schedule) {
+	t, s := demoTerm()
+	t.Holidays = []time.Time{date(2027, 10, 25), date(2027, 10, 26), date(2027, 10, 27), date(2027, 10, 28), date(2027, 10, 29),
+		date(2027, 11, 1), date(2027, 12, 8)}
+	t.Unavailable = []timetable.Unavailability{
+		{Who: "R101", Kind: timetable.WhoRoom, Day: time.Tuesday, From: 9 * 60, To: 12 * 60, Hard: true, Reason: "Maintenance"},
+		{Who: "R101", Kind: timetable.WhoRoom, Day: time.Wednesday, From: 14 * 60, To: 17 * 60, Weight: 2, Reason: "Open day"},
+		{Who: "S1", Kind: timetable.WhoStaff, Day: time.Friday, From: 14 * 60, To: 17 * 60, Hard: true, Reason: "Research"},
+	}
+	all := t.AllWeeks()
+	odd := timetable.WeekSet(0x5555) & all
+	t.Sections = append(t.Sections,
+		timetable.Section{ID: "CH210", Title: "Organic Synthesis Workshop", Staff: []string{"S3", "S5"}, Cohorts: []string{"C2"}, Size: 20, Meetings: 1, Length: 1, Needs: []string{"lab"}, Weeks: odd},
+		timetable.Section{ID: "CH211", Title: "Spectroscopy Problem Class", Staff: []string{"S4"}, Cohorts: []string{"C2"}, Size: 20, Meetings: 1, Length: 1, Needs: []string{"lab"}, Weeks: all &^ odd},
+		timetable.Section{ID: "CS104", Title: "Team-taught Project Studio", Staff: []string{"S1", "S2", "S5"}, Cohorts: []string{"C1"}, Size: 35, Meetings: 1, Length: 2, Weeks: all},
+	)
+	at := func(d time.Weekday, h int) int { return t.PeriodAt(d, timetable.Clock(h*60)) }
+	s.Placements = append(s.Placements,
+		timetable.Placement{Section: "CH210", Meeting: 1, Period: at(time.Monday, 11), Room: "L2"},
+		timetable.Placement{Section: "CH211", Meeting: 1, Period: at(time.Monday, 11), Room: "L2"},
+		timetable.Placement{Section: "CS104", Meeting: 1, Period: at(time.Tuesday, 14), Room: "A1"},
+	)
+	return t, s
+}

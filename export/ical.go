@@ -3,8 +3,10 @@ package export
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 	"time"
@@ -16,9 +18,16 @@ import (
 const icsProdID = "-//termwright//termwright timetable//EN"
 
 // sequenceEpoch is the origin of SEQUENCE numbers: SEQUENCE is the number
-// of whole minutes from it to Options.Generated, so a later publication of
-// the same event always carries a higher SEQUENCE (RFC 5545 §3.8.7.4).
+// of whole seconds from it to Options.Generated, so a publication made a
+// second or more after another carries a higher SEQUENCE for the same
+// event (RFC 5545 §3.8.7.4). SEQUENCE is an INTEGER, at most 2147483647
+// (§3.3.8), which seconds from 2020 reach only in 2088.
 var sequenceEpoch = time.Date(2020, 1, 1, 0, 0, 0, 0, time.UTC)
+
+// sequence is the SEQUENCE of every event published at gen.
+func sequence(gen time.Time) int64 {
+	return min(max(int64(gen.Sub(sequenceEpoch)/time.Second), 0), math.MaxInt32)
+}
 
 // WriteICS writes who's calendar as an RFC 5545 VCALENDAR: one weekly
 // recurring VEVENT per meeting in the term's time zone (with a VTIMEZONE
@@ -94,7 +103,7 @@ func (v *view) calendar() (*calendarInfo, error) {
 // termDays gives the date part of calendarInfo (no time zone needed).
 func (v *view) termDays() (*calendarInfo, error) {
 	if v.t.FirstDay.IsZero() || v.t.LastDay.Before(v.t.FirstDay) {
-		return nil, fmt.Errorf("export: the term needs a first and a last day (last on or after first) to write calendars; fix the First day and Last day keys of the Term sheet")
+		return nil, errors.New("calendars need the first and the last day of the term, the last on or after the first; fill in the First day and Last day keys of the Term sheet")
 	}
 	c := &calendarInfo{holidays: map[string]bool{}}
 	for _, h := range v.t.Holidays {
@@ -164,7 +173,7 @@ func (v *view) writeEvent(w *icsWriter, c *calendarInfo, m *meeting, who Subject
 	w.line("BEGIN:VEVENT")
 	w.line("UID:" + eventUID(v.t.Name, m.sec.ID, m.num, who))
 	w.line("DTSTAMP:" + gen.Format("20060102T150405Z"))
-	w.line("SEQUENCE:" + strconv.FormatInt(max(int64(gen.Sub(sequenceEpoch)/time.Minute), 0), 10))
+	w.line("SEQUENCE:" + strconv.FormatInt(sequence(gen), 10))
 	w.line("DTSTART" + tz + ":" + wall(on[0], m.from))
 	w.line("DTEND" + tz + ":" + wall(on[0], m.to))
 	// RFC 5545 §3.3.10: with a local DTSTART and a TZID, UNTIL is in UTC.
@@ -201,8 +210,8 @@ func (v *view) describe(m *meeting) string {
 	if m.room == nil && m.sec.NoRoom {
 		lines = append(lines, "No room: online or off-site")
 	}
-	if wk := v.weeks(m.sec); wk != "" {
-		lines = append(lines, "Teaching weeks: "+strings.TrimPrefix(wk, "wks "))
+	if wk := v.weekRanges(m.sec); wk != "" {
+		lines = append(lines, "Teaching weeks: "+wk)
 	}
 	return strings.Join(lines, "\n")
 }

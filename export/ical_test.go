@@ -162,10 +162,35 @@ func TestICSStableUIDs(t *testing.T) {
 		return out
 	}
 	assert.Equal(t, uidsOf(a), uidsOf(buf.Bytes()))
-	// Minutes from 2020-01-01 to 2027-08-30 14:05 UTC: 2798 days (2020 and 2024 are leap years) * 1440 + 845.
-	assert.Contains(t, string(a), "SEQUENCE:4029965\r\n")
-	assert.Contains(t, buf.String(), "SEQUENCE:4032845\r\n")
+	// Seconds from 2020-01-01 to 2027-08-30 14:05 UTC: (2798 days (2020 and
+	// 2024 are leap years) * 1440 + 845 minutes) * 60.
+	assert.Contains(t, string(a), "SEQUENCE:241797900\r\n")
+	assert.Contains(t, buf.String(), "SEQUENCE:241970700\r\n")
 	assert.NotEqual(t, eventUID("T", "A", 1, Subject{timetable.WhoStaff, "x"}), eventUID("T", "A", 1, Subject{timetable.WhoRoom, "x"}))
+}
+
+// TestICSSequenceWithinAMinute: two publications in the same minute, one
+// second apart, must not share a SEQUENCE, or a client that already has
+// the first keeps it (RFC 5545 §3.8.7.4: the organizer increments SEQUENCE
+// on each significant revision); SEQUENCE stays an INTEGER (§3.3.8, at most
+// 2147483647) even far in the future.
+func TestICSSequenceWithinAMinute(t *testing.T) {
+	term, s := demoTerm()
+	seqOf := func(gen time.Time) string {
+		var buf bytes.Buffer
+		require.NoError(t, WriteICS(&buf, term, s, Subject{timetable.WhoStaff, "S1"}, Options{Generated: gen}))
+		cal, err := ics.ParseCalendar(bytes.NewReader(buf.Bytes()))
+		require.NoError(t, err)
+		require.NotEmpty(t, cal.Events())
+		return cal.Events()[0].GetProperty(ics.ComponentPropertySequence).Value
+	}
+	first := seqOf(fixedClock.Add(10 * time.Second))
+	second := seqOf(fixedClock.Add(11 * time.Second))
+	assert.NotEqual(t, first, second)
+	assert.Less(t, len(first), len(second)+1)
+	assert.Less(t, first, second) // same length, so text order is number order
+	assert.Equal(t, "2147483647", seqOf(time.Date(2200, 1, 1, 0, 0, 0, 0, time.UTC)))
+	assert.Equal(t, "0", seqOf(time.Date(2019, 1, 1, 0, 0, 0, 0, time.UTC)))
 }
 
 // tzRule is one observance of a parsed VTIMEZONE.

@@ -16,7 +16,7 @@ func termLocation(t *timetable.Term) (*time.Location, string, error) {
 	}
 	loc, err := time.LoadLocation(name)
 	if err != nil {
-		return nil, "", fmt.Errorf("export: term time zone %q is not a known IANA time zone (such as Europe/Dublin): %v; fix the Time zone key of the Term sheet", name, err)
+		return nil, "", fmt.Errorf("the term's time zone %q is not a time zone name such as Europe/Dublin or America/New_York; fix the Time zone key of the Term sheet", name)
 	}
 	return loc, name, nil
 }

@@ -10,7 +10,10 @@ import (
 // masterRow gives one meeting as the cells of the master timetable, in the
 // order of timetable.TimetableColumns: Section, Title, Meeting, Day
 // ("Tue"), Start ("10:00"), End, Room, Staff (comma list of staff IDs),
-// Cohorts (comma list of cohort IDs).
+// Cohorts (comma list of cohort IDs), Weeks (the teaching weeks in the
+// term workbook's form: "all", "odd", "even" or "1-6, 9"; so that two
+// sections in one room at one hour in disjoint weeks do not look like a
+// double booking) and Staff names (comma list, in the order of Staff).
 func (v *view) masterRow(m *meeting) []string {
 	room := ""
 	if m.room != nil {
@@ -26,7 +29,18 @@ func (v *view) masterRow(m *meeting) []string {
 		room,
 		strings.Join(m.sec.Staff, ", "),
 		strings.Join(m.sec.Cohorts, ", "),
+		v.t.WeeksText(v.sectionWeeks(m.sec)),
+		strings.Join(v.staffNames(m.sec), ", "),
 	}
+}
+
+// sectionWeeks is the set of teaching weeks a section meets in within the
+// term (a section without weeks meets in all of them).
+func (v *view) sectionWeeks(sec *timetable.Section) timetable.WeekSet {
+	if sec.Weeks == 0 {
+		return v.allWeeks
+	}
+	return sec.Weeks & v.allWeeks
 }
 
 // building is the building of a meeting's room, or "".
@@ -39,10 +53,7 @@ func (m *meeting) building() string {
 
 // weekNumbers lists the teaching weeks of a section within the term.
 func (v *view) weekNumbers(sec *timetable.Section) []int {
-	w := sec.Weeks & v.allWeeks
-	if sec.Weeks == 0 {
-		w = v.allWeeks
-	}
+	w := v.sectionWeeks(sec)
 	var out []int
 	for n := 1; n <= 64; n++ {
 		if w.Has(n) {

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"io"
 	"strings"
-	"time"
 
 	"github.com/go-pdf/fpdf"
 	"github.com/termwright/termwright/timetable"
@@ -26,7 +25,7 @@ func paperSize(p string) (string, error) {
 	case "letter", "us letter":
 		return "Letter", nil
 	}
-	return "", fmt.Errorf("export: paper size %q is not supported; use A4 or Letter", p)
+	return "", fmt.Errorf("the paper size %q is not supported; choose A4 or Letter", p)
 }
 
 // WritePersonPDF writes one landscape page with who's weekly grid: days
@@ -124,7 +123,7 @@ func (v *view) newPDF(opt Options, title string) (*pdfDoc, error) {
 // output finishes the document.
 func (d *pdfDoc) output(w io.Writer) error {
 	if err := d.f.Output(w); err != nil {
-		return fmt.Errorf("export: writing PDF: %w", err)
+		return fmt.Errorf("the PDF could not be written (%w); check that there is room on the disk and try again", err)
 	}
 	return nil
 }
@@ -151,17 +150,19 @@ func (d *pdfDoc) footer() {
 }
 
 // header draws a page header: big title and detail line on the left, the
-// term's name and dates on the right, a rule underneath.
+// term's name, dates, teaching weeks and the days without teaching (as
+// ranges, as many as fit) on the right, a rule underneath.
 func (d *pdfDoc) header(title, detail string) {
 	t := d.v.t
 	right := []string{t.Name, termDates(t)}
-	if n := t.TeachingWeeks(); !t.FirstDay.IsZero() {
-		right[1] += fmt.Sprintf(" · %d teaching weeks", n)
-	}
-	if len(t.Holidays) > 0 {
-		right = append(right, "No teaching: "+holidayText(t.Holidays))
+	if !t.FirstDay.IsZero() {
+		right[1] += fmt.Sprintf(" · %d teaching week%s", d.v.weeksWithTeaching(), plural(d.v.weeksWithTeaching()))
 	}
 	half := (d.w - 2*pdfMargin) / 2
+	d.font("", 7.5)
+	if hs := d.v.holidayTexts(); len(hs) > 0 {
+		right = append(right, listThatFits("No teaching: ", hs, half, d.width))
+	}
 	d.font("B", 9.5)
 	rw := d.f.GetStringWidth(d.fit(right[0], half))
 	d.text(d.w-pdfMargin-rw, pdfMargin+3, d.fit(right[0], half))
@@ -180,18 +181,8 @@ func (d *pdfDoc) header(title, detail string) {
 	d.f.Line(pdfMargin, pdfGridTop-3, d.w-pdfMargin, pdfGridTop-3)
 }
 
-// holidayText lists up to four holidays, then how many more.
-func holidayText(hs []time.Time) string {
-	var parts []string
-	for i, h := range hs {
-		if i == 4 {
-			parts = append(parts, fmt.Sprintf("and %d more", len(hs)-4))
-			break
-		}
-		parts = append(parts, dateText(h))
-	}
-	return strings.Join(parts, ", ")
-}
+// width is the width of s in the current font.
+func (d *pdfDoc) width(s string) float64 { return d.f.GetStringWidth(printable(s)) }
 
 // font selects the Go font in style "" or "B" at size points.
 func (d *pdfDoc) font(style string, size float64) { d.f.SetFont(pdfFamily, style, size) }

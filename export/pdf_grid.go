@@ -2,7 +2,6 @@ package export
 
 import (
 	"math"
-	"strings"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -44,6 +43,7 @@ func (d *pdfDoc) gridPage(who Subject, items []int) {
 	d.header(d.v.title(who), detail)
 	g := d.geo()
 	d.gridFrame(g)
+	d.unavailable(g, who)
 	var boxes []box
 	for _, cl := range d.v.clusters(items) {
 		boxes = append(boxes, d.v.boxes(cl)...)
@@ -55,11 +55,11 @@ func (d *pdfDoc) gridPage(who Subject, items []int) {
 	page := blockSizes[0]
 	for i, b := range boxes {
 		_, _, w, h := d.boxRect(g, b)
-		sizes[i] = d.blockSize(&d.v.meetings[b.item], d.v.weeks(d.v.meetings[b.item].sec), w-blockBar-1.8, h)
+		sizes[i] = d.blockSize(d.v.blockContent(&d.v.meetings[b.item], who), w-blockBar-1.8, h)
 		page = min(page, max(sizes[i], pageMinSize))
 	}
 	for i, b := range boxes {
-		d.block(g, b, min(sizes[i], page))
+		d.block(g, b, who, min(sizes[i], page))
 	}
 }
 
@@ -134,16 +134,6 @@ func (d *pdfDoc) hatch(x, y, w, h float64) {
 	f.ClipEnd()
 }
 
-// blockSizes are the font sizes (points) tried for block text, largest first.
-var blockSizes = []float64{8.5, 8, 7.5, 7, 6.5, 6, 5.5}
-
-// pageMinSize is the smallest text size (points) a whole page is set in;
-// blockBar is the width (mm) of the bar on a block's left edge.
-const (
-	pageMinSize = 6.5
-	blockBar    = 1.2
-)
-
 // boxRect is the rectangle (mm) of a box on the page.
 func (d *pdfDoc) boxRect(g gridGeo, b box) (x, y, w, h float64) {
 	m := &d.v.meetings[b.item]
@@ -153,133 +143,4 @@ func (d *pdfDoc) boxRect(g gridGeo, b box) (x, y, w, h float64) {
 	y = g.rowY(b.r0) + b.y0*areaH + 0.5
 	h = (b.y1-b.y0)*areaH - 1
 	return x, y, w, h
-}
-
-// block draws one meeting with text of size points: a framed grey block
-// with a dark bar on its left edge (white with a dashed frame and a lighter
-// bar when the section meets only some weeks), holding section, times,
-// weeks, title, room and staff as space allows.
-func (d *pdfDoc) block(g gridGeo, b box, size float64) {
-	f, v := d.f, d.v
-	m := &v.meetings[b.item]
-	x, y, w, h := d.boxRect(g, b)
-	weeks := v.weeks(m.sec)
-	f.SetLineWidth(0.3)
-	f.SetDrawColor(0, 0, 0)
-	if weeks != "" {
-		f.SetFillColor(252, 252, 252)
-		f.SetDashPattern([]float64{1.2, 0.8}, 0)
-	} else {
-		f.SetFillColor(226, 226, 226)
-	}
-	f.Rect(x, y, w, h, "FD")
-	f.SetDashPattern(nil, 0)
-	if weeks != "" {
-		f.SetFillColor(150, 150, 150)
-	} else {
-		f.SetFillColor(60, 60, 60)
-	}
-	f.Rect(x, y, blockBar, h, "F")
-
-	tx, tw := x+blockBar+1, w-blockBar-1.8
-	lh := size * ptToMM * 1.2
-	n := max(int((h-1)/lh), 1)
-	lines := d.blockLines(m, weeks, size, tw, n)
-	f.ClipRect(x, y, w, h, false)
-	for i, l := range lines {
-		base := y + 0.6 + float64(i)*lh + size*ptToMM*0.92
-		d.font(l.style, size)
-		d.text(tx, base, l.text)
-		if l.tail != "" {
-			at := tx + f.GetStringWidth(l.text)
-			d.font("", size)
-			d.text(at, base, l.tail)
-		}
-	}
-	f.ClipEnd()
-}
-
-// blockSize picks the text size for a block whose text area is w wide and
-// h high: the largest size at which all the text fits, else the largest
-// giving at least four lines (three, two), else the smallest.
-func (d *pdfDoc) blockSize(m *meeting, weeks string, w, h float64) float64 {
-	need := 1
-	for _, s := range []string{weeks, m.sec.Title, roomText(m.room), strings.Join(m.sec.Staff, "")} {
-		if s != "" {
-			need++
-		}
-	}
-	for _, want := range []int{0, 4, 3, 2} {
-		for _, s := range blockSizes {
-			n := int((h - 1) / (s * ptToMM * 1.2))
-			full := want
-			if want == 0 { // everything: the title wrapped in full
-				d.font("", s)
-				full = need - 1 + len(d.wrap(m.sec.Title, w, 12))
-			}
-			if n >= full {
-				return s
-			}
-		}
-	}
-	return blockSizes[len(blockSizes)-1]
-}
-
-// blockLine is one line of block text: text in style, then tail in the
-// regular style.
-type blockLine struct {
-	text  string
-	style string // "" or "B"
-	tail  string
-}
-
-// blockLines chooses the text of a block with room for n lines of width w
-// at size points. The section always shows (with its times when they fit);
-// then one line each for weeks, room, title and staff as they fit; lines
-// left over continue the title.
-func (d *pdfDoc) blockLines(m *meeting, weeks string, size, w float64, n int) []blockLine {
-	v := d.v
-	d.font("B", size)
-	id := d.fit(m.sec.ID, w)
-	head := blockLine{text: id, style: "B"}
-	rest := w - d.f.GetStringWidth(id)
-	d.font("", size)
-	if tail := " · " + m.from.String() + "–" + m.to.String(); d.f.GetStringWidth(tail) <= rest {
-		head.tail = tail
-	}
-	out := []blockLine{head}
-	room := roomText(m.room)
-	if m.room == nil && m.sec.NoRoom {
-		room = "online / off-site"
-	}
-	staff := strings.Join(v.staffNames(m.sec), ", ")
-	left := n - 1
-	take := func(ok bool) int {
-		if ok && left > 0 {
-			left--
-			return 1
-		}
-		return 0
-	}
-	nWeeks := take(weeks != "")
-	nRoom := take(room != "")
-	nTitle := take(m.sec.Title != "")
-	nStaff := take(staff != "")
-	if nWeeks > 0 {
-		out = append(out, blockLine{text: d.fit(weeks, w)})
-	}
-	if nTitle > 0 {
-		full := d.wrap(m.sec.Title, w, 12)
-		nTitle += min(left, len(full)-1)
-		for _, l := range d.wrap(m.sec.Title, w, nTitle) {
-			out = append(out, blockLine{text: l})
-		}
-	}
-	if nRoom > 0 {
-		out = append(out, blockLine{text: d.fit(room, w)})
-	}
-	if nStaff > 0 {
-		out = append(out, blockLine{text: d.fit(staff, w)})
-	}
-	return out
 }

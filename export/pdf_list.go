@@ -14,8 +14,8 @@ type listCol struct {
 }
 
 var listCols = []listCol{
-	{"Day", 0.045}, {"Time", 0.075}, {"Section", 0.08}, {"Title", 0.27}, {"Room", 0.14},
-	{"Staff", 0.18}, {"Cohorts", 0.12}, {"Weeks", 0.09},
+	{"Day", 0.045}, {"Time", 0.075}, {"Section", 0.08}, {"Title", 0.29}, {"Room", 0.13},
+	{"Staff", 0.21}, {"Cohorts", 0.10}, {"Weeks", 0.07},
 }
 
 // Master list geometry (mm).
@@ -57,18 +57,23 @@ func (d *pdfDoc) cover(listPages int) {
 		{"Staff", fmt.Sprint(len(t.Staff))},
 		{"Rooms", fmt.Sprint(len(t.Rooms))},
 		{"Cohorts", fmt.Sprint(len(t.Cohorts))},
-		{"Teaching weeks", fmt.Sprint(t.TeachingWeeks())},
+		{"Teaching weeks", v.teachingWeeksValue()},
 		{"Time zone", t.TimeZone},
 	}
-	if len(t.Holidays) > 0 {
-		facts = append(facts, [2]string{"No teaching", holidayText(t.Holidays)})
+	if hs := v.holidayTexts(); len(hs) > 0 {
+		facts = append(facts, [2]string{"No teaching", strings.Join(hs, ", ")})
 	}
+	valueW := d.w/2 - pdfMargin - 60
 	for _, fct := range facts {
 		d.font("", 10)
 		d.text(pdfMargin+10, y, fct[0])
 		d.font("B", 10)
-		d.text(pdfMargin+60, y, d.fit(fct[1], d.w/2-pdfMargin-60))
-		y += 6
+		// Long values (many days without teaching) wrap over lines.
+		for _, l := range d.wrap(fct[1], valueW, 8) {
+			d.text(pdfMargin+60, y, l)
+			y += 5
+		}
+		y++
 	}
 	staffPage := 2 + listPages
 	contents := [][2]string{
@@ -138,7 +143,7 @@ func (d *pdfDoc) masterList() {
 			f.SetLineWidth(0.5)
 			f.Line(pdfMargin, y, pdfMargin+width, y)
 		}
-		weeks := strings.TrimPrefix(v.weeks(m.sec), "wks ")
+		weeks := v.weekRanges(m.sec)
 		if weeks == "" {
 			weeks = "all"
 		}
@@ -156,7 +161,12 @@ func (d *pdfDoc) masterList() {
 			if k == 0 && !newDay && i%per != 0 {
 				continue // the day shows once per day and page
 			}
-			d.font(style, 7.5)
+			// A long cell is set smaller before it is cut with "…".
+			size := 7.5
+			for size > 6 && d.widthAt(style, size, c) > xs[k+1]-xs[k]-2 {
+				size -= 0.5
+			}
+			d.font(style, size)
 			d.text(xs[k]+1, y+3.3, d.fit(c, xs[k+1]-xs[k]-2))
 		}
 		y += listRowH
@@ -165,4 +175,10 @@ func (d *pdfDoc) masterList() {
 		d.page("")
 		d.header("Master list", "No meetings")
 	}
+}
+
+// widthAt is the width of s in style at size points.
+func (d *pdfDoc) widthAt(style string, size float64, s string) float64 {
+	d.font(style, size)
+	return d.width(s)
 }

@@ -67,7 +67,7 @@ func TestPDFStructure(t *testing.T) {
 func TestPDFPaper(t *testing.T) {
 	term, s := demoTerm()
 	err := WritePersonPDF(&bytes.Buffer{}, term, s, Subject{timetable.WhoStaff, "S1"}, Options{Paper: "A3"})
-	assert.ErrorContains(t, err, "use A4 or Letter")
+	assert.ErrorContains(t, err, "choose A4 or Letter")
 	err = WritePersonPDF(&bytes.Buffer{}, term, s, Subject{timetable.WhoStaff, "nobody"}, Options{})
 	assert.ErrorContains(t, err, `"nobody"`)
 }
@@ -161,6 +161,7 @@ func TestPDFRenders(t *testing.T) {
 		t.Skip("pdftoppm not installed (apt-get install poppler-utils)")
 	}
 	term, s := demoTerm()
+	busy, busyS := busyTerm()
 	dir := *renderDir
 	if dir == "" {
 		dir = t.TempDir()
@@ -171,6 +172,7 @@ func TestPDFRenders(t *testing.T) {
 		"combined-a4":       writePDF(t, term, s, nil, Options{Generated: fixedClock}),
 		"room-R101-letter":  writePDF(t, term, s, &Subject{timetable.WhoRoom, "R101"}, Options{Generated: fixedClock, Paper: "Letter"}),
 		"combined-unknown1": writePDF(t, term, &timetable.Schedule{}, nil, Options{Generated: fixedClock}),
+		"busy-combined":     writePDF(t, busy, busyS, nil, Options{Generated: fixedClock}),
 	}
 	for name, pdf := range docs {
 		path := filepath.Join(dir, name+".pdf")
@@ -218,4 +220,85 @@ func TestPrintable(t *testing.T) {
 	// dot goes, the tone marks the font has stay (Unicode canonical decomposition).
 	assert.Equal(t, "Bámìdélé Ògúnlóyè", printable("Bámìdélé Ògúnlọ́yẹ̀"))
 	assert.Equal(t, "o", printable("ọ"))
+}
+
+// TestPDFWrapList: staff names wrap between names (a name is split only
+// when it is wider than a line), no line is wider than the block, and
+// nothing is lost unless the last line ends in "…".
+func TestPDFWrapList(t *testing.T) {
+	term, s := demoTerm()
+	v, err := newView(term, s)
+	require.NoError(t, err)
+	d, err := v.newPDF(Options{}, "x")
+	require.NoError(t, err)
+	d.f.AddPage()
+	d.font("", 7)
+	names := []string{"Zoë Ó Briain", "Łukasz Wróbel", "Grete Strauß-Hohenberg von Allmendingen", "Ελένη Παπαδοπούλου"}
+	for _, w := range []float64{12, 25, 40, 60, 400} {
+		for _, max := range []int{1, 2, 3, 8} {
+			lines := d.wrapList(names, w, max)
+			require.NotEmpty(t, lines)
+			assert.LessOrEqual(t, len(lines), max, "width %v", w)
+			for _, l := range lines {
+				assert.LessOrEqual(t, d.f.GetStringWidth(l), w+0.01, "%q at width %v", l, w)
+			}
+			joined := strings.Join(lines, " ")
+			if strings.HasSuffix(joined, "…") {
+				continue
+			}
+			assert.Equal(t, strings.Join(names, ", "), joined, "nothing lost at width %v, %d lines", w, max)
+			if w >= 60 { // every name fits a line: none is split
+				for _, l := range lines {
+					for _, part := range strings.Split(strings.TrimSuffix(l, ","), ", ") {
+						assert.Contains(t, names, part)
+					}
+				}
+			}
+		}
+	}
+}
+
+// squash collapses runs of white space (pdftotext breaks lines where the
+// PDF does) to one space.
+func squash(s string) string { return strings.Join(strings.Fields(s), " ") }
+
+// TestPDFBusyTermText reads back the combined PDF of a term with a break
+// week, unavailable times and sections in odd and even weeks sharing one
+// period: the cover and headers list the days without teaching as ranges
+// and count only weeks with teaching; the room page labels its unavailable
+// times; the stacked odd/even blocks keep their titles and staff names, and
+// staff names are not cut where there is room.
+func TestPDFBusyTermText(t *testing.T) {
+	term, s := busyTerm()
+	assert.Empty(t, timetable.HardViolations(timetable.Check(term, s)), "the fixture is a valid timetable")
+	text := pdfText(t, writePDF(t, term, s, nil, Options{Generated: fixedClock}))
+	pages := strings.Split(text, "\f")
+	require.GreaterOrEqual(t, len(pages), 13)
+	cover := squash(pages[0])
+	// 25-29 Oct (Mon-Fri) and Mon 1 Nov are joined over the weekend; 8 Dec stands alone.
+	assert.Contains(t, cover, "25 Oct – 1 Nov, 8 Dec")
+	// 13 Sep to 10 Dec 2027 spans 13 Monday-to-Sunday weeks; 25-31 Oct has no teaching day.
+	assert.Contains(t, cover, "12 (weeks 1–13, 1 without teaching)")
+	for i, p := range pages[1:13] {
+		p = squash(p)
+		assert.Contains(t, p, "12 teaching weeks", "page %d", i+2)
+		assert.Contains(t, p, "No teaching: 25 Oct – 1 Nov, 8 Dec", "page %d", i+2)
+	}
+	room := squash(pages[7])
+	require.Contains(t, room, "Room R101")
+	assert.Contains(t, room, "Unavailable: Maintenance")
+	assert.Contains(t, room, "Preferably free: Open day")
+	staff := squash(pages[2])
+	require.Contains(t, staff, "Zoë Ó Briain (S1)")
+	assert.Contains(t, staff, "Unavailable: Research")
+	c2 := squash(pages[12])
+	require.Contains(t, c2, "Second year chemistry (C2)")
+	for _, want := range []string{"CH210", "odd weeks", "Organic Synthesis Workshop", "Ελένη Παπαδοπούλου, Grete Strauß",
+		"CH211", "even weeks", "Spectroscopy Problem Class", "Дмитрий Соколов"} {
+		assert.Contains(t, c2, want)
+	}
+	c1 := squash(pages[11])
+	require.Contains(t, c1, "First year computing (C1)")
+	assert.Contains(t, c1, "Zoë Ó Briain, Łukasz Wróbel, Grete Strauß")
+	assert.NotContains(t, c1, "…")
 }

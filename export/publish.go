@@ -120,7 +120,7 @@ func Publish(dir string, t *timetable.Term, s *timetable.Schedule, opt Options) 
 	m.Generated = opt.Generated.Format("2006-01-02T15:04:05Z07:00")
 	tmp, release, err := newWorkDir(parent, base)
 	if err != nil {
-		return m, fmt.Errorf("export: cannot create a working directory next to %s: %w", dir, err)
+		return m, fmt.Errorf("cannot create a working directory next to %s: %w", dir, err)
 	}
 	defer release()         // after the removal below: deferred calls run last first
 	defer os.RemoveAll(tmp) // a no-op once renamed into place; the earlier publication after an exchange
@@ -212,7 +212,7 @@ func runJobs(root string, jobs []publishJob) ([]ManifestFile, error) {
 			n, err := writeFile(filepath.Join(root, filepath.FromSlash(jobs[i].file.Path)), jobs[i].write)
 			mu.Lock()
 			if err != nil && first == nil {
-				first = fmt.Errorf("export: %s: %w", jobs[i].file.Path, err)
+				first = fmt.Errorf("%s: %w", jobs[i].file.Path, err)
 			}
 			files[i] = jobs[i].file
 			files[i].Bytes = n
@@ -280,24 +280,24 @@ func checkTarget(dir string, force bool) error {
 		return nil
 	}
 	if err != nil {
-		return fmt.Errorf("export: %w", err)
+		return fmt.Errorf("cannot publish: %w", err)
 	}
 	if fi.Mode()&fs.ModeSymlink != 0 {
 		// Swapping a new folder in would replace the link itself.
-		return fmt.Errorf("export: %s is a symbolic link; give the folder it points to, or a new folder name", dir)
+		return fmt.Errorf("%s is a symbolic link; give the folder it points to, or a new folder name", dir)
 	}
 	if !fi.IsDir() {
-		return fmt.Errorf("export: %s exists and is not a directory; choose a new directory name", dir)
+		return fmt.Errorf("%s exists and is not a directory; choose a new directory name", dir)
 	}
 	entries, err := os.ReadDir(dir)
 	if err != nil {
-		return fmt.Errorf("export: %w", err)
+		return fmt.Errorf("cannot publish: %w", err)
 	}
 	if len(entries) == 0 {
 		return nil
 	}
 	if !force {
-		return fmt.Errorf("export: %s already holds files; choose a new or empty directory, or use --force to replace an earlier publication", dir)
+		return fmt.Errorf("%s already holds files; choose a new or empty directory, or use --force to replace an earlier publication", dir)
 	}
 	b, err := os.ReadFile(filepath.Join(dir, ManifestName))
 	var old Manifest
@@ -305,7 +305,7 @@ func checkTarget(dir string, force bool) error {
 		err = json.Unmarshal(b, &old)
 	}
 	if err != nil || old.Generator != "termwright" {
-		return fmt.Errorf("export: %s was not written by termwright publish (no valid %s), so --force will not replace it; choose a new or empty directory", dir, ManifestName)
+		return fmt.Errorf("%s was not written by termwright publish (no valid %s), so --force will not replace it; choose a new or empty directory", dir, ManifestName)
 	}
 	known := map[string]bool{ManifestName: true}
 	for _, f := range old.Files {
@@ -324,13 +324,13 @@ func checkTarget(dir string, force bool) error {
 		return nil
 	})
 	if err != nil {
-		return fmt.Errorf("export: %w", err)
+		return fmt.Errorf("cannot publish: %w", err)
 	}
 	if len(strangers) > 0 {
 		if len(strangers) > 5 {
 			strangers = append(strangers[:5], fmt.Sprintf("and %d more", len(strangers)-5))
 		}
-		return fmt.Errorf("export: %s holds files the earlier publication did not write (%s); move them away or choose another directory", dir, strings.Join(strangers, ", "))
+		return fmt.Errorf("%s holds files the earlier publication did not write (%s); move them away or choose another directory", dir, strings.Join(strangers, ", "))
 	}
 	return nil
 }
@@ -382,7 +382,7 @@ func newWorkDir(parent, base string) (string, func(), error) {
 func swapInto(tmp, dir string) error {
 	if _, err := os.Lstat(dir); errors.Is(err, fs.ErrNotExist) {
 		if err := os.Rename(tmp, dir); err != nil {
-			return fmt.Errorf("export: moving the publication into %s: %w", dir, err)
+			return fmt.Errorf("moving the publication into %s: %w", dir, err)
 		}
 		return nil
 	}
@@ -394,13 +394,13 @@ func swapInto(tmp, dir string) error {
 	}
 	old := tmp + ".old"
 	if err := os.Rename(dir, old); err != nil {
-		return fmt.Errorf("export: moving the earlier %s aside: %w", dir, err)
+		return fmt.Errorf("moving the earlier %s aside: %w", dir, err)
 	}
 	if err := os.Rename(tmp, dir); err != nil {
 		if rerr := os.Rename(old, dir); rerr != nil {
-			return fmt.Errorf("export: moving the publication into %s: %v; the earlier one is in %s", dir, err, old)
+			return fmt.Errorf("moving the publication into %s: %v; the earlier one is in %s", dir, err, old)
 		}
-		return fmt.Errorf("export: moving the publication into %s: %w", dir, err)
+		return fmt.Errorf("moving the publication into %s: %w", dir, err)
 	}
 	return os.RemoveAll(old)
 }

@@ -59,7 +59,7 @@ const maxViewErrors = 20
 // does not fit the grid.
 func newView(t *timetable.Term, s *timetable.Schedule) (*view, error) {
 	if t == nil || s == nil {
-		return nil, errors.New("export: no term or no schedule given")
+		return nil, errors.New("there is nothing to publish: no term or no timetable was given")
 	}
 	v := &view{
 		t:         t,
@@ -173,7 +173,7 @@ func (v *view) resolve(s *timetable.Schedule) error {
 		v.meetings = append(v.meetings, m)
 	}
 	if len(errs) > 0 {
-		return fmt.Errorf("export: the timetable does not fit its term:\n%w", errors.Join(errs...))
+		return fmt.Errorf("the timetable does not fit its term workbook:\n%w", errors.Join(errs...))
 	}
 	sort.SliceStable(v.meetings, func(i, j int) bool {
 		a, b := &v.meetings[i], &v.meetings[j]
@@ -247,26 +247,26 @@ func (v *view) of(who Subject) ([]int, error) {
 	switch who.Kind {
 	case timetable.WhoStaff:
 		if v.staff[who.ID] == nil {
-			return nil, fmt.Errorf("export: no staff member %q in the term", who.ID)
+			return nil, fmt.Errorf("there is no staff member %q in the term; use an ID from the Staff sheet", who.ID)
 		}
 		return v.byStaff[who.ID], nil
 	case timetable.WhoRoom:
 		if v.rooms[who.ID] == nil {
-			return nil, fmt.Errorf("export: no room %q in the term", who.ID)
+			return nil, fmt.Errorf("there is no room %q in the term; use an ID from the Rooms sheet", who.ID)
 		}
 		return v.byRoom[who.ID], nil
 	case timetable.WhoCohort:
 		if v.cohorts[who.ID] == nil {
-			return nil, fmt.Errorf("export: no cohort %q in the term", who.ID)
+			return nil, fmt.Errorf("there is no cohort %q in the term; use an ID from the Cohorts sheet", who.ID)
 		}
 		return v.byCohort[who.ID], nil
 	case WhoStudent:
 		if _, ok := v.byStudent[who.ID]; !ok {
-			return nil, fmt.Errorf("export: no enrolled student %q in the term", who.ID)
+			return nil, fmt.Errorf("there is no student %q on the Enrolments sheet; use a student ID from it", who.ID)
 		}
 		return v.byStudent[who.ID], nil
 	}
-	return nil, fmt.Errorf("export: cannot publish a schedule for a %s", kindWord(who.Kind))
+	return nil, fmt.Errorf("a timetable can be published for a staff member, room, cohort or student, not for a %s", kindWord(who.Kind))
 }
 
 // title is the display name of a subject: "Name (ID)", "Room R204", ...
@@ -336,14 +336,31 @@ func (v *view) staffNames(sec *timetable.Section) []string {
 	return out
 }
 
-// weeks is the "wks 1-6, 9" label of a section's weeks, or "" when the
-// section meets every teaching week.
+// weeks is the label of a section's weeks on grids: "wks 1-6, 9", "odd
+// weeks", "even weeks", or "" when the section meets every teaching week.
 func (v *view) weeks(sec *timetable.Section) string {
+	switch r := v.weekRanges(sec); r {
+	case "":
+		return ""
+	case "odd", "even":
+		return r + " weeks"
+	default:
+		return "wks " + r
+	}
+}
+
+// weekRanges is a section's weeks as lists and tables show them: "1-6, 9",
+// "odd" or "even" (as on the Sections sheet), or "" when the section meets
+// every teaching week.
+func (v *view) weekRanges(sec *timetable.Section) string {
 	w := sec.Weeks
 	if w == 0 || w&v.allWeeks == v.allWeeks {
 		return ""
 	}
-	return "wks " + weekList(w&v.allWeeks)
+	if t := v.t.WeeksText(w & v.allWeeks); t == "odd" || t == "even" {
+		return t
+	}
+	return weekList(w & v.allWeeks)
 }
 
 // weekList formats a week set as ranges: "1-6, 9, 11-12".

@@ -28,9 +28,10 @@ func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedul
 
 // workbook is one workbook being written, with its shared styles.
 type workbook struct {
-	v  *view
-	f  *excelize.File
-	st styles
+	v     *view
+	f     *excelize.File
+	st    styles
+	paper string // "A4" or "Letter", for the sheets' page setup
 }
 
 func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
@@ -41,6 +42,9 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 		}
 	}()
 	wb := &workbook{v: v, f: f}
+	if wb.paper, err = paperSize(opt.Paper); err != nil {
+		return err
+	}
 	if wb.st, err = newStyles(f); err != nil {
 		return err
 	}
@@ -61,15 +65,15 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 	names := SheetNames(wanted, timetable.TimetableSheet, LoadSheet)
 	for i, who := range subjects {
 		if err := wb.grid(names[i], who); err != nil {
-			return fmt.Errorf("export: sheet %q: %w", names[i], err)
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", names[i], err)
 		}
 	}
 	if err := wb.load(); err != nil {
-		return fmt.Errorf("export: sheet %q: %w", LoadSheet, err)
+		return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", LoadSheet, err)
 	}
 	for i, x := range opt.Extra {
 		if err := wb.extra(names[len(subjects)+i], x); err != nil {
-			return fmt.Errorf("export: sheet %q: %w", names[len(subjects)+i], err)
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", names[len(subjects)+i], err)
 		}
 	}
 	gen := opt.generated().UTC().Format("2006-01-02T15:04:05Z")
@@ -116,14 +120,25 @@ func (v *view) sheetTitle(who Subject) string {
 	return who.ID
 }
 
-// master writes the Timetable sheet.
+// master writes the Timetable sheet: a real AutoFilter over the header and
+// every row (the autoFilter element, ECMA-376 Part 1 §18.3.1.2, besides
+// the hidden _xlnm._FilterDatabase name), frozen header, page setup.
 func (wb *workbook) master() error {
 	f, sheet := wb.f, timetable.TimetableSheet
+	last, _ := excelize.CoordinatesToCellName(len(timetable.TimetableColumns), len(wb.v.meetings)+1)
+	// The stream writer writes what the sheet holds when it starts (sheet
+	// properties) and when it flushes (filter, page setup): set them first.
+	if err := f.AutoFilter(sheet, "A1:"+last, nil); err != nil {
+		return err
+	}
+	if err := wb.pageSetup(sheet, "$1:$1", ""); err != nil {
+		return err
+	}
 	sw, err := f.NewStreamWriter(sheet)
 	if err != nil {
 		return err
 	}
-	widths := []float64{12, 40, 9, 6, 7, 7, 10, 18, 18}
+	widths := []float64{12, 40, 9, 6, 7, 7, 10, 14, 14, 12, 30}
 	for i, wd := range widths {
 		if err := sw.SetColWidth(i+1, i+1, wd); err != nil {
 			return err
@@ -151,11 +166,7 @@ func (wb *workbook) master() error {
 			return err
 		}
 	}
-	last, _ := excelize.CoordinatesToCellName(len(timetable.TimetableColumns), len(wb.v.meetings)+1)
-	if err := sw.Flush(); err != nil {
-		return err
-	}
-	return f.AutoFilter(sheet, "A1:"+last, nil)
+	return sw.Flush()
 }
 
 // extra writes one of Options.Extra.
@@ -184,5 +195,9 @@ func (wb *workbook) extra(name string, x ExtraSheet) error {
 			return err
 		}
 	}
-	return nil
+	titles := ""
+	if len(x.Header) > 0 {
+		titles = "$1:$1"
+	}
+	return wb.pageSetup(name, titles, "")
 }

@@ -63,6 +63,7 @@ func (wb *workbook) grid(sheet string, who Subject) error {
 		}
 	}
 	heights := make([]float64, len(v.rows))
+	level, reason := v.unavailableCells(who)
 	for r, row := range v.rows {
 		heights[r] = 2 * gridLinePt
 		if err := set(fmt.Sprintf("A%d", r+gridHeaderRow+1), row.from.String()+"–"+row.to.String(), wb.st.label); err != nil {
@@ -70,11 +71,22 @@ func (wb *workbook) grid(sheet string, who Subject) error {
 		}
 		for c := range v.days {
 			style := wb.st.free
-			if !v.has[r][c] {
+			switch {
+			case !v.has[r][c]:
 				style = wb.st.closed
+			case level[r][c] == unavailHard:
+				style = wb.st.unavailable
+			case level[r][c] == unavailSoft:
+				style = wb.st.preferFree
 			}
 			if err := f.SetCellStyle(sheet, gridCell(c, r), gridCell(c, r), style); err != nil {
 				return err
+			}
+			// The label shows once at the top of a run of equal cells, as on the PDF.
+			if l := level[r][c]; l != unavailNone && (r == 0 || level[r-1][c] != l || reason[r-1][c] != reason[r][c]) {
+				if err := f.SetCellValue(sheet, gridCell(c, r), unavailableLabel(l, reason[r][c])); err != nil {
+					return err
+				}
 			}
 		}
 	}
@@ -87,6 +99,9 @@ func (wb *workbook) grid(sheet string, who Subject) error {
 		if err := f.SetRowHeight(sheet, r+gridHeaderRow+1, min(h, gridMaxRowPt)); err != nil {
 			return err
 		}
+	}
+	if err := wb.pageSetup(sheet, fmt.Sprintf("$%d:$%d", gridHeaderRow, gridHeaderRow), "$A:$A"); err != nil {
+		return err
 	}
 	return f.SetPanes(sheet, &excelize.Panes{Freeze: true, XSplit: 1, YSplit: gridHeaderRow,
 		TopLeftCell: gridCell(0, 0), ActivePane: "bottomRight"})

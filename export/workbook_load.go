@@ -90,7 +90,10 @@ func (wb *workbook) load() error {
 	if err := f.SetColWidth(sheet, "B", "B", 26); err != nil {
 		return err
 	}
-	return f.SetColWidth(sheet, "C", "H", 14)
+	if err := f.SetColWidth(sheet, "C", "H", 14); err != nil {
+		return err
+	}
+	return wb.pageSetup(sheet, "", "")
 }
 
 // staffLoad is one row of the staff table.

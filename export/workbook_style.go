@@ -5,15 +5,18 @@ import "github.com/xuri/excelize/v2"
 // styles are the cell styles of a workbook: greys and borders only, so the
 // sheets print legibly in black and white.
 type styles struct {
-	title   int // sheet title
-	note    int // small grey text under the title
-	header  int // column headers
-	label   int // period labels of a grid
-	free    int // a grid period with nothing in it
-	closed  int // a day without that period
-	block   int // a grid block holding one or more meetings
-	percent int // 0.0 %
-	bold    int
+	title  int // sheet title
+	note   int // small grey text under the title
+	header int // column headers
+	label  int // period labels of a grid
+	free   int // a grid period with nothing in it
+	closed int // a day without that period
+	block  int // a grid block holding one or more meetings
+	// unavailable and preferFree mark a subject's hard and preferred
+	// unavailable times on its grid
+	unavailable, preferFree int
+	percent                 int // 0.0 %
+	bold                    int
 }
 
 func newStyles(f *excelize.File) (styles, error) {
@@ -47,6 +50,11 @@ func newStyles(f *excelize.File) (styles, error) {
 				{Type: "top", Color: "000000", Style: 2}, {Type: "bottom", Color: "000000", Style: 2},
 			},
 			Alignment: &excelize.Alignment{Vertical: "top", WrapText: true}}},
+		// unavailable: cross-hatched (pattern "lightGrid"), as in the PDF
+		{&st.unavailable, &excelize.Style{Font: &excelize.Font{Size: 8, Color: "404040"}, Fill: excelize.Fill{Type: "pattern", Pattern: 15, Color: []string{"A6A6A6"}},
+			Border: thin("BFBFBF"), Alignment: &excelize.Alignment{Vertical: "top", WrapText: true}}},
+		{&st.preferFree, &excelize.Style{Font: &excelize.Font{Size: 8, Color: "404040"}, Fill: solid("F0F0F0"),
+			Border: thin("BFBFBF"), Alignment: &excelize.Alignment{Vertical: "top", WrapText: true}}},
 		{&st.percent, &excelize.Style{CustomNumFmt: &pct}},
 		{&st.bold, &excelize.Style{Font: &excelize.Font{Bold: true}}},
 	}

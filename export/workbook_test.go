@@ -1,7 +1,10 @@
 package export
 
 import (
+	"archive/zip"
 	"bytes"
+	"fmt"
+	"io"
 	"strings"
 	"testing"
 
@@ -55,7 +58,7 @@ func TestWorkbookMaster(t *testing.T) {
 		got := append(rows[i+1], make([]string, len(want))...)[:len(want)] // GetRows drops trailing blanks
 		assert.Equal(t, want, got)
 	}
-	assert.Equal(t, []string{"CS103", "Online Seminar", "1", "Fri", "12:00", "13:00", "", "S1, S2", "C1"}, rows[len(rows)-1])
+	assert.Equal(t, []string{"CS103", "Online Seminar", "1", "Fri", "12:00", "13:00", "", "S1, S2", "C1", "all", "Zoë Ó Briain, Łukasz Wróbel"}, rows[len(rows)-1])
 	panes, err := f.GetPanes(timetable.TimetableSheet)
 	require.NoError(t, err)
 	assert.True(t, panes.Freeze)
@@ -156,4 +159,57 @@ func TestWorkbookLoad(t *testing.T) {
 	// L2 holds CH201 and CH202 in the same 3 periods out of 35: 8.6 %.
 	assert.Equal(t, []string{"L2", "Science Wing", "24", "20", "2", "3", "35", "8.6%"}, l2)
 	assert.Contains(t, rows[len(rows)-1][0], "posted legal occupancy")
+}
+
+// TestWorkbookFilterAndPrint reads the sheet parts themselves: the
+// Timetable sheet holds an autoFilter element over the header and every
+// row (ECMA-376 Part 1 §18.3.1.2; the hidden _xlnm._FilterDatabase name
+// alone shows no filter buttons), and every sheet is set up to print
+// landscape, one page wide (§18.3.1.64 pageSetup, fitToPage §18.3.1.65),
+// with its header rows as print titles (§18.2.6 _xlnm.Print_Titles). The
+// LibreOffice test checks the same in a real spreadsheet program.
+func TestWorkbookFilterAndPrint(t *testing.T) {
+	term, s := busyTerm()
+	var buf bytes.Buffer
+	require.NoError(t, WriteTimetableWorkbook(&buf, term, s, Options{Paper: "Letter"}))
+	zr, err := zip.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
+	require.NoError(t, err)
+	var sheet1 []byte
+	for _, zf := range zr.File {
+		if zf.Name == "xl/worksheets/sheet1.xml" {
+			rc, err := zf.Open()
+			require.NoError(t, err)
+			sheet1, err = io.ReadAll(rc)
+			require.NoError(t, err)
+			rc.Close()
+		}
+	}
+	assert.Contains(t, string(sheet1), fmt.Sprintf(`<autoFilter ref="$A$1:$K$%d"`, len(s.Placements)+1))
+
+	f, err := excelize.OpenReader(bytes.NewReader(buf.Bytes()))
+	require.NoError(t, err)
+	defer f.Close()
+	titles := map[string]string{}
+	for _, dn := range f.GetDefinedName() {
+		if dn.Name == "_xlnm.Print_Titles" {
+			titles[dn.Scope] = dn.RefersTo
+		}
+	}
+	for _, name := range f.GetSheetList() {
+		pl, err := f.GetPageLayout(name)
+		require.NoError(t, err)
+		assert.Equal(t, "landscape", *pl.Orientation, name)
+		assert.Equal(t, 1, *pl.FitToWidth, name)
+		assert.Equal(t, 1, *pl.Size, "%s: paper size 1 is US Letter", name)
+		props, err := f.GetSheetProps(name)
+		require.NoError(t, err)
+		assert.True(t, *props.FitToPage, name)
+		switch name {
+		case timetable.TimetableSheet:
+			assert.Equal(t, "'Timetable'!$1:$1", titles[name])
+		case LoadSheet:
+		default:
+			assert.Equal(t, quoteSheet(name)+"!$A:$A,"+quoteSheet(name)+"!$4:$4", titles[name], name)
+		}
+	}
 }

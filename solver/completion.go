@@ -25,7 +25,8 @@ func New(p *Program, opts Options) (*Solver, error) {
 		return nil, err
 	}
 	s := &Solver{opts: o, ok: true}
-	s.rng = rand.New(rand.NewPCG(uint64(o.Seed), 0x9e3779b97f4a7c15))
+	s.pcg = rand.NewPCG(uint64(o.Seed), 0x9e3779b97f4a7c15)
+	s.rng = rand.New(s.pcg)
 	s.initTables()
 	s.numAtoms = p.NumAtoms()
 	s.reserve(s.numAtoms + len(p.Rules) + len(p.Choices) + len(p.Bounds) + len(p.Weaks) + 2)

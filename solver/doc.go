@@ -16,11 +16,39 @@
 // weak-constraint costs lexicographically by level (optimize.go,
 // weightsum.go).
 //
+// # A live solver
+//
+// A Solver grows between searches (live.go): AddClause, AddBound (a
+// cardinality bound exactly like Program.AddBound) and AddWeightSum (a
+// weighted sum at most a limit) add permanent constraints at decision level
+// 0 over existing atoms, with the same propagators and lazily built
+// explanations as the constraints New makes; AddAtoms makes free atoms for
+// activation literals. A conjunctive condition of two or more literals gets
+// a fresh variable defined by clauses. Learned clauses stay valid, since
+// additions only remove models. A contradiction found while adding makes
+// every later search Unsatisfiable; literals naming no atom are errors
+// wrapping ErrProgram.
+//
+// Clone (clone.go) copies a solver at level 0 in one pass over its tables,
+// much cheaper than New, which redoes the completion, so that a
+// neighbourhood step can add unit clauses to a copy and leave the original
+// untouched. Only the unfounded-set checker's support graph and the weak
+// constraints, read-only after New, are shared. For one Solve, assumptions
+// or an assumed activation literal on the one solver cost less than a
+// clone; for Optimize, whose many searches re-propagate every assumption,
+// units in a clone (simplified away at level 0) cost far less.
+//
+// Misuse is reported the same way by every search call: an assumption
+// naming no atom makes Solve, Enumerate and Optimize return without
+// searching, and Err (Optimize: also its error result) says why.
+//
 // # Representation
 //
 // Variables are dense uint32 numbers: 1..NumAtoms are the program's atoms,
-// then body variables, then auxiliary variables (enumeration and
-// optimisation). A literal (Lit) is the variable shifted left by one with the
+// then body variables, then auxiliary variables (enumeration, optimisation,
+// conditions of added constraints) interleaved, in creation order, with the
+// atoms of AddAtoms, which a per-variable table (added) marks as usable by
+// callers. A literal (Lit) is the variable shifted left by one with the
 // low bit set for the negative literal, so Pos(v) and Neg(v) double as
 // internal literals. The value 0 means "none" everywhere (no literal, no
 // reason, no clause), so zeroed tables are valid.

@@ -11,22 +11,34 @@ import (
 // projection. fn may keep the slice; it returns false to stop. limit > 0
 // stops after that many models. n is the number of calls made; complete
 // reports that every model was found (the search space is exhausted). A
-// cancelled ctx or Options.ConflictLimit ends the enumeration early.
+// cancelled ctx or Options.ConflictLimit ends the enumeration early. An
+// assumption naming no atom is a misuse: Enumerate then returns 0, false
+// without searching and Err returns an error wrapping ErrProgram.
+//
+// After AddAtoms, models differ by their program atoms (Model): without a
+// projection the projection onto every program atom is used, since models
+// that differ only in added atoms would otherwise repeat.
 //
 // Each model is blocked by a clause over its decisions (or its projection),
 // guarded by a fresh activation literal that is assumed during the call and
 // made false afterwards, so the solver is unchanged for later calls (Eén &
 // Sörensson 2003 for activation literals).
 func (s *Solver) Enumerate(ctx context.Context, limit int, project []Atom, fn func(model []Atom) bool) (n int, complete bool) {
-	assumps, ok := s.takeAssumptions()
-	if !ok {
+	assumps, err := s.takeAssumptions("Enumerate")
+	if err != nil {
 		return 0, false
+	}
+	if project == nil && len(s.added) > 0 {
+		project = make([]Atom, s.numAtoms)
+		for i := range project {
+			project[i] = Atom(i + 1)
+		}
 	}
 	var proj []Atom
 	if project != nil {
 		proj = make([]Atom, 0, len(project))
 		for _, a := range project {
-			if a >= 1 && int(a) <= s.numAtoms {
+			if s.isAtom(a) {
 				proj = append(proj, a)
 			}
 		}

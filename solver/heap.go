@@ -96,3 +96,24 @@ func (h *varHeap) down(i int) {
 	h.heap[i] = v
 	h.index[v] = int32(i)
 }
+
+// keepOnly removes from the heap every variable for which keep is false and
+// restores the heap property bottom-up: O(n), against O(k log n) for k
+// removals of the maximum. The order of later removals is unchanged, since
+// the order (activity, then variable) is total.
+func (h *varHeap) keepOnly(keep func(v uint32) bool) {
+	j := 0
+	for _, v := range h.heap {
+		if keep(v) {
+			h.heap[j] = v
+			h.index[v] = int32(j)
+			j++
+		} else {
+			h.index[v] = -1
+		}
+	}
+	h.heap = h.heap[:j]
+	for i := j/2 - 1; i >= 0; i-- {
+		h.down(i)
+	}
+}

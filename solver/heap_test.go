@@ -36,3 +36,34 @@ func TestVarHeapOrder(t *testing.T) {
 	}
 	require.Equal(t, 200, n)
 }
+
+// TestVarHeapKeepOnly: after keepOnly the heap holds exactly the kept
+// variables and yields them in the order of removeMax on the full heap
+// with the others skipped.
+func TestVarHeapKeepOnly(t *testing.T) {
+	for seed := range uint64(20) {
+		r := rand.New(rand.NewPCG(seed, 3))
+		act := make([]float64, 301)
+		a, b := varHeap{activity: &act}, varHeap{activity: &act}
+		a.grow(300)
+		b.grow(300)
+		keep := make([]bool, 301)
+		for v := uint32(1); v <= 300; v++ {
+			act[v] = float64(r.IntN(40))
+			keep[v] = r.IntN(3) != 0
+			a.insert(v)
+			b.insert(v)
+		}
+		a.keepOnly(func(v uint32) bool { return keep[v] })
+		for v := uint32(1); v <= 300; v++ {
+			require.Equal(t, keep[v], a.contains(v))
+		}
+		for !b.empty() {
+			v := b.removeMax()
+			if keep[v] {
+				require.Equal(t, v, a.removeMax(), "seed %d", seed)
+			}
+		}
+		require.True(t, a.empty())
+	}
+}

@@ -21,20 +21,25 @@ import (
 // is non-nil only for assumptions naming no atom or weights whose sums
 // overflow.
 //
-// Method, per level from the highest: core-guided lower bounds with
-// stratification (Fu & Malik 2006; OLL, Morgado, Dodaro & Marques-Silva
-// 2014) for up to Options.CoreBudget conflicts, then model-improving search
+// Method: level-0 consequences are propagated first, and weak constraints
+// whose literal they fix are constants of the call. Then, per level from
+// the highest: core-guided lower bounds with stratification (Fu & Malik
+// 2006; OLL, Morgado, Dodaro & Marques-Silva 2014) for up to
+// Options.CoreBudget conflicts, then model-improving search
 // with a native weighted-sum bound "cost ≤ best − 1" until unsatisfiable;
 // the level's optimum is then fixed by a bound while lower levels are
 // optimised. Bounds are guarded by activation literals, and relaxation
 // literals are fixed true when the call returns; both kinds of constraint
 // are then removed, so later calls are unaffected.
 func (s *Solver) Optimize(ctx context.Context, onModel func(cost []int64, model []Atom)) (Status, []int64, error) {
-	assumps, ok := s.takeAssumptions()
-	if !ok {
-		return Unknown, nil, fmt.Errorf("%w: Optimize: an assumption refers to no atom of the program (it has %d atoms)", ErrProgram, s.numAtoms)
+	assumps, err := s.takeAssumptions("Optimize")
+	if err != nil {
+		return Unknown, nil, err
 	}
 	s.cancelUntil(0)
+	if s.ok && s.propagate() { // level-0 consequences first: newOptimizer folds fixed soft literals
+		s.ok = false
+	}
 	s.startBudget()
 	o, err := newOptimizer(s, assumps, onModel)
 	if err != nil {
@@ -125,10 +130,29 @@ func newOptimizer(s *Solver, assumps []Lit, onModel func([]int64, []Atom)) (*opt
 		}
 	}
 	for i := range o.softs {
-		o.softs[i] = mergeSofts(o.softs[i])
+		o.softs[i] = o.foldFixed(i, mergeSofts(o.softs[i]))
 		o.lower[i] = o.offset[i]
 	}
 	return o, nil
+}
+
+// foldFixed drops the soft literals of level i that are assigned at level
+// 0, constants of the call: a true one adds its weight to the level's
+// offset. In a neighbourhood step most soft literals are fixed, and fewer
+// make cores, their bookkeeping and the weighted sums smaller. The offset
+// stays in range: the weights were checked above.
+func (o *optimizer) foldFixed(i int, ss []softLit) []softLit {
+	j := 0
+	for _, sf := range ss {
+		switch o.s.vals[sf.lit] {
+		case 1:
+			o.offset[i] += sf.w
+		case 0:
+			ss[j] = sf
+			j++
+		}
+	}
+	return ss[:j]
 }
 
 // mergeSofts adds up the weights of equal literals.

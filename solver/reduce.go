@@ -31,9 +31,10 @@ func (s *Solver) reduceDB() {
 
 // compact rewrites the arena without deleted clauses and, using the level-0
 // assignment, without satisfied clauses and false literals; then it rebuilds
-// every watch list and the learned-clause list, and clears the reasons of
-// level-0 variables (no longer needed). Must be called at level 0 at a
-// propagation fixpoint. O(arena size).
+// every watch list and the learned-clause list, clears the reasons of
+// level-0 variables (no longer needed) and drops them from the heap. Must
+// be called at level 0 at a propagation fixpoint. O(arena size + number of
+// variables).
 func (s *Solver) compact() {
 	old := s.arena
 	arena := make([]Lit, clauseHeader, len(old)-s.wasted+clauseHeader)
@@ -91,4 +92,7 @@ func (s *Solver) compact() {
 		}
 	}
 	s.simpTrail = len(s.trail)
+	// Variables fixed at level 0 are never decided: drop them from the heap
+	// at once (a neighbourhood step fixes most of them).
+	s.order.keepOnly(func(v uint32) bool { return s.vals[Lit(v)<<1] == 0 })
 }

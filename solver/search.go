@@ -5,12 +5,13 @@ import "context"
 // Solve searches for a stable model under the assumptions set by Assume
 // (which are then cleared). It returns Satisfiable (Model and Value give the
 // model), Unsatisfiable (Core gives failed assumptions) or Unknown when ctx
-// is done or Options.ConflictLimit conflicts were spent (also when an
-// assumption names no atom of the program).
+// is done or Options.ConflictLimit conflicts were spent. An assumption
+// naming no atom is a misuse, the same as for Optimize: Solve then returns
+// Unknown without searching and Err returns an error wrapping ErrProgram
+// (Err is nil after every call without misuse).
 func (s *Solver) Solve(ctx context.Context) Status {
-	assumps, ok := s.takeAssumptions()
-	if !ok {
-		s.core = s.core[:0]
+	assumps, err := s.takeAssumptions("Solve")
+	if err != nil {
 		return Unknown
 	}
 	s.startBudget()

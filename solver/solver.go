@@ -6,16 +6,20 @@ import (
 	"slices"
 )
 
-// Solver searches for stable models of one program. It is not safe for
-// concurrent use. Create it with New.
+// Solver searches for stable models of one program and grows between
+// searches (AddClause, AddBound, AddWeightSum, AddAtoms). It is not safe for
+// concurrent use; clones are independent of it. Create it with New or
+// Clone.
 type Solver struct {
-	opts Options // validated tuning constants
-	rng  *rand.Rand
+	opts Options    // validated tuning constants
+	pcg  *rand.PCG  // state of rng's source (copied by Clone)
+	rng  *rand.Rand // random choices: initial activities, random decisions
 
-	numAtoms int  // the program's atoms are variables 1..numAtoms
-	numVars  int  // variables are 1..numVars: atoms, body variables, auxiliaries
-	ok       bool // false once the clauses are unsatisfiable at level 0 (permanent)
-	building bool // true inside New: watches and card occurrences are indexed once at the end
+	numAtoms int    // the program's atoms are variables 1..numAtoms
+	added    []bool // per variable up to the last atom made by AddAtoms: true for those atoms (empty when none)
+	numVars  int    // variables are 1..numVars: atoms, body variables, auxiliaries
+	ok       bool   // false once the clauses are unsatisfiable at level 0 (permanent)
+	building bool   // true inside New: watches and card occurrences are indexed once at the end
 
 	// Assignment.
 	vals     []int8   // per literal: +1 true, -1 false, 0 unassigned; vals[p] == -vals[p^1]
@@ -67,10 +71,11 @@ type Solver struct {
 	// Assumptions and results.
 	assumptions []Lit     // assumptions of the current search, user ones first
 	pending     []Lit     // assumptions given by Assume for the next call
+	err         error     // misuse found by the last Solve, Enumerate or Optimize call (see Err)
 	userAssume  int       // assumptions[:userAssume] came from the caller
 	core        []Lit     // after Unsatisfiable under assumptions: failed user assumptions
 	failed      []Lit     // after a failed assumption: every assumption literal involved (user and internal)
-	model       []bool    // per atom: value in the last model
+	model       []bool    // per atom (program atoms, then up to the last added atom): value in the last model
 	hasModel    bool      // model holds a model
 	trueLit     Lit       // a literal true at level 0 (0 until needed)
 	weaks       []weakLit // weak constraints as literals (completion.go)
@@ -245,20 +250,43 @@ func (s *Solver) undoCounters(p Lit) {
 func (s *Solver) Assume(lits ...Lit) { s.pending = append(s.pending, lits...) }
 
 // takeAssumptions returns and clears the pending user assumptions, checking
-// their atoms; it reports false when one refers to no atom of the program.
-func (s *Solver) takeAssumptions() ([]Lit, bool) {
+// their atoms, and sets s.err: an error wrapping ErrProgram when one refers
+// to no atom (then the returned slice is nil and the last model and core
+// are forgotten, as by a call that found nothing), nil otherwise. call
+// names the public method for the message.
+func (s *Solver) takeAssumptions(call string) ([]Lit, error) {
 	a := append([]Lit(nil), s.pending...)
 	s.pending = s.pending[:0]
+	s.err = nil
 	for _, p := range a {
-		if v := int(p >> 1); v < 1 || v > s.numAtoms {
-			return nil, false
+		if !s.isAtom(p.Atom()) {
+			s.err = fmt.Errorf("%w: %s: an assumption refers to atom %d, which is neither an atom of the program (it has %d) nor one made by AddAtoms",
+				ErrProgram, call, p.Atom(), s.numAtoms)
+			s.core = s.core[:0]
+			s.hasModel = false
+			return nil, s.err
 		}
 	}
-	return a, true
+	return a, nil
 }
 
-// Model appends the true atoms of the last stable model to dst in ascending
-// order. It appends nothing when no model was found by the last call.
+// Err returns the misuse found by the last Solve, Enumerate or Optimize
+// call, nil when there was none: an error wrapping ErrProgram when an
+// assumption named no atom (that call then returned without searching:
+// Unknown, or 0 and false from Enumerate). Optimize also returns it
+// directly.
+func (s *Solver) Err() error { return s.err }
+
+// isAtom reports whether a is an atom of the program or one made by
+// AddAtoms.
+func (s *Solver) isAtom(a Atom) bool {
+	return a >= 1 && (int(a) <= s.numAtoms || int(a) < len(s.added) && s.added[a])
+}
+
+// Model appends the true atoms of the program in the last stable model to
+// dst in ascending order (atoms made by AddAtoms are left out: read them
+// with Value), so the result can be checked with Verify against the
+// program. It appends nothing when no model was found by the last call.
 func (s *Solver) Model(dst []Atom) []Atom {
 	if !s.hasModel {
 		return dst
@@ -271,10 +299,10 @@ func (s *Solver) Model(dst []Atom) []Atom {
 	return dst
 }
 
-// Value reports whether atom a is true in the last model (false when there
-// is none or a is out of range).
+// Value reports whether atom a (of the program or made by AddAtoms) is true
+// in the last model (false when there is none or a names no atom).
 func (s *Solver) Value(a Atom) bool {
-	return s.hasModel && int(a) >= 1 && int(a) <= s.numAtoms && s.model[a]
+	return s.hasModel && s.isAtom(a) && int(a) < len(s.model) && s.model[a]
 }
 
 // Core appends to dst, after a call that returned Unsatisfiable under
@@ -285,10 +313,11 @@ func (s *Solver) Core(dst []Lit) []Lit { return append(dst, s.core...) }
 // Stats returns a copy of the work counters.
 func (s *Solver) Stats() Stats { return s.stats }
 
-// SetPhase sets the polarity tried first when branching on atom a (value
-// true tries a true). Later phase saving may change it.
+// SetPhase sets the polarity tried first when branching on atom a (of the
+// program or made by AddAtoms; value true tries a true). Later phase saving
+// may change it. Other values of a are ignored.
 func (s *Solver) SetPhase(a Atom, value bool) {
-	if int(a) >= 1 && int(a) <= s.numAtoms {
+	if s.isAtom(a) {
 		s.polarity[a] = value
 	}
 }
@@ -298,32 +327,20 @@ func (s *Solver) SetPhase(a Atom, value bool) {
 func (s *Solver) SetProgress(fn func(Stats)) { s.progress = fn }
 
 // NumAtoms returns the number of atoms of the program the solver was built
-// from.
+// from (atoms made by AddAtoms are not counted: they are numbered after
+// the engine's internal variables).
 func (s *Solver) NumAtoms() int { return s.numAtoms }
 
-// saveModel copies the atom values of the current total assignment.
+// saveModel copies the atom values of the current total assignment: the
+// program's atoms and, when there are added atoms, every variable up to the
+// last of them (internal variables among them are copied but never read).
 func (s *Solver) saveModel() {
-	if len(s.model) != s.numAtoms+1 {
-		s.model = make([]bool, s.numAtoms+1)
+	n := max(s.numAtoms, len(s.added)-1)
+	if len(s.model) != n+1 {
+		s.model = make([]bool, n+1)
 	}
-	for a := 1; a <= s.numAtoms; a++ {
+	for a := 1; a <= n; a++ {
 		s.model[a] = s.vals[Pos(Atom(a))] == 1
 	}
 	s.hasModel = true
-}
-
-// AddClause adds the permanent clause lits over atoms of the program
-// (Pos(a): a true, Neg(a): a false), for example to block a model. It may be
-// called between searches; an empty clause makes every later search
-// Unsatisfiable. It returns an error wrapping ErrProgram when a literal names
-// no atom of the program.
-func (s *Solver) AddClause(lits ...Lit) error {
-	for _, l := range lits {
-		if v := int(l >> 1); v < 1 || v > s.numAtoms {
-			return fmt.Errorf("%w: AddClause: literal refers to atom %d, but the program has %d atoms", ErrProgram, v, s.numAtoms)
-		}
-	}
-	s.cancelUntil(0)
-	s.addClauseLevel0(append([]Lit(nil), lits...))
-	return nil
 }

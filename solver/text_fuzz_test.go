@@ -44,6 +44,8 @@ func FuzzReadProgram(f *testing.F) {
 	for _, s := range fuzzSeeds {
 		f.Add([]byte(s))
 	}
+	f.Add([]byte(":~ a. [4611686018427387904@1]\n:~ b. [4611686018427387904@1]\n{a; b}."))
+	f.Add([]byte(":~ a. [-9223372036854775808]\n{a}."))
 	files, _ := filepath.Glob(filepath.Join("testdata", "*.lp"))
 	for _, name := range files {
 		if data, err := os.ReadFile(name); err == nil {
@@ -79,6 +81,14 @@ func FuzzReadProgram(f *testing.F) {
 				}
 			}
 			return
+		}
+		// Weights were bounded per level, so no model's cost overflows.
+		all := make([]Atom, p.NumAtoms())
+		for i := range all {
+			all[i] = Atom(i + 1)
+		}
+		if _, err := CheckedCost(p, all); err != nil {
+			t.Fatalf("a program that was read has a cost that overflows: %v", err)
 		}
 		var first bytes.Buffer
 		if err := WriteProgram(&first, p); err != nil {

@@ -82,15 +82,16 @@ const maxSyntaxErrors = 20
 // (up to 20 errors, each with its position); reading goes on after an error
 // at the next ".".
 func ReadProgram(r io.Reader, name string) (*Program, error) {
-	var text strings.Builder
-	if _, err := io.Copy(&text, r); err != nil {
-		return nil, fmt.Errorf("reading %s: %w", name, err)
-	}
 	if name == "" {
 		name = "input"
 	}
+	data, err := readBounded(r, name, MaxTextBytes)
+	if err != nil {
+		return nil, err
+	}
+	text := string(data)
 	ps := &parser{file: name, prog: NewProgram(), atoms: make(map[string]Atom)}
-	ps.sc = newScanner(text.String(), ps.errorAt)
+	ps.sc = newScanner(text, ps.errorAt)
 	ps.tok = ps.sc.next()
 	ps.program()
 	if len(ps.errs) > 0 {
@@ -119,7 +120,15 @@ type parser struct {
 	body  []Lit  // scratch: the body of the statement (Add methods copy it)
 	elems []Lit  // scratch: the elements of a count
 	heads []Atom // scratch: the heads of a choice
+	// levelWeight is the total absolute weight of the weak constraints read
+	// so far, by level; it stays at most MaxLevelWeight.
+	levelWeight map[int]int64
 }
+
+// MaxLevelWeight bounds the total absolute weight of the weak constraints
+// of one priority level in a program read from text, so that every cost
+// and every difference of two costs fits an int64.
+const MaxLevelWeight = 1 << 62
 
 func (ps *parser) errorAt(line, col int, msg string) {
 	if ps.full {
@@ -429,7 +438,7 @@ func (ps *parser) number() int {
 	t := ps.advance()
 	v, err := strconv.ParseInt(t.text, 10, 32)
 	if err != nil {
-		ps.fail(t, "number %s is too large (at most %d)", t.text, math.MaxInt32)
+		ps.fail(t, "number %s is too large (at most %d)", shortText(t.text), math.MaxInt32)
 	}
 	return int(v)
 }
@@ -448,7 +457,7 @@ func (ps *parser) signed(bits int, what string) int64 {
 	text += ps.advance().text
 	v, err := strconv.ParseInt(text, 10, bits)
 	if err != nil {
-		ps.fail(t, "%s %s is out of range", what, text)
+		ps.fail(t, "%s %s is out of range", what, shortText(text))
 	}
 	return v
 }
@@ -473,12 +482,24 @@ func (ps *parser) weak() {
 	body := ps.literals("weak constraint body", true)
 	ps.expect(".", "after weak constraint body")
 	ps.expect("[", "to open the weight, as in [3@1]")
+	wTok := ps.tok
 	w := ps.signed(64, "weight")
 	level := int64(0)
 	if ps.is("@") {
 		ps.advance()
 		level = ps.signed(32, "level")
 	}
+	if ps.levelWeight == nil {
+		ps.levelWeight = map[int]int64{}
+	}
+	abs := w
+	if abs < 0 {
+		abs = -abs // stays negative only for math.MinInt64, refused below
+	}
+	if abs < 0 || abs > MaxLevelWeight-ps.levelWeight[int(level)] {
+		ps.fail(wTok, "weight %d makes the weak constraints of level %d weigh more than %d in total, too much to add up safely — scale the weights down", w, level, int64(MaxLevelWeight))
+	}
+	ps.levelWeight[int(level)] += abs
 	if ps.is(",") {
 		ps.fail(ps.tok, "terms after the weight are not supported: write only [weight@level]")
 	}
@@ -509,7 +530,7 @@ func (ps *parser) directive() {
 		}
 		ps.expect(".", "after the atoms of #atoms (separate them with \";\")")
 	default:
-		ps.fail(t, "unknown directive %s: only #show and #atoms are supported", t.text)
+		ps.fail(t, "unknown directive %s: only #show and #atoms are supported", shortText(t.text))
 	}
 }
 
@@ -577,7 +598,7 @@ func (ps *parser) term(b []byte, depth int) []byte {
 			ps.fail(t, "expected a term, found %s", t.describe())
 		}
 	case tVar:
-		ps.fail(t, "%s is a variable (it starts with an upper-case letter or \"_\"); the program must be ground: write constants in lower case or in quotes", t.text)
+		ps.fail(t, "%s is a variable (it starts with an upper-case letter or \"_\"); the program must be ground: write constants in lower case or in quotes", shortText(t.text))
 	default:
 		ps.fail(t, "expected a term, found %s", t.describe())
 	}
@@ -773,12 +794,12 @@ func canonicalArgs(s string, depth int) (string, bool) {
 // is anonymous. name is used in error positions. Every unknown atom and
 // every syntax error is reported, as a SyntaxErrors list.
 func ReadModel(r io.Reader, p *Program, name string) ([]Atom, error) {
-	data, err := io.ReadAll(r)
-	if err != nil {
-		return nil, fmt.Errorf("reading %s: %w", name, err)
-	}
 	if name == "" {
 		name = "input"
+	}
+	data, err := readBounded(r, name, MaxTextBytes)
+	if err != nil {
+		return nil, err
 	}
 	index := make(map[string]Atom, p.NumAtoms())
 	for a := Atom(p.NumAtoms()); a >= 1; a-- { // the first atom of a name wins
@@ -825,4 +846,29 @@ func ReadModel(r io.Reader, p *Program, name string) ([]Atom, error) {
 		return nil, ps.errs
 	}
 	return model, nil
+}
+
+// MaxTextBytes is the largest program or model text read.
+const MaxTextBytes = 1 << 30
+
+// readBounded reads at most limit bytes; a longer input is a syntax error
+// at its first position, so that a device or an endless pipe cannot
+// exhaust memory.
+func readBounded(r io.Reader, name string, limit int) ([]byte, error) {
+	data, err := io.ReadAll(io.LimitReader(r, int64(limit)+1))
+	if err != nil {
+		return nil, fmt.Errorf("reading %s: %w", name, err)
+	}
+	if len(data) > limit {
+		return nil, SyntaxErrors{{File: name, Line: 1, Col: 1, Msg: fmt.Sprintf("the input is larger than %s, the most read — split it or check that this is the right file", byteSize(limit))}}
+	}
+	return data, nil
+}
+
+// byteSize writes a limit in MB, or in bytes below one MB.
+func byteSize(n int) string {
+	if n >= 1<<20 {
+		return fmt.Sprintf("%d MB", n>>20)
+	}
+	return fmt.Sprintf("%d bytes", n)
 }

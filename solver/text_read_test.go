@@ -144,6 +144,10 @@ func TestReadProgramErrors(t *testing.T) {
 		{"weak without weight", ":~ a. ¦b.", []string{`expected "[" to open the weight`}},
 		{"weak terms", ":~ a. [1@0¦, x]", []string{"terms after the weight"}},
 		{"weak weight range", ":~ a. [¦99999999999999999999@1]", []string{"weight 99999999999999999999 is out of range"}},
+		{"weights adding past int64", ":~ a. [4611686018427387904@1]\n:~ b. [¦4611686018427387904@1]", []string{"weigh more than 4611686018427387904 in total"}},
+		{"negative weights adding past int64", ":~ a. [-4611686018427387904]\n:~ b. [¦-1]", []string{"weigh more than"}},
+		{"most negative weight", ":~ a. [¦-9223372036854775808@0]", []string{"weight -9223372036854775808 makes"}},
+		{"long number shortened", "{a} ¦" + strings.Repeat("9", 1000) + ".", []string{`number 9999999999999999999999999999999999999999… (1000 characters) is too large`}},
 		{"unknown directive", "¦#const n = 3.", []string{"unknown directive #const"}},
 		{"show signature", "#show p¦/1.", []string{`expected "." after #show atom`}},
 		{"unclosed string", "p(¦\"abc) :- q.\nr.", []string{"string is not closed"}},
@@ -275,4 +279,26 @@ func TestReadModel(t *testing.T) {
 			}
 		})
 	}
+}
+
+// endless is a reader that never ends, like /dev/zero.
+type endless struct{}
+
+func (endless) Read(p []byte) (int, error) {
+	for i := range p {
+		p[i] = 'a'
+	}
+	return len(p), nil
+}
+
+// TestReadBoundedEndless: an endless input stops at the limit with a
+// positioned syntax error instead of exhausting memory.
+func TestReadBoundedEndless(t *testing.T) {
+	_, err := readBounded(endless{}, "zero.lp", 1000)
+	require.Error(t, err)
+	assert.True(t, errors.Is(err, ErrSyntax))
+	assert.Contains(t, err.Error(), "zero.lp:1:1: the input is larger than 1000 bytes")
+	data, err := readBounded(strings.NewReader("a."), "small.lp", 1000)
+	require.NoError(t, err)
+	assert.Equal(t, "a.", string(data))
 }

@@ -173,17 +173,17 @@ func (t token) describe() string {
 	case tEOF:
 		return "end of input"
 	case tIdent:
-		return "name " + t.text
+		return "name " + shortText(t.text)
 	case tVar:
-		return "variable " + t.text
+		return "variable " + shortText(t.text)
 	case tNum:
-		return "number " + t.text
+		return "number " + shortText(t.text)
 	case tString:
-		return "string " + t.text
+		return "string " + shortText(t.text)
 	case tNot:
 		return `"not"`
 	case tDirective:
-		return "directive " + t.text
+		return "directive " + shortText(t.text)
 	}
 	return `"` + t.text + `"`
 }

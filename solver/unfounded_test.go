@@ -73,10 +73,8 @@ func TestUnfoundedSourcesSurviveBacktracking(t *testing.T) {
 	for i := range ring {
 		ring[i] = p.NewAtom("")
 	}
-	var ext []Atom
 	for i := 0; i < n; i += 4 {
 		e := p.NewAtom("")
-		ext = append(ext, e)
 		p.AddChoice([]Atom{e}, NoBound, NoBound)
 		p.AddRule(ring[i], Pos(e))
 	}

@@ -1,7 +1,9 @@
 package solver
 
 import (
+	"errors"
 	"fmt"
+	"math"
 	"sort"
 	"strings"
 )
@@ -426,8 +428,21 @@ func Levels(p *Program) []int {
 // model, one entry per level of Levels(p) (highest level first). Each weak
 // constraint counts on its own, even when two are equal. Atoms outside the
 // program are ignored, and a weak constraint that mentions an atom outside
-// the program never holds.
+// the program never holds. A total that does not fit an int64 is clamped to
+// math.MaxInt64 or math.MinInt64; CheckedCost reports it instead.
 func Cost(p *Program, model []Atom) []int64 {
+	cost, _ := CheckedCost(p, model)
+	return cost
+}
+
+// ErrCostOverflow is wrapped by the error of CheckedCost when a level's
+// total weight does not fit an int64.
+var ErrCostOverflow = errors.New("cost does not fit a 64-bit integer")
+
+// CheckedCost is Cost with overflow checked: when a level's total does not
+// fit an int64 it is clamped as in Cost and the error, wrapping
+// ErrCostOverflow, names the level.
+func CheckedCost(p *Program, model []Atom) ([]int64, error) {
 	levels := Levels(p)
 	at := make(map[int]int, len(levels))
 	for i, l := range levels {
@@ -441,6 +456,7 @@ func Cost(p *Program, model []Atom) []int64 {
 		}
 	}
 	cost := make([]int64, len(levels))
+	over := make([]bool, len(levels))
 	for _, w := range p.Weaks {
 		holds := true
 		for _, l := range w.Body {
@@ -449,9 +465,27 @@ func Cost(p *Program, model []Atom) []int64 {
 				break
 			}
 		}
-		if holds {
-			cost[at[w.Level]] += w.Weight
+		if !holds {
+			continue
+		}
+		i := at[w.Level]
+		if over[i] {
+			continue // clamped for good
+		}
+		sum := cost[i] + w.Weight
+		if (w.Weight > 0 && sum < cost[i]) || (w.Weight < 0 && sum > cost[i]) {
+			over[i] = true
+			sum = math.MaxInt64
+			if w.Weight < 0 {
+				sum = math.MinInt64
+			}
+		}
+		cost[i] = sum
+	}
+	for i, o := range over {
+		if o {
+			return cost, fmt.Errorf("the weak constraints of level %d that hold weigh more than an int64 holds: %w", levels[i], ErrCostOverflow)
 		}
 	}
-	return cost
+	return cost, nil
 }

@@ -3,6 +3,8 @@ package solver
 import (
 	"errors"
 	"fmt"
+	"math"
+	"math/big"
 	"strings"
 	"testing"
 
@@ -242,4 +244,44 @@ func TestProblemKindString(t *testing.T) {
 	assert.Equal(t, "out-of-bounds", OutOfBounds.String())
 	assert.Equal(t, "bad-atom", BadAtom.String())
 	assert.Equal(t, "unknown", ProblemKind(0).String())
+}
+
+// TestCheckedCostOverflow adds weights of 2^62 with an independent sum in
+// math/big and expects the overflow to be reported, never a wrapped value.
+func TestCheckedCostOverflow(t *testing.T) {
+	for _, tc := range []struct {
+		name    string
+		weights []int64
+	}{
+		{"two of 2^62", []int64{1 << 62, 1 << 62}},
+		{"fits exactly", []int64{1 << 62, 1<<62 - 1}},
+		{"one past", []int64{1 << 62, 1<<62 - 1, 1}},
+		{"negative past MinInt64", []int64{math.MinInt64, -1}},
+		{"negative fits", []int64{math.MinInt64 + 1, -1}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			p := NewProgram()
+			a := p.NewAtom("a")
+			p.AddChoice([]Atom{a}, NoBound, NoBound)
+			for _, w := range tc.weights {
+				p.AddWeak(w, 0, Pos(a))
+			}
+			want := new(big.Int)
+			for _, w := range tc.weights {
+				want.Add(want, big.NewInt(w))
+			}
+			cost, err := CheckedCost(p, []Atom{a})
+			if want.IsInt64() {
+				require.NoError(t, err)
+				assert.Equal(t, want.Int64(), cost[0])
+				return
+			}
+			require.ErrorIs(t, err, ErrCostOverflow)
+			if want.Sign() > 0 {
+				assert.Equal(t, int64(math.MaxInt64), Cost(p, []Atom{a})[0])
+			} else {
+				assert.Equal(t, int64(math.MinInt64), Cost(p, []Atom{a})[0])
+			}
+		})
+	}
 }

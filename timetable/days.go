@@ -2,7 +2,6 @@ package timetable
 
 import (
 	"strconv"
-	"strings"
 	"time"
 )
 
@@ -11,17 +10,11 @@ var dayNames = [7]string{"Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"}
 // DayName gives the three-letter English name of a weekday ("Mon").
 func DayName(d time.Weekday) string { return dayNames[d%7] }
 
-// ParseDay reads a day name: three-letter or full English names, any case.
+// ParseDay reads a day name: three-letter or full English names ("Mon",
+// "Monday"), any case, with surrounding spaces ignored.
 func ParseDay(s string) (time.Weekday, bool) {
-	s = strings.ToLower(strings.TrimSpace(s))
-	if len(s) < 3 {
-		return 0, false
-	}
-	for i, n := range dayNames {
-		full := strings.ToLower(time.Weekday(i).String())
-		if s == strings.ToLower(n) || s == full {
-			return time.Weekday(i), true
-		}
+	if i := pickChoice(dayChoices, s); i >= 0 {
+		return time.Weekday(i), true
 	}
 	return 0, false
 }

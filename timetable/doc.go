@@ -14,6 +14,16 @@
 // convention of ECMA-376 Part 1 §18.17.4), then each row is decoded into the
 // Term's records. Each record carries its Source (sheet and 1-based row).
 //
+// Before the spreadsheet library opens an .xlsx file, checkPackage reads its
+// zip directory (part sizes against the limits) and every worksheet's XML
+// with a strict XML decoder of its own, counting rows and cells; the
+// library stops silently at damaged XML, so a sheet it reads fewer rows of
+// than were counted is refused. Cells longer than MaxCellChars (one value)
+// or MaxTextChars (text and lists) are errors at the cell, and Quote
+// shortens every long value a message echoes. Headers may be renamed before
+// they are matched: by the optional Columns sheet (Columns.csv) and by
+// WithColumns; Term.Columns lists the renames applied.
+//
 // # Problems
 //
 // Readers and Validate never stop at the first mistake: they return a

@@ -77,9 +77,9 @@ func ReadITCBest(r io.Reader, name string) (map[string]ITCBest, error) {
 			errs.add(line, fmt.Sprintf("instance %q is already listed on line %d; keep one row", clip(b.Instance), prev.Line))
 			continue
 		}
-		best, ok := cttInt(errs, line, "best of "+clip(b.Instance), field(rec, "best"), 0)
+		best, ok := cttInt(errs, line, 0, "best of "+clip(b.Instance), field(rec, "best"), 0)
 		if lb := field(rec, "lower_bound"); lb != "" {
-			v, good := cttInt(errs, line, "lower_bound of "+clip(b.Instance), lb, 0)
+			v, good := cttInt(errs, line, 0, "lower_bound of "+clip(b.Instance), lb, 0)
 			ok = ok && good
 			b.LowerBound = v
 		}

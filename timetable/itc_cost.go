@@ -1,5 +1,7 @@
 package timetable
 
+import "math"
+
 // ITCParts is the competition's soft cost of a timetable by component,
 // each already multiplied by its weight (Di Gaspero, McCollum, Schaerf 2007,
 // "soft constraints"):
@@ -21,8 +23,26 @@ type ITCParts struct {
 }
 
 // Total is the sum of the parts (the competition's objective).
+// A sum that does not fit an int is clamped to math.MaxInt.
 func (p ITCParts) Total() int {
-	return p.RoomCapacity + p.MinWorkingDays + p.CurriculumCompactness + p.RoomStability
+	return addClamped(addClamped(p.RoomCapacity, p.MinWorkingDays), addClamped(p.CurriculumCompactness, p.RoomStability))
+}
+
+// addClamped adds two non-negative costs, clamping at math.MaxInt instead
+// of wrapping to a negative number.
+func addClamped(a, b int) int {
+	if a > math.MaxInt-b {
+		return math.MaxInt
+	}
+	return a + b
+}
+
+// mulClamped multiplies two non-negative numbers, clamping at math.MaxInt.
+func mulClamped(a, b int) int {
+	if a != 0 && b > math.MaxInt/a {
+		return math.MaxInt
+	}
+	return a * b
 }
 
 // ITCCost evaluates the competition's soft cost of s directly from its
@@ -53,8 +73,8 @@ func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
 			continue
 		}
 		sec := &t.Sections[si]
-		if over := sec.Size - t.Rooms[ri].Capacity; over > 0 {
-			parts.RoomCapacity += ITCWeightRoomCapacity * over
+		if capacity := max(t.Rooms[ri].Capacity, 0); sec.Size > capacity {
+			parts.RoomCapacity = addClamped(parts.RoomCapacity, mulClamped(ITCWeightRoomCapacity, sec.Size-capacity))
 		}
 		if days[si] == nil {
 			days[si], rooms[si] = map[int]bool{}, map[string]bool{}
@@ -69,7 +89,7 @@ func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
 	}
 	for si, sec := range t.Sections {
 		if missing := sec.MinDays - len(days[si]); missing > 0 {
-			parts.MinWorkingDays += ITCWeightMinWorkingDays * missing
+			parts.MinWorkingDays = addClamped(parts.MinWorkingDays, mulClamped(ITCWeightMinWorkingDays, missing))
 		}
 		if len(rooms[si]) > 1 {
 			parts.RoomStability += ITCWeightRoomStability * (len(rooms[si]) - 1)
@@ -83,7 +103,7 @@ func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
 			before := p > 0 && g.adjacent(p-1, p) && b[p-1] > 0
 			after := p+1 < nP && g.adjacent(p, p+1) && b[p+1] > 0
 			if !before && !after {
-				parts.CurriculumCompactness += ITCWeightCompactness * b[p]
+				parts.CurriculumCompactness = addClamped(parts.CurriculumCompactness, mulClamped(ITCWeightCompactness, b[p]))
 			}
 		}
 	}

@@ -1,7 +1,11 @@
 package timetable
 
 import (
+	"math"
+	"math/big"
 	"math/rand/v2"
+	"slices"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -184,4 +188,30 @@ func BenchmarkITCHardViolations(b *testing.B) {
 	for b.Loop() {
 		ITCHardViolations(term, s)
 	}
+}
+
+// TestITCCostNoOverflow gives a course 2^63-1 students (a Term built in
+// code; the reader refuses such a number) and checks the cost saturates at
+// math.MaxInt instead of wrapping negative; the true sum, computed with
+// math/big, is larger than any int.
+func TestITCCostNoOverflow(t *testing.T) {
+	term := readTiny(t)
+	term.Sections[term.SectionIndex()["alg"]].Size = math.MaxInt
+	s := readTinySolution(t, term, "tiny-a")
+	total, parts := ITCCost(term, s)
+	over := new(big.Int).Mul(big.NewInt(2), new(big.Int).Sub(big.NewInt(math.MaxInt64), big.NewInt(30))) // two meetings of alg, rooms 35 and 25
+	require.False(t, over.IsInt64(), "the true room-capacity cost does not fit an int")
+	assert.Equal(t, math.MaxInt, parts.RoomCapacity)
+	assert.Equal(t, math.MaxInt, total)
+}
+
+// TestReadCTTNumberColumn checks that an out-of-range number is refused
+// with its file:line:col position.
+func TestReadCTTNumberColumn(t *testing.T) {
+	src := strings.Join(withHeader("COURSES:", "a t 1 1 9223372036854775807", "b t 1 1 1", "ROOMS:", "r 1", "CURRICULA:", "q 1 a", "UNAVAILABILITY_CONSTRAINTS:", "END."), "\n")
+	_, err := ReadCTT(strings.NewReader(src), "x.ctt")
+	require.Error(t, err)
+	lines := strings.Split(src, "\n")
+	line := slices.Index(lines, "a t 1 1 9223372036854775807") + 1
+	assert.Contains(t, err.Error(), "x.ctt:"+itoa(line)+":9: students of course a is 9223372036854775807; it must be from 0 to 1000000")
 }

@@ -17,13 +17,18 @@ var ErrITCFormat = errors.New("not valid in the ITC-2007 curriculum-based course
 type ITCError struct {
 	File string // file name as given to the reader
 	Line int    // 1-based line number; 0 = the whole file
+	Col  int    // 1-based column of the field concerned; 0 = the whole line
 	Msg  string // what is wrong and what to do
 }
 
-// Error gives the documented text form "file:LINE: message".
+// Error gives the documented text form "file:LINE: message", or
+// "file:LINE:COL: message" when the field's column is known.
 func (e *ITCError) Error() string {
-	if e.Line <= 0 {
+	switch {
+	case e.Line <= 0:
 		return e.File + ": " + e.Msg
+	case e.Col > 0:
+		return e.File + ":" + strconv.Itoa(e.Line) + ":" + strconv.Itoa(e.Col) + ": " + e.Msg
 	}
 	return e.File + ":" + strconv.Itoa(e.Line) + ": " + e.Msg
 }
@@ -70,8 +75,11 @@ type itcErrs struct {
 	list ITCErrors
 }
 
-func (c *itcErrs) add(line int, msg string) {
-	c.list = append(c.list, &ITCError{File: c.file, Line: line, Msg: msg})
+func (c *itcErrs) add(line int, msg string) { c.addAt(line, 0, msg) }
+
+// addAt records a problem at a line and column (0 = the whole line).
+func (c *itcErrs) addAt(line, col int, msg string) {
+	c.list = append(c.list, &ITCError{File: c.file, Line: line, Col: col, Msg: msg})
 }
 
 // err returns the sorted list, or nil when nothing was wrong.

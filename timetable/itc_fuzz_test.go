@@ -65,6 +65,7 @@ func FuzzReadCTT(f *testing.F) {
 	f.Add([]byte("name:  A b  \ncourses: +1\nrooms: 01\ndays: 7\nperiods_per_day: 96\ncurricula: 0\nconstraints: 2\nCOURSES:\nc t 3 9 0\nROOMS:\nr 0\nCURRICULA:\nUNAVAILABILITY_CONSTRAINTS:\nc 6 95\nc 6 95\nEND.\n"))
 	f.Add([]byte("Name: X\nCourses: 1\nCOURSES:\nc t 1\nEND.\ntrailing\n"))
 	f.Add([]byte(""))
+	f.Add([]byte("Name: X\nCourses: 1\nRooms: 1\nDays: 1\nPeriods_per_day: 1\nCurricula: 1\nConstraints: 0\nCOURSES:\nc t 1 1 9223372036854775807\nROOMS:\nr 1000000\nCURRICULA:\nq 1 c\nUNAVAILABILITY_CONSTRAINTS:\nEND.\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		term, err := ReadCTT(bytes.NewReader(data), "fuzz.ctt")
 		if err != nil {
@@ -73,6 +74,19 @@ func FuzzReadCTT(f *testing.F) {
 			}
 			checkITCErr(t, err, "fuzz.ctt", data)
 			return
+		}
+		// Every meeting in the first room at the first period: the cost
+		// sums stay non-negative whatever numbers were read.
+		if len(term.Rooms) > 0 && len(term.Periods) > 0 {
+			var s Schedule
+			for _, sec := range term.Sections {
+				for m := 1; m <= sec.Meetings; m++ {
+					s.Placements = append(s.Placements, Placement{Section: sec.ID, Meeting: m, Room: term.Rooms[0].ID})
+				}
+			}
+			if total, _ := ITCCost(term, &s); total < 0 {
+				t.Fatalf("negative ITC cost %d", total)
+			}
 		}
 		var first bytes.Buffer
 		if err := WriteCTT(&first, term); err != nil {

@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode"
 )
 
 // The .ctt format is the instance format of the curriculum-based course
@@ -71,6 +72,15 @@ const ITCLevel = 1
 type cttLine struct {
 	line   int
 	fields []string
+	cols   []int // 1-based column of each field; nil for header values
+}
+
+// col is the column of field i, or 0 when unknown.
+func (l cttLine) col(i int) int {
+	if i < len(l.cols) {
+		return l.cols[i]
+	}
+	return 0
 }
 
 // cttFile is a .ctt file as read, before its records are resolved.
@@ -143,7 +153,7 @@ func scanCTT(r io.Reader, errs *itcErrs) *cttFile {
 			scanCTTHeader(f, n, text, errs)
 			continue
 		}
-		f.records[section] = append(f.records[section], cttLine{line: n, fields: strings.Fields(text)})
+		f.records[section] = append(f.records[section], cttLine{line: n, fields: strings.Fields(text), cols: fieldCols(text)})
 	}
 	if err := sc.Err(); err != nil {
 		errs.add(n+1, "cannot read the line: "+err.Error()+"; lines of a .ctt file are short, so check this is the right file")
@@ -197,27 +207,52 @@ func scanCTTHeader(f *cttFile, n int, text string, errs *itcErrs) {
 	f.header[canon] = cttLine{line: n, fields: []string{val}}
 }
 
-// clip shortens text quoted in an error message.
+// clip shortens text quoted in an error message, as Quote does.
 func clip(s string) string {
-	const max = 40
-	if len(s) <= max {
-		return s
-	}
-	return s[:max] + "..."
+	short, _ := shorten(s)
+	return short
 }
 
-// cttInt parses a whole number field of at least min, reporting problems.
-func cttInt(errs *itcErrs, line int, what, s string, min int) (int, bool) {
+// maxITCNumber bounds every number of a benchmark file (students, capacities,
+// counts, days, periods, costs): the published instances stay far below
+// it, and with it no cost sum can overflow.
+const maxITCNumber = maxCount
+
+// cttInt parses a whole number field from min to maxITCNumber at line and
+// col (0 when unknown), reporting problems.
+func cttInt(errs *itcErrs, line, col int, what, s string, min int) (int, bool) {
 	v, err := strconv.Atoi(s)
-	if err != nil {
-		errs.add(line, fmt.Sprintf("%s %q is not a whole number; write digits only", what, clip(s)))
+	if err != nil && !isDigitRun(s) {
+		errs.addAt(line, col, fmt.Sprintf("%s %q is not a whole number; write digits only", what, clip(s)))
 		return 0, false
 	}
-	if v < min {
-		errs.add(line, fmt.Sprintf("%s is %d; it must be at least %d", what, v, min))
+	if err != nil || v < min || v > maxITCNumber {
+		errs.addAt(line, col, fmt.Sprintf("%s is %s; it must be from %d to %d", what, clip(s), min, maxITCNumber))
 		return 0, false
 	}
 	return v, true
+}
+
+// isDigitRun reports whether s is an optionally signed run of digits.
+func isDigitRun(s string) bool {
+	s = strings.TrimPrefix(strings.TrimPrefix(s, "-"), "+")
+	return s != "" && strings.Trim(s, "0123456789") == ""
+}
+
+// fieldCols gives the 1-based column (in characters) of each field of
+// text, as strings.Fields splits it.
+func fieldCols(text string) []int {
+	var cols []int
+	col, in := 0, false
+	for _, r := range text {
+		col++
+		space := unicode.IsSpace(r)
+		if !space && !in {
+			cols = append(cols, col)
+		}
+		in = !space
+	}
+	return cols
 }
 
 // cttHeader holds the header's numbers.
@@ -247,7 +282,7 @@ func readCTTHeader(f *cttFile, errs *itcErrs) (cttHeader, bool) {
 	h.name = f.header["Name"].fields[0]
 	num := func(key string, min, max int) int {
 		l := f.header[key]
-		v, good := cttInt(errs, l.line, key, l.fields[0], min)
+		v, good := cttInt(errs, l.line, 0, key, l.fields[0], min)
 		if good && v > max {
 			errs.add(l.line, fmt.Sprintf("%s is %d; at most %d is supported", key, v, max))
 			good = false
@@ -347,9 +382,9 @@ func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string
 			continue
 		}
 		id, teacher := r.fields[0], r.fields[1]
-		meetings, ok1 := cttInt(errs, r.line, "meetings of course "+clip(id), r.fields[2], 1)
-		minDays, ok2 := cttInt(errs, r.line, "min_working_days of course "+clip(id), r.fields[3], 0)
-		students, ok3 := cttInt(errs, r.line, "students of course "+clip(id), r.fields[4], 0)
+		meetings, ok1 := cttInt(errs, r.line, r.col(2), "meetings of course "+clip(id), r.fields[2], 1)
+		minDays, ok2 := cttInt(errs, r.line, r.col(3), "min_working_days of course "+clip(id), r.fields[3], 0)
+		students, ok3 := cttInt(errs, r.line, r.col(4), "students of course "+clip(id), r.fields[4], 0)
 		if _, dup := index[id]; dup {
 			errs.add(r.line, fmt.Sprintf("course %q is already defined on line %d; course IDs must be unique", clip(id), lineOf[id]))
 			continue
@@ -382,7 +417,7 @@ func cttRoomList(t *Term, recs []cttLine, name string, errs *itcErrs) {
 			continue
 		}
 		id := r.fields[0]
-		capacity, ok := cttInt(errs, r.line, "capacity of room "+clip(id), r.fields[1], 0)
+		capacity, ok := cttInt(errs, r.line, r.col(1), "capacity of room "+clip(id), r.fields[1], 0)
 		if prev, dup := seen[id]; dup {
 			errs.add(r.line, fmt.Sprintf("room %q is already defined on line %d; room IDs must be unique", clip(id), prev))
 			continue
@@ -404,7 +439,7 @@ func cttCohorts(t *Term, recs []cttLine, courses map[string]int, name string, er
 			continue
 		}
 		id := r.fields[0]
-		n, ok := cttInt(errs, r.line, "number of courses of curriculum "+clip(id), r.fields[1], 0)
+		n, ok := cttInt(errs, r.line, r.col(1), "number of courses of curriculum "+clip(id), r.fields[1], 0)
 		if ok && n != len(r.fields)-2 {
 			errs.add(r.line, fmt.Sprintf("curriculum %q says it has %d courses but lists %d; correct the count or the list", clip(id), n, len(r.fields)-2))
 			ok = false
@@ -448,8 +483,8 @@ func cttUnavailable(t *Term, recs []cttLine, courses map[string]int, h cttHeader
 			continue
 		}
 		c := r.fields[0]
-		day, ok1 := cttInt(errs, r.line, "day", r.fields[1], 0)
-		slot, ok2 := cttInt(errs, r.line, "period", r.fields[2], 0)
+		day, ok1 := cttInt(errs, r.line, r.col(1), "day", r.fields[1], 0)
+		slot, ok2 := cttInt(errs, r.line, r.col(2), "period", r.fields[2], 0)
 		if ok1 && day >= h.days {
 			errs.add(r.line, fmt.Sprintf("day %d is outside the week: days are numbered 0 to %d (Days: %d)", day, h.days-1, h.days))
 			ok1 = false

@@ -165,9 +165,11 @@ func TestReadCTTErrors(t *testing.T) {
 	}{
 		{"course with 4 fields", body([]string{"!a t1 2 1", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"5 fields"}},
 		{"meetings not a number", body([]string{"!a t1 two 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"not a whole number"}},
-		{"zero meetings", body([]string{"!a t1 0 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"at least 1"}},
+		{"zero meetings", body([]string{"!a t1 0 1 10", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"it must be from 1 to 1000000"}},
+		{"students beyond int64", body([]string{"!a t1 1 1 99999999999999999999", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"students of course a is 99999999999999999999; it must be from 0 to 1000000"}},
+		{"students 2^63-1", body([]string{"!a t1 1 1 9223372036854775807", "b t2 1 1 10"}, okRooms, okCur, okUnav), []string{"students of course a is 9223372036854775807"}},
 		{"duplicate course", body([]string{"a t1 2 1 10", "!a t2 1 1 10"}, okRooms, []string{"q 1 a"}, okUnav), []string{"already defined on line 10"}},
-		{"negative capacity", body(okCourses, []string{"!r -3"}, okCur, okUnav), []string{"at least 0"}},
+		{"negative capacity", body(okCourses, []string{"!r -3"}, okCur, okUnav), []string{"it must be from 0 to 1000000"}},
 		{"curriculum count wrong", body(okCourses, okRooms, []string{"!q 3 a b"}, okUnav), []string{"says it has 3 courses but lists 2"}},
 		{"curriculum unknown course", body(okCourses, okRooms, []string{"!q 2 a zz"}, okUnav), []string{"not in COURSES"}},
 		{"curriculum repeats a course", body(okCourses, okRooms, []string{"!q 2 a a"}, okUnav), []string{"twice"}},

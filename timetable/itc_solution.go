@@ -93,8 +93,8 @@ func ReadITCSolution(r io.Reader, name string, t *Term) (*Schedule, error) {
 			errs.add(n, fmt.Sprintf("room %q is not in the instance; check the solution belongs to this instance", clip(f[1])))
 			ok = false
 		}
-		day, ok1 := cttInt(errs, n, "day", f[2], 0)
-		slot, ok2 := cttInt(errs, n, "period", f[3], 0)
+		day, ok1 := cttInt(errs, n, 0, "day", f[2], 0)
+		slot, ok2 := cttInt(errs, n, 0, "period", f[3], 0)
 		if !ok || !ok1 || !ok2 {
 			continue
 		}

@@ -103,7 +103,7 @@ func TestReadITCSolutionErrors(t *testing.T) {
 		{"unknown room", "alg big 0 0\n\n!alg hall 0 1\n", "room \"hall\""},
 		{"day outside", "!alg big 2 0\n", "outside the grid"},
 		{"period outside", "!alg big 0 3\n", "outside the grid"},
-		{"negative day", "!alg big -1 0\n", "at least 0"},
+		{"negative day", "!alg big -1 0\n", "it must be from 0 to 1000000"},
 		{"not a number", "!alg big x 0\n", "not a whole number"},
 	}
 	for _, tc := range tests {

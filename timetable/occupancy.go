@@ -152,14 +152,6 @@ func (ps occSet) addRange(first, last int) {
 	}
 }
 
-// count is the number of periods in the set.
-func (ps occSet) count() int {
-	n := 0
-	for _, w := range ps {
-		n += bits.OnesCount64(w)
-	}
-	return n
-}
 
 // commonCount is |ps ∩ o|.
 func (ps occSet) commonCount(o occSet) int {

@@ -22,7 +22,7 @@ func (u *unreadable) Is(target error) bool { return target == ErrUnreadable }
 // unreadablef makes an error wrapping ErrUnreadable whose text is exactly
 // the formatted sentence.
 func unreadablef(format string, args ...any) error {
-	return &unreadable{msg: fmt.Sprintf(format, args...)}
+	return &unreadable{msg: fmt.Sprintf(format, shortArgs(args)...)}
 }
 
 // Position says where in a workbook a problem is: a sheet (or CSV file stem),
@@ -101,7 +101,7 @@ type Problems []Problem
 
 // add appends a problem.
 func (ps *Problems) add(pos Position, sev Severity, format string, args ...any) {
-	*ps = append(*ps, Problem{Pos: pos, Severity: sev, Msg: fmt.Sprintf(format, args...)})
+	*ps = append(*ps, Problem{Pos: pos, Severity: sev, Msg: fmt.Sprintf(format, shortArgs(args)...)})
 }
 
 // errorf appends an error.

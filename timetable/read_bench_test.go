@@ -137,3 +137,17 @@ func TestSyntheticTermReads(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkCheckPackage measures the independent pass over every sheet's
+// XML that runs before the spreadsheet library reads a workbook, on the
+// same synthetic 2,000-section workbook as BenchmarkLoad.
+func BenchmarkCheckPackage(b *testing.B) {
+	data := xlsxBytes(b, syntheticSheets(2000, 7))
+	b.ReportAllocs()
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := checkPackage(data, "synthetic.xlsx"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -77,19 +77,19 @@ func ParseClock(s string) (Clock, error) {
 	if !strings.Contains(s, ":") {
 		v, err := strconv.ParseFloat(s, 64)
 		if err != nil || math.IsNaN(v) || v < 0 || v >= 1 {
-			return 0, fmt.Errorf("%q is not a time — write it as HH:MM on the 24-hour clock, e.g. 09:00 or 13:30", s)
+			return 0, fmt.Errorf("%s is not a time — write it as HH:MM on the 24-hour clock, e.g. 09:00 or 13:30", Quote(s))
 		}
 		return Clock(math.Round(v * 24 * 60)), nil
 	}
 	parts := strings.Split(s, ":")
 	if len(parts) > 3 || len(parts[0]) < 1 || len(parts[0]) > 2 || len(parts[1]) != 2 ||
 		(len(parts) == 3 && parts[2] != "00") {
-		return 0, fmt.Errorf("%q is not a time — write it as HH:MM on the 24-hour clock, e.g. 09:00 or 13:30", s)
+		return 0, fmt.Errorf("%s is not a time — write it as HH:MM on the 24-hour clock, e.g. 09:00 or 13:30", Quote(s))
 	}
 	h, err1 := strconv.Atoi(parts[0])
 	m, err2 := strconv.Atoi(parts[1])
 	if err1 != nil || err2 != nil || h < 0 || m < 0 || m > 59 || h > 24 || (h == 24 && m != 0) {
-		return 0, fmt.Errorf("%q is not a time of day — write it as HH:MM between 00:00 and 24:00", s)
+		return 0, fmt.Errorf("%s is not a time of day — write it as HH:MM between 00:00 and 24:00", Quote(s))
 	}
 	return Clock(h*60 + m), nil
 }
@@ -110,7 +110,7 @@ func parseDate(s string, date1904 bool) (time.Time, error) {
 			return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC), nil
 		}
 	}
-	return time.Time{}, fmt.Errorf("%q is not a date — write it as YYYY-MM-DD, e.g. 2027-09-13, or use a date cell", s)
+	return time.Time{}, fmt.Errorf("%s is not a date — write it as YYYY-MM-DD, e.g. 2027-09-13, or use a date cell", Quote(s))
 }
 
 // parseWhole reads a whole number between lo and hi. Spreadsheets may store
@@ -121,10 +121,10 @@ func parseWhole(s string, lo, hi int) (int, error) {
 	if err != nil {
 		v, ferr := strconv.ParseFloat(s, 64)
 		if ferr != nil || math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v-math.Round(v)) > 1e-9 {
-			return 0, fmt.Errorf("%q is not a whole number", s)
+			return 0, fmt.Errorf("%s is not a whole number", Quote(s))
 		}
 		if v < float64(lo) || v > float64(hi) {
-			return 0, fmt.Errorf("%s is out of range — use a whole number from %d to %d", s, lo, hi)
+			return 0, fmt.Errorf("%s is out of range — use a whole number from %d to %d", Quote(s), lo, hi)
 		}
 		n = int(math.Round(v))
 	}
@@ -190,7 +190,7 @@ func parseWeeks(s string, all WeekSet) (WeekSet, error) {
 		a, err1 := parseWhole(lo, 1, 64)
 		b, err2 := parseWhole(hi, 1, 64)
 		if err1 != nil || err2 != nil || b < a {
-			return 0, fmt.Errorf("%q is not a list of teaching weeks — write all, odd, even or weeks and ranges from 1 to 64 such as 1-4, 6, 9-12", item)
+			return 0, fmt.Errorf("%s is not a list of teaching weeks — write all, odd, even or weeks and ranges from 1 to 64 such as 1-4, 6, 9-12", Quote(item))
 		}
 		for n := a; n <= b; n++ {
 			w |= 1 << (n - 1)
@@ -208,7 +208,7 @@ func parseStrength(s string) (hard bool, weight int, err error) {
 	}
 	w, err := parseWhole(s, 0, 1_000_000)
 	if err != nil {
-		return false, 0, fmt.Errorf("%q is neither hard nor a weight — write hard, or a whole number from 0 to 1000000 for a preference", strings.TrimSpace(s))
+		return false, 0, fmt.Errorf("%s is neither hard nor a weight — write hard, or a whole number from 0 to 1000000 for a preference", Quote(strings.TrimSpace(s)))
 	}
 	return false, w, nil
 }
@@ -216,7 +216,7 @@ func parseStrength(s string) (hard bool, weight int, err error) {
 // parseFixed reads one fixed meeting "Tue 10:00 R204" (room optional).
 func parseFixed(s string) (Fixed, error) {
 	f := strings.Fields(s)
-	bad := fmt.Errorf("%q is not a fixed meeting — write day, start time and optionally a room, e.g. Tue 10:00 R204", s)
+	bad := fmt.Errorf("%s is not a fixed meeting — write day, start time and optionally a room, e.g. Tue 10:00 R204", Quote(s))
 	if len(f) < 2 {
 		return Fixed{}, bad
 	}

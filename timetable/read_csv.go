@@ -23,8 +23,10 @@ type csvFile struct {
 // named after the sheet ("Sections.csv", any case), with the same headers as
 // the workbook. Problems name the file stem as the sheet ("Sections!D14",
 // where the row is the line of the file). The error wraps ErrUnreadable only
-// when the folder cannot be read or holds no CSV files.
-func ReadCSVDir(dir string) (*Term, Problems, error) {
+// when the folder cannot be read or holds no CSV files. Options such as
+// WithColumns change how it reads; a Columns.csv file renames columns like
+// the workbook's Columns sheet.
+func ReadCSVDir(dir string, opts ...LoadOption) (*Term, Problems, error) {
 	entries, err := os.ReadDir(dir)
 	if err != nil {
 		return nil, nil, unreadablef("the folder %s cannot be read (%v) — check the path and its permissions", dir, err)
@@ -39,24 +41,27 @@ func ReadCSVDir(dir string) (*Term, Problems, error) {
 		if err != nil {
 			return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
 		}
+		if !fi.Mode().IsRegular() {
+			return nil, nil, notRegular(p, fi)
+		}
 		if fi.Size() > maxFileBytes {
 			return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a term file may be — remove unneeded rows and try again", p, fi.Size()>>20, maxFileBytes>>20)
 		}
-		data, err := os.ReadFile(p)
+		data, err := readAtMost(p, maxFileBytes)
 		if err != nil {
-			return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
+			return nil, nil, err
 		}
 		files = append(files, csvFile{name: e.Name(), data: data})
 	}
 	if len(files) == 0 {
 		return nil, nil, unreadablef("the folder %s holds no .csv files — put one CSV file per sheet in it (Term.csv, Periods.csv, Rooms.csv, ...)", dir)
 	}
-	t, ps := readCSVFiles(files)
+	t, ps := readCSVFiles(files, newLoadConfig(opts))
 	return t, ps, nil
 }
 
 // readCSVFiles decodes CSV files into raw sheets and builds the term.
-func readCSVFiles(files []csvFile) (*Term, Problems) {
+func readCSVFiles(files []csvFile, cfg *loadConfig) (*Term, Problems) {
 	sort.Slice(files, func(i, j int) bool { return files[i].name < files[j].name })
 	var sheets []*rawSheet
 	var ps Problems
@@ -70,7 +75,7 @@ func readCSVFiles(files []csvFile) (*Term, Problems) {
 			sheets = append(sheets, rs)
 		}
 	}
-	t, more := buildTerm(sheets, false)
+	t, more := buildTerm(sheets, false, cfg)
 	ps = append(ps, more...)
 	ps.Sort()
 	return t, ps
@@ -117,9 +122,28 @@ func readCSV(data []byte, sheet string) (*rawSheet, *Problem) {
 			return nil, &Problem{Pos: Position{Sheet: sheet}, Severity: Error,
 				Msg: "the file has more than 1000000 lines — a term file holds far fewer; delete unused rows"}
 		}
+		unguardCSVRecord(rec) // the quote SafeCSVCell put in front of formula-like cells
 		if !blankRow(rec) {
 			rs.rows = append(rs.rows, rec)
 			rs.line = append(rs.line, line)
 		}
 	}
+}
+
+// readAtMost reads a regular file, refusing it when it holds more than
+// limit bytes by the time it is read (it may grow after the size check).
+func readAtMost(p string, limit int64) ([]byte, error) {
+	f, err := os.Open(p)
+	if err != nil {
+		return nil, unreadablef("%s cannot be read (%v) — check its permissions", p, err)
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, limit+1))
+	if err != nil {
+		return nil, unreadablef("%s cannot be read (%v) — check the file and try again", p, err)
+	}
+	if int64(len(data)) > limit {
+		return nil, unreadablef("%s is larger than the %d MB a term file may be — remove unneeded rows and try again", p, limit>>20)
+	}
+	return data, nil
 }

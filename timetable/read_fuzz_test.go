@@ -84,7 +84,7 @@ func FuzzReadCSV(f *testing.F) {
 		set := csvFiles(base)
 		k := int(which) % len(set)
 		set[k].data = data
-		term, ps := readCSVFiles(set)
+		term, ps := readCSVFiles(set, nil)
 		checkReadResult(t, term, ps, nil)
 		lines := bytes.Count(data, []byte("\n")) + 1
 		stem := strings.TrimSuffix(set[k].name, ".csv")
@@ -93,7 +93,7 @@ func FuzzReadCSV(f *testing.F) {
 				t.Fatalf("problem names row %d of a %d-line file: %s", p.Pos.Row, lines, p)
 			}
 		}
-		_, ps2 := readCSVFiles(csvFiles2(set))
+		_, ps2 := readCSVFiles(csvFiles2(set), nil)
 		if !reflect.DeepEqual(ps, ps2) {
 			t.Fatal("reading the same files twice gave different problems")
 		}

@@ -3,6 +3,7 @@ package timetable
 import (
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // Limits that keep a damaged or hostile file from exhausting the machine.
@@ -10,6 +11,26 @@ const (
 	maxFileBytes = 200 << 20 // largest workbook or CSV file read: 200 MB
 	maxSheetRows = 1_000_000 // most rows read from one sheet or CSV file
 )
+
+// Cell length limits, in characters (docs/workbook.md, "Size limits").
+const (
+	// MaxCellChars bounds a cell holding one value: an ID, a name, a number,
+	// a day or a time, and a header. No real ID or name comes near it.
+	MaxCellChars = 1_000
+	// MaxTextChars bounds a cell of free text or a list (a title, a reason,
+	// a list of sections): the most a spreadsheet cell holds, 32,767
+	// characters (Microsoft, "Excel specifications and limits").
+	MaxTextChars = 32_767
+)
+
+// longColumns are the columns that may hold up to MaxTextChars.
+var longColumns = map[string][]string{
+	shTerm:        {"Value"},
+	shRooms:       {"Features"},
+	shSections:    {"Title", "Staff", "Cohorts", "Needs", "Rooms", "Fixed", "Weeks"},
+	shUnavailable: {"Reason"},
+	shRelations:   {"Sections"},
+}
 
 // sheetSpec describes one sheet of the layout in docs/workbook.md.
 type sheetSpec struct {
@@ -99,6 +120,11 @@ var sheetSpecs = []sheetSpec{
 		"Whole number from 0 (off) upwards.",
 		"Priority level (optional); higher levels are minimised first.",
 	}},
+	{name: shColumns, cols: []string{colMapSheet, colMapTheir, colMapOur}, need: []string{colMapSheet, colMapTheir, colMapOur}, notes: []string{
+		"Optional. The sheet whose column is renamed, e.g. Sections.",
+		"The header as your export has it, e.g. Crs Nbr.",
+		"Our column it holds, e.g. Section.",
+	}},
 }
 
 // specFor finds the spec of a sheet by name, in any case.
@@ -122,10 +148,12 @@ type rawSheet struct {
 
 // table is a sheet matched to its spec: which column holds which header.
 type table struct {
-	spec  *sheetSpec
-	sheet string         // name as the registrar sees it
-	col   map[string]int // canonical header (normalised) -> 0-based column
-	rows  []tableRow     // non-blank data rows
+	spec       *sheetSpec
+	sheet      string                // name as the registrar sees it
+	col        map[string]int        // canonical header (normalised) -> 0-based column
+	rows       []tableRow            // non-blank data rows
+	renamed    []ColumnRename        // renames applied, with From as the header reads, in column order
+	renamedCol map[int]*ColumnRename // 0-based column -> the rename that gave its header
 }
 
 // tableRow is one non-blank data row.
@@ -135,9 +163,10 @@ type tableRow struct {
 }
 
 // newTable matches the header row of raw against spec, reporting missing
-// required headers, duplicate and unknown headers.
-func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems) *table {
-	t := &table{spec: spec, sheet: raw.name, col: map[string]int{}}
+// required headers, duplicate and unknown headers. ren renames headers
+// (normalised header as the file has it -> rename) before they are matched.
+func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems, ren map[string]*ColumnRename) *table {
+	t := &table{spec: spec, sheet: raw.name, col: map[string]int{}, renamedCol: map[int]*ColumnRename{}}
 	known := map[string]string{}
 	for _, c := range spec.cols {
 		known[normHeader(c)] = c
@@ -158,38 +187,90 @@ func newTable(raw *rawSheet, spec *sheetSpec, ps *Problems) *table {
 		ps.warnf(Position{Sheet: raw.name, Row: hdrNum}, "the headers are in row %d, not row 1 — rows above them are ignored", hdrNum)
 	}
 	for i, h := range raw.rows[headerRow] {
+		pos := Position{Sheet: raw.name, Row: hdrNum, Col: colLetter(i)}
+		if len(h) > MaxCellChars && utf8.RuneCountInString(h) > MaxCellChars {
+			ps.errorf(pos, "the header holds %s characters, more than the %s a header may hold — write one of %s", groupThousands(utf8.RuneCountInString(h)), groupThousands(MaxCellChars), quoteList(spec.cols))
+			continue
+		}
 		n := normHeader(h)
 		if n == "" {
 			continue
 		}
-		pos := Position{Sheet: raw.name, Row: hdrNum, Col: colLetter(i)}
+		rn := ren[n]
+		if rn != nil {
+			n = normHeader(rn.To)
+		}
 		if _, ok := known[n]; !ok {
 			ps.warnf(pos, "column %q is not part of the %s sheet and is ignored — the columns are %s", strings.TrimSpace(h), spec.name, quoteList(spec.cols))
 			continue
 		}
-		if _, dup := t.col[n]; dup {
-			ps.warnf(pos, "column %q appears twice — only the first (column %s) is read", strings.TrimSpace(h), colLetter(t.col[n]))
+		if prev, dup := t.col[n]; dup {
+			if rn != nil || t.renamedCol[prev] != nil {
+				ps.errorf(pos, "column %q and column %s would both be read as %q (a rename on the Columns sheet) — delete one of the two columns or the rename", strings.TrimSpace(h), colLetter(prev), known[n])
+				continue
+			}
+			ps.warnf(pos, "column %q appears twice — only the first (column %s) is read", strings.TrimSpace(h), colLetter(prev))
 			continue
 		}
 		t.col[n] = i
+		if rn != nil {
+			applied := *rn
+			applied.From = strings.TrimSpace(h)
+			t.renamed = append(t.renamed, applied)
+			t.renamedCol[i] = rn
+		}
 	}
 	for _, c := range spec.need {
 		if _, ok := t.col[normHeader(c)]; !ok {
 			ps.errorf(Position{Sheet: raw.name, Row: hdrNum}, "the %s sheet has no %q column — add a column headed %q", raw.name, c, c)
 		}
 	}
+	limits := t.cellLimits(len(raw.rows[headerRow]))
 	for i := headerRow + 1; i < len(raw.rows); i++ {
 		if !blankRow(raw.rows[i]) {
-			t.rows = append(t.rows, tableRow{num: raw.line[i], cells: raw.rows[i]})
+			row := tableRow{num: raw.line[i], cells: raw.rows[i]}
+			capCells(row, raw.name, limits, ps)
+			t.rows = append(t.rows, row)
 		}
 	}
 	return t
 }
 
-// has reports whether the table has a column for header.
-func (t *table) has(header string) bool {
-	_, ok := t.col[normHeader(header)]
-	return ok
+// cellLimits gives the length limit of each of the first n columns
+// (columns beyond n get MaxTextChars: they are not read).
+func (t *table) cellLimits(n int) []int {
+	lim := make([]int, n)
+	for i := range lim {
+		lim[i] = MaxTextChars
+	}
+	for h, i := range t.col {
+		if i < n {
+			lim[i] = MaxCellChars
+			for _, long := range longColumns[t.spec.name] {
+				if normHeader(long) == h {
+					lim[i] = MaxTextChars
+				}
+			}
+		}
+	}
+	return lim
+}
+
+// capCells reports every cell of row longer than its limit and blanks it,
+// so that no later message echoes it and no record holds it.
+func capCells(row tableRow, sheet string, limits []int, ps *Problems) {
+	for i, c := range row.cells {
+		lim := MaxTextChars
+		if i < len(limits) {
+			lim = limits[i]
+		}
+		if len(c) > lim && utf8.RuneCountInString(c) > lim {
+			ps.errorf(Position{Sheet: sheet, Row: row.num, Col: colLetter(i)},
+				"the cell holds %s, more than the %s characters a cell of this column may hold — shorten it",
+				Quote(c), groupThousands(lim))
+			row.cells[i] = ""
+		}
+	}
 }
 
 // letter is the column letter of header, or "" when the column is absent.

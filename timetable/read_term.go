@@ -1,7 +1,6 @@
 package timetable
 
 import (
-	"fmt"
 	"sort"
 	"strings"
 	"time"
@@ -26,9 +25,9 @@ type termReader struct {
 
 // buildTerm turns the raw sheets of a workbook or CSV folder into a Term and
 // every problem found in it, validated and sorted.
-func buildTerm(sheets []*rawSheet, date1904 bool) (*Term, Problems) {
+func buildTerm(sheets []*rawSheet, date1904 bool, cfg *loadConfig) (*Term, Problems) {
 	r := &termReader{t: &Term{}, lay: newLayout(), date1904: date1904, tabs: map[string]*table{}}
-	r.match(sheets)
+	r.match(sheets, cfg)
 	r.readTerm()
 	r.readPeriods()
 	r.readRooms()
@@ -45,26 +44,86 @@ func buildTerm(sheets []*rawSheet, date1904 bool) (*Term, Problems) {
 }
 
 // match pairs sheets with specs and reports missing, repeated and unknown
-// sheets.
-func (r *termReader) match(sheets []*rawSheet) {
+// sheets. The Columns sheet is read first, so that its renames (with those
+// of cfg) apply to the headers of the other sheets.
+func (r *termReader) match(sheets []*rawSheet, cfg *loadConfig) {
+	var specs []*sheetSpec
 	for _, s := range sheets {
 		spec := specFor(s.name)
+		specs = append(specs, spec)
+		if spec != nil && spec.name == shColumns && r.tabs[shColumns] == nil {
+			r.addTable(s, spec, nil)
+		}
+	}
+	var renames ColumnMap
+	if t := r.tabs[shColumns]; t != nil {
+		renames = readColumnRows(t)
+	}
+	if cfg != nil {
+		renames = append(renames, cfg.columns...)
+	}
+	ren := checkColumns(renames, &r.ps)
+	for i, s := range sheets {
+		spec := specs[i]
 		if spec == nil {
 			r.ps.warnf(Position{Sheet: s.name}, "sheet %q is not part of the term workbook and is ignored — the sheets are %s", s.name, quoteList(specNames()))
 			continue
 		}
 		if prev, dup := r.tabs[spec.name]; dup {
-			r.ps.warnf(Position{Sheet: s.name}, "sheet %q repeats sheet %q and is ignored — merge them into one", s.name, prev.sheet)
+			if prev.sheet != s.name || spec.name != shColumns {
+				r.ps.warnf(Position{Sheet: s.name}, "sheet %q repeats sheet %q and is ignored — merge them into one", s.name, prev.sheet)
+			}
 			continue
 		}
-		t := newTable(s, spec, &r.ps)
-		r.tabs[spec.name] = t
-		r.lay.addTable(t)
+		r.addTable(s, spec, ren[spec.name])
 	}
+	r.reportRenames(ren)
 	for _, spec := range sheetSpecs {
 		if _, ok := r.tabs[spec.name]; !ok && spec.required {
 			r.ps.errorf(Position{Sheet: spec.name}, "the workbook has no %s sheet — add a sheet named %q with the headers %s", spec.name, spec.name, quoteList(spec.cols))
 		}
+	}
+}
+
+// addTable matches a raw sheet to its spec and records it.
+func (r *termReader) addTable(s *rawSheet, spec *sheetSpec, ren map[string]*ColumnRename) {
+	t := newTable(s, spec, &r.ps, ren)
+	r.tabs[spec.name] = t
+	r.lay.addTable(t)
+}
+
+// reportRenames records the renames applied, in workbook order, on the
+// Term, and warns about renames whose column no sheet has.
+func (r *termReader) reportRenames(ren map[string]map[string]*ColumnRename) {
+	used := map[*ColumnRename]bool{}
+	for _, spec := range sheetSpecs {
+		if t := r.tabs[spec.name]; t != nil {
+			r.t.Columns = append(r.t.Columns, t.renamed...)
+			for _, rn := range t.renamedCol {
+				used[rn] = true
+			}
+		}
+	}
+	var unused []*ColumnRename
+	for sheet, m := range ren {
+		if r.tabs[sheet] == nil {
+			continue // the missing sheet is reported (or optional)
+		}
+		for _, rn := range m {
+			if !used[rn] {
+				unused = append(unused, rn)
+			}
+		}
+	}
+	sort.Slice(unused, func(i, j int) bool {
+		a, b := unused[i], unused[j]
+		if a.Src.Row != b.Src.Row {
+			return a.Src.Row < b.Src.Row
+		}
+		return a.Sheet+"\x00"+a.From < b.Sheet+"\x00"+b.From
+	})
+	for _, rn := range unused {
+		r.ps.warnf(rn.at(rn.fromCol), "%sthe %s sheet has no column %q, so this rename is not used — correct the header or delete the row", rn.prefix(), rn.Sheet, rn.From)
 	}
 }
 
@@ -390,10 +449,8 @@ func (r *termReader) readRelations() {
 	r.rows(shRelations, func(t *table, row tableRow) {
 		kindText := t.get(row, "Kind")
 		var kind RelationKind
-		for _, k := range RelationKinds {
-			if normWords(kindText) == k.Name {
-				kind = k.Kind
-			}
+		if i := pickChoice(relationChoices, kindText); i >= 0 {
+			kind = RelationKinds[i].Kind
 		}
 		if kind == 0 {
 			r.ps.errorf(t.pos(row, "Kind"), "Kind %q is not a relation — write one of %s", kindText, quoteList(relationNames()))
@@ -409,18 +466,17 @@ func (r *termReader) readRelations() {
 	})
 }
 
-func relationNames() []string {
-	out := make([]string, len(RelationKinds))
-	for i, k := range RelationKinds {
-		out[i] = k.Name
-	}
-	return out
-}
+// relationNames are the canonical spellings of the relation kinds.
+func relationNames() []string { return canonical(relationChoices) }
 
-func criterionNames() []string {
-	out := make([]string, len(Criteria))
-	for i, c := range Criteria {
-		out[i] = c.Name
+// criterionNames are the canonical names of the soft criteria.
+func criterionNames() []string { return canonical(criterionChoices) }
+
+// canonical lists the first spelling of each choice.
+func canonical(choices []choice) []string {
+	out := make([]string, len(choices))
+	for i, c := range choices {
+		out[i] = c[0]
 	}
 	return out
 }
@@ -430,10 +486,8 @@ func (r *termReader) readWeights() {
 	r.rows(shWeights, func(t *table, row tableRow) {
 		text := t.get(row, "Criterion")
 		var crit *Criterion
-		for i := range Criteria {
-			if normWords(text) == Criteria[i].Name {
-				crit = &Criteria[i]
-			}
+		if i := pickChoice(criterionChoices, text); i >= 0 {
+			crit = &Criteria[i]
 		}
 		if crit == nil {
 			r.ps.errorf(t.pos(row, "Criterion"), "Criterion %q is not known — write one of %s", text, quoteList(criterionNames()))
@@ -469,5 +523,5 @@ func subjectPrefix(src Source, kind, id string) string {
 	if src.Sheet != "" {
 		return ""
 	}
-	return fmt.Sprintf("%s %q: ", kind, id)
+	return kind + " " + Quote(id) + ": "
 }

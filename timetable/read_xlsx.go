@@ -1,7 +1,6 @@
 package timetable
 
 import (
-	"archive/zip"
 	"bytes"
 	"errors"
 	"fmt"
@@ -21,14 +20,12 @@ var (
 	encryptionInfo = []byte("E\x00n\x00c\x00r\x00y\x00p\x00t\x00i\x00o\x00n\x00I\x00n\x00f\x00o\x00")
 )
 
-// maxUnzipped bounds the unpacked size of a workbook (guards against zip bombs).
-const maxUnzipped = 2 << 30
-
 // Load reads a term from path: an .xlsx workbook, or a directory of CSV files
 // (one per sheet, named after the sheet). It returns the best Term that
 // could be read and every problem of the whole workbook, sorted; the error
 // is non-nil (and wraps ErrUnreadable) only when nothing could be read.
-func Load(path string) (*Term, Problems, error) {
+// Options such as WithColumns change how it reads.
+func Load(path string, opts ...LoadOption) (*Term, Problems, error) {
 	fi, err := os.Stat(path)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
@@ -37,7 +34,10 @@ func Load(path string) (*Term, Problems, error) {
 		return nil, nil, unreadablef("%s cannot be opened (%v) — check the path and its permissions", path, err)
 	}
 	if fi.IsDir() {
-		return ReadCSVDir(path)
+		return ReadCSVDir(path, opts...)
+	}
+	if !fi.Mode().IsRegular() {
+		return nil, nil, notRegular(path, fi)
 	}
 	if strings.EqualFold(filepath.Ext(path), ".csv") {
 		return nil, nil, unreadablef("%s is a single CSV file — give the folder that holds one CSV file per sheet (Term.csv, Periods.csv, ...)", path)
@@ -50,37 +50,47 @@ func Load(path string) (*Term, Problems, error) {
 		return nil, nil, unreadablef("%s cannot be opened (%v) — check its permissions", path, err)
 	}
 	defer f.Close()
-	return ReadWorkbook(f, filepath.Base(path))
+	return ReadWorkbook(f, filepath.Base(path), opts...)
 }
 
 // ReadWorkbook reads a term workbook in .xlsx form from r; name is used in
 // messages. Like Load it returns a best-effort Term with all problems, and an
 // error wrapping ErrUnreadable only when the bytes are not a readable
 // workbook (not an .xlsx file, damaged, password-protected, too large).
-func ReadWorkbook(r io.Reader, name string) (t *Term, ps Problems, err error) {
+func ReadWorkbook(r io.Reader, name string, opts ...LoadOption) (*Term, Problems, error) {
+	sheets, date1904, err := readWorkbookSheets(r, name)
+	if err != nil {
+		return nil, nil, err
+	}
+	t, ps := buildTerm(sheets, date1904, newLoadConfig(opts))
+	return t, ps, nil
+}
+
+// readWorkbookSheets reads, checks and unpacks an .xlsx workbook into raw
+// sheets, and says whether it uses the 1904 date base system.
+func readWorkbookSheets(r io.Reader, name string) (sheets []*rawSheet, date1904 bool, err error) {
 	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
 	if err != nil {
-		return nil, nil, unreadablef("%s could not be read (%v) — check the file and try again", name, err)
+		return nil, false, unreadablef("%s could not be read (%v) — check the file and try again", name, err)
 	}
 	if len(data) > maxFileBytes {
-		return nil, nil, unreadablef("%s is larger than the %d MB a term workbook may be — remove unneeded sheets or data and try again", name, maxFileBytes>>20)
+		return nil, false, unreadablef("%s is larger than the %d MB a term workbook may be — remove unneeded sheets or data and try again", name, maxFileBytes>>20)
 	}
 	if err := sniffWorkbook(data, name); err != nil {
-		return nil, nil, err
+		return nil, false, err
+	}
+	census, err := checkPackage(data, name)
+	if err != nil {
+		return nil, false, err
 	}
 	defer func() {
 		// The spreadsheet library may panic on malformed package parts; a
 		// damaged file must give a sentence, not a stack trace.
 		if rec := recover(); rec != nil {
-			t, ps, err = nil, nil, unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
+			sheets, date1904, err = nil, false, unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
 		}
 	}()
-	sheets, date1904, err := readXLSXSheets(data, name)
-	if err != nil {
-		return nil, nil, err
-	}
-	t, ps = buildTerm(sheets, date1904)
-	return t, ps, nil
+	return readXLSXSheets(data, name, census)
 }
 
 // sniffWorkbook refuses, with one sentence each, the common kinds of file
@@ -100,9 +110,6 @@ func sniffWorkbook(data []byte, name string) error {
 		}
 		return unreadablef("%s is not an .xlsx workbook — save the term as an Excel Workbook (.xlsx) and try again", name)
 	}
-	if _, err := zip.NewReader(bytes.NewReader(data), int64(len(data))); err != nil {
-		return unreadablef("%s is damaged or incomplete (it is not a complete .xlsx archive) — copy or download it again", name)
-	}
 	return nil
 }
 
@@ -119,10 +126,12 @@ func looksLikeText(data []byte) bool {
 
 // readXLSXSheets opens the package and returns every worksheet's raw cell
 // values (stored values, not display text) and whether the workbook uses
-// the 1904 date base system.
-func readXLSXSheets(data []byte, name string) ([]*rawSheet, bool, error) {
+// the 1904 date base system. census is what checkPackage counted in each
+// sheet; a sheet the library reads fewer rows of is refused.
+func readXLSXSheets(data []byte, name string, census map[string]sheetCensus) ([]*rawSheet, bool, error) {
 	f, err := excelize.OpenReader(bytes.NewReader(data), excelize.Options{
-		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 64 << 20,
+		// Sheets above 16 MB are unpacked to temporary files, not memory.
+		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
 	})
 	if err != nil {
 		if errors.Is(err, excelize.ErrWorkbookFileFormat) {
@@ -141,9 +150,9 @@ func readXLSXSheets(data []byte, name string) ([]*rawSheet, bool, error) {
 		return nil, false, unreadablef("%s has no worksheets — save the term workbook again", name)
 	}
 	for _, sheet := range list {
-		rs, err := readXLSXSheet(f, sheet)
+		rs, err := readXLSXSheet(f, sheet, census)
 		if err != nil {
-			return nil, false, unreadablef("%s: sheet %q %s", name, sheet, err.Error())
+			return nil, false, unreadablef("%s: the %s sheet %s", name, Quote(sheet), err.Error())
 		}
 		out = append(out, rs)
 	}
@@ -151,8 +160,9 @@ func readXLSXSheets(data []byte, name string) ([]*rawSheet, bool, error) {
 }
 
 // readXLSXSheet streams one sheet's rows, refusing sheets longer than
-// maxSheetRows.
-func readXLSXSheet(f *excelize.File, sheet string) (*rawSheet, error) {
+// maxSheetRows and sheets of which fewer rows were read than census counted
+// (the library stops without an error at damaged XML).
+func readXLSXSheet(f *excelize.File, sheet string, census map[string]sheetCensus) (*rawSheet, error) {
 	tooLong := fmt.Errorf("has more than %d rows — a term workbook holds far fewer; delete unused rows", maxSheetRows)
 	if dim, err := f.GetSheetDimension(sheet); err == nil {
 		_, last, _ := strings.Cut(dim, ":")
@@ -184,6 +194,9 @@ func readXLSXSheet(f *excelize.File, sheet string) (*rawSheet, error) {
 	if err := rows.Error(); err != nil {
 		return nil, fmt.Errorf("cannot be read (%s) — open and save the workbook again", oneLine(err))
 	}
+	if c, ok := census[sheet]; ok && n != c.lastRow {
+		return nil, fmt.Errorf("could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program, or restore it from a copy", n, c.lastRow)
+	}
 	return rs, nil
 }
 
@@ -191,4 +204,19 @@ func readXLSXSheet(f *excelize.File, sheet string) (*rawSheet, error) {
 func oneLine(err error) string {
 	s, _, _ := strings.Cut(err.Error(), "\n")
 	return s
+}
+
+// notRegular refuses a path that is neither a folder nor a regular file
+// (a device, a pipe, a socket): reading one could block or never end.
+func notRegular(path string, fi os.FileInfo) error {
+	what := "not a regular file"
+	switch m := fi.Mode(); {
+	case m&os.ModeNamedPipe != 0:
+		what = "a pipe (FIFO)"
+	case m&os.ModeDevice != 0 || m&os.ModeCharDevice != 0:
+		what = "a device"
+	case m&os.ModeSocket != 0:
+		what = "a socket"
+	}
+	return unreadablef("%s is %s, not a regular file — give the path of a term workbook (.xlsx) or of a folder of CSV files", path, what)
 }

@@ -102,7 +102,7 @@ func TestTooManyRows(t *testing.T) {
 		`<row r="1"><c r="A1" t="inlineStr"><is><t>Room</t></is></c></row>`+
 			`<row r="1000001"><c r="A1000001" t="inlineStr"><is><t>R1</t></is></c></row>`)
 	_, _, err := ReadWorkbook(bytes.NewReader(long), "long.xlsx")
-	assertOneSentence(t, err, `long.xlsx: sheet "Rooms" has more than 1000000 rows`)
+	assertOneSentence(t, err, `long.xlsx: the "Rooms" sheet has more than 1000000 rows`)
 }
 
 // withSheetXML returns a copy of the workbook whose worksheet part name has

@@ -16,8 +16,10 @@ type Schedule struct {
 }
 
 // Timetable sheet layout shared by the writer (export) and the reader
-// (ReadSchedule): one row per meeting, these headers in this order.
-var TimetableColumns = []string{"Section", "Title", "Meeting", "Day", "Start", "End", "Room", "Staff", "Cohorts"}
+// (ReadSchedule): one row per meeting, these headers in this order. Title,
+// Weeks and Staff names are for people reading the sheet; the reader
+// ignores them (the term decides them).
+var TimetableColumns = []string{"Section", "Title", "Meeting", "Day", "Start", "End", "Room", "Staff", "Cohorts", "Weeks", "Staff names"}
 
 // TimetableSheet is the name of the master sheet of a timetable workbook.
 const TimetableSheet = "Timetable"

@@ -56,6 +56,9 @@ func ReadSchedule(path string, t *Term) (*Schedule, Problems, error) {
 	if fi.IsDir() {
 		return nil, nil, schedUnreadable("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
 	}
+	if !fi.Mode().IsRegular() {
+		return nil, nil, schedUnreadable("%s", notRegular(path, fi).Error())
+	}
 	if fi.Size() > schedMaxBytes {
 		return nil, nil, schedUnreadable("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
 	}
@@ -101,6 +104,7 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 		if len(rows) >= schedMaxRows {
 			return nil, nil, schedUnreadable("%s has more than %d rows — a timetable holds far fewer", name, schedMaxRows)
 		}
+		unguardCSVRecord(rec) // the quote SafeCSVCell put in front of formula-like cells
 		if !schedBlank(rec) {
 			rows = append(rows, rec)
 			lines = append(lines, line)
@@ -115,6 +119,10 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 	if !bytes.HasPrefix(data, []byte("PK\x03\x04")) {
 		return "", nil, nil, schedUnreadable("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
 	}
+	census, err := checkPackage(data, name)
+	if err != nil {
+		return "", nil, nil, schedUnreadable("%s", err.Error())
+	}
 	defer func() {
 		// The spreadsheet library may panic on malformed parts: a damaged
 		// file must give a sentence, not a stack trace.
@@ -124,7 +132,7 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 		}
 	}()
 	f, err := excelize.OpenReader(bytes.NewReader(data), excelize.Options{
-		RawCellValue: true, UnzipSizeLimit: 2 << 30, UnzipXMLSizeLimit: 64 << 20,
+		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
 	})
 	if err != nil {
 		return "", nil, nil, schedUnreadable("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
@@ -164,6 +172,9 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 	}
 	if err := it.Error(); err != nil {
 		return "", nil, nil, schedUnreadable("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+	}
+	if c, ok := census[sheet]; ok && n != c.lastRow {
+		return "", nil, nil, schedUnreadable("%s: the %s sheet could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program", name, Quote(sheet), n, c.lastRow)
 	}
 	return sheet, rows, lines, nil
 }

@@ -263,3 +263,36 @@ func TestReadScheduleUnreadable(t *testing.T) {
 		})
 	}
 }
+
+// TestReadScheduleDamaged rewrites the Timetable sheet's XML (an unknown
+// entity between rows, rows out of order) and expects one sentence naming
+// the sheet instead of a timetable with rows missing; a FIFO is refused.
+func TestReadScheduleDamaged(t *testing.T) {
+	term := ckTerm()
+	s := ckSchedule()
+	book := ckXLSX(t, TimetableSheet, ckTimetableRows(term, s), nil)
+	part := demoPart(t, book, TimetableSheet)
+	for name, tc := range map[string]struct {
+		edit func([]byte) []byte
+		want string
+	}{
+		"unknown entity":    {func(b []byte) []byte { return bytes.Replace(b, []byte("</row>"), []byte("</row>&bogus;"), 1) }, `the "Timetable" sheet is damaged: its XML has an error`},
+		"rows out of order": {swapRows, `the "Timetable" sheet stores row 2 after row 3, out of order`},
+	} {
+		t.Run(name, func(t *testing.T) {
+			path := ckWrite(t, "t.xlsx", rewritePart(t, book, part, tc.edit))
+			_, _, err := ReadSchedule(path, term)
+			require.Error(t, err)
+			assert.True(t, errors.Is(err, ErrUnreadable))
+			assert.Contains(t, err.Error(), "t.xlsx: "+tc.want)
+			assert.NotContains(t, err.Error(), "\n")
+		})
+	}
+	fifo := filepath.Join(t.TempDir(), "t.csv")
+	if err := mkfifo(fifo); err != nil {
+		t.Skipf("cannot make a FIFO here: %v", err)
+	}
+	_, _, err := ReadSchedule(fifo, term)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "is a pipe (FIFO), not a regular file")
+}

@@ -23,15 +23,13 @@ var dropDowns = []struct {
 	strict     bool
 }{
 	{shTerm, "Key", append(append([]string{}, templateKeys...), "Holiday", "Holidays"), false},
-	{shPeriods, "Day", dayList(), true},
-	{shUnavailable, "Day", dayList(), true},
+	{shPeriods, "Day", spellings(mondayFirst(dayChoices)), true},
+	{shUnavailable, "Day", spellings(mondayFirst(dayChoices)), true},
 	{shUnavailable, "Strength", []string{"hard"}, false},
-	{shRelations, "Kind", relationNames(), true},
+	{shRelations, "Kind", spellings(relationChoices), true},
 	{shRelations, "Strength", []string{"hard"}, false},
-	{shWeights, "Criterion", criterionNames(), true},
+	{shWeights, "Criterion", spellings(criterionChoices), true},
 }
-
-func dayList() []string { return []string{"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"} }
 
 // WriteTemplate writes an empty term workbook: every sheet of the layout with
 // its headers in row 1, a note on each header cell explaining the column,

@@ -83,3 +83,96 @@ func TestTemplateReadsBack(t *testing.T) {
 	}
 	assert.Equal(t, []string{"Term!B3", "Term!B4", "Periods"}, got, "%s", ps)
 }
+
+// templateList reads the values of the strict drop-down list of a column
+// from the written template: the list's formula is the values in quotes,
+// separated by commas (ECMA-376 Part 1 §18.3.1.32 dataValidation, formula1).
+func templateList(t *testing.T, f *excelize.File, sheet, col string) []string {
+	t.Helper()
+	dvs, err := f.GetDataValidations(sheet)
+	require.NoError(t, err)
+	letter := colLetter(indexOf(specFor(sheet).cols, col))
+	for _, dv := range dvs {
+		if strings.HasPrefix(dv.Sqref, letter+"2:") {
+			require.Equal(t, "list", dv.Type)
+			require.NotNil(t, dv.ErrorStyle)
+			require.Equal(t, "stop", *dv.ErrorStyle, "a strict list")
+			formula := strings.Trim(strings.TrimSpace(dv.Formula1), `"`)
+			return strings.Split(formula, ",")
+		}
+	}
+	t.Fatalf("no drop-down list for %s.%s", sheet, col)
+	return nil
+}
+
+// TestDropDownsAgreeWithReader writes the template and checks, for each
+// strict drop-down list, that a value passes the list exactly when the
+// reader accepts it. A spreadsheet's list validation compares text without
+// regard to case (from memory, for Excel and LibreOffice Calc), so the
+// emulated list check is a case-insensitive comparison. The candidates are
+// every listed value in several cases, and near misses.
+func TestDropDownsAgreeWithReader(t *testing.T) {
+	var buf bytes.Buffer
+	require.NoError(t, WriteTemplate(&buf))
+	f, err := excelize.OpenReader(bytes.NewReader(buf.Bytes()))
+	require.NoError(t, err)
+	defer f.Close()
+
+	day := func(s string) bool { _, ok := ParseDay(s); return ok }
+	readers := map[string]func(string) bool{
+		"Periods.Day":       day,
+		"Unavailable.Day":   day,
+		"Relations.Kind":    func(s string) bool { return pickChoice(relationChoices, s) >= 0 },
+		"Weights.Criterion": func(s string) bool { return pickChoice(criterionChoices, s) >= 0 },
+	}
+	// Spellings people write, which must be read and offered alike.
+	musts := map[string][]string{
+		"Periods.Day": {"Monday", "Mon", "Sunday"}, "Unavailable.Day": {"Friday"},
+		"Relations.Kind": {"Back-to-back", "back to back"}, "Weights.Criterion": {"room stability"},
+	}
+	for _, d := range dropDowns {
+		if !d.strict {
+			continue
+		}
+		key := d.sheet + "." + d.col
+		t.Run(key, func(t *testing.T) {
+			list := templateList(t, f, d.sheet, d.col)
+			accepts := readers[key]
+			require.NotNil(t, accepts, "a reader for every strict list")
+			passes := func(s string) bool {
+				for _, v := range list {
+					//lint:ignore SA6005 the list compares lower-cased text, not Unicode case folding (which folds "ſ" to "s")
+					if strings.ToLower(v) == strings.ToLower(s) {
+						return true
+					}
+				}
+				return false
+			}
+			var cands []string
+			for _, v := range list {
+				cands = append(cands, v, strings.ToUpper(v), strings.ToLower(v), titleCase(v),
+					v[:len(v)-1], v+"s", strings.ReplaceAll(v, " ", "_"), strings.ReplaceAll(v, " ", "  "), strings.ReplaceAll(v, "-", " "))
+			}
+			cands = append(cands, musts[key]...)
+			cands = append(cands, "", "Tues", "Thurs", "Mo", "sometimes", "ſun", "ſame time")
+			for _, c := range cands {
+				assert.Equal(t, passes(c), accepts(c), "%q: list passes %v, reader accepts %v", c, passes(c), accepts(c))
+			}
+			for _, m := range musts[key] {
+				assert.True(t, passes(m) && accepts(m), "%q is offered and read", m)
+			}
+		})
+	}
+}
+
+// titleCase capitalises the first letter of each space-separated word
+// (the list values are ASCII).
+func titleCase(s string) string {
+	words := strings.Split(s, " ")
+	for i, w := range words {
+		if w != "" {
+			words[i] = strings.ToUpper(w[:1]) + w[1:]
+		}
+	}
+	return strings.Join(words, " ")
+}

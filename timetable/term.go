@@ -255,6 +255,10 @@ type Term struct {
 	// SoftCapacity makes room capacity a preference (criterion "room over
 	// capacity") instead of a hard requirement. Features stay hard.
 	SoftCapacity bool
+	// Columns lists the column renames the reader applied (the Columns
+	// sheet, Columns.csv or WithColumns), in workbook order, for `check`
+	// to print; nil when none applied.
+	Columns []ColumnRename
 }
 
 // Weight is the weight of a soft criterion and its priority level (higher

@@ -3,7 +3,6 @@ package timetable
 import (
 	"fmt"
 	"sort"
-	"strings"
 )
 
 // layout remembers where a read Term's data sits in its workbook, so that
@@ -174,5 +173,3 @@ func sortedNames[V any](m map[string]V) []string {
 	return out
 }
 
-// joinWords joins with commas.
-func joinWords(xs []string) string { return strings.Join(xs, ", ") }

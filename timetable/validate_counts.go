@@ -1,7 +1,6 @@
 package timetable
 
 import (
-	"fmt"
 	"time"
 )
 
@@ -163,19 +162,19 @@ func sharedName(a, b fixedUse) string {
 	for _, x := range a.sec.Staff {
 		for _, y := range b.sec.Staff {
 			if x == y {
-				return fmt.Sprintf("staff %q", x)
+				return "staff " + Quote(x)
 			}
 		}
 	}
 	for _, x := range a.sec.Cohorts {
 		for _, y := range b.sec.Cohorts {
 			if x == y {
-				return fmt.Sprintf("cohort %q", x)
+				return "cohort " + Quote(x)
 			}
 		}
 	}
 	if a.fixed.Room != "" && a.fixed.Room == b.fixed.Room && !a.sec.NoRoom && !b.sec.NoRoom {
-		return fmt.Sprintf("room %q", a.fixed.Room)
+		return "room " + Quote(a.fixed.Room)
 	}
 	return ""
 }

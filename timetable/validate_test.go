@@ -61,7 +61,8 @@ func TestProblemsAtCells(t *testing.T) {
 		{"bad fixed text", []cellEdit{e("Sections", "J3", "Tuesday morning")}, "", Error, `Fixed "Tuesday morning" is not a fixed meeting`},
 		{"bad strength", []cellEdit{e("Unavailable", "E3", "soft")}, "", Error, `Strength "soft" is neither hard nor a weight`},
 		{"unknown relation kind", []cellEdit{e("Relations", "A2", "sometimes")}, "", Error, `Kind "sometimes" is not a relation — write one of "same time", "not same time", "different days", "same day", "before", "back to back" and "same room"`},
-		{"relation kind spelled loosely", []cellEdit{e("Relations", "A2", "Not-Same  Time")}, "", 0, ""},
+		{"relation kind in another case", []cellEdit{e("Relations", "A2", " Not Same TIME ")}, "", 0, ""},
+		{"relation kind spelled off the list", []cellEdit{e("Relations", "A2", "Not-Same  Time")}, "", Error, `Kind "Not-Same  Time" is not a relation`},
 		{"unknown criterion", []cellEdit{e("Weights", "A2", "happiness")}, "", Error, `Criterion "happiness" is not known — write one of "moved meetings", "student clashes"`},
 
 		// term

@@ -119,7 +119,9 @@ func wtWriteSheet(f *excelize.File, tb wtTable, headerStyle int) error {
 
 // WriteTermCSV writes t as a folder of CSV files, one per sheet of
 // docs/workbook.md (Term.csv, Periods.csv, ...), with the same headers and
-// cells as WriteTermWorkbook. dir is created when missing. Each file is
+// cells as WriteTermWorkbook, except that a cell a spreadsheet would take
+// for a formula is written with a single quote in front (SafeCSVCell;
+// ReadCSVDir removes it). dir is created when missing. Each file is
 // written to a temporary file in dir and renamed into place, replacing a file
 // of the same name: callers that must not overwrite check first (see
 // TermCSVFiles).
@@ -134,7 +136,7 @@ func WriteTermCSV(t *Term, dir string) error {
 		_ = cw.Write(tb.header)
 		for _, r := range tb.rows {
 			for i, v := range r {
-				rec[i] = wtText(v)
+				rec[i] = SafeCSVCell(wtText(v))
 			}
 			_ = cw.Write(rec)
 		}

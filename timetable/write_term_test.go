@@ -2,10 +2,12 @@ package timetable_test
 
 import (
 	"bytes"
+	"encoding/csv"
 	"flag"
 	"os"
 	"path/filepath"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -324,6 +326,7 @@ func FuzzWriteTermRoundTrip(f *testing.F) {
 	f.Add(uint64(0x555), "Spectroscopy", "Hélène Lefèvre", "Research day", 2)
 	f.Add(uint64(0b1011), "Σύνοψη, \"quoted\"; semi", "Олена Коваленко", "Ó Dálaigh's day", 0)
 	f.Add(uint64(1<<11), "=1+2", "Łukasz", "", 7)
+	f.Add(uint64(3), "@SUM(A1)", "-Łukasz", "'=quoted", 1)
 	f.Add(^uint64(0), "Fúnmiláyọ̀ — ½ ‰ 😀", "x", "y", -1)
 	f.Fuzz(func(t *testing.T, weeks uint64, title, name, reason string, minDays int) {
 		for _, s := range []string{title, name, reason} {
@@ -356,4 +359,63 @@ func FuzzWriteTermRoundTrip(f *testing.F) {
 		require.Empty(t, ps.Errors(), "errors:\n%s", ps)
 		assertSameTerm(t, term, got)
 	})
+}
+
+// TestWriteTermCSVFormulaSafe writes a term whose free text begins with
+// the formula triggers of OWASP's "CSV Injection" guidance (= + - @ tab
+// CR): no cell of the CSV files may start with one (a plain number such as
+// -5 may), the workbook keeps them as string cells (a formula is only made
+// by a cell of formula type, ECMA-376 Part 1 §18.3.1.40 <f>), and both forms
+// read back exactly.
+func TestWriteTermCSVFormulaSafe(t *testing.T) {
+	term := handTerm()
+	hostile := []string{`=HYPERLINK("http://evil.example","click")`, "@SUM(A1)", "+cmd|' /C calc'!A0", "-2+3", "'=already quoted"}
+	term.Sections[0].Title = hostile[0]
+	term.Sections[1].Title = hostile[1]
+	term.Staff[1].Name = hostile[2]
+	term.Cohorts[1].Name = hostile[3]
+	term.Unavailable[0].Reason = hostile[4]
+
+	dir := t.TempDir()
+	require.NoError(t, timetable.WriteTermCSV(term, dir))
+	for _, name := range timetable.TermCSVFiles() {
+		data, err := os.ReadFile(filepath.Join(dir, name))
+		require.NoError(t, err)
+		rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
+		require.NoError(t, err, name)
+		for r, row := range rows {
+			for c, cell := range row {
+				if cell != "" && strings.ContainsRune("=+-@\t\r", rune(cell[0])) {
+					_, numErr := strconv.ParseFloat(cell, 64)
+					assert.NoError(t, numErr, "%s row %d column %d starts a formula: %q", name, r+1, c+1, cell)
+				}
+			}
+		}
+	}
+	got, ps, err := timetable.ReadCSVDir(dir)
+	require.NoError(t, err)
+	assert.Empty(t, ps, "problems:\n%s", ps)
+	assertSameTerm(t, term, got)
+
+	var buf bytes.Buffer
+	require.NoError(t, timetable.WriteTermWorkbook(term, &buf))
+	f, err := excelize.OpenReader(bytes.NewReader(buf.Bytes()))
+	require.NoError(t, err)
+	defer f.Close()
+	for _, sheet := range f.GetSheetList() {
+		rows, err := f.GetRows(sheet)
+		require.NoError(t, err)
+		for r, row := range rows {
+			for c := range row {
+				cell, _ := excelize.CoordinatesToCellName(c+1, r+1)
+				formula, err := f.GetCellFormula(sheet, cell)
+				require.NoError(t, err)
+				assert.Empty(t, formula, "%s!%s holds a formula", sheet, cell)
+			}
+		}
+	}
+	got, ps, err = timetable.ReadWorkbook(bytes.NewReader(buf.Bytes()), "term.xlsx")
+	require.NoError(t, err)
+	assert.Empty(t, ps, "problems:\n%s", ps)
+	assertSameTerm(t, term, got)
 }

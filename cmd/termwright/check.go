@@ -35,6 +35,7 @@ func newCheckCmd(e *env) *cobra.Command {
 // checkReport is the stable JSON form of a check.
 type checkReport struct {
 	Summary  timetable.Counts `json:"summary"`
+	Columns  []string         `json:"columns"`
 	Problems []checkProblem   `json:"problems"`
 }
 
@@ -45,14 +46,14 @@ type checkProblem struct {
 }
 
 func runCheck(e *env, o *checkOptions, path string) error {
-	term, problems, err := timetable.Load(path)
+	term, problems, err := readTerm(e, path)
 	if err != nil {
 		return wrapCode(exitError, err)
 	}
 	ordered := append(problems.Errors(), problems.Warnings()...)
 	counts := timetable.Summary(term)
 	if o.json {
-		if err := writeCheckJSON(e.stdout, counts, ordered); err != nil {
+		if err := writeCheckJSON(e.stdout, term, counts, ordered); err != nil {
 			return err
 		}
 	} else {
@@ -64,8 +65,8 @@ func runCheck(e *env, o *checkOptions, path string) error {
 	return nil
 }
 
-func writeCheckJSON(w io.Writer, c timetable.Counts, ps timetable.Problems) error {
-	rep := checkReport{Summary: c, Problems: make([]checkProblem, 0, len(ps))}
+func writeCheckJSON(w io.Writer, t *timetable.Term, c timetable.Counts, ps timetable.Problems) error {
+	rep := checkReport{Summary: c, Columns: renamedColumns(t), Problems: make([]checkProblem, 0, len(ps))}
 	for _, p := range ps {
 		rep.Problems = append(rep.Problems, checkProblem{Where: p.Pos.String(), Severity: p.Severity.String(), Message: p.Msg})
 	}
@@ -83,6 +84,9 @@ func writeCheckText(w io.Writer, t *timetable.Term, c timetable.Counts, ps timet
 		checkCount(c.Sections, "section"), checkCount(c.Meetings, "meeting"), checkCount(c.Staff, "staff member"),
 		checkCount(c.Rooms, "room"), checkCount(c.Cohorts, "cohort"), checkCount(c.Periods, "period"),
 		checkCount(c.Students, "student"), checkCount(c.Enrolments, "enrolment"))
+	for _, r := range renamedColumns(t) {
+		fmt.Fprintln(w, r)
+	}
 	for _, p := range ps {
 		fmt.Fprintln(w, p.String())
 	}
@@ -101,4 +105,18 @@ func checkCount(n int, noun string) string {
 		return fmt.Sprintf("1 %s", noun)
 	}
 	return fmt.Sprintf("%d %ss", n, noun)
+}
+
+// renamedColumns lists the column renames the reader applied, one sentence
+// each ("Sections: column \"Crs Nbr\" read as \"Section\""); never nil, so
+// the JSON form is always a list.
+func renamedColumns(t *timetable.Term) []string {
+	out := []string{}
+	if t == nil {
+		return out
+	}
+	for _, r := range t.Columns {
+		out = append(out, r.String())
+	}
+	return out
 }

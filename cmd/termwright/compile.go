@@ -114,7 +114,7 @@ func writeProgramDump(w io.Writer, t *timetable.Term, p *solver.Program, cat *en
 // loadTerm reads a term, prints its problems (errors first) on standard
 // error, and refuses it when it has errors.
 func loadTerm(e *env, path string) (*timetable.Term, error) {
-	term, problems, err := timetable.Load(path)
+	term, problems, err := readTerm(e, path)
 	if err != nil {
 		return nil, wrapCode(exitError, err)
 	}

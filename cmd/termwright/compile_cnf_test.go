@@ -78,7 +78,7 @@ func TestLogicSat(t *testing.T) {
 		{"sat", "p cnf 2 2\n1 2 0\n-1 0\n", nil, exitOK, "s SATISFIABLE\nv -1 2 0\n", "2 variables, 2 clauses"},
 		{"quiet", "p cnf 2 1\n1 2 0\n", []string{"-q"}, exitOK, "s SATISFIABLE\n", ""},
 		{"unsat", "p cnf 1 2\n1 0\n-1 0\n", nil, exitNone, "s UNSATISFIABLE\n", ""},
-		{"bad", "p cnf 1 1\n2 0\n", nil, exitError, "", "bad.cnf:2: literal 2 refers to variable 2"},
+		{"bad", "p cnf 1 1\n2 0\n", nil, exitError, "", "bad.cnf:2:1: literal 2 refers to variable 2"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

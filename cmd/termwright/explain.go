@@ -199,7 +199,7 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 // run; problems of meaning that Validate finds (a load above availability,
 // clashing fixed meetings, ...) are instant explanations and are returned.
 func explainLoad(e *env, path string) (*timetable.Term, timetable.Problems, error) {
-	term, problems, err := timetable.Load(path)
+	term, problems, err := readTerm(e, path)
 	if err != nil {
 		return nil, nil, wrapCode(exitError, err)
 	}

@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 	"strings"
 	"time"
 
@@ -109,9 +108,9 @@ func logicRead(e *env, path string) (*solver.Program, error) {
 	var r io.Reader = e.stdin
 	name := "<stdin>"
 	if path != "-" {
-		f, err := os.Open(path)
+		f, err := openInput(path, "the program")
 		if err != nil {
-			return nil, failf(exitError, "cannot open the program: %w", err)
+			return nil, wrapCode(exitError, err)
 		}
 		defer f.Close()
 		r, name = f, path
@@ -364,9 +363,9 @@ func runLogicVerify(e *env, o *logicOptions, path string, modelGiven bool) error
 	case "-":
 		r, name = e.stdin, "<stdin>"
 	default:
-		f, err := os.Open(o.modelFile)
+		f, err := openInput(o.modelFile, "the candidate")
 		if err != nil {
-			return failf(exitError, "cannot open the candidate: %w", err)
+			return wrapCode(exitError, err)
 		}
 		defer f.Close()
 		r, name = f, o.modelFile
@@ -381,7 +380,10 @@ func runLogicVerify(e *env, o *logicOptions, path string, modelGiven bool) error
 	switch {
 	case err == nil:
 		verdict.Stable = true
-		cost := solver.Cost(p, model)
+		cost, err := solver.CheckedCost(p, model)
+		if err != nil {
+			return wrapCode(exitError, err)
+		}
 		for i, l := range solver.Levels(p) {
 			verdict.Cost = append(verdict.Cost, logicCost{Level: l, Cost: cost[i]})
 		}

@@ -4,7 +4,6 @@ import (
 	"bufio"
 	"context"
 	"fmt"
-	"os"
 	"strconv"
 	"time"
 
@@ -52,9 +51,9 @@ func runLogicSat(ctx context.Context, e *env, o *logicSatOptions, path string) e
 	if path == "-" {
 		p, err = solver.ReadDIMACS(e.stdin, "<stdin>")
 	} else {
-		f, ferr := os.Open(path)
+		f, ferr := openInput(path, "the formula")
 		if ferr != nil {
-			return failf(exitError, "cannot open the formula: %w", ferr)
+			return wrapCode(exitError, ferr)
 		}
 		p, err = solver.ReadDIMACS(bufio.NewReaderSize(f, 1<<16), path)
 		f.Close()

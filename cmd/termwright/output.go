@@ -50,24 +50,10 @@ func checkOutput(out string, force bool, ext string, inputs ...string) error {
 // over a symbolic link, a device (as root, /dev/null) or a named pipe would
 // replace the thing itself with a file.
 func refuseNonRegular(path string, fi fs.FileInfo) error {
-	m := fi.Mode()
-	what := ""
-	switch {
-	case m.IsRegular():
+	if fi.Mode().IsRegular() {
 		return nil
-	case m.IsDir():
-		what = "a folder"
-	case m&fs.ModeSymlink != 0:
-		what = "a symbolic link"
-	case m&fs.ModeNamedPipe != 0:
-		what = "a named pipe"
-	case m&fs.ModeSocket != 0:
-		what = "a socket"
-	case m&fs.ModeDevice != 0:
-		what = "a device"
-	default:
-		what = "a special file"
 	}
+	what := fileKind(fi.Mode())
 	return withCode(exitError, fmt.Sprintf("%s is %s, not a regular file; termwright replaces only regular files (not even with --force) — give the name of a new file", path, what))
 }
 

@@ -54,7 +54,7 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 	if err := checkPublishDir(o.out, o.force, termPath); err != nil {
 		return err
 	}
-	term, problems, err := timetable.Load(termPath)
+	term, problems, err := readTerm(e, termPath)
 	if err != nil {
 		return wrapCode(exitError, err)
 	}

@@ -42,6 +42,9 @@ type env struct {
 	// and arguments instead of the command running: a check of flag parsing
 	// alone.
 	parsed func(opts any, args []string)
+	// columns is the --columns FILE of column renames applied to every
+	// term read ("" for none).
+	columns string
 }
 
 // runner is the RunE of a command with options o: it runs run, or with
@@ -167,6 +170,7 @@ func newRoot(e *env) *cobra.Command {
 		Version:       version(debug.ReadBuildInfo()),
 	}
 	root.SetVersionTemplate("termwright {{.Version}}\n")
+	root.PersistentFlags().StringVar(&e.columns, "columns", "", "rename the term's columns as `FILE` says (CSV or workbook with Sheet, Their column, Our column), for exports from other systems")
 	root.SetIn(e.stdin)
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)

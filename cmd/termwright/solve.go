@@ -262,7 +262,7 @@ func sameProblem(a, b timetable.Problem) bool {
 // (timetable.Impossible) is returned with those errors: that is an answer
 // (exit 2), not a mistake in the data.
 func solveLoad(e *env, path string) (*timetable.Term, timetable.Problems, error) {
-	term, problems, err := timetable.Load(path)
+	term, problems, err := readTerm(e, path)
 	if err != nil {
 		return nil, nil, wrapCode(exitError, err)
 	}

@@ -75,7 +75,7 @@ const verifyCaution = "Room capacities, room features such as step-free access, 
 	"needs, local agreements and institution policy."
 
 func runVerify(e *env, o *verifyOptions, termPath, ttPath string) error {
-	term, tps, err := timetable.Load(termPath)
+	term, tps, err := readTerm(e, termPath)
 	if err != nil {
 		return wrapCode(exitError, err)
 	}
