@@ -90,10 +90,12 @@
 // (Prefer). Find runs that loop until a caller's gate accepts a model.
 // Cuts are written into the program first, so Verify and every later
 // engine see them; the live engine catches up before its next call: new
-// constraints become clauses, the selector facts of families added in
-// normal mode are dropped from conditions and added to every model, and
-// what it cannot take yet (the Hall bounds of a new family, a new choice
-// in Explain mode) makes it rebuild from the preferred phases. Solve, the
+// constraints become clauses, a new family's Hall bounds native bounds
+// (solver.Solver.AddBound: a lazy round costs a propagation, not a
+// rebuild), the selector facts of families added in normal mode are
+// dropped from conditions and added to every model, and what it cannot
+// take (a new choice: a family's selector in Explain mode) makes it
+// rebuild from the preferred phases. Solve, the
 // optimiser (first timetable, whole term, neighbourhood steps through
 // Search.Derive and Search.Improve) and every explanation check are short
 // callers. A first timetable of a very large program (over 500,000

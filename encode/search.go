@@ -24,10 +24,11 @@ import (
 // engine catches up with it before each call (sync): a new integrity
 // constraint becomes a clause, a new fact atom (the selector of a room
 // family added in normal mode) is dropped from the conditions it appears
-// in and added to every model, and anything the live engine cannot take
-// (a new choice or weak constraint, a bound before the engine grows
-// bounds between solves) makes it rebuild, starting from the preferred
-// model's phases.
+// in and added to every model, a new bound (a room family's Hall bounds)
+// becomes a native cardinality bound (solver.Solver.AddBound), and
+// anything the live engine cannot take (a new choice or weak constraint:
+// the selector of a family added in Explain mode) makes it rebuild,
+// starting from the preferred model's phases.
 //
 // Several Searches may share one program (the optimiser's hard-only
 // search and its whole-term search); each catches up on its own. A Search
@@ -181,9 +182,6 @@ func setStartPhases(s *solver.Solver, cat *Catalog, numAtoms int, model []solver
 	}
 }
 
-// errNotLive says that the live engine cannot take a statement.
-var errNotLive = errors.New("the live engine cannot take this statement")
-
 // sync gives the live engine what was added to the program since it read
 // it. It reports false when the engine must be rebuilt instead.
 func (x *Search) sync() (bool, error) {
@@ -229,9 +227,7 @@ func (x *Search) sync() (bool, error) {
 		if !need {
 			continue
 		}
-		if err := liveBound(x.s, b.Lits, b.Lower, b.Upper, cond); errors.Is(err, errNotLive) {
-			return false, nil
-		} else if err != nil {
+		if err := x.s.AddBound(b.Lits, b.Lower, b.Upper, cond...); err != nil {
 			return false, fmt.Errorf("internal error: adding a room family: %w", err)
 		}
 	}
@@ -258,12 +254,6 @@ func (x *Search) liveLits(lits []solver.Lit, n solver.Atom) (out []solver.Lit, n
 		}
 	}
 	return out, true, true
-}
-
-// liveBound adds a cardinality bound to a live engine. The engine does
-// not take bounds between solves yet, so the caller rebuilds.
-func liveBound(_ *solver.Solver, _ []solver.Lit, _, _ int, _ []solver.Lit) error {
-	return errNotLive
 }
 
 // Solve runs one engine call under the given assumptions (not counted as
