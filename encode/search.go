@@ -525,6 +525,12 @@ func (d *Derived) whole(model []solver.Atom) []solver.Atom {
 // holds the whole program with the fixed starts as facts. Either way they
 // are decided at level 0 and its models, read through Improve, are models
 // of the program.
+//
+// Measured against a clone of the live engine with the fixed starts as
+// unit clauses (solver.Solver.Clone; BenchmarkNeighbourhoodSteps, 2,000
+// sections, shared machine): 1.19 steps/s with 1.4 % of the time building
+// engines here, 0.58 steps/s and 7.6 % with clones, which copy the whole
+// term's tables and keep every weak constraint.
 func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, incumbent []solver.Atom) (*Derived, error) {
 	t0 := time.Now()
 	defer func() {
