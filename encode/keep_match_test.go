@@ -136,49 +136,6 @@ func TestMovesMatchesMinimumPairing(t *testing.T) {
 	}
 }
 
-// TestMinCostAssignment compares the Hungarian method with brute force
-// over every injection of the smaller side, on random rectangular
-// matrices up to 5 × 5.
-func TestMinCostAssignment(t *testing.T) {
-	rng := rand.New(rand.NewPCG(5, 8))
-	for c := 0; c < 500; c++ {
-		n, m := 1+rng.IntN(5), 1+rng.IntN(5)
-		cost := make([][]int64, n)
-		for i := range cost {
-			cost[i] = make([]int64, m)
-			for j := range cost[i] {
-				cost[i][j] = int64(rng.IntN(10))
-			}
-		}
-		best := int64(1) << 40
-		allPairings(n, m, func(pair movePairing) {
-			var s int64
-			for i, j := range pair {
-				if j >= 0 {
-					s += cost[i][j]
-				}
-			}
-			best = min(best, s)
-		})
-		got := minCostAssignment(cost)
-		require.Len(t, got, n)
-		var s int64
-		seen := map[int]bool{}
-		paired := 0
-		for i, j := range got {
-			if j < 0 {
-				continue
-			}
-			require.False(t, seen[j], "column %d used twice in %v", j, got)
-			seen[j] = true
-			paired++
-			s += cost[i][j]
-		}
-		require.Equal(t, min(n, m), paired, "%v", cost)
-		require.Equal(t, best, s, "%v", cost)
-	}
-}
-
 // TestMovedCountsAgree: on random kept timetables (some with two meetings
 // at one period, some longer or shorter than the section) and random
 // starts of a three-meeting section that takes no room, the engine's

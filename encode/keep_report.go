@@ -84,7 +84,7 @@ func sectionMoves(t *timetable.Term, id string, a, b []timetable.Placement) []Mo
 			cost[i][j] = moveCost(t, a[x], b[y])
 		}
 	}
-	pair := minCostAssignment(cost)
+	pair := timetable.LeastCostPairs(cost)
 	var out []Move
 	paired := make([]bool, len(right))
 	for i, x := range left {

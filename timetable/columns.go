@@ -71,7 +71,7 @@ func newLoadConfig(opts []LoadOption) *loadConfig {
 func ReadColumnMap(path string) (ColumnMap, error) {
 	fi, err := os.Stat(path)
 	if err != nil {
-		return nil, unreadablef("%s cannot be opened (%v) — check the path of the column names file", path, err)
+		return nil, unreadableCause(err, "%s cannot be opened (%v) — check the path of the column names file", path, err)
 	}
 	if !fi.Mode().IsRegular() {
 		return nil, notRegular(path, fi)
@@ -80,7 +80,7 @@ func ReadColumnMap(path string) (ColumnMap, error) {
 	if strings.EqualFold(filepath.Ext(path), ".xlsx") {
 		f, err := os.Open(path)
 		if err != nil {
-			return nil, unreadablef("%s cannot be opened (%v) — check its permissions", path, err)
+			return nil, unreadableCause(err, "%s cannot be opened (%v) — check its permissions", path, err)
 		}
 		defer f.Close()
 		sheets, _, err := readWorkbookSheets(f, filepath.Base(path))

@@ -13,11 +13,22 @@ import (
 // too large). Test for it with errors.Is.
 var ErrUnreadable = errors.New("term workbook cannot be read")
 
-// unreadable is an ErrUnreadable with a one-sentence message for the user.
-type unreadable struct{ msg string }
+// unreadable is an ErrUnreadable with a one-sentence message for the user,
+// keeping the file system's error (when there is one) for errors.Is, such as
+// fs.ErrNotExist.
+type unreadable struct {
+	msg   string
+	cause error
+}
 
 func (u *unreadable) Error() string        { return u.msg }
 func (u *unreadable) Is(target error) bool { return target == ErrUnreadable }
+func (u *unreadable) Unwrap() error        { return u.cause }
+
+// unreadableCause is unreadablef keeping cause in the error's chain.
+func unreadableCause(cause error, format string, args ...any) error {
+	return &unreadable{msg: fmt.Sprintf(format, shortArgs(args)...), cause: cause}
+}
 
 // unreadablef makes an error wrapping ErrUnreadable whose text is exactly
 // the formatted sentence.

@@ -29,9 +29,9 @@ func Load(path string, opts ...LoadOption) (*Term, Problems, error) {
 	fi, err := os.Stat(path)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return nil, nil, unreadablef("%s does not exist — give the path of a term workbook (.xlsx) or of a folder of CSV files", path)
+			return nil, nil, unreadableCause(err, "%s does not exist — give the path of a term workbook (.xlsx) or of a folder of CSV files", path)
 		}
-		return nil, nil, unreadablef("%s cannot be opened (%v) — check the path and its permissions", path, err)
+		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
 	}
 	if fi.IsDir() {
 		return ReadCSVDir(path, opts...)
@@ -47,7 +47,7 @@ func Load(path string, opts ...LoadOption) (*Term, Problems, error) {
 	}
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, nil, unreadablef("%s cannot be opened (%v) — check its permissions", path, err)
+		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check its permissions", path, err)
 	}
 	defer f.Close()
 	return ReadWorkbook(f, filepath.Base(path), opts...)

@@ -4,6 +4,7 @@ import (
 	"archive/zip"
 	"bytes"
 	"errors"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
@@ -176,3 +177,23 @@ func TestHeaderRowNotFirst(t *testing.T) {
 }
 
 func newZipWriter(w *bytes.Buffer) *zip.Writer { return zip.NewWriter(w) }
+
+// A missing term or timetable keeps the file system's error in the chain,
+// so callers can tell "no such file" (fs.ErrNotExist) from a damaged one,
+// and the sentence for the user stays the same.
+func TestMissingFileKeepsItsCause(t *testing.T) {
+	missing := filepath.Join(t.TempDir(), "nope.xlsx")
+	_, _, err := Load(missing)
+	require.Error(t, err)
+	assert.ErrorIs(t, err, ErrUnreadable)
+	assert.ErrorIs(t, err, fs.ErrNotExist)
+	assert.Contains(t, err.Error(), "does not exist")
+
+	_, _, err = ReadSchedule(missing, nil)
+	require.Error(t, err)
+	assert.ErrorIs(t, err, ErrUnreadable)
+	assert.ErrorIs(t, err, fs.ErrNotExist)
+
+	_, err = ReadColumnMap(missing)
+	assert.ErrorIs(t, err, fs.ErrNotExist)
+}

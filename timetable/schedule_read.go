@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"encoding/csv"
 	"errors"
-	"fmt"
 	"io"
 	"os"
 	"path/filepath"
@@ -18,17 +17,6 @@ const schedMaxBytes = 200 << 20
 
 // schedMaxRows bounds the rows read from a timetable sheet.
 const schedMaxRows = 1_000_000
-
-// scheduleUnreadable is an error wrapping ErrUnreadable whose text is one
-// sentence for the user.
-type scheduleUnreadable struct{ msg string }
-
-func (e *scheduleUnreadable) Error() string        { return e.msg }
-func (e *scheduleUnreadable) Is(target error) bool { return target == ErrUnreadable }
-
-func schedUnreadable(format string, args ...any) error {
-	return &scheduleUnreadable{msg: fmt.Sprintf(format, args...)}
-}
 
 // ReadSchedule reads a timetable written for term t: the Timetable sheet of
 // an .xlsx workbook (or, when the workbook has a single sheet, that sheet),
@@ -49,22 +37,22 @@ func ReadSchedule(path string, t *Term) (*Schedule, Problems, error) {
 	fi, err := os.Stat(path)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return nil, nil, schedUnreadable("%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
+			return nil, nil, unreadableCause(err, "%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
 		}
-		return nil, nil, schedUnreadable("%s cannot be opened (%v) — check the path and its permissions", path, err)
+		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
 	}
 	if fi.IsDir() {
-		return nil, nil, schedUnreadable("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
+		return nil, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
 	}
 	if !fi.Mode().IsRegular() {
-		return nil, nil, schedUnreadable("%s", notRegular(path, fi).Error())
+		return nil, nil, unreadablef("%s", notRegular(path, fi).Error())
 	}
 	if fi.Size() > schedMaxBytes {
-		return nil, nil, schedUnreadable("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
+		return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
 	}
 	data, err := os.ReadFile(path)
 	if err != nil {
-		return nil, nil, schedUnreadable("%s cannot be read (%v) — check its permissions", path, err)
+		return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
 	}
 	name := filepath.Base(path)
 	var sheet string
@@ -98,11 +86,11 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 			break
 		}
 		if err != nil {
-			return nil, nil, schedUnreadable("%s is not a readable CSV file (%s) — save it again as CSV (comma separated)", name, oneLineErr(err))
+			return nil, nil, unreadablef("%s is not a readable CSV file (%s) — save it again as CSV (comma separated)", name, oneLineErr(err))
 		}
 		line, _ := r.FieldPos(0)
 		if len(rows) >= schedMaxRows {
-			return nil, nil, schedUnreadable("%s has more than %d rows — a timetable holds far fewer", name, schedMaxRows)
+			return nil, nil, unreadablef("%s has more than %d rows — a timetable holds far fewer", name, schedMaxRows)
 		}
 		unguardCSVRecord(rec) // the quote SafeCSVCell put in front of formula-like cells
 		if !schedBlank(rec) {
@@ -117,25 +105,25 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 // its Timetable sheet (or of its only sheet) with 1-based row numbers.
 func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lines []int, err error) {
 	if !bytes.HasPrefix(data, []byte("PK\x03\x04")) {
-		return "", nil, nil, schedUnreadable("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
+		return "", nil, nil, unreadablef("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
 	}
 	census, err := checkPackage(data, name)
 	if err != nil {
-		return "", nil, nil, schedUnreadable("%s", err.Error())
+		return "", nil, nil, unreadablef("%s", err.Error())
 	}
 	defer func() {
 		// The spreadsheet library may panic on malformed parts: a damaged
 		// file must give a sentence, not a stack trace.
 		if rec := recover(); rec != nil {
 			sheet, rows, lines = "", nil, nil
-			err = schedUnreadable("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
+			err = unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
 		}
 	}()
 	f, err := excelize.OpenReader(bytes.NewReader(data), excelize.Options{
 		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
 	})
 	if err != nil {
-		return "", nil, nil, schedUnreadable("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
+		return "", nil, nil, unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
 	}
 	defer f.Close()
 	list := f.GetSheetList()
@@ -146,24 +134,24 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 	}
 	if sheet == "" {
 		if len(list) != 1 {
-			return "", nil, nil, schedUnreadable("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
+			return "", nil, nil, unreadablef("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
 		}
 		sheet = list[0]
 	}
 	it, err := f.Rows(sheet)
 	if err != nil {
-		return "", nil, nil, schedUnreadable("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+		return "", nil, nil, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
 	}
 	defer it.Close()
 	n := 0
 	for it.Next() {
 		n++
 		if n > schedMaxRows {
-			return "", nil, nil, schedUnreadable("%s: sheet %q has more than %d rows — a timetable holds far fewer", name, sheet, schedMaxRows)
+			return "", nil, nil, unreadablef("%s: sheet %q has more than %d rows — a timetable holds far fewer", name, sheet, schedMaxRows)
 		}
 		cols, err := it.Columns(excelize.Options{RawCellValue: true})
 		if err != nil {
-			return "", nil, nil, schedUnreadable("%s: sheet %q row %d cannot be read (%s) — open and save the workbook again", name, sheet, n, oneLineErr(err))
+			return "", nil, nil, unreadablef("%s: sheet %q row %d cannot be read (%s) — open and save the workbook again", name, sheet, n, oneLineErr(err))
 		}
 		if !schedBlank(cols) {
 			rows = append(rows, cols)
@@ -171,10 +159,10 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 		}
 	}
 	if err := it.Error(); err != nil {
-		return "", nil, nil, schedUnreadable("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+		return "", nil, nil, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
 	}
 	if c, ok := census[sheet]; ok && n != c.lastRow {
-		return "", nil, nil, schedUnreadable("%s: the %s sheet could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program", name, Quote(sheet), n, c.lastRow)
+		return "", nil, nil, unreadablef("%s: the %s sheet could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program", name, Quote(sheet), n, c.lastRow)
 	}
 	return sheet, rows, lines, nil
 }

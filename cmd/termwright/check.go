@@ -29,6 +29,7 @@ func newCheckCmd(e *env) *cobra.Command {
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runCheck(e, o, args[0]) }),
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "print the summary and problems as JSON")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 

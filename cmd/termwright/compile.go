@@ -46,6 +46,7 @@ func newCompileCmd(e *env) *cobra.Command {
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
 	cmd.Flags().BoolVar(&o.explain, "explain", false, "write the explanation form: free selectors, no pruning by requirements")
 	addCompileCNFFlags(cmd, o)
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 

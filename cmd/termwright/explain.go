@@ -71,6 +71,7 @@ func newExplainCmd(e *env) *cobra.Command {
 	f.DurationVar(&o.timeLimit, "time-limit", 2*time.Minute, "stop after this long and report what was found (0 for no limit)")
 	f.Int64Var(&o.seed, "seed", 1, "seed of the search; the same seed gives the same answer")
 	f.Int64Var(&o.budget, "budget", encode.DefaultCheckConflicts, "search conflicts allowed per check; a check that runs out leaves an answer marked not minimal")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 

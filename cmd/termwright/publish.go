@@ -44,6 +44,7 @@ func newPublishCmd(e *env) *cobra.Command {
 	cmd.Flags().StringVar(&o.paper, "paper", "A4", "PDF paper size: A4 or Letter")
 	cmd.Flags().BoolVar(&o.students, "students", false, "also write one calendar per enrolled student")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an earlier publication in the output directory")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 

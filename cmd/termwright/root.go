@@ -170,7 +170,6 @@ func newRoot(e *env) *cobra.Command {
 		Version:       version(debug.ReadBuildInfo()),
 	}
 	root.SetVersionTemplate("termwright {{.Version}}\n")
-	root.PersistentFlags().StringVar(&e.columns, "columns", "", "rename the term's columns as `FILE` says (CSV or workbook with Sheet, Their column, Our column), for exports from other systems")
 	root.SetIn(e.stdin)
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"os"
 
+	"github.com/spf13/cobra"
+
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -19,6 +21,11 @@ func readTerm(e *env, path string) (*timetable.Term, timetable.Problems, error) 
 		opts = append(opts, timetable.WithColumns(m))
 	}
 	return timetable.Load(path, opts...)
+}
+
+// addColumnsFlag gives a command that reads a term the --columns FILE flag.
+func addColumnsFlag(cmd *cobra.Command, e *env) {
+	cmd.Flags().StringVar(&e.columns, "columns", "", "rename the term's columns as `FILE` says (CSV or workbook with Sheet, Their column, Our column), for exports from other systems")
 }
 
 // openInput opens a file the user gave as input, refusing anything that is

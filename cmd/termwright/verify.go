@@ -33,6 +33,7 @@ func newVerifyCmd(e *env) *cobra.Command {
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runVerify(e, o, args[0], args[1]) }),
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "print the report as JSON")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 

@@ -1,31 +1,31 @@
-package encode
+package timetable
 
-// minCostAssignment pairs the rows of cost with distinct columns, as many
+// LeastCostPairs pairs the rows of cost with distinct columns, as many
 // pairs as the smaller side has, so that the sum of the chosen entries is
-// least (the Hungarian method of Kuhn, Naval Res. Logist. Q. 2, 1955, in
-// the shortest-augmenting-path form with potentials: O(n²·m) for n ≤ m).
-// It returns, per row, its column or -1. cost must be rectangular with
-// non-negative entries.
-func minCostAssignment(cost [][]int64) []int {
+// least: the Hungarian method (Kuhn, Naval Res. Logist. Q. 2, 1955) in the
+// shortest-augmenting-path form with potentials, O(n²·m) for n ≤ m. It
+// returns, per row, its column or -1. cost must be rectangular with
+// non-negative entries. Both the comparison of two timetables and the
+// solve report's moves (encode) pair meetings with it.
+func LeastCostPairs(cost [][]int64) []int {
 	n := len(cost)
 	if n == 0 {
 		return nil
 	}
 	m := len(cost[0])
-	if n > m { // pair columns with rows, then invert
-		t := make([][]int64, m)
-		for j := range t {
-			t[j] = make([]int64, n)
+	if n > m { // pair the columns with rows, then invert
+		tr := make([][]int64, m)
+		for j := range tr {
+			tr[j] = make([]int64, n)
 			for i := range cost {
-				t[j][i] = cost[i][j]
+				tr[j][i] = cost[i][j]
 			}
 		}
-		colRow := minCostAssignment(t)
 		out := make([]int, n)
 		for i := range out {
 			out[i] = -1
 		}
-		for j, i := range colRow {
+		for j, i := range LeastCostPairs(tr) {
 			out[i] = j
 		}
 		return out
