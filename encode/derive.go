@@ -318,7 +318,7 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 		x.tally.Timings.Derive += time.Since(t0)
 	}()
 	d := &Derived{}
-	q := x.p
+	var q *solver.Program
 	if split, ok := splitProgram(x.p, &x.index, reach, incumbent, keepWeak); ok {
 		d.split, q = split, split.q
 	} else {
