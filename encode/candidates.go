@@ -1,9 +1,6 @@
 package encode
 
-import (
-	"github.com/termwright/termwright/solver"
-	"github.com/termwright/termwright/timetable"
-)
+import "github.com/termwright/termwright/solver"
 
 // compileStarts makes the decision atoms: start(S,P) for every section S and
 // every candidate start period P, and one choice rule per section choosing
@@ -134,14 +131,4 @@ func (b *builder) coveringStarts(dst []solver.Lit, s, p int) []solver.Lit {
 		}
 	}
 	return dst
-}
-
-// dayOrder is the position of period p's day in the grid's day list.
-func dayStarts(t *timetable.Term) (days []int) {
-	for p := range t.Periods {
-		if p == 0 || t.Periods[p].Day != t.Periods[p-1].Day {
-			days = append(days, p)
-		}
-	}
-	return days
 }

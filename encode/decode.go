@@ -1,6 +1,7 @@
 package encode
 
 import (
+	"context"
 	"fmt"
 	"sort"
 	"strings"
@@ -11,7 +12,7 @@ import (
 
 // HallError says that in some period the meetings that can only use the
 // rooms of a set U outnumber the rooms of U available then, so no room
-// assignment exists for the model (Hall 1935). Solve adds the Hall
+// assignment exists for the model (Hall 1935). Search.Cut adds the Hall
 // constraints of every such U to the program and searches again.
 type HallError struct {
 	Period   int               // index into Term.Periods
@@ -59,9 +60,13 @@ type meeting struct {
 
 // decoder turns one model into a schedule.
 type decoder struct {
-	t  *timetable.Term
-	c  *Catalog
-	ms []meeting
+	// ctx bounds the exact room searches; when it ends, decoding stops
+	// with its error.
+	ctx    context.Context
+	effort roomEffort // limits of the exact room searches
+	t      *timetable.Term
+	c      *Catalog
+	ms     []meeting
 	// members caches the member list of each room set.
 	members map[int][]int
 }
@@ -78,7 +83,18 @@ type decoder struct {
 // fewest students over first). A batch that cannot be completed is solved
 // exactly; when that fails too, the result is a *RoomConflictError.
 func Decode(t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Schedule, error) {
-	d := &decoder{t: t, c: c, members: map[int][]int{}}
+	return DecodeContext(context.Background(), t, c, model)
+}
+
+// DecodeContext is Decode within ctx: the exact room searches stop when
+// ctx ends, and then it returns ctx's error.
+func DecodeContext(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom) (*timetable.Schedule, error) {
+	return decodeWith(ctx, t, c, model, defaultRoomEffort)
+}
+
+// decodeWith is DecodeContext with the given effort limits.
+func decodeWith(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom, effort roomEffort) (*timetable.Schedule, error) {
+	d := &decoder{ctx: ctx, effort: effort, t: t, c: c, members: map[int][]int{}}
 	if err := d.readStarts(model); err != nil {
 		return nil, err
 	}

@@ -57,33 +57,58 @@
 // week scope to their rooms (Hopcroft–Karp); if a matching falls short, the
 // set Z of meetings reachable from an unmatched one by alternating paths and
 // the union U of their candidate sets form a Hall violator (König's theorem),
-// returned as a *HallError; Solve adds U as a new family (for every period)
-// and searches again — lazy room constraints. Otherwise rooms are assigned in
-// grid order by augmenting paths that try the section's room so far first
-// (room stability), then the best fit. Meetings that span several periods,
-// week patterns and same-room groups need one room for all they cover, which
-// per-period counting cannot promise. When the fast assignment fails, the
-// failed meetings and the meetings holding their rooms (widened three times,
-// same-room groups whole) are re-solved exactly with explicit room atoms by
-// the engine, everything else staying put. If that fails, a growing
-// neighbourhood of the failed meetings is solved on its own: when even that
-// has no assignment, the engine's unsatisfiable core becomes a clause
-// forbidding that combination of starts (*RoomConflictError). Whole
+// returned as a *HallError; the search (Search.Cut) adds U as a new family
+// (for every period) and searches again — lazy room constraints. Otherwise
+// rooms are assigned in grid order by augmenting paths that try the
+// section's room so far first (room stability), then the best fit.
+// Meetings that span several periods, week patterns and same-room groups
+// need one room for all they cover, which per-period counting cannot
+// promise. When the fast assignment fails, Decode repairs (roomassign.go),
+// with explicit room atoms solved by the engine and everything else
+// staying put: each failed meeting with the meetings holding its rooms
+// (same-room groups whole, a small conflict budget); then, for the
+// meetings still failed, the smallest neighbourhood of them solved on its
+// own (when it has no assignment, no repair can help: the engine's
+// unsatisfiable core becomes a clause forbidding that combination of
+// starts, *RoomConflictError); then all of them with their blockers
+// (widened up to three times, while the set stays below the largest
+// component searched); then growing neighbourhoods on their own. Whole
 // components are searched only as a last resort and only when small; a
-// conflict that is not proved within the effort limits is still forbidden
-// but marked Incomplete, and Solve then reports "unknown" rather than "no
-// timetable".
+// conflict that is not proved within the effort limits (roomEffort) is
+// still forbidden but marked Incomplete, and Solve then reports "unknown"
+// rather than "no timetable". The exact searches run within the caller's
+// context (DecodeContext): when it ends, Decode returns its error and
+// forbids nothing.
+//
+// # The search loop (search.go, cuts.go)
+//
+// One type, Search, owns the search of a compiled program: solve under
+// assumptions on one live engine, solver.Verify, Decode, timetable.Check
+// (Gates), room problems turned into cuts (Cut: a *HallError's sets become
+// room families, a *RoomConflictError's start combinations integrity
+// constraints), and the phases of a new engine taken from a model
+// (Prefer). Find runs that loop until a caller's gate accepts a model.
+// Cuts are written into the program first, so Verify and every later
+// engine see them; the live engine catches up before its next call: new
+// constraints become clauses, a new family's Hall bounds native bounds
+// (solver.Solver.AddBound: a lazy round costs a propagation, not a
+// rebuild), the selector facts of families added in normal mode are
+// dropped from conditions and added to every model, and what it cannot
+// take (a new choice: a family's selector in Explain mode) makes it
+// rebuild from the preferred phases. Solve, the
+// optimiser (first timetable, whole term, neighbourhood steps through
+// Search.Derive and Search.Improve) and every explanation check are short
+// callers. A first timetable of a very large program (over 500,000
+// atoms) is searched with rare restarts: each restart there re-decides
+// hundreds of thousands of atoms.
 //
 // # Solve
 //
 // Solve compiles the hard requirements only (Options.HardOnly: the soft
-// criteria are Optimize's), searches with the engine, checks each model with
-// solver.Verify, decodes it (adding lazily found room families, which
-// rebuilds the engine starting from the previous model's phases, or adding
-// room-conflict clauses to the running engine), and checks the timetable
-// with timetable.Check. Seed 0 is taken as 1: without random tie-breaking
-// the engine tries atoms in numbering order, keeps each section's last
-// candidates and piles meetings into the last periods of the week.
+// criteria are Optimize's) and runs Search.Find with the gates as its
+// test. Seed 0 is taken as 1: without random tie-breaking the engine tries
+// atoms in numbering order, keeps each section's last candidates and piles
+// meetings into the last periods of the week.
 //
 // Explicit room atoms in the main program are therefore never needed: the
 // rare cases that would need them (same-room relations, fixed rooms) are
@@ -152,14 +177,22 @@
 //
 // # Optimisation (optimize*.go, lns.go)
 //
-// Optimize finds a first verified timetable, runs solver.Optimize on the
-// whole term within a conflict budget, and then large-neighbourhood search
-// (Shaw 1998) on the same solver: the sections outside a neighbourhood are
-// assumed at their starts in the best timetable, the neighbourhood (the
-// subject of a costly weak constraint, a person with a share of the cost,
-// related sections, a day, random sections) is re-optimised within a
-// conflict budget, and every model the engine finds goes through the gates;
-// the best whole cost wins. The neighbourhood grows after a proven step and
+// Optimize finds a first verified timetable (a Search over the hard
+// program, each model completed on the whole program's Search by assuming
+// its starts), runs solver.Optimize on the whole term within a conflict
+// budget, and then large-neighbourhood search (Shaw 1998): for each step
+// Search.Derive makes an engine of the part of the program that the
+// neighbourhood can change — the atoms that depend only on the other
+// sections' starts form a splitting set (Lifschitz and Turner 1994), so
+// the program is partially evaluated on the best timetable's values of
+// them (derive.go), visiting only the statements the free atoms occur in;
+// its models joined with the fixed part are models of the whole program.
+// So building a step's engine costs what the neighbourhood touches, not
+// the term. The neighbourhood (the subject of a costly
+// weak constraint, a person with a share of the cost, related sections, a
+// day, random sections) is re-optimised within a conflict budget, and
+// every model the engine finds goes through the gates; the best whole cost
+// wins. The neighbourhood grows after a proven step and
 // shrinks after one that ran out of budget. All budgets count conflicts,
 // so a run that ends by itself (proof, stall or step limit) depends only on
 // the term, the options and the seed; a time limit or Ctrl-C ends it with

@@ -84,10 +84,10 @@ type Explainer struct {
 	reqs []Request
 	opt  ExplainOptions
 
-	p     *solver.Program
-	cat   *Catalog
-	s     *solver.Solver
-	eopts solver.Options
+	p      *solver.Program
+	cat    *Catalog
+	search *Search // every check's search; the program grows with its cuts
+	tally  Result  // the search's counters
 
 	roles      []groupRole // per group; groups added later (room families) are requirements
 	reqGroup   []int       // group of each request
@@ -106,7 +106,7 @@ type ExplainStats struct {
 	Sat       int   `json:"sat"`       // checks with a model
 	Unsat     int   `json:"unsat"`     // checks without
 	Unknown   int   `json:"unknown"`   // checks that ran out of budget or time
-	Rebuilds  int   `json:"rebuilds"`  // engine rebuilds after room families were added
+	Rebuilds  int   `json:"rebuilds"`  // engines built after room families were added
 	Families  int   `json:"families"`  // room families added after Hall violations
 	Nogoods   int   `json:"nogoods"`   // room combinations forbidden
 	Conflicts int64 `json:"conflicts"` // engine conflicts, all checks
@@ -153,13 +153,13 @@ func NewExplainer(t *timetable.Term, reqs []Request, opt ExplainOptions) (*Expla
 	if err := x.addSectionSelectors(); err != nil {
 		return nil, err
 	}
-	x.eopts = solver.DefaultOptions()
-	x.eopts.Seed = opt.Seed
-	x.eopts.ConflictLimit = opt.CheckConflicts
-	if err := x.rebuild(nil); err != nil {
+	eopts := solver.DefaultOptions()
+	eopts.Seed = opt.Seed
+	eopts.ConflictLimit = opt.CheckConflicts
+	x.search = NewSearch(x.work, x.p, x.cat, SearchOptions{Engine: eopts, Tally: &x.tally})
+	if _, err := x.search.Engine(); err != nil {
 		return nil, err
 	}
-	x.stats.Rebuilds = 0
 	return x, nil
 }
 
@@ -176,26 +176,6 @@ func (x *Explainer) role(g int) groupRole {
 		return x.roles[g]
 	}
 	return roleRequirement
-}
-
-// rebuild makes a new engine for the program (after it grew), starting from
-// the start atoms of model when given.
-func (x *Explainer) rebuild(model []solver.Atom) error {
-	if x.s != nil {
-		x.stats.Conflicts += x.s.Stats().Conflicts
-	}
-	s, err := solver.New(x.p, x.eopts)
-	if err != nil {
-		return fmt.Errorf("internal error: the engine rejects the explanation program: %w", err)
-	}
-	for _, a := range model {
-		if x.cat.AtomInfo(a).Kind == AtomStart {
-			s.SetPhase(a, true)
-		}
-	}
-	x.s = s
-	x.stats.Rebuilds++
-	return nil
 }
 
 // addSectionSelectors gives every section a group "the section is
@@ -317,8 +297,7 @@ func (x *Explainer) Program() (*solver.Program, *Catalog) { return x.p, x.cat }
 // Stats returns the work counters so far.
 func (x *Explainer) Stats() ExplainStats {
 	st := x.stats
-	if x.s != nil {
-		st.Conflicts += x.s.Stats().Conflicts
-	}
+	st.Rebuilds = x.search.Builds() - 1
+	st.Conflicts = x.tally.Engine.Conflicts
 	return st
 }

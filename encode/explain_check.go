@@ -26,61 +26,58 @@ type explainCheck struct {
 // check decides whether the groups with on[g] true (groups beyond len(on),
 // such as room families found during the check, count as on) can hold
 // together with the extra assumptions, every other group being switched
-// off. A model is decoded into a timetable; a room set that the model
-// overfills (a Hall violation the program did not yet state) is added as a
-// new room family and the check searches again, and so is a room
-// combination that Decode proves impossible (a nogood behind the room
-// assignment group). The status is Unknown when the conflict budget or ctx
-// runs out.
+// off: one Search.Find under those assumptions. A model is decoded into a
+// timetable; a room set that the model overfills (a Hall violation the
+// program did not yet state) is added as a new room family and the check
+// searches again, and so is a room combination that Decode proves
+// impossible (a nogood behind the room assignment group). The status is
+// Unknown when the conflict budget or ctx runs out.
 func (x *Explainer) check(ctx context.Context, on []bool, extra []solver.Lit) (explainCheck, error) {
 	x.stats.Checks++
 	isOn := func(g int) bool { return g >= len(on) || on[g] }
-	for round := 0; round < maxCheckRounds; round++ {
-		x.s.Assume(x.assumptions(isOn, extra)...)
-		st := x.s.Solve(ctx)
-		switch st {
-		case solver.Unknown:
-			x.stats.Unknown++
-			return explainCheck{status: solver.Unknown}, nil
-		case solver.Unsatisfiable:
-			x.stats.Unsat++
-			return x.unsat(extra), nil
-		}
-		model := x.s.Model(nil)
+	var sched *timetable.Schedule
+	gate := func(ctx context.Context, model []solver.Atom) error {
+		sched = nil
 		if x.opt.VerifyModels {
 			if err := solver.Verify(x.p, model); err != nil {
-				return explainCheck{}, fmt.Errorf("internal error: a model of the explanation program fails the verifier: %w", err)
+				return fmt.Errorf("internal error: a model of the explanation program fails the verifier: %w", err)
 			}
 		}
-		sched, err := x.decode(model, isOn)
+		var err error
+		sched, err = x.decode(ctx, model, isOn)
 		var herr *HallError
 		var rerr *RoomConflictError
 		switch {
 		case err == nil:
-			x.stats.Sat++
-			return explainCheck{status: solver.Satisfiable, model: model, sched: sched}, nil
+			return nil
 		case errors.As(err, &herr):
-			added, err := x.addFamilies(herr, model)
-			if err != nil {
-				return explainCheck{}, err
-			}
-			if !added {
+			if x.addFamilies(herr) == 0 {
 				// Every overfilled room set is stated already: the
 				// shortage comes from room requirements switched off.
-				x.stats.Sat++
-				return explainCheck{status: solver.Satisfiable, model: model}, nil
+				return nil
 			}
+			return errSearchAgain
 		case errors.As(err, &rerr):
 			if !isOn(x.roomAssign) {
-				x.stats.Sat++
-				return explainCheck{status: solver.Satisfiable, model: model}, nil
+				return nil
 			}
-			if err := x.addNogoods(rerr, isOn); err != nil {
-				return explainCheck{}, err
-			}
-		default:
-			return explainCheck{}, fmt.Errorf("internal error: %w", err)
+			x.addNogoods(rerr, isOn)
+			return errSearchAgain
+		case ctx.Err() != nil && errors.Is(err, ctx.Err()):
+			return err
 		}
+		return fmt.Errorf("internal error: %w", err)
+	}
+	st, model, err := x.search.Find(ctx, func() []solver.Lit { return x.assumptions(isOn, extra) }, gate, maxCheckRounds)
+	switch {
+	case err != nil:
+		return explainCheck{}, err
+	case st == solver.Unsatisfiable:
+		x.stats.Unsat++
+		return x.unsat(extra), nil
+	case st == solver.Satisfiable:
+		x.stats.Sat++
+		return explainCheck{status: solver.Satisfiable, model: model, sched: sched}, nil
 	}
 	x.stats.Unknown++
 	return explainCheck{status: solver.Unknown}, nil
@@ -110,7 +107,7 @@ func (x *Explainer) assumptions(isOn func(int) bool, extra []solver.Lit) []solve
 // unsat reads the engine's core as groups and extra literals.
 func (x *Explainer) unsat(extra []solver.Lit) explainCheck {
 	res := explainCheck{status: solver.Unsatisfiable}
-	for _, l := range x.s.Core(nil) {
+	for _, l := range x.search.Core() {
 		if g, ok := x.cat.GroupOf(l.Atom()); ok && !l.IsNeg() {
 			res.core = append(res.core, g.ID)
 			continue
@@ -127,7 +124,7 @@ func (x *Explainer) unsat(extra []solver.Lit) explainCheck {
 // decode turns a model into a timetable of the work term, treating rooms
 // whose availability group is off as always available and sections whose
 // group is off as absent.
-func (x *Explainer) decode(model []solver.Atom, isOn func(int) bool) (*timetable.Schedule, error) {
+func (x *Explainer) decode(ctx context.Context, model []solver.Atom, isOn func(int) bool) (*timetable.Schedule, error) {
 	cc := *x.cat
 	copied := false
 	for r, g := range cc.rooms.blocker {
@@ -149,66 +146,43 @@ func (x *Explainer) decode(model []solver.Atom, isOn func(int) bool) (*timetable
 			cc.secs[s].meetings = 0
 		}
 	}
-	return Decode(x.work, &cc, model)
+	return DecodeContext(ctx, x.work, &cc, model)
 }
 
 // addFamilies adds the room sets of a Hall violation as room families (new
-// requirement groups) and rebuilds the engine; it reports whether any set
-// was new.
-func (x *Explainer) addFamilies(herr *HallError, model []solver.Atom) (bool, error) {
-	b := x.cat.extender(x.p)
-	added := false
-	for _, set := range herr.sets {
-		if _, ok := b.addFamily(set, true); ok {
-			added = true
-			x.stats.Families++
-		}
-	}
-	if !added {
-		return false, nil
-	}
-	return true, x.rebuild(model)
+// requirement groups; the engine is rebuilt before the next check) and
+// returns how many were new.
+func (x *Explainer) addFamilies(herr *HallError) int {
+	n := x.search.AddFamilies(herr)
+	x.stats.Families += n
+	return n
 }
 
 // addNogoods forbids the room combinations of a room conflict while the
-// room assignment group holds: in the engine at once, and in the program
-// for later rebuilds and for Verify.
-func (x *Explainer) addNogoods(rerr *RoomConflictError, isOn func(int) bool) error {
+// room assignment group holds, in the program (for Verify) and in the
+// engine before its next call.
+func (x *Explainer) addNogoods(rerr *RoomConflictError, isOn func(int) bool) {
 	if rerr.Incomplete {
 		x.incomplete = true
 	}
-	b := x.cat.extender(x.p)
-	b.in(x.roomAssign, KindRoomAssignment)
 	// The nogood holds while room assignment holds and every room that was
 	// unavailable in this check stays so (more free rooms may allow it).
-	guard := []solver.Lit{b.sel(x.roomAssign)}
+	guard := []solver.Lit{solver.Pos(x.cat.Groups[x.roomAssign].Selector)}
 	for _, g := range x.cat.rooms.blocker {
-		if g >= 0 && isOn(g) && !slices.Contains(guard, b.sel(g)) {
-			guard = append(guard, b.sel(g))
+		if g >= 0 && isOn(g) {
+			if l := solver.Pos(x.cat.Groups[g].Selector); !slices.Contains(guard, l) {
+				guard = append(guard, l)
+			}
 		}
 	}
-	for _, ng := range rerr.nogoods {
-		body := make([]solver.Lit, 0, len(ng)+len(guard))
-		for _, l := range ng {
-			body = append(body, l.Not())
-		}
-		b.rule(0, append(body, guard...)...)
-		clause := slices.Clone(ng)
-		for _, l := range guard {
-			clause = append(clause, l.Not())
-		}
-		if err := x.s.AddClause(clause...); err != nil {
-			return fmt.Errorf("internal error: adding a room nogood: %w", err)
-		}
-		x.stats.Nogoods++
-	}
+	x.search.Forbid(rerr, x.roomAssign, KindRoomAssignment, guard)
+	x.stats.Nogoods += len(rerr.nogoods)
 	secIdx := x.work.SectionIndex()
 	for _, id := range rerr.Sections {
 		if s, ok := secIdx[id]; ok && !slices.Contains(x.raSecs, s) {
 			x.raSecs = append(x.raSecs, s)
 		}
 	}
-	return nil
 }
 
 // allOn returns an on-set with every group holding except those listed.

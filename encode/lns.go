@@ -1,21 +1,21 @@
 package encode
 
 import (
-	"fmt"
 	"math/rand/v2"
 	"slices"
-	"time"
 
 	"github.com/termwright/termwright/solver"
 )
 
 // Large-neighbourhood search (Shaw 1998). The incumbent is the best
-// verified timetable. Each step frees a neighbourhood of sections, assumes
-// every other section's starts as in the incumbent (assumptions on start
-// atoms, so the solver and its learned clauses are reused), and optimises
-// the freed sections within a conflict budget; every model the engine
-// finds goes through the gates, and one whose total cost is lower becomes
-// the incumbent. The neighbourhood size adapts: when the engine proves a
+// verified timetable. Each step frees a neighbourhood of sections and
+// optimises them within a conflict budget on an engine of its own
+// (Search.Derive): the part of the program the freed sections can change,
+// partially evaluated on the incumbent's values of everything else (the
+// other sections' starts and what depends on them alone), with only the
+// weak constraints the freed sections can reach. Every model the engine finds
+// goes through the gates, and one whose total cost is lower becomes the
+// incumbent; room problems become cuts of the whole program. The neighbourhood size adapts: when the engine proves a
 // neighbourhood optimal the next one grows, when the budget runs out first
 // it shrinks.
 
@@ -105,53 +105,31 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 	for _, s := range free {
 		isFree[s] = true
 	}
-	// A program of its own for the step: the whole program plus the fixed
-	// starts as facts. Everything the fixed sections decide propagates at
-	// level 0 and drops out of the search, so each descent of the engine
-	// is short; building the solver costs about as much as one descent on
-	// the whole program.
-	q := *o.p
-	q.Rules = slices.Clip(o.p.Rules)
-	for _, a := range o.best.model {
-		if info := o.cat.AtomInfo(a); info.Kind == AtomStart && !isFree[info.Section] {
-			q.Rules = append(q.Rules, solver.Rule{Head: a})
-		}
-	}
 	// Weak constraints the freed sections cannot reach are constants of
 	// the step: leaving them out keeps the engine's weighted sums (and the
 	// explanations of their propagations) to what can change.
 	reach := o.reachable(isFree)
-	q.Weaks = nil
-	for _, w := range o.p.Weaks {
-		for _, l := range w.Body {
+	keepWeak := func(i int) bool {
+		for _, l := range o.p.Weaks[i].Body {
 			if reach[l.Atom()] {
-				q.Weaks = append(q.Weaks, w)
-				break
+				return true
 			}
 		}
+		return false
 	}
-	t0 := time.Now()
-	eopts := solver.DefaultOptions()
-	eopts.Seed = o.opt.Seed + int64(o.res.Steps)
-	s, err := solver.New(&q, eopts)
-	o.res.Timings.Solve += time.Since(t0)
+	s, err := o.x.Derive(reach, keepWeak, o.opt.Seed+int64(o.res.Steps), o.best.model)
 	if err != nil {
-		return solver.Unknown, false, false, fmt.Errorf("internal error: the engine rejects a neighbourhood program: %w", err)
+		return solver.Unknown, false, false, err
 	}
-	s.SetProgress(func(solver.Stats) { o.note(false) })
-	o.phases(s, o.best.model)
 	o.lastOnly, o.pending = len(o.p.Weaks) > GlobalWeakLimit, nil // on large terms the gates cost more than a step
-	st, complete, err = o.optimizeCall(s, nil, o.opt.StepConflicts, -1)
+	st, complete, err = o.x.Improve(o.ctx, s, nil, o.opt.StepConflicts, -1, o.onModel)
 	o.lastOnly = false
 	if err == nil && o.pending != nil {
-		o.take(o.pending)
-		if o.fatal != nil {
-			return st, false, false, o.fatal
-		}
-		if err := o.roomProblems(); err != nil {
+		ok, err := o.x.Settle(o.ctx, o.take(o.pending))
+		if err != nil {
 			return st, false, false, err
 		}
-		complete = complete && o.hall == nil && o.conflict == nil
+		complete = complete && ok
 	}
 	return st, s.Proven(), complete, err
 }

@@ -3,7 +3,6 @@ package encode
 import (
 	"context"
 	"errors"
-	"fmt"
 	"slices"
 	"time"
 
@@ -138,6 +137,11 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 		}
 	}
 	o.bound = make([]int64, len(o.levels))
+	eopts := solver.DefaultOptions()
+	eopts.Seed = o.opt.Seed
+	note := func(solver.Stats) { o.note(false) }
+	o.x = NewSearch(t, p, cat, SearchOptions{Engine: eopts, Progress: note, Tally: &o.res.Result, Improve: o.bestRooms})
+	o.h = NewSearch(t, p, cat, SearchOptions{Engine: firstTimetableOptions(eopts, p), Progress: note, Tally: &o.res.Result, HardOnly: true})
 	if err := o.run(); err != nil {
 		return nil, err
 	}
@@ -165,19 +169,14 @@ type optRun struct {
 	opt    OptimizeOptions
 	p      *solver.Program
 	cat    *Catalog
-	s      *solver.Solver // nil when it must be (re)built
+	x      *Search // the whole term: global search, first-timetable completion, neighbourhood steps
+	h      *Search // the hard requirements only: the first timetable's search
 	res    *OptimizeResult
 	levels []int
 	start  time.Time
 
 	best  *candidate // best verified timetable so far, the incumbent of neighbourhood search
 	bound []int64    // proven lower bound per level of levels
-
-	// Set by the model callback when a model cannot be used.
-	stop     context.CancelFunc // cancels the running engine call
-	hall     *HallError         // rooms short in some period: add families and rebuild
-	conflict *RoomConflictError // room combination without assignment: forbid and search again
-	fatal    error              // a gate failed
 
 	// In neighbourhood steps only the engine's last model of a call is
 	// put through the gates (each improves on the one before).
@@ -206,108 +205,6 @@ func (o *optRun) run() error {
 	return o.lns()
 }
 
-// engine returns the solver, building it when needed, with the phases of
-// the incumbent.
-func (o *optRun) engine() (*solver.Solver, error) {
-	if o.s != nil {
-		return o.s, nil
-	}
-	t0 := time.Now()
-	defer func() { o.res.Timings.Solve += time.Since(t0) }()
-	eopts := solver.DefaultOptions()
-	eopts.Seed = o.opt.Seed
-	s, err := solver.New(o.p, eopts)
-	if err != nil {
-		return nil, fmt.Errorf("internal error: the engine rejects the compiled program: %w", err)
-	}
-	s.SetProgress(func(solver.Stats) { o.note(false) })
-	o.s = s
-	if o.best != nil {
-		o.phases(s, o.best.model)
-	}
-	return s, nil
-}
-
-// phases makes engine s try the given model's start atoms first.
-func (o *optRun) phases(s *solver.Solver, model []solver.Atom) {
-	in := make([]bool, o.p.NumAtoms()+1)
-	for _, a := range model {
-		in[a] = true
-	}
-	for sec := range o.cat.secs {
-		for _, p := range o.cat.secs[sec].starts {
-			a := o.cat.secs[sec].start[p]
-			s.SetPhase(a, in[a])
-		}
-	}
-}
-
-// optimizeCall runs one solver.Optimize on engine s under the given
-// assumptions and conflict budget, handling models through the callback.
-// It reports the status and whether the call ran to its end (not stopped
-// for a room problem or by ctx).
-func (o *optRun) optimizeCall(s *solver.Solver, assume []solver.Lit, conflicts int64, coreBudget int64) (solver.Status, bool, error) {
-	ctx, cancel := context.WithCancel(o.ctx)
-	defer cancel()
-	o.stop = cancel
-	o.hall, o.conflict, o.fatal = nil, nil, nil
-	s.SetConflictLimit(conflicts)
-	s.SetCoreBudget(coreBudget)
-	s.Assume(assume...)
-	t0 := time.Now()
-	before := s.Stats()
-	o.res.Rounds++
-	st, _, err := s.Optimize(ctx, o.onModel)
-	o.res.Timings.Solve += time.Since(t0)
-	o.res.Engine = o.res.Engine.Add(s.Stats().Since(before))
-	if err != nil {
-		return st, false, fmt.Errorf("internal error: %w", err)
-	}
-	if o.fatal != nil {
-		return st, false, o.fatal
-	}
-	if err := o.roomProblems(); err != nil {
-		return st, false, err
-	}
-	complete := o.hall == nil && o.conflict == nil && o.ctx.Err() == nil
-	return st, complete, nil
-}
-
-// roomProblems adds what the callback learned about rooms: Hall families
-// (the solver must be rebuilt) and forbidden room combinations (clauses).
-func (o *optRun) roomProblems() error {
-	if o.hall != nil {
-		b := o.cat.extender(o.p)
-		for _, set := range o.hall.sets {
-			if _, added := b.addFamily(set, true); added {
-				o.res.HallCuts++
-			}
-		}
-		o.s = nil
-	}
-	if o.conflict != nil {
-		for _, ng := range o.conflict.nogoods {
-			starts := make([]solver.Lit, len(ng))
-			for i, l := range ng {
-				starts[i] = l.Not()
-			}
-			b := o.cat.extender(o.p)
-			b.in(-1, "room conflict")
-			b.rule(0, starts...)
-			if o.s != nil {
-				if err := o.s.AddClause(ng...); err != nil {
-					return fmt.Errorf("internal error: adding a room conflict: %w", err)
-				}
-			}
-			o.res.Nogoods++
-		}
-		if o.conflict.Incomplete {
-			o.res.Incomplete = true
-		}
-	}
-	return nil
-}
-
 // global finds the first verified timetable (no budget: whatever it
 // takes), then, unless budget is negative, runs model-improving search with
 // core-guided lower bounds on the whole term until the optimum is proven,
@@ -328,11 +225,7 @@ func (o *optRun) global(budget int64) error {
 			return nil
 		}
 		spent := o.res.Engine.Conflicts
-		s, err := o.engine()
-		if err != nil {
-			return err
-		}
-		st, complete, err := o.optimizeCall(s, nil, budget, 0)
+		st, complete, err := o.x.Improve(o.ctx, nil, nil, budget, 0, o.onModel)
 		if err != nil {
 			return err
 		}
@@ -359,8 +252,8 @@ func (o *optRun) global(budget int64) error {
 // whole term: the time part of the cost is at least the engine's bound,
 // and the room part is never negative.
 func (o *optRun) readBound() {
-	lb := o.s.LowerBound()
-	for i, l := range o.s.Levels() {
+	lb := o.x.s.LowerBound()
+	for i, l := range o.x.s.Levels() {
 		if k := slices.Index(o.levels, l); k >= 0 && i < len(lb) {
 			o.bound[k] = max(o.bound[k], lb[i])
 		}

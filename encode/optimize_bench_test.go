@@ -71,3 +71,40 @@ func costLine(rep timetable.CostReport) string {
 	}
 	return s
 }
+
+// BenchmarkNeighbourhoodSteps measures neighbourhood search on the
+// 2,000-section generated term: Optimize with the whole-term phase skipped,
+// once without neighbourhood steps and once with a fixed number of them
+// (everything before the steps is the same: every budget counts
+// conflicts), and reports the steps per second of the difference and the
+// share of it spent constructing engines ("build-share"). Run one
+// iteration:
+//
+//	go test ./encode -run XXX -bench NeighbourhoodSteps -benchtime 1x -timeout 30m
+func BenchmarkNeighbourhoodSteps(b *testing.B) {
+	term := benchTerm(2000)
+	const steps = 40
+	run := func(opt OptimizeOptions) (*OptimizeResult, time.Duration) {
+		opt.Seed, opt.GlobalConflicts = 1, -1
+		t0 := time.Now()
+		res, err := Optimize(context.Background(), term, opt)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if res.Schedule == nil {
+			b.Fatalf("no timetable: %v", res.Status)
+		}
+		return res, time.Since(t0)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		first, firstWall := run(OptimizeOptions{MaxStall: -1})
+		res, wall := run(OptimizeOptions{MaxSteps: steps, MaxStall: steps + 1})
+		lns := wall - firstWall
+		build := res.Timings.Derive - first.Timings.Derive
+		b.ReportMetric(float64(res.Steps)/lns.Seconds(), "steps/s")
+		b.ReportMetric(build.Seconds()/lns.Seconds(), "build-share")
+		b.ReportMetric(firstWall.Seconds(), "first-s")
+		b.Logf("%d steps in %v, engine construction %v of it; first timetable after %v", res.Steps, lns, build, firstWall)
+	}
+}

@@ -1,11 +1,8 @@
 package encode
 
 import (
-	"errors"
-	"fmt"
+	"context"
 	"slices"
-	"strings"
-	"time"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
@@ -22,53 +19,39 @@ type candidate struct {
 	time   []int64              // the engine's cost per level of optRun.levels
 }
 
-// onModel is the engine's callback for every model that improves on the
-// engine call's best. A model that places every meeting where the best
+// onModel is the gate of every model that improves on the engine call's
+// best. A model that places every meeting where the best
 // timetable has it is passed over; any other goes through the gates and
 // becomes the best timetable when its total cost (rooms included) is lower.
 // The engine sees only the time part of the cost, so a model it prefers may
 // still lose on the room criteria. A model whose rooms cannot be assigned
-// stops the call so that the room constraints can be added.
-func (o *optRun) onModel(_ []int64, model []solver.Atom) {
-	if o.fatal != nil || o.hall != nil || o.conflict != nil {
-		return
-	}
+// stops the call so that the room constraints can be added (Search.Improve).
+func (o *optRun) onModel(_ context.Context, model []solver.Atom) error {
 	if o.best != nil && (o.sameStarts(model, o.best.model) || slices.Compare(o.timeCost(model), o.best.total) >= 0) {
-		return // rooms never cost less than nothing: it cannot beat the best
+		return nil // rooms never cost less than nothing: it cannot beat the best
 	}
 	if o.lastOnly {
 		o.pending = slices.Clone(model) // evaluated when the engine call ends
-		return
+		return nil
 	}
-	o.take(model)
+	return o.take(model)
 }
 
 // take puts a model through the gates and keeps it when it is the best.
-func (o *optRun) take(model []solver.Atom) {
+func (o *optRun) take(model []solver.Atom) error {
 	c, err := o.evaluate(model)
-	var herr *HallError
-	var rerr *RoomConflictError
-	switch {
-	case errors.As(err, &herr):
-		o.hall = herr
-		o.stop()
-		return
-	case errors.As(err, &rerr):
-		o.conflict = rerr
-		o.stop()
-		return
-	case err != nil:
-		o.fatal = err
-		o.stop()
-		return
+	if err != nil {
+		return err
 	}
 	o.accept(c)
+	return nil
 }
 
 // accept makes c the best timetable when its total cost is lower.
 func (o *optRun) accept(c *candidate) {
 	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
 		o.best = c
+		o.x.Prefer(c.model) // a rebuilt engine starts from the incumbent
 		o.res.History = append(o.res.History, o.snapshot())
 		o.note(true)
 	}
@@ -94,40 +77,15 @@ func (o *optRun) byLevel(perCrit []int64) []int64 {
 	return out
 }
 
-// evaluate puts a model through the gates: solver.Verify, Decode (which may
-// report room problems as *HallError or *RoomConflictError), room
-// improvement, timetable.Check and the third gate; then it evaluates
-// timetable.Cost.
+// evaluate puts a model through the gates: Search.Gates (solver.Verify,
+// Decode, which may report room problems as *HallError or
+// *RoomConflictError, room improvement, timetable.Check) and the third
+// gate; then it evaluates timetable.Cost.
 func (o *optRun) evaluate(model []solver.Atom) (*candidate, error) {
 	model = slices.Clone(model)
-	t0 := time.Now()
-	verr := solver.Verify(o.p, model)
-	o.res.Timings.Verify += time.Since(t0)
-	if verr != nil {
-		return nil, fmt.Errorf("internal error: the engine's model fails the verifier: %w", verr)
-	}
-	t1 := time.Now()
-	sched, err := Decode(o.t, o.cat, model)
-	if err == nil {
-		sched = o.bestRooms(sched)
-	}
-	o.res.Timings.Decode += time.Since(t1)
+	sched, err := o.x.Gates(o.ctx, model)
 	if err != nil {
 		return nil, err
-	}
-	t2 := time.Now()
-	hard := timetable.HardViolations(timetable.Check(o.t, sched))
-	o.res.Timings.Check += time.Since(t2)
-	if len(hard) > 0 {
-		msgs := make([]string, 0, len(hard))
-		for i, v := range hard {
-			if i == 10 {
-				msgs = append(msgs, fmt.Sprintf("and %d more", len(hard)-10))
-				break
-			}
-			msgs = append(msgs, v.Msg)
-		}
-		return nil, fmt.Errorf("%w:\n  %s", ErrCheckFailed, strings.Join(msgs, "\n  "))
 	}
 	if err := o.cat.thirdGate(o.t, o.p, model, sched, o.opt.Keep); err != nil {
 		return nil, err

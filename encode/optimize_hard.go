@@ -1,10 +1,9 @@
 package encode
 
 import (
-	"errors"
+	"context"
 	"fmt"
 	"slices"
-	"time"
 
 	"github.com/termwright/termwright/solver"
 )
@@ -50,76 +49,47 @@ func (c *Catalog) HardProgram(p *solver.Program) *solver.Program {
 
 // first finds the first verified timetable: a model of the hard program,
 // completed into a model of the whole program by assuming its starts, then
-// the gates. Room problems are added to the program and the search is run
-// again. It sets the result's status when there is no timetable.
+// the gates. Room problems become cuts and the search goes on. It sets the
+// result's status when there is no timetable.
 func (o *optRun) first() error {
-	for round := 0; round < 1000; round++ {
-		if o.ctx.Err() != nil {
-			o.res.Stopped = o.ctxStopped()
-			return nil
-		}
-		t0 := time.Now()
-		eopts := solver.DefaultOptions()
-		eopts.Seed = o.opt.Seed
-		hs, err := solver.New(o.cat.HardProgram(o.p), eopts)
-		if err != nil {
-			return fmt.Errorf("internal error: the engine rejects the compiled program: %w", err)
-		}
-		hs.SetProgress(func(solver.Stats) { o.note(false) })
-		o.res.Rounds++
-		st := hs.Solve(o.ctx)
-		o.res.Engine = o.res.Engine.Add(hs.Stats())
-		o.res.Timings.Solve += time.Since(t0)
-		switch st {
-		case solver.Unsatisfiable:
-			o.res.Status = solver.Unsatisfiable
-			if o.res.Incomplete {
-				o.res.Status = solver.Unknown
-			}
-			return nil
-		case solver.Unknown:
-			o.res.Stopped = o.ctxStopped()
-			return nil
-		}
-		s, err := o.engine()
-		if err != nil {
-			return err
-		}
-		for _, a := range hs.Model(nil) {
+	st, _, err := o.h.Find(o.ctx, nil, func(ctx context.Context, hard []solver.Atom) error {
+		var assume []solver.Lit
+		for _, a := range hard {
 			if o.cat.AtomInfo(a).Kind == AtomStart {
-				s.Assume(solver.Pos(a))
+				assume = append(assume, solver.Pos(a))
 			}
 		}
-		t1 := time.Now()
-		before := s.Stats()
-		st = s.Solve(o.ctx)
-		o.res.Engine = o.res.Engine.Add(s.Stats().Since(before))
-		o.res.Timings.Solve += time.Since(t1)
-		if st != solver.Satisfiable {
-			if o.ctx.Err() != nil {
-				o.res.Stopped = o.ctxStopped()
-				return nil
-			}
-			return fmt.Errorf("internal error: the starts of a timetable of the hard program are %v in the whole program", st)
-		}
-		o.hall, o.conflict = nil, nil
-		c, err := o.evaluate(s.Model(nil))
-		var herr *HallError
-		var rerr *RoomConflictError
+		st, err := o.x.Solve(ctx, assume...)
 		switch {
-		case errors.As(err, &herr):
-			o.hall = herr
-		case errors.As(err, &rerr):
-			o.conflict = rerr
 		case err != nil:
 			return err
-		default:
-			o.accept(c)
-			return nil
+		case st != solver.Satisfiable && ctx.Err() != nil:
+			return ctx.Err()
+		case st != solver.Satisfiable:
+			return fmt.Errorf("internal error: the starts of a timetable of the hard program are %v in the whole program", st)
 		}
-		if err := o.roomProblems(); err != nil {
+		c, err := o.evaluate(o.x.Model())
+		if err != nil {
 			return err
 		}
+		o.accept(c)
+		return nil
+	}, maxFirstRounds)
+	switch {
+	case err != nil:
+		return err
+	case st == solver.Unsatisfiable:
+		o.res.Status = solver.Unsatisfiable
+		if o.res.Incomplete {
+			o.res.Status = solver.Unknown
+		}
+	case st == solver.Unknown && o.ctx.Err() != nil:
+		o.res.Stopped = o.ctxStopped()
+	case st == solver.Unknown:
+		return fmt.Errorf("internal error: room assignment keeps failing after %d rounds", maxFirstRounds)
 	}
-	return errors.New("internal error: room assignment keeps failing after 1000 rounds")
+	return nil
 }
+
+// maxFirstRounds caps the rounds of the search for a first timetable.
+const maxFirstRounds = 1000

@@ -223,8 +223,11 @@ func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res
 			continue
 		}
 		x.stats.Checks++
-		x.s.Assume(x.assumptions(isOn, append(fixed, solver.Pos(x.cat.StartAtom(s, q))))...)
-		switch x.s.Solve(ctx) {
+		st, err := x.search.Solve(ctx, x.assumptions(isOn, append(fixed, solver.Pos(x.cat.StartAtom(s, q))))...)
+		if err != nil {
+			return err
+		}
+		switch st {
 		case solver.Satisfiable:
 			x.stats.Sat++
 		case solver.Unsatisfiable:
@@ -239,7 +242,7 @@ func (x *Explainer) quickPlaces(ctx context.Context, s, want int, on []bool, res
 		ok := true
 		n := 0
 		for _, p := range x.cat.Candidates(s) {
-			if !x.s.Value(x.cat.StartAtom(s, p)) {
+			if !x.search.Value(x.cat.StartAtom(s, p)) {
 				continue
 			}
 			n++

@@ -295,8 +295,7 @@ func (a *roomAssigner) components() [][]int {
 	for i := range parent {
 		parent[i] = i
 	}
-	var find func(int) int
-	find = func(x int) int {
+	find := func(x int) int {
 		for parent[x] != x {
 			parent[x] = parent[parent[x]]
 			x = parent[x]
@@ -363,29 +362,50 @@ func (a *roomAssigner) components() [][]int {
 	return out
 }
 
-// localHops is how far local repair widens the set of meetings it moves.
-const localHops = 3
-
 // repair places the meetings the fast assignment left over. First it
-// re-solves them exactly together with the meetings that block them from
-// their rooms (widening a few times), the rest staying where they are. If
+// re-solves each exactly with the meetings that block it from its rooms
+// (repairEach), then the rest together with the meetings that block them
+// (widening a few times), everything else staying where it is. If
 // that fails, it looks for a proof that the failed meetings cannot be
 // roomed: a growing neighbourhood of them, solved on its own (others
 // ignored); an unsatisfiable one yields its core as a nogood over starts.
+// (The smallest such neighbourhood is tried before the repair of all
+// failed meetings together: when it is unsatisfiable, so is every repair.)
 // As a last resort each whole component is solved (only when small enough);
 // when nothing is proved within the effort limits, the nogood over the last
 // neighbourhood is returned marked Incomplete.
 func (a *roomAssigner) repair() error {
+	if a.d.effort.localHops > 0 {
+		if a.repairEach(); len(a.failed) == 0 {
+			return nil
+		}
+	}
+	rerr := &RoomConflictError{}
+	// A conflict of the failed meetings and their direct neighbours on
+	// their own is cheap to prove, and no local repair can undo it: look
+	// for it first (the result is the same as after a failed repair).
+	iso := &isolation{}
+	if a.d.effort.isolatedHops > 0 {
+		if core, ok := a.isolatedCore(iso, 1); ok {
+			a.addNogood(rerr, core)
+			return rerr
+		}
+	}
 	if a.localRepair() {
 		return nil
 	}
-	rerr := &RoomConflictError{}
-	if core, ok := a.isolatedCore(); ok {
+	if err := a.d.ctx.Err(); err != nil {
+		return err // out of time: no conflict was proved
+	}
+	if core, ok := a.isolatedCore(iso, a.d.effort.isolatedHops); ok {
 		a.addNogood(rerr, core)
 		return rerr
 	}
 	for _, comp := range a.components() {
-		if len(comp) > maxComponent {
+		if err := a.d.ctx.Err(); err != nil {
+			return err
+		}
+		if len(comp) > a.d.effort.maxComponent {
 			rerr.Incomplete = true
 			a.addNogood(rerr, a.neighbourhood(comp))
 			continue
@@ -393,9 +413,12 @@ func (a *roomAssigner) repair() error {
 		for _, mi := range comp {
 			a.unplace(mi)
 		}
-		core, proved, ok := a.exact(comp, componentConflictLimit, false)
+		core, proved, ok := a.exact(comp, a.d.effort.componentConflicts, false)
 		if ok {
 			continue
+		}
+		if err := a.d.ctx.Err(); err != nil {
+			return err
 		}
 		if !proved {
 			rerr.Incomplete = true
@@ -492,29 +515,115 @@ func (a *roomAssigner) widen(set []int, hops int) []int {
 	return set
 }
 
-// maxIsolated caps the neighbourhoods isolatedCore solves.
-const maxIsolated = 800
+// isolation is the state of the search for an isolated core: the set
+// solved on its own so far and how far it was widened.
+type isolation struct {
+	set  []int // the failed meetings widened hop times
+	hop  int
+	done bool // a neighbourhood was too large or ran out of budget: stop looking
+}
 
-// isolatedCore looks for a set of meetings around the failed ones that
-// cannot be roomed even on their own; it returns the engine's core.
-func (a *roomAssigner) isolatedCore() ([]int, bool) {
-	set := append([]int(nil), a.failed...)
-	for hop := 1; hop <= 4; hop++ {
-		set = a.widen(set, 1)
-		if len(set) > maxIsolated {
+// isolatedCore looks, widening up to hops times in all, for a set of
+// meetings around the failed ones that cannot be roomed even on their own;
+// it returns the engine's core. It resumes where an earlier call with the
+// same iso stopped.
+func (a *roomAssigner) isolatedCore(iso *isolation, hops int) ([]int, bool) {
+	if iso.set == nil {
+		iso.set = append([]int(nil), a.failed...)
+	}
+	for !iso.done && iso.hop < hops {
+		iso.hop++
+		iso.set = a.widen(iso.set, 1)
+		if len(iso.set) > a.d.effort.maxIsolated {
+			iso.done = true
 			return nil, false
 		}
-		core, proved, ok := a.exact(set, localConflictLimit, true)
+		core, proved, ok := a.exact(iso.set, a.d.effort.localConflicts, true)
 		switch {
 		case ok:
 			continue // roomable on its own: look wider
 		case proved:
 			return core, true
 		default:
+			iso.done = true
 			return nil, false
 		}
 	}
 	return nil, false
+}
+
+// repairEach re-solves the failed meetings one at a time, each with the
+// meetings that hold one of its candidate rooms during its periods in
+// overlapping weeks (and their whole same-room groups); every other
+// meeting keeps its room. It leaves in a.failed the meetings it could not
+// place. On a large term the failed meetings are scattered, and solving
+// them together with all their blockers (localRepair) means solving most
+// of the term's rooms at once.
+func (a *roomAssigner) repairEach() {
+	d := a.d
+	groups := map[int][]int{}
+	for j := range d.ms {
+		if g := d.ms[j].group; g >= 0 && d.ms[j].cand >= 0 {
+			groups[g] = append(groups[g], j)
+		}
+	}
+	var left []int
+	for _, mi := range a.failed {
+		if d.ctx.Err() != nil {
+			left = append(left, mi)
+			continue
+		}
+		in := map[int]bool{}
+		var set []int
+		add := func(j int) {
+			if in[j] {
+				return
+			}
+			in[j] = true
+			set = append(set, j)
+			if g := d.ms[j].group; g >= 0 {
+				for _, k := range groups[g] {
+					if !in[k] {
+						in[k] = true
+						set = append(set, k)
+					}
+				}
+			}
+		}
+		add(mi)
+		m := &d.ms[mi]
+		for _, r := range d.setMembers(m.cand) {
+			for q := m.start; q <= m.end; q++ {
+				for _, j := range a.occ[r][q] {
+					if d.ms[j].weeks&m.weeks != 0 {
+						add(int(j))
+					}
+				}
+			}
+		}
+		if len(set) > d.effort.maxIsolated {
+			left = append(left, mi)
+			continue
+		}
+		prev := make([]int, len(set))
+		for k, j := range set {
+			prev[k] = d.ms[j].room
+			a.unplace(j)
+			d.ms[j].room = -1
+		}
+		if _, _, ok := a.exact(set, d.effort.eachConflicts, false); ok {
+			continue
+		}
+		for k, j := range set {
+			if prev[k] >= 0 {
+				a.place(j, prev[k])
+			} else {
+				d.ms[j].room = prev[k]
+			}
+		}
+		left = append(left, mi)
+	}
+	a.failed = left
 }
 
 // localRepair tries to place the failed meetings by moving only meetings
@@ -552,7 +661,7 @@ func (a *roomAssigner) localRepair() bool {
 		d.ms[mi].room = -1
 		add(mi)
 	}
-	for hop := 0; hop < localHops; hop++ {
+	for hop := 0; hop < a.d.effort.localHops && a.d.ctx.Err() == nil; hop++ {
 		// Widen by the blockers of every meeting in the set.
 		for _, mi := range append([]int(nil), set...) {
 			m := &d.ms[mi]
@@ -566,12 +675,15 @@ func (a *roomAssigner) localRepair() bool {
 				}
 			}
 		}
+		if len(set) > d.effort.maxComponent {
+			break // most of a large term's rooms at once: not solved within the budget
+		}
 		prev := make([]int, len(set))
 		for k, mi := range set {
 			prev[k] = d.ms[mi].room
 			a.unplace(mi)
 		}
-		if _, _, ok := a.exact(set, localConflictLimit, false); ok {
+		if _, _, ok := a.exact(set, a.d.effort.localConflicts, false); ok {
 			return true
 		}
 		for k, mi := range set {

@@ -1,18 +1,26 @@
 package encode
 
 import (
-	"context"
-
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
 
-// Effort limits of the exact room searches (conflicts of the engine).
-const (
-	localConflictLimit     = 20000 // local repair and isolated proofs
-	componentConflictLimit = 50000 // a whole component, the last resort
-	maxComponent           = 1500  // larger components are not searched whole
-)
+// roomEffort limits the exact room searches of Decode's repair.
+type roomEffort struct {
+	localHops          int   // how far local repair widens the set of meetings it moves; 0: no local repair
+	isolatedHops       int   // how far isolatedCore widens the failed meetings
+	maxIsolated        int   // larger neighbourhoods are not solved on their own
+	maxComponent       int   // larger components are not searched whole
+	localConflicts     int64 // engine conflicts of local repair and isolated proofs
+	eachConflicts      int64 // engine conflicts of repairing one failed meeting (repairEach)
+	componentConflicts int64 // engine conflicts of a whole component, the last resort
+}
+
+// defaultRoomEffort is the effort of Decode.
+var defaultRoomEffort = roomEffort{
+	localHops: 3, isolatedHops: 4, maxIsolated: 800, maxComponent: 1500,
+	localConflicts: 20000, eachConflicts: 1000, componentConflicts: 50000,
+}
 
 // exact assigns rooms to a set of unplaced meetings, the others keeping
 // their rooms, by solving a small program with explicit room atoms: x(i,r) for each meeting i and each room
@@ -136,7 +144,7 @@ func (a *roomAssigner) exact(comp []int, limit int64, isolated bool) (core []int
 		assume[k] = solver.Pos(sw[k])
 	}
 	s.Assume(assume...)
-	switch s.Solve(context.Background()) {
+	switch s.Solve(d.ctx) {
 	case solver.Satisfiable:
 		if isolated {
 			return nil, true, true

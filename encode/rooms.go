@@ -12,16 +12,15 @@ import (
 // roomModel is the aggregated room model: candidate room sets and the room
 // families whose Hall constraints the program states.
 type roomModel struct {
-	n        int               // number of rooms
-	sets     setTable          // interned candidate sets and family sets
-	blocker  []int             // blocker[r]: group of room r's availability, -1 when always available
-	blocked  [][]bool          // blocked[r][p]: room r is unavailable at p (nil row: never)
-	families []family          // room families with Hall constraints
-	famByset map[int]int       // family index by set id
-	sameRoom []sameRoomGroup   // sections tied by hard same-room relations
-	secOf    map[int]int       // section -> same-room group (also in secModel.sameRoom)
-	fitGroup map[int]int       // section -> its "room fit" group, when some meeting has no candidate room
-	capHint  map[string]string // set key -> short description, for sentences
+	n        int             // number of rooms
+	sets     setTable        // interned candidate sets and family sets
+	blocker  []int           // blocker[r]: group of room r's availability, -1 when always available
+	blocked  [][]bool        // blocked[r][p]: room r is unavailable at p (nil row: never)
+	families []family        // room families with Hall constraints
+	famByset map[int]int     // family index by set id
+	sameRoom []sameRoomGroup // sections tied by hard same-room relations
+	secOf    map[int]int     // section -> same-room group (also in secModel.sameRoom)
+	fitGroup map[int]int     // section -> its "room fit" group, when some meeting has no candidate room
 }
 
 // family is a set of rooms U with the Hall constraints "at each period, the
@@ -155,7 +154,6 @@ func (b *builder) sameRoomGroups(base []roomSet) {
 		}
 	}
 	groupOf := map[int]int{}
-	var roots []int
 	for s := range t.Sections {
 		if _, ok := parent[s]; !ok {
 			continue
@@ -166,7 +164,6 @@ func (b *builder) sameRoomGroups(base []roomSet) {
 			g = len(rm.sameRoom)
 			groupOf[r] = g
 			rm.sameRoom = append(rm.sameRoom, sameRoomGroup{})
-			roots = append(roots, r)
 		}
 		rm.sameRoom[g].sections = append(rm.sameRoom[g].sections, s)
 		rm.secOf[s] = g
@@ -306,8 +303,7 @@ func (b *builder) initialFamilies() []roomSet {
 	for i := range comp {
 		comp[i] = i
 	}
-	var find func(int) int
-	find = func(x int) int {
+	find := func(x int) int {
 		for comp[x] != x {
 			comp[x] = comp[comp[x]]
 			x = comp[x]
@@ -382,7 +378,7 @@ func (b *builder) initialFamilies() []roomSet {
 
 // Families of more than lazyMinRooms rooms whose weekly demand is under
 // lazyLoad of their room-periods are not stated up front: such a set is
-// rarely short in any period, and if it is, Decode finds it and Solve adds
+// rarely short in any period, and if it is, Decode finds it and Search.Cut adds
 // it. This keeps the largest bounds (the most literals) out of most
 // programs.
 const (

@@ -8,8 +8,7 @@ type roomSet []uint64
 
 func newRoomSet(nRooms int) roomSet { return make(roomSet, (nRooms+63)/64) }
 
-func (s roomSet) add(r int)      { s[r>>6] |= 1 << (uint(r) & 63) }
-func (s roomSet) has(r int) bool { return s[r>>6]&(1<<(uint(r)&63)) != 0 }
+func (s roomSet) add(r int) { s[r>>6] |= 1 << (uint(r) & 63) }
 
 // count is |s|.
 func (s roomSet) count() int {

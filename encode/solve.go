@@ -3,8 +3,6 @@ package encode
 import (
 	"context"
 	"errors"
-	"fmt"
-	"strings"
 	"time"
 
 	"github.com/termwright/termwright/solver"
@@ -25,7 +23,9 @@ type SolveOptions struct {
 // Timings are the wall-clock times of the phases of Solve.
 type Timings struct {
 	Compile time.Duration `json:"compile"`
-	Solve   time.Duration `json:"solve"` // engine construction and search, all rounds
+	Solve   time.Duration `json:"solve"`  // engine construction and search, all rounds
+	Build   time.Duration `json:"build"`  // construction of the live engines (part of Solve)
+	Derive  time.Duration `json:"derive"` // construction of neighbourhood steps' engines (part of Solve)
 	Verify  time.Duration `json:"verify"`
 	Decode  time.Duration `json:"decode"`
 	Check   time.Duration `json:"check"`
@@ -86,124 +86,23 @@ func Solve(ctx context.Context, t *timetable.Term, opt SolveOptions) (*Result, e
 		eopts.Seed = 1
 	}
 	eopts.ConflictLimit = opt.ConflictLimit
-	var s *solver.Solver
-	var last []solver.Atom
-	build := func() error {
-		t1 := time.Now()
-		defer func() { res.Timings.Solve += time.Since(t1) }()
-		if s != nil {
-			res.Engine = res.Engine.Add(s.Stats())
-		}
+	x := NewSearch(t, p, cat, SearchOptions{Engine: firstTimetableOptions(eopts, p), Progress: opt.Progress, Tally: res})
+	var sched *timetable.Schedule
+	st, _, err := x.Find(ctx, nil, func(ctx context.Context, model []solver.Atom) error {
 		var err error
-		s, err = solver.New(p, eopts)
-		if err != nil {
-			return fmt.Errorf("internal error: the engine rejects the compiled program: %w", err)
-		}
-		if opt.Progress != nil {
-			s.SetProgress(opt.Progress)
-		}
-		if last != nil {
-			// Start from the previous model: most of it stays right.
-			in := make(map[solver.Atom]bool, len(last))
-			for _, a := range last {
-				in[a] = true
-			}
-			for a := solver.Atom(1); int(a) <= p.NumAtoms(); a++ {
-				if cat.AtomInfo(a).Kind == AtomStart {
-					s.SetPhase(a, in[a])
-				}
-			}
-		}
-		return nil
-	}
-	if err := build(); err != nil {
+		sched, err = x.Gates(ctx, model)
+		return err
+	}, maxRounds)
+	if err != nil {
 		return nil, err
 	}
-	finish := func() *Result {
-		res.Engine = res.Engine.Add(s.Stats())
-		res.Size = cat.Stats(p)
-		return res
+	res.Status = st
+	if st == solver.Unsatisfiable && res.Incomplete {
+		res.Status = solver.Unknown
 	}
-	for res.Rounds < maxRounds {
-		if ctx.Err() != nil {
-			res.Status = solver.Unknown // out of time before this round
-			return finish(), nil
-		}
-		res.Rounds++
-		t1 := time.Now()
-		st := s.Solve(ctx)
-		res.Timings.Solve += time.Since(t1)
-		if st != solver.Satisfiable {
-			res.Status = st
-			if st == solver.Unsatisfiable && res.Incomplete {
-				res.Status = solver.Unknown
-			}
-			return finish(), nil
-		}
-		model := s.Model(nil)
-		t2 := time.Now()
-		verr := solver.Verify(p, model)
-		res.Timings.Verify += time.Since(t2)
-		if verr != nil {
-			return nil, fmt.Errorf("internal error: the engine's model fails the verifier: %w", verr)
-		}
-		t3 := time.Now()
-		sched, derr := Decode(t, cat, model)
-		res.Timings.Decode += time.Since(t3)
-		var herr *HallError
-		var rerr *RoomConflictError
-		switch {
-		case errors.As(derr, &herr):
-			b := cat.extender(p)
-			for _, set := range herr.sets {
-				if _, added := b.addFamily(set, true); added {
-					res.HallCuts++
-				}
-			}
-			last = model
-			if err := build(); err != nil {
-				return nil, err
-			}
-			continue
-		case errors.As(derr, &rerr):
-			for _, ng := range rerr.nogoods {
-				starts := make([]solver.Lit, len(ng))
-				for i, l := range ng {
-					starts[i] = l.Not()
-				}
-				b := cat.extender(p)
-				b.in(-1, "room conflict")
-				b.rule(0, starts...)
-				if err := s.AddClause(ng...); err != nil {
-					return nil, fmt.Errorf("internal error: adding a room conflict: %w", err)
-				}
-				res.Nogoods++
-			}
-			if rerr.Incomplete {
-				res.Incomplete = true
-			}
-			continue
-		case derr != nil:
-			return nil, fmt.Errorf("internal error: %w", derr)
-		}
-		t4 := time.Now()
-		hard := timetable.HardViolations(timetable.Check(t, sched))
-		res.Timings.Check += time.Since(t4)
-		if len(hard) > 0 {
-			msgs := make([]string, 0, len(hard))
-			for i, v := range hard {
-				if i == 10 {
-					msgs = append(msgs, fmt.Sprintf("and %d more", len(hard)-10))
-					break
-				}
-				msgs = append(msgs, v.Msg)
-			}
-			return nil, fmt.Errorf("%w:\n  %s", ErrCheckFailed, strings.Join(msgs, "\n  "))
-		}
-		res.Status = solver.Satisfiable
+	if st == solver.Satisfiable {
 		res.Schedule = sched
-		return finish(), nil
 	}
-	res.Status = solver.Unknown
-	return finish(), nil
+	res.Size = cat.Stats(p)
+	return res, nil
 }

@@ -1,0 +1,145 @@
+package encode
+
+import (
+	"context"
+	"errors"
+	"slices"
+	"testing"
+	"time"
+
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+// onlyModel is the model of a term whose every section has exactly one
+// candidate start: every start atom and every selector.
+func onlyModel(tb testing.TB, term *timetable.Term) ([]solver.Atom, *Catalog) {
+	tb.Helper()
+	p, cat, err := Compile(term, Options{})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	var model []solver.Atom
+	starts := map[int]int{}
+	for a := solver.Atom(1); int(a) <= p.NumAtoms(); a++ {
+		switch info := cat.AtomInfo(a); info.Kind {
+		case AtomStart:
+			starts[info.Section]++
+			model = append(model, a)
+		case AtomSelector:
+			model = append(model, a)
+		}
+	}
+	for s := range term.Sections {
+		if starts[s] != 1 {
+			tb.Fatalf("section %s has %d candidate starts, the test needs exactly 1", term.Sections[s].ID, starts[s])
+		}
+	}
+	return model, cat
+}
+
+// Terms whose fast room assignment fails, so that Decode's repair runs.
+var (
+	// Y needs one room for Mon 09:00-11:00; R1 is taken at 10:00, R2 at
+	// 09:00: each period has a free room, the two periods together none.
+	roomsImpossible = func() *timetable.Term {
+		return newTerm(1, 2).room("R1", 30).room("R2", 40).
+			section("X", roomsOf("R1"), fixedAt(time.Monday, 10, "")).
+			section("W", roomsOf("R2"), fixedAt(time.Monday, 9, "")).
+			section("Y", meetings(1, 2), sized(25), fixedAt(time.Monday, 9, "")).t
+	}
+	// The fast assignment gives the same-room pair G1, G2 room R1, which
+	// the two-period meeting Y needs; only moving the pair to R4 works.
+	roomsRepairable = func() *timetable.Term {
+		return newTerm(2, 2).room("R1", 30).room("R2", 30).room("R3", 30).room("R4", 30).
+			section("G1", roomsOf("R1", "R4"), fixedAt(time.Monday, 9, "")).
+			section("G2", roomsOf("R1", "R4"), fixedAt(time.Tuesday, 9, "")).
+			section("V", roomsOf("R3"), fixedAt(time.Monday, 10, "")).
+			section("Y", meetings(1, 2), roomsOf("R1", "R3"), fixedAt(time.Monday, 9, "")).
+			relation(timetable.SameRoom, "G1", "G2").t
+	}
+)
+
+// TestRoomRepairLastResort runs the last-resort paths of Decode's room
+// repair — the exact search of a whole component and the unproved nogood
+// over the failed meetings' neighbourhood when a component is too large —
+// by switching the earlier steps off (no local repair, no isolated
+// proofs). Feasibility is checked against an exhaustive search over every
+// start and room that only timetable.Check judges (bruteFeasible).
+func TestRoomRepairLastResort(t *testing.T) {
+	lastResort := defaultRoomEffort
+	lastResort.localHops, lastResort.isolatedHops = 0, 0
+	tooLarge := lastResort
+	tooLarge.maxComponent = 0
+	tests := []struct {
+		name       string
+		term       func() *timetable.Term
+		effort     roomEffort
+		feasible   bool // the rooms can be assigned
+		incomplete bool // the nogood is not a proof
+	}{
+		{"component search finds rooms", roomsRepairable, lastResort, true, false},
+		{"component search proves a conflict", roomsImpossible, lastResort, false, false},
+		{"component too large: unproved nogood", roomsImpossible, tooLarge, false, true},
+		{"component too large, rooms exist: unproved nogood", roomsRepairable, tooLarge, false, true},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			term := tc.term()
+			model, cat := onlyModel(t, term)
+			sched, err := decodeWith(context.Background(), term, cat, model, tc.effort)
+			if tc.feasible {
+				if err != nil {
+					t.Fatalf("decode: %v, want rooms", err)
+				}
+				if hard := timetable.HardViolations(timetable.Check(term, sched)); len(hard) > 0 {
+					t.Fatalf("check: %s", hard[0].Msg)
+				}
+				if ok, _ := bruteFeasible(term); !ok {
+					t.Fatal("exhaustive search finds no timetable, but Decode assigned rooms")
+				}
+				return
+			}
+			var rerr *RoomConflictError
+			if !errors.As(err, &rerr) {
+				t.Fatalf("decode error = %v, want a RoomConflictError", err)
+			}
+			if rerr.Incomplete != tc.incomplete {
+				t.Fatalf("Incomplete = %v, want %v", rerr.Incomplete, tc.incomplete)
+			}
+			if !slices.Contains(rerr.Sections, "Y") || len(rerr.nogoods) == 0 {
+				t.Fatalf("conflict %v (nogoods %v) does not name section Y", rerr.Sections, rerr.nogoods)
+			}
+			// Every nogood is a clause the model breaks: it forbids this
+			// combination of starts.
+			for _, ng := range rerr.nogoods {
+				for _, l := range ng {
+					if !l.IsNeg() || !slices.Contains(model, l.Atom()) {
+						t.Fatalf("nogood %v is not a clause against the model's starts", ng)
+					}
+				}
+			}
+			if !tc.incomplete {
+				if ok, _ := bruteFeasible(term); ok {
+					t.Fatal("a proved room conflict, but exhaustive search finds a timetable")
+				}
+			}
+		})
+	}
+}
+
+// TestDecodeObeysContext: when ctx has ended, the exact room searches do
+// not run and Decode returns ctx's error instead of an unproved conflict.
+func TestDecodeObeysContext(t *testing.T) {
+	term := roomsImpossible()
+	model, cat := onlyModel(t, term)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, err := DecodeContext(ctx, term, cat, model)
+	if !errors.Is(err, context.Canceled) {
+		t.Fatalf("decode error = %v, want context.Canceled", err)
+	}
+	if _, err := DecodeContext(context.Background(), term, cat, model); err == nil {
+		t.Fatal("decode without a deadline found rooms for an impossible term")
+	}
+}
