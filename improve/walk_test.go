@@ -1,0 +1,74 @@
+package improve
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/samples"
+	"github.com/termwright/termwright/timetable"
+)
+
+// requireSameCost compares the running cost with timetable.Cost recomputed
+// from scratch (the project's independent evaluator), criterion by
+// criterion and level by level, and the schedule with timetable.Check.
+func requireSameCost(t *testing.T, x *State, kept *timetable.Schedule, step int) {
+	t.Helper()
+	s := x.Schedule()
+	hv := timetable.HardViolations(timetable.Check(x.t, s))
+	require.Empty(t, hv, "step %d: the timetable breaks a hard requirement", step)
+	want := timetable.Cost(x.t, s, kept)
+	got := x.Cost()
+	for i, c := range want.Criteria {
+		require.Equal(t, c.Count, got.Criteria[i].Count, "step %d: %s units", step, c.Name)
+		require.Equal(t, c.Cost, got.Criteria[i].Cost, "step %d: %s cost", step, c.Name)
+	}
+	require.Equal(t, want.ByLevel, got.ByLevel, "step %d: cost by level", step)
+}
+
+// TestWalkKeepsCostAndLegality applies random moves, accepting every legal
+// one, and after each accepted move compares the running cost with
+// timetable.Cost and the timetable with timetable.Check.
+func TestWalkKeepsCostAndLegality(t *testing.T) {
+	cases := []struct {
+		name string
+		cfg  samples.Config
+		keep bool
+	}{
+		{"demo", samples.DemoConfig, false},
+		{"demo kept", samples.DemoConfig, true},
+		{"small 1", samples.Config{Sections: 12, Seed: 1}, false},
+		{"small 2", samples.Config{Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4}, true},
+		{"small 3", samples.Config{Sections: 40, Seed: 11}, false},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(tc.cfg)
+			var kept *timetable.Schedule
+			if tc.keep {
+				kept = wit
+			}
+			x, err := New(term, wit, kept)
+			require.NoError(t, err)
+			requireSameCost(t, x, kept, 0)
+			rng := rand.New(rand.NewPCG(1, 2))
+			accepted := [nMoves]int{}
+			for step := 1; step <= 3000; step++ {
+				k := rng.IntN(nMoves)
+				if !x.propose(k, rng) {
+					continue
+				}
+				if x.apply(x.chs, rng, nil) {
+					accepted[k]++
+					requireSameCost(t, x, kept, step)
+				}
+			}
+			t.Logf("accepted per kind %v", accepted)
+			for k, n := range accepted {
+				if k != mvSectionRoom || len(x.roomy) > 0 {
+					require.Positive(t, n, "no %s move was ever accepted", moveNames[k])
+				}
+			}
+		})
+	}
+}
