@@ -1,6 +1,10 @@
 package improve
 
-import "math/rand/v2"
+import (
+	"math/rand/v2"
+
+	"github.com/termwright/termwright/timetable"
+)
 
 // roomAuto asks apply to choose a room: the meeting's old room when it is
 // free and allowed, otherwise the first free allowed room from a random
@@ -164,4 +168,23 @@ func (x *State) nextStamp() {
 		clear(x.chainSeen)
 		x.stamp = 1
 	}
+}
+
+// restore moves every meeting to its place in s (an earlier timetable of
+// this state, placements in the same order), keeping the state legal
+// throughout: all meetings are lifted, then put back.
+func (x *State) restore(s *timetable.Schedule) {
+	roomIdx := x.t.RoomIndex()
+	for m := range x.mt {
+		x.remove(int32(m))
+	}
+	x.cur = tally{}
+	for m, pl := range s.Placements {
+		r := int32(-1)
+		if pl.Room != "" {
+			r = int32(roomIdx[pl.Room])
+		}
+		x.insert(int32(m), int32(pl.Period), r)
+	}
+	x.recount()
 }

@@ -1,0 +1,298 @@
+package improve
+
+import (
+	"context"
+	"errors"
+	"math"
+	"math/rand/v2"
+	"time"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// Options control Run. The zero value is usable: every zero field takes
+// the default its comment gives.
+type Options struct {
+	// Seed seeds the move choice; the same seed, term, schedule and
+	// MaxMoves give the same result. 0 means 1.
+	Seed uint64
+	// InitialTemp is the starting temperature in cost units of the level
+	// being annealed; 0 means measured: the mean worsening of 500 sampled
+	// legal moves.
+	InitialTemp float64
+	// MinTemp ends a cooling cycle; 0 means InitialTemp/1000 (at least 0.01).
+	MinTemp float64
+	// Cooling multiplies the temperature after each StepsPerTemp moves;
+	// 0 means 0.97. It must lie in (0, 1).
+	Cooling float64
+	// StepsPerTemp is the number of moves tried at one temperature; 0
+	// means 10 per meeting whose time may change, at least 1,000.
+	StepsPerTemp int
+	// MaxMoves stops the search after this many tried moves (for
+	// reproducible runs and tests); 0 means only ctx stops it.
+	MaxMoves int64
+	// OnBest, when set, is called with each new best timetable and its
+	// running cost (Per* maps nil). The schedule is the caller's to keep.
+	OnBest func(s *timetable.Schedule, c timetable.CostReport)
+
+	onAccept func(x *State) // test hook: called after every accepted move
+}
+
+// Stats counts the work of Run.
+type Stats struct {
+	Tried        int64           // moves proposed and evaluated
+	Legal        int64           // of those, moves that kept every hard requirement
+	Accepted     int64           // of those, moves the annealer kept
+	Improvements int64           // new best timetables
+	Cycles       int             // cooling cycles begun (the first and each reheat)
+	ByKind       map[string]Kind // per move kind
+	Elapsed      time.Duration   // wall time of Run
+	TriedPerSec  float64         // Tried / Elapsed
+	AcceptPerSec float64         // Accepted / Elapsed
+}
+
+// Kind counts the moves of one kind.
+type Kind struct {
+	Tried, Legal, Accepted int64
+}
+
+// Result is the outcome of Run.
+type Result struct {
+	Best *timetable.Schedule // best timetable found (the start when nothing improved)
+	// Cost is timetable.Cost of Best (with kept), computed from scratch.
+	Cost  timetable.CostReport
+	Stats Stats
+}
+
+// Run improves schedule s of term t by simulated annealing (Kirkpatrick,
+// Gelatt, Vecchi 1983) over legal moves (relocations and swaps, room
+// changes, Kempe chains after Thompson and Dowsland 1998, one room per
+// section), with exact incremental cost. Levels are kept lexicographic:
+// a move may worsen a level only while it and every level above are
+// annealed (the highest level with cost and those below), never one
+// already at zero. When the temperature falls below MinTemp the search
+// reheats from the best timetable. It runs until ctx is done (or MaxMoves)
+// and never stops early. s must pass timetable.Check; kept is the earlier
+// timetable for "moved meetings" or nil. Errors: an illegal start, or
+// invalid Options.
+func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
+	start := time.Now()
+	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 {
+		return Result{}, errors.New("improve: Cooling must lie in (0, 1) and the temperatures, steps and move limit must not be negative")
+	}
+	x, err := New(t, s, kept)
+	if err != nil {
+		return Result{}, err
+	}
+	a := newAnnealer(x, opts)
+	a.run(ctx)
+	best := a.best
+	res := Result{Best: best, Cost: timetable.Cost(t, best, kept), Stats: a.st}
+	res.Stats.Elapsed = time.Since(start)
+	if sec := res.Stats.Elapsed.Seconds(); sec > 0 {
+		res.Stats.TriedPerSec = float64(res.Stats.Tried) / sec
+		res.Stats.AcceptPerSec = float64(res.Stats.Accepted) / sec
+	}
+	return res, nil
+}
+
+// annealer is the search state of Run.
+type annealer struct {
+	x        *State
+	opts     Options
+	kept     *timetable.Schedule
+	rng      *rand.Rand
+	temp     float64
+	best     *timetable.Schedule
+	bestCost []int64 // per level, highest first
+	curCost  []int64
+	delta    []int64
+	kinds    [nMoves]Kind
+	st       Stats
+}
+
+// moveMix is the share of each move kind, in per mille.
+var moveMix = [nMoves]int{mvRelocate: 450, mvRoom: 250, mvKempe: 200, mvSectionRoom: 100}
+
+func newAnnealer(x *State, opts Options) *annealer {
+	seed := opts.Seed
+	if seed == 0 {
+		seed = 1
+	}
+	a := &annealer{x: x, opts: opts, rng: rand.New(rand.NewPCG(seed, 0x9e3779b97f4a7c15))}
+	n := len(x.levels)
+	a.bestCost, a.curCost, a.delta = make([]int64, n), make([]int64, n), make([]int64, n)
+	if a.opts.Cooling == 0 {
+		a.opts.Cooling = 0.97
+	}
+	if a.opts.StepsPerTemp == 0 {
+		a.opts.StepsPerTemp = max(1000, 10*len(x.movable))
+	}
+	x.levelCosts(&x.cur, a.bestCost)
+	a.best = x.Schedule()
+	return a
+}
+
+// pick draws a move kind by moveMix.
+func (a *annealer) pick() int {
+	v := a.rng.IntN(1000)
+	for k, w := range moveMix {
+		if v < w {
+			return k
+		}
+		v -= w
+	}
+	return mvRelocate
+}
+
+// active is the index of the highest level with cost (levels above it are
+// at zero and may not worsen), or the lowest level when all are zero.
+func (a *annealer) active() int {
+	for l, c := range a.curCost {
+		if c != 0 {
+			return l
+		}
+	}
+	return len(a.curCost) - 1
+}
+
+// accept is the annealing rule on a move's cost difference.
+func (a *annealer) accept(d *tally) bool {
+	a.x.levelCosts(d, a.delta)
+	act := a.active()
+	for l, v := range a.delta {
+		if v == 0 {
+			continue
+		}
+		if v < 0 {
+			return true
+		}
+		if l < act {
+			return false
+		}
+		return a.temp > 0 && a.rng.Float64() < math.Exp(-float64(v)/a.temp)
+	}
+	return true
+}
+
+// measure samples legal moves without keeping them and returns the mean
+// worsening, in units of the first level they change.
+func (a *annealer) measure() float64 {
+	var sum float64
+	var n int
+	for i := 0; i < 5000 && n < 500; i++ {
+		if !a.x.propose(a.pick(), a.rng) {
+			continue
+		}
+		a.x.apply(a.x.chs, a.rng, func(d *tally) bool {
+			a.x.levelCosts(d, a.delta)
+			for _, v := range a.delta {
+				if v != 0 {
+					if v > 0 {
+						sum += float64(v)
+						n++
+					}
+					break
+				}
+			}
+			return false
+		})
+	}
+	if n == 0 {
+		return 1
+	}
+	return sum / float64(n)
+}
+
+// better reports whether level costs c are lexicographically below b.
+func better(c, b []int64) bool {
+	for l := range c {
+		if c[l] != b[l] {
+			return c[l] < b[l]
+		}
+	}
+	return false
+}
+
+// run anneals until ctx is done or MaxMoves is reached.
+func (a *annealer) run(ctx context.Context) {
+	x := a.x
+	t0 := a.opts.InitialTemp
+	if t0 == 0 {
+		t0 = a.measure()
+	}
+	tmin := a.opts.MinTemp
+	if tmin == 0 {
+		tmin = max(t0/1000, 0.01)
+	}
+	a.temp = t0
+	a.st.Cycles = 1
+	step := 0
+	for {
+		if a.st.Tried&1023 == 0 && ctx.Err() != nil {
+			break
+		}
+		if a.opts.MaxMoves > 0 && a.st.Tried >= a.opts.MaxMoves {
+			break
+		}
+		k := a.pick()
+		a.st.Tried++
+		a.kinds[k].Tried++
+		if x.propose(k, a.rng) {
+			legal := false
+			ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) })
+			if legal {
+				a.st.Legal++
+				a.kinds[k].Legal++
+			}
+			if ok {
+				a.st.Accepted++
+				a.kinds[k].Accepted++
+				a.moved()
+			}
+		}
+		if step++; step >= a.opts.StepsPerTemp {
+			step = 0
+			a.temp *= a.opts.Cooling
+			if a.temp < tmin {
+				a.reheat(t0)
+			}
+		}
+	}
+	a.st.ByKind = map[string]Kind{}
+	for k, n := range a.kinds {
+		a.st.ByKind[moveNames[k]] = n
+	}
+}
+
+// moved records a new best after an accepted move.
+func (a *annealer) moved() {
+	x := a.x
+	if a.opts.onAccept != nil {
+		a.opts.onAccept(x)
+	}
+	x.levelCosts(&x.cur, a.curCost)
+	if !better(a.curCost, a.bestCost) {
+		return
+	}
+	copy(a.bestCost, a.curCost)
+	a.best = x.Schedule()
+	a.st.Improvements++
+	if a.opts.OnBest != nil {
+		a.opts.OnBest(x.Schedule(), x.Cost())
+	}
+}
+
+// reheat starts a new cooling cycle from the best timetable, alternating
+// between a full and a third of the starting temperature.
+func (a *annealer) reheat(t0 float64) {
+	a.st.Cycles++
+	if better(a.bestCost, a.curCost) {
+		a.x.restore(a.best)
+		copy(a.curCost, a.bestCost)
+	}
+	a.temp = t0
+	if a.st.Cycles%2 == 0 {
+		a.temp = t0 / 3
+	}
+}
