@@ -25,9 +25,17 @@ type Options struct {
 	// Cooling multiplies the temperature after each StepsPerTemp moves;
 	// 0 means 0.97. It must lie in (0, 1).
 	Cooling float64
-	// StepsPerTemp is the number of moves tried at one temperature; 0
-	// means 10 per meeting whose time may change, at least 1,000.
+	// StepsPerTemp is the number of moves tried at one temperature. 0
+	// means planned: when ctx has a deadline or MaxMoves is set, each
+	// cooling cycle is stretched to take CycleShare of the budget left
+	// (measured move rate times time left, or moves left), re-planned at
+	// every temperature; otherwise 10 per meeting whose time may change,
+	// at least 1,000.
 	StepsPerTemp int
+	// CycleShare is the share of the remaining budget one cooling cycle
+	// is planned to take when StepsPerTemp is 0; 0 means 0.6. It must lie
+	// in (0, 1].
+	CycleShare float64
 	// MaxMoves stops the search after this many tried moves (for
 	// reproducible runs and tests); 0 means only ctx stops it.
 	MaxMoves int64
@@ -77,8 +85,9 @@ type Result struct {
 // invalid Options.
 func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
 	start := time.Now()
-	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 {
-		return Result{}, errors.New("improve: Cooling must lie in (0, 1) and the temperatures, steps and move limit must not be negative")
+	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 ||
+		opts.CycleShare < 0 || opts.CycleShare > 1 {
+		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare in (0, 1], and the temperatures, steps and move limit must not be negative")
 	}
 	x, err := New(t, s, kept)
 	if err != nil {
@@ -109,6 +118,14 @@ type annealer struct {
 	delta    []int64
 	kinds    [nMoves]Kind
 	st       Stats
+	steps    int // moves per temperature now
+
+	// Budget planning (StepsPerTemp 0 with a deadline or MaxMoves).
+	began      time.Time // start of the search loop
+	deadline   time.Time // zero when ctx has none
+	cycleEnd   float64   // planned end of this cycle in tried moves (MaxMoves)
+	cycleEndAt time.Time // planned end of this cycle in time (deadline)
+	tmin       float64
 }
 
 // moveMix is the share of each move kind, in per mille.
@@ -125,8 +142,12 @@ func newAnnealer(x *State, opts Options) *annealer {
 	if a.opts.Cooling == 0 {
 		a.opts.Cooling = 0.97
 	}
-	if a.opts.StepsPerTemp == 0 {
-		a.opts.StepsPerTemp = max(1000, 10*len(x.movable))
+	if a.opts.CycleShare == 0 {
+		a.opts.CycleShare = 0.6
+	}
+	a.steps = a.opts.StepsPerTemp
+	if a.steps == 0 {
+		a.steps = max(1000, 10*len(x.movable))
 	}
 	x.levelCosts(&x.cur, a.bestCost)
 	a.best = x.Schedule()
@@ -221,12 +242,17 @@ func (a *annealer) run(ctx context.Context) {
 	if t0 == 0 {
 		t0 = a.measure()
 	}
-	tmin := a.opts.MinTemp
-	if tmin == 0 {
-		tmin = max(t0/1000, 0.01)
+	a.tmin = a.opts.MinTemp
+	if a.tmin == 0 {
+		a.tmin = max(t0/1000, 0.01)
+	}
+	a.began = time.Now()
+	if d, ok := ctx.Deadline(); ok {
+		a.deadline = d
 	}
 	a.temp = t0
 	a.st.Cycles = 1
+	a.planCycle()
 	step := 0
 	for {
 		if a.st.Tried&1023 == 0 && ctx.Err() != nil {
@@ -251,18 +277,67 @@ func (a *annealer) run(ctx context.Context) {
 				a.moved()
 			}
 		}
-		if step++; step >= a.opts.StepsPerTemp {
+		if step++; step >= a.steps {
 			step = 0
 			a.temp *= a.opts.Cooling
-			if a.temp < tmin {
+			if a.temp < a.tmin {
 				a.reheat(t0)
+				a.planCycle()
 			}
+			a.replan()
 		}
 	}
 	a.st.ByKind = map[string]Kind{}
 	for k, n := range a.kinds {
 		a.st.ByKind[moveNames[k]] = n
 	}
+}
+
+// planned reports whether the steps per temperature follow the budget.
+func (a *annealer) planned() bool {
+	return a.opts.StepsPerTemp == 0 && (a.opts.MaxMoves > 0 || !a.deadline.IsZero())
+}
+
+// rate is the measured move rate (moves per second), or a guess before
+// there is anything to measure.
+func (a *annealer) rate() float64 {
+	if el := time.Since(a.began).Seconds(); el > 0.05 && a.st.Tried > 0 {
+		return float64(a.st.Tried) / el
+	}
+	return 2e5
+}
+
+// planCycle sets the end of a new cooling cycle at CycleShare of the
+// budget left: of the moves left under MaxMoves, and of the time left
+// before the deadline.
+func (a *annealer) planCycle() {
+	if !a.planned() {
+		return
+	}
+	share := a.opts.CycleShare
+	if a.opts.MaxMoves > 0 {
+		a.cycleEnd = float64(a.st.Tried) + share*float64(a.opts.MaxMoves-a.st.Tried)
+	}
+	if !a.deadline.IsZero() {
+		a.cycleEndAt = time.Now().Add(time.Duration(share * float64(time.Until(a.deadline))))
+	}
+	a.replan()
+}
+
+// replan spreads the moves left in this cycle over its temperatures left.
+func (a *annealer) replan() {
+	if !a.planned() {
+		return
+	}
+	temps := math.Ceil(math.Log(a.temp/a.tmin) / -math.Log(a.opts.Cooling))
+	left := math.Inf(1)
+	if a.opts.MaxMoves > 0 {
+		left = a.cycleEnd - float64(a.st.Tried)
+	}
+	if !a.deadline.IsZero() {
+		left = min(left, a.rate()*time.Until(a.cycleEndAt).Seconds())
+	}
+	a.steps = int(min(max(left/max(temps, 1), 100), 1e9))
 }
 
 // moved records a new best after an accepted move.

@@ -4,10 +4,10 @@ import "math/rand/v2"
 
 // Move kinds, in the order of Stats.Tried.
 const (
-	mvRelocate = iota // one meeting to another start (and maybe room), or a swap with the meeting in that room
-	mvRoom            // one meeting to another room at the same time, or a room swap
-	mvKempe           // a Kempe chain between two starts over shared people
-	mvSectionRoom     // every meeting of a section into one room
+	mvRelocate    = iota // one meeting to another start (and maybe room), or a swap with the meeting in that room
+	mvRoom               // one meeting to another room at the same time, or a room swap
+	mvKempe              // a Kempe chain between two starts over shared people
+	mvSectionRoom        // every meeting of a section into one room
 	nMoves
 )
 
@@ -105,12 +105,19 @@ func (x *State) proposeSectionRoom(rng *rand.Rand) bool {
 		in := &x.secs[si]
 		r = in.rooms[rng.IntN(len(in.rooms))]
 	}
+	in := &x.secs[si]
 	for _, o := range x.bySec[si] {
-		if x.mt[o].r != r {
-			if x.mt[o].fixedR {
-				return false
-			}
-			x.chs = append(x.chs, change{o, x.mt[o].p, r})
+		mo := x.mt[o]
+		if mo.r == r {
+			continue
+		}
+		if mo.fixedR {
+			return false
+		}
+		x.chs = append(x.chs, change{o, mo.p, r})
+		// The meeting holding the room then takes this one's room.
+		if other := x.soleAt(r, mo.p, in.length, false); other >= 0 && x.mt[other].sec != si {
+			x.chs = append(x.chs, change{other, mo.p, mo.r})
 		}
 	}
 	return len(x.chs) > 0

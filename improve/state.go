@@ -111,16 +111,16 @@ type State struct {
 	level    [nCrit]int // index into levels, -1 when the weight is 0
 	levels   []int      // distinct levels in use, highest first
 
-	secs      []secInfo
-	mt        []meeting
-	bySec     [][]int32
-	rels      []timetable.Relation
-	relSecs   [][]int32 // per relation: its known sections (unique unless before / back to back)
-	roomBld   []int32   // room -> building number, -1 when blank
-	roomCap   []int
-	roomAvU   []int64 // room*np+p: avoid-times hits of soft room rows
-	roomAvW   []int64
-	roomBlock []bool // room*np+p: covered by a hard room row
+	secs       []secInfo
+	mt         []meeting
+	bySec      [][]int32
+	rels       []timetable.Relation
+	relSecs    [][]int32 // per relation: its known sections (unique unless before / back to back)
+	roomBld    []int32   // room -> building number, -1 when blank
+	roomCap    []int
+	roomAvU    []int64 // room*np+p: avoid-times hits of soft room rows
+	roomAvW    []int64
+	roomBlock  []bool // room*np+p: covered by a hard room row
 	isStaffLim []bool // staff with MaxPerDay or MaxConsecutive
 
 	occ    [][]int32 // res*np+p -> meetings occupying (res: staff, cohorts, rooms)
