@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -84,6 +85,8 @@ func TestITC2007(t *testing.T) {
 	best, err := timetable.ReadITCBest(f, "best-known.csv")
 	f.Close()
 	require.NoError(t, err)
+	// IMPROVE_SHARE optionally sets Options.CycleShare for experiments.
+	share, _ := strconv.ParseFloat(os.Getenv("IMPROVE_SHARE"), 64)
 	var rows []string
 	logSum, logPlain, n := 0.0, 0.0, 0
 	for _, name := range itcInstances {
@@ -93,7 +96,7 @@ func TestITC2007(t *testing.T) {
 		ctx, cancel := context.WithTimeout(context.Background(), limit)
 		var bestAt time.Duration
 		t0 := time.Now()
-		res, err := Run(ctx, term, start, nil, Options{Seed: 1, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
+		res, err := Run(ctx, term, start, nil, Options{Seed: 1, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
 		cancel()
 		require.NoError(t, err)
 		require.Zero(t, timetable.ITCHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)

@@ -1,6 +1,7 @@
 package improve
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"testing"
 
@@ -69,6 +70,28 @@ func TestWalkKeepsCostAndLegality(t *testing.T) {
 					require.Positive(t, n, "no %s move was ever accepted", moveNames[k])
 				}
 			}
+		})
+	}
+}
+
+// TestWalkManySmallTerms repeats the walk on generated terms of many
+// shapes (grids, week counts, sizes), 600 moves each.
+func TestWalkManySmallTerms(t *testing.T) {
+	for seed := uint64(1); seed <= 12; seed++ {
+		cfg := samples.Config{Sections: 6 + int(seed*3), Seed: seed, Days: 3 + int(seed%3), PeriodsPerDay: 4 + int(seed%5), Weeks: 1 + int(seed%4)}
+		t.Run(fmt.Sprint(cfg), func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(cfg)
+			x, err := New(term, wit, nil)
+			require.NoError(t, err)
+			rng := rand.New(rand.NewPCG(seed, 3))
+			n := 0
+			for step := 1; step <= 600; step++ {
+				if x.propose(rng.IntN(nMoves), rng) && x.apply(x.chs, rng, nil) {
+					n++
+					requireSameCost(t, x, nil, step)
+				}
+			}
+			require.Positive(t, n)
 		})
 	}
 }
