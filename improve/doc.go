@@ -28,6 +28,19 @@
 // relations) are recomputed for the touched sections, person-days and
 // relations only, before and after the move.
 //
+// Moves (moves.go): relocate a meeting to another start, with its room or
+// another, swapping with the one meeting holding that room then; change a
+// meeting's room, swapping likewise; a Kempe chain that exchanges the
+// meetings of two starts linked by shared staff or cohorts (Thompson and
+// Dowsland 1998), rooms kept where free; put every meeting of a section
+// in one room, swapping with the meetings holding it.
+//
+// Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
+// Vecchi 1983) with a measured starting temperature, geometric cooling and
+// reheats from the best timetable; with a deadline or a move limit each
+// cooling cycle is planned to take a share of what is left, so the search
+// uses all the time it is given. Levels stay lexicographic.
+//
 // Names: m is a meeting (placement index), si a section index, p a period,
 // r a room index (-1 for none), res a resource (staff k, then cohorts, then
 // rooms, in one numbering).
