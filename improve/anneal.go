@@ -48,19 +48,19 @@ type Options struct {
 
 // Stats counts the work of Run.
 type Stats struct {
-	Tried        int64           // moves proposed and evaluated
-	Legal        int64           // of those, moves that kept every hard requirement
-	Accepted     int64           // of those, moves the annealer kept
-	Improvements int64           // new best timetables
-	Cycles       int             // cooling cycles begun (the first and each reheat)
-	ByKind       map[string]Kind // per move kind
-	Elapsed      time.Duration   // wall time of Run
-	TriedPerSec  float64         // Tried / Elapsed
-	AcceptPerSec float64         // Accepted / Elapsed
+	Tried        int64                // moves proposed and evaluated
+	Legal        int64                // of those, moves that kept every hard requirement
+	Accepted     int64                // of those, moves the annealer kept
+	Improvements int64                // new best timetables
+	Cycles       int                  // cooling cycles begun (the first and each reheat)
+	ByKind       map[string]MoveStats // per move kind
+	Elapsed      time.Duration        // wall time of Run
+	TriedPerSec  float64              // Tried / Elapsed
+	AcceptPerSec float64              // Accepted / Elapsed
 }
 
-// Kind counts the moves of one kind.
-type Kind struct {
+// MoveStats counts the moves of one kind.
+type MoveStats struct {
 	Tried, Legal, Accepted int64
 }
 
@@ -116,7 +116,7 @@ type annealer struct {
 	bestCost []int64 // per level, highest first
 	curCost  []int64
 	delta    []int64
-	kinds    [nMoves]Kind
+	kinds    [nMoves]MoveStats
 	st       Stats
 	steps    int // moves per temperature now
 
@@ -290,7 +290,7 @@ func (a *annealer) run(ctx context.Context) {
 			a.replan()
 		}
 	}
-	a.st.ByKind = map[string]Kind{}
+	a.st.ByKind = map[string]MoveStats{}
 	for k, n := range a.kinds {
 		a.st.ByKind[moveNames[k]] = n
 	}
