@@ -53,6 +53,7 @@ type Stats struct {
 	Accepted     int64                // of those, moves the annealer kept
 	Improvements int64                // new best timetables
 	Cycles       int                  // cooling cycles begun (the first and each reheat)
+	Optimal      bool                 // the best costs 0 on every level (weights all positive), so the search stopped
 	ByKind       map[string]MoveStats // per move kind
 	Elapsed      time.Duration        // wall time of Run
 	TriedPerSec  float64              // Tried / Elapsed
@@ -80,7 +81,8 @@ type Result struct {
 // annealed (the highest level with cost and those below), never one
 // already at zero. When the temperature falls below MinTemp the search
 // reheats from the best timetable. It runs until ctx is done (or MaxMoves)
-// and never stops early. s must pass timetable.Check; kept is the earlier
+// and stops early only when the best costs zero on every level (a proof
+// of optimality: no criterion counts below zero). s must pass timetable.Check; kept is the earlier
 // timetable for "moved meetings" or nil. Errors: an illegal start, or
 // invalid Options.
 func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
@@ -264,6 +266,10 @@ func (a *annealer) run(ctx context.Context) {
 		if a.opts.MaxMoves > 0 && a.st.Tried >= a.opts.MaxMoves {
 			break
 		}
+		if a.zero() {
+			a.st.Optimal = true // no cost is below zero: nothing left to find
+			break
+		}
 		k := a.pick()
 		a.st.Tried++
 		a.kinds[k].Tried++
@@ -294,6 +300,22 @@ func (a *annealer) run(ctx context.Context) {
 	for k, n := range a.kinds {
 		a.st.ByKind[moveNames[k]] = n
 	}
+}
+
+// zero reports whether the best timetable costs nothing on any level and
+// no criterion has a negative weight, which proves it optimal.
+func (a *annealer) zero() bool {
+	for _, c := range a.bestCost {
+		if c != 0 {
+			return false
+		}
+	}
+	for _, w := range a.x.weight {
+		if w < 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // planned reports whether the steps per temperature follow the budget.

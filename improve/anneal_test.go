@@ -58,7 +58,13 @@ func TestRunEveryAcceptedMove(t *testing.T) {
 				require.Equal(t, want.ByLevel, lastBest.ByLevel, "the last best reported is not the result")
 				require.Equal(t, want.Criteria, lastBest.Criteria)
 			}
-			require.Equal(t, tc.moves, res.Stats.Tried)
+			if res.Stats.Optimal {
+				for _, c := range res.Cost.ByLevel {
+					require.Zero(t, c, "stopped as optimal with cost left")
+				}
+			} else {
+				require.Equal(t, tc.moves, res.Stats.Tried, "stopped before the move limit")
+			}
 			t.Logf("start %v best %v, %d accepted, %d improvements", start.ByLevel, res.Cost.ByLevel, accepted, res.Stats.Improvements)
 		})
 	}
@@ -102,8 +108,22 @@ func TestRunStopsOnlyAtTheDeadline(t *testing.T) {
 	require.LessOrEqual(t, res.Stats.Tried, int64(1))
 	res, err = Run(context.Background(), term, wit, nil, Options{MaxMoves: 200000, StepsPerTemp: 1000, MinTemp: 0.5, InitialTemp: 5})
 	require.NoError(t, err)
+	require.False(t, res.Stats.Optimal, "this term was expected to keep some cost")
 	require.Equal(t, int64(200000), res.Stats.Tried)
 	require.Greater(t, res.Stats.Cycles, 1, "the search did not reheat")
+}
+
+// TestRunStopsAtZero checks that a run whose best reaches cost 0 on every
+// level stops and says so, and that the cost is really 0.
+func TestRunStopsAtZero(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.Config{Sections: 15, Seed: 9, Weeks: 2})
+	res, err := Run(context.Background(), term, wit, nil, Options{Seed: 4, MaxMoves: 2_000_000})
+	require.NoError(t, err)
+	require.True(t, res.Stats.Optimal)
+	require.Less(t, res.Stats.Tried, int64(2_000_000))
+	for l, c := range timetable.Cost(term, res.Best, nil).ByLevel {
+		require.Zero(t, c, "level %d", l)
+	}
 }
 
 // TestRunRejectsBadInput covers the error paths.
