@@ -64,9 +64,33 @@ func (x *State) proposeRelocate(rng *rand.Rand) bool {
 		return false
 	}
 	x.chs = append(x.chs, change{m, p, r})
+	if len(in.sameAs) > 0 {
+		return x.withPartners(mt.p, p)
+	}
 	if r >= 0 {
 		if o := x.soleAt(r, p, in.length, true); o >= 0 && o != m {
 			x.chs = append(x.chs, change{o, mt.p, mt.r})
+		}
+	}
+	return true
+}
+
+// withPartners adds to a one-meeting move from start from to start to
+// the meetings of the sections bound to it by hard same-time relations
+// that start at from, moving them to to as well (rooms chosen by apply),
+// so that such groups can move at all.
+func (x *State) withPartners(from, to int32) bool {
+	m := x.chs[0].m
+	for _, ps := range x.secs[x.mt[m].sec].sameAs {
+		for _, o := range x.bySec[ps] {
+			if x.mt[o].p != from {
+				continue
+			}
+			if x.mt[o].fixedT {
+				return false
+			}
+			x.chs = append(x.chs, change{o, to, roomAuto})
+			break
 		}
 	}
 	return true

@@ -74,6 +74,7 @@ type secInfo struct {
 	avoidU  []int64 // per start period: avoid-times hits of the section's staff, cohort and section rows
 	avoidW  []int64 // per start period: the same hits times their row weights
 	rels    []int32 // relations naming this section
+	sameAs  []int32 // other sections in a hard same-time relation with this one
 	nb      []neighbour
 	kept    []slot // kept placements for moved meetings
 }
@@ -396,6 +397,15 @@ func (x *State) relations(secIdx map[string]int) {
 			out = append(out, int32(si))
 		}
 		x.relSecs[ri] = out
+		if r.Hard && r.Kind == timetable.SameTime {
+			for _, a := range out {
+				for _, b := range out {
+					if a != b && !slices.Contains(x.secs[a].sameAs, b) {
+						x.secs[a].sameAs = append(x.secs[a].sameAs, b)
+					}
+				}
+			}
+		}
 		for _, si := range out {
 			if !slices.Contains(x.secs[si].rels, int32(ri)) {
 				x.secs[si].rels = append(x.secs[si].rels, int32(ri))

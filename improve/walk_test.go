@@ -95,3 +95,24 @@ func TestWalkManySmallTerms(t *testing.T) {
 		})
 	}
 }
+
+// TestSameTimeGroupsMove checks that sections tied by a hard same-time
+// relation do move (together) and that the relation still holds by
+// timetable.Check after each such move.
+func TestSameTimeGroupsMove(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	require.NoError(t, err)
+	rng := rand.New(rand.NewPCG(8, 8))
+	grouped := 0
+	for step := 1; step <= 20000 && grouped < 5; step++ {
+		if !x.propose(mvRelocate, rng) || len(x.secs[x.mt[x.chs[0].m].sec].sameAs) == 0 {
+			continue
+		}
+		if x.apply(x.chs, rng, nil) {
+			grouped++
+			requireSameCost(t, x, nil, step)
+		}
+	}
+	require.Positive(t, grouped, "no section of a same-time group ever moved")
+}
