@@ -68,3 +68,28 @@ func BenchmarkMovesITC(b *testing.B) {
 	}
 	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "moves/s")
 }
+
+// TestMovesAllocateNothing checks that, once the occupancy lists have
+// grown, proposing, checking, costing and deciding a move allocates
+// nothing (common practice for hot paths; STYLE.md item 6).
+func TestMovesAllocateNothing(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := newAnnealer(x, Options{Seed: 1})
+	a.temp = 2
+	rng := rand.New(rand.NewPCG(1, 1))
+	step := func() {
+		if x.propose(a.pick(), rng) {
+			x.apply(x.chs, rng, a.accept)
+		}
+	}
+	for range 20000 {
+		step()
+	}
+	if n := testing.AllocsPerRun(5000, step); n != 0 {
+		t.Fatalf("a move allocates %v times on average", n)
+	}
+}
