@@ -1,0 +1,398 @@
+package improve
+
+import (
+	"context"
+	"errors"
+	"math"
+	"math/rand/v2"
+	"time"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// Options control Run. The zero value is usable: every zero field takes
+// the default its comment gives.
+type Options struct {
+	// Seed seeds the move choice; the same seed, term, schedule and
+	// MaxMoves give the same result. 0 means 1.
+	Seed uint64
+	// InitialTemp is the starting temperature in cost units of the level
+	// being annealed; 0 means measured: the mean worsening of up to 500
+	// sampled legal moves.
+	InitialTemp float64
+	// MinTemp ends a cooling cycle; 0 means InitialTemp/1000 (at least 0.01).
+	MinTemp float64
+	// Cooling multiplies the temperature after each StepsPerTemp moves;
+	// 0 means 0.97. It must lie in (0, 1).
+	Cooling float64
+	// StepsPerTemp is the number of moves tried at one temperature. 0
+	// means planned: when ctx has a deadline or MaxMoves is set, each
+	// cooling cycle is stretched to take CycleShare of the budget left
+	// (measured move rate times time left, or moves left), re-planned at
+	// every temperature; otherwise 10 per meeting whose time may change,
+	// at least 1,000.
+	StepsPerTemp int
+	// CycleShare is the share of the remaining budget one cooling cycle
+	// is planned to take when StepsPerTemp is 0; 0 means 0.6. It must lie
+	// in (0, 1].
+	CycleShare float64
+	// MaxMoves stops the search after this many tried moves (for
+	// reproducible runs and tests); 0 means only ctx stops it.
+	MaxMoves int64
+	// OnBest, when set, is called with each new best timetable and its
+	// running cost (Per* maps nil). The schedule is the caller's to keep.
+	OnBest func(s *timetable.Schedule, c timetable.CostReport)
+
+	onAccept func(x *State) // test hook: called after every accepted move
+}
+
+// Stats counts the work of Run.
+type Stats struct {
+	Tried        int64                // moves proposed and evaluated
+	Legal        int64                // of those, moves that kept every hard requirement
+	Accepted     int64                // of those, moves the annealer kept
+	Improvements int64                // new best timetables
+	Cycles       int                  // cooling cycles begun (the first and each reheat)
+	Optimal      bool                 // the best costs 0 on every level (weights all positive), so the search stopped
+	ByKind       map[string]MoveStats // per move kind
+	Elapsed      time.Duration        // wall time of Run
+	TriedPerSec  float64              // Tried / Elapsed
+	AcceptPerSec float64              // Accepted / Elapsed
+}
+
+// MoveStats counts the moves of one kind.
+type MoveStats struct {
+	Tried, Legal, Accepted int64
+}
+
+// Result is the outcome of Run.
+type Result struct {
+	Best *timetable.Schedule // best timetable found (the start when nothing improved)
+	// Cost is timetable.Cost of Best (with kept), computed from scratch.
+	Cost  timetable.CostReport
+	Stats Stats
+}
+
+// Run improves schedule s of term t by simulated annealing (Kirkpatrick,
+// Gelatt, Vecchi 1983) over legal moves (relocations and swaps, room
+// changes, Kempe chains after Thompson and Dowsland 1998, one room per
+// section), with exact incremental cost. Levels are kept lexicographic:
+// a move may worsen a level only while it and every level above are
+// annealed (the highest level with cost and those below), never one
+// already at zero. When the temperature falls below MinTemp the search
+// reheats from the best timetable. It runs until ctx is done (or MaxMoves)
+// and stops early only when the best costs zero on every level (a proof
+// of optimality: no criterion counts below zero). s must pass timetable.Check; kept is the earlier
+// timetable for "moved meetings" or nil. Errors: an illegal start, or
+// invalid Options.
+func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
+	start := time.Now()
+	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 ||
+		opts.CycleShare < 0 || opts.CycleShare > 1 {
+		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare in (0, 1], and the temperatures, steps and move limit must not be negative")
+	}
+	x, err := New(t, s, kept)
+	if err != nil {
+		return Result{}, err
+	}
+	a := newAnnealer(x, opts)
+	a.run(ctx)
+	best := a.best
+	res := Result{Best: best, Cost: timetable.Cost(t, best, kept), Stats: a.st}
+	res.Stats.Elapsed = time.Since(start)
+	if sec := res.Stats.Elapsed.Seconds(); sec > 0 {
+		res.Stats.TriedPerSec = float64(res.Stats.Tried) / sec
+		res.Stats.AcceptPerSec = float64(res.Stats.Accepted) / sec
+	}
+	return res, nil
+}
+
+// annealer is the search state of Run.
+type annealer struct {
+	x        *State
+	opts     Options
+	kept     *timetable.Schedule
+	rng      *rand.Rand
+	temp     float64
+	best     *timetable.Schedule
+	bestCost []int64 // per level, highest first
+	curCost  []int64
+	delta    []int64
+	kinds    [nMoves]MoveStats
+	st       Stats
+	steps    int // moves per temperature now
+
+	// Budget planning (StepsPerTemp 0 with a deadline or MaxMoves).
+	began      time.Time // start of the search loop
+	deadline   time.Time // zero when ctx has none
+	cycleEnd   float64   // planned end of this cycle in tried moves (MaxMoves)
+	cycleEndAt time.Time // planned end of this cycle in time (deadline)
+	tmin       float64
+}
+
+// moveMix is the share of each move kind, in per mille.
+var moveMix = [nMoves]int{mvRelocate: 450, mvRoom: 250, mvKempe: 200, mvSectionRoom: 100}
+
+func newAnnealer(x *State, opts Options) *annealer {
+	seed := opts.Seed
+	if seed == 0 {
+		seed = 1
+	}
+	a := &annealer{x: x, opts: opts, rng: rand.New(rand.NewPCG(seed, 0x9e3779b97f4a7c15))}
+	n := len(x.levels)
+	a.bestCost, a.curCost, a.delta = make([]int64, n), make([]int64, n), make([]int64, n)
+	if a.opts.Cooling == 0 {
+		a.opts.Cooling = 0.97
+	}
+	if a.opts.CycleShare == 0 {
+		a.opts.CycleShare = 0.6
+	}
+	a.steps = a.opts.StepsPerTemp
+	if a.steps == 0 {
+		a.steps = max(1000, 10*len(x.movable))
+	}
+	x.levelCosts(&x.cur, a.bestCost)
+	a.best = x.Schedule()
+	return a
+}
+
+// pick draws a move kind by moveMix.
+func (a *annealer) pick() int {
+	v := a.rng.IntN(1000)
+	for k, w := range moveMix {
+		if v < w {
+			return k
+		}
+		v -= w
+	}
+	return mvRelocate
+}
+
+// active is the index of the highest level with cost (levels above it are
+// at zero and may not worsen), or the lowest level when all are zero.
+func (a *annealer) active() int {
+	for l, c := range a.curCost {
+		if c != 0 {
+			return l
+		}
+	}
+	return len(a.curCost) - 1
+}
+
+// accept is the annealing rule on a move's cost difference.
+func (a *annealer) accept(d *tally) bool {
+	a.x.levelCosts(d, a.delta)
+	act := a.active()
+	for l, v := range a.delta {
+		if v == 0 {
+			continue
+		}
+		if v < 0 {
+			return true
+		}
+		if l < act {
+			return false
+		}
+		return a.temp > 0 && a.rng.Float64() < math.Exp(-float64(v)/a.temp)
+	}
+	return true
+}
+
+// measure samples legal moves without keeping them and returns the mean
+// worsening, in units of the first level they change (a median was tried
+// and gave worse timetables on the public benchmark: it starts too cold).
+func (a *annealer) measure() float64 {
+	var ups []int64
+	for i := 0; i < 5000 && len(ups) < 500; i++ {
+		if !a.x.propose(a.pick(), a.rng) {
+			continue
+		}
+		a.x.apply(a.x.chs, a.rng, func(d *tally) bool {
+			a.x.levelCosts(d, a.delta)
+			for _, v := range a.delta {
+				if v != 0 {
+					if v > 0 {
+						ups = append(ups, v)
+					}
+					break
+				}
+			}
+			return false
+		})
+	}
+	if len(ups) == 0 {
+		return 1
+	}
+	var sum float64
+	for _, v := range ups {
+		sum += float64(v)
+	}
+	return sum / float64(len(ups))
+}
+
+// better reports whether level costs c are lexicographically below b.
+func better(c, b []int64) bool {
+	for l := range c {
+		if c[l] != b[l] {
+			return c[l] < b[l]
+		}
+	}
+	return false
+}
+
+// run anneals until ctx is done or MaxMoves is reached.
+func (a *annealer) run(ctx context.Context) {
+	x := a.x
+	t0 := a.opts.InitialTemp
+	if t0 == 0 {
+		t0 = a.measure()
+	}
+	a.tmin = a.opts.MinTemp
+	if a.tmin == 0 {
+		a.tmin = max(t0/1000, 0.01)
+	}
+	a.began = time.Now()
+	if d, ok := ctx.Deadline(); ok {
+		a.deadline = d
+	}
+	a.temp = t0
+	a.st.Cycles = 1
+	a.planCycle()
+	step := 0
+	for {
+		if a.st.Tried&1023 == 0 && ctx.Err() != nil {
+			break
+		}
+		if a.opts.MaxMoves > 0 && a.st.Tried >= a.opts.MaxMoves {
+			break
+		}
+		if a.zero() {
+			a.st.Optimal = true // no cost is below zero: nothing left to find
+			break
+		}
+		k := a.pick()
+		a.st.Tried++
+		a.kinds[k].Tried++
+		if x.propose(k, a.rng) {
+			legal := false
+			ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) })
+			if legal {
+				a.st.Legal++
+				a.kinds[k].Legal++
+			}
+			if ok {
+				a.st.Accepted++
+				a.kinds[k].Accepted++
+				a.moved()
+			}
+		}
+		if step++; step >= a.steps {
+			step = 0
+			a.temp *= a.opts.Cooling
+			if a.temp < a.tmin {
+				a.reheat(t0)
+				a.planCycle()
+			}
+			a.replan()
+		}
+	}
+	a.st.ByKind = map[string]MoveStats{}
+	for k, n := range a.kinds {
+		a.st.ByKind[moveNames[k]] = n
+	}
+}
+
+// zero reports whether the best timetable costs nothing on any level and
+// no criterion has a negative weight, which proves it optimal.
+func (a *annealer) zero() bool {
+	for _, c := range a.bestCost {
+		if c != 0 {
+			return false
+		}
+	}
+	for _, w := range a.x.weight {
+		if w < 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// planned reports whether the steps per temperature follow the budget.
+func (a *annealer) planned() bool {
+	return a.opts.StepsPerTemp == 0 && (a.opts.MaxMoves > 0 || !a.deadline.IsZero())
+}
+
+// rate is the measured move rate (moves per second), or a guess before
+// there is anything to measure.
+func (a *annealer) rate() float64 {
+	if el := time.Since(a.began).Seconds(); el > 0.05 && a.st.Tried > 0 {
+		return float64(a.st.Tried) / el
+	}
+	return 2e5
+}
+
+// planCycle sets the end of a new cooling cycle at CycleShare of the
+// budget left: of the moves left under MaxMoves, and of the time left
+// before the deadline.
+func (a *annealer) planCycle() {
+	if !a.planned() {
+		return
+	}
+	share := a.opts.CycleShare
+	if a.opts.MaxMoves > 0 {
+		a.cycleEnd = float64(a.st.Tried) + share*float64(a.opts.MaxMoves-a.st.Tried)
+	}
+	if !a.deadline.IsZero() {
+		a.cycleEndAt = time.Now().Add(time.Duration(share * float64(time.Until(a.deadline))))
+	}
+	a.replan()
+}
+
+// replan spreads the moves left in this cycle over its temperatures left.
+func (a *annealer) replan() {
+	if !a.planned() {
+		return
+	}
+	temps := math.Ceil(math.Log(a.temp/a.tmin) / -math.Log(a.opts.Cooling))
+	left := math.Inf(1)
+	if a.opts.MaxMoves > 0 {
+		left = a.cycleEnd - float64(a.st.Tried)
+	}
+	if !a.deadline.IsZero() {
+		left = min(left, a.rate()*time.Until(a.cycleEndAt).Seconds())
+	}
+	a.steps = int(min(max(left/max(temps, 1), 100), 1e9))
+}
+
+// moved records a new best after an accepted move.
+func (a *annealer) moved() {
+	x := a.x
+	if a.opts.onAccept != nil {
+		a.opts.onAccept(x)
+	}
+	x.levelCosts(&x.cur, a.curCost)
+	if !better(a.curCost, a.bestCost) {
+		return
+	}
+	copy(a.bestCost, a.curCost)
+	a.best = x.Schedule()
+	a.st.Improvements++
+	if a.opts.OnBest != nil {
+		a.opts.OnBest(x.Schedule(), x.Cost())
+	}
+}
+
+// reheat starts a new cooling cycle from the best timetable, alternating
+// between a full and a third of the starting temperature.
+func (a *annealer) reheat(t0 float64) {
+	a.st.Cycles++
+	if better(a.bestCost, a.curCost) {
+		a.x.restore(a.best)
+		copy(a.curCost, a.bestCost)
+	}
+	a.temp = t0
+	if a.st.Cycles%2 == 0 {
+		a.temp = t0 / 3
+	}
+}

@@ -1,0 +1,190 @@
+package improve
+
+import (
+	"math/rand/v2"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// roomAuto asks apply to choose a room: the meeting's old room when it is
+// free and allowed, otherwise the first free allowed room from a random
+// offset in the section's room list.
+const roomAuto = -3
+
+// change asks for meeting m to start at p in room r (a room index, -1 for
+// none, or roomAuto).
+type change struct{ m, p, r int32 }
+
+// apply makes the changes together if the result keeps every hard
+// requirement and accept agrees, given the cost difference (new minus old).
+// Otherwise the state is left exactly as it was. It reports whether the
+// changes were kept. Cost is linear in the touched meetings, their people's
+// days, their sections and those sections' relations.
+func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
+	x.nextStamp()
+	x.touchSec, x.touchPD, x.touchRel = x.touchSec[:0], x.touchPD[:0], x.touchRel[:0]
+	np := int32(x.np)
+	for _, ch := range chs {
+		mt := &x.mt[ch.m]
+		si := mt.sec
+		if x.markSec[si] != x.stamp {
+			x.markSec[si] = x.stamp
+			x.touchSec = append(x.touchSec, si)
+			for _, ri := range x.secs[si].rels {
+				if x.markRel[ri] != x.stamp {
+					x.markRel[ri] = x.stamp
+					x.touchRel = append(x.touchRel, ri)
+				}
+			}
+		}
+		for _, res := range x.secs[si].people {
+			for _, d := range [2]int32{x.dayFirst[mt.p], x.dayFirst[ch.p]} {
+				if k := res*np + d; x.markPD[k] != x.stamp {
+					x.markPD[k] = x.stamp
+					x.touchPD = append(x.touchPD, k)
+				}
+			}
+		}
+	}
+	var before tally
+	x.touched(&before)
+	base := x.cur
+	x.log = x.log[:0]
+	for _, ch := range chs {
+		mt := &x.mt[ch.m]
+		x.log = append(x.log, undoRec{ch.m, mt.p, mt.r})
+		x.remove(ch.m)
+	}
+	placed := 0
+	for i, ch := range chs {
+		r := ch.r
+		if r == roomAuto {
+			r = x.pickRoom(ch.m, ch.p, x.log[i].r, rng)
+		}
+		if r == roomAuto || !x.canPlace(ch.m, ch.p, r) {
+			break
+		}
+		x.insert(ch.m, ch.p, r)
+		placed++
+	}
+	if placed < len(chs) || !x.hardOK() {
+		x.undo(placed, base)
+		return false
+	}
+	var after tally
+	x.touched(&after)
+	x.cur.plus(&after)
+	x.cur.minus(&before)
+	delta := x.cur
+	delta.minus(&base)
+	if accept != nil && !accept(&delta) {
+		x.undo(placed, base)
+		return false
+	}
+	return true
+}
+
+// undo takes out the first placed meetings of the log, puts every logged
+// meeting back and restores the running cost to base.
+func (x *State) undo(placed int, base tally) {
+	for _, u := range x.log[:placed] {
+		x.remove(u.m)
+	}
+	for _, u := range x.log {
+		x.insert(u.m, u.p, u.r)
+	}
+	x.cur = base
+}
+
+// touched adds the section, person-day and relation criteria of what the
+// current move touches.
+func (x *State) touched(out *tally) {
+	np := int32(x.np)
+	for _, si := range x.touchSec {
+		x.secContrib(si, out)
+	}
+	for _, k := range x.touchPD {
+		x.pdContrib(k/np, k%np, out)
+	}
+	for _, ri := range x.touchRel {
+		x.relContrib(ri, out)
+	}
+}
+
+// hardOK checks the rules over several meetings on what the move touched:
+// different days, staff limits and hard relations.
+func (x *State) hardOK() bool {
+	np := int32(x.np)
+	for _, si := range x.touchSec {
+		if !x.sameDayOK(si) {
+			return false
+		}
+	}
+	for _, k := range x.touchPD {
+		if res := k / np; int(res) < x.nStaff && x.isStaffLim[res] && !x.staffDayOK(res, k%np) {
+			return false
+		}
+	}
+	for _, ri := range x.touchRel {
+		if x.rels[ri].Hard && x.relBroken(ri) {
+			return false
+		}
+	}
+	return true
+}
+
+// pickRoom chooses a room for unplaced meeting m at p: old when it fits,
+// else the first allowed room that fits from a random offset; roomAuto
+// when none does. A fixed room is never changed.
+func (x *State) pickRoom(m, p, old int32, rng *rand.Rand) int32 {
+	in := &x.secs[x.mt[m].sec]
+	if in.noRoom {
+		return -1
+	}
+	if old >= 0 && (x.mt[m].fixedR || x.canPlace(m, p, old)) {
+		return old
+	}
+	n := len(in.rooms)
+	if n == 0 {
+		return roomAuto
+	}
+	off := rng.IntN(n)
+	for i := range n {
+		if r := in.rooms[(off+i)%n]; x.canPlace(m, p, r) {
+			return r
+		}
+	}
+	return roomAuto
+}
+
+// nextStamp starts a new generation of the mark slices (clearing them all
+// when the counter wraps).
+func (x *State) nextStamp() {
+	x.stamp++
+	if x.stamp == 0 {
+		clear(x.markSec)
+		clear(x.markPD)
+		clear(x.markRel)
+		clear(x.chainSeen)
+		x.stamp = 1
+	}
+}
+
+// restore moves every meeting to its place in s (an earlier timetable of
+// this state, placements in the same order), keeping the state legal
+// throughout: all meetings are lifted, then put back.
+func (x *State) restore(s *timetable.Schedule) {
+	roomIdx := x.t.RoomIndex()
+	for m := range x.mt {
+		x.remove(int32(m))
+	}
+	x.cur = tally{}
+	for m, pl := range s.Placements {
+		r := int32(-1)
+		if pl.Room != "" {
+			r = int32(roomIdx[pl.Room])
+		}
+		x.insert(int32(m), int32(pl.Period), r)
+	}
+	x.recount()
+}

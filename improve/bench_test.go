@@ -1,0 +1,95 @@
+package improve
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/termwright/termwright/samples"
+)
+
+// benchMoves measures propose + legality + incremental cost + annealing
+// decision at a fixed temperature, one move per iteration.
+func benchMoves(b *testing.B, cfg samples.Config) {
+	term, wit := samples.GenerateWithWitness(cfg)
+	x, err := New(term, wit, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	a := newAnnealer(x, Options{Seed: 1})
+	a.temp = 2
+	rng := rand.New(rand.NewPCG(1, 1))
+	accepted := 0
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if x.propose(a.pick(), rng) && x.apply(x.chs, rng, a.accept) {
+			accepted++
+			x.levelCosts(&x.cur, a.curCost)
+		}
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "moves/s")
+	b.ReportMetric(float64(accepted)/float64(b.N), "accepted/move")
+}
+
+// BenchmarkMovesDemo is the move rate on the demo term.
+func BenchmarkMovesDemo(b *testing.B) { benchMoves(b, samples.DemoConfig) }
+
+// BenchmarkMoves2000 is the move rate on the 2,000-section generated term (seed 1).
+func BenchmarkMoves2000(b *testing.B) { benchMoves(b, samples.Config{Sections: 2000, Seed: 1}) }
+
+// BenchmarkNew2000 is the cost of building a state (including the
+// starting timetable.Check) on the 2,000-section term.
+func BenchmarkNew2000(b *testing.B) {
+	term, wit := samples.GenerateWithWitness(samples.Config{Sections: 2000, Seed: 1})
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := New(term, wit, nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkMovesITC is the move rate on comp07 (skipped without the shared data).
+func BenchmarkMovesITC(b *testing.B) {
+	term := readITC(b, "comp07")
+	x, err := New(term, firstTimetable(b, term), nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	a := newAnnealer(x, Options{Seed: 1})
+	a.temp = 2
+	rng := rand.New(rand.NewPCG(1, 1))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if x.propose(a.pick(), rng) && x.apply(x.chs, rng, a.accept) {
+			x.levelCosts(&x.cur, a.curCost)
+		}
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "moves/s")
+}
+
+// TestMovesAllocateNothing checks that, once the occupancy lists have
+// grown, proposing, checking, costing and deciding a move allocates
+// nothing (common practice for hot paths; STYLE.md item 6).
+func TestMovesAllocateNothing(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := newAnnealer(x, Options{Seed: 1})
+	a.temp = 2
+	rng := rand.New(rand.NewPCG(1, 1))
+	step := func() {
+		if x.propose(a.pick(), rng) {
+			x.apply(x.chs, rng, a.accept)
+		}
+	}
+	for range 20000 {
+		step()
+	}
+	if n := testing.AllocsPerRun(5000, step); n != 0 {
+		t.Fatalf("a move allocates %v times on average", n)
+	}
+}

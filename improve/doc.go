@@ -1,0 +1,47 @@
+// Package improve is the fast improvement phase: local search that works on
+// a timetable directly, keeps it legal after every move, and evaluates every
+// soft criterion of timetable.Criteria incrementally.
+//
+// Representation. A State holds a Term's static facts (valid start periods of
+// each section after hard unavailability, allowed rooms, week sets, the
+// people of each section, pairs of sections that share students) and the
+// moving part: one meeting per placement of the schedule (same order), its
+// start period and room, and per-resource occupancy lists (resource ×
+// period → meetings occupying it) for staff, cohorts and rooms, plus a
+// per-section period count. The running cost is kept per criterion as raw
+// units and row-weighted units, exactly as timetable.Cost counts them.
+//
+// Invariants. Between moves the schedule passes every hard requirement of
+// timetable.Check, and the running cost equals timetable.Cost of the
+// schedule criterion by criterion. A move is a list of (meeting, new start,
+// new room); it is applied by removing the meetings, inserting them at their
+// new places with the clash, availability and room checks done at insertion,
+// then checking the rules that span several meetings (different days, staff
+// limits, hard relations) on the touched sections and staff days only. A
+// move that fails any rule is undone.
+//
+// Deltas. Per-meeting criteria (avoid times, over capacity, wasted seats,
+// early and late periods) and student clashes change by exact deltas at
+// insertion and removal. Criteria of a section (moved meetings, spread
+// days, room stability), of a person's day (staff and cohort gaps, staff
+// days, isolated cohort periods, travel) and of a relation (soft
+// relations) are recomputed for the touched sections, person-days and
+// relations only, before and after the move.
+//
+// Moves (moves.go): relocate a meeting to another start, with its room or
+// another, swapping with the one meeting holding that room then; change a
+// meeting's room, swapping likewise; a Kempe chain that exchanges the
+// meetings of two starts linked by shared staff or cohorts (Thompson and
+// Dowsland 1998), rooms kept where free; put every meeting of a section
+// in one room, swapping with the meetings holding it.
+//
+// Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
+// Vecchi 1983) with a measured starting temperature, geometric cooling and
+// reheats from the best timetable; with a deadline or a move limit each
+// cooling cycle is planned to take a share of what is left, so the search
+// uses all the time it is given. Levels stay lexicographic.
+//
+// Names: m is a meeting (placement index), si a section index, p a period,
+// r a room index (-1 for none), res a resource (staff k, then cohorts, then
+// rooms, in one numbering).
+package improve

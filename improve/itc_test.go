@@ -1,0 +1,121 @@
+package improve
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/timetable"
+)
+
+// itcDir is the shared ITC-2007 folder (never copied into the
+// repository): shared/data/itc2007 in the nearest directory above this
+// package that has it, as timetable's tests find it ("../shared/data/itc2007"
+// from a checkout beside the shared folder); "" when absent.
+var itcDir = func() string {
+	wd, err := os.Getwd()
+	if err != nil {
+		return ""
+	}
+	for dir := wd; ; dir = filepath.Dir(dir) {
+		d := filepath.Join(dir, "shared", "data", "itc2007")
+		if _, err := os.Stat(filepath.Join(d, "best-known.csv")); err == nil {
+			return d
+		}
+		if filepath.Dir(dir) == dir {
+			return ""
+		}
+	}
+}()
+
+// itcInstances are the public competition instances measured.
+var itcInstances = []string{"comp01", "comp02", "comp03", "comp04", "comp05", "comp06", "comp07"}
+
+// readITC reads one instance, skipping when the shared data is absent.
+func readITC(tb testing.TB, name string) *timetable.Term {
+	tb.Helper()
+	f, err := os.Open(filepath.Join(itcDir, name+".ctt"))
+	if itcDir == "" || os.IsNotExist(err) {
+		tb.Skipf("%s not found under %s", name, itcDir)
+	}
+	require.NoError(tb, err)
+	defer f.Close()
+	term, err := timetable.ReadCTT(f, name+".ctt")
+	require.NoError(tb, err)
+	return term
+}
+
+// firstTimetable gets a legal start from the engine.
+func firstTimetable(tb testing.TB, term *timetable.Term) *timetable.Schedule {
+	tb.Helper()
+	ctx, cancel := context.WithTimeout(context.Background(), 20*time.Second)
+	defer cancel()
+	res, err := encode.Solve(ctx, term, encode.SolveOptions{Seed: 1})
+	require.NoError(tb, err)
+	require.NotNil(tb, res.Schedule, "no first timetable for %s", term.Name)
+	return res.Schedule
+}
+
+// TestITC2007 runs the annealer on comp01–comp07 for the time in
+// IMPROVE_ITC (for example "30s"; the test is skipped without it or
+// without the shared data) from the engine's first timetable, and prints
+// cost against the best known. It checks every result with the
+// competition's own hard constraints and cost (timetable.ITCHardViolations
+// and timetable.ITCCost, which implement the definitions of Di Gaspero,
+// McCollum, Schaerf 2007, QUB/IEEE/Tech/ITC2007/CurriculumCTT/v1.0). No
+// timing is asserted.
+func TestITC2007(t *testing.T) {
+	limit, err := time.ParseDuration(os.Getenv("IMPROVE_ITC"))
+	if err != nil || limit <= 0 {
+		t.Skip("set IMPROVE_ITC to a duration per instance (e.g. 30s) to run the ITC-2007 measurement")
+	}
+	f, err := os.Open(filepath.Join(itcDir, "best-known.csv"))
+	if itcDir == "" || os.IsNotExist(err) {
+		t.Skip("shared ITC-2007 data not found")
+	}
+	require.NoError(t, err)
+	best, err := timetable.ReadITCBest(f, "best-known.csv")
+	f.Close()
+	require.NoError(t, err)
+	// IMPROVE_SHARE and IMPROVE_SEED optionally set Options.CycleShare
+	// and the seed (default 1) for experiments.
+	share, _ := strconv.ParseFloat(os.Getenv("IMPROVE_SHARE"), 64)
+	seed, _ := strconv.ParseUint(os.Getenv("IMPROVE_SEED"), 10, 64)
+	seed = max(seed, 1)
+	var rows []string
+	logSum, logPlain, n := 0.0, 0.0, 0
+	for _, name := range itcInstances {
+		term := readITC(t, name)
+		start := firstTimetable(t, term)
+		startCost, _ := timetable.ITCCost(term, start)
+		ctx, cancel := context.WithTimeout(context.Background(), limit)
+		var bestAt time.Duration
+		t0 := time.Now()
+		res, err := Run(ctx, term, start, nil, Options{Seed: seed, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
+		cancel()
+		require.NoError(t, err)
+		require.Zero(t, timetable.ITCHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
+		cost, parts := timetable.ITCCost(term, res.Best)
+		require.Equal(t, int64(cost), res.Cost.ByLevel[1]+res.Cost.ByLevel[0], "%s: termwright's cost differs from the competition's", name)
+		b := best[name].Best
+		ratio := float64(cost+1) / float64(b+1)
+		logSum += math.Log(ratio)
+		logPlain += math.Log(float64(cost) / float64(max(b, 1)))
+		n++
+		rows = append(rows, fmt.Sprintf("%-7s %6d %6d %6d %8.2f  %-22s %7.1fs %8.0f %8.0f",
+			name, startCost, cost, b, ratio, fmt.Sprintf("%d/%d/%d/%d", parts.RoomCapacity, parts.MinWorkingDays, parts.CurriculumCompactness, parts.RoomStability),
+			bestAt.Seconds(), res.Stats.TriedPerSec, res.Stats.AcceptPerSec))
+	}
+	t.Logf("ITC-2007 at %v per instance, seed %d, from encode.Solve's first timetable\n"+
+		"instance  start   cost   best (c+1)/(b+1) cap/mwd/compact/stab    best at  tried/s  accepted/s\n%s\n"+
+		"geometric mean of (cost+1)/(best+1): %.2f, of cost/best: %.2f, over %d instances",
+		limit, seed, strings.Join(rows, "\n"), math.Exp(logSum/float64(n)), math.Exp(logPlain/float64(n)), n)
+}

@@ -1,0 +1,132 @@
+package improve
+
+// insert puts meeting m (currently unplaced) at start p in room r and adds
+// its per-meeting criteria and student clashes to the running cost. It
+// does not check legality; see canPlace. O(length·(people + neighbours)).
+func (x *State) insert(m, p, r int32) {
+	mt := &x.mt[m]
+	mt.p, mt.r = p, r
+	si := mt.sec
+	in := &x.secs[si]
+	np := int32(x.np)
+	for q := p; q < p+int32(in.length); q++ {
+		for _, nb := range in.nb {
+			if x.secOcc[nb.sec*np+q] > 0 {
+				x.cur.add(cStudentClash, nb.shared, nb.shared)
+			}
+		}
+		x.secOcc[si*np+q]++
+		for _, res := range in.people {
+			x.occ[res*np+q] = append(x.occ[res*np+q], m)
+		}
+		if r >= 0 {
+			k := x.roomRes(r)*np + q
+			x.occ[k] = append(x.occ[k], m)
+			x.cur.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
+		}
+	}
+	x.meetingLocal(m, 1)
+}
+
+// remove takes meeting m out of its place, subtracting what insert added.
+func (x *State) remove(m int32) {
+	mt := &x.mt[m]
+	p, r := mt.p, mt.r
+	si := mt.sec
+	in := &x.secs[si]
+	np := int32(x.np)
+	x.meetingLocal(m, -1)
+	for q := p; q < p+int32(in.length); q++ {
+		x.secOcc[si*np+q]--
+		for _, nb := range in.nb {
+			if x.secOcc[nb.sec*np+q] > 0 {
+				x.cur.add(cStudentClash, -nb.shared, -nb.shared)
+			}
+		}
+		for _, res := range in.people {
+			x.occ[res*np+q] = drop(x.occ[res*np+q], m)
+		}
+		if r >= 0 {
+			k := x.roomRes(r)*np + q
+			x.occ[k] = drop(x.occ[k], m)
+			x.cur.add(cAvoid, -x.roomAvU[r*np+q], -x.roomAvW[r*np+q])
+		}
+	}
+	mt.p, mt.r = -1, -1
+}
+
+// meetingLocal adds sign times the criteria that depend on meeting m alone:
+// avoid times of its section's people and section rows, room over
+// capacity, wasted seats, early and late periods.
+func (x *State) meetingLocal(m int32, sign int64) {
+	mt := &x.mt[m]
+	in := &x.secs[mt.sec]
+	p := mt.p
+	x.cur.add(cAvoid, sign*in.avoidU[p], sign*in.avoidW[p])
+	if p == x.dayFirst[p] {
+		x.cur.add(cEarly, sign, sign)
+	}
+	if p+int32(in.length)-1 == x.dayLast[p] {
+		x.cur.add(cLate, sign, sign)
+	}
+	if mt.r >= 0 {
+		size := x.t.Sections[mt.sec].Size
+		capa := x.roomCap[mt.r]
+		if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
+			x.cur.add(cOverCap, sign*over, sign*over)
+		}
+		if waste := int64(capa - size); waste > 0 {
+			x.cur.add(cWasted, sign*waste, sign*waste)
+		}
+	}
+}
+
+// canPlace reports whether unplaced meeting m may start at p in room r
+// given every other placed meeting: allowed start (grid, hard
+// unavailability), allowed room, no overlap with its own section, and no
+// staff, cohort or room clash with a section whose weeks overlap.
+func (x *State) canPlace(m, p, r int32) bool {
+	si := x.mt[m].sec
+	in := &x.secs[si]
+	if p < 0 || int(p) >= x.np || !in.startOK[p] {
+		return false
+	}
+	if in.noRoom != (r < 0) || (r >= 0 && !in.roomOK[r]) {
+		return false
+	}
+	np := int32(x.np)
+	for q := p; q < p+int32(in.length); q++ {
+		if x.secOcc[si*np+q] > 0 {
+			return false
+		}
+		for _, res := range in.people {
+			for _, o := range x.occ[res*np+q] {
+				if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
+					return false
+				}
+			}
+		}
+		if r >= 0 {
+			if x.roomBlock[r*np+q] {
+				return false
+			}
+			for _, o := range x.occ[x.roomRes(r)*np+q] {
+				if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
+					return false
+				}
+			}
+		}
+	}
+	return true
+}
+
+// drop removes v from xs in place (order is not kept).
+func drop(xs []int32, v int32) []int32 {
+	for i, y := range xs {
+		if y == v {
+			xs[i] = xs[len(xs)-1]
+			return xs[:len(xs)-1]
+		}
+	}
+	panic("improve: occupancy lost a meeting")
+}

@@ -1,0 +1,43 @@
+package improve
+
+import (
+	"context"
+	"os"
+	"testing"
+	"time"
+
+	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/samples"
+	"github.com/termwright/termwright/timetable"
+)
+
+// TestScale2000 runs the annealer for the time in IMPROVE_SCALE (skipped
+// without it) on the 2,000-section generated term (seed 1) from the
+// engine's first timetable and prints the cost per level, highest first.
+// It checks the result with timetable.Check and that the reported cost is
+// timetable.Cost of the result; no timing is asserted.
+func TestScale2000(t *testing.T) {
+	limit, err := time.ParseDuration(os.Getenv("IMPROVE_SCALE"))
+	if err != nil || limit <= 0 {
+		t.Skip("set IMPROVE_SCALE to a duration (e.g. 60s) to run the 2,000-section measurement")
+	}
+	term := samples.Generate(samples.Config{Sections: 2000, Seed: 1})
+	t0 := time.Now()
+	start := firstTimetable(t, term)
+	first := time.Since(t0)
+	ctx, cancel := context.WithTimeout(context.Background(), limit)
+	defer cancel()
+	res, err := Run(ctx, term, start, nil, Options{Seed: 1})
+	require.NoError(t, err)
+	require.Empty(t, timetable.HardViolations(timetable.Check(term, res.Best)))
+	want := timetable.Cost(term, res.Best, nil)
+	require.Equal(t, want.ByLevel, res.Cost.ByLevel)
+	sc := timetable.Cost(term, start, nil)
+	t.Logf("2,000 sections: first timetable in %v, cost by level %v; after %v of annealing %v (tried %.0f/s, accepted %.0f/s, %d cycles)",
+		first.Round(time.Millisecond), sc.ByLevel, limit, res.Cost.ByLevel, res.Stats.TriedPerSec, res.Stats.AcceptPerSec, res.Stats.Cycles)
+	for _, c := range res.Cost.Criteria {
+		if c.Weight != 0 {
+			t.Logf("  %-20s level %d  %d -> %d", c.Name, c.Level, sc.Criterion(c.Name).Cost, c.Cost)
+		}
+	}
+}

@@ -1,0 +1,118 @@
+package improve
+
+import (
+	"fmt"
+	"math/rand/v2"
+	"testing"
+
+	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/samples"
+	"github.com/termwright/termwright/timetable"
+)
+
+// requireSameCost compares the running cost with timetable.Cost recomputed
+// from scratch (the project's independent evaluator), criterion by
+// criterion and level by level, and the schedule with timetable.Check.
+func requireSameCost(t *testing.T, x *State, kept *timetable.Schedule, step int) {
+	t.Helper()
+	s := x.Schedule()
+	hv := timetable.HardViolations(timetable.Check(x.t, s))
+	require.Empty(t, hv, "step %d: the timetable breaks a hard requirement", step)
+	want := timetable.Cost(x.t, s, kept)
+	got := x.Cost()
+	for i, c := range want.Criteria {
+		require.Equal(t, c.Count, got.Criteria[i].Count, "step %d: %s units", step, c.Name)
+		require.Equal(t, c.Cost, got.Criteria[i].Cost, "step %d: %s cost", step, c.Name)
+	}
+	require.Equal(t, want.ByLevel, got.ByLevel, "step %d: cost by level", step)
+}
+
+// TestWalkKeepsCostAndLegality applies random moves, accepting every legal
+// one, and after each accepted move compares the running cost with
+// timetable.Cost and the timetable with timetable.Check.
+func TestWalkKeepsCostAndLegality(t *testing.T) {
+	cases := []struct {
+		name string
+		cfg  samples.Config
+		keep bool
+	}{
+		{"demo", samples.DemoConfig, false},
+		{"demo kept", samples.DemoConfig, true},
+		{"small 1", samples.Config{Sections: 12, Seed: 1}, false},
+		{"small 2", samples.Config{Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4}, true},
+		{"small 3", samples.Config{Sections: 40, Seed: 11}, false},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(tc.cfg)
+			var kept *timetable.Schedule
+			if tc.keep {
+				kept = wit
+			}
+			x, err := New(term, wit, kept)
+			require.NoError(t, err)
+			requireSameCost(t, x, kept, 0)
+			rng := rand.New(rand.NewPCG(1, 2))
+			accepted := [nMoves]int{}
+			for step := 1; step <= 3000; step++ {
+				k := rng.IntN(nMoves)
+				if !x.propose(k, rng) {
+					continue
+				}
+				if x.apply(x.chs, rng, nil) {
+					accepted[k]++
+					requireSameCost(t, x, kept, step)
+				}
+			}
+			t.Logf("accepted per kind %v", accepted)
+			for k, n := range accepted {
+				if k != mvSectionRoom || len(x.roomy) > 0 {
+					require.Positive(t, n, "no %s move was ever accepted", moveNames[k])
+				}
+			}
+		})
+	}
+}
+
+// TestWalkManySmallTerms repeats the walk on generated terms of many
+// shapes (grids, week counts, sizes), 600 moves each.
+func TestWalkManySmallTerms(t *testing.T) {
+	for seed := uint64(1); seed <= 12; seed++ {
+		cfg := samples.Config{Sections: 6 + int(seed*3), Seed: seed, Days: 3 + int(seed%3), PeriodsPerDay: 4 + int(seed%5), Weeks: 1 + int(seed%4)}
+		t.Run(fmt.Sprint(cfg), func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(cfg)
+			x, err := New(term, wit, nil)
+			require.NoError(t, err)
+			rng := rand.New(rand.NewPCG(seed, 3))
+			n := 0
+			for step := 1; step <= 600; step++ {
+				if x.propose(rng.IntN(nMoves), rng) && x.apply(x.chs, rng, nil) {
+					n++
+					requireSameCost(t, x, nil, step)
+				}
+			}
+			require.Positive(t, n)
+		})
+	}
+}
+
+// TestSameTimeGroupsMove checks that sections tied by a hard same-time
+// relation do move (together) and that the relation still holds by
+// timetable.Check after each such move.
+func TestSameTimeGroupsMove(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	require.NoError(t, err)
+	rng := rand.New(rand.NewPCG(8, 8))
+	grouped := 0
+	for step := 1; step <= 20000 && grouped < 5; step++ {
+		if !x.propose(mvRelocate, rng) || len(x.secs[x.mt[x.chs[0].m].sec].sameAs) == 0 || x.chs[0].p == x.mt[x.chs[0].m].p {
+			continue // not a change of time of a grouped section
+		}
+		if x.apply(x.chs, rng, nil) {
+			grouped++
+			requireSameCost(t, x, nil, step)
+		}
+	}
+	require.Positive(t, grouped, "no section of a same-time group ever moved")
+}
