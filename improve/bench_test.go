@@ -50,24 +50,7 @@ func BenchmarkNew2000(b *testing.B) {
 }
 
 // BenchmarkMovesITC is the move rate on comp07 (skipped without the shared data).
-func BenchmarkMovesITC(b *testing.B) {
-	term := readITC(b, "comp07")
-	x, err := New(term, firstTimetable(b, term), nil)
-	if err != nil {
-		b.Fatal(err)
-	}
-	a := newAnnealer(x, Options{Seed: 1})
-	a.temp = 2
-	rng := rand.New(rand.NewPCG(1, 1))
-	b.ReportAllocs()
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		if x.propose(a.pick(), rng) && x.apply(x.chs, rng, a.accept) {
-			x.levelCosts(&x.cur, a.curCost)
-		}
-	}
-	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "moves/s")
-}
+
 
 // TestMovesAllocateNothing checks that, once the occupancy lists have
 // grown, proposing, checking, costing and deciding a move allocates

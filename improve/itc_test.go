@@ -1,4 +1,4 @@
-package improve
+package improve_test
 
 import (
 	"context"
@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/timetable"
 )
@@ -99,7 +100,7 @@ func TestITC2007(t *testing.T) {
 		ctx, cancel := context.WithTimeout(context.Background(), limit)
 		var bestAt time.Duration
 		t0 := time.Now()
-		res, err := Run(ctx, term, start, nil, Options{Seed: seed, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
+		res, err := improve.Run(ctx, term, start, nil, improve.Options{Seed: seed, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
 		cancel()
 		require.NoError(t, err)
 		require.Zero(t, timetable.ITCHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
@@ -118,4 +119,19 @@ func TestITC2007(t *testing.T) {
 		"instance  start   cost   best (c+1)/(b+1) cap/mwd/compact/stab    best at  tried/s  accepted/s\n%s\n"+
 		"geometric mean of (cost+1)/(best+1): %.2f, of cost/best: %.2f, over %d instances",
 		limit, seed, strings.Join(rows, "\n"), math.Exp(logSum/float64(n)), math.Exp(logPlain/float64(n)), n)
+}
+
+// BenchmarkMovesITC measures the annealer's moves per second on comp07
+// (skipped without the shared data), from the engine's first timetable:
+// one run of b.N moves (the state Run builds is timed with them).
+func BenchmarkMovesITC(b *testing.B) {
+	term := readITC(b, "comp07")
+	start := firstTimetable(b, term)
+	b.ReportAllocs()
+	b.ResetTimer()
+	res, err := improve.Run(context.Background(), term, start, nil, improve.Options{Seed: 1, MaxMoves: int64(b.N)})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportMetric(float64(res.Stats.Tried)/b.Elapsed().Seconds(), "moves/s")
 }

@@ -1,4 +1,4 @@
-package improve
+package improve_test
 
 import (
 	"context"
@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/samples"
 	"github.com/termwright/termwright/timetable"
 )
@@ -27,7 +28,7 @@ func TestScale2000(t *testing.T) {
 	first := time.Since(t0)
 	ctx, cancel := context.WithTimeout(context.Background(), limit)
 	defer cancel()
-	res, err := Run(ctx, term, start, nil, Options{Seed: 1})
+	res, err := improve.Run(ctx, term, start, nil, improve.Options{Seed: 1})
 	require.NoError(t, err)
 	require.Empty(t, timetable.HardViolations(timetable.Check(term, res.Best)))
 	want := timetable.Cost(term, res.Best, nil)
