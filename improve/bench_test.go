@@ -51,7 +51,6 @@ func BenchmarkNew2000(b *testing.B) {
 
 // BenchmarkMovesITC is the move rate on comp07 (skipped without the shared data).
 
-
 // TestMovesAllocateNothing checks that, once the occupancy lists have
 // grown, proposing, checking, costing and deciding a move allocates
 // nothing (common practice for hot paths; STYLE.md item 6).

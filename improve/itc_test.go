@@ -12,8 +12,8 @@ import (
 	"time"
 
 	"github.com/stretchr/testify/require"
-	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/timetable"
 )
 
