@@ -34,6 +34,10 @@ type OptimizeOptions struct {
 	// MaxSteps ends neighbourhood search after this many steps; 0 means
 	// no limit.
 	MaxSteps int
+	// LocalShare is the share of the time left that each local-search run
+	// (package improve) takes when ctx has a deadline; 0 means
+	// DefaultLocalShare, negative skips local search.
+	LocalShare float64
 	// Progress, when set, is called with the state of the search after each
 	// improvement and about every ProgressEvery while searching.
 	Progress      func(Progress)
@@ -51,9 +55,9 @@ const (
 // Progress is a snapshot of an optimisation in progress.
 type Progress struct {
 	Elapsed time.Duration
-	Phase   string  // "first timetable", "whole term" or "neighbourhoods"
+	Phase   string  // "first timetable", "whole term", "local search" or "neighbourhoods"
 	Levels  []int   // priority levels, highest first
-	Cost    []int64 // cost per level of the best verified timetable; nil before the first
+	Cost    []int64 // cost per level of the best verified timetable (in local search: of its best timetable so far, verified when the run ends); nil before the first
 	Bound   []int64 // proven lower bound per level
 	Steps   int     // neighbourhood steps so far
 	Found   int     // verified timetables that improved on the best so far
@@ -86,6 +90,7 @@ type OptimizeResult struct {
 	Moves      []Move     // with Keep: meetings whose start or room changed, and new or dropped meetings
 	History    []Progress // one entry per improvement
 	Steps      int        // neighbourhood steps run
+	Local      LocalStats // the local-search phase
 	Stopped    string     // why the search ended: "optimal", "time limit", "interrupted", "conflict budget", "step limit", "no improvement"
 }
 
@@ -176,6 +181,7 @@ type optRun struct {
 	start  time.Time
 
 	best  *candidate // best verified timetable so far, the incumbent of neighbourhood search
+	local []int64    // during local search: the cost per level of its best timetable so far
 	bound []int64    // proven lower bound per level of levels
 
 	// In neighbourhood steps only the engine's last model of a call is
@@ -201,8 +207,54 @@ func (o *optRun) run() error {
 		o.res.Stopped = "conflict budget"
 		return nil
 	}
-	o.phase = "neighbourhoods"
+	// Local search and neighbourhood search take turns until the time
+	// limit, Ctrl-C or a proof of optimality: when neighbourhood search
+	// stalls with time left, local search runs again from the incumbent.
+	for {
+		if err := o.localSearch(); err != nil {
+			return err
+		}
+		if o.finished() {
+			return nil
+		}
+		o.phase = "neighbourhoods"
+		if err := o.lnsTurn(); err != nil {
+			return err
+		}
+		if _, timed := o.ctx.Deadline(); o.finished() || !timed || o.res.Stopped == "step limit" || o.opt.LocalShare < 0 {
+			return nil
+		}
+	}
+}
+
+// lnsTurn runs neighbourhood search until it stalls or, when ctx has a
+// deadline and local search is on, for half the time left, so that the two
+// take turns.
+func (o *optRun) lnsTurn() error {
+	dl, timed := o.ctx.Deadline()
+	if !timed || o.opt.LocalShare < 0 {
+		return o.lns()
+	}
+	outer := o.ctx
+	ctx, cancel := context.WithDeadline(outer, time.Now().Add(time.Until(dl)/2))
+	defer cancel()
+	o.ctx = ctx
+	defer func() { o.ctx = outer }()
 	return o.lns()
+}
+
+// finished reports that the search must end: ctx ended (Stopped says why)
+// or the incumbent meets the bound.
+func (o *optRun) finished() bool {
+	switch {
+	case o.ctx.Err() != nil:
+		o.res.Stopped = o.ctxStopped()
+		return true
+	case slices.Equal(o.best.total, o.bound):
+		o.res.Stopped = "optimal"
+		return true
+	}
+	return false
 }
 
 // global finds the first verified timetable (no budget: whatever it
@@ -279,6 +331,9 @@ func (o *optRun) snapshot() Progress {
 		Bound: slices.Clone(o.bound), Steps: o.res.Steps, Found: len(o.res.History)}
 	if o.best != nil {
 		pr.Cost = slices.Clone(o.best.total)
+	}
+	if o.local != nil {
+		pr.Cost = slices.Clone(o.local)
 	}
 	return pr
 }

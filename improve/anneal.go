@@ -111,7 +111,6 @@ func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *ti
 type annealer struct {
 	x        *State
 	opts     Options
-	kept     *timetable.Schedule
 	rng      *rand.Rand
 	temp     float64
 	best     *timetable.Schedule
