@@ -193,10 +193,25 @@
 // day, random sections) is re-optimised within a conflict budget, and
 // every model the engine finds goes through the gates; the best whole cost
 // wins. The neighbourhood grows after a proven step and
-// shrinks after one that ran out of budget. All budgets count conflicts,
-// so a run that ends by itself (proof, stall or step limit) depends only on
-// the term, the options and the seed; a time limit or Ctrl-C ends it with
-// the best verified timetable so far.
+// shrinks after one that ran out of budget.
+//
+// Between the whole-term phase and neighbourhood search, and again each
+// time neighbourhood search stalls or its turn (half the time left) ends,
+// a local-search run (package improve: simulated annealing with legal
+// moves and incremental cost on the timetable itself, rooms included)
+// starts from the incumbent (optimize_local.go). Its best timetable is
+// adopted only through the engine: every start atom is fixed to it as
+// assumptions, the engine's model (propagation only) must pass
+// solver.Verify, the timetable with its own rooms timetable.Check, and the
+// model's cost must equal the timetable's time cost (the third gate); a
+// timetable the program refuses is not adopted. With a deadline each run
+// takes LocalShare of the time left; without one, a move budget.
+//
+// All budgets count conflicts or moves, so a run without a deadline that
+// ends by itself (proof, stall or step limit) depends only on the term,
+// the options and the seed; a time limit or Ctrl-C ends it with the best
+// verified timetable so far, and the search never stops early while time
+// remains.
 //
 // # Naming
 //

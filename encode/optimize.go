@@ -97,11 +97,13 @@ type OptimizeResult struct {
 // Optimize compiles the term with its soft criteria and searches for the
 // best timetable: first a verified timetable, then model-improving search
 // with core-guided lower bounds on the whole term (solver.Optimize, within
-// GlobalConflicts), then, unless that proved the optimum,
-// large-neighbourhood search (Shaw 1998): most sections stay where the
-// incumbent has them (assumptions on their start atoms) while a
-// neighbourhood of related sections is re-optimised within StepConflicts;
-// improvements are kept and the neighbourhood size adapts.
+// GlobalConflicts), then, unless that proved the optimum, local search on
+// the timetable itself (package improve; see LocalShare) and
+// large-neighbourhood search (Shaw 1998) in turns: in a neighbourhood step
+// most sections stay where the incumbent has them while a neighbourhood of
+// related sections is re-optimised within StepConflicts; improvements are
+// kept and the neighbourhood size adapts. With a deadline the turns go on
+// until it, Ctrl-C or a proof of optimality.
 //
 // Every timetable it keeps has passed solver.Verify, Decode, room
 // improvement, timetable.Check and the third gate (the engine's cost of
