@@ -233,16 +233,27 @@ func (o *optRun) run() error {
 // deadline and local search is on, for half the time left, so that the two
 // take turns.
 func (o *optRun) lnsTurn() error {
+	defer o.turn(0.5)()
+	return o.lns()
+}
+
+// Shares of the time left of the engine's turns when local search is on.
+const wholeTermShare = 0.2 // the whole-term phase, before the first local search
+
+// turn limits o.ctx to share of the time left when it has a deadline and
+// local search is on, and returns the function that restores it.
+func (o *optRun) turn(share float64) (restore func()) {
 	dl, timed := o.ctx.Deadline()
 	if !timed || o.opt.LocalShare < 0 {
-		return o.lns()
+		return func() {}
 	}
 	outer := o.ctx
-	ctx, cancel := context.WithDeadline(outer, time.Now().Add(time.Until(dl)/2))
-	defer cancel()
+	ctx, cancel := context.WithDeadline(outer, time.Now().Add(time.Duration(share*float64(time.Until(dl)))))
 	o.ctx = ctx
-	defer func() { o.ctx = outer }()
-	return o.lns()
+	return func() {
+		cancel()
+		o.ctx = outer
+	}
 }
 
 // finished reports that the search must end: ctx ended (Stopped says why)
@@ -273,6 +284,7 @@ func (o *optRun) global(budget int64) error {
 	}
 	o.phase = "whole term"
 	o.note(true)
+	defer o.turn(wholeTermShare)()
 	for round := 0; round < 1000; round++ {
 		if o.ctx.Err() != nil {
 			o.res.Stopped = o.ctxStopped()
