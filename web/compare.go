@@ -10,12 +10,12 @@ import (
 
 // compareJSON is two versions compared, per person, room and cohort.
 type compareJSON struct {
-	Old      string        `json:"old"`
-	New      string        `json:"new"`
-	Moved    int           `json:"moved"`
-	Added    int           `json:"added"`
-	Dropped  int           `json:"dropped"`
-	Same     int           `json:"unchanged"`
+	Old      string         `json:"old"`
+	New      string         `json:"new"`
+	Moved    int            `json:"moved"`
+	Added    int            `json:"added"`
+	Dropped  int            `json:"dropped"`
+	Same     int            `json:"unchanged"`
 	Affected []affectedJSON `json:"affected"`
 }
 

@@ -10,14 +10,14 @@ import (
 
 // termJSON is what the page needs of the term, sent once.
 type termJSON struct {
-	Name     string          `json:"name"`
-	Days     []string        `json:"days"`  // day names in grid order
-	Times    []timeRow       `json:"times"` // grid rows: distinct start and end times
-	Periods  []periodJSON    `json:"periods"`
-	Staff    []subjectJSON   `json:"staff"`
-	Rooms    []subjectJSON   `json:"rooms"`
-	Cohorts  []subjectJSON   `json:"cohorts"`
-	Students []subjectJSON   `json:"students"`
+	Name     string              `json:"name"`
+	Days     []string            `json:"days"`  // day names in grid order
+	Times    []timeRow           `json:"times"` // grid rows: distinct start and end times
+	Periods  []periodJSON        `json:"periods"`
+	Staff    []subjectJSON       `json:"staff"`
+	Rooms    []subjectJSON       `json:"rooms"`
+	Cohorts  []subjectJSON       `json:"cohorts"`
+	Students []subjectJSON       `json:"students"`
 	Enrolled map[string][]string `json:"enrolled"` // student ID -> section IDs
 }
 
