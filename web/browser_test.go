@@ -66,7 +66,7 @@ func TestBrowserEndToEnd(t *testing.T) {
 
 	shot := func(name string) {
 		t.Helper()
-		buf, err := chromedp.Run(ctx, chromedp.FullScreenshot(90))
+		buf, err := chromedp.Run(ctx, chromedp.FullScreenshot(100))
 		require.NoError(t, err)
 		p := filepath.Join(shots, name+".png")
 		require.NoError(t, os.WriteFile(p, buf, 0o644))

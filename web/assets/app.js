@@ -134,7 +134,7 @@ function drawGrid() {
             onclick: (e) => { e.stopPropagation(); pressed ? unpick() : pick(m, true); } },
             m.section + " " + m.start + "–" + m.end, el("small", { text: (m.title || "") + " · " + (m.no_room ? "no room" : m.room) + (m.weeks ? " · weeks " + m.weeks : "") })));
         }
-        if (S.picked) {
+        if (S.picked && !(S.picked.period === p.index && !movesRoom())) {
           td.classList.add("target");
           td.append(el("button", { type: "button", class: "here", "data-period": p.index, "aria-label": "Move " + meetingLabel(S.picked) + " to " + p.label,
             onclick: (e) => { e.stopPropagation(); move(p.index, false); }, text: "Move here" }));
@@ -151,19 +151,28 @@ function drawGrid() {
   wrap.append(table);
 }
 
+// movesRoom says the pending move changes the room (a room chosen, or the
+// week shown is another room's), so the meeting's own cell is a target too.
+function movesRoom() {
+  const chosen = $("room-choice").value, m = S.picked;
+  return !!chosen || (S.subject && S.subject.kind === "room" && m && m.room !== S.subject.id);
+}
+
 function pick(m, focus) {
   S.picked = m;
   drawGrid();
   if (focus) { const b = document.querySelector(".here"); if (b) b.focus(); }
 }
-function unpick() { S.picked = null; drawGrid(); }
+function unpick() { S.picked = null; $("room-choice").dataset.for = ""; drawGrid(); }
 
 function drawPicked() {
   const box = $("picked"), m = S.picked;
   box.hidden = !m;
   if (!m) return;
   $("picked-text").textContent = "Moving " + meetingLabel(m) + " from " + m.day + " " + m.start + (m.no_room ? "" : " in " + m.room) + ". Choose a cell with “Move here”, or press Esc.";
-  const sel = $("room-choice");
+  const sel = $("room-choice"), key = m.index + "/" + (S.subject ? S.subject.kind + ":" + S.subject.id : "");
+  if (sel.dataset.for === key) return; // same meeting and week: keep the room chosen
+  sel.dataset.for = key;
   sel.textContent = "";
   sel.disabled = m.no_room;
   const keep = S.subject && S.subject.kind === "room" ? S.subject.id : m.room;
@@ -182,7 +191,7 @@ async function move(period, force) {
     const res = await api("POST", "/api/move", body);
     S.state = res.state;
     S.lastMove = { period, body };
-    if (res.applied) S.picked = null;
+    if (res.applied) { S.picked = null; $("room-choice").dataset.for = ""; }
     drawAll();
     drawVerdict(res, period);
     notice(res.applied ? "Moved: " + res.what + "." : "");
@@ -204,6 +213,7 @@ function drawVerdict(res, period) {
     for (const c of res.cost) t.append(el("tr", {}, el("td", { text: c.name }), el("td", { class: "num", text: c.before }), el("td", { class: "num", text: c.after }), el("td", { class: "num", text: (c.after - c.before > 0 ? "+" : "") + (c.after - c.before) })));
     v.append(t);
   } else v.append(el("p", { text: "No change in cost." }));
+  if (res.levels && res.levels.length) v.append(el("p", { text: "Total cost by level (highest first): " + res.levels.map((l) => "level " + l.level + " " + l.before + " → " + l.after).join("; ") + "." }));
   if (!res.applied) {
     v.append(el("button", { type: "button", id: "force", onclick: () => move(period, true), text: "Place it anyway (breaks the requirements above)" }));
   }
@@ -248,15 +258,21 @@ function drawHealth() {
 }
 
 // ---- master list ----
+function staffName(id) {
+  if (!S.staffNames) S.staffNames = new Map((S.term.staff || []).map((s) => [s.id, s.name]));
+  const n = S.staffNames.get(id);
+  return n ? n + " (" + id + ")" : id;
+}
+
 function drawMaster() {
   const q = $("filter").value.trim().toLowerCase(), tb = $("master").tBodies[0];
   tb.textContent = "";
   let n = 0;
   for (const m of S.state.meetings) {
-    const cells = [m.section, m.title, String(m.meeting), m.day, m.start + "–" + m.end, m.no_room ? "no room" : m.room, m.staff.join(", "), m.cohorts.join(", ")];
+    const cells = [m.section, m.title, String(m.meeting), m.day, m.start + "–" + m.end, m.no_room ? "no room" : m.room, m.staff.map(staffName).join(", "), m.cohorts.join(", ")];
     if (q && !cells.join(" ").toLowerCase().includes(q)) continue;
     n++;
-    tb.append(el("tr", {}, ...cells.map((c) => el("td", { text: c }))));
+    tb.append(el("tr", {}, ...cells.map((c, i) => el("td", { class: i === 0 || i === 4 ? "nowrap" : null, text: c }))));
   }
   $("master-count").textContent = n + " of " + S.state.meetings.length + " meetings shown.";
 }
@@ -299,6 +315,7 @@ document.addEventListener("DOMContentLoaded", () => {
   $("undo").addEventListener("click", undo);
   $("save").addEventListener("click", save);
   $("cancel-pick").addEventListener("click", unpick);
+  $("room-choice").addEventListener("change", drawGrid);
   $("cmp-new").addEventListener("change", (e) => { e.target.dataset.touched = "1"; });
   $("compare-form").addEventListener("submit", compare);
   document.addEventListener("keydown", (e) => { if (e.key === "Escape" && S.picked) unpick(); });
