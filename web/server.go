@@ -45,6 +45,8 @@ type Server struct {
 	undo    []*timetable.Schedule // earlier states, most recent last
 	saved   []savedVersion        // versions on file, in order of saving
 	mux     *http.ServeMux
+	// explaining holds a token while an explanation runs (capacity 1).
+	explaining chan struct{}
 }
 
 // New makes a Server for opt. It fails when the term or the timetable is
@@ -67,7 +69,7 @@ func New(opt Options) (*Server, error) {
 		return nil, err
 	}
 	opt.OutDir = abs
-	s := &Server{opt: opt, version: 1, cur: cloneSchedule(opt.Schedule)}
+	s := &Server{opt: opt, version: 1, cur: cloneSchedule(opt.Schedule), explaining: make(chan struct{}, 1)}
 	if opt.Source != "" {
 		s.saved = append(s.saved, savedVersion{ID: 1, File: filepath.Base(opt.Source), Path: opt.Source, Edit: 1, sched: cloneSchedule(opt.Schedule)})
 	}
