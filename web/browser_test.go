@@ -107,6 +107,14 @@ func TestBrowserEndToEnd(t *testing.T) {
 	assert.Contains(t, verdict, timetable.RuleStaffClash)
 	assert.Contains(t, verdict, "not moved")
 
+	// Why not: the explanation engine answers for every timetable of the term.
+	require.NoError(t, chromedp.Do(ctx, chromedp.Click(`#ask-why`)))
+	_, err := chromedp.Run(ctx, chromedp.Poll[bool](`(() => { const w = document.getElementById("whynot"); return w && w.textContent.includes("timetable of the term") && !w.textContent.startsWith("Searching"); })()`))
+	require.NoError(t, err)
+	why := text(`#whynot`)
+	shot("2b-why-not")
+	assert.Contains(t, why, "section "+m.Section+" at "+d.term.Periods[clash].Label())
+
 	// Keyboard: the meeting is still picked; focus the free cell and press Enter.
 	require.NoError(t, chromedp.Do(ctx,
 		chromedp.Focus(here(legal)),
@@ -116,7 +124,7 @@ func TestBrowserEndToEnd(t *testing.T) {
 	verdict, hard := text(`#verdict`), text(`#hard`)
 	shot("3-moved")
 	require.NoError(t, chromedp.Do(ctx, chromedp.Click(`#save`)))
-	_, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("notice").textContent.includes("Saved as")`))
+	_, err = chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("notice").textContent.includes("Saved as")`))
 	require.NoError(t, err)
 	notice := text(`#notice`)
 	shot("4-saved")
