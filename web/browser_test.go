@@ -10,6 +10,8 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/chromedp"
 	"github.com/chromedp/chromedp/kb"
 	"github.com/stretchr/testify/assert"
@@ -132,6 +134,20 @@ func TestBrowserEndToEnd(t *testing.T) {
 	assert.Contains(t, verdict, "done")
 	assert.Contains(t, hard, "All hard requirements hold.")
 	assert.Contains(t, notice, "autumn-2.xlsx")
+
+	// Print: the controls go, the week and the lists stay.
+	printMedia := func(ctx context.Context, tg *chromedp.Target) (chromedp.Void, error) {
+		_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"})
+		return chromedp.Void{}, err
+	}
+	require.NoError(t, chromedp.Do(ctx, printMedia))
+	shot("5-print")
+	hidden, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`["save", "undo", "find", "filter"].every((id) => document.getElementById(id).getClientRects().length === 0)`))
+	require.NoError(t, err)
+	assert.True(t, hidden, "print hides the controls")
+	gridShown, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`document.getElementById("grid").getClientRects().length > 0 && document.getElementById("master").getClientRects().length > 0`))
+	require.NoError(t, err)
+	assert.True(t, gridShown, "print keeps the week grid")
 
 	saved, ps, err := timetable.ReadSchedule(filepath.Join(d.dir, "autumn-2.xlsx"), d.term)
 	require.NoError(t, err)
