@@ -1,0 +1,132 @@
+package web
+
+import (
+	"net/http"
+	"strings"
+
+	"github.com/termwright/termwright/timetable"
+)
+
+// stateJSON is the current timetable with its check and cost.
+type stateJSON struct {
+	Version  int           `json:"version"`
+	CanUndo  bool          `json:"can_undo"`
+	Meetings []meetingJSON `json:"meetings"`
+	Hard     []problemJSON `json:"hard"` // broken hard requirements
+	Soft     []problemJSON `json:"soft"` // student clashes (a preference)
+	Cost     costJSON      `json:"cost"`
+}
+
+// meetingJSON is one placement as the page draws it.
+type meetingJSON struct {
+	Index   int      `json:"index"` // index into the schedule's placements
+	Section string   `json:"section"`
+	Meeting int      `json:"meeting"`
+	Title   string   `json:"title"`
+	Period  int      `json:"period"`
+	Periods []int    `json:"periods"` // every period it occupies
+	Day     string   `json:"day"`
+	Start   string   `json:"start"`
+	End     string   `json:"end"`
+	Room    string   `json:"room"`
+	NoRoom  bool     `json:"no_room,omitempty"`
+	Staff   []string `json:"staff"`
+	Cohorts []string `json:"cohorts"`
+	Weeks   string   `json:"weeks,omitempty"`
+}
+
+type problemJSON struct {
+	Rule string `json:"rule"`
+	Msg  string `json:"msg"`
+}
+
+type costJSON struct {
+	Criteria []timetable.CriterionCost `json:"criteria"` // criteria with a weight
+	Levels   []levelJSON               `json:"levels"`   // highest first
+}
+
+type levelJSON struct {
+	Level int   `json:"level"`
+	Cost  int64 `json:"cost"`
+}
+
+func (s *Server) handleState(w http.ResponseWriter, r *http.Request) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	writeJSON(w, http.StatusOK, s.stateLocked())
+}
+
+func (s *Server) stateLocked() stateJSON {
+	t := s.opt.Term
+	out := stateJSON{Version: s.version, CanUndo: len(s.undo) > 0, Meetings: meetingsOf(t, s.cur)}
+	for _, v := range timetable.Check(t, s.cur) {
+		if v.Hard {
+			out.Hard = append(out.Hard, problemJSON{v.Rule, v.Msg})
+		} else {
+			out.Soft = append(out.Soft, problemJSON{v.Rule, v.Msg})
+		}
+	}
+	out.Cost = costOf(timetable.Cost(t, s.cur, nil))
+	return out
+}
+
+func costOf(c timetable.CostReport) costJSON {
+	out := costJSON{Criteria: []timetable.CriterionCost{}}
+	for _, cr := range c.Criteria {
+		if cr.Weight != 0 {
+			out.Criteria = append(out.Criteria, cr)
+		}
+	}
+	for _, l := range c.Levels() {
+		out.Levels = append(out.Levels, levelJSON{l, c.ByLevel[l]})
+	}
+	return out
+}
+
+func meetingsOf(t *timetable.Term, s *timetable.Schedule) []meetingJSON {
+	secs := t.SectionIndex()
+	out := make([]meetingJSON, 0, len(s.Placements))
+	for i, p := range s.Placements {
+		m := meetingJSON{Index: i, Section: p.Section, Meeting: p.Meeting, Period: p.Period, Room: p.Room, Staff: []string{}, Cohorts: []string{}}
+		length := 1
+		if k, ok := secs[p.Section]; ok {
+			sec := t.Sections[k]
+			m.Title, m.NoRoom, length = sec.Title, sec.NoRoom, sec.Length
+			m.Staff = append(m.Staff, sec.Staff...)
+			m.Cohorts = append(m.Cohorts, sec.Cohorts...)
+			if sec.Weeks != 0 && sec.Weeks != t.AllWeeks() {
+				m.Weeks = weeksText(sec.Weeks)
+			}
+		}
+		if span, ok := t.Span(p.Period, length); ok {
+			m.Periods = span
+			first, last := t.Periods[span[0]], t.Periods[span[len(span)-1]]
+			m.Day, m.Start, m.End = timetable.DayName(first.Day), first.Start.String(), last.End.String()
+		} else {
+			m.Periods = []int{}
+		}
+		out = append(out, m)
+	}
+	return out
+}
+
+// weeksText is "1-6, 9" for a week set.
+func weeksText(w timetable.WeekSet) string {
+	var parts []string
+	for n := 1; n <= 64; n++ {
+		if !w.Has(n) {
+			continue
+		}
+		end := n
+		for end+1 <= 64 && w.Has(end+1) {
+			end++
+		}
+		if end > n {
+			parts = append(parts, itoa(n)+"-"+itoa(end))
+		} else {
+			parts = append(parts, itoa(n))
+		}
+		n = end
+	}
+	return strings.Join(parts, ", ")
+}
