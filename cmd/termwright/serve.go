@@ -65,6 +65,7 @@ func newServeCmd(e *env) *cobra.Command {
 	f.DurationVar(&o.timeLimit, "time-limit", 30*time.Second, "without TIMETABLE: stop solving after this long")
 	f.Int64Var(&o.seed, "seed", 1, "without TIMETABLE: seed of the search")
 	f.BoolVar(&o.quiet, "quiet", false, "show no progress while solving")
+	addColumnsFlag(cmd, e)
 	return cmd
 }
 
