@@ -152,7 +152,6 @@ func (ps occSet) addRange(first, last int) {
 	}
 }
 
-
 // commonCount is |ps ∩ o|.
 func (ps occSet) commonCount(o occSet) int {
 	n := 0
