@@ -52,6 +52,23 @@ type versionRequest struct {
 
 // staleLocked refuses an edit made on another version than the current
 // one, and says so; it reports whether it refused.
+// beginEdit reads an edit's body into req, takes the lock and refuses an
+// edit naming a stale version (version reads it from req). It reports
+// whether the edit may go on, holding the lock; otherwise it has answered
+// and holds nothing.
+func (s *Server) beginEdit(w http.ResponseWriter, r *http.Request, req any, version func() int) bool {
+	if err := readBody(w, r, req); err != nil {
+		writeError(w, http.StatusBadRequest, err.Error())
+		return false
+	}
+	s.mu.Lock()
+	if s.staleLocked(w, version()) {
+		s.mu.Unlock()
+		return false
+	}
+	return true
+}
+
 func (s *Server) staleLocked(w http.ResponseWriter, v int) bool {
 	if v == s.version {
 		return false
@@ -66,15 +83,10 @@ func (s *Server) staleLocked(w http.ResponseWriter, v int) bool {
 
 func (s *Server) handleMove(w http.ResponseWriter, r *http.Request) {
 	var req moveRequest
-	if err := readBody(w, r, &req); err != nil {
-		writeError(w, http.StatusBadRequest, err.Error())
+	if !s.beginEdit(w, r, &req, func() int { return req.Version }) {
 		return
 	}
-	s.mu.Lock()
 	defer s.mu.Unlock()
-	if s.staleLocked(w, req.Version) {
-		return
-	}
 	next, at, err := s.movedLocked(req)
 	if err != nil {
 		writeError(w, http.StatusBadRequest, err.Error())
@@ -184,15 +196,10 @@ func moveText(t *timetable.Term, from, to timetable.Placement) string {
 
 func (s *Server) handleUndo(w http.ResponseWriter, r *http.Request) {
 	var req versionRequest
-	if err := readBody(w, r, &req); err != nil {
-		writeError(w, http.StatusBadRequest, err.Error())
+	if !s.beginEdit(w, r, &req, func() int { return req.Version }) {
 		return
 	}
-	s.mu.Lock()
 	defer s.mu.Unlock()
-	if s.staleLocked(w, req.Version) {
-		return
-	}
 	if len(s.undo) == 0 {
 		writeError(w, http.StatusBadRequest, "there is nothing to undo: the timetable is as it was loaded or last undone")
 		return

@@ -36,15 +36,10 @@ type saveResult struct {
 
 func (s *Server) handleSave(w http.ResponseWriter, r *http.Request) {
 	var req versionRequest
-	if err := readBody(w, r, &req); err != nil {
-		writeError(w, http.StatusBadRequest, err.Error())
+	if !s.beginEdit(w, r, &req, func() int { return req.Version }) {
 		return
 	}
-	s.mu.Lock()
 	defer s.mu.Unlock()
-	if s.staleLocked(w, req.Version) {
-		return
-	}
 	now := s.opt.Now()
 	path, err := s.writeLocked(now)
 	if err != nil {
