@@ -4,13 +4,15 @@ package timetable
 type Placement struct {
 	Section string // section ID
 	Meeting int    // 1-based meeting number within the section
-	Period  int    // index into Term.Periods of the first period of the meeting
+	Period  int    // index into Term.Periods of the first period of the meeting; -1 for a pattern section
+	Time    int    // 1-based index into Section.Times for a pattern section; 0 for a grid meeting
 	Room    string // room ID; "" for sections that take no room
 	Src     Source // row of the timetable workbook it was read from, if any
 }
 
 // Schedule is a timetable: one placement per meeting. A complete schedule
-// has exactly Section.Meetings placements for every section of its Term.
+// has exactly Section.Meetings placements for every grid section of its Term
+// and exactly one (Meeting 1, Period -1, Time set) for every pattern section.
 type Schedule struct {
 	Placements []Placement
 }

@@ -83,15 +83,22 @@ type Staff struct {
 	Email          string // optional
 	MaxPerDay      int    // maximum teaching periods per day; 0 = no limit
 	MaxConsecutive int    // maximum consecutive teaching periods; 0 = no limit
+	// Weekly limits for part-time contracts (hard), per teaching week; 0 =
+	// no limit. Periods count grid periods, minutes count every meeting.
+	MaxWeekPeriods int
+	MaxWeekMinutes int
+	MaxWeekDays    int        // distinct days with a meeting
+	Lunch          LunchBreak // guaranteed free time around midday (hard)
 	Src            Source
 }
 
 // Cohort is a group of students who must never have two classes at once.
 type Cohort struct {
-	ID   string
-	Name string
-	Size int // number of students; 0 when unknown
-	Src  Source
+	ID    string
+	Name  string
+	Size  int        // number of students; 0 when unknown
+	Lunch LunchBreak // guaranteed free time around midday (hard)
+	Src   Source
 }
 
 // WeekSet is a set of teaching weeks: bit i-1 set means teaching week i
@@ -113,7 +120,8 @@ type Fixed struct {
 }
 
 // Section is a class that meets Meetings times a week for Length consecutive
-// periods each time.
+// periods each time on the period grid, or, when Times is given, at one of
+// its acceptable meeting patterns (then Meetings is 1 and Length unused).
 type Section struct {
 	ID       string
 	Title    string
@@ -129,7 +137,13 @@ type Section struct {
 	Weeks    WeekSet  // teaching weeks this section meets; Term.AllWeeks() when "all"
 	SameDay  bool     // meetings may share a day; default false: meetings fall on different days (hard)
 	MinDays  int      // when SameDay: wanted number of distinct days (soft, criterion "spread days"); 0 = none
-	Src      Source
+	// Times lists the acceptable meeting patterns; empty for a grid section.
+	Times []TimeChoice
+	// RoomChoices, when given, is the exact list of acceptable rooms with
+	// their preference penalties (it replaces Rooms; capacity and features
+	// still hold). Empty means Rooms / any room that fits.
+	RoomChoices []RoomChoice
+	Src         Source
 }
 
 // WhoKind says what an unavailability or relation refers to.
@@ -170,7 +184,10 @@ type Unavailability struct {
 	Hard   bool // true: must not be scheduled; false: a preference with Weight
 	Weight int  // penalty per affected meeting period when not Hard
 	Reason string
-	Src    Source
+	// Weeks limits the row to these teaching weeks; 0 means every week.
+	// Grid meetings are affected when their section's weeks meet Weeks.
+	Weeks WeekSet
+	Src   Source
 }
 
 // Covers reports whether period p overlaps this unavailability.
@@ -183,7 +200,14 @@ type RelationKind int
 
 // The relation kinds of the Relations sheet. Each definition is the
 // contract for the encoder and for Check ("occupies" counts every period of a
-// multi-period meeting; week sets are ignored by relations).
+// multi-period meeting; week sets are ignored by relations unless the
+// definition names weeks). "Meeting" means an Occurrence: a grid meeting, or
+// one day of a chosen meeting pattern. The first seven kinds keep their grid
+// wording; for pattern sections read "start period" as (day, start time) and
+// "grid index" as (day in week order, time). Kinds marked "pairwise" hold
+// for every pair of different listed sections; a soft relation costs its
+// Weight once when broken, except the four kinds marked "counted", which
+// cost Weight times the count they define.
 const (
 	SameTime      RelationKind = iota + 1 // all listed sections have the same set of start periods (validation: same Meetings and Length)
 	NotSameTime                           // no two listed sections occupy a common period
@@ -192,6 +216,24 @@ const (
 	Before                                // for each consecutive pair (A, B) in the list: every period A occupies has a lower grid index than every start of B
 	BackToBack                            // for each consecutive pair (A, B): every meeting of B starts in the period right after (consecutive, same day) the last period of some meeting of A
 	SameRoom                              // all meetings of all listed sections use one room
+
+	SameStart      // all meetings of all listed sections start at one time of day
+	WithinHours    // pairwise: for each two meetings of the pair, the start-to-end hours of one lie within the other's (days and weeks ignored)
+	DifferentHours // pairwise: no two meetings of the pair overlap in time of day (days and weeks ignored)
+	DaysWithin     // pairwise: the days one section meets are all among the other's days
+	WeeksWithin    // pairwise: the teaching weeks one section meets are all among the other's
+	DifferentWeeks // pairwise: no common teaching week
+	OverlapRel     // pairwise: some meeting of one shares a minute of a common day in a common week with a meeting of the other
+	NoOverlap      // pairwise: no meeting of one shares a minute of a common day in a common week with a meeting of the other
+	DifferentRooms // pairwise: no room is used by both
+	SamePeople     // pairwise: no overlap (as NoOverlap), and any two meetings on a common day in a common week leave at least Term.TravelMinutes between their rooms between the end of the earlier and the start of the later
+	FirstBefore    // for each consecutive pair (A, B): A's first week is earlier than B's; or equal and A's first day (week order) is earlier; or equal too and A's meeting that day ends no later than B's meeting that day starts
+	DaySpan        // pairwise: any two meetings on a common day in a common week lie within N minutes (latest end minus earliest start <= N)
+	MinGap         // pairwise: any two meetings on a common day in a common week have at least N free minutes between them
+	MaxDays        // counted: the listed sections together meet on at most N distinct weekdays (weeks ignored); count = days over N
+	MaxDayMinutes  // counted: in every teaching week, every day's meetings of the listed sections total at most N minutes; count = sum over weeks and days of the minutes over N, divided by the term's teaching weeks, rounded down
+	MaxBreaks      // counted: in every teaching week and day, the listed sections' meetings form at most N+1 blocks (a meeting starting at most M minutes after a block's end joins it); count = sum over weeks and days of the blocks over N+1, divided by the teaching weeks, rounded down
+	MaxBlock       // counted: in every teaching week and day, no block (as in MaxBreaks, M minutes) of two or more meetings lasts more than N minutes from first start to last end; count = sum over weeks and days of such blocks, divided by the teaching weeks, rounded down
 )
 
 // RelationKinds lists every kind with its workbook spelling, in sheet order.
@@ -206,6 +248,40 @@ var RelationKinds = []struct {
 	{Before, "before"},
 	{BackToBack, "back to back"},
 	{SameRoom, "same room"},
+	{SameStart, "same start"},
+	{WithinHours, "within hours"},
+	{DifferentHours, "different hours"},
+	{DaysWithin, "days within"},
+	{WeeksWithin, "weeks within"},
+	{DifferentWeeks, "different weeks"},
+	{OverlapRel, "overlap"},
+	{NoOverlap, "no overlap"},
+	{DifferentRooms, "different rooms"},
+	{SamePeople, "same people"},
+	{FirstBefore, "first before"},
+	{DaySpan, "day span"},
+	{MinGap, "minimum gap"},
+	{MaxDays, "at most days"},
+	{MaxDayMinutes, "at most minutes a day"},
+	{MaxBreaks, "at most breaks"},
+	{MaxBlock, "longest block"},
+}
+
+// Counted reports whether a soft relation of this kind costs its weight
+// times a count (see the kind's definition) rather than once.
+func (k RelationKind) Counted() bool {
+	return k == MaxDays || k == MaxDayMinutes || k == MaxBreaks || k == MaxBlock
+}
+
+// Params says how many numbers (N, then M) a relation of this kind takes.
+func (k RelationKind) Params() int {
+	switch k {
+	case DaySpan, MinGap, MaxDays, MaxDayMinutes:
+		return 1
+	case MaxBreaks, MaxBlock:
+		return 2
+	}
+	return 0
 }
 
 // String gives the workbook spelling of the kind.
@@ -224,6 +300,7 @@ type Relation struct {
 	Sections []string
 	Hard     bool // true unless a weight was given
 	Weight   int  // penalty when broken and not Hard
+	N, M     int  // the kind's numbers (minutes or days), see RelationKind.Params
 	Src      Source
 }
 
@@ -251,7 +328,12 @@ type Term struct {
 	Enrolments  []Enrolment
 	Unavailable []Unavailability
 	Relations   []Relation
-	Weights     map[string]Weight // soft criterion name -> weight and level (see Criteria)
+	// Travel holds travel times between rooms or buildings. Staff and
+	// cohorts never have two meetings on a common day in a common week with
+	// less free time between them than the travel time between their rooms
+	// (hard).
+	Travel  []Travel
+	Weights map[string]Weight // soft criterion name -> weight and level (see Criteria)
 	// SoftCapacity makes room capacity a preference (criterion "room over
 	// capacity") instead of a hard requirement. Features stay hard.
 	SoftCapacity bool
