@@ -88,9 +88,13 @@ func Check(t *Term, s *Schedule) []Violation {
 	c.sameDay()
 	c.fixed()
 	c.clashes()
+	c.patternClashes()
+	c.travel()
 	c.students()
 	c.unavailable()
 	c.staffLimits()
+	c.weeklyLimits()
+	c.lunch()
 	c.relations()
 	sortViolations(c.out)
 	return c.out
