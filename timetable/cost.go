@@ -94,6 +94,7 @@ func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
 	c.sections()
 	c.travel()
 	c.softRelations()
+	c.choices()
 	return c.finish()
 }
 
@@ -169,8 +170,8 @@ func (c *coster) softRelations() {
 		if r.Hard {
 			continue
 		}
-		if why, _ := c.x.relationBroken(r); why != "" {
-			c.add(CritSoftRelations, 1, int64(r.Weight), 0, "")
+		if why, _, n := c.x.relationJudge(r); why != "" {
+			c.add(CritSoftRelations, n, n*int64(r.Weight), 0, "")
 		}
 	}
 }
@@ -188,7 +189,14 @@ func (c *coster) avoidTimes() {
 			continue
 		}
 		for _, i := range pls {
+			if x.unavailWeeksMiss(u, i) {
+				continue
+			}
 			n := int64(len(x.coveredPeriods(u, i)))
+			c.add(CritAvoidTimes, n, n*int64(u.Weight), u.Kind, u.Who)
+		}
+		for _, i := range x.patternInvolved(u) {
+			n := int64(len(unavailMeets(x, u, i)))
 			c.add(CritAvoidTimes, n, n*int64(u.Weight), u.Kind, u.Who)
 		}
 	}

@@ -27,10 +27,11 @@ type occupancy struct {
 	patStaff  [][]int
 	patCohort [][]int
 	patRoom   [][]int
-	meets     []occMeet   // occurrences of every valid placement, grid and pattern
-	secMeets  [][]occMeet // section index -> its meets (built lazily by sectionMeets)
-	hasPat    bool        // some valid placement is a pattern placement
-	nWeeks    int         // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
+	meets     []occMeet    // occurrences of every valid placement, grid and pattern
+	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
+	hasPat    bool         // some valid placement is a pattern placement
+	travelIdx *travelIndex // built on first use
+	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
 
 	dayFirst []int // period index -> index of the first period of its day
 	dayLast  []int // period index -> index of the last period of its day
