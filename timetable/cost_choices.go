@@ -15,12 +15,12 @@ func (c *coster) choices() {
 		sec := &x.t.Sections[op.sec]
 		if op.pok {
 			if w := int64(sec.Times[p.Time-1].Weight); w != 0 {
-				c.add(CritTimeChoice, 1, w, WhoSection, sec.ID)
+				c.add(CritTimeChoice, w, w, WhoSection, sec.ID)
 			}
 		}
 		if len(sec.RoomChoices) > 0 && p.Room != "" {
 			if rc, ok := roomChoiceOf(sec, p.Room); ok && rc.Weight != 0 {
-				c.add(CritRoomChoice, 1, int64(rc.Weight), WhoSection, sec.ID)
+				c.add(CritRoomChoice, int64(rc.Weight), int64(rc.Weight), WhoSection, sec.ID)
 			}
 		}
 	}
