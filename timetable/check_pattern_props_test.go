@@ -91,7 +91,9 @@ func bruteMinutes(t *Term, s *Schedule, i int) (days []time.Weekday, start, end 
 func TestCheckAgreesWithMinuteByMinuteOccupancy(t *testing.T) {
 	rng := rand.New(rand.NewPCG(14, 2027))
 	var clashes, lunches, limits int
-	defer func() { t.Logf("over all trials: %d double bookings, %d lunch days, %d weekly limits", clashes, lunches, limits) }()
+	defer func() {
+		t.Logf("over all trials: %d double bookings, %d lunch days, %d weekly limits", clashes, lunches, limits)
+	}()
 	for trial := 0; trial < 200; trial++ {
 		tm, s := propTerm(rng)
 		const weeks, day = 4, 24 * 60
