@@ -59,9 +59,6 @@ type occMeet struct {
 	pl int
 }
 
-// valid reports whether placement i is a valid grid or pattern placement.
-func (x *occupancy) valid(i int) bool { return x.pl[i].ok || x.pl[i].pok }
-
 // meetsOf lists the occurrences of placement i (none when invalid).
 func (x *occupancy) meetsOf(i int) []occMeet { return x.meets[x.pl[i].m0:x.pl[i].m1] }
 
