@@ -32,36 +32,37 @@ const relMaxReasons = 3
 
 // relationJudge evaluates relation r as term.go defines it and returns
 // "" when it holds, or a sentence saying how it is broken, the placements
-// involved, and the count a soft relation costs its weight times (1 for a
-// broken relation of a kind that is not counted; for a counted kind the
-// count it defines, which may be 0 while the hard reading is broken).
+// involved, and what a soft row costs: Weight times count, divided by div
+// and rounded down (count 1, div 1 for a broken row of a kind that is not
+// counted; for a counted kind its sum over weeks and days and the divisor
+// its definition gives, so the cost may be 0 while the hard reading is
+// broken).
 // Relations of the first seven kinds over grid sections only keep their
 // grid evaluation (relationBroken); everything else is judged on
 // occurrences.
-func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
+func (x *occupancy) relationJudge(r Relation) (why string, pls []int, count, div int64) {
 	ordered := r.Kind == Before || r.Kind == BackToBack || r.Kind == FirstBefore
 	secs := x.relSections(r, !ordered)
 	if r.Kind <= SameRoom && !x.relUsesTimes(secs) {
-		why, pls := x.relationBroken(r)
-		if why == "" {
-			return "", nil, 0
+		w, ps := x.relationBroken(r)
+		if w == "" {
+			return "", nil, 0, 1
 		}
-		return why, pls, 1
+		return w, ps, 1, 1
 	}
 	if r.Kind == SameRoom {
-		why, pls := x.relationBroken(r)
-		if why == "" {
-			return "", nil, 0
+		w, ps := x.relationBroken(r)
+		if w == "" {
+			return "", nil, 0, 1
 		}
-		return why, pls, 1
+		return w, ps, 1, 1
 	}
-	var why []string
-	var pls []int
-	count := int64(1)
+	var reasons []string
+	count, div = 1, 1
 	more := 0
 	note := func(w func() string, ps ...int) {
-		if len(why) < relMaxReasons {
-			why = append(why, w())
+		if len(reasons) < relMaxReasons {
+			reasons = append(reasons, w())
 		} else {
 			more++
 		}
@@ -75,7 +76,7 @@ func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
 			x.relOrdered(r.Kind, secs[k], secs[k+1], note)
 		}
 	case MaxDays, MaxDayMinutes, MaxBreaks, MaxBlock:
-		count = x.relCounted(r, secs, note)
+		count, div = x.relCounted(r, secs, note)
 	default:
 		for a := 0; a < len(secs); a++ {
 			for b := a + 1; b < len(secs); b++ {
@@ -83,11 +84,11 @@ func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
 			}
 		}
 	}
-	if len(why) == 0 {
-		return "", nil, 0
+	if len(reasons) == 0 {
+		return "", nil, 0, 1
 	}
 	if more > 0 {
-		why = append(why, itoa(more)+" more")
+		reasons = append(reasons, itoa(more)+" more")
 	}
 	ids := make([]string, len(secs))
 	for k, si := range secs {
@@ -98,7 +99,7 @@ func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
 		phrase = strings.NewReplacer(" N ", " "+itoa(r.N)+" ", " M ", " "+itoa(r.M)+" ").Replace(relPhraseMore[r.Kind])
 	}
 	slices.Sort(pls)
-	return chkJoin(ids) + " " + phrase + ", but " + strings.Join(why, "; "), slices.Compact(pls), count
+	return chkJoin(ids) + " " + phrase + ", but " + strings.Join(reasons, "; "), slices.Compact(pls), count, div
 }
 
 // relUsesTimes reports whether a listed section uses meeting patterns.
@@ -453,11 +454,13 @@ func newTravelIndexOnce(x *occupancy) *travelIndex {
 	return x.travelIdx
 }
 
-// relCounted handles the counted kinds, returning the count: for at most
-// days, the days over N; for the others, the sum over teaching weeks and
-// days of the excess, divided by the term's teaching weeks (rounded down).
-// note is called when the hard reading is broken (any excess at all).
-func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, ...int)) int64 {
+// relCounted handles the counted kinds, returning the count and the
+// divisor of a soft row's cost: for at most days, the days over N (divisor
+// 1); for the others, the sum over teaching weeks and days of the excess,
+// divided by the term's teaching weeks (and by 5 for minutes, counted in
+// 5-minute steps), the division last. note is called when the hard reading
+// is broken (any excess at all).
+func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, ...int)) (int64, int64) {
 	var ms []occMeet
 	for _, si := range secs {
 		ms = append(ms, x.sectionMeets(si)...)
@@ -466,10 +469,10 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, 
 		d := relDays(ms)
 		over := d.Count() - r.N
 		if over <= 0 {
-			return 0
+			return 0, 1
 		}
 		note(func() string { return "they meet on " + itoa(d.Count()) + " days (" + d.String() + ")" }, relPls(ms)...)
-		return int64(over)
+		return int64(over), 1
 	}
 	days := byDay(ms)
 	total, worst, worstWeek := 0, 0, 0
@@ -508,8 +511,12 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, 
 			}
 		}
 	}
+	div := int64(x.t.TeachingWeeks())
+	if r.Kind == MaxDayMinutes {
+		div *= 5
+	}
 	if total == 0 {
-		return 0
+		return 0, div
 	}
 	var what string
 	switch r.Kind {
@@ -521,10 +528,9 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, 
 		what = chkCount(worst, "block", "blocks") + " too long"
 	}
 	note(func() string {
-		return "on " + worstDay + " of week " + itoa(worstWeek) + " they have " + what + " (over all weeks and days " + itoa(total) + ", " +
-			itoa(total/x.t.TeachingWeeks()) + " after dividing by the " + itoa(x.t.TeachingWeeks()) + " teaching weeks)"
+		return "on " + worstDay + " of week " + itoa(worstWeek) + " they have " + what + " (" + itoa(total) + " over all weeks and days)"
 	}, hit...)
-	return int64(total / x.t.TeachingWeeks())
+	return int64(total), div
 }
 
 // relBlock is a run of meetings of one day, each starting at most M

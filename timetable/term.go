@@ -231,9 +231,9 @@ const (
 	DaySpan        // pairwise: any two meetings on a common day in a common week lie within N minutes (latest end minus earliest start <= N)
 	MinGap         // pairwise: any two meetings on a common day in a common week have at least N free minutes between them
 	MaxDays        // counted: the listed sections together meet on at most N distinct weekdays (weeks ignored); count = days over N
-	MaxDayMinutes  // counted: in every teaching week, every day's meetings of the listed sections total at most N minutes; count = sum over weeks and days of the minutes over N, divided by the term's teaching weeks, rounded down
-	MaxBreaks      // counted: in every teaching week and day, the listed sections' meetings form at most N+1 blocks (a meeting starting at most M minutes after a block's end joins it); count = sum over weeks and days of the blocks over N+1, divided by the teaching weeks, rounded down
-	MaxBlock       // counted: in every teaching week and day, no block (as in MaxBreaks, M minutes) of two or more meetings lasts more than N minutes from first start to last end; count = sum over weeks and days of such blocks, divided by the teaching weeks, rounded down
+	MaxDayMinutes  // counted: in every teaching week, every day's meetings of the listed sections total at most N minutes; count = sum over weeks and days of the minutes over N, divided by 5 (5-minute steps, not rounded); a soft row costs Weight times the count divided by the term's teaching weeks, rounded down (the division last)
+	MaxBreaks      // counted: in every teaching week and day, the listed sections' meetings form at most N+1 blocks (a meeting starting at most M minutes after a block's end joins it); count = sum over weeks and days of the blocks over N+1; a soft row costs Weight times the count divided by the teaching weeks, rounded down (the division last)
+	MaxBlock       // counted: in every teaching week and day, no block (as in MaxBreaks, M minutes) of two or more meetings lasts more than N minutes from first start to last end; count = sum over weeks and days of such blocks; a soft row costs Weight times the count divided by the teaching weeks, rounded down (the division last)
 )
 
 // RelationKinds lists every kind with its workbook spelling, in sheet order.
