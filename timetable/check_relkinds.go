@@ -457,8 +457,8 @@ func newTravelIndexOnce(x *occupancy) *travelIndex {
 // relCounted handles the counted kinds, returning the count and the
 // divisor of a soft row's cost: for at most days, the days over N (divisor
 // 1); for the others, the sum over teaching weeks and days of the excess,
-// divided by the term's teaching weeks (and by 5 for minutes, counted in
-// 5-minute steps), the division last. note is called when the hard reading
+// divided by the term's teaching weeks, the division last (minutes count
+// in 5-minute steps, rounded down). note is called when the hard reading
 // is broken (any excess at all).
 func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, ...int)) (int64, int64) {
 	var ms []occMeet
@@ -512,9 +512,6 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, 
 		}
 	}
 	div := int64(x.t.TeachingWeeks())
-	if r.Kind == MaxDayMinutes {
-		div *= 5
-	}
 	if total == 0 {
 		return 0, div
 	}
@@ -530,6 +527,9 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, 
 	note(func() string {
 		return "on " + worstDay + " of week " + itoa(worstWeek) + " they have " + what + " (" + itoa(total) + " over all weeks and days)"
 	}, hit...)
+	if r.Kind == MaxDayMinutes {
+		return int64(total / 5), div // 5-minute steps, rounded down
+	}
 	return int64(total), div
 }
 

@@ -138,8 +138,10 @@ func TestRelationKinds(t *testing.T) {
 		// minutes = 36 five-minute steps; weeks 7–12: 75 ≤ 120. Soft 2 × 36 ÷ 12 weeks = 6.
 		{"at most minutes a day", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, all, "R1"), b("Mon", "10:30", 75, ptWeeks("1-6"), "R2")}, nil, true, 2, 6},
 		// the same in week 1 only: 30 minutes over = 6 steps, soft 2 × 6 ÷ 12 = 1; with N = 140:
-		// 10 minutes = 2 steps, 2 × 2 ÷ 12 = 0.33 → 0: hard broken, soft cost 0.
+		// 10 minutes = 2 steps, 2 × 2 ÷ 12 = 0.33 → 0: hard broken, soft cost 0; with N = 143:
+		// 7 minutes = 1 step (rounded down), weight 12: 12 × 1 ÷ 12 = 1.
 		{"at most minutes a day in one week", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 2, 1},
+		{"at most minutes a day in whole steps", MaxDayMinutes, 143, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 12, 1},
 		{"at most minutes a day rounds down", MaxDayMinutes, 140, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 2, 0},
 		// Mon, every week: A 9:00–9:50, B 10:00–10:50 (10-minute gap ≤ M = 10 joins), C 13:00, D 15:00
 		// → 3 blocks, N + 1 = 2 allowed → 1 over × 12 weeks ÷ 12 = 1; soft 5 × 1 = 5.

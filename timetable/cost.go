@@ -85,8 +85,8 @@ func (r CostReport) Criterion(name string) CriterionCost {
 //   - "time choice"/"room choice": Count is the sum of the chosen weights.
 //   - "soft relations": Count is the broken rows, each counted kind adding
 //     its count (divided as its cost is) instead of 1; a counted row costs
-//     its weight times its count divided by the teaching weeks (for minutes
-//     also by 5), rounded down after multiplying, as term.go defines.
+//     its weight times its count (minutes in 5-minute steps) divided by the
+//     teaching weeks, rounded down after multiplying, as term.go defines.
 //
 // Cost runs in O(P·(staff+cohorts) + placements + Σ students·k²).
 func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
