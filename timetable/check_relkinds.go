@@ -61,6 +61,12 @@ func (x *occupancy) relationJudge(r Relation) (why string, pls []int, count, div
 	count, div = 1, 1
 	more := 0
 	note := func(w func() string, ps ...int) {
+		if x.quiet {
+			if len(reasons) == 0 {
+				reasons = append(reasons, "broken")
+			}
+			return
+		}
 		if len(reasons) < relMaxReasons {
 			reasons = append(reasons, w())
 		} else {
@@ -78,14 +84,17 @@ func (x *occupancy) relationJudge(r Relation) (why string, pls []int, count, div
 	case MaxDays, MaxDayMinutes, MaxBreaks, MaxBlock:
 		count, div = x.relCounted(r, secs, note)
 	default:
-		for a := 0; a < len(secs); a++ {
-			for b := a + 1; b < len(secs); b++ {
+		for a := 0; a < len(secs) && !(x.quiet && len(reasons) > 0); a++ {
+			for b := a + 1; b < len(secs) && !(x.quiet && len(reasons) > 0); b++ {
 				x.relPair(r, secs[a], secs[b], note)
 			}
 		}
 	}
 	if len(reasons) == 0 {
 		return "", nil, 0, 1
+	}
+	if x.quiet {
+		return "broken", nil, count, div
 	}
 	if more > 0 {
 		reasons = append(reasons, itoa(more)+" more")

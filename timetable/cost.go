@@ -114,8 +114,10 @@ type coster struct {
 }
 
 func newCoster(t *Term, s *Schedule) *coster {
+	x := newOccupancy(t, s)
+	x.quiet = true
 	c := &coster{
-		x:      newOccupancy(t, s),
+		x:      x,
 		at:     map[string]int{},
 		weight: map[string]int{},
 		rep: CostReport{

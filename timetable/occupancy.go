@@ -31,6 +31,7 @@ type occupancy struct {
 	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
 	hasPat    bool         // some valid placement is a pattern placement
 	travelIdx *travelIndex // built on first use
+	quiet     bool         // Cost: relations judged without sentences or placements
 	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
 
 	dayFirst []int // period index -> index of the first period of its day
