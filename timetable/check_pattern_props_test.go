@@ -285,3 +285,50 @@ func TestTravelIndexAgreesWithTravelMinutes(t *testing.T) {
 		}
 	}
 }
+
+// TestCheckAndCostTakeAnyPlacements feeds Check and Cost random, mostly
+// broken placements of mixed terms (times and periods out of range, blank
+// and unknown rooms and sections, repeated meetings, a kept timetable of
+// the same kind): neither may panic, every violation names a rule and a
+// sentence, and Check is deterministic (common practice: robustness of a
+// verifier on arbitrary input).
+func TestCheckAndCostTakeAnyPlacements(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 8))
+	for trial := 0; trial < 300; trial++ {
+		tm, s := propTerm(rng)
+		tm.Travel = []Travel{{From: "North", To: "South", Minutes: 10}}
+		tm.Relations = append(tm.Relations, Relation{Kind: RelationKinds[rng.IntN(len(RelationKinds))].Kind,
+			Sections: []string{"X0", "X1", "X9", "nobody"}, Hard: rng.IntN(2) == 0, Weight: 3, N: 60, M: 10})
+		garble := func(s *Schedule) {
+			for i := range s.Placements {
+				p := &s.Placements[i]
+				switch rng.IntN(6) {
+				case 0:
+					p.Time = rng.IntN(4) - 1
+				case 1:
+					p.Period = rng.IntN(len(tm.Periods)+3) - 2
+				case 2:
+					p.Room = []string{"", "R9", "R2"}[rng.IntN(3)]
+				case 3:
+					p.Section = "nobody"
+				case 4:
+					p.Meeting = rng.IntN(3)
+				}
+			}
+			if rng.IntN(3) == 0 && len(s.Placements) > 0 {
+				s.Placements = append(s.Placements, s.Placements[rng.IntN(len(s.Placements))])
+			}
+		}
+		kept := &Schedule{Placements: append([]Placement(nil), s.Placements...)}
+		garble(s)
+		garble(kept)
+		vs := Check(tm, s)
+		for _, v := range vs {
+			require.NotEmpty(t, v.Rule)
+			require.NotEmpty(t, v.Msg)
+		}
+		require.Equal(t, vs, Check(tm, s), "trial %d: deterministic", trial)
+		r := Cost(tm, s, kept)
+		require.Len(t, r.Criteria, len(Criteria))
+	}
+}

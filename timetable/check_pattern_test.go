@@ -88,7 +88,7 @@ func TestCheckPatternRules(t *testing.T) {
 	}{
 		{"valid", func(*Term, *Schedule) {}, nil, ""},
 		{"no time", func(_ *Term, s *Schedule) { s.Placements[0].Time = 0 }, []string{RuleTimeChoice},
-			"A meeting 1 names no meeting time; A meets at one of its 1 meeting times (Sections row 2)"},
+			"A meeting 1 names no meeting time; A meets at its one meeting time (Sections row 2)"},
 		{"unknown time", func(_ *Term, s *Schedule) { s.Placements[0].Time = 2 }, []string{RuleTimeChoice},
 			"A meeting 1 names meeting time 2, but A has meeting times 1 to 1 (Sections row 2)"},
 		{"grid period on a pattern section", func(_ *Term, s *Schedule) { s.Placements[0].Period = 3 }, []string{RuleTimeChoice}, ""},
