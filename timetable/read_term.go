@@ -348,8 +348,8 @@ func (r *termReader) readStaff() {
 func (r *termReader) readCohorts() {
 	r.rows(shCohorts, func(t *table, row tableRow) {
 		r.t.Cohorts = append(r.t.Cohorts, Cohort{
-			ID:   r.id(t, row, "Cohort", "cohort"),
-			Name: t.get(row, "Name"),
+			ID:    r.id(t, row, "Cohort", "cohort"),
+			Name:  t.get(row, "Name"),
 			Size:  r.whole(t, row, "Size", 0, maxCount, 0),
 			Lunch: r.lunch(t, row),
 			Src:   rowSource(t, row),

@@ -293,4 +293,3 @@ func dayListText(d DaySet) string {
 func choiceLabel(c TimeChoice) string {
 	return dayListText(c.Days) + " " + c.Start.String() + " for " + countNoun(c.Minutes, "minute")
 }
-

@@ -3,7 +3,9 @@ package timetable_test
 import (
 	"bytes"
 	"encoding/csv"
+	"errors"
 	"flag"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -136,6 +138,11 @@ func TestWriteTermCSVGolden(t *testing.T) {
 	golden := filepath.Join("testdata", "write_term")
 	for _, name := range timetable.TermCSVFiles() {
 		got, err := os.ReadFile(filepath.Join(dir, name))
+		if errors.Is(err, fs.ErrNotExist) {
+			_, gerr := os.Stat(filepath.Join(golden, name))
+			assert.True(t, errors.Is(gerr, fs.ErrNotExist), "%s is not written for a grid term, so it has no golden file", name)
+			continue
+		}
 		require.NoError(t, err)
 		if updating() {
 			require.NoError(t, os.MkdirAll(golden, 0o755))
@@ -148,7 +155,9 @@ func TestWriteTermCSVGolden(t *testing.T) {
 	}
 	entries, err := os.ReadDir(dir)
 	require.NoError(t, err)
-	assert.Len(t, entries, len(timetable.TermCSVFiles()), "no temporary files are left behind")
+	for _, e := range entries {
+		assert.Contains(t, timetable.TermCSVFiles(), e.Name(), "no temporary files are left behind")
+	}
 }
 
 func TestWriteTermWorkbookDeterministic(t *testing.T) {
@@ -380,6 +389,9 @@ func TestWriteTermCSVFormulaSafe(t *testing.T) {
 	require.NoError(t, timetable.WriteTermCSV(term, dir))
 	for _, name := range timetable.TermCSVFiles() {
 		data, err := os.ReadFile(filepath.Join(dir, name))
+		if errors.Is(err, fs.ErrNotExist) {
+			continue // a sheet the term does not use
+		}
 		require.NoError(t, err)
 		rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
 		require.NoError(t, err, name)
