@@ -213,6 +213,8 @@ func TestWriteTermReadBack(t *testing.T) {
 		{"hand-made", handTerm()},
 		{"generated 60", samples.Generate(samples.Config{Sections: 60, Seed: 11})},
 		{"generated demo", samples.Generate(samples.DemoConfig)},
+		{"campus demo (meeting patterns)", samples.Campus()},
+		{"mixed grid and patterns", mixedTerm()},
 		{"generated odd grid", samples.Generate(samples.Config{Sections: 40, Seed: 5, Days: 6, PeriodsPerDay: 5, Weeks: 7,
 			FirstDay: time.Date(2028, 1, 12, 0, 0, 0, 0, time.UTC)})},
 	}
@@ -259,6 +261,7 @@ func assertSameTerm(t *testing.T, want, got *timetable.Term) {
 	assert.Equal(t, w.Enrolments, g.Enrolments)
 	assert.Equal(t, w.Unavailable, g.Unavailable)
 	assert.Equal(t, w.Relations, g.Relations)
+	assert.Equal(t, w.Travel, g.Travel)
 	assert.Equal(t, w.Weights, g.Weights)
 	assert.Equal(t, w.SoftCapacity, g.SoftCapacity)
 }
@@ -280,6 +283,7 @@ func normalTerm(t *timetable.Term) timetable.Term {
 	c.Enrolments = clearSrc(t.Enrolments)
 	c.Unavailable = clearSrc(t.Unavailable)
 	c.Relations = clearSrc(t.Relations)
+	c.Travel = clearSrc(t.Travel)
 	c.Weights = nil
 	for k, w := range t.Weights {
 		if c.Weights == nil {
@@ -307,11 +311,25 @@ func clearSrc[T any](xs []T) []T {
 				fv.Set(reflect.Zero(fv.Type()))
 			case fv.Kind() == reflect.Slice && fv.Len() == 0:
 				fv.Set(reflect.Zero(fv.Type()))
+			case fv.Kind() == reflect.Slice && fv.Type().Elem().Kind() == reflect.Struct:
+				fv.Set(reflect.ValueOf(clearSrcValue(fv.Interface())))
 			}
 		}
 		out[i] = x
 	}
 	return out
+}
+
+// clearSrcValue applies clearSrc to the nested record slices a Section
+// holds (meeting times, room choices).
+func clearSrcValue(xs any) any {
+	switch v := xs.(type) {
+	case []timetable.TimeChoice:
+		return clearSrc(v)
+	case []timetable.RoomChoice:
+		return clearSrc(v)
+	}
+	return xs
 }
 
 // BenchmarkWriteTermWorkbook measures writing a generated 2,000-section
