@@ -109,6 +109,11 @@ func templateSheet(f *excelize.File, i int, spec sheetSpec, bold int) error {
 // refuses longer ones). Longer lists go on the hidden Lists sheet.
 const maxInlineList = 255
 
+// maxErrorText is the longest error message of a drop-down that names its
+// values; longer lists get a short message instead (Excel's data
+// validation dialog takes at most 225 characters, from memory).
+const maxErrorText = 225
+
 // addDropDown offers values in every data cell of a column. A list too long
 // to write inline is written down a column of the hidden Lists sheet and
 // the drop-down refers to that range (ECMA-376 Part 1 §18.3.1.32: formula1
@@ -138,11 +143,12 @@ func addDropDown(f *excelize.File, sheet, col string, values []string, strict bo
 		}
 		dv.SetSqrefDropList(ref)
 	}
+	listed := "Choose one of: " + strings.Join(values, ", ") + "."
 	switch {
-	case strict && utf16Len(strings.Join(values, ", ")) > maxInlineList:
+	case strict && utf16Len(listed) > maxErrorText:
 		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose a value from the drop-down list.")
 	case strict:
-		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose one of: "+strings.Join(values, ", ")+".")
+		dv.SetError(excelize.DataValidationErrorStyleStop, col, listed)
 	default:
 		dv.SetError(excelize.DataValidationErrorStyleInformation, col, "Usual values: "+strings.Join(values, ", ")+". Other values are allowed.")
 	}
