@@ -89,6 +89,7 @@ func validate(t *Term, lay *layout) Problems {
 	v.checkTravel()
 	v.checkWeights()
 	v.checkLoads()
+	v.checkWeekMinutes()
 	v.checkFixedTogether()
 	return v.ps
 }

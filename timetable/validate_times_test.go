@@ -128,6 +128,9 @@ func TestPatternProblemsAtCells(t *testing.T) {
 
 		// staff, cohorts, unavailable
 		{"weekly days out of range", []cellEdit{e("Staff", "H2", "9")}, "", Error, "Max days per week 9 is out of range — use a whole number from 1 to 7"},
+		{"weekly minutes exceeded", []cellEdit{e("Staff", "G3", "100")}, "", Error, `staff "S-2" must teach at least 270 minutes in teaching week 1 but Max minutes per week is 100`}, // SEC-2: 2 periods of 60 minutes in odd weeks; SEC-5: 3 x 50 or 2 x 75
+
+		{"weekly minutes kept by a shorter choice", []cellEdit{e("Staff", "G3", "200"), e("Meeting times", "A4", "SEC-5"), e("Meeting times", "B4", "Sat"), e("Meeting times", "C4", "10:00"), e("Meeting times", "D4", "30")}, "", 0, ""}, // 120 + 30
 		{"weekly periods exceeded", []cellEdit{e("Staff", "F2", "4")}, "", Error, `staff "S-1" must teach 5 periods in some week but Max periods per week is 4`},
 		{"lunch minutes without a window", []cellEdit{e("Staff", "K2", "30")}, "Staff!I2", Error, "Lunch from is blank but a lunch break is given"},
 		{"lunch window without minutes", []cellEdit{e("Cohorts", "F2", "")}, "", Error, "Lunch minutes is blank but a lunch window is given"},
