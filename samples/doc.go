@@ -7,7 +7,7 @@
 //
 // # The second demo
 //
-// Campus is written by hand, not generated: about two dozen pattern sections
+// Campus is written by hand, not generated: twenty pattern sections
 // (Mon Wed Fri 50 minutes, Tue Thu 75 minutes, labs in alternate weeks, a
 // block course in weeks 3-6, an online section), room choices with
 // preferences, travel times between the buildings of two campuses, weekly

@@ -239,3 +239,11 @@ func TestValidateBuiltPatternTerm(t *testing.T) {
 		})
 	}
 }
+
+// TestSummaryCountsPatternMeetings: a pattern section counts the fewest days
+// of its meeting times as its meetings a week (Mon Wed Fri or Tue Thu: 2).
+func TestSummaryCountsPatternMeetings(t *testing.T) {
+	term, ps := readSheets(t, patternSheets(t))
+	require.Empty(t, ps)
+	assert.Equal(t, 2+1+3+1+2, Summary(term).Meetings, "SEC-1..SEC-4 on the grid, SEC-5 at 2 or 3 days")
+}
