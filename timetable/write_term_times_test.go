@@ -97,3 +97,53 @@ func TestTemplateCSVHasEveryColumn(t *testing.T) {
 	require.NoError(t, err)
 	assert.Empty(t, ps.Warnings(), "no unknown sheets or columns:\n%s", ps)
 }
+
+// FuzzWriteMixedTermRoundTrip writes mixedTerm with an arbitrary valid
+// meeting time, room-choice weight, travel time, lunch break and relation
+// numbers, and reads it back through the workbook and the CSV folder: the
+// term must come back unchanged (STYLE.md 14: print → read → print).
+func FuzzWriteMixedTermRoundTrip(f *testing.F) {
+	f.Add(uint8(0b0101010), 108, 9, uint64(0xfff), 3, 15, 660, 300, 1, 15)
+	f.Add(uint8(1), 287, 0, uint64(1), 0, 0, 0, 0, 0, 0)
+	f.Add(uint8(0x7f), 0, 287, ^uint64(0), 1_000_000, 1440, 1439, 1440, 100, 1440)
+	f.Fuzz(func(t *testing.T, days uint8, start, length int, weeks uint64, weight, travel, lunchFrom, n, breaks, gap int) {
+		abs := func(x int) int {
+			if x < 0 {
+				return -(x + 1)
+			}
+			return x
+		}
+		term := mixedTerm()
+		c := &term.Sections[len(term.Sections)-1].Times[0]
+		c.Days = timetable.DaySet(days&0x7f | 1<<(days%7)) // never empty
+		c.Start = timetable.Clock(abs(start) % 288 * 5)
+		c.Minutes = 5 * (1 + abs(length)%((24*60-int(c.Start))/5))
+		c.Weeks = timetable.WeekSet(weeks) & term.AllWeeks()
+		if c.Weeks == 0 {
+			c.Weeks = 1
+		}
+		c.Weight = abs(weight) % 1_000_001
+		term.Sections[len(term.Sections)-1].RoomChoices[0].Weight = abs(weight) % 7
+		term.Travel[0].Minutes = abs(travel) % 1441
+		from := abs(lunchFrom) % (24 * 60)
+		term.Staff[1].Lunch = timetable.LunchBreak{From: timetable.Clock(from), To: 24 * 60, Minutes: 1 + abs(n)%(24*60-from)}
+		term.Relations[len(term.Relations)-3].N = abs(breaks) % 101
+		term.Relations[len(term.Relations)-3].M = abs(gap) % 1441
+		term.Relations[len(term.Relations)-2].N = abs(n) % 1441
+		require.Empty(t, timetable.Validate(term), "the fuzzed term is valid")
+
+		var buf bytes.Buffer
+		require.NoError(t, timetable.WriteTermWorkbook(term, &buf))
+		got, ps, err := timetable.ReadWorkbook(&buf, "fuzz.xlsx")
+		require.NoError(t, err)
+		require.Empty(t, ps, "problems:\n%s", ps)
+		assertSameTerm(t, term, got)
+
+		dir := t.TempDir()
+		require.NoError(t, timetable.WriteTermCSV(term, dir))
+		got, ps, err = timetable.ReadCSVDir(dir)
+		require.NoError(t, err)
+		require.Empty(t, ps, "problems:\n%s", ps)
+		assertSameTerm(t, term, got)
+	})
+}
