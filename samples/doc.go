@@ -33,6 +33,13 @@
 // room lists — from what the witness leaves free. So the witness satisfies
 // every hard requirement of the term it comes with, and the term is feasible.
 //
+// GeneratePatterns and GeneratePatternsWithWitness turn a generated grid
+// term into one that mixes meeting patterns with the grid: sections whose
+// witness meetings share one start time and room become pattern sections
+// (the witness time among up to three weighted alternatives, allowed rooms
+// as room choices), buildings get travel times the witness keeps, and some
+// staff a weekly minutes limit. The witness stays feasible.
+//
 // # Determinism
 //
 // Output depends only on the Config: randomness comes from a PCG source
