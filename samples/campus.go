@@ -50,8 +50,8 @@ func Campus() *timetable.Term {
 		{Who: "VU-03", Kind: timetable.WhoStaff, Day: time.Monday, From: 0, To: 10 * 60, Weight: 2, Reason: "school run"},
 	}
 	t.Weights = map[string]timetable.Weight{
-		timetable.CritTimeChoice: {Weight: 1},
-		timetable.CritRoomChoice: {Weight: 1},
+		timetable.CritTimeChoice: {Weight: 2, Level: 1},
+		timetable.CritRoomChoice: {Weight: 1, Level: 1},
 	}
 	return t
 }
