@@ -159,17 +159,17 @@ func (v *validator) checkPlaceable(s *Section, d string) {
 
 // choiceBlockedFor names who makes choice c of s unusable, or "".
 func (v *validator) choiceBlockedFor(s *Section, c TimeChoice) string {
-	for _, u := range v.t.Unavailable {
-		if !u.Hard || !blocksChoice(u, c) {
-			continue
+	if v.blocks(WhoSection, s.ID, c) {
+		return "the section itself"
+	}
+	for _, id := range s.Staff {
+		if v.blocks(WhoStaff, id, c) {
+			return "staff " + strconv.Quote(id)
 		}
-		switch {
-		case u.Kind == WhoSection && u.Who == s.ID:
-			return "the section itself"
-		case u.Kind == WhoStaff && listHas(s.Staff, u.Who):
-			return "staff " + strconv.Quote(u.Who)
-		case u.Kind == WhoCohort && listHas(s.Cohorts, u.Who):
-			return "cohort " + strconv.Quote(u.Who)
+	}
+	for _, id := range s.Cohorts {
+		if v.blocks(WhoCohort, id, c) {
+			return "cohort " + strconv.Quote(id)
 		}
 	}
 	return ""
@@ -179,14 +179,33 @@ func (v *validator) choiceBlockedFor(s *Section, c TimeChoice) string {
 // during choice c.
 func (v *validator) freeRoom(rooms []*Room, c TimeChoice) bool {
 	for _, r := range rooms {
-		free := true
+		if !v.blocks(WhoRoom, r.ID, c) {
+			return true
+		}
+	}
+	return false
+}
+
+// whoKey names a staff member, room, cohort or section.
+type whoKey struct {
+	kind WhoKind
+	id   string
+}
+
+// blocks reports whether a hard unavailability of (kind, id) meets choice c.
+// The rows are indexed by who on first use.
+func (v *validator) blocks(kind WhoKind, id string, c TimeChoice) bool {
+	if v.hardRows == nil {
+		v.hardRows = map[whoKey][]Unavailability{}
 		for _, u := range v.t.Unavailable {
-			if u.Hard && u.Kind == WhoRoom && u.Who == r.ID && blocksChoice(u, c) {
-				free = false
-				break
+			if u.Hard {
+				k := whoKey{u.Kind, u.Who}
+				v.hardRows[k] = append(v.hardRows[k], u)
 			}
 		}
-		if free {
+	}
+	for _, u := range v.hardRows[whoKey{kind, id}] {
+		if blocksChoice(u, c) {
 			return true
 		}
 	}

@@ -11,6 +11,7 @@ import (
 	"github.com/stretchr/testify/require"
 	"github.com/xuri/excelize/v2"
 
+	"github.com/termwright/termwright/samples"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -146,4 +147,33 @@ func FuzzWriteMixedTermRoundTrip(f *testing.F) {
 		require.Empty(t, ps, "problems:\n%s", ps)
 		assertSameTerm(t, term, got)
 	})
+}
+
+// BenchmarkReadPatternWorkbook measures reading and validating a generated
+// 2,000-section term that mixes meeting patterns with the grid (setup
+// outside the timed loop).
+func BenchmarkReadPatternWorkbook(b *testing.B) {
+	var buf bytes.Buffer
+	require.NoError(b, timetable.WriteTermWorkbook(samples.GeneratePatterns(samples.Config{Sections: 2000, Seed: 1}), &buf))
+	data := buf.Bytes()
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		_, ps, err := timetable.ReadWorkbook(bytes.NewReader(data), "bench.xlsx")
+		if err != nil || len(ps.Errors()) > 0 {
+			b.Fatalf("%v %v", err, ps.Errors())
+		}
+	}
+}
+
+// BenchmarkValidatePatternTerm measures Validate on the same term.
+func BenchmarkValidatePatternTerm(b *testing.B) {
+	term := samples.GeneratePatterns(samples.Config{Sections: 2000, Seed: 1})
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if ps := timetable.Validate(term); len(ps.Errors()) > 0 {
+			b.Fatal(ps.Errors())
+		}
+	}
 }
