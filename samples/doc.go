@@ -1,7 +1,18 @@
 // Package samples builds terms for demonstration and measurement: the demo
 // workbook of an invented institution (Quillmere Polytechnic, see
-// demo-term.xlsx and the demo folder of CSV files) and a seeded generator of
-// synthetic terms of any size.
+// demo-term.xlsx and the demo folder of CSV files), a second demo term
+// scheduled by meeting patterns on two campuses (Vellmoor University, see
+// Campus, campus-term.xlsx and the campus folder), and a seeded generator of
+// synthetic grid terms of any size.
+//
+// # The second demo
+//
+// Campus is written by hand, not generated: twenty pattern sections
+// (Mon Wed Fri 50 minutes, Tue Thu 75 minutes, labs in alternate weeks, a
+// block course in weeks 3-6, an online section), room choices with
+// preferences, travel times between the buildings of two campuses, weekly
+// limits and lunch breaks, unavailability in some weeks only, and a few of
+// the relation kinds that take numbers. It has no period grid.
 //
 // # Generator
 //
@@ -21,6 +32,13 @@
 // unavailabilities, fixed meetings, hard relations, staff limits, allowed
 // room lists — from what the witness leaves free. So the witness satisfies
 // every hard requirement of the term it comes with, and the term is feasible.
+//
+// GeneratePatterns and GeneratePatternsWithWitness turn a generated grid
+// term into one that mixes meeting patterns with the grid: sections whose
+// witness meetings share one start time and room become pattern sections
+// (the witness time among up to three weighted alternatives, allowed rooms
+// as room choices), buildings get travel times the witness keeps, and some
+// staff a weekly minutes limit. The witness stays feasible.
 //
 // # Determinism
 //

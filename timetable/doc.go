@@ -24,6 +24,16 @@
 // they are matched: by the optional Columns sheet (Columns.csv) and by
 // WithColumns; Term.Columns lists the renames applied.
 //
+// The sheets of meeting patterns (read_times.go) are read after Sections
+// and attach to its sections by ID: Meeting times gives Section.Times,
+// Room choices gives Section.RoomChoices; Travel gives Term.Travel. A
+// section with meeting times is a pattern section (Meetings and Length are
+// set to 1, and its grid cells only warn). The writers (write_term.go)
+// write those sheets, and the new columns of Staff, Cohorts, Unavailable
+// and Relations, only when a term uses them, so a grid term's workbook is
+// byte for byte what it was before they existed; WriteTemplate and
+// WriteTemplateCSV have every sheet and column.
+//
 // # Problems
 //
 // Readers and Validate never stop at the first mistake: they return a
@@ -42,7 +52,11 @@
 // weeks, relations and weights, and cheap counting arguments that prove a
 // term infeasible before any search (a staff member or cohort who must teach
 // or attend more periods than they are available, more simultaneous fixed
-// meetings than rooms). Positions come from each record's Source; column
+// meetings than rooms). Pattern sections (validate_times.go) are checked
+// for their meeting times (5-minute steps, within the day and the term),
+// room choices, and whether any of their times can be used at all; the grid
+// counting arguments leave them out, and a term of pattern sections only
+// needs no period grid. Positions come from each record's Source; column
 // letters are known only for terms that were read from a workbook.
 //
 // # Local naming

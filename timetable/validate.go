@@ -57,7 +57,8 @@ type validator struct {
 	maxRun                          int   // longest run of consecutive periods
 	hardStaff, hardCohort, hardRoom map[string][]bool
 	hardSection                     map[string][]bool
-	largest                         map[string]int // largestRoom cache: needs and allowed rooms -> capacity, -1 for none
+	largest                         map[string]int              // largestRoom cache: needs and allowed rooms -> capacity, -1 for none
+	hardRows                        map[whoKey][]Unavailability // hard unavailability by who, built by blocks
 }
 
 // Validate checks a Term — read from a workbook or built in code — and
@@ -86,8 +87,10 @@ func validate(t *Term, lay *layout) Problems {
 	v.checkSections()
 	v.checkEnrolments()
 	v.checkRelations()
+	v.checkTravel()
 	v.checkWeights()
 	v.checkLoads()
+	v.checkWeekMinutes()
 	v.checkFixedTogether()
 	return v.ps
 }

@@ -12,8 +12,8 @@ func (v *validator) weeklyNeeds(ids func(*Section) []string) map[string]int {
 	perWeek := map[string]*[64]int{}
 	for i := range v.t.Sections {
 		s := &v.t.Sections[i]
-		if s.Meetings < 1 || s.Length < 1 {
-			continue
+		if s.UsesTimes() || s.Meetings < 1 || s.Length < 1 {
+			continue // pattern sections take no grid periods
 		}
 		load := s.Meetings * s.Length
 		for _, id := range ids(s) {
@@ -71,6 +71,8 @@ func (v *validator) checkLoads() {
 		need := staffNeed[st.ID]
 		if have := v.available(v.hardStaff[st.ID], st.MaxPerDay); st.ID != "" && need > have {
 			v.ps.errorf(v.at(st.Src, "Staff ID"), "staff %q must teach %s in some week but is available for only %d (the grid less hard unavailability and the daily limit) — give some sections to other staff or lift an unavailability", st.ID, countNoun(need, "period"), have)
+		} else if st.ID != "" && st.MaxWeekPeriods > 0 && need > st.MaxWeekPeriods {
+			v.ps.errorf(v.at(st.Src, "Max periods per week"), "staff %q must teach %s in some week but Max periods per week is %d — give some sections to other staff or raise the limit (as the contract allows)", st.ID, countNoun(need, "period"), st.MaxWeekPeriods)
 		}
 	}
 	cohortNeed := v.weeklyNeeds(func(s *Section) []string { return uniqueIDs(s.Cohorts) })
@@ -111,6 +113,9 @@ func (v *validator) checkFixedTogether() {
 	byPeriod := make([][]fixedUse, len(v.t.Periods))
 	for i := range v.t.Sections {
 		s := &v.t.Sections[i]
+		if s.UsesTimes() {
+			continue // fixed meetings are for grid sections (refused by checkSections)
+		}
 		for _, f := range s.Fixed {
 			p := v.t.PeriodAt(f.Day, f.Start)
 			if p < 0 {
@@ -258,4 +263,61 @@ func uniqueIDs(list []string) []string {
 		}
 	}
 	return out
+}
+
+// checkWeekMinutes proves by counting that a member of staff with a weekly
+// minutes limit cannot keep it: in some teaching week, their sections need
+// more minutes than the limit even at their shortest choices (a pattern
+// section at its shortest meeting time in that week, 0 when one skips the
+// week; a grid section at its meetings times its periods of the shortest
+// period of the grid).
+func (v *validator) checkWeekMinutes() {
+	shortest := 0
+	for i, p := range v.t.Periods {
+		if d := int(p.End - p.Start); i == 0 || d < shortest {
+			shortest = d
+		}
+	}
+	for _, st := range v.t.Staff {
+		if st.ID == "" || st.MaxWeekMinutes <= 0 {
+			continue
+		}
+		var perWeek [64]int
+		for i := range v.t.Sections {
+			s := &v.t.Sections[i]
+			if !listHas(s.Staff, st.ID) {
+				continue
+			}
+			for w := 1; w <= 64; w++ {
+				perWeek[w-1] += leastMinutes(s, w, shortest)
+			}
+		}
+		for w, need := range perWeek {
+			if need > st.MaxWeekMinutes {
+				v.ps.errorf(v.at(st.Src, "Max minutes per week"), "staff %q must teach at least %s in teaching week %d but Max minutes per week is %d — give some sections to other staff or raise the limit (as the contract allows)", st.ID, countNoun(need, "minute"), w+1, st.MaxWeekMinutes)
+				break
+			}
+		}
+	}
+}
+
+// leastMinutes is the fewest minutes section s can meet in teaching week w.
+func leastMinutes(s *Section, w, shortestPeriod int) int {
+	if !s.UsesTimes() {
+		if s.Weeks == 0 || s.Weeks.Has(w) {
+			return max(s.Meetings, 0) * max(s.Length, 0) * shortestPeriod
+		}
+		return 0
+	}
+	least := -1
+	for _, c := range s.Times {
+		m := 0
+		if c.Weeks.Has(w) {
+			m = c.Days.Count() * max(c.Minutes, 0)
+		}
+		if least < 0 || m < least {
+			least = m
+		}
+	}
+	return max(least, 0)
 }
