@@ -21,6 +21,7 @@ import (
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
+	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 func init() { register("bench", newBenchCmd) }
@@ -84,12 +85,12 @@ type benchRow struct {
 	Curricula int    `json:"curricula"`
 	// Status is the engine's outcome: "satisfiable", "unsatisfiable",
 	// "unknown" (time limit) or "error".
-	Status   string              `json:"status"`
-	Feasible bool                `json:"feasible"` // a timetable with no hard violation (Check and the competition's rules)
-	Cost     *int                `json:"cost"`     // competition cost; null without a timetable
-	Parts    *timetable.ITCParts `json:"parts,omitempty"`
-	Hard     *timetable.ITCHard  `json:"hard,omitempty"`
-	Bound    *int                `json:"lower_bound"` // proved lower bound; null when none
+	Status   string             `json:"status"`
+	Feasible bool               `json:"feasible"` // a timetable with no hard violation (Check and the competition's rules)
+	Cost     *int               `json:"cost"`     // competition cost; null without a timetable
+	Parts    *benchfmt.CTTParts `json:"parts,omitempty"`
+	Hard     *benchfmt.CTTHard  `json:"hard,omitempty"`
+	Bound    *int               `json:"lower_bound"` // proved lower bound; null when none
 	// FirstMS and BestMS are wall-clock milliseconds from the start of the
 	// instance to the first feasible and to the best timetable.
 	FirstMS   *int64   `json:"first_feasible_ms"`
@@ -192,7 +193,7 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
 		return row
 	}
-	term, err := timetable.ReadCTT(bytes.NewReader(data), filepath.Base(path))
+	term, err := benchfmt.ReadCTT(bytes.NewReader(data), filepath.Base(path))
 	if err != nil {
 		row.Error = "cannot read the instance"
 		fmt.Fprintf(e.stderr, "bench: %v\n", err)
@@ -237,13 +238,13 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 // benchScore fills feasibility, cost and times for a timetable found after
 // elapsed; benchTimes then refines the times from the optimiser's history.
 func benchScore(e *env, row *benchRow, term *timetable.Term, s *timetable.Schedule, elapsed time.Duration) {
-	hard := timetable.ITCHardViolations(term, s)
+	hard := benchfmt.CTTHardViolations(term, s)
 	checked := timetable.HardViolations(timetable.Check(term, s))
 	row.Feasible = hard.Total() == 0 && len(checked) == 0
 	if hard.Total() == 0 && len(checked) > 0 {
 		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
 	}
-	total, parts := timetable.ITCCost(term, s)
+	total, parts := benchfmt.CTTCost(term, s)
 	row.Cost, row.Parts, row.Hard = &total, &parts, &hard
 	if row.Feasible {
 		var own int64
@@ -267,7 +268,7 @@ func benchTimes(row *benchRow, res *encode.OptimizeResult) {
 		row.FirstMS, row.BestMS = &first, &best
 	}
 	if res.Bound != nil {
-		// Every competition criterion is on one level (timetable.ITCLevel)
+		// Every competition criterion is on one level (benchfmt.CTTLevel)
 		// and all others weigh 0, so the sum is a bound on the total.
 		var b int64
 		for _, v := range res.Bound {
@@ -279,7 +280,7 @@ func benchTimes(row *benchRow, res *encode.OptimizeResult) {
 }
 
 // benchReadBest reads the best-known table, or nothing when path is "".
-func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
+func benchReadBest(path string) (map[string]benchfmt.CTTBest, error) {
 	if path == "" {
 		return nil, nil
 	}
@@ -288,7 +289,7 @@ func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
 		return nil, fmt.Errorf("cannot read --best: %w", err)
 	}
 	defer f.Close()
-	return timetable.ReadITCBest(f, filepath.Base(path))
+	return benchfmt.ReadCTTBest(f, filepath.Base(path))
 }
 
 // benchPrepareOut makes the solution folder and refuses, before any
@@ -321,7 +322,7 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 // benchWriteSolution writes the timetable in the competition's format.
 func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule) error {
 	var buf bytes.Buffer
-	if err := timetable.WriteITCSolution(&buf, term, s); err != nil {
+	if err := benchfmt.WriteCTTSolution(&buf, term, s); err != nil {
 		return err
 	}
 	return writeBytesAtomic(path, buf.Bytes())
