@@ -7,7 +7,9 @@
 //     WriteCTT, CTTCost, CTTHardViolations, ReadCTTSolution,
 //     WriteCTTSolution, ReadCTTBest;
 //   - the International Timetabling Competition 2019 (ITC-2019, XML files):
-//     ReadXML, WriteXMLSolution, ReadXMLSolution, XMLCost, ReadXMLBest.
+//     ReadXML, XMLInstance.Term (the mapping into a term of pattern
+//     sections), XMLSolutionOf, WriteXMLSolution, ReadXMLSolution, XMLCost,
+//     XMLHardViolations, ReadXMLBest.
 //
 // Benchmark data is read from where it lies (the shared data folder) and
 // never copied into the repository; the competitions' element names stay
