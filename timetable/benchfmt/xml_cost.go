@@ -69,11 +69,13 @@ type evaluation struct {
 func evaluate(in *XMLInstance, sol *XMLSolution) *evaluation {
 	e := &evaluation{in: in, at: make([]placed, len(in.Classes)), travel: in.travelTable()}
 	idx := in.classIndex()
+	given := make([]bool, len(in.Classes))
 	for _, a := range sol.Classes {
 		ci, ok := idx[a.Class]
 		if !ok {
 			continue
 		}
+		given[ci] = true
 		c := in.Classes[ci]
 		k := timeChoice(c, a)
 		if k < 0 {
@@ -103,8 +105,8 @@ func evaluate(in *XMLInstance, sol *XMLSolution) *evaluation {
 		}
 		e.at[ci] = p
 	}
-	for _, p := range e.at {
-		if !p.ok {
+	for _, g := range given {
+		if !g {
 			e.hard.Unplaced++
 		}
 	}

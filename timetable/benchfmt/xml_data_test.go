@@ -51,3 +51,21 @@ func readSharedXML(t testing.TB, name string) *XMLInstance {
 	}
 	return in
 }
+
+// readSharedBest reads best-known.csv of the shared folder.
+func readSharedBest(t testing.TB, dir string) map[string]XMLBest {
+	t.Helper()
+	f, err := os.Open(filepath.Join(dir, "best-known.csv"))
+	if os.IsNotExist(err) {
+		t.Skip("best-known.csv not in " + dir)
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	best, err := ReadXMLBest(f, "best-known.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return best
+}
