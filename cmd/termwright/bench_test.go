@@ -101,7 +101,7 @@ func TestBenchJSON(t *testing.T) {
   "seed": 9,
   "instances": [
     {
-      "instance": "tiny", "courses": 3, "meetings": 5, "rooms": 2, "curricula": 2,
+      "instance": "tiny", "format": "curriculum", "courses": 3, "meetings": 5, "rooms": 2, "curricula": 2,
       "status": "satisfiable", "feasible": true, "cost": 14,
       "parts": {"room_capacity": 10, "min_working_days": 0, "curriculum_compactness": 4, "room_stability": 0},
       "hard": {"meetings": 0, "conflicts": 0, "availability": 0, "room_occupancy": 0},
@@ -174,7 +174,7 @@ func TestBenchBadInput(t *testing.T) {
 	t.Run("no instances", func(t *testing.T) {
 		code, _, stderr := runBenchWith(t, nil, t.TempDir())
 		assert.Equal(t, exitError, code)
-		assert.Contains(t, stderr, "holds no .ctt files")
+		assert.Contains(t, stderr, "holds no .ctt or .xml files")
 	})
 	t.Run("missing folder", func(t *testing.T) {
 		code, _, stderr := runBenchWith(t, nil, filepath.Join(t.TempDir(), "nowhere"))
