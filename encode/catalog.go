@@ -85,6 +85,10 @@ func (k AtomKind) String() string {
 		return "started by"
 	case AtomAux:
 		return "aux"
+	case AtomTime:
+		return "time"
+	case AtomRoom:
+		return "room"
 	}
 	return "none"
 }
@@ -97,6 +101,8 @@ type AtomInfo struct {
 	Staff   int          // index into Term.Staff
 	Day     time.Weekday // for AtomMeetsDay
 	Group   int          // for AtomSelector: index into Catalog.Groups
+	Time    int          // for AtomTime: 1-based pattern index (as Placement.Time); 0 otherwise
+	Room    int          // for AtomRoom: index into Term.Rooms
 }
 
 // Catalog maps a compiled program back to the term: every atom to its
@@ -110,6 +116,7 @@ type Catalog struct {
 	explain     bool
 	atoms       []AtomInfo // atoms[a] for atom a; atoms[0] unused
 	secs        []secModel // per section of the term
+	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none
 	choiceGroup []int32        // group of Program.Choices[i]
