@@ -24,6 +24,8 @@ const (
 	KindStaffDayLimit      = "staff day limit"
 	KindStaffConsecutive   = "staff consecutive limit"
 	KindRelation           = "relation"
+	KindStaffTravel        = "staff travel"
+	KindCohortTravel       = "cohort travel"
 )
 
 // Relax costs (Group.RelaxCost): how hard it is to give a requirement up,
