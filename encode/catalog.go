@@ -119,6 +119,7 @@ type Catalog struct {
 	atoms       []AtomInfo // atoms[a] for atom a; atoms[0] unused
 	secs        []secModel // per section of the term
 	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
+	anyPat      bool       // some section is a pattern section
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none
 	choiceGroup []int32        // group of Program.Choices[i]

@@ -55,3 +55,30 @@ func (d *decoder) readPatterns(model []solver.Atom) error {
 	}
 	return nil
 }
+
+// splitPatterns separates the placements of pattern sections (Time set)
+// from the grid's.
+func splitPatterns(s *timetable.Schedule) (grid, pats *timetable.Schedule) {
+	grid, pats = &timetable.Schedule{}, &timetable.Schedule{}
+	for _, pl := range s.Placements {
+		if pl.Time > 0 {
+			pats.Placements = append(pats.Placements, pl)
+		} else {
+			grid.Placements = append(grid.Placements, pl)
+		}
+	}
+	return grid, pats
+}
+
+// bestGridRooms is bestRooms on a term with pattern sections: their rooms
+// are the engine's choice and stay; the grid meetings' rooms are improved
+// on their own (room improvement knows the grid only).
+func (o *optRun) bestGridRooms(s *timetable.Schedule) *timetable.Schedule {
+	grid, pats := splitPatterns(s)
+	if len(grid.Placements) == 0 {
+		return s
+	}
+	grid = improveRooms(o.t, o.cat, grid, o.opt.Keep)
+	out := &timetable.Schedule{Placements: append(grid.Placements, pats.Placements...)}
+	return out
+}

@@ -28,6 +28,7 @@ func (b *builder) initPatterns() {
 		if t.Sections[s].UsesTimes() {
 			b.c.pats[s].on = true
 			b.pat.any = true
+			b.c.anyPat = true
 		}
 	}
 	if !b.pat.any {
