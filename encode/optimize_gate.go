@@ -49,14 +49,15 @@ func TimeCost(t *timetable.Term, s, kept *timetable.Schedule) timetable.CostRepo
 	return timetable.Cost(t, withoutRooms(s), withoutRooms(kept))
 }
 
-// patternGated are the criteria the third gate compares on terms with
-// pattern sections: the ones the engine encodes for them exactly. The
-// grid-period criteria (gaps, isolated periods, early and late) and the
-// room criteria other than "room choice" are not encoded for pattern
-// sections, so on such terms the engine's bound covers only these
-// criteria plus the grid ones it writes; the cost reported is still
-// timetable.Cost of the written timetable.
-var patternGated = []string{timetable.CritTimeChoice, timetable.CritRoomChoice}
+// patternUngated are the criteria the third gate leaves out on terms with
+// pattern sections: the engine does not write their pattern part (student
+// clashes of pattern sections; soft relations over pattern sections are
+// helper rel's relation files). Every other criterion is encoded exactly
+// for pattern sections (time and room choice, avoid times, seats, moved
+// meetings) or counts grid meetings only. On such terms the engine's bound
+// covers the gated criteria; the cost reported is always timetable.Cost of
+// the written timetable.
+var patternUngated = []string{timetable.CritStudentClash, timetable.CritSoftRelations}
 
 // EngineCost returns the cost of model under the weak constraints the soft
 // criteria wrote into p, per criterion (indexed like timetable.Criteria).
@@ -98,7 +99,7 @@ func (c *Catalog) thirdGate(t *timetable.Term, p *solver.Program, model []solver
 	rep := TimeCost(t, s, kept)
 	var diffs []string
 	for k, cr := range timetable.Criteria {
-		if c.hasPatterns() && !slices.Contains(patternGated, cr.Name) {
+		if c.hasPatterns() && slices.Contains(patternUngated, cr.Name) {
 			continue
 		}
 		if got, want := eng[k], rep.Criteria[k].Cost; got != want {

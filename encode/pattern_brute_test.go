@@ -10,7 +10,7 @@ import (
 // pattern-only term by backtracking, checks the hard requirements directly
 // from their definitions in timetable/term.go and pattern.go (no encoder
 // code), and returns the least cost of the criteria "time choice" and "room
-// choice" (summed: both at level 1 by default) and whether any timetable
+// choice" and "avoid times" (summed: all at level 1 by default) and whether any timetable
 // exists.
 func bruteBest(t *timetable.Term) (int, bool) {
 	opts := patBruteOptions(t)
@@ -54,8 +54,9 @@ func patBruteOptions(t *timetable.Term) [][]bruteOpt {
 	wt, _ := t.CriterionWeight(timetable.CritTimeChoice)
 	wr, _ := t.CriterionWeight(timetable.CritRoomChoice)
 	roomIdx := t.RoomIndex()
+	wa, _ := t.CriterionWeight(timetable.CritAvoidTimes)
 	hit := func(row timetable.Unavailability, o timetable.Occurrence) bool {
-		return row.Hard && row.Day == o.Day && o.Start < row.To && row.From < o.End &&
+		return row.Day == o.Day && o.Start < row.To && row.From < o.End &&
 			(row.Weeks == 0 || row.Weeks&o.Weeks != 0)
 	}
 	opts := make([][]opt, len(t.Sections))
@@ -90,7 +91,7 @@ func patBruteOptions(t *timetable.Term) [][]bruteOpt {
 		for i := range sec.Times {
 			occ := t.Occurrences(timetable.Placement{Section: sec.ID, Meeting: 1, Period: -1, Time: i + 1})
 			for _, r := range rooms {
-				ok := true
+				ok, avoid := true, 0
 				for _, row := range t.Unavailable {
 					who := row.Who
 					mine := (row.Kind == timetable.WhoSection && who == sec.ID) ||
@@ -103,12 +104,16 @@ func patBruteOptions(t *timetable.Term) [][]bruteOpt {
 					}
 					for _, o := range occ {
 						if mine && hit(row, o) {
-							ok = false
+							if row.Hard {
+								ok = false
+							} else {
+								avoid += wa * row.Weight // one per day of the pattern (criteria.go)
+							}
 						}
 					}
 				}
 				if ok {
-					opts[s] = append(opts[s], opt{i, r.r, occ, wt*sec.Times[i].Weight + wr*r.w})
+					opts[s] = append(opts[s], opt{i, r.r, occ, wt*sec.Times[i].Weight + wr*r.w + avoid})
 				}
 			}
 		}

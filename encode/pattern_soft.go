@@ -1,6 +1,8 @@
 package encode
 
 import (
+	"slices"
+
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -42,7 +44,121 @@ func (sb *softBuilder) patternSoft() {
 			}
 		}
 	}
+	sb.patternAvoidTimes()
+	sb.patternSeats()
 	sb.keepPatterns()
+}
+
+// patternAvoidTimes writes "avoid times" for pattern sections: a soft
+// Unavailable row of weight w costs w per day of the chosen pattern whose
+// meeting overlaps the row's time (in a common week when the row names
+// weeks): a weak constraint on the time atom for rows of the section, its
+// staff and cohorts, on the time and room atoms together for rows of a
+// room.
+func (sb *softBuilder) patternAvoidTimes() {
+	t := sb.t
+	if w, _ := t.CriterionWeight(timetable.CritAvoidTimes); w == 0 {
+		return
+	}
+	type hit struct{ s, i, r int } // r -1: any room
+	sum := map[hit]int64{}
+	var order []hit
+	add := func(h hit, w int64) {
+		if _, ok := sum[h]; !ok {
+			order = append(order, h)
+		}
+		sum[h] += w
+	}
+	days := func(u *timetable.Unavailability, tc *timetable.TimeChoice) int64 {
+		if u.Weeks != 0 && !u.Weeks.Overlaps(tc.Weeks) || !tc.Days.Has(u.Day) || !(tc.Start < u.To && u.From < tc.End()) {
+			return 0
+		}
+		return 1 // one day of the pattern is the row's day
+	}
+	for k := range t.Unavailable {
+		u := &t.Unavailable[k]
+		if u.Hard || u.Weight <= 0 {
+			continue
+		}
+		for s := range t.Sections {
+			pm := &sb.c.pats[s]
+			if !pm.on {
+				continue
+			}
+			sec := &t.Sections[s]
+			room := -1
+			switch u.Kind {
+			case timetable.WhoStaff:
+				if !slices.Contains(sec.Staff, u.Who) {
+					continue
+				}
+			case timetable.WhoCohort:
+				if !slices.Contains(sec.Cohorts, u.Who) {
+					continue
+				}
+			case timetable.WhoSection:
+				if sec.ID != u.Who {
+					continue
+				}
+			case timetable.WhoRoom:
+				r, ok := sb.roomIdx[u.Who]
+				if !ok || pm.roomAt == nil || pm.roomAt[r] < 0 {
+					continue
+				}
+				room = r
+			default:
+				continue
+			}
+			for _, i := range pm.times {
+				if n := days(u, &sec.Times[i]); n > 0 {
+					add(hit{s, i, room}, n*int64(u.Weight))
+				}
+			}
+		}
+	}
+	for _, h := range order {
+		w, l, ok := sb.weight(timetable.CritAvoidTimes, sum[h])
+		if !ok {
+			continue
+		}
+		sb.aboutSection(h.s)
+		pm := &sb.c.pats[h.s]
+		if h.r < 0 {
+			sb.weak(timetable.CritAvoidTimes, w, l, solver.Pos(pm.time[h.i]))
+		} else {
+			sb.weak(timetable.CritAvoidTimes, w, l, solver.Pos(pm.time[h.i]), solver.Pos(pm.room[pm.roomAt[h.r]]))
+		}
+	}
+}
+
+// patternSeats writes "wasted seats" and, under SoftCapacity, "room over
+// capacity" for pattern sections: once per section (one placement), on
+// its room atom.
+func (sb *softBuilder) patternSeats() {
+	t := sb.t
+	ww, lw, onW := sb.weight(timetable.CritWastedSeats, 1)
+	wo, lo, onO := sb.weight(timetable.CritOverCapacity, 1)
+	onO = onO && t.SoftCapacity
+	if !onW && !onO {
+		return
+	}
+	for s := range t.Sections {
+		pm := &sb.c.pats[s]
+		if !pm.on {
+			continue
+		}
+		sb.aboutSection(s)
+		size := t.Sections[s].Size
+		for k, r := range pm.rooms {
+			c := t.Rooms[r].Capacity
+			if onW && c > size {
+				sb.weak(timetable.CritWastedSeats, ww*int64(c-size), lw, solver.Pos(pm.room[k]))
+			}
+			if onO && size > c {
+				sb.weak(timetable.CritOverCapacity, wo*int64(size-c), lo, solver.Pos(pm.room[k]))
+			}
+		}
+	}
 }
 
 // keepPatterns writes "moved meetings" for kept pattern sections (see

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
 )
 
 // TestPatternEngineAgreesWithBrute: on seeded random pattern terms the
@@ -59,5 +60,45 @@ func TestPatternEngineAgreesWithBrute(t *testing.T) {
 		if _, probs := bruteCheck(tm, sched); len(probs) > 0 {
 			t.Fatalf("seed %d: %v", seed, probs)
 		}
+	}
+}
+
+// TestPatternOptimumEqualsBrute: on seeded random pattern terms Optimize
+// (no deadline: it ends by proof or stall) returns a timetable that passes
+// timetable.Check, whose cost (time choice + room choice, both at level 1)
+// equals the least cost found by brute-force enumeration, and that it
+// proves optimal.
+func TestPatternOptimumEqualsBrute(t *testing.T) {
+	n := 0
+	for seed := int64(1); seed <= 40; seed++ {
+		tm := patternTerm(seed, 6, 4, 3)
+		want, feasible := bruteBest(tm)
+		if !feasible {
+			continue
+		}
+		res, err := Optimize(context.Background(), tm, OptimizeOptions{Seed: seed, MaxStall: 20})
+		if err != nil {
+			t.Fatalf("seed %d: %v", seed, err)
+		}
+		if res.Status != solver.Satisfiable {
+			t.Fatalf("seed %d: %v", seed, res.Status)
+		}
+		if hard := timetable.HardViolations(timetable.Check(tm, res.Schedule)); len(hard) > 0 {
+			t.Fatalf("seed %d: %v", seed, hard)
+		}
+		got := res.Cost.ByLevel[1]
+		if got != int64(want) {
+			t.Fatalf("seed %d: cost %d, brute force %d", seed, got, want)
+		}
+		if !res.Proven {
+			t.Errorf("seed %d: optimum %d not proven (bound %v)", seed, got, res.Bound)
+		}
+		if res.Local.Skipped == "" {
+			t.Errorf("seed %d: local search should say it was skipped", seed)
+		}
+		n++
+	}
+	if n < 10 {
+		t.Fatalf("only %d feasible terms", n)
 	}
 }
