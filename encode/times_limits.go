@@ -23,8 +23,8 @@ import (
 // pattern section (its days' occurrences), or a start of a grid meeting
 // (one occurrence).
 type limItem struct {
-	grp   int          // items with the same grp >= 0 exclude each other (one pattern section's patterns); grid starts have their own
-	lit   solver.Lit   // the time or start literal
+	grp   int        // items with the same grp >= 0 exclude each other (one pattern section's patterns); grid starts have their own
+	lit   solver.Lit // the time or start literal
 	occ   []timetable.Occurrence
 	weeks timetable.WeekSet
 }

@@ -12,10 +12,10 @@ import (
 // limits: interned auxiliary atoms, so that rows over the same sections
 // share them.
 type relState struct {
-	or    map[string]solver.Atom   // disjunction atoms by key (relOr)
-	units map[string][]solver.Lit  // minute unit chains by items and step (units)
-	count map[string][]solver.Lit  // sequential counters by their literals (atLeast)
-	n  int                    // auxiliary atoms made, for unique names
+	or    map[string]solver.Atom  // disjunction atoms by key (relOr)
+	units map[string][]solver.Lit // minute unit chains by items and step (units)
+	count map[string][]solver.Lit // sequential counters by their literals (atLeast)
+	n     int                     // auxiliary atoms made, for unique names
 }
 
 // relOr returns one literal that holds exactly when one of bodies holds:
