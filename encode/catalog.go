@@ -24,6 +24,8 @@ const (
 	KindStaffDayLimit      = "staff day limit"
 	KindStaffConsecutive   = "staff consecutive limit"
 	KindRelation           = "relation"
+	KindStaffTravel        = "staff travel"
+	KindCohortTravel       = "cohort travel"
 )
 
 // Relax costs (Group.RelaxCost): how hard it is to give a requirement up,
@@ -117,6 +119,7 @@ type Catalog struct {
 	atoms       []AtomInfo // atoms[a] for atom a; atoms[0] unused
 	secs        []secModel // per section of the term
 	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
+	anyPat      bool       // some section is a pattern section
 	rel         relModel   // pattern relations encoded by a surrogate (times_rel_gate.go)
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none

@@ -43,6 +43,8 @@ var parts = []part{
 	{"section days", (*builder).compileSectionDays, false},
 	{"availability", (*builder).compileAvailability, false},
 	{"no-overlap", (*builder).compileNoOverlap, false},
+	{"pattern no-overlap", (*builder).compilePatternNoOverlap, false},
+	{"pattern travel", (*builder).compilePatternTravel, false},
 	{"staff limits", (*builder).compileStaffLimits, false},
 	{"relations", (*builder).compileRelations, false},
 	{"room supply", (*builder).compileRoomSupply, false},

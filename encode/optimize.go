@@ -137,6 +137,12 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	}
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
+	if cat.hasPatterns() && o.opt.LocalShare >= 0 {
+		// Package improve moves grid meetings only: neighbourhood search
+		// takes all the time.
+		o.opt.LocalShare = -1
+		o.res.Local.Skipped = "local search skipped: the term has sections with meeting times, which it does not move"
+	}
 	if o.opt.GlobalConflicts == 0 {
 		o.opt.GlobalConflicts = DefaultGlobalConflicts
 		if len(p.Weaks) > GlobalWeakLimit {

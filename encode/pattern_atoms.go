@@ -56,6 +56,9 @@ func isDecision(k AtomKind) bool { return k == AtomStart || k == AtomTime || k =
 // IsPattern reports whether section index s chooses among meeting patterns.
 func (c *Catalog) IsPattern(s int) bool { return s >= 0 && s < len(c.pats) && c.pats[s].on }
 
+// hasPatterns reports whether the term has pattern sections.
+func (c *Catalog) hasPatterns() bool { return c.anyPat }
+
 // TimeAtom returns the atom time(S,i+1) of section index s and 0-based
 // pattern index i, or 0 when i is not a candidate (pruned or out of range).
 func (c *Catalog) TimeAtom(s, i int) solver.Atom {

@@ -84,6 +84,22 @@ func patternTerm(seed int64, nSec, maxTimes, nRooms int) *timetable.Term {
 			From: timetable.Clock(8*60 + 60*rng.Intn(4)), To: timetable.Clock(10*60 + 60*rng.Intn(4)), Hard: true,
 			Weeks: []timetable.WeekSet{0, odd, even}[rng.Intn(3)], Src: timetable.Source{Sheet: "Unavailable", Row: i + 2}})
 	}
+	if seed%2 == 0 { // soft rows: "avoid times" for staff, rooms and sections
+		t.Unavailable = append(t.Unavailable,
+			timetable.Unavailability{Who: t.Staff[rng.Intn(nStaff)].ID, Kind: timetable.WhoStaff, Day: time.Monday,
+				From: 8 * 60, To: 10 * 60, Weight: 2, Src: timetable.Source{Sheet: "Unavailable", Row: 41}},
+			timetable.Unavailability{Who: t.Rooms[rng.Intn(nRooms)].ID, Kind: timetable.WhoRoom, Day: time.Tuesday,
+				From: 9 * 60, To: 12 * 60, Weight: 3, Weeks: odd, Src: timetable.Source{Sheet: "Unavailable", Row: 42}},
+			timetable.Unavailability{Who: t.Sections[rng.Intn(nSec)].ID, Kind: timetable.WhoSection, Day: time.Wednesday,
+				From: 10 * 60, To: 11 * 60, Weight: 1, Src: timetable.Source{Sheet: "Unavailable", Row: 43}})
+	}
+	if seed%3 == 0 && nRooms > 1 { // two buildings with travel time between them
+		for r := range t.Rooms {
+			t.Rooms[r].Building = []string{"North", "South"}[r%2]
+		}
+		t.Travel = append(t.Travel, timetable.Travel{From: "North", To: "South", Minutes: 20 + 10*rng.Intn(3),
+			Src: timetable.Source{Sheet: "Travel", Row: 2}})
+	}
 	if nStaff > 0 {
 		t.Unavailable = append(t.Unavailable, timetable.Unavailability{
 			Who: t.Staff[0].ID, Kind: timetable.WhoStaff, Day: time.Friday, From: 8 * 60, To: 12 * 60, Hard: true,

@@ -10,6 +10,8 @@ type patState struct {
 	any     bool                   // the term has pattern sections
 	anyTime map[string]solver.Atom // interned any_time atoms by section and pattern list
 	nAny    int                    // any_time atoms made, for their names
+	// roomTime: interned room_time atoms by section, room and time literal.
+	roomTime map[[3]int]solver.Atom
 	// Hard Unavailable rows by entity (indexed like the term's slices),
 	// kept as rows so that minutes and weeks are exact.
 	staff, cohort, section, room [][]timetable.Unavailability
@@ -21,10 +23,12 @@ func (b *builder) initPatterns() {
 	t := b.t
 	b.c.pats = make([]patModel, len(t.Sections))
 	b.pat.anyTime = map[string]solver.Atom{}
+	b.pat.roomTime = map[[3]int]solver.Atom{}
 	for s := range t.Sections {
 		if t.Sections[s].UsesTimes() {
 			b.c.pats[s].on = true
 			b.pat.any = true
+			b.c.anyPat = true
 		}
 	}
 	if !b.pat.any {
