@@ -90,7 +90,8 @@ func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string) benc
 	if o.out != "" {
 		file := benchXMLSolutionFile(o.out, path)
 		var buf bytes.Buffer
-		if err := benchfmt.WriteXMLSolution(&buf, in, sol); err == nil {
+		err := benchfmt.WriteXMLSolution(&buf, in, sol)
+		if err == nil {
 			err = writeBytesAtomic(file, buf.Bytes())
 		}
 		if err != nil {

@@ -137,17 +137,8 @@ func (in *XMLInstance) classIndex() map[string]int {
 	return m
 }
 
-// roomIndex maps room IDs to positions in Rooms.
-func (in *XMLInstance) roomIndex() map[string]int {
-	m := make(map[string]int, len(in.Rooms))
-	for i, r := range in.Rooms {
-		m[r.ID] = i
-	}
-	return m
-}
-
-// travelSlots is the travel time in slots between two rooms: the largest
-// given in either direction; 0 for the same room or when a class has none.
+// travelTable gives the travel time in slots between two rooms, both ways:
+// the largest given in either direction (absent = 0).
 func (in *XMLInstance) travelTable() map[[2]string]int {
 	m := map[[2]string]int{}
 	for _, r := range in.Rooms {
