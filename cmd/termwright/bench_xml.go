@@ -115,7 +115,8 @@ func benchScoreXML(e *env, row *benchRow, in *benchfmt.XMLInstance, term *timeta
 	case hard.Total() == 0 && len(checked) > 0:
 		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
 	case hard.Total() > 0 && len(checked) == 0:
-		fmt.Fprintf(e.stderr, "bench: %s: the competition's rules find %d hard violations Check does not (%+v); please report this\n", row.Instance, hard.Total(), hard)
+		fmt.Fprintf(e.stderr, "bench: %s: the competition's rules find %d hard violations Check does not (%d unplaced, %d at unlisted times or rooms, %d room clashes, %d in unavailable rooms, %d relations); please report this\n",
+			row.Instance, hard.Total(), hard.Unplaced, hard.NotListed, hard.RoomClashes, hard.RoomUnavailable, hard.Distributions)
 	}
 	total, parts := benchfmt.XMLCost(in, sol) // no students enrolled: the student part is 0
 	row.Cost, row.Pattern.Parts, row.Pattern.Hard = &total, &parts, &hard

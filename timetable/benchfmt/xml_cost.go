@@ -16,8 +16,8 @@ import (
 type XMLParts struct {
 	Time         int `json:"time"`
 	Room         int `json:"room"`
-	Distribution int `json:"distribution"`
-	Student      int `json:"student"`
+	Distribution int `json:"relations"`
+	Student      int `json:"students"`
 }
 
 // Weighted is the total cost: each part times its weight.
@@ -32,7 +32,7 @@ type XMLHard struct {
 	NotListed       int `json:"not_listed"`       // assignments to a time or room the class does not list
 	RoomClashes     int `json:"room_clashes"`     // pairs of classes in one room that overlap
 	RoomUnavailable int `json:"room_unavailable"` // classes meeting while their room is unavailable
-	Distributions   int `json:"distributions"`    // broken required distributions
+	Distributions   int `json:"relations"`        // broken required distributions
 }
 
 // Total is the number of broken hard requirements.

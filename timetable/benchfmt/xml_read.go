@@ -93,7 +93,7 @@ func ReadXML(r io.Reader, name string) (*XMLInstance, error) {
 			}
 			if t.Name.Local == "problem" {
 				if sawRoot {
-					x.fail("the file holds a second problem; give one instance per file")
+					x.fail("the file holds a second instance; give one instance per file")
 					return nil, errs.err()
 				}
 				sawRoot = true
@@ -114,7 +114,7 @@ func ReadXML(r io.Reader, name string) (*XMLInstance, error) {
 		}
 	}
 	if !sawRoot {
-		errs.add(0, "the file holds no problem; give an ITC-2019 instance")
+		errs.add(0, "the file holds no instance; give an ITC-2019 instance")
 		return nil, errs.err()
 	}
 	x.in.Classes = x.classes
@@ -235,21 +235,21 @@ func (x *xmlReader) start(t xml.StartElement) {
 	}
 	switch t.Name.Local {
 	case "problem":
-		a := x.attrs(t, "the problem")
+		a := x.attrs(t, "the instance")
 		in.Name = a.id("name", "name")
 		in.Days = a.num("nrDays", "number of days", 1, -1)
 		in.SlotsPerDay = a.num("slotsPerDay", "number of slots per day", 1, -1)
 		in.Weeks = a.num("nrWeeks", "number of weeks", 1, -1)
 		if in.Days > 7 {
-			x.fail("the problem has %d days a week; at most 7 are supported", in.Days)
+			x.fail("the instance has %d days a week; at most 7 are supported", in.Days)
 			in.Days = 7
 		}
 		if in.SlotsPerDay > 288 {
-			x.fail("the problem has %d slots a day; slots are 5 minutes, so at most 288", in.SlotsPerDay)
+			x.fail("the instance has %d slots a day; slots are 5 minutes, so at most 288", in.SlotsPerDay)
 			in.SlotsPerDay = 288
 		}
 		if in.Weeks > 64 {
-			x.fail("the problem has %d weeks; at most 64 are supported", in.Weeks)
+			x.fail("the instance has %d weeks; at most 64 are supported", in.Weeks)
 			in.Weeks = 64
 		}
 	case "optimization":
@@ -257,7 +257,7 @@ func (x *xmlReader) start(t xml.StartElement) {
 		in.Weights = XMLWeights{
 			Time:         a.num("time", "time weight", 0, 0),
 			Room:         a.num("room", "room weight", 0, 0),
-			Distribution: a.num("distribution", "distribution weight", 0, 0),
+			Distribution: a.num("distribution", "constraint weight", 0, 0),
 			Student:      a.num("student", "student weight", 0, 0),
 		}
 	case "room":
@@ -294,7 +294,7 @@ func (x *xmlReader) start(t xml.StartElement) {
 		x.subpart = &x.config.Subparts[len(x.config.Subparts)-1]
 	case "class":
 		if parent == "distribution" {
-			a := x.attrs(t, "a class of a distribution")
+			a := x.attrs(t, "a class of a constraint")
 			x.dist.Classes = append(x.dist.Classes, a.id("id", "class"))
 			return
 		}
@@ -315,7 +315,7 @@ func (x *xmlReader) start(t xml.StartElement) {
 		a := x.attrs(t, "a time of class "+strconv.Quote(clip(x.class.ID)))
 		x.class.Times = append(x.class.Times, a.time(true))
 	case "distribution":
-		a := x.attrs(t, "a distribution")
+		a := x.attrs(t, "a constraint")
 		x.startDistribution(a)
 	case "student":
 		a := x.attrs(t, "a student")
@@ -334,32 +334,32 @@ func (x *xmlReader) startDistribution(a attrs) {
 	switch {
 	case typ == "":
 	case !known:
-		x.fail("a distribution has type %s, which the ITC-2019 rules do not define; correct it", strconv.Quote(clip(typ)))
+		x.fail("a constraint has type %s, which the ITC-2019 rules do not define; correct it", strconv.Quote(clip(typ)))
 	case ok != (want > 0) || (ok && !strings.HasSuffix(params, ")")):
-		x.fail("a distribution of type %s takes %d numbers in parentheses; write it as the rules do", strconv.Quote(clip(typ)), want)
+		x.fail("a constraint of type %s takes %d numbers in parentheses; write it as the rules do", strconv.Quote(clip(typ)), want)
 	case ok:
 		for _, p := range strings.Split(strings.TrimSuffix(params, ")"), ",") {
 			n, err := strconv.Atoi(strings.TrimSpace(p))
 			if err != nil || n < 0 || n > maxXMLNumber {
-				x.fail("a distribution of type %s has number %s; it must be a whole number from 0 to %d", strconv.Quote(clip(typ)), strconv.Quote(clip(p)), maxXMLNumber)
+				x.fail("a constraint of type %s has number %s; it must be a whole number from 0 to %d", strconv.Quote(clip(typ)), strconv.Quote(clip(p)), maxXMLNumber)
 				n = 0
 			}
 			d.Params = append(d.Params, n)
 		}
 		if len(d.Params) != want {
-			x.fail("a distribution of type %s takes %d numbers but has %d; write it as the rules do", strconv.Quote(clip(typ)), want, len(d.Params))
+			x.fail("a constraint of type %s takes %d numbers but has %d; write it as the rules do", strconv.Quote(clip(typ)), want, len(d.Params))
 		}
 	}
 	switch a.m["required"] {
 	case "true":
 		d.Required = true
 		if _, has := a.m["penalty"]; has {
-			x.fail("a required distribution also has a penalty; give one or the other")
+			x.fail("a required constraint also has a penalty; give one or the other")
 		}
 	case "", "false":
 		d.Penalty = a.num("penalty", "penalty", 0, -1)
 	default:
-		x.fail("a distribution has required %s; write true or false", strconv.Quote(clip(a.m["required"])))
+		x.fail("a constraint has required %s; write true or false", strconv.Quote(clip(a.m["required"])))
 	}
 	x.in.Distributions = append(x.in.Distributions, d)
 	x.dist = &x.in.Distributions[len(x.in.Distributions)-1]
@@ -416,7 +416,7 @@ func (x *xmlReader) check() {
 	for _, d := range in.Distributions {
 		for _, id := range d.Classes {
 			if !classes[id] {
-				x.errs.add(d.Line, fmt.Sprintf("a distribution names class %s, which is not given; correct the class", strconv.Quote(clip(id))))
+				x.errs.add(d.Line, fmt.Sprintf("a constraint names class %s, which is not given; correct the class", strconv.Quote(clip(id))))
 			}
 		}
 	}

@@ -125,10 +125,10 @@ func TestReadXMLErrors(t *testing.T) {
 	okTime := `<time days="1000000" start="1" length="2" weeks="11"/>`
 	cases := []struct{ name, src, want string }{
 		{"not xml", "<problem name=\"p\"", "p.xml:1: the file is not well-formed XML"},
-		{"text only", "hello", "p.xml: the file holds no problem"},
-		{"empty", "", "p.xml: the file holds no problem"},
+		{"text only", "hello", "p.xml: the file holds no instance"},
+		{"empty", "", "p.xml: the file holds no instance"},
 		{"other root", "<timetable/>", "p.xml:1: element <timetable> is not expected here"},
-		{"weeks", `<problem name="p" nrDays="7" slotsPerDay="288" nrWeeks="x"/>`, `p.xml:1: the problem has number of weeks "x"; it must be a whole number`},
+		{"weeks", `<problem name="p" nrDays="7" slotsPerDay="288" nrWeeks="x"/>`, `p.xml:1: the instance has number of weeks "x"; it must be a whole number`},
 		{"too many weeks", `<problem name="p" nrDays="7" slotsPerDay="288" nrWeeks="65"/>`, "at most 64"},
 		{"days length", class("", `<time days="100" start="1" length="2" weeks="11"/>`), `p.xml:3: a time of class "1" has days "100" of 3 characters; it must have 7`},
 		{"bits", class("", `<time days="1000000" start="1" length="2" weeks="1x"/>`), "use only 0 and 1"},
@@ -140,7 +140,7 @@ func TestReadXMLErrors(t *testing.T) {
 		{"unknown type", head + `<distributions><distribution type="Sometimes" required="true"/></distributions></problem>`, `type "Sometimes", which the ITC-2019 rules do not define`},
 		{"missing numbers", head + `<distributions><distribution type="MaxBlock" required="true"/></distributions></problem>`, "takes 2 numbers in parentheses"},
 		{"wrong count", head + `<distributions><distribution type="MaxBlock(3)" required="true"/></distributions></problem>`, "takes 2 numbers but has 1"},
-		{"no penalty", head + `<distributions><distribution type="SameRoom"/></distributions></problem>`, "a distribution has no penalty"},
+		{"no penalty", head + `<distributions><distribution type="SameRoom"/></distributions></problem>`, "a constraint has no penalty"},
 		{"unknown class", head + `<distributions><distribution type="SameRoom" required="true"><class id="7"/></distribution></distributions></problem>`, `names class "7", which is not given`},
 		{"stray text", head + "words</problem>", `text "words" stands outside any attribute`},
 		{"two rooms", head + `<rooms><room id="1" capacity="1"/><room id="1" capacity="2"/></rooms></problem>`, `room "1" is given twice`},
