@@ -1,6 +1,8 @@
 package benchfmt
 
 import (
+	"bytes"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"testing"
@@ -68,4 +70,32 @@ func readSharedBest(t testing.TB, dir string) map[string]XMLBest {
 		t.Fatal(err)
 	}
 	return best
+}
+
+// BenchmarkReadXML reads the largest small instance (pu-cs-fal07).
+func BenchmarkReadXML(b *testing.B) {
+	data, err := os.ReadFile(filepath.Join(xmlDataDir(b), "pu-cs-fal07.xml"))
+	if err != nil {
+		b.Skip(err)
+	}
+	b.ReportAllocs()
+	b.SetBytes(int64(len(data)))
+	for i := 0; i < b.N; i++ {
+		if _, err := ReadXML(bytes.NewReader(data), "pu-cs-fal07.xml"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkXMLCost evaluates a random timetable of pu-cs-fal07.
+func BenchmarkXMLCost(b *testing.B) {
+	in := readSharedXML(b, "pu-cs-fal07")
+	sol, err := XMLSolutionOf(in, randomSchedule(in.Term(), rand.New(rand.NewPCG(1, 1))), XMLRunInfo{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		XMLCost(in, sol)
+	}
 }
