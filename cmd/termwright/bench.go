@@ -190,12 +190,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 			fmt.Fprintln(e.stderr, "bench: interrupted; results so far follow")
 			break
 		}
-		row := benchOneXML(ctx, e, o, path)
-		if b, ok := xmlBest[row.Instance]; ok {
-			if w, err := benchXMLWeights(path); err == nil {
-				benchXMLRatio(&row, b, w)
-			}
-		}
+		row := benchOneXML(ctx, e, o, path, xmlBest)
 		failed = failed || row.Status == "error"
 		rep.Instances = append(rep.Instances, row)
 	}

@@ -42,22 +42,34 @@ func benchXMLSolutionFile(out, path string) string {
 }
 
 // benchOneXML reads, solves, checks and writes one ITC-2019 instance.
-func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string) benchRow {
+// With a best-known record it also sets the reference and the ratio.
+func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string, best map[string]benchfmt.XMLBest) benchRow {
+	row, w := benchRunXML(ctx, e, o, path)
+	if b, ok := best[row.Instance]; ok && w != nil {
+		benchXMLRatio(&row, b, *w)
+	}
+	return row
+}
+
+// benchRunXML runs one instance and gives its weights (nil when the file
+// could not be read).
+func benchRunXML(ctx context.Context, e *env, o *benchOptions, path string) (benchRow, *benchfmt.XMLWeights) {
 	name := benchXMLName(path)
 	row := benchRow{Instance: name, Format: "patterns", Status: "error", Pattern: &benchPatternRow{}}
 	data, err := os.ReadFile(path)
 	if err != nil {
 		row.Error = err.Error()
 		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row
+		return row, nil
 	}
 	in, err := benchfmt.ReadXML(bytes.NewReader(data), filepath.Base(path))
 	if err != nil {
 		row.Error = "cannot read the instance"
 		fmt.Fprintf(e.stderr, "bench: %v\n", err)
-		return row
+		return row, nil
 	}
 	term := in.Term()
+	w := &in.Weights
 	row.Rooms = len(term.Rooms)
 	row.Pattern.Sections, row.Pattern.Relations, row.Pattern.Students = len(term.Sections), len(in.Distributions), len(in.Students)
 	fmt.Fprintf(e.stderr, "bench: %s: %d sections, %d rooms, %d relations; solving for up to %s\n", name, len(term.Sections), len(term.Rooms), len(term.Relations), o.timeLimit)
@@ -70,12 +82,12 @@ func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string) benc
 	if err != nil {
 		row.Error = err.Error()
 		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row
+		return row, w
 	}
 	row.Status = res.Status.String()
 	if res.Status != solver.Satisfiable || res.Schedule == nil {
 		fmt.Fprintf(e.stderr, "bench: %s: %s after %s\n", name, row.Status, benchDuration(elapsed))
-		return row
+		return row, w
 	}
 	sol, err := benchfmt.XMLSolutionOf(in, res.Schedule, benchfmt.XMLRunInfo{
 		Runtime: elapsed.Seconds(), Cores: max(o.threads, 1), Technique: "stable models with optimisation", Author: "termwright",
@@ -83,7 +95,7 @@ func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string) benc
 	if err != nil {
 		row.Status, row.Error = "error", err.Error()
 		fmt.Fprintf(e.stderr, "bench: %s: the timetable does not fit the instance: %v\n", name, err)
-		return row
+		return row, w
 	}
 	benchScoreXML(e, &row, in, term, res.Schedule, sol, elapsed)
 	benchTimes(&row, res)
@@ -97,12 +109,12 @@ func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string) benc
 		if err != nil {
 			row.Status, row.Error = "error", err.Error()
 			fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-			return row
+			return row, w
 		}
 		row.Solution = file
 	}
 	fmt.Fprintf(e.stderr, "bench: %s: cost %d without students after %s\n", name, *row.Cost, benchDuration(elapsed))
-	return row
+	return row, w
 }
 
 // benchScoreXML fills validity and cost from the competition's rules and
@@ -155,20 +167,6 @@ func benchXMLRatio(row *benchRow, b benchfmt.XMLBest, w benchfmt.XMLWeights) {
 		r := float64(*row.Cost+1) / float64(ref+1)
 		row.Ratio = &r
 	}
-}
-
-// benchXMLWeights reads just the weights of an instance (for the ratio).
-func benchXMLWeights(path string) (benchfmt.XMLWeights, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return benchfmt.XMLWeights{}, err
-	}
-	defer f.Close()
-	in, err := benchfmt.ReadXML(f, filepath.Base(path))
-	if err != nil {
-		return benchfmt.XMLWeights{}, err
-	}
-	return in.Weights, nil
 }
 
 // benchWriteXMLTable prints the pattern instances' results.
