@@ -70,7 +70,7 @@ func TestCostAgreesWithITCOnRandomSchedules(t *testing.T) {
 }
 
 // Every hard violation in the competition's sense is one for Check too.
-func TestCheckSeesITCHardViolations(t *testing.T) {
+func TestCheckSeesCTTHardViolations(t *testing.T) {
 	term := readTiny(t)
 	s := readTinySolution(t, term, "tiny-b")
 	rules := map[string]bool{}

@@ -53,7 +53,7 @@ var tinyCosts = []struct {
 	{"tiny-c", CTTParts{RoomCapacity: 10, CurriculumCompactness: 4}, CTTHard{}},
 }
 
-func TestITCCostHandComputed(t *testing.T) {
+func TestCTTCostHandComputed(t *testing.T) {
 	term := readTiny(t)
 	for _, tc := range tinyCosts {
 		t.Run(tc.sol, func(t *testing.T) {
@@ -66,7 +66,7 @@ func TestITCCostHandComputed(t *testing.T) {
 	}
 }
 
-func TestITCCostSkipsUnknown(t *testing.T) {
+func TestCTTCostSkipsUnknown(t *testing.T) {
 	term := readTiny(t)
 	s := &timetable.Schedule{Placements: []timetable.Placement{
 		{Section: "zz", Meeting: 1, Period: 0, Room: "big"},
@@ -82,7 +82,7 @@ func TestITCCostSkipsUnknown(t *testing.T) {
 	assert.Equal(t, CTTHard{Meetings: 8}, h)
 }
 
-func TestITCHardTeacherConflict(t *testing.T) {
+func TestCTTHardTeacherConflict(t *testing.T) {
 	term := readTiny(t)
 	// alg and his share teacher Ada but no curriculum.
 	s := &timetable.Schedule{Placements: []timetable.Placement{
@@ -192,11 +192,11 @@ func BenchmarkCTTHardViolations(b *testing.B) {
 	}
 }
 
-// TestITCCostNoOverflow gives a course 2^63-1 students (a Term built in
+// TestCTTCostNoOverflow gives a course 2^63-1 students (a Term built in
 // code; the reader refuses such a number) and checks the cost saturates at
 // math.MaxInt instead of wrapping negative; the true sum, computed with
 // math/big, is larger than any int.
-func TestITCCostNoOverflow(t *testing.T) {
+func TestCTTCostNoOverflow(t *testing.T) {
 	term := readTiny(t)
 	term.Sections[term.SectionIndex()["alg"]].Size = math.MaxInt
 	s := readTinySolution(t, term, "tiny-a")

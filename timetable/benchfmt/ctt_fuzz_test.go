@@ -165,7 +165,7 @@ func FuzzReadITCSolution(f *testing.F) {
 	})
 }
 
-func FuzzReadITCBest(f *testing.F) {
+func FuzzReadCTTBest(f *testing.F) {
 	f.Add([]byte("instance,best,lower_bound,source\ncomp01,5,5,\"a, b\"\ntoy,0,,x\n"))
 	f.Add([]byte("Instance,Best\na,1\na,2\n"))
 	f.Add([]byte("instance,best\n\"unterminated,1\n"))
