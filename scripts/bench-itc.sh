@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # Runs `termwright bench` over the public ITC-2007 curriculum-based course
 # timetabling instances (or, with SET=itc2019, the ITC-2019 ones) and keeps
-# the table, the JSON results, the
-# solutions and a description of the machine in one folder.
+# the table, the JSON results, the solutions and a description of the
+# machine in one folder.
 #
 # Usage: scripts/bench-itc.sh [TIME_LIMIT] [OUT_DIR]
 #   TIME_LIMIT  per instance, a Go duration (default 60s)
