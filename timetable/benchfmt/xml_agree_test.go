@@ -91,7 +91,8 @@ func TestXMLCostAgreesPerKind(t *testing.T) {
 				require.NoError(t, err)
 				want, _ := XMLCost(in, sol)
 				_, by := ownCost(term, s)
-				assert.Equal(t, int64(want), by[timetable.CritSoftRelations], "soft cost")
+				assert.Equal(t, int64(want), by[timetable.CritSoftRelations],
+					"soft cost (for at most minutes a day, at most breaks and longest block term.go's contract, as the published rules: Weight x excess / teaching weeks with the division last, minutes in 5-minute steps)")
 			})
 		}
 		t.Run(k.typ+"/required", func(t *testing.T) {
