@@ -22,6 +22,9 @@ func (b *builder) compileStarts() {
 		sec := &t.Sections[s]
 		m := &b.c.secs[s]
 		m.start = make([]solver.Atom, nP)
+		if b.c.pats[s].on {
+			continue // pattern_atoms.go
+		}
 		fits := b.fitsFor(sec.Length)
 		fixedOnly := b.fixedPeriods(s)
 		if len(fixedOnly) < sec.Meetings || b.opt.Explain {

@@ -24,6 +24,8 @@ const (
 	KindStaffDayLimit      = "staff day limit"
 	KindStaffConsecutive   = "staff consecutive limit"
 	KindRelation           = "relation"
+	KindStaffTravel        = "staff travel"
+	KindCohortTravel       = "cohort travel"
 )
 
 // Relax costs (Group.RelaxCost): how hard it is to give a requirement up,
@@ -85,6 +87,10 @@ func (k AtomKind) String() string {
 		return "started by"
 	case AtomAux:
 		return "aux"
+	case AtomTime:
+		return "time"
+	case AtomRoom:
+		return "room"
 	}
 	return "none"
 }
@@ -97,6 +103,8 @@ type AtomInfo struct {
 	Staff   int          // index into Term.Staff
 	Day     time.Weekday // for AtomMeetsDay
 	Group   int          // for AtomSelector: index into Catalog.Groups
+	Time    int          // for AtomTime: 1-based pattern index (as Placement.Time); 0 otherwise
+	Room    int          // for AtomRoom: index into Term.Rooms
 }
 
 // Catalog maps a compiled program back to the term: every atom to its
@@ -110,6 +118,9 @@ type Catalog struct {
 	explain     bool
 	atoms       []AtomInfo // atoms[a] for atom a; atoms[0] unused
 	secs        []secModel // per section of the term
+	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
+	anyPat      bool       // some section is a pattern section
+	rel         relModel   // pattern relations encoded by a surrogate (times_rel_gate.go)
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none
 	choiceGroup []int32        // group of Program.Choices[i]

@@ -37,11 +37,14 @@ type part struct {
 // constraints with registerPart from its own files.
 var parts = []part{
 	{"rooms", (*builder).compileRoomSets, false},
+	{"pattern choices", (*builder).compilePatternChoices, false},
 	{"starts", (*builder).compileStarts, false},
 	{"fixed", (*builder).compileFixed, false},
 	{"section days", (*builder).compileSectionDays, false},
 	{"availability", (*builder).compileAvailability, false},
 	{"no-overlap", (*builder).compileNoOverlap, false},
+	{"pattern no-overlap", (*builder).compilePatternNoOverlap, false},
+	{"pattern travel", (*builder).compilePatternTravel, false},
 	{"staff limits", (*builder).compileStaffLimits, false},
 	{"relations", (*builder).compileRelations, false},
 	{"room supply", (*builder).compileRoomSupply, false},
@@ -88,6 +91,7 @@ func Compile(t *timetable.Term, opt Options) (*solver.Program, *Catalog, error) 
 	b := newBuilder(t, opt)
 	b.checkReferences()
 	b.buildUnavail()
+	b.initPatterns()
 	b.initSections()
 	if len(b.errs) > 0 {
 		return nil, nil, b.compileError()
@@ -141,7 +145,13 @@ func newBuilder(t *timetable.Term, opt Options) *builder {
 // checkReferences reports references the compiler cannot resolve.
 func (b *builder) checkReferences() {
 	t := b.t
-	if len(t.Periods) == 0 {
+	grid := 0
+	for i := range t.Sections {
+		if !t.Sections[i].UsesTimes() {
+			grid++
+		}
+	}
+	if len(t.Periods) == 0 && (grid > 0 || len(t.Sections) == 0) {
 		b.errorf(timetable.Source{Sheet: "Periods"}, "the grid has no periods: add the teaching periods of the week")
 	}
 	for i, p := range t.Periods {
@@ -165,7 +175,7 @@ func (b *builder) checkReferences() {
 				b.errorf(sec.Src, "section %s: room %q is not on the Rooms sheet", sec.ID, id)
 			}
 		}
-		if sec.Meetings < 1 || sec.Length < 1 {
+		if !sec.UsesTimes() && (sec.Meetings < 1 || sec.Length < 1) {
 			b.errorf(sec.Src, "section %s: meetings per week and periods per meeting must be at least 1", sec.ID)
 		}
 		for _, f := range sec.Fixed {

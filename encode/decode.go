@@ -67,6 +67,7 @@ type decoder struct {
 	t      *timetable.Term
 	c      *Catalog
 	ms     []meeting
+	pats   []timetable.Placement // placements of pattern sections (pattern_decode.go)
 	// members caches the member list of each room set.
 	members map[int][]int
 }
@@ -96,6 +97,9 @@ func DecodeContext(ctx context.Context, t *timetable.Term, c *Catalog, model []s
 func decodeWith(ctx context.Context, t *timetable.Term, c *Catalog, model []solver.Atom, effort roomEffort) (*timetable.Schedule, error) {
 	d := &decoder{ctx: ctx, effort: effort, t: t, c: c, members: map[int][]int{}}
 	if err := d.readStarts(model); err != nil {
+		return nil, err
+	}
+	if err := d.readPatterns(model); err != nil {
 		return nil, err
 	}
 	if err := d.hallCheck(); err != nil {
@@ -246,5 +250,6 @@ func (d *decoder) schedule() *timetable.Schedule {
 			Section: d.t.Sections[m.sec].ID, Meeting: n, Period: m.start, Room: room,
 		})
 	}
+	s.Placements = append(s.Placements, d.pats...)
 	return s
 }

@@ -325,7 +325,7 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 		w := *x.p
 		w.Rules = x.p.Rules[:len(x.p.Rules):len(x.p.Rules)]
 		for _, a := range incumbent {
-			if !reach[a] && x.cat.AtomInfo(a).Kind == AtomStart {
+			if !reach[a] && isDecision(x.cat.AtomInfo(a).Kind) {
 				w.Rules = append(w.Rules, solver.Rule{Head: a})
 			}
 		}
@@ -355,7 +355,7 @@ func (x *Search) Derive(reach []bool, keepWeak func(i int) bool, seed int64, inc
 			in[a] = true
 		}
 		for i, a := range d.split.orig[1:] {
-			if x.cat.AtomInfo(a).Kind == AtomStart {
+			if isDecision(x.cat.AtomInfo(a).Kind) {
 				s.SetPhase(solver.Atom(i+1), in[a])
 			}
 		}

@@ -28,6 +28,10 @@ func (b *builder) initSections() {
 			cand:      -1,
 			sameRoom:  -1,
 		}
+		if sec.UsesTimes() {
+			// The grid parts see no meetings and no room (pattern_atoms.go).
+			b.c.secs[s].length, b.c.secs[s].meetings, b.c.secs[s].takesRoom = 1, 0, false
+		}
 	}
 }
 

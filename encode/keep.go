@@ -70,8 +70,8 @@ func (sb *softBuilder) keepMeetings() {
 		return
 	}
 	for s, kept := range km.secs {
-		if len(kept) == 0 {
-			continue
+		if len(kept) == 0 || sb.c.pats[s].on {
+			continue // pattern sections: keepPatterns
 		}
 		sb.aboutSection(s)
 		m := &sb.c.secs[s]

@@ -105,13 +105,13 @@ func sectionMoves(t *timetable.Term, id string, a, b []timetable.Placement) []Mo
 }
 
 // unchanged matches kept meetings a to new meetings b at the same period
-// and room (a maximum matching: Hopcroft–Karp on the equal-slot edges) and
+// (or meeting time) and room (a maximum matching: Hopcroft–Karp on the equal-slot edges) and
 // returns the indexes left unmatched on each side, ascending.
 func unchanged(a, b []timetable.Placement) (left, right []int) {
 	adj := make([][]int, len(a))
 	for i, x := range a {
 		for j, y := range b {
-			if x.Period == y.Period && x.Room == y.Room {
+			if x.Period == y.Period && x.Time == y.Time && x.Room == y.Room {
 				adj[i] = append(adj[i], j)
 			}
 		}
@@ -138,6 +138,9 @@ func moveCost(t *timetable.Term, x, y timetable.Placement) int64 {
 	var c int64
 	if x.Room != y.Room {
 		c++
+	}
+	if x.Time != y.Time { // pattern sections: another meeting time
+		c += 6
 	}
 	n := len(t.Periods)
 	if x.Period < 0 || x.Period >= n || y.Period < 0 || y.Period >= n {

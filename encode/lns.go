@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
 )
 
 // Large-neighbourhood search (Shaw 1998). The incumbent is the best
@@ -160,7 +161,7 @@ func (o *optRun) reachable(isFree []bool) []bool {
 	}
 	for _, ch := range o.p.Choices {
 		for _, a := range ch.Heads {
-			if info := o.cat.AtomInfo(a); info.Kind != AtomStart || isFree[info.Section] {
+			if info := o.cat.AtomInfo(a); !isDecision(info.Kind) || isFree[info.Section] {
 				mark(a)
 			}
 		}
@@ -399,20 +400,55 @@ func (o *optRun) costlyPerson(ls *lnsState) []int {
 	return nil
 }
 
-// dayHood returns the sections meeting on a random day of the grid.
+// dayHood returns the sections meeting on a random day of the grid (or of
+// the pattern sections' days). On terms with pattern sections, every other
+// call keeps only the sections in one room that day (a room's meetings
+// compete for it).
 func (o *optRun) dayHood(ls *lnsState) []int {
-	days := o.t.Days()
+	t := o.t
+	var present timetable.DaySet
+	for _, d := range t.Days() {
+		present |= 1 << uint(d)
+	}
+	secIdx := t.SectionIndex()
+	meets := func(pl timetable.Placement, s int) timetable.DaySet {
+		if pl.Time > 0 {
+			return t.Sections[s].Times[pl.Time-1].Days
+		}
+		if pl.Period >= 0 && pl.Period < len(t.Periods) {
+			return 1 << uint(t.Periods[pl.Period].Day)
+		}
+		return 0
+	}
+	if o.cat.hasPatterns() {
+		for _, pl := range o.best.sched.Placements {
+			if s, ok := secIdx[pl.Section]; ok {
+				present |= meets(pl, s)
+			}
+		}
+	}
+	var days []int
+	for d := 0; d < 7; d++ {
+		if present&(1<<uint(d)) != 0 {
+			days = append(days, d)
+		}
+	}
 	if len(days) == 0 {
 		return nil
 	}
 	d := days[ls.rng.IntN(len(days))]
-	secIdx := o.t.SectionIndex()
+	room := ""
+	if o.cat.hasPatterns() && ls.rng.IntN(2) == 0 && len(o.best.sched.Placements) > 0 {
+		room = o.best.sched.Placements[ls.rng.IntN(len(o.best.sched.Placements))].Room
+	}
 	var out []int
 	for _, pl := range o.best.sched.Placements {
-		if o.t.Periods[pl.Period].Day == d {
-			if s, ok := secIdx[pl.Section]; ok && !slices.Contains(out, s) {
-				out = append(out, s)
-			}
+		s, ok := secIdx[pl.Section]
+		if !ok || meets(pl, s)&(1<<uint(d)) == 0 || (room != "" && pl.Room != room) {
+			continue
+		}
+		if !slices.Contains(out, s) {
+			out = append(out, s)
 		}
 	}
 	return out

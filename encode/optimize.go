@@ -137,6 +137,12 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	}
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
+	if cat.hasPatterns() && o.opt.LocalShare >= 0 {
+		// Package improve moves grid meetings only: neighbourhood search
+		// takes all the time.
+		o.opt.LocalShare = -1
+		o.res.Local.Skipped = "local search skipped: the term has sections with meeting times, which it does not move"
+	}
 	if o.opt.GlobalConflicts == 0 {
 		o.opt.GlobalConflicts = DefaultGlobalConflicts
 		if len(p.Weaks) > GlobalWeakLimit {
@@ -318,7 +324,7 @@ func (o *optRun) global(budget int64) error {
 // whole term: the time part of the cost is at least the engine's bound,
 // and the room part is never negative.
 func (o *optRun) readBound() {
-	lb := o.x.s.LowerBound()
+	lb := o.cat.boundOf(o.x.s.LowerBound()) // none under a surrogate objective (times_rel_gate.go)
 	for i, l := range o.x.s.Levels() {
 		if k := slices.Index(o.levels, l); k >= 0 && i < len(lb) {
 			o.bound[k] = max(o.bound[k], lb[i])

@@ -104,10 +104,10 @@ func (o *optRun) evaluate(model []solver.Atom) (*candidate, error) {
 func (o *optRun) sameStarts(a, b []solver.Atom) bool {
 	i, j := 0, 0
 	for {
-		for i < len(a) && o.cat.AtomInfo(a[i]).Kind != AtomStart {
+		for i < len(a) && !isDecision(o.cat.AtomInfo(a[i]).Kind) {
 			i++
 		}
-		for j < len(b) && o.cat.AtomInfo(b[j]).Kind != AtomStart {
+		for j < len(b) && !isDecision(o.cat.AtomInfo(b[j]).Kind) {
 			j++
 		}
 		if i == len(a) || j == len(b) {
@@ -125,6 +125,9 @@ func (o *optRun) sameStarts(a, b []solver.Atom) bool {
 // when the room program is small enough, the engine's exact choice; the
 // better of the two (by timetable.Cost) is kept.
 func (o *optRun) bestRooms(s *timetable.Schedule) *timetable.Schedule {
+	if o.cat.hasPatterns() {
+		return o.bestGridRooms(s)
+	}
 	s = improveRooms(o.t, o.cat, s, o.opt.Keep)
 	exact, _ := exactRooms(o.ctx, o.t, o.cat, s, o.opt.Keep, o.opt.Seed)
 	if exact == s {

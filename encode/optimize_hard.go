@@ -55,7 +55,7 @@ func (o *optRun) first() error {
 	st, _, err := o.h.Find(o.ctx, nil, func(ctx context.Context, hard []solver.Atom) error {
 		var assume []solver.Lit
 		for _, a := range hard {
-			if o.cat.AtomInfo(a).Kind == AtomStart {
+			if isDecision(o.cat.AtomInfo(a).Kind) {
 				assume = append(assume, solver.Pos(a))
 			}
 		}

@@ -20,6 +20,9 @@ type LocalStats struct {
 	Adopted  int           // runs whose best timetable became the incumbent
 	Rejected int           // runs whose better timetable failed a gate (see adopt)
 	Time     time.Duration // time spent in local search
+	// Skipped says why local search did not run ("" when it could): it
+	// knows the period grid only, so terms with pattern sections skip it.
+	Skipped string
 }
 
 // Defaults of the local-search phase.
@@ -48,6 +51,7 @@ func (o *optRun) localSearch() error {
 	if o.opt.LocalShare < 0 || o.best == nil {
 		return nil
 	}
+
 	o.phase = "local search"
 	o.note(true)
 	share := o.opt.LocalShare

@@ -176,7 +176,7 @@ func setStartPhases(s *solver.Solver, cat *Catalog, numAtoms int, model []solver
 	}
 	n := min(numAtoms, s.NumAtoms())
 	for a := solver.Atom(1); int(a) <= n; a++ {
-		if cat.AtomInfo(a).Kind == AtomStart {
+		if isDecision(cat.AtomInfo(a).Kind) {
 			s.SetPhase(a, in[a])
 		}
 	}

@@ -76,6 +76,7 @@ func (b *builder) compileSoft() {
 	sb.spreadDays()
 	sb.earlyLate()
 	sb.softRelations()
+	sb.patternSoft()
 }
 
 // weight returns the weak-constraint weight and level of criterion name

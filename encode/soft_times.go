@@ -37,6 +37,9 @@ func (sb *softBuilder) avoidTimes() {
 			}
 		}
 		for _, s := range secs {
+			if u.Weeks != 0 && !u.Weeks.Overlaps(sb.c.secs[s].weeks) {
+				continue // the row's weeks miss the section's
+			}
 			for p, per := range t.Periods {
 				if !u.Covers(per) || sb.occupies(s, p) == 0 {
 					continue

@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Runs `termwright bench` over the public ITC-2007 curriculum-based course
-# timetabling instances and keeps the table, the JSON results, the
-# solutions and a description of the machine in one folder.
+# timetabling instances (or, with SET=itc2019, the ITC-2019 ones) and keeps
+# the table, the JSON results, the solutions and a description of the
+# machine in one folder.
 #
 # Usage: scripts/bench-itc.sh [TIME_LIMIT] [OUT_DIR]
 #   TIME_LIMIT  per instance, a Go duration (default 60s)
@@ -14,11 +15,11 @@ cd "$(dirname "$0")/.."
 
 limit="${1:-60s}"
 out="${2:-out/bench-itc-$(date +%Y%m%d-%H%M%S)}"
-data="${TERMWRIGHT_DATA:-../shared/data}/itc2007"
+data="${TERMWRIGHT_DATA:-../shared/data}/${SET:-itc2007}"
 seed="${SEED:-1}"
 
-if ! ls "$data"/*.ctt >/dev/null 2>&1; then
-  echo "bench-itc: no .ctt files in $data; set TERMWRIGHT_DATA to the folder holding itc2007/" >&2
+if ! compgen -G "$data/*.ctt" >/dev/null && ! compgen -G "$data/*.xml" >/dev/null; then
+  echo "bench-itc: no .ctt or .xml files in $data; set TERMWRIGHT_DATA to the folder holding ${SET:-itc2007}/" >&2
   exit 1
 fi
 if [ -e "$out" ]; then

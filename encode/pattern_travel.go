@@ -1,0 +1,121 @@
+package encode
+
+import (
+	"fmt"
+
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+// compilePatternTravel: a staff member or cohort never has two meetings of
+// pattern sections on a common day in a common week with less free time
+// between them than the travel time between their rooms (Term.Travel,
+// hard). For each pair of their pattern sections, each pair of candidate
+// patterns that leave a gap shorter than the longest travel time, and each
+// pair of candidate rooms too far apart for that gap, one integrity
+// constraint forbids the four choices together. Only terms with travel
+// rows pay for it. Grid sections' rooms are assigned after the search, so
+// their travel stays the soft criterion "travel" (see criteria.go).
+func (b *builder) compilePatternTravel() {
+	t := b.t
+	if !b.pat.any || len(t.Travel) == 0 {
+		return
+	}
+	maxT := 0
+	for _, tr := range t.Travel {
+		maxT = max(maxT, tr.Minutes)
+	}
+	if maxT <= 0 {
+		return
+	}
+	dist := map[[2]int]int{}
+	travel := func(a, c int) int {
+		if a > c {
+			a, c = c, a
+		}
+		k := [2]int{a, c}
+		if v, ok := dist[k]; ok {
+			return v
+		}
+		v := t.TravelMinutes(t.Rooms[a].ID, t.Rooms[c].ID)
+		dist[k] = v
+		return v
+	}
+	people := func(kind string, id string, src timetable.Source, name string, secs []int) {
+		var pats []int
+		for _, s := range secs {
+			if b.c.pats[s].on && len(b.c.pats[s].rooms) > 0 {
+				pats = append(pats, s)
+			}
+		}
+		if len(pats) < 2 {
+			return
+		}
+		g := -1
+		for x := 0; x < len(pats); x++ {
+			for y := x + 1; y < len(pats); y++ {
+				s1, s2 := pats[x], pats[y]
+				p1, p2 := &b.c.pats[s1], &b.c.pats[s2]
+				for _, i := range p1.times {
+					c1 := &t.Sections[s1].Times[i]
+					for _, j := range p2.times {
+						c2 := &t.Sections[s2].Times[j]
+						gap, ok := patternGap(c1, c2)
+						if !ok || gap >= maxT {
+							continue
+						}
+						for k1, r1 := range p1.rooms {
+							for k2, r2 := range p2.rooms {
+								if travel(r1, r2) <= gap {
+									continue
+								}
+								if g < 0 {
+									g = b.newGroup(kind, []string{id},
+										fmt.Sprintf("%s has enough time to travel between the rooms of consecutive meetings", name),
+										[]timetable.Source{src}, RelaxNoOverlap)
+									b.in(g, kind)
+								}
+								b.rule(0, solver.Pos(p1.time[i]), solver.Pos(p2.time[j]),
+									solver.Pos(p1.room[k1]), solver.Pos(p2.room[k2]), b.sel(g))
+							}
+						}
+					}
+				}
+			}
+		}
+	}
+	staffSecs := make([][]int, len(t.Staff))
+	cohortSecs := make([][]int, len(t.Cohorts))
+	for s, sec := range t.Sections {
+		for _, id := range uniq(sec.Staff) {
+			staffSecs[b.staffIdx[id]] = append(staffSecs[b.staffIdx[id]], s)
+		}
+		for _, id := range uniq(sec.Cohorts) {
+			cohortSecs[b.cohortIdx[id]] = append(cohortSecs[b.cohortIdx[id]], s)
+		}
+	}
+	for i, secs := range staffSecs {
+		st := &t.Staff[i]
+		people(KindStaffTravel, st.ID, st.Src, "staff "+staffName(st), secs)
+	}
+	for i, secs := range cohortSecs {
+		co := &t.Cohorts[i]
+		people(KindCohortTravel, co.ID, co.Src, "cohort "+cohortName(co), secs)
+	}
+}
+
+// patternGap is the free time between meetings of two patterns that share
+// a day and a teaching week and do not overlap: the later start minus the
+// earlier end; false when they share no day and week, or overlap.
+func patternGap(a, c *timetable.TimeChoice) (int, bool) {
+	if a.Days&c.Days == 0 || !a.Weeks.Overlaps(c.Weeks) {
+		return 0, false
+	}
+	switch {
+	case a.End() <= c.Start:
+		return int(c.Start - a.End()), true
+	case c.End() <= a.Start:
+		return int(a.Start - c.End()), true
+	}
+	return 0, false
+}
