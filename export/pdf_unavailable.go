@@ -68,7 +68,7 @@ func (d *pdfDoc) unavailable(g gridGeo, who Subject) {
 				if !v.has[k][c] {
 					continue
 				}
-				x, y, w, h := g.colX(c)+0.15, g.rowY(k)+0.15, g.colW-0.3, g.rowH-0.3
+				x, y, w, h := g.colX(c)+0.15, g.rowY(k)+0.15, g.colW-0.3, g.height(k)-0.3
 				f.Rect(x, y, w, h, "F")
 				if l == unavailHard {
 					d.crossHatch(x, y, w, h)

@@ -21,7 +21,8 @@ const loadCaution = "Capacities and limits are as entered in the term workbook. 
 // its utilisation. "Weekly periods" counts the distinct grid periods a
 // person teaches in at least one week; "Periods over the term" adds up
 // every period actually taught, date by date (holidays and weeks outside a
-// section's weeks left out). A room's utilisation is its occupied grid
+// section's weeks left out). A meeting by a meeting pattern counts the
+// grid periods it overlaps. A room's utilisation is its occupied grid
 // periods divided by the grid's periods.
 func (wb *workbook) load() error {
 	f, v, sheet := wb.f, wb.v, LoadSheet
@@ -106,7 +107,8 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 	for _, i := range items {
 		m := &v.meetings[i]
 		sections[m.sec.ID] = true
-		for p := m.first; p <= m.last; p++ {
+		ps := v.periodsOf(m)
+		for _, p := range ps {
 			if !periods[p] {
 				periods[p] = true
 				perDay[int(m.day)]++
@@ -114,7 +116,7 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 		}
 		if days != nil {
 			on, _ := v.occurrences(days, m)
-			term += len(on) * (m.last - m.first + 1)
+			term += len(on) * len(ps)
 		}
 	}
 	busiest := 0
@@ -131,6 +133,24 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 	return out
 }
 
+// periodsOf lists the grid periods a meeting occupies: its own, or for a
+// pattern meeting every period of its day it overlaps by a minute or more.
+func (v *view) periodsOf(m *meeting) []int {
+	var out []int
+	if !m.pattern() {
+		for p := m.first; p <= m.last; p++ {
+			out = append(out, p)
+		}
+		return out
+	}
+	for i, p := range v.t.Periods {
+		if p.Day == m.day && p.Start < m.to && m.from < p.End {
+			out = append(out, i)
+		}
+	}
+	return out
+}
+
 // roomLoad is one row of the room table.
 func (v *view) roomLoad(id string) []any {
 	r := v.rooms[id]
@@ -140,7 +160,7 @@ func (v *view) roomLoad(id string) []any {
 	for _, i := range items {
 		m := &v.meetings[i]
 		largest = max(largest, m.sec.Size)
-		for p := m.first; p <= m.last; p++ {
+		for _, p := range v.periodsOf(m) {
 			periods[p] = true
 		}
 	}

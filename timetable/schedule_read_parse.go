@@ -51,13 +51,15 @@ func schedParse(t *Term, sheet string, rows [][]string, lines []int) (*Schedule,
 			}
 			return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
 		}
-		p, blank, ok := schedRow(t, periods, cell, &ps)
+		p, blank, ok := schedRow(t, periods, secs, cell, &ps)
 		if !ok {
 			continue
 		}
 		p.Src = Source{Sheet: sheet, Row: line}
-		if si, known := secs[p.Section]; known {
+		if si, known := secs[p.Section]; known && !t.Sections[si].UsesTimes() {
 			schedReadOnlyCells(t, &t.Sections[si], p, cell, &ps)
+		} else if known {
+			schedReadOnlyPeople(&t.Sections[si], cell, &ps)
 		}
 		if blank {
 			blankMeeting = append(blankMeeting, len(s.Placements))
@@ -105,7 +107,7 @@ func schedHeader(sheet string, header []string, line int, ps *Problems) (map[str
 
 // schedRow reads one data row; blank reports a blank Meeting cell, and ok
 // is false when a cell could not be read (the problem is recorded).
-func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Position), ps *Problems) (p Placement, blank, ok bool) {
+func schedRow(t *Term, periods map[schedKey]int, secs map[string]int, cell func(string) (string, Position), ps *Problems) (p Placement, blank, ok bool) {
 	ok = true
 	sec, pos := cell("Section")
 	if sec == "" {
@@ -120,6 +122,11 @@ func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Posi
 		ok = false
 	} else {
 		p.Meeting = n
+	}
+	if si, known := secs[sec]; known && t.Sections[si].UsesTimes() {
+		ok = schedPatternRow(t, &t.Sections[si], &p, cell, ps) && ok
+		p.Room, _ = cell("Room")
+		return p, blank, ok
 	}
 	dv, dpos := cell("Day")
 	day, goodDay := ParseDay(dv)
@@ -171,8 +178,10 @@ func schedDays(t *Term) string {
 	return strings.Join(out, ", ")
 }
 
-// schedReadOnlyCells warns when End, Weeks, Staff or Cohorts disagree with
-// the term: the term decides them and the cells are ignored.
+// schedReadOnlyCells warns when End, Weeks, Staff or Cohorts of a grid
+// section's row disagree with the term: the term decides them and the
+// cells are ignored. (For a pattern section End and Weeks pick the
+// meeting time; see schedPatternRow.)
 func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (string, Position), ps *Problems) {
 	if v, pos := cell("Weeks"); v != "" {
 		got, err := parseWeeks(v, t.AllWeeks())
@@ -190,6 +199,11 @@ func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (s
 			}
 		}
 	}
+	schedReadOnlyPeople(sec, cell, ps)
+}
+
+// schedReadOnlyPeople warns when Staff or Cohorts disagree with the term.
+func schedReadOnlyPeople(sec *Section, cell func(string) (string, Position), ps *Problems) {
 	for _, c := range []struct {
 		col  string
 		want []string

@@ -211,7 +211,7 @@ type diffChange struct {
 
 type diffPlace struct {
 	Meeting int    `json:"meeting"`
-	Day     string `json:"day"`
+	Day     string `json:"day"` // "Tue", or the days of a meeting pattern, "Mon Wed Fri"
 	Start   string `json:"start"`
 	End     string `json:"end,omitempty"`
 	Room    string `json:"room,omitempty"`
@@ -273,7 +273,7 @@ func diffPlaceOf(m *timetable.Meeting) *diffPlace {
 	if m == nil {
 		return nil
 	}
-	p := &diffPlace{Meeting: m.Number, Day: timetable.DayName(m.Day), Start: m.Start.String(), Room: m.Room, Weeks: m.Weeks}
+	p := &diffPlace{Meeting: m.Number, Day: m.DayText(), Start: m.Start.String(), Room: m.Room, Weeks: m.Weeks}
 	if m.End != 0 {
 		p.End = m.End.String()
 	}
