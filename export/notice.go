@@ -31,10 +31,10 @@ func NoticeSubject(a timetable.Affected) (who Subject, ok bool) {
 // (Calendar). It resolves the timetable once for all of them.
 type Notices struct {
 	c    *timetable.Comparison
-	cur  *view             // the new timetable as read: meeting numbers as in c's new meetings
-	cal  *view             // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
+	cur  *view               // the new timetable as read: meeting numbers as in c's new meetings
+	cal  *view               // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
 	at   map[noticeKey][]int // section and meeting number -> indexes into cur.meetings (one per day of a meeting pattern)
-	days *calendarInfo     // the term's dates
+	days *calendarInfo       // the term's dates
 }
 
 // noticeKey names a meeting of the new timetable.
