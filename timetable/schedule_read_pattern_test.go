@@ -42,7 +42,7 @@ func ptRows(t *Term, ps []Placement) [][]string {
 		sec := &t.Sections[secs[p.Section]]
 		c := sec.Times[p.Time-1]
 		rows = append(rows, []string{sec.ID, sec.Title, strconv.Itoa(p.Meeting), c.Days.String(), c.Start.String(), c.End().String(),
-			p.Room, strings.Join(sec.Staff, ", "), "", t.WeeksText(c.Weeks&t.AllWeeks()), ""})
+			p.Room, strings.Join(sec.Staff, ", "), "", t.WeeksText(c.Weeks & t.AllWeeks()), ""})
 	}
 	return rows
 }
