@@ -2,7 +2,9 @@ package samples
 
 import (
 	"bytes"
+	"errors"
 	"flag"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"testing"
@@ -33,6 +35,9 @@ func TestDemoFiles(t *testing.T) {
 	require.NoError(t, timetable.WriteTermCSV(Demo(), dir))
 	for _, name := range timetable.TermCSVFiles() {
 		got, err := os.ReadFile(filepath.Join(dir, name))
+		if errors.Is(err, fs.ErrNotExist) {
+			continue // a sheet the grid demo does not use
+		}
 		require.NoError(t, err)
 		want, err := os.ReadFile(filepath.Join(DemoCSVDir, name))
 		require.NoError(t, err)

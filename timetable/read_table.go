@@ -28,8 +28,9 @@ var longColumns = map[string][]string{
 	shTerm:        {"Value"},
 	shRooms:       {"Features"},
 	shSections:    {"Title", "Staff", "Cohorts", "Needs", "Rooms", "Fixed", "Weeks"},
-	shUnavailable: {"Reason"},
+	shUnavailable: {"Reason", "Weeks"},
 	shRelations:   {"Sections"},
+	shTimes:       {"Weeks"},
 }
 
 // sheetSpec describes one sheet of the layout in docs/workbook.md.
@@ -53,7 +54,15 @@ const (
 	shUnavailable = "Unavailable"
 	shRelations   = "Relations"
 	shWeights     = "Weights"
+	shTimes       = "Meeting times"
+	shRoomChoices = "Room choices"
+	shTravel      = "Travel"
 )
+
+// shLists is the hidden sheet of the template that holds the values of the
+// drop-down lists too long to write into the list itself (a spreadsheet
+// limits an inline list to 255 characters). Readers ignore it.
+const shLists = "Lists"
 
 // sheetSpecs lists every sheet in workbook order.
 var sheetSpecs = []sheetSpec{
@@ -61,7 +70,7 @@ var sheetSpecs = []sheetSpec{
 		"Name, First day, Last day, Time zone, Holiday (may repeat) or Holidays (a list).",
 		"The value: a date as YYYY-MM-DD or a date cell; an IANA time zone such as Europe/Dublin.",
 	}},
-	{name: shPeriods, required: true, cols: []string{"Day", "Start", "End"}, need: []string{"Day", "Start", "End"}, notes: []string{
+	{name: shPeriods, cols: []string{"Day", "Start", "End"}, need: []string{"Day", "Start", "End"}, notes: []string{
 		"Mon to Sun.",
 		"Start time, HH:MM on the 24-hour clock (or a time cell).",
 		"End time, after Start. Periods that touch (one ends when the next starts) are consecutive.",
@@ -72,17 +81,27 @@ var sheetSpecs = []sheetSpec{
 		"Comma list of features, e.g. lab, projector, step-free.",
 		"Building name or code (optional).",
 	}},
-	{name: shStaff, required: true, cols: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods"}, need: []string{"Staff ID"}, notes: []string{
+	{name: shStaff, required: true, cols: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods",
+		"Max periods per week", "Max minutes per week", "Max days per week", "Lunch from", "Lunch to", "Lunch minutes"}, need: []string{"Staff ID"}, notes: []string{
 		"Unique staff ID.",
 		"Display name.",
 		"Email address (optional).",
 		"Most teaching periods in one day; blank = no limit. Follow local agreements.",
 		"Most teaching periods in a row; blank = no limit. Follow local agreements.",
+		"Most grid periods in one teaching week (part-time contracts); blank = no limit. Follow the contract and local agreements.",
+		"Most teaching minutes in one teaching week, every meeting counted; blank = no limit. Follow the contract and local agreements.",
+		"Most days with teaching in one week; blank = no limit.",
+		"Lunch window start HH:MM (optional): with Lunch to and Lunch minutes, a guaranteed free break on every teaching day.",
+		"Lunch window end HH:MM.",
+		"Free minutes guaranteed inside the lunch window.",
 	}},
-	{name: shCohorts, required: true, cols: []string{"Cohort", "Name", "Size"}, need: []string{"Cohort"}, notes: []string{
+	{name: shCohorts, required: true, cols: []string{"Cohort", "Name", "Size", "Lunch from", "Lunch to", "Lunch minutes"}, need: []string{"Cohort"}, notes: []string{
 		"Unique cohort ID: students who must never have two classes at once.",
 		"Display name.",
 		"Number of students (optional).",
+		"Lunch window start HH:MM (optional): with Lunch to and Lunch minutes, a guaranteed free break on every day the cohort has class.",
+		"Lunch window end HH:MM.",
+		"Free minutes guaranteed inside the lunch window.",
 	}},
 	{name: shSections, required: true, cols: []string{"Section", "Title", "Staff", "Cohorts", "Expected size", "Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days"}, need: []string{"Section"}, notes: []string{
 		"Unique section ID.",
@@ -102,23 +121,44 @@ var sheetSpecs = []sheetSpec{
 		"Student ID.",
 		"Section ID the student is enrolled in.",
 	}},
-	{name: shUnavailable, cols: []string{"Who", "Day", "From", "To", "Strength", "Reason"}, need: []string{"Who", "Day"}, notes: []string{
+	{name: shUnavailable, cols: []string{"Who", "Day", "From", "To", "Strength", "Reason", "Weeks"}, need: []string{"Who", "Day"}, notes: []string{
 		"A staff ID, room, cohort or section.",
 		"Mon to Sun.",
 		"Start time HH:MM; blank From and To = the whole day.",
 		"End time HH:MM.",
 		"hard (default: must not be scheduled) or a whole-number weight (would rather not).",
 		"Reason (optional, shown in explanations).",
+		"Teaching weeks the row holds in: blank = every week, or odd, even, or weeks and ranges such as 1-4, 6.",
 	}},
-	{name: shRelations, cols: []string{"Kind", "Sections", "Strength"}, need: []string{"Kind", "Sections"}, notes: []string{
-		"same time, not same time, different days, same day, before, back to back or same room.",
+	{name: shRelations, cols: []string{"Kind", "Sections", "Strength", "N", "M"}, need: []string{"Kind", "Sections"}, notes: []string{
+		"A relation kind from the drop-down list (see docs/workbook.md, Relations).",
 		"Two or more section IDs (comma list).",
 		"hard (default) or a whole-number weight.",
+		"The kind's number N: minutes for day span, minimum gap, at most minutes a day and longest block; days for at most days; breaks for at most breaks. Blank for the other kinds.",
+		"The kind's second number M, for at most breaks and longest block: a gap of at most M minutes joins two meetings into one block. Blank for the other kinds.",
 	}},
 	{name: shWeights, cols: []string{"Criterion", "Weight", "Level"}, need: []string{"Criterion", "Weight"}, notes: []string{
 		"A soft criterion name.",
 		"Whole number from 0 (off) upwards.",
 		"Priority level (optional); higher levels are minimised first.",
+	}},
+	{name: shTimes, cols: []string{"Section", "Days", "Start", "Minutes", "Weeks", "Weight"}, need: []string{"Section", "Days", "Start", "Minutes"}, notes: []string{
+		"Section ID. One row per acceptable meeting time; a section with rows here is placed at one of them, not on the Periods grid.",
+		"The days it meets, e.g. Mon Wed Fri or Tue Thu.",
+		"Start time HH:MM, on a 5-minute step (09:00, 09:05, ...).",
+		"Length of each meeting in minutes, a multiple of 5, e.g. 50 or 75.",
+		"Teaching weeks: blank = the section's Weeks; or all, odd, even, or weeks and ranges such as 3-6.",
+		"Preference: blank or 0 = fully acceptable; a higher whole number = less wanted.",
+	}},
+	{name: shRoomChoices, cols: []string{"Section", "Room", "Weight"}, need: []string{"Section", "Room"}, notes: []string{
+		"Section ID. Rows here are the section's complete list of acceptable rooms (they replace its Rooms column).",
+		"A room from the Rooms sheet that can hold the section.",
+		"Preference: blank or 0 = fully acceptable; a higher whole number = less wanted.",
+	}},
+	{name: shTravel, cols: []string{"From", "To", "Minutes"}, need: []string{"From", "To", "Minutes"}, notes: []string{
+		"A room or a building (Building column of Rooms).",
+		"Another room or building; the time holds both ways.",
+		"Minutes needed to get from one to the other; staff and cohorts always get this much free time between meetings there.",
 	}},
 	{name: shColumns, cols: []string{colMapSheet, colMapTheir, colMapOur}, need: []string{colMapSheet, colMapTheir, colMapOur}, notes: []string{
 		"Optional. The sheet whose column is renamed, e.g. Sections.",
@@ -127,11 +167,12 @@ var sheetSpecs = []sheetSpec{
 	}},
 }
 
-// specFor finds the spec of a sheet by name, in any case.
+// specFor finds the spec of a sheet by name, in any case, with '-' or '_'
+// for a space ("meeting_times.csv").
 func specFor(name string) *sheetSpec {
-	n := normHeader(name)
+	n := normWords(name)
 	for i := range sheetSpecs {
-		if normHeader(sheetSpecs[i].name) == n {
+		if normWords(sheetSpecs[i].name) == n {
 			return &sheetSpecs[i]
 		}
 	}

@@ -21,6 +21,7 @@ type termReader struct {
 	lay      *layout
 	date1904 bool              // the workbook uses the 1904 date base system
 	tabs     map[string]*table // canonical sheet name -> table
+	secIdx   map[string]int    // section ID -> position, once Sections is read
 }
 
 // buildTerm turns the raw sheets of a workbook or CSV folder into a Term and
@@ -34,6 +35,12 @@ func buildTerm(sheets []*rawSheet, date1904 bool, cfg *loadConfig) (*Term, Probl
 	r.readStaff()
 	r.readCohorts()
 	r.readSections()
+	r.secIdx = r.t.SectionIndex()
+	r.readMeetingTimes()
+	r.readRoomChoices()
+	r.checkPatternColumns()
+	r.requirePeriods()
+	r.readTravel()
 	r.readEnrolments()
 	r.readUnavailable()
 	r.readRelations()
@@ -65,6 +72,9 @@ func (r *termReader) match(sheets []*rawSheet, cfg *loadConfig) {
 	ren := checkColumns(renames, &r.ps)
 	for i, s := range sheets {
 		spec := specs[i]
+		if spec == nil && normWords(s.name) == normWords(shLists) {
+			continue // the template's hidden list of drop-down values
+		}
 		if spec == nil {
 			r.ps.warnf(Position{Sheet: s.name}, "sheet %q is not part of the term workbook and is ignored — the sheets are %s", s.name, quoteList(specNames()))
 			continue
@@ -326,6 +336,10 @@ func (r *termReader) readStaff() {
 			Email:          t.get(row, "Email"),
 			MaxPerDay:      r.whole(t, row, "Max periods per day", 1, 1000, 0),
 			MaxConsecutive: r.whole(t, row, "Max consecutive periods", 1, 1000, 0),
+			MaxWeekPeriods: r.whole(t, row, "Max periods per week", 1, 10_000, 0),
+			MaxWeekMinutes: r.whole(t, row, "Max minutes per week", 1, 7*24*60, 0),
+			MaxWeekDays:    r.whole(t, row, "Max days per week", 1, 7, 0),
+			Lunch:          r.lunch(t, row),
 			Src:            rowSource(t, row),
 		})
 	})
@@ -334,10 +348,11 @@ func (r *termReader) readStaff() {
 func (r *termReader) readCohorts() {
 	r.rows(shCohorts, func(t *table, row tableRow) {
 		r.t.Cohorts = append(r.t.Cohorts, Cohort{
-			ID:   r.id(t, row, "Cohort", "cohort"),
-			Name: t.get(row, "Name"),
-			Size: r.whole(t, row, "Size", 0, maxCount, 0),
-			Src:  rowSource(t, row),
+			ID:    r.id(t, row, "Cohort", "cohort"),
+			Name:  t.get(row, "Name"),
+			Size:  r.whole(t, row, "Size", 0, maxCount, 0),
+			Lunch: r.lunch(t, row),
+			Src:   rowSource(t, row),
 		})
 	})
 }
@@ -411,6 +426,14 @@ func (r *termReader) readUnavailable() {
 		if err != nil {
 			r.ps.errorf(t.pos(row, "Strength"), "Strength %v", err)
 		}
+		if ws := t.get(row, "Weeks"); ws != "" {
+			weeks, werr := parseWeeks(ws, r.t.AllWeeks())
+			if werr != nil {
+				r.ps.errorf(t.pos(row, "Weeks"), "Weeks %v", werr)
+				return
+			}
+			u.Weeks = weeks
+		}
 		if !okD || !okF || !okT || err != nil {
 			return
 		}
@@ -453,7 +476,7 @@ func (r *termReader) readRelations() {
 			kind = RelationKinds[i].Kind
 		}
 		if kind == 0 {
-			r.ps.errorf(t.pos(row, "Kind"), "Kind %q is not a relation — write one of %s", kindText, quoteList(relationNames()))
+			r.ps.errorf(t.pos(row, "Kind"), "Kind %q is not a relation — choose one from the Kind drop-down list (the %d kinds are listed in docs/workbook.md, Relations)", kindText, len(RelationKinds))
 		}
 		hard, w, err := parseStrength(t.get(row, "Strength"))
 		if err != nil {
@@ -462,7 +485,11 @@ func (r *termReader) readRelations() {
 		if kind == 0 || err != nil {
 			return
 		}
-		r.t.Relations = append(r.t.Relations, Relation{Kind: kind, Sections: splitList(t.get(row, "Sections")), Hard: hard, Weight: w, Src: rowSource(t, row)})
+		n, m, ok := r.relationNumbers(t, row, kind)
+		if !ok {
+			return
+		}
+		r.t.Relations = append(r.t.Relations, Relation{Kind: kind, Sections: splitList(t.get(row, "Sections")), Hard: hard, Weight: w, N: n, M: m, Src: rowSource(t, row)})
 	})
 }
 

@@ -48,8 +48,9 @@ func WriteTemplate(w io.Writer) error {
 			return fmt.Errorf("writing the %s sheet of the template: %w", spec.name, err)
 		}
 	}
+	lists := 0 // columns used on the hidden Lists sheet
 	for _, d := range dropDowns {
-		if err := addDropDown(f, d.sheet, d.col, d.values, d.strict); err != nil {
+		if err := addDropDown(f, d.sheet, d.col, d.values, d.strict, &lists); err != nil {
 			return fmt.Errorf("adding the %s drop-down list of the template: %w", d.col, err)
 		}
 	}
@@ -102,8 +103,17 @@ func templateSheet(f *excelize.File, i int, spec sheetSpec, bold int) error {
 	return f.SetPanes(spec.name, &excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft"})
 }
 
-// addDropDown offers values in every data cell of a column.
-func addDropDown(f *excelize.File, sheet, col string, values []string, strict bool) error {
+// maxInlineList is the most characters of a list written into the
+// drop-down itself, separators included (Microsoft, "Excel specifications
+// and limits": 255 characters for a data validation list source; excelize
+// refuses longer ones). Longer lists go on the hidden Lists sheet.
+const maxInlineList = 255
+
+// addDropDown offers values in every data cell of a column. A list too long
+// to write inline is written down a column of the hidden Lists sheet and
+// the drop-down refers to that range (ECMA-376 Part 1 §18.3.1.32: formula1
+// of a list validation may be a cell range); lists counts the columns used.
+func addDropDown(f *excelize.File, sheet, col string, values []string, strict bool, lists *int) error {
 	spec := specFor(sheet)
 	idx := -1
 	for i, c := range spec.cols {
@@ -117,15 +127,59 @@ func addDropDown(f *excelize.File, sheet, col string, values []string, strict bo
 	dv := excelize.NewDataValidation(true)
 	letter := colLetter(idx)
 	dv.SetSqref(fmt.Sprintf("%s2:%s%d", letter, letter, excelize.TotalRows))
-	if err := dv.SetDropList(values); err != nil {
-		return err
-	}
-	if strict {
-		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose one of: "+strings.Join(values, ", ")+".")
+	if utf16Len(strings.Join(values, ",")) <= maxInlineList {
+		if err := dv.SetDropList(values); err != nil {
+			return err
+		}
 	} else {
+		ref, err := writeList(f, values, lists)
+		if err != nil {
+			return err
+		}
+		dv.SetSqrefDropList(ref)
+	}
+	switch {
+	case strict && utf16Len(strings.Join(values, ", ")) > maxInlineList:
+		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose a value from the drop-down list.")
+	case strict:
+		dv.SetError(excelize.DataValidationErrorStyleStop, col, "Choose one of: "+strings.Join(values, ", ")+".")
+	default:
 		dv.SetError(excelize.DataValidationErrorStyleInformation, col, "Usual values: "+strings.Join(values, ", ")+". Other values are allowed.")
 	}
 	return f.AddDataValidation(sheet, dv)
+}
+
+// writeList writes values down the next free column of the hidden Lists
+// sheet (made on first use) and returns the absolute reference of the cells.
+func writeList(f *excelize.File, values []string, lists *int) (string, error) {
+	if *lists == 0 {
+		if _, err := f.NewSheet(shLists); err != nil {
+			return "", err
+		}
+		if err := f.SetSheetVisible(shLists, false); err != nil {
+			return "", err
+		}
+	}
+	letter := colLetter(*lists)
+	*lists++
+	for i, v := range values {
+		if err := f.SetCellStr(shLists, fmt.Sprintf("%s%d", letter, i+1), v); err != nil {
+			return "", err
+		}
+	}
+	return fmt.Sprintf("%s!$%s$1:$%s$%d", shLists, letter, letter, len(values)), nil
+}
+
+// utf16Len counts s in UTF-16 code units, as spreadsheet limits do.
+func utf16Len(s string) int {
+	n := 0
+	for _, r := range s {
+		n++
+		if r >= 0x10000 {
+			n++
+		}
+	}
+	return n
 }
 
 func listHas(list []string, s string) bool {

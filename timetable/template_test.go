@@ -21,7 +21,10 @@ func TestWriteTemplate(t *testing.T) {
 	for _, s := range sheetSpecs {
 		names = append(names, s.name)
 	}
-	assert.Equal(t, names, f.GetSheetList(), "every sheet, in layout order")
+	assert.Equal(t, append(names, shLists), f.GetSheetList(), "every sheet, in layout order, then the hidden Lists sheet")
+	visible, err := f.GetSheetVisible(shLists)
+	require.NoError(t, err)
+	assert.False(t, visible, "the Lists sheet is hidden")
 
 	for _, spec := range sheetSpecs {
 		t.Run(spec.name, func(t *testing.T) {
@@ -52,7 +55,7 @@ func TestWriteTemplate(t *testing.T) {
 			if strings.HasPrefix(dv.Sqref, col+"2:") {
 				found = true
 				assert.Equal(t, "list", dv.Type)
-				assert.Contains(t, dv.Formula1, d.values[0])
+				assert.Equal(t, d.values, listValues(t, f, dv.Formula1), "%s.%s offers exactly its values", d.sheet, d.col)
 			}
 		}
 		assert.True(t, found, "drop-down for %s.%s", d.sheet, d.col)
@@ -84,9 +87,41 @@ func TestTemplateReadsBack(t *testing.T) {
 	assert.Equal(t, []string{"Term!B3", "Term!B4", "Periods"}, got, "%s", ps)
 }
 
+// listValues reads the values a list validation offers: its formula1 is
+// either the values in quotes, separated by commas, or a reference to the
+// cells holding them, here a column range of the hidden Lists sheet
+// (ECMA-376 Part 1 §18.3.1.32 dataValidation, formula1). An inline list
+// holds at most 255 characters (Microsoft, "Excel specifications and
+// limits").
+func listValues(t *testing.T, f *excelize.File, formula string) []string {
+	t.Helper()
+	formula = strings.TrimSpace(formula)
+	if strings.HasPrefix(formula, `"`) {
+		inner := strings.Trim(formula, `"`)
+		require.LessOrEqual(t, len(inner), 255, "an inline list fits the 255-character limit")
+		return strings.Split(inner, ",")
+	}
+	sheet, rng, ok := strings.Cut(strings.TrimPrefix(formula, "="), "!")
+	require.True(t, ok, "a list formula is inline or a sheet range: %q", formula)
+	from, to, ok := strings.Cut(strings.ReplaceAll(rng, "$", ""), ":")
+	require.True(t, ok, "a range: %q", formula)
+	c1, r1, err := excelize.CellNameToCoordinates(from)
+	require.NoError(t, err)
+	c2, r2, err := excelize.CellNameToCoordinates(to)
+	require.NoError(t, err)
+	require.Equal(t, c1, c2, "one column")
+	var out []string
+	for r := r1; r <= r2; r++ {
+		cell, _ := excelize.CoordinatesToCellName(c1, r)
+		v, err := f.GetCellValue(strings.Trim(sheet, "'"), cell)
+		require.NoError(t, err)
+		out = append(out, v)
+	}
+	return out
+}
+
 // templateList reads the values of the strict drop-down list of a column
-// from the written template: the list's formula is the values in quotes,
-// separated by commas (ECMA-376 Part 1 §18.3.1.32 dataValidation, formula1).
+// from the written template (see listValues).
 func templateList(t *testing.T, f *excelize.File, sheet, col string) []string {
 	t.Helper()
 	dvs, err := f.GetDataValidations(sheet)
@@ -97,8 +132,7 @@ func templateList(t *testing.T, f *excelize.File, sheet, col string) []string {
 			require.Equal(t, "list", dv.Type)
 			require.NotNil(t, dv.ErrorStyle)
 			require.Equal(t, "stop", *dv.ErrorStyle, "a strict list")
-			formula := strings.Trim(strings.TrimSpace(dv.Formula1), `"`)
-			return strings.Split(formula, ",")
+			return listValues(t, f, dv.Formula1)
 		}
 	}
 	t.Fatalf("no drop-down list for %s.%s", sheet, col)

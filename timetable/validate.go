@@ -86,6 +86,7 @@ func validate(t *Term, lay *layout) Problems {
 	v.checkSections()
 	v.checkEnrolments()
 	v.checkRelations()
+	v.checkTravel()
 	v.checkWeights()
 	v.checkLoads()
 	v.checkFixedTogether()

@@ -12,8 +12,8 @@ func (v *validator) weeklyNeeds(ids func(*Section) []string) map[string]int {
 	perWeek := map[string]*[64]int{}
 	for i := range v.t.Sections {
 		s := &v.t.Sections[i]
-		if s.Meetings < 1 || s.Length < 1 {
-			continue
+		if s.UsesTimes() || s.Meetings < 1 || s.Length < 1 {
+			continue // pattern sections take no grid periods
 		}
 		load := s.Meetings * s.Length
 		for _, id := range ids(s) {
@@ -71,6 +71,8 @@ func (v *validator) checkLoads() {
 		need := staffNeed[st.ID]
 		if have := v.available(v.hardStaff[st.ID], st.MaxPerDay); st.ID != "" && need > have {
 			v.ps.errorf(v.at(st.Src, "Staff ID"), "staff %q must teach %s in some week but is available for only %d (the grid less hard unavailability and the daily limit) — give some sections to other staff or lift an unavailability", st.ID, countNoun(need, "period"), have)
+		} else if st.ID != "" && st.MaxWeekPeriods > 0 && need > st.MaxWeekPeriods {
+			v.ps.errorf(v.at(st.Src, "Max periods per week"), "staff %q must teach %s in some week but Max periods per week is %d — give some sections to other staff or raise the limit (as the contract allows)", st.ID, countNoun(need, "period"), st.MaxWeekPeriods)
 		}
 	}
 	cohortNeed := v.weeklyNeeds(func(s *Section) []string { return uniqueIDs(s.Cohorts) })
@@ -111,6 +113,9 @@ func (v *validator) checkFixedTogether() {
 	byPeriod := make([][]fixedUse, len(v.t.Periods))
 	for i := range v.t.Sections {
 		s := &v.t.Sections[i]
+		if s.UsesTimes() {
+			continue // fixed meetings are for grid sections (refused by checkSections)
+		}
 		for _, f := range s.Fixed {
 			p := v.t.PeriodAt(f.Day, f.Start)
 			if p < 0 {

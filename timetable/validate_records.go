@@ -41,6 +41,8 @@ func (v *validator) checkStaff() {
 		if s.MaxPerDay < 0 || s.MaxConsecutive < 0 {
 			v.ps.errorf(v.at(s.Src, "Max periods per day"), "%sa limit is negative — leave it blank for no limit", subjectPrefix(s.Src, "staff", s.ID))
 		}
+		v.checkWeekLimits(s)
+		v.checkLunch(s.Lunch, s.Src, subjectPrefix(s.Src, "staff", s.ID))
 		if s.ID != "" && !used[s.ID] {
 			v.ps.warnf(v.at(s.Src, "Staff ID"), "%sstaff %q teaches no section — list them in a section's Staff or remove the row", subjectPrefix(s.Src, "staff", s.ID), s.ID)
 		}
@@ -59,6 +61,7 @@ func (v *validator) checkCohorts() {
 		if c.Size < 0 {
 			v.ps.errorf(v.at(c.Src, "Size"), "%ssize %d is negative — give the number of students", subjectPrefix(c.Src, "cohort", c.ID), c.Size)
 		}
+		v.checkLunch(c.Lunch, c.Src, subjectPrefix(c.Src, "cohort", c.ID))
 		if c.ID != "" && !used[c.ID] {
 			v.ps.warnf(v.at(c.Src, "Cohort"), "%scohort %q attends no section — list it in a section's Cohorts or remove the row", subjectPrefix(c.Src, "cohort", c.ID), c.ID)
 		}
@@ -71,6 +74,15 @@ func (v *validator) checkUnavailable() {
 	days := map[int]bool{}
 	for _, p := range v.t.Periods {
 		days[int(p.Day)] = true
+	}
+	patternDays := DaySet(0)
+	for i := range v.t.Sections {
+		for _, c := range v.t.Sections[i].Times {
+			patternDays |= c.Days
+		}
+	}
+	for _, d := range patternDays.List() {
+		days[int(d)] = true
 	}
 	for _, u := range v.t.Unavailable {
 		d := subjectPrefix(u.Src, "unavailability of", u.Who)
@@ -98,9 +110,13 @@ func (v *validator) checkUnavailable() {
 		if !u.Hard && u.Weight < 0 {
 			v.ps.errorf(v.at(u.Src, "Strength"), "%sweight %d is negative — write hard or a weight of 0 or more", d, u.Weight)
 		}
-		if len(v.t.Periods) > 0 && !days[int(u.Day)] {
+		switch {
+		case len(v.t.Periods) > 0 && patternDays == 0 && !days[int(u.Day)]:
 			v.ps.warnf(v.at(u.Src, "Day"), "%sthere are no periods on %s, so this row has no effect — check the day", d, DayName(u.Day))
+		case patternDays != 0 && !days[int(u.Day)]:
+			v.ps.warnf(v.at(u.Src, "Day"), "%sno period and no meeting time is on %s, so this row has no effect — check the day", d, DayName(u.Day))
 		}
+		v.checkWeeks(u.Weeks, u.Src, "Weeks", d, true)
 	}
 }
 
@@ -121,9 +137,10 @@ func kindSheet(k WhoKind) string {
 func (v *validator) buildHard() {
 	v.hardStaff, v.hardCohort = map[string][]bool{}, map[string][]bool{}
 	v.hardRoom, v.hardSection = map[string][]bool{}, map[string][]bool{}
+	all := v.t.AllWeeks()
 	for _, u := range v.t.Unavailable {
-		if !u.Hard {
-			continue
+		if !u.Hard || u.Weeks != 0 && u.Weeks&all != all {
+			continue // rows of some weeks only never make a grid period unavailable every week
 		}
 		var m map[string][]bool
 		switch u.Kind {
@@ -196,7 +213,7 @@ func (v *validator) checkEnrolments() {
 func (v *validator) checkRelations() {
 	for _, r := range v.t.Relations {
 		d := subjectPrefix(r.Src, "relation", r.Kind.String())
-		if r.Kind < SameTime || r.Kind > SameRoom {
+		if r.Kind < SameTime || r.Kind > MaxBlock {
 			v.ps.errorf(v.at(r.Src, "Kind"), "%sthe kind is not a relation — use one of %s", d, quoteList(relationNames()))
 			continue
 		}
@@ -213,10 +230,14 @@ func (v *validator) checkRelations() {
 		if !r.Hard && r.Weight < 0 {
 			v.ps.errorf(v.at(r.Src, "Strength"), "%sweight %d is negative — write hard or a weight of 0 or more", d, r.Weight)
 		}
+		v.checkRelationNumbers(r, d)
 		if r.Kind == SameTime && len(r.Sections) > 1 {
 			a := v.t.Sections[v.sections[r.Sections[0]]]
 			for _, id := range r.Sections[1:] {
 				b := v.t.Sections[v.sections[id]]
+				if a.UsesTimes() || b.UsesTimes() {
+					break // meeting patterns have no grid shape to compare
+				}
 				if a.Meetings != b.Meetings || a.Length != b.Length {
 					v.ps.errorf(v.at(r.Src, "Sections"), "%ssections %q (%d × %d periods) and %q (%d × %d periods) cannot meet at the same time — give them the same meetings per week and periods per meeting", d, a.ID, a.Meetings, a.Length, b.ID, b.Meetings, b.Length)
 					break

@@ -11,6 +11,11 @@ func (v *validator) checkSections() {
 		s := &v.t.Sections[i]
 		d := subjectPrefix(s.Src, "section", s.ID)
 		v.checkSectionRefs(s, d)
+		if s.UsesTimes() {
+			v.checkPatternSection(s, d)
+			continue
+		}
+		v.checkRoomChoices(s, d)
 		if s.Meetings < 1 || s.Length < 1 {
 			v.ps.errorf(v.at(s.Src, "Meetings per week"), "%smeetings per week and periods per meeting must be at least 1 — correct them", d)
 			continue
@@ -104,9 +109,17 @@ func weekText(w WeekSet) string {
 	return strings.Join(parts, ", ")
 }
 
-// allowed reports whether room id is in the section's allowed list (an
-// empty list allows every room).
+// roomAllowed reports whether room id is in the section's room choices, or
+// when it has none in its allowed list (an empty list allows every room).
 func roomAllowed(s *Section, id string) bool {
+	if len(s.RoomChoices) > 0 {
+		for _, c := range s.RoomChoices {
+			if c.Room == id {
+				return true
+			}
+		}
+		return false
+	}
 	if len(s.Rooms) == 0 {
 		return true
 	}
@@ -121,6 +134,8 @@ func roomAllowed(s *Section, id string) bool {
 // suits reports whether room r can hold section s, and if not, why.
 func (v *validator) suits(r *Room, s *Section) (string, bool) {
 	switch {
+	case !roomAllowed(s, r.ID) && len(s.RoomChoices) > 0:
+		return "it is not among the section's room choices", false
 	case !roomAllowed(s, r.ID):
 		return "it is not in the section's Rooms list", false
 	case !r.HasFeatures(s.Needs):
@@ -140,6 +155,9 @@ func (v *validator) fits(r *Room, s *Section) bool {
 func (v *validator) checkSectionRoom(s *Section, d string) {
 	if s.NoRoom || len(v.t.Rooms) == 0 {
 		return // no rooms at all is reported once, by checkRooms
+	}
+	if len(s.RoomChoices) > 0 {
+		return // each choice is checked on its own row (checkRoomChoices)
 	}
 	largest, any := v.largestRoom(s)
 	if !any {

@@ -47,7 +47,7 @@ func dateText(d time.Time) string { return d.Format("2006-01-02") }
 // computes the runs of consecutive periods.
 func (v *validator) checkPeriods() {
 	ps := v.t.Periods
-	if len(ps) == 0 {
+	if len(ps) == 0 && !patternOnly(v.t) {
 		v.ps.errorf(v.sheetPos(shPeriods), "the term has no periods — list the weekly periods (Day, Start, End) on the Periods sheet")
 	}
 	var latest Period // the period of the current day that ends last so far

@@ -38,7 +38,7 @@ func TestProblemsAtCells(t *testing.T) {
 		{"cohort without sections", []cellEdit{e("Cohorts", "A4", "C-3")}, "", Warning, `cohort "C-3" attends no section`},
 
 		// sheets and columns
-		{"missing sheet", []cellEdit{{sheet: "Cohorts", remove: true}}, "Cohorts", Error, `the workbook has no Cohorts sheet — add a sheet named "Cohorts" with the headers "Cohort", "Name" and "Size"`},
+		{"missing sheet", []cellEdit{{sheet: "Cohorts", remove: true}}, "Cohorts", Error, `the workbook has no Cohorts sheet — add a sheet named "Cohorts" with the headers "Cohort", "Name", "Size"`},
 		{"missing column", []cellEdit{e("Rooms", "B1", "Seats")}, "Rooms!1", Error, `the Rooms sheet has no "Capacity" column — add a column headed "Capacity"`},
 		{"unknown column", []cellEdit{e("Rooms", "B1", "Seats")}, "Rooms!B1", Warning, `column "Seats" is not part of the Rooms sheet and is ignored`},
 		{"headers in any case", []cellEdit{e("Rooms", "B1", "  CAPACITY ")}, "", 0, ""},
@@ -60,7 +60,7 @@ func TestProblemsAtCells(t *testing.T) {
 		{"bad weeks", []cellEdit{e("Sections", "K3", "0-3")}, "", Error, `Weeks "0-3" is not a list of teaching weeks`},
 		{"bad fixed text", []cellEdit{e("Sections", "J3", "Tuesday morning")}, "", Error, `Fixed "Tuesday morning" is not a fixed meeting`},
 		{"bad strength", []cellEdit{e("Unavailable", "E3", "soft")}, "", Error, `Strength "soft" is neither hard nor a weight`},
-		{"unknown relation kind", []cellEdit{e("Relations", "A2", "sometimes")}, "", Error, `Kind "sometimes" is not a relation — write one of "same time", "not same time", "different days", "same day", "before", "back to back" and "same room"`},
+		{"unknown relation kind", []cellEdit{e("Relations", "A2", "sometimes")}, "", Error, `Kind "sometimes" is not a relation — choose one from the Kind drop-down list (the 24 kinds are listed in docs/workbook.md, Relations)`},
 		{"relation kind in another case", []cellEdit{e("Relations", "A2", " Not Same TIME ")}, "", 0, ""},
 		{"relation kind spelled off the list", []cellEdit{e("Relations", "A2", "Not-Same  Time")}, "", Error, `Kind "Not-Same  Time" is not a relation`},
 		{"unknown criterion", []cellEdit{e("Weights", "A2", "happiness")}, "", Error, `Criterion "happiness" is not known — write one of "moved meetings", "student clashes"`},

@@ -40,7 +40,10 @@ const wtFixedTime = "2000-01-01T00:00:00Z"
 // ISO text (YYYY-MM-DD), times HH:MM text, lists comma-separated, Weeks
 // "all"/"odd"/"even" or ranges, Strength "hard" or the weight. The optional
 // sheets Enrolments, Unavailable, Relations and Weights are always written
-// (possibly with headers only). The same Term always gives the same bytes.
+// (possibly with headers only); the Meeting times, Room choices and Travel
+// sheets, and the columns of weekly limits, lunch breaks, unavailable weeks
+// and relation numbers, only when the term uses them. The same Term always
+// gives the same bytes.
 // Sources (Src fields) are not written.
 func WriteTermWorkbook(t *Term, w io.Writer) error {
 	f := excelize.NewFile()
@@ -60,7 +63,7 @@ func WriteTermWorkbook(t *Term, w io.Writer) error {
 	if err != nil {
 		return fmt.Errorf("write term workbook: %w", err)
 	}
-	for i, tb := range wtTables(t) {
+	for i, tb := range wtTables(t, false) {
 		if i == 0 {
 			if err := f.SetSheetName("Sheet1", tb.name); err != nil {
 				return fmt.Errorf("write term workbook: sheet %s: %w", tb.name, err)
@@ -125,11 +128,19 @@ func wtWriteSheet(f *excelize.File, tb wtTable, headerStyle int) error {
 // written to a temporary file in dir and renamed into place, replacing a file
 // of the same name: callers that must not overwrite check first (see
 // TermCSVFiles).
-func WriteTermCSV(t *Term, dir string) error {
+func WriteTermCSV(t *Term, dir string) error { return writeTermCSV(t, dir, false) }
+
+// WriteTemplateCSV writes the CSV-folder form of an empty term into dir:
+// every file of TermCSVFiles with every column of docs/workbook.md in its
+// header (the Term file with its Name and Time zone rows), as
+// WriteTermCSV writes them.
+func WriteTemplateCSV(dir string) error { return writeTermCSV(&Term{}, dir, true) }
+
+func writeTermCSV(t *Term, dir string, full bool) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return fmt.Errorf("write term CSV: %w", err)
 	}
-	for _, tb := range wtTables(t) {
+	for _, tb := range wtTables(t, full) {
 		var buf bytes.Buffer
 		cw := csv.NewWriter(&buf)
 		rec := make([]string, len(tb.header))
@@ -151,7 +162,9 @@ func WriteTermCSV(t *Term, dir string) error {
 	return nil
 }
 
-// TermCSVFiles lists the file names WriteTermCSV writes, in sheet order.
+// TermCSVFiles lists the file names WriteTermCSV may write, in sheet order
+// (the files of meeting times, room choices and travel only when the term
+// has such rows).
 func TermCSVFiles() []string {
 	names := make([]string, len(wtSheetNames))
 	for i, n := range wtSheetNames {
@@ -161,7 +174,7 @@ func TermCSVFiles() []string {
 }
 
 // wtSheetNames are the sheets of docs/workbook.md in writing order.
-var wtSheetNames = []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights"}
+var wtSheetNames = []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights", shTimes, shRoomChoices, shTravel}
 
 func wtWriteFileAtomic(path string, data []byte) error {
 	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
@@ -191,20 +204,53 @@ func wtText(v any) string {
 	return fmt.Sprint(v)
 }
 
-// wtTables renders every sheet of t in workbook order.
-func wtTables(t *Term) []wtTable {
-	return []wtTable{
+// wtTables renders every sheet of t in workbook order. Unless full, the
+// columns and sheets that meeting patterns brought are left out when the
+// term does not use them, so that a grid term gives the same bytes as
+// before they existed.
+func wtTables(t *Term, full bool) []wtTable {
+	tabs := []wtTable{
 		wtTermTable(t),
 		wtPeriodsTable(t),
 		wtRoomsTable(t),
-		wtStaffTable(t),
-		wtCohortsTable(t),
+		wtStaffTable(t, full),
+		wtCohortsTable(t, full),
 		wtSectionsTable(t),
 		wtEnrolmentsTable(t),
-		wtUnavailableTable(t),
-		wtRelationsTable(t),
+		wtUnavailableTable(t, full),
+		wtRelationsTable(t, full),
 		wtWeightsTable(t),
 	}
+	for _, tb := range []wtTable{wtTimesTable(t), wtRoomChoicesTable(t), wtTravelTable(t)} {
+		if full || len(tb.rows) > 0 {
+			tabs = append(tabs, tb)
+		}
+	}
+	return tabs
+}
+
+// dropColumns removes the named columns from a table unless keep.
+func (tb wtTable) dropColumns(keep bool, names ...string) wtTable {
+	if keep {
+		return tb
+	}
+	var idx []int
+	var header []string
+	for i, h := range tb.header {
+		if !listHas(names, h) {
+			idx = append(idx, i)
+			header = append(header, h)
+		}
+	}
+	out := wtTable{name: tb.name, header: header}
+	for _, r := range tb.rows {
+		row := make([]any, len(idx))
+		for j, i := range idx {
+			row[j] = r[i]
+		}
+		out.rows = append(out.rows, row)
+	}
+	return out
 }
 
 func wtTermTable(t *Term) wtTable {
@@ -245,12 +291,27 @@ func wtRoomsTable(t *Term) wtTable {
 	return tb
 }
 
-func wtStaffTable(t *Term) wtTable {
-	tb := wtTable{name: "Staff", header: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods"}}
+func wtStaffTable(t *Term, full bool) wtTable {
+	tb := wtTable{name: "Staff", header: []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods",
+		"Max periods per week", "Max minutes per week", "Max days per week", "Lunch from", "Lunch to", "Lunch minutes"}}
+	weekly, lunch := full, full
 	for _, s := range t.Staff {
-		tb.rows = append(tb.rows, []any{s.ID, s.Name, s.Email, wtLimit(s.MaxPerDay), wtLimit(s.MaxConsecutive)})
+		weekly = weekly || s.MaxWeekPeriods > 0 || s.MaxWeekMinutes > 0 || s.MaxWeekDays > 0
+		lunch = lunch || s.Lunch.Set()
+		row := []any{s.ID, s.Name, s.Email, wtLimit(s.MaxPerDay), wtLimit(s.MaxConsecutive),
+			wtLimit(s.MaxWeekPeriods), wtLimit(s.MaxWeekMinutes), wtLimit(s.MaxWeekDays)}
+		tb.rows = append(tb.rows, append(row, wtLunch(s.Lunch)...))
 	}
-	return tb
+	return tb.dropColumns(weekly, "Max periods per week", "Max minutes per week", "Max days per week").
+		dropColumns(lunch, "Lunch from", "Lunch to", "Lunch minutes")
+}
+
+// wtLunch writes a lunch break's three cells, blank when none is given.
+func wtLunch(l LunchBreak) []any {
+	if !l.Set() {
+		return []any{"", "", ""}
+	}
+	return []any{l.From.String(), l.To.String(), l.Minutes}
 }
 
 // wtLimit writes an optional limit: blank when 0 ("no limit").
@@ -261,12 +322,14 @@ func wtLimit(n int) any {
 	return n
 }
 
-func wtCohortsTable(t *Term) wtTable {
-	tb := wtTable{name: "Cohorts", header: []string{"Cohort", "Name", "Size"}}
+func wtCohortsTable(t *Term, full bool) wtTable {
+	tb := wtTable{name: "Cohorts", header: []string{"Cohort", "Name", "Size", "Lunch from", "Lunch to", "Lunch minutes"}}
+	lunch := full
 	for _, c := range t.Cohorts {
-		tb.rows = append(tb.rows, []any{c.ID, c.Name, wtLimit(c.Size)})
+		lunch = lunch || c.Lunch.Set()
+		tb.rows = append(tb.rows, append([]any{c.ID, c.Name, wtLimit(c.Size)}, wtLunch(c.Lunch)...))
 	}
-	return tb
+	return tb.dropColumns(lunch, "Lunch from", "Lunch to", "Lunch minutes")
 }
 
 // NoRoomText is how the workbook writer marks a section that takes no room
@@ -289,8 +352,12 @@ func wtSectionsTable(t *Term) wtTable {
 		if s.SameDay {
 			minDays = s.MinDays // any number, even 0, marks SameDay
 		}
+		var meetings, length any = s.Meetings, s.Length
+		if s.UsesTimes() {
+			meetings, length = "", "" // the Meeting times sheet gives them
+		}
 		tb.rows = append(tb.rows, []any{s.ID, s.Title, wtList(s.Staff), wtList(s.Cohorts), s.Size,
-			s.Meetings, s.Length, wtList(s.Needs), rooms, strings.Join(fixed, "; "), t.WeeksText(s.Weeks), minDays})
+			meetings, length, wtList(s.Needs), rooms, strings.Join(fixed, "; "), t.WeeksText(s.Weeks), minDays})
 	}
 	return tb
 }
@@ -303,16 +370,18 @@ func wtEnrolmentsTable(t *Term) wtTable {
 	return tb
 }
 
-func wtUnavailableTable(t *Term) wtTable {
-	tb := wtTable{name: "Unavailable", header: []string{"Who", "Day", "From", "To", "Strength", "Reason"}}
+func wtUnavailableTable(t *Term, full bool) wtTable {
+	tb := wtTable{name: "Unavailable", header: []string{"Who", "Day", "From", "To", "Strength", "Reason", "Weeks"}}
+	weeks := full
 	for _, u := range t.Unavailable {
 		from, to := u.From.String(), u.To.String()
 		if u.From == 0 && u.To == 24*60 {
 			from, to = "", "" // blank From/To means the whole day
 		}
-		tb.rows = append(tb.rows, []any{u.Who, DayName(u.Day), from, to, wtStrength(u.Hard, u.Weight), u.Reason})
+		weeks = weeks || u.Weeks != 0
+		tb.rows = append(tb.rows, []any{u.Who, DayName(u.Day), from, to, wtStrength(u.Hard, u.Weight), u.Reason, t.WeeksText(u.Weeks)})
 	}
-	return tb
+	return tb.dropColumns(weeks, "Weeks")
 }
 
 func wtStrength(hard bool, weight int) any {
@@ -322,12 +391,61 @@ func wtStrength(hard bool, weight int) any {
 	return weight
 }
 
-func wtRelationsTable(t *Term) wtTable {
-	tb := wtTable{name: "Relations", header: []string{"Kind", "Sections", "Strength"}}
+func wtRelationsTable(t *Term, full bool) wtTable {
+	tb := wtTable{name: "Relations", header: []string{"Kind", "Sections", "Strength", "N", "M"}}
+	numbers := full
 	for _, r := range t.Relations {
-		tb.rows = append(tb.rows, []any{r.Kind.String(), wtList(r.Sections), wtStrength(r.Hard, r.Weight)})
+		var n, m any = "", ""
+		if r.Kind.Params() > 0 || r.N != 0 {
+			n = r.N
+		}
+		if r.Kind.Params() > 1 || r.M != 0 {
+			m = r.M
+		}
+		numbers = numbers || n != "" || m != ""
+		tb.rows = append(tb.rows, []any{r.Kind.String(), wtList(r.Sections), wtStrength(r.Hard, r.Weight), n, m})
+	}
+	return tb.dropColumns(numbers, "N", "M")
+}
+
+func wtTimesTable(t *Term) wtTable {
+	tb := wtTable{name: shTimes, header: []string{"Section", "Days", "Start", "Minutes", "Weeks", "Weight"}}
+	for _, s := range t.Sections {
+		for _, c := range s.Times {
+			weeks := t.WeeksText(c.Weeks)
+			if c.Weeks == s.Weeks {
+				weeks = "" // blank means the section's weeks
+			}
+			tb.rows = append(tb.rows, []any{s.ID, c.Days.String(), c.Start.String(), c.Minutes, weeks, wtWeight(c.Weight)})
+		}
 	}
 	return tb
+}
+
+func wtRoomChoicesTable(t *Term) wtTable {
+	tb := wtTable{name: shRoomChoices, header: []string{"Section", "Room", "Weight"}}
+	for _, s := range t.Sections {
+		for _, c := range s.RoomChoices {
+			tb.rows = append(tb.rows, []any{s.ID, c.Room, wtWeight(c.Weight)})
+		}
+	}
+	return tb
+}
+
+func wtTravelTable(t *Term) wtTable {
+	tb := wtTable{name: shTravel, header: []string{"From", "To", "Minutes"}}
+	for _, tr := range t.Travel {
+		tb.rows = append(tb.rows, []any{tr.From, tr.To, tr.Minutes})
+	}
+	return tb
+}
+
+// wtWeight writes a preference weight: blank when 0 (fully acceptable).
+func wtWeight(w int) any {
+	if w == 0 {
+		return ""
+	}
+	return w
 }
 
 func wtWeightsTable(t *Term) wtTable {

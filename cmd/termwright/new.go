@@ -107,7 +107,7 @@ func runNewCSV(e *env, o *newOptions, dir string) error {
 	if err := probeFolder(dir); err != nil {
 		return err
 	}
-	if err := timetable.WriteTermCSV(&timetable.Term{}, dir); err != nil {
+	if err := timetable.WriteTemplateCSV(dir); err != nil {
 		return failf(exitError, "cannot write the CSV files into %s: %w", dir, err)
 	}
 	if _, err := writeOutput(filepath.Join(dir, newNotesFile), true, func(w io.Writer) error { return writeNewNotes(w) }); err != nil {
