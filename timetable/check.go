@@ -13,7 +13,8 @@ type Violation struct {
 	// itself", "capacity", "features", "room not allowed", "unavailable",
 	// "fixed meeting", "meetings per week", "meeting length", "same day",
 	// "max per day", "max consecutive", "relation", "unknown section",
-	// "unknown room", "no room", "outside grid".
+	// "unknown room", "no room", "outside grid", "meeting time", "travel
+	// time", "weekly limit", "lunch break".
 	Rule string
 	// Msg says in plain words who and what is involved, e.g. "Timetable rows
 	// 12 and 15: staff Dr Ana Petrović (S-017) teaches BIO-101 and CHE-210
@@ -56,28 +57,45 @@ const (
 // result is empty.
 //
 // Hard requirements checked:
-//   - every section has exactly Meetings placements, numbered 1..Meetings
-//     without repeats, and every placement names a known section;
-//   - every meeting starts at a period of the grid and fits in one run of
-//     consecutive periods (Term.Span);
+//   - every grid section has exactly Meetings placements, numbered
+//     1..Meetings without repeats, every pattern section exactly one
+//     (Meeting 1, Period -1, Time naming one of its Times), grid placements
+//     name no Time, and every placement names a known section;
+//   - every grid meeting starts at a period of the grid and fits in one run
+//     of consecutive periods (Term.Span);
 //   - no staff member, cohort or room is in two meetings of different
 //     sections occupying a common period when those sections' week sets
-//     overlap; a section's own meetings never overlap each other;
+//     overlap; a section's own meetings never overlap each other; where a
+//     pattern placement is involved, two Occurrences of different sections
+//     never overlap (a common minute of a common day in a common week; grid
+//     meetings take their section's weeks);
 //   - sections that take a room have a known room, allowed by the section's
-//     room list, with every needed feature and (unless Term.SoftCapacity)
-//     enough seats; no-room sections have no room;
-//   - no meeting occupies a period covered by a hard Unavailable row of its
-//     staff, cohorts, room or section;
+//     RoomChoices when given (the exact list) or else its room list, with
+//     every needed feature and (unless Term.SoftCapacity) enough seats;
+//     no-room sections have no room;
+//   - no meeting overlaps a hard Unavailable row of its staff, cohorts, room
+//     or section (grid meetings by period, pattern meetings by minute; a row
+//     with Weeks only in those weeks);
 //   - every Fixed entry is matched by its own meeting at that day and start
-//     (and room when given);
+//     (and room when given); for a pattern section, by a day of its chosen
+//     meeting time;
 //   - meetings of a section fall on different days unless SameDay;
 //   - staff MaxPerDay (busy periods per day) and MaxConsecutive (longest run
-//     of busy consecutive periods), counting periods whatever the weeks;
+//     of busy consecutive periods), counting grid periods whatever the weeks;
+//   - staff MaxWeekPeriods (busy grid periods), MaxWeekMinutes (busy minutes
+//     of every meeting) and MaxWeekDays in each teaching week;
+//   - Term.Travel: no staff member or cohort has two meetings on a common
+//     day in a common week with less free time between them than the travel
+//     time between their rooms;
+//   - lunch breaks of staff and cohorts: on each day and week they have a
+//     meeting, the window holds a free run of the break's minutes;
 //   - every hard relation holds as defined in term.go.
 //
 // A zero Section.Weeks is read as every week. The result is sorted: hard
 // first, then by first placement, rule and message. Cost is
-// O(P + Σ placements·log + clashes + Σ students·k²) for k sections per student.
+// O(P + Σ placements·log + clashes + Σ students·k²) for k sections per
+// student, plus for pattern terms O(weeks · meetings) for the weekly rules
+// and the pair work of each relation.
 func Check(t *Term, s *Schedule) []Violation {
 	if s == nil {
 		s = &Schedule{}
@@ -88,9 +106,13 @@ func Check(t *Term, s *Schedule) []Violation {
 	c.sameDay()
 	c.fixed()
 	c.clashes()
+	c.patternClashes()
+	c.travel()
 	c.students()
 	c.unavailable()
 	c.staffLimits()
+	c.weeklyLimits()
+	c.lunch()
 	c.relations()
 	sortViolations(c.out)
 	return c.out

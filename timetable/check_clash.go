@@ -89,8 +89,10 @@ type chkStudentPair struct{ a, b int }
 // chkClashPair is a pair of sections that share students, have overlapping
 // week sets and occupy common periods.
 type chkClashPair struct {
-	common   int   // periods both sections occupy
-	students []int // index of the first enrolment of each shared student
+	common   int    // periods both sections occupy; 1 for a pair with a pattern section
+	students []int  // index of the first enrolment of each shared student
+	at       string // for a pair with a pattern section: their first common time
+	pls      []int  // for a pair with a pattern section: the placements meeting together
 }
 
 // studentClashes finds every pair of distinct known sections with
@@ -134,13 +136,21 @@ func (x *occupancy) studentClashes() map[chkStudentPair]*chkClashPair {
 				if sa > sb {
 					sa, sb, ea = sb, sa, first[b]
 				}
-				n := sets[sa].commonCount(sets[sb])
-				if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
-					continue
-				}
 				k := chkStudentPair{sa, sb}
 				cp := out[k]
+				if cp == nil && (x.t.Sections[sa].UsesTimes() || x.t.Sections[sb].UsesTimes()) {
+					if at, pls := x.meetTogether(sa, sb); at != "" {
+						cp = &chkClashPair{common: 1, at: at, pls: pls}
+						out[k] = cp
+					} else {
+						continue
+					}
+				}
 				if cp == nil {
+					n := sets[sa].commonCount(sets[sb])
+					if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
+						continue
+					}
 					cp = &chkClashPair{common: n}
 					out[k] = cp
 				}
@@ -167,6 +177,17 @@ func (c *checker) students() {
 		return keys[i].b < keys[j].b
 	})
 	for _, k := range keys {
+		if cp := pairs[k]; cp.at != "" {
+			srcs := []Source{x.t.Sections[k.a].Src, x.t.Sections[k.b].Src}
+			var names []string
+			for _, ei := range cp.students {
+				names = append(names, x.t.Enrolments[ei].Student)
+				srcs = append(srcs, x.t.Enrolments[ei].Src)
+			}
+			c.add(RuleStudentClash, false, cp.pls, srcs, chkStudentsText(names)+" enrolled in both "+
+				x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+", which meet together at "+cp.at)
+			continue
+		}
 		sa, sb := x.sectionPeriods(k.a), x.sectionPeriods(k.b)
 		common := x.newPeriodSet()
 		for w := range common {
@@ -189,6 +210,29 @@ func (c *checker) students() {
 		c.add(RuleStudentClash, false, pls, srcs, chkStudentsText(names)+" enrolled in both "+
 			x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+", which meet together at "+chkTimes(x.t, common.members()))
 	}
+}
+
+// meetTogether names the first time (in week order) at which sections a
+// and b share a minute of a common day in a common week, and the
+// placements that meet together; "" when they never do.
+func (x *occupancy) meetTogether(a, b int) (string, []int) {
+	var at string
+	var pls []int
+	bestKey := -1
+	for _, m := range x.sectionMeets(a) {
+		for _, n := range x.sectionMeets(b) {
+			if !m.Overlaps(n.Occurrence) {
+				continue
+			}
+			pls = append(pls, m.pl, n.pl)
+			start := max(m.Start, n.Start)
+			if key := dayRank(m.Day)*24*60 + int(start); bestKey < 0 || key < bestKey {
+				bestKey = key
+				at = DayName(m.Day) + " " + start.String() + "–" + min(m.End, n.End).String() + chkInWeeks(x.t, m.Weeks&n.Weeks)
+			}
+		}
+	}
+	return at, pls
 }
 
 // chkRangeMeets reports whether any period first..last is in s.

@@ -48,13 +48,22 @@ func (c *checker) unavailable() {
 		if !ok {
 			continue
 		}
-		when := chkUnavailText(u)
-		for _, i := range pls {
-			hit := x.coveredPeriods(u, i)
-			if len(hit) == 0 {
-				continue
+		when := chkUnavailText(x.t, u)
+		for _, i := range append(append([]int(nil), pls...), x.patternInvolved(u)...) {
+			var at string
+			if x.pl[i].pat {
+				hit := unavailMeets(x, u, i)
+				if len(hit) == 0 {
+					continue
+				}
+				at = meetsText(hit)
+			} else {
+				hit := x.coveredPeriods(u, i)
+				if len(hit) == 0 || x.unavailWeeksMiss(u, i) {
+					continue
+				}
+				at = chkTimes(x.t, hit)
 			}
-			at := chkTimes(x.t, hit)
 			var msg string
 			switch u.Kind {
 			case WhoStaff:

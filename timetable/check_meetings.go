@@ -20,6 +20,14 @@ func (c *checker) placements() {
 		}
 		sec := &t.Sections[op.sec]
 		switch {
+		case op.pat:
+			c.patternPlacement(i, sec)
+		case p.Time != 0:
+			c.add(RuleTimeChoice, true, []int{i}, []Source{sec.Src},
+				x.meetingLabel(i)+" names meeting time "+itoa(p.Time)+", but "+sec.ID+" meets on the period grid; leave its time choice blank")
+		}
+		switch {
+		case op.pat:
 		case p.Period < 0 || p.Period >= len(t.Periods):
 			c.add(RuleOutsideGrid, true, []int{i}, []Source{sec.Src},
 				x.meetingLabel(i)+" starts at a time that is not in the Periods sheet")
@@ -55,7 +63,17 @@ func (c *checker) roomOf(i int, sec *Section) {
 	}
 	room := &x.t.Rooms[ri]
 	srcs := []Source{sec.Src, room.Src}
-	if len(sec.Rooms) > 0 && !slices.Contains(sec.Rooms, room.ID) {
+	if len(sec.RoomChoices) > 0 {
+		if _, ok := roomChoiceOf(sec, room.ID); !ok {
+			var ids []string
+			for _, rc := range sec.RoomChoices {
+				ids = append(ids, rc.Room)
+				srcs = append(srcs, rc.Src)
+			}
+			c.add(RuleRoomNotAllowed, true, []int{i}, srcs,
+				x.meetingLabel(i)+" is in "+room.ID+" but the section may use only "+chkJoin(ids))
+		}
+	} else if len(sec.Rooms) > 0 && !slices.Contains(sec.Rooms, room.ID) {
 		c.add(RuleRoomNotAllowed, true, []int{i}, srcs,
 			x.meetingLabel(i)+" is in "+room.ID+" but the section may use only "+chkJoin(sec.Rooms))
 	}
@@ -95,8 +113,12 @@ func (c *checker) meetingCounts() {
 	for si := range x.t.Sections {
 		sec := &x.t.Sections[si]
 		want := sec.Meetings
-		if want < 1 {
+		if want < 1 || sec.UsesTimes() {
 			want = 1
+		}
+		how := chkTimesAWeek(want)
+		if sec.UsesTimes() {
+			how = "at one of its meeting times (one placement)"
 		}
 		byNum := map[int][]int{}
 		for _, i := range x.bySection[si] {
@@ -113,7 +135,7 @@ func (c *checker) meetingCounts() {
 			switch {
 			case n < 1 || n > want:
 				c.add(RuleMeetings, true, pls, []Source{sec.Src},
-					sec.ID+" has a meeting numbered "+itoa(n)+" but meets "+chkTimesAWeek(want)+"; number meetings 1 to "+itoa(want))
+					sec.ID+" has a meeting numbered "+itoa(n)+" but meets "+how+"; number meetings 1 to "+itoa(want))
 			case len(pls) > 1:
 				c.add(RuleMeetings, true, pls, []Source{sec.Src},
 					sec.ID+" meeting "+itoa(n)+" appears "+itoa(len(pls))+" times; keep one")
@@ -131,7 +153,7 @@ func (c *checker) meetingCounts() {
 				what = "meetings " + chkJoin(missing) + " are"
 			}
 			c.add(RuleMeetings, true, nil, []Source{sec.Src},
-				sec.ID+" meets "+chkTimesAWeek(want)+" but "+what+" not in the timetable")
+				sec.ID+" meets "+how+" but "+what+" not in the timetable")
 		}
 	}
 }
@@ -190,6 +212,10 @@ func (c *checker) fixed() {
 	for si := range t.Sections {
 		sec := &t.Sections[si]
 		if len(sec.Fixed) == 0 {
+			continue
+		}
+		if sec.UsesTimes() {
+			c.fixedPattern(si)
 			continue
 		}
 		pls := x.sectionOK(si)

@@ -13,7 +13,7 @@ func (c *checker) relations() {
 		if !r.Hard {
 			continue
 		}
-		reason, pls := x.relationBroken(r)
+		reason, pls, _ := x.relationJudge(r)
 		if reason == "" {
 			continue
 		}

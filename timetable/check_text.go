@@ -128,12 +128,15 @@ func (x *occupancy) meetingLabel(i int) string {
 
 // unavailText names the time of an Unavailable row: "Tue 09:00–12:00" or
 // "all day Tue", with its reason in brackets when given.
-func chkUnavailText(u Unavailability) string {
+func chkUnavailText(t *Term, u Unavailability) string {
 	var s string
 	if u.From <= 0 && u.To >= 24*60 {
 		s = "all day " + DayName(u.Day)
 	} else {
 		s = DayName(u.Day) + " " + u.From.String() + "–" + u.To.String()
+	}
+	if u.Weeks != 0 {
+		s += chkInWeeks(t, u.Weeks)
 	}
 	if u.Reason != "" {
 		s += " [" + u.Reason + "]"

@@ -61,10 +61,12 @@ func (r CostReport) Criterion(name string) CriterionCost {
 
 // Cost evaluates every soft criterion of criteria.go on schedule s of term
 // t, independently of the encoder; kept is the earlier timetable for
-// "moved meetings" and nil otherwise. Time-based criteria use only
-// placements of known sections that fit the grid; room-based ones use
-// placements whose room is known. Week sets are ignored except by "student
-// clashes", whose definition names them. Readings of the definitions:
+// "moved meetings" and nil otherwise. Period-based criteria use only grid
+// placements of known sections that fit the grid (pattern meetings occupy
+// no periods); room-based ones use placements whose room is known. Week
+// sets are ignored except where a definition names them ("student
+// clashes", "avoid times" rows with weeks, the counted relations).
+// Readings of the definitions:
 //   - "avoid times": Count is the number of (row, meeting, period) hits;
 //     each hit costs the row's weight times the criterion weight.
 //   - "moved meetings": a kept meeting of a section of t counts unless a
@@ -80,6 +82,9 @@ func (r CostReport) Criterion(name string) CriterionCost {
 //     buildings differ.
 //   - "early periods"/"late periods": a meeting counts when it occupies the
 //     first/last period of its day in the grid.
+//   - "time choice"/"room choice": Count is the sum of the chosen weights.
+//   - "soft relations": Count is the broken rows, each counted kind adding
+//     its count instead of 1.
 //
 // Cost runs in O(P·(staff+cohorts) + placements + Σ students·k²).
 func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
@@ -94,6 +99,7 @@ func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
 	c.sections()
 	c.travel()
 	c.softRelations()
+	c.choices()
 	return c.finish()
 }
 
@@ -169,8 +175,8 @@ func (c *coster) softRelations() {
 		if r.Hard {
 			continue
 		}
-		if why, _ := c.x.relationBroken(r); why != "" {
-			c.add(CritSoftRelations, 1, int64(r.Weight), 0, "")
+		if why, _, n := c.x.relationJudge(r); why != "" {
+			c.add(CritSoftRelations, n, n*int64(r.Weight), 0, "")
 		}
 	}
 }
@@ -188,7 +194,14 @@ func (c *coster) avoidTimes() {
 			continue
 		}
 		for _, i := range pls {
+			if x.unavailWeeksMiss(u, i) {
+				continue
+			}
 			n := int64(len(x.coveredPeriods(u, i)))
+			c.add(CritAvoidTimes, n, n*int64(u.Weight), u.Kind, u.Who)
+		}
+		for _, i := range x.patternInvolved(u) {
+			n := int64(len(unavailMeets(x, u, i)))
 			c.add(CritAvoidTimes, n, n*int64(u.Weight), u.Kind, u.Who)
 		}
 	}

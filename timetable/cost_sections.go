@@ -62,11 +62,12 @@ func (c *coster) moved(kept *Schedule) {
 	x := c.x
 	type slot struct {
 		period int
+		time   int // meeting time of a pattern section; 0 on the grid
 		room   string
 	}
 	old := map[string][]slot{}
 	for _, p := range kept.Placements {
-		old[p.Section] = append(old[p.Section], slot{p.Period, p.Room})
+		old[p.Section] = append(old[p.Section], slot{p.Period, p.Time, p.Room})
 	}
 	for si, sec := range x.t.Sections {
 		prev := old[sec.ID]
@@ -76,7 +77,7 @@ func (c *coster) moved(kept *Schedule) {
 		free := map[slot]int{}
 		for _, i := range x.bySection[si] {
 			p := x.s.Placements[i]
-			free[slot{p.Period, p.Room}]++
+			free[slot{p.Period, p.Time, p.Room}]++
 		}
 		var n int64
 		for _, k := range prev {

@@ -48,6 +48,8 @@ func TestCostOfTheFixture(t *testing.T) {
 		// last period of a day (p4, p9, p14): ART-120 at p9 → 1; weight 0.
 		CritLate:          {1, 0},
 		CritSoftRelations: {0, 0},
+		CritTimeChoice:    {0, 0}, // no section uses meeting patterns
+		CritRoomChoice:    {0, 0}, // no section has room choices
 	}
 	require.Len(t, r.Criteria, len(Criteria))
 	for i, c := range r.Criteria {

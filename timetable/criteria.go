@@ -39,23 +39,23 @@ const (
 // x (a staff member, cohort, room or student through their sections) occupies
 // period p; "day" means the periods of one weekday in grid order.
 var Criteria = []Criterion{
-	{CritMoved, 1, 3, "per meeting of the kept timetable (--keep) that no meeting of its section holds any more at its day, start time and room (meetings a section no longer has count too)"},
-	{CritStudentClash, 1, 2, "per student, per pair of that student's enrolled sections whose week sets overlap, per period both occupy"},
-	{CritAvoidTimes, 1, 1, "for each soft Unavailable row (weight w), w per occupied period of a meeting involving its staff/room/cohort/section that overlaps the row's time; the criterion weight multiplies w"},
-	{CritStaffGaps, 1, 1, "per staff member and day, number of periods not busy that lie between their first and last busy period of that day"},
-	{CritStaffDays, 0, 1, "per staff member, number of days with at least one busy period"},
-	{CritCohortGaps, 1, 1, "per cohort and day, number of periods not busy between its first and last busy period of that day"},
-	{CritCohortIsolated, 1, 1, "per cohort, per busy period p where neither the period right before p nor right after p (consecutive, same day) is busy for that cohort"},
+	{CritMoved, 1, 3, "per meeting of the kept timetable (--keep) that no meeting of its section holds any more at its day, start time and room (for a pattern section: its meeting time and room; meetings a section no longer has count too)"},
+	{CritStudentClash, 1, 2, "per student, per pair of that student's enrolled sections whose week sets overlap, per period both occupy; when either section uses meeting patterns, 1 per student for the pair when some meetings of the two share a minute of a common day in a common week"},
+	{CritAvoidTimes, 1, 1, "for each soft Unavailable row (weight w), w per occupied period of a grid meeting involving its staff/room/cohort/section that overlaps the row's time, and w per day of a chosen meeting pattern involving them that overlaps it; a row naming weeks counts only meetings in a common week; the criterion weight multiplies w"},
+	{CritStaffGaps, 1, 1, "per staff member and day, number of periods not busy that lie between their first and last busy period of that day (grid meetings only: pattern meetings occupy no periods)"},
+	{CritStaffDays, 0, 1, "per staff member, number of days with at least one busy period (grid meetings only)"},
+	{CritCohortGaps, 1, 1, "per cohort and day, number of periods not busy between its first and last busy period of that day (grid meetings only)"},
+	{CritCohortIsolated, 1, 1, "per cohort, per busy period p where neither the period right before p nor right after p (consecutive, same day) is busy for that cohort (grid meetings only)"},
 	{CritSpreadDays, 5, 1, "per section with SameDay and MinDays > 0: MinDays minus the number of distinct days its meetings use, when positive"},
 	{CritRoomStability, 1, 1, "per section that takes rooms: number of distinct rooms used by its meetings minus 1"},
-	{CritOverCapacity, 1, 1, "only when SoftCapacity: per meeting, students over the room's capacity (Size - Capacity when positive)"},
-	{CritWastedSeats, 0, 0, "per meeting, empty seats (Capacity - Size when positive)"},
-	{CritTravel, 1, 1, "per staff member or cohort, per pair of their meetings in consecutive periods of one day held in rooms of different non-empty buildings"},
-	{CritEarly, 0, 0, "per meeting that occupies the first period of its day"},
-	{CritLate, 0, 0, "per meeting that occupies the last period of its day"},
-	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken (for the counted kinds at most days, at most minutes a day, at most breaks and longest block: w times the count the kind defines); the criterion weight multiplies w"},
+	{CritOverCapacity, 1, 1, "only when SoftCapacity: per meeting (a pattern section's one placement counts once), students over the room's capacity (Size - Capacity when positive)"},
+	{CritWastedSeats, 0, 0, "per meeting (a pattern section's one placement counts once), empty seats (Capacity - Size when positive)"},
+	{CritTravel, 1, 1, "per staff member or cohort, per pair of their meetings in consecutive periods of one day held in rooms of different non-empty buildings (grid meetings only; the travel times between rooms are a hard rule for every meeting)"},
+	{CritEarly, 0, 0, "per grid meeting that occupies the first period of its day"},
+	{CritLate, 0, 0, "per grid meeting that occupies the last period of its day"},
+	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken, once however many pairs break it (for the counted kinds at most days, at most minutes a day, at most breaks and longest block: w times the count the kind defines); the criterion weight multiplies w"},
 	{CritTimeChoice, 1, 1, "per pattern section, the Weight of its chosen meeting time; the criterion weight multiplies it"},
-	{CritRoomChoice, 1, 1, "per meeting of a section with room choices, the Weight of its room; the criterion weight multiplies it"},
+	{CritRoomChoice, 1, 1, "per meeting of a section with room choices (a pattern section's one placement counts once), the Weight of its room; the criterion weight multiplies it"},
 }
 
 // CriterionWeight returns the weight and level of criterion name for term t:

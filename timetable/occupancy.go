@@ -22,6 +22,17 @@ type occupancy struct {
 	byCohort  [][]int // cohort index -> valid placements of sections they attend
 	byRoom    [][]int // room index -> valid placements held in that room
 
+	// Pattern placements (valid ones only), kept apart so that every
+	// period-based rule and criterion sees grid meetings alone.
+	patStaff  [][]int
+	patCohort [][]int
+	patRoom   [][]int
+	meets     []occMeet    // occurrences of every valid placement, grid and pattern
+	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
+	hasPat    bool         // some valid placement is a pattern placement
+	travelIdx *travelIndex // built on first use
+	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
+
 	dayFirst []int // period index -> index of the first period of its day
 	dayLast  []int // period index -> index of the last period of its day
 	words    int   // uint64 words in a period bitset
@@ -34,7 +45,25 @@ type occPlacement struct {
 	ok    bool // section known and the meeting lies inside one run of periods
 	first int  // first occupied period (valid when ok)
 	last  int  // last occupied period (valid when ok); occupied = first..last
+	pat   bool // the section uses meeting patterns
+	pok   bool // pattern section and Time names one of its choices
+	m0    int  // meets[m0:m1] are the occurrences of a valid (ok or pok) placement
+	m1    int
 }
+
+// occMeet is one occurrence of placement pl (a grid meeting, or one day of
+// a chosen pattern); grid meetings take their section's weeks, a zero set
+// read as every week.
+type occMeet struct {
+	Occurrence
+	pl int
+}
+
+// valid reports whether placement i is a valid grid or pattern placement.
+func (x *occupancy) valid(i int) bool { return x.pl[i].ok || x.pl[i].pok }
+
+// meetsOf lists the occurrences of placement i (none when invalid).
+func (x *occupancy) meetsOf(i int) []occMeet { return x.meets[x.pl[i].m0:x.pl[i].m1] }
 
 // newOccupancy indexes schedule s against term t.
 func newOccupancy(t *Term, s *Schedule) *occupancy {
@@ -53,6 +82,10 @@ func newOccupancy(t *Term, s *Schedule) *occupancy {
 	x.byStaff = make([][]int, len(t.Staff))
 	x.byCohort = make([][]int, len(t.Cohorts))
 	x.byRoom = make([][]int, len(t.Rooms))
+	x.patStaff = make([][]int, len(t.Staff))
+	x.patCohort = make([][]int, len(t.Cohorts))
+	x.patRoom = make([][]int, len(t.Rooms))
+	x.nWeeks = countWeeks(t)
 	for i, p := range s.Placements {
 		op := occPlacement{sec: -1, room: -1}
 		if si, ok := x.secIdx[p.Section]; ok {
@@ -62,32 +95,101 @@ func newOccupancy(t *Term, s *Schedule) *occupancy {
 		if ri, ok := x.roomIdx[p.Room]; ok && p.Room != "" {
 			op.room = ri
 		}
+		op.m0, op.m1 = len(x.meets), len(x.meets)
 		if op.sec >= 0 {
 			sec := &t.Sections[op.sec]
-			if span, ok := t.Span(p.Period, occLength(sec)); ok {
-				op.ok, op.first, op.last = true, span[0], span[len(span)-1]
+			switch {
+			case sec.UsesTimes():
+				op.pat = true
+				if p.Time >= 1 && p.Time <= len(sec.Times) {
+					op.pok = true
+					c := sec.Times[p.Time-1]
+					for _, d := range c.Days.List() {
+						x.meets = append(x.meets, occMeet{Occurrence{Day: d, Start: c.Start, End: c.End(), Weeks: c.Weeks}, i})
+					}
+				}
+			default:
+				if span, ok := t.Span(p.Period, occLength(sec)); ok {
+					op.ok, op.first, op.last = true, span[0], span[len(span)-1]
+					pf, pl := t.Periods[op.first], t.Periods[op.last]
+					x.meets = append(x.meets, occMeet{Occurrence{Day: pf.Day, Start: pf.Start, End: pl.End, Weeks: x.weeks(op.sec)}, i})
+				}
 			}
+			op.m1 = len(x.meets)
 		}
 		x.pl[i] = op
-		if !op.ok {
+		if !op.ok && !op.pok {
 			continue
+		}
+		x.hasPat = x.hasPat || op.pok
+		staff, cohorts, rooms := x.byStaff, x.byCohort, x.byRoom
+		if op.pok {
+			staff, cohorts, rooms = x.patStaff, x.patCohort, x.patRoom
 		}
 		sec := &t.Sections[op.sec]
 		for _, id := range occUnique(sec.Staff) {
 			if k, ok := x.staffIdx[id]; ok {
-				x.byStaff[k] = append(x.byStaff[k], i)
+				staff[k] = append(staff[k], i)
 			}
 		}
 		for _, id := range occUnique(sec.Cohorts) {
 			if k, ok := x.cohIdx[id]; ok {
-				x.byCohort[k] = append(x.byCohort[k], i)
+				cohorts[k] = append(cohorts[k], i)
 			}
 		}
 		if op.room >= 0 {
-			x.byRoom[op.room] = append(x.byRoom[op.room], i)
+			rooms[op.room] = append(rooms[op.room], i)
 		}
 	}
 	return x
+}
+
+// countWeeks is the number of weeks the weekly rules look at: the term's
+// teaching weeks, or the highest week a section or meeting time names when
+// that is later (a term built in code without dates).
+func countWeeks(t *Term) int {
+	n := t.TeachingWeeks()
+	high := func(w WeekSet) {
+		if w != 0 && w != ^WeekSet(0) {
+			n = max(n, 64-bits.LeadingZeros64(uint64(w)))
+		}
+	}
+	for i := range t.Sections {
+		high(t.Sections[i].Weeks)
+		for _, c := range t.Sections[i].Times {
+			high(c.Weeks)
+		}
+	}
+	return n
+}
+
+// sectionMeets lists the occurrences of the valid placements of section
+// si, in schedule order.
+func (x *occupancy) sectionMeets(si int) []occMeet {
+	if x.secMeets == nil {
+		x.secMeets = make([][]occMeet, len(x.t.Sections))
+	}
+	if x.secMeets[si] == nil {
+		out := []occMeet{}
+		for _, i := range x.bySection[si] {
+			out = append(out, x.meetsOf(i)...)
+		}
+		x.secMeets[si] = out
+	}
+	return x.secMeets[si]
+}
+
+// personMeets lists the occurrences of the valid placements in the grid
+// and pattern lists given.
+func (x *occupancy) personMeets(grid, pat []int) []occMeet {
+	out := make([]occMeet, 0, len(grid)+3*len(pat))
+	for _, i := range grid {
+		out = append(out, x.meetsOf(i)...)
+	}
+	for _, i := range pat {
+		out = append(out, x.meetsOf(i)...)
+	}
+	return out
 }
 
 // occLength is a section's meeting length, at least 1.
