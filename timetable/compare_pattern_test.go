@@ -58,7 +58,7 @@ func TestComparePatterns(t *testing.T) {
 // cells give the meeting; with it the chosen meeting time does (a stale
 // End cell is overruled by the term).
 func TestReadMeetingsPattern(t *testing.T) {
-	tm := ptTerm()
+	tm := srTerm()
 	p := filepath.Join(t.TempDir(), "tt.csv")
 	csv := "Section,Title,Meeting,Day,Start,End,Room,Staff,Cohorts,Weeks\n" +
 		"MTH-200,Calculus,1,Mon Wed,09:00,09:50,R1,S2,,odd\n" +

@@ -10,11 +10,11 @@ import (
 	"github.com/stretchr/testify/require"
 )
 
-// ptTerm is ckTerm with two sections placed by meeting patterns: MTH-200
+// srTerm is ckTerm with two sections placed by meeting patterns: MTH-200
 // on Mon Wed at 09:00 for 50 minutes in every week or in odd weeks, or on
 // Tue at 09:00 for 50 or for 75 minutes; LAB-300 on Wed 13:00 for 110
 // minutes in weeks 1-6 or weeks 7-13.
-func ptTerm() *Term {
+func srTerm() *Term {
 	t := ckTerm()
 	all := t.AllWeeks()
 	odd := WeekSet(0x5555) & all
@@ -33,9 +33,9 @@ func ptTerm() *Term {
 	return t
 }
 
-// ptRows are timetable rows (header first) for placements of ptTerm's
+// srRows are timetable rows (header first) for placements of srTerm's
 // pattern sections, written as the export package writes them.
-func ptRows(t *Term, ps []Placement) [][]string {
+func srRows(t *Term, ps []Placement) [][]string {
 	rows := [][]string{append([]string(nil), TimetableColumns...)}
 	secs := t.SectionIndex()
 	for _, p := range ps {
@@ -47,10 +47,10 @@ func ptRows(t *Term, ps []Placement) [][]string {
 	return rows
 }
 
-// TestReadSchedulePatternRows reads every meeting time of ptTerm back from
+// TestReadSchedulePatternRows reads every meeting time of srTerm back from
 // its row (days, start, end and weeks as written), in both file forms.
 func TestReadSchedulePatternRows(t *testing.T) {
-	tm := ptTerm()
+	tm := srTerm()
 	var want []Placement
 	for _, id := range []string{"MTH-200", "LAB-300"} {
 		sec := &tm.Sections[tm.SectionIndex()[id]]
@@ -58,7 +58,7 @@ func TestReadSchedulePatternRows(t *testing.T) {
 			want = append(want, Placement{Section: id, Meeting: i + 1, Period: -1, Time: i + 1, Room: "R1"})
 		}
 	}
-	rows := ptRows(tm, want)
+	rows := srRows(tm, want)
 	for name, path := range map[string]string{
 		"csv":  ckWrite(t, "t.csv", ckCSV(rows)),
 		"xlsx": ckWrite(t, "t.xlsx", ckXLSX(t, TimetableSheet, rows, nil)),
@@ -108,7 +108,7 @@ func TestReadSchedulePatternProblems(t *testing.T) {
 				}
 				row[c] = v
 			}
-			s, ps, err := ReadSchedule(ckWrite(t, "t.xlsx", ckXLSX(t, TimetableSheet, [][]string{header, row}, nil)), ptTerm())
+			s, ps, err := ReadSchedule(ckWrite(t, "t.xlsx", ckXLSX(t, TimetableSheet, [][]string{header, row}, nil)), srTerm())
 			require.NoError(t, err)
 			var got []string
 			for _, p := range ps {
@@ -131,7 +131,7 @@ func TestReadSchedulePatternProblems(t *testing.T) {
 // no meeting time fits: what was asked and the section's meeting times.
 func TestReadSchedulePatternMessage(t *testing.T) {
 	rows := [][]string{{"Section", "Day", "Start", "Room"}, {"LAB-300", "Wed", "14:00", "R1"}}
-	_, ps, err := ReadSchedule(ckWrite(t, "t.csv", ckCSV(rows)), ptTerm())
+	_, ps, err := ReadSchedule(ckWrite(t, "t.csv", ckCSV(rows)), srTerm())
 	require.NoError(t, err)
 	require.Len(t, ps, 1)
 	assert.Equal(t, "t!C2: LAB-300 has no meeting time on Wed, starting at 14:00 — use one of its meeting times "+
@@ -143,8 +143,8 @@ func TestReadSchedulePatternMessage(t *testing.T) {
 // pattern section names one of its meeting times (Period -1), and what
 // reads without errors prints and reads back to the same placements.
 func FuzzReadSchedulePatternCSV(f *testing.F) {
-	tm := ptTerm()
-	f.Add(ckCSV(ptRows(tm, []Placement{{Section: "MTH-200", Meeting: 1, Time: 2, Room: "R1"}, {Section: "LAB-300", Meeting: 1, Time: 1}})))
+	tm := srTerm()
+	f.Add(ckCSV(srRows(tm, []Placement{{Section: "MTH-200", Meeting: 1, Time: 2, Room: "R1"}, {Section: "LAB-300", Meeting: 1, Time: 1}})))
 	f.Add([]byte("Section,Day,Start,End,Weeks,Room\nMTH-200,Tue,09:00,10:15,,R2\nBIO-101,Mon,09:00,,,R1\n"))
 	f.Add([]byte("Section,Day,Start,Room\nMTH-200,Mon/Wed,9:00,R1\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
@@ -168,7 +168,7 @@ func FuzzReadSchedulePatternCSV(f *testing.F) {
 				pattern = append(pattern, p)
 			}
 		}
-		again, ps2, err := ReadSchedule(ckWrite(t, "u.csv", ckCSV(ptRows(tm, pattern))), tm)
+		again, ps2, err := ReadSchedule(ckWrite(t, "u.csv", ckCSV(srRows(tm, pattern))), tm)
 		require.NoError(t, err)
 		require.Empty(t, ps2.Errors())
 		want := &Schedule{Placements: pattern}
