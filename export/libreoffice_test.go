@@ -172,6 +172,9 @@ func TestLibreOfficeReadsWorkbooks(t *testing.T) {
 		csvDir := filepath.Join(dir, "termcsv")
 		require.NoError(t, timetable.WriteTermCSV(term, csvDir))
 		for _, name := range timetable.TermCSVFiles() {
+			if _, err := os.Stat(filepath.Join(csvDir, name)); err != nil {
+				continue // a sheet the term does not use (meeting times, room choices, travel)
+			}
 			want := readCSVFile(t, filepath.Join(csvDir, name))
 			for _, row := range want {
 				for i, c := range row {
@@ -185,7 +188,7 @@ func TestLibreOfficeReadsWorkbooks(t *testing.T) {
 
 	t.Run("template.xlsx", func(t *testing.T) {
 		empty := filepath.Join(dir, "emptycsv")
-		require.NoError(t, timetable.WriteTermCSV(&timetable.Term{}, empty))
+		require.NoError(t, timetable.WriteTemplateCSV(empty))
 		for _, name := range timetable.TermCSVFiles() {
 			header := readCSVFile(t, filepath.Join(empty, name))[0]
 			got := sheet("template.xlsx", strings.TrimSuffix(name, ".csv"))

@@ -258,3 +258,11 @@ func TestPatternLoadCountsOverlappedPeriods(t *testing.T) {
 	row := v.staffLoad("S6", "Ines Valcárcel", 0, nil)
 	assert.Equal(t, []any{"S6", "Ines Valcárcel", 3, 7, 9, 2, "", ""}, row)
 }
+
+// TestPatternScheduleIsValid guards the fixture: the mixed term's
+// timetable breaks no hard requirement according to the independent
+// domain checker.
+func TestPatternScheduleIsValid(t *testing.T) {
+	term, s := patternTerm()
+	assert.Empty(t, timetable.HardViolations(timetable.Check(term, s)))
+}
