@@ -83,10 +83,11 @@
 // meeting; meetings sharing periods share one merged cell, each with its
 // times; frozen day headers and time column); the Load sheet (per staff
 // member: sections, meetings and distinct periods a week, busiest day,
-// their limit, periods taught over the whole term date by date (a pattern
-// meeting counts the grid periods it overlaps); per room:
+// their limit, periods taught over the whole term date by date; per room:
 // largest class, meetings, occupied grid periods, grid periods and
-// utilisation = occupied / grid periods; and a caution); then
+// utilisation = occupied / grid periods; and a caution; with pattern
+// placements the same figures in hours, a room's utilisation being its
+// busy hours over the grid rows' hours on every day); then
 // Options.Extra. Sheet names go through SheetNames (Excel's limits). Every
 // sheet prints landscape on Options.Paper, one page wide, with its header
 // row (grids: day headers and time column) repeated on each page.

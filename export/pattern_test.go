@@ -245,18 +245,29 @@ func TestPatternEventUIDs(t *testing.T) {
 	assert.Len(t, seen, 3+2+2)
 }
 
-// TestPatternLoadCountsOverlappedPeriods: on the Load sheet a pattern
-// meeting counts the grid periods it overlaps; MA110's three 09:00-09:50
-// meetings each overlap the 09:00 period, MA111's Tue and Thu 10:30-11:45
-// the 10:00 and 11:00 periods, EN130's Mon and Wed 13:00-14:15 the 14:00
-// period only (there is no 13:00 period): 3 + 4 + 2 = 9 weekly periods,
-// at most 2 on one day (Mon: 09:00 and 14:00; Tue, Wed, Thu: 2; Fri: 1).
-func TestPatternLoadCountsOverlappedPeriods(t *testing.T) {
+// TestPatternLoadInHours checks the Load figures of the mixed term, in
+// hours, worked out by hand. S6 teaches MA110 (Mon Wed Fri 50 min), MA111
+// (Tue Thu 75 min) and EN130 (Mon Wed 75 min, weeks 3-6): 150 + 150 + 150
+// = 450 minutes a week (7.5 h); the busiest days, Mon and Wed, 50 + 75 =
+// 125 minutes (2.08 h). Over the 13 weeks from Mon 13 Sep to Fri 10 Dec
+// 2027 with the holiday Mon 25 Oct (week 7): MA110 12 Mondays + 13
+// Wednesdays + 13 Fridays = 38 x 50 = 1900 min, MA111 26 x 75 = 1950 min,
+// EN130 4 Mondays + 4 Wednesdays = 8 x 75 = 600 min; 4450 min = 74.17 h.
+// Room A1 holds CS102 (Tue 60 min), MA110 (150) and MA111 (150), 1 + 3 + 2
+// = 6 meetings, busy 6 h of
+// the grid's 5 days x 8 h (09:00-17:00) = 40 h, 15 %.
+func TestPatternLoadInHours(t *testing.T) {
 	term, s := patternTerm()
 	v, err := newView(term, s)
 	require.NoError(t, err)
-	row := v.staffLoad("S6", "Ines Valcárcel", 0, nil)
-	assert.Equal(t, []any{"S6", "Ines Valcárcel", 3, 7, 9, 2, "", ""}, row)
+	days, err := v.termDays()
+	require.NoError(t, err)
+	assert.Equal(t, []any{"S6", "Ines Valcárcel", 3, 7, 7.5, 2.08, "", 74.17}, v.staffLoadHours("S6", "Ines Valcárcel", 0, days))
+	assert.Equal(t, []any{"A1", "Aula", 120, 35, 6, 6.0, 40.0, 0.15}, v.roomLoadHours("A1"))
+	f := openWorkbook(t, term, s, Options{Generated: fixedClock})
+	rows, err := f.GetRows(LoadSheet)
+	require.NoError(t, err)
+	assert.Equal(t, loadStaffHourColumns, rows[1])
 }
 
 // TestPatternScheduleIsValid guards the fixture: the mixed term's

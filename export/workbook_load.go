@@ -21,9 +21,13 @@ const loadCaution = "Capacities and limits are as entered in the term workbook. 
 // its utilisation. "Weekly periods" counts the distinct grid periods a
 // person teaches in at least one week; "Periods over the term" adds up
 // every period actually taught, date by date (holidays and weeks outside a
-// section's weeks left out). A meeting by a meeting pattern counts the
-// grid periods it overlaps. A room's utilisation is its occupied grid
-// periods divided by the grid's periods.
+// section's weeks left out). A room's utilisation is its occupied grid
+// periods divided by the grid's periods. A timetable with pattern
+// placements, whose meetings need not fill whole periods, gets the same
+// tables in hours (staffLoadHours, roomLoadHours): the hours of the week
+// a person or room is busy in at least one week, the busiest day's, the
+// hours actually taught over the term date by date, and a room's busy
+// hours over the grid's hours (the grid rows' minutes on each day).
 func (wb *workbook) load() error {
 	f, v, sheet := wb.f, wb.v, LoadSheet
 	if _, err := f.NewSheet(sheet); err != nil {
@@ -55,12 +59,18 @@ func (wb *workbook) load() error {
 	if err := put([]any{"Teaching load per staff member"}, wb.st.bold); err != nil {
 		return err
 	}
-	if err := put(header(loadStaffColumns), wb.st.header); err != nil {
+	staffCols, roomCols := loadStaffColumns, loadRoomColumns
+	staffLoad, roomLoad := v.staffLoad, v.roomLoad
+	if v.minutes {
+		staffCols, roomCols = loadStaffHourColumns, loadRoomHourColumns
+		staffLoad, roomLoad = v.staffLoadHours, v.roomLoadHours
+	}
+	if err := put(header(staffCols), wb.st.header); err != nil {
 		return err
 	}
 	for i := range v.t.Staff {
 		s := &v.t.Staff[i]
-		if err := put(v.staffLoad(s.ID, s.Name, s.MaxPerDay, days), 0); err != nil {
+		if err := put(staffLoad(s.ID, s.Name, s.MaxPerDay, days), 0); err != nil {
 			return err
 		}
 	}
@@ -68,12 +78,12 @@ func (wb *workbook) load() error {
 	if err := put([]any{"Room use"}, wb.st.bold); err != nil {
 		return err
 	}
-	if err := put(header(loadRoomColumns), wb.st.header); err != nil {
+	if err := put(header(roomCols), wb.st.header); err != nil {
 		return err
 	}
 	for i := range v.t.Rooms {
 		r := &v.t.Rooms[i]
-		cells := v.roomLoad(r.ID)
+		cells := roomLoad(r.ID)
 		if err := put(cells, 0); err != nil {
 			return err
 		}
@@ -107,8 +117,7 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 	for _, i := range items {
 		m := &v.meetings[i]
 		sections[m.sec.ID] = true
-		ps := v.periodsOf(m)
-		for _, p := range ps {
+		for p := m.first; p <= m.last; p++ {
 			if !periods[p] {
 				periods[p] = true
 				perDay[int(m.day)]++
@@ -116,7 +125,7 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 		}
 		if days != nil {
 			on, _ := v.occurrences(days, m)
-			term += len(on) * len(ps)
+			term += len(on) * (m.last - m.first + 1)
 		}
 	}
 	busiest := 0
@@ -133,24 +142,6 @@ func (v *view) staffLoad(id, name string, limit int, days *calendarInfo) []any {
 	return out
 }
 
-// periodsOf lists the grid periods a meeting occupies: its own, or for a
-// pattern meeting every period of its day it overlaps by a minute or more.
-func (v *view) periodsOf(m *meeting) []int {
-	var out []int
-	if !m.pattern() {
-		for p := m.first; p <= m.last; p++ {
-			out = append(out, p)
-		}
-		return out
-	}
-	for i, p := range v.t.Periods {
-		if p.Day == m.day && p.Start < m.to && m.from < p.End {
-			out = append(out, i)
-		}
-	}
-	return out
-}
-
 // roomLoad is one row of the room table.
 func (v *view) roomLoad(id string) []any {
 	r := v.rooms[id]
@@ -160,7 +151,7 @@ func (v *view) roomLoad(id string) []any {
 	for _, i := range items {
 		m := &v.meetings[i]
 		largest = max(largest, m.sec.Size)
-		for _, p := range v.periodsOf(m) {
+		for p := m.first; p <= m.last; p++ {
 			periods[p] = true
 		}
 	}
