@@ -26,7 +26,9 @@ func newDiffCmd(e *env) *cobra.Command {
 			"columns) and lists, per section and then per staff member, room, cohort and (with\n" +
 			"enrolments) student, every meeting that moved (old → new: day, time, room, weeks),\n" +
 			"was added or was dropped. A meeting is unchanged when the new timetable has a\n" +
-			"meeting of its section at its old day, time and room; meeting numbers play no part.\n\n" +
+			"meeting of its section at its old day, time and room; meeting numbers play no part.\n" +
+			"A section placed by a meeting pattern is one meeting with all its days (Mon Wed Fri):\n" +
+			"it moved when it takes another of its meeting times or another room.\n\n" +
 			"With TERM, both timetables must fit that term workbook, and titles, staff,\n" +
 			"cohorts and students come from it; without it, from the timetables' own columns.\n" +
 			"It exits with status 0 when both were read, whether they differ or not.",
