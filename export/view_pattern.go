@@ -12,7 +12,7 @@ import (
 // weeks. ok is false (and bad called) when the choice or room is unknown.
 func (v *view) patternMeetings(p timetable.Placement, sec *timetable.Section, bad func(timetable.Placement, string, ...any)) ([]meeting, bool) {
 	if p.Time < 1 || p.Time > len(sec.Times) {
-		bad(p, "meeting time %d is not one of the section's %d meeting times; choose one from its rows of the meeting times sheet", p.Time, len(sec.Times))
+		bad(p, "meeting time %d is not one of the section's meeting times (it has %d meeting time%s); choose one from its rows of the meeting times sheet", p.Time, len(sec.Times), plural(len(sec.Times)))
 		return nil, false
 	}
 	c := sec.Times[p.Time-1]

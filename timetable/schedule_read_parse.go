@@ -130,7 +130,12 @@ func schedRow(t *Term, periods map[schedKey]int, secs map[string]int, cell func(
 	}
 	dv, dpos := cell("Day")
 	day, goodDay := ParseDay(dv)
-	if !goodDay {
+	switch days, many := parseDaySet(dv); {
+	case goodDay:
+	case many && days.Count() > 1 && p.Section != "":
+		ps.errorf(dpos, "%q names the days of a meeting pattern, but %s meets on the period grid, one meeting a row — write one day, or give the section meeting times on the meeting times sheet", dv, p.Section)
+		ok = false
+	default:
 		ps.errorf(dpos, "%q is not a day — write Mon, Tue, Wed, Thu, Fri, Sat or Sun", dv)
 		ok = false
 	}

@@ -138,6 +138,17 @@ func TestReadSchedulePatternMessage(t *testing.T) {
 		"(Wed 13:00–14:50 weeks 1-6; Wed 13:00–14:50 weeks 7-13), or add this one to the section's rows of the meeting times sheet", ps[0].String())
 }
 
+// TestReadSchedulePatternOnGridSection: a row with the days of a meeting
+// pattern for a section of the period grid says so at its Day cell.
+func TestReadSchedulePatternOnGridSection(t *testing.T) {
+	rows := [][]string{{"Section", "Day", "Start", "Room"}, {"BIO-101", "Mon Wed", "09:00", "R1"}}
+	_, ps, err := ReadSchedule(ckWrite(t, "t.csv", ckCSV(rows)), srTerm())
+	require.NoError(t, err)
+	require.Len(t, ps, 1)
+	assert.Equal(t, "t!B2", ps[0].Pos.String())
+	assert.Contains(t, ps[0].Msg, "names the days of a meeting pattern, but BIO-101 meets on the period grid")
+}
+
 // FuzzReadSchedulePatternCSV reads arbitrary bytes as a timetable CSV for
 // a term with pattern sections: never a panic, every placement of a
 // pattern section names one of its meeting times (Period -1), and what
