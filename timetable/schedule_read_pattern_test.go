@@ -186,3 +186,28 @@ func FuzzReadSchedulePatternCSV(f *testing.F) {
 		require.Equal(t, ckBare(want), ckBare(again))
 	})
 }
+
+// FuzzDayCell reads arbitrary text as a Day cell: what reads prints
+// (DaySet.String) and reads back to the same days, and every non-empty set
+// of days reads back from its printed form.
+func FuzzDayCell(f *testing.F) {
+	f.Add("Mon Wed Fri", uint8(0b0101010))
+	f.Add("tue, thu", uint8(1))
+	f.Add("Sat/Sun", uint8(0x7f))
+	f.Add("Mon Mon", uint8(0))
+	f.Fuzz(func(t *testing.T, s string, bits uint8) {
+		if days, ok := parseDaySet(s); ok {
+			require.NotZero(t, days)
+			again, ok := parseDaySet(days.String())
+			require.True(t, ok, days.String())
+			require.Equal(t, days, again)
+		}
+		set := DaySet(bits & 0x7f)
+		if set == 0 {
+			return
+		}
+		got, ok := parseDaySet(set.String())
+		require.True(t, ok, set.String())
+		require.Equal(t, set, got)
+	})
+}
