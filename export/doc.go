@@ -22,7 +22,8 @@
 // as lunch); a day without a period at that time is hatched; the subject's
 // unavailable times from the Unavailable sheet are cross-hatched
 // ("Unavailable: reason") or, for preferences, light grey ("Preferably free:
-// reason"). Each meeting is one framed block over all the rows it occupies,
+// reason"), with its weeks when it holds only in some weeks. Each meeting
+// is one framed block over all the rows it occupies,
 // with a dark bar on its left edge, holding the section (bold) and its
 // times, then its weeks when it does not meet every week, the title
 // (wrapped, cut with "…" only when there is no room), the room and building

@@ -277,3 +277,24 @@ func TestPatternScheduleIsValid(t *testing.T) {
 	term, s := patternTerm()
 	assert.Empty(t, timetable.HardViolations(timetable.Check(term, s)))
 }
+
+// TestPatternUnavailableWeeks: on a grid of the mixed term an unavailable
+// time that holds only in some weeks is shaded over exactly its minutes
+// (the grid is cut at its start and end) and labelled with its weeks.
+func TestPatternUnavailableWeeks(t *testing.T) {
+	term, s := patternTerm()
+	term.Unavailable = []timetable.Unavailability{{Who: "S6", Kind: timetable.WhoStaff, Day: time.Friday,
+		From: 14*60 + 30, To: 17 * 60, Hard: true, Reason: "conference", Weeks: timetable.WeekSet(0b11 << 8)}} // weeks 9-10
+	v, err := newView(term, s)
+	require.NoError(t, err)
+	level, reason := v.unavailableCells(Subject{timetable.WhoStaff, "S6"})
+	fri := v.dayCol[time.Friday]
+	var shaded []string
+	for r, row := range v.rows {
+		if level[r][fri] == unavailHard {
+			shaded = append(shaded, row.from.String()+"-"+row.to.String())
+			assert.Equal(t, "conference, wks 9-10", reason[r][fri])
+		}
+	}
+	assert.Equal(t, []string{"14:30-15:00", "15:00-16:00", "16:00-16:50", "16:50-17:00"}, shaded)
+}

@@ -372,8 +372,11 @@ func (v *view) staffNames(sec *timetable.Section) []string {
 
 // weeks is the label of a meeting's weeks on grids: "wks 1-6, 9", "odd
 // weeks", "even weeks", or "" when it meets every teaching week.
-func (v *view) weeks(m *meeting) string {
-	switch r := v.weekRanges(m); r {
+func (v *view) weeks(m *meeting) string { return v.weeksLabel(m.weeks) }
+
+// weeksLabel is weeks as grids label them (see weeks); "" for every week.
+func (v *view) weeksLabel(w timetable.WeekSet) string {
+	switch r := v.weekRangesOf(w); r {
 	case "":
 		return ""
 	case "odd", "even":
@@ -386,8 +389,10 @@ func (v *view) weeks(m *meeting) string {
 // weekRanges is a meeting's weeks (its section's, or its pattern's) as
 // lists and tables show them: "1-6, 9", "odd" or "even" (as on the
 // Sections sheet), or "" when it meets every teaching week.
-func (v *view) weekRanges(m *meeting) string {
-	w := m.weeks
+func (v *view) weekRanges(m *meeting) string { return v.weekRangesOf(m.weeks) }
+
+// weekRangesOf is weekRanges for a set of weeks (0 = every week).
+func (v *view) weekRangesOf(w timetable.WeekSet) string {
 	if w == 0 || w&v.allWeeks == v.allWeeks {
 		return ""
 	}

@@ -62,9 +62,9 @@ func clockOrder(a, b *meeting) bool {
 // buildTimeGrid fills days, dayCol, rows, rowOf and has for a term whose
 // timetable has pattern placements. Pattern times need not line up with
 // the periods, so the rows are the pieces between consecutive clock times
-// at which any period or meeting starts or ends, leaving out the pieces
-// that neither covers (a break shows as a heavy rule, as between periods);
-// writers draw them to scale. Days are those of the periods and of the
+// at which any period, meeting or unavailable time starts or ends,
+// leaving out the pieces that no period or meeting covers (a break shows
+// as a heavy rule, as between periods); writers draw them to scale. Days are those of the periods and of the
 // meetings. Every row counts as existing on every day ("no such period"
 // means nothing when a pattern may start at any time).
 func (v *view) buildTimeGrid() {
@@ -92,6 +92,9 @@ func (v *view) buildTimeGrid() {
 	points := map[timetable.Clock]bool{}
 	for _, s := range spans {
 		points[s.from], points[s.to] = true, true
+	}
+	for _, u := range v.t.Unavailable { // so that shading covers exactly the unavailable times
+		points[u.From], points[u.To] = true, true
 	}
 	cuts := make([]timetable.Clock, 0, len(points))
 	for c := range points {
