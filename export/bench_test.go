@@ -34,3 +34,15 @@ func BenchmarkICS(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkPatternView resolves the mixed grid and pattern term: meetings
+// per day of each pattern and the grid rows cut at every clock time.
+func BenchmarkPatternView(b *testing.B) {
+	term, s := patternTerm()
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := newView(term, s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

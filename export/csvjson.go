@@ -34,7 +34,7 @@ func writeCSV(w io.Writer, v *view) error {
 	if err := cw.Write(CSVColumns); err != nil {
 		return err
 	}
-	for i := range v.meetings {
+	for _, i := range v.masterItems() {
 		row := v.masterRow(&v.meetings[i])
 		for k, c := range row {
 			row[k] = timetable.SafeCSVCell(c)
@@ -70,7 +70,8 @@ type TermJSON struct {
 }
 
 // MeetingJSON is one meeting in TimetableJSON; meetings are sorted by day,
-// start time, section and meeting number.
+// start time, section and meeting number (in a term with pattern sections:
+// day, start, end, section, meeting number).
 type MeetingJSON struct {
 	Section    string   `json:"section"`
 	Title      string   `json:"title"`
@@ -84,6 +85,12 @@ type MeetingJSON struct {
 	StaffNames []string `json:"staff_names"` // parallel to staff
 	Cohorts    []string `json:"cohorts"`     // cohort IDs
 	Weeks      []int    `json:"weeks"`       // teaching weeks (1-based) the meeting takes place
+	// For a section placed by a meeting pattern, each day of the pattern is
+	// one meeting; Time is the chosen meeting time (1-based, in the order
+	// of the section's rows on the meeting times sheet) and Days all its
+	// days. Both are left out for meetings on the period grid.
+	Time int      `json:"time,omitempty"`
+	Days []string `json:"days,omitempty"`
 }
 
 // WriteTimetableJSON writes the master timetable as an indented
@@ -124,7 +131,7 @@ func writeJSON(w io.Writer, v *view) error {
 			Section:    m.sec.ID,
 			Title:      m.sec.Title,
 			Meeting:    m.num,
-			Day:        row[3],
+			Day:        timetable.DayName(m.day),
 			Start:      row[4],
 			End:        row[5],
 			Room:       row[6],
@@ -132,13 +139,28 @@ func writeJSON(w io.Writer, v *view) error {
 			Staff:      nonNil(m.sec.Staff),
 			StaffNames: v.staffNames(m.sec),
 			Cohorts:    nonNil(m.sec.Cohorts),
-			Weeks:      nonNilInts(v.weekNumbers(m.sec)),
+			Weeks:      nonNilInts(v.weekNumbers(m)),
+			Time:       m.time,
+			Days:       patternDays(m),
 		})
 	}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	enc.SetEscapeHTML(false)
 	return enc.Encode(doc)
+}
+
+// patternDays lists the days of a pattern meeting's placement ("Mon",
+// "Wed", ...); nil for a grid meeting.
+func patternDays(m *meeting) []string {
+	if !m.pattern() {
+		return nil
+	}
+	var out []string
+	for _, d := range m.days.List() {
+		out = append(out, timetable.DayName(d))
+	}
+	return out
 }
 
 func nonNil(s []string) []string {

@@ -22,7 +22,8 @@
 // as lunch); a day without a period at that time is hatched; the subject's
 // unavailable times from the Unavailable sheet are cross-hatched
 // ("Unavailable: reason") or, for preferences, light grey ("Preferably free:
-// reason"). Each meeting is one framed block over all the rows it occupies,
+// reason"), with its weeks when it holds only in some weeks. Each meeting
+// is one framed block over all the rows it occupies,
 // with a dark bar on its left edge, holding the section (bold) and its
 // times, then its weeks when it does not meet every week, the title
 // (wrapped, cut with "…" only when there is no room), the room and building
@@ -54,11 +55,28 @@
 // has (its canonical decomposition without the marks the font lacks: "ọ́"
 // prints as "ó"), and only then as '?'; nothing is dropped silently.
 //
+// Meeting patterns: a section placed by one of its meeting times
+// (Placement.Time) meets once on each day of the chosen pattern; each of
+// those days is a meeting of the grids, lists and calendars, with the
+// pattern's start, end and weeks. When a timetable has such placements
+// the grids cannot use the period times alone: their rows are the pieces
+// between every clock time at which a period or a meeting starts or ends
+// (pieces nothing covers are left out and show as a heavy rule, like a
+// break between periods), drawn to scale on the PDF (a row's height is in
+// proportion to its minutes, so a block is as tall as its meeting is long
+// and starts at its clock time; a row too short for a label has none, the
+// blocks give their own times), nothing is hatched as "no such period",
+// and the days are those of the periods and of the meetings. A grid term
+// (no pattern placement) is drawn exactly as before.
+//
 // Workbook: the master sheet timetable.TimetableSheet with exactly the
 // columns timetable.TimetableColumns (Meeting as a number, Day "Tue", Start
 // and End "10:00", Staff and Cohorts as comma-separated IDs, Weeks as on the
 // Sections sheet, Staff names), one row per meeting sorted by day, start,
-// section and meeting, frozen header and a real AutoFilter (the sheet's
+// section and meeting (a pattern placement is one row: Day holds all its
+// days, "Mon Wed Fri", Weeks the chosen meeting time's weeks, and it sorts
+// by its first day; with pattern placements the end time sorts before
+// the section), frozen header and a real AutoFilter (the sheet's
 // autoFilter element, not only the hidden name), so that
 // timetable.ReadSchedule reads it back; then one grid
 // sheet per staff member (named after the person), room ("Room R204") and
@@ -68,7 +86,9 @@
 // member: sections, meetings and distinct periods a week, busiest day,
 // their limit, periods taught over the whole term date by date; per room:
 // largest class, meetings, occupied grid periods, grid periods and
-// utilisation = occupied / grid periods; and a caution); then
+// utilisation = occupied / grid periods; and a caution; with pattern
+// placements the same figures in hours, a room's utilisation being its
+// busy hours over the grid rows' hours on every day); then
 // Options.Extra. Sheet names go through SheetNames (Excel's limits). Every
 // sheet prints landscape on Options.Paper, one page wide, with its header
 // row (grids: day headers and time column) repeated on each page.
@@ -103,7 +123,14 @@
 // instead of adding one; SEQUENCE is the number of seconds from 2020 to
 // Options.Generated, so a later publication always wins (two in the same
 // second share it); DTSTAMP is
-// Options.Generated. Lines end in CRLF and are folded at 75 octets, never
+// Options.Generated. A pattern placement is one such event per day of
+// its pattern, each from its own first date, with the pattern's weeks (a
+// block course in weeks 3-6 starts in week 3 and ends in week 6; alternate
+// weeks list the weeks in between as EXDATE); the first day's UID is the
+// one a grid meeting of that number has, the others add the day's place in
+// the pattern ("1.2", "1.3"), so a placement moved to other days keeps
+// updating its events, and a change notice's calendar cancels the events
+// of the days a pattern no longer meets. Lines end in CRLF and are folded at 75 octets, never
 // inside a UTF-8 sequence (§3.1); TEXT values are escaped (§3.3.11). A
 // calendar file that was imported (rather than subscribed to) keeps events
 // that a later publication no longer has; people must delete those by hand.
@@ -119,9 +146,12 @@
 // # Representation
 //
 // Every writer first resolves the schedule into a view: meetings with their
-// section, first and last period, times and room, sorted by start period,
-// section and meeting, plus per-subject lists of meeting indexes and the
-// grid (days, distinct period times, which day has which period). A
+// section, first and last period (or chosen meeting time and day), times,
+// weeks, room and grid rows, sorted by start period, section and meeting
+// (with pattern placements: by day, start, end, section, meeting and day
+// of the pattern), plus per-subject lists of meeting indexes and the grid
+// (days, distinct period times or pieces of the day, which day has which
+// period). A
 // subject's meetings on one day whose rows overlap form a cluster; boxes
 // place a cluster's members (stacked when they cover the same rows, side by
 // side otherwise). A view is read-only once its calendar data is made, so

@@ -38,6 +38,16 @@ func TestErrorsAreSentences(t *testing.T) {
 			term, s := demoTerm()
 			return WritePersonPDF(&bytes.Buffer{}, term, s, Subject{timetable.WhoRoom, "Z9"}, Options{})
 		}, []string{`"Z9"`, "Rooms sheet"}},
+		{"pattern choice out of range", func() error {
+			term, s := patternTerm()
+			s.Placements[len(s.Placements)-1].Time = 3 // EN130 has one meeting time
+			return WriteTimetableCSV(&bytes.Buffer{}, term, s)
+		}, []string{`"EN130"`, "meeting time 3", "it has 1 meeting time)", "meeting times sheet"}},
+		{"pattern room unknown", func() error {
+			term, s := patternTerm()
+			s.Placements[len(s.Placements)-1].Room = "Z9"
+			return WriteTimetableCSV(&bytes.Buffer{}, term, s)
+		}, []string{`"EN130"`, `"Z9"`, "Rooms sheet"}},
 		{"unknown student", func() error {
 			term, s := demoTerm()
 			return WriteICS(&bytes.Buffer{}, term, s, Subject{WhoStudent, "nobody"}, Options{})

@@ -30,12 +30,12 @@ func (v *view) clusters(items []int) []cluster {
 		if ca != cb {
 			return ca < cb
 		}
-		return v.rowOf[a.first] < v.rowOf[b.first]
+		return a.r0 < b.r0
 	})
 	var out []cluster
 	for _, i := range sorted {
 		m := &v.meetings[i]
-		col, r0, r1 := v.dayCol[m.day], v.rowOf[m.first], v.rowOf[m.last]
+		col, r0, r1 := v.dayCol[m.day], m.r0, m.r1
 		if n := len(out); n > 0 && out[n-1].col == col && r0 <= out[n-1].r1 {
 			c := &out[n-1]
 			c.items = append(c.items, i)
@@ -55,7 +55,7 @@ func (v *view) boxes(c cluster) []box {
 	same := true
 	for _, i := range c.items {
 		m := &v.meetings[i]
-		if v.rowOf[m.first] != c.r0 || v.rowOf[m.last] != c.r1 {
+		if m.r0 != c.r0 || m.r1 != c.r1 {
 			same = false
 			break
 		}
@@ -72,7 +72,7 @@ func (v *view) boxes(c cluster) []box {
 	lanes := make([]int, n)
 	for k, i := range c.items {
 		m := &v.meetings[i]
-		r0 := v.rowOf[m.first]
+		r0 := m.r0
 		lane := -1
 		for l, end := range laneEnd {
 			if end < r0 {
@@ -84,13 +84,13 @@ func (v *view) boxes(c cluster) []box {
 			lane = len(laneEnd)
 			laneEnd = append(laneEnd, 0)
 		}
-		laneEnd[lane] = v.rowOf[m.last]
+		laneEnd[lane] = m.r1
 		lanes[k] = lane
 	}
 	w := 1 / float64(len(laneEnd))
 	for k, i := range c.items {
 		m := &v.meetings[i]
-		out = append(out, box{item: i, r0: v.rowOf[m.first], r1: v.rowOf[m.last],
+		out = append(out, box{item: i, r0: m.r0, r1: m.r1,
 			x0: float64(lanes[k]) * w, x1: float64(lanes[k]+1) * w, y0: 0, y1: 1})
 	}
 	return out

@@ -131,7 +131,7 @@ func civil(d time.Time) time.Time {
 func (v *view) occurrences(c *calendarInfo, m *meeting) (on, off []time.Time) {
 	first, last := civil(v.t.FirstDay), civil(v.t.LastDay)
 	d := first.AddDate(0, 0, (int(m.day)-int(first.Weekday())+7)%7)
-	weeks := m.sec.Weeks
+	weeks := m.weeks
 	if weeks == 0 {
 		weeks = v.allWeeks
 	}
@@ -168,6 +168,26 @@ func eventUID(term string, sec string, num int, who Subject) string {
 	return hex.EncodeToString(h[:16]) + "@termwright"
 }
 
+// meetingUID is the UID of meeting m in who's calendar: eventUID for a
+// grid meeting and for the first day of a pattern placement, and for its
+// later days the same with the day's place in the pattern ("1.2" for the
+// second day of meeting 1), so that a placement moved to other days of
+// the week keeps updating the same events.
+func (v *view) meetingUID(m *meeting, who Subject) string {
+	if m.part == 0 {
+		return eventUID(v.t.Name, m.sec.ID, m.num, who)
+	}
+	return partUID(v.t.Name, m.sec.ID, m.num, m.part, who)
+}
+
+// partUID is the UID of day part (0-based, at least 1) of a pattern
+// placement; part 0 is eventUID.
+func partUID(term, sec string, num, part int, who Subject) string {
+	n := strconv.Itoa(num) + "." + strconv.Itoa(part+1)
+	h := sha256.Sum256([]byte(strings.Join([]string{term, sec, n, kindWord(who.Kind), who.ID}, "\x1f")))
+	return hex.EncodeToString(h[:16]) + "@termwright"
+}
+
 // writeEvent writes one meeting's VEVENT (nothing when it never takes place).
 func (v *view) writeEvent(w *icsWriter, c *calendarInfo, m *meeting, who Subject, gen time.Time) {
 	on, off := v.occurrences(c, m)
@@ -176,7 +196,7 @@ func (v *view) writeEvent(w *icsWriter, c *calendarInfo, m *meeting, who Subject
 	}
 	tz := ";TZID=" + icsParam(c.tzid)
 	w.line("BEGIN:VEVENT")
-	w.line("UID:" + eventUID(v.t.Name, m.sec.ID, m.num, who))
+	w.line("UID:" + v.meetingUID(m, who))
 	w.line("DTSTAMP:" + gen.Format("20060102T150405Z"))
 	w.line("SEQUENCE:" + strconv.FormatInt(sequence(gen), 10))
 	w.line("DTSTART" + tz + ":" + wall(on[0], m.from))
@@ -202,10 +222,11 @@ func (v *view) writeEvent(w *icsWriter, c *calendarInfo, m *meeting, who Subject
 // describe is the DESCRIPTION of a meeting: section, title, staff, cohorts,
 // weeks, one per line.
 func (v *view) describe(m *meeting) string {
-	lines := []string{
-		fmt.Sprintf("Section %s, meeting %d of %d", m.sec.ID, m.num, max(m.sec.Meetings, 1)),
-		m.sec.Title,
+	head := fmt.Sprintf("Section %s, meeting %d of %d", m.sec.ID, m.num, max(m.sec.Meetings, 1))
+	if m.pattern() {
+		head = fmt.Sprintf("Section %s, meets %s %s–%s", m.sec.ID, m.days, m.from, m.to)
 	}
+	lines := []string{head, m.sec.Title}
 	if names := v.staffNames(m.sec); len(names) > 0 {
 		lines = append(lines, "Staff: "+strings.Join(names, ", "))
 	}
@@ -215,7 +236,7 @@ func (v *view) describe(m *meeting) string {
 	if m.room == nil && m.sec.NoRoom {
 		lines = append(lines, "No room: online or off-site")
 	}
-	if wk := v.weekRanges(m.sec); wk != "" {
+	if wk := v.weekRanges(m); wk != "" {
 		lines = append(lines, "Teaching weeks: "+wk)
 	}
 	return strings.Join(lines, "\n")

@@ -23,9 +23,11 @@ import (
 // expanded independently from DTSTART, RRULE and EXDATE with the
 // VTIMEZONE's own rules, falls on a date in the term that is not a holiday
 // and lies in one of the section's weeks (week 1 is the week of the first
-// day, Monday to Sunday).
+// day, Monday to Sunday); for a section placed by a meeting pattern, in
+// one of its chosen meeting time's weeks and on one of its days (one event
+// per day of the pattern).
 func TestPublishedCalendarsParse(t *testing.T) {
-	for name, build := range map[string]func() (*timetable.Term, *timetable.Schedule){"demo": demoTerm, "busy": busyTerm} {
+	for name, build := range map[string]func() (*timetable.Term, *timetable.Schedule){"demo": demoTerm, "busy": busyTerm, "pattern": patternTerm} {
 		t.Run(name, func(t *testing.T) {
 			term, s := build()
 			dir := filepath.Join(t.TempDir(), "out")
@@ -89,7 +91,12 @@ func TestPublishedCalendarsParse(t *testing.T) {
 						assert.Positive(t, seq)
 						id, _, _ := strings.Cut(e.GetProperty(ics.ComponentPropertySummary).Value, " ")
 						sec := &term.Sections[term.SectionIndex()[id]]
-						weeks := sec.Weeks
+						weeks, days := sec.Weeks, timetable.DaySet(0x7f)
+						for _, p := range s.Placements {
+							if p.Section == id && sec.UsesTimes() {
+								weeks, days = sec.Times[p.Time-1].Weeks, sec.Times[p.Time-1].Days
+							}
+						}
 						if weeks == 0 {
 							weeks = term.AllWeeks()
 						}
@@ -102,6 +109,7 @@ func TestPublishedCalendarsParse(t *testing.T) {
 							assert.False(t, holidays[day.Format("2006-01-02")], "%s on holiday %s", id, day.Format("2006-01-02"))
 							week := int(day.Sub(monday).Hours()/24)/7 + 1
 							assert.True(t, weeks.Has(week), "%s on %s: week %d is not one of its weeks", id, day.Format("2006-01-02"), week)
+							assert.True(t, days.Has(day.Weekday()), "%s on %s: not one of its days", id, day.Format("2006-01-02"))
 						}
 					}
 				})

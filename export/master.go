@@ -7,7 +7,8 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// masterRow gives one meeting as the cells of the master timetable, in the
+// masterRow gives one meeting (one row of the master sheet: a grid
+// meeting, or a whole pattern placement with all its days) as the cells of the master timetable, in the
 // order of timetable.TimetableColumns: Section, Title, Meeting, Day
 // ("Tue"), Start ("10:00"), End, Room, Staff (comma list of staff IDs),
 // Cohorts (comma list of cohort IDs), Weeks (the teaching weeks in the
@@ -23,24 +24,33 @@ func (v *view) masterRow(m *meeting) []string {
 		m.sec.ID,
 		m.sec.Title,
 		strconv.Itoa(m.num),
-		timetable.DayName(m.day),
+		v.dayText(m),
 		m.from.String(),
 		m.to.String(),
 		room,
 		strings.Join(m.sec.Staff, ", "),
 		strings.Join(m.sec.Cohorts, ", "),
-		v.t.WeeksText(v.sectionWeeks(m.sec)),
+		v.t.WeeksText(v.meetingWeeks(m)),
 		strings.Join(v.staffNames(m.sec), ", "),
 	}
 }
 
-// sectionWeeks is the set of teaching weeks a section meets in within the
-// term (a section without weeks meets in all of them).
-func (v *view) sectionWeeks(sec *timetable.Section) timetable.WeekSet {
-	if sec.Weeks == 0 {
+// meetingWeeks is the set of teaching weeks a meeting takes place in
+// within the term (a section without weeks meets in all of them).
+func (v *view) meetingWeeks(m *meeting) timetable.WeekSet {
+	if m.weeks == 0 {
 		return v.allWeeks
 	}
-	return sec.Weeks & v.allWeeks
+	return m.weeks & v.allWeeks
+}
+
+// dayText is the Day cell of a meeting: "Tue", or all the days of a
+// pattern placement, "Mon Wed Fri".
+func (v *view) dayText(m *meeting) string {
+	if m.pattern() {
+		return m.days.String()
+	}
+	return timetable.DayName(m.day)
 }
 
 // building is the building of a meeting's room, or "".
@@ -51,9 +61,9 @@ func (m *meeting) building() string {
 	return m.room.Building
 }
 
-// weekNumbers lists the teaching weeks of a section within the term.
-func (v *view) weekNumbers(sec *timetable.Section) []int {
-	w := v.sectionWeeks(sec)
+// weekNumbers lists the teaching weeks of a meeting within the term.
+func (v *view) weekNumbers(m *meeting) []int {
+	w := v.meetingWeeks(m)
 	var out []int
 	for n := 1; n <= 64; n++ {
 		if w.Has(n) {

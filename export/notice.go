@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 	"time"
 
@@ -30,10 +31,10 @@ func NoticeSubject(a timetable.Affected) (who Subject, ok bool) {
 // (Calendar). It resolves the timetable once for all of them.
 type Notices struct {
 	c    *timetable.Comparison
-	cur  *view             // the new timetable as read: meeting numbers as in c's new meetings
-	cal  *view             // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
-	at   map[noticeKey]int // section and meeting number -> index into cur.meetings
-	days *calendarInfo     // the term's dates
+	cur  *view               // the new timetable as read: meeting numbers as in c's new meetings
+	cal  *view               // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
+	at   map[noticeKey][]int // section and meeting number -> indexes into cur.meetings (one per day of a meeting pattern)
+	days *calendarInfo       // the term's dates
 }
 
 // noticeKey names a meeting of the new timetable.
@@ -60,9 +61,10 @@ func NewNotices(t *timetable.Term, s *timetable.Schedule, c *timetable.Compariso
 	if err != nil {
 		return nil, err
 	}
-	n := &Notices{c: c, cur: cur, cal: cal, days: days, at: make(map[noticeKey]int, len(cur.meetings))}
+	n := &Notices{c: c, cur: cur, cal: cal, days: days, at: make(map[noticeKey][]int, len(cur.meetings))}
 	for i, m := range cur.meetings {
-		n.at[noticeKey{m.sec.ID, m.num}] = i
+		k := noticeKey{m.sec.ID, m.num}
+		n.at[k] = append(n.at[k], i)
 	}
 	return n, nil
 }
@@ -145,9 +147,10 @@ func (v *view) whose(who Subject) string {
 	return "Your timetable"
 }
 
-// noticePlace is "Wednesdays 09:00–10:00 in R2, Annexe, weeks 1-6".
+// noticePlace is "Wednesdays 09:00–10:00 in R2, Annexe, weeks 1-6", or
+// for a meeting pattern "Mondays, Wednesdays and Fridays 09:00–09:50 ...".
 func (v *view) noticePlace(m *timetable.Meeting) string {
-	s := m.Day.String() + "s " + m.Start.String()
+	s := weekdaysText(m.AllDays()) + " " + m.Start.String()
 	if m.End != 0 {
 		s += "–" + m.End.String()
 	}
@@ -170,11 +173,16 @@ func (v *view) noticePlace(m *timetable.Meeting) string {
 // weeks outside its section's weeks left out; "" when the timetable does
 // not hold m.
 func (n *Notices) dates(m *timetable.Meeting) string {
-	i, ok := n.at[noticeKey{m.Section, m.Number}]
+	items, ok := n.at[noticeKey{m.Section, m.Number}]
 	if !ok {
 		return ""
 	}
-	on, _ := n.cur.occurrences(n.days, &n.cur.meetings[i])
+	var on []time.Time
+	for _, i := range items {
+		o, _ := n.cur.occurrences(n.days, &n.cur.meetings[i])
+		on = append(on, o...)
+	}
+	slices.SortFunc(on, func(a, b time.Time) int { return a.Compare(b) })
 	switch len(on) {
 	case 0:
 		return " (no date of the term falls on it)"
@@ -182,6 +190,23 @@ func (n *Notices) dates(m *timetable.Meeting) string {
 		return ", on " + noticeDate(on[0])
 	}
 	return ", from " + noticeDate(on[0]) + " to " + noticeDate(on[len(on)-1])
+}
+
+// weekdaysText names days in plain words: "Wednesdays", "Tuesdays and
+// Thursdays", "Mondays, Wednesdays and Fridays".
+func weekdaysText(days timetable.DaySet) string {
+	var names []string
+	for _, d := range days.List() {
+		names = append(names, d.String()+"s")
+	}
+	switch n := len(names); n {
+	case 0:
+		return ""
+	case 1:
+		return names[0]
+	default:
+		return strings.Join(names[:n-1], ", ") + " and " + names[n-1]
+	}
 }
 
 // noticeDate is "Thu 13 Jan 2028".

@@ -19,7 +19,7 @@ type blockInfo struct {
 
 // blockContent gathers the text of meeting m for who's page.
 func (v *view) blockContent(m *meeting, who Subject) blockInfo {
-	b := blockInfo{m: m, weeks: v.weeks(m.sec), title: m.sec.Title, room: roomText(m.room)}
+	b := blockInfo{m: m, weeks: v.weeks(m), title: m.sec.Title, room: roomText(m.room)}
 	if m.room == nil && m.sec.NoRoom {
 		b.room = "online / off-site"
 	}

@@ -8,11 +8,12 @@ import (
 
 // gridGeo is the geometry of a weekly grid on a page, in mm.
 type gridGeo struct {
-	x0, y0 float64 // top-left corner (of the time label column)
-	labelW float64 // width of the time label column
-	colW   float64 // width of one day column
-	headH  float64 // height of the day header row
-	rowH   float64 // height of one grid row
+	x0, y0 float64   // top-left corner (of the time label column)
+	labelW float64   // width of the time label column
+	colW   float64   // width of one day column
+	headH  float64   // height of the day header row
+	rowH   float64   // height of one grid row (uniform rows)
+	ys     []float64 // with rows drawn to scale: top of each row, and the bottom of the last (len rows+1); nil for uniform rows
 }
 
 func (d *pdfDoc) geo() gridGeo {
@@ -20,11 +21,44 @@ func (d *pdfDoc) geo() gridGeo {
 	g := gridGeo{x0: pdfMargin, y0: pdfGridTop, labelW: 16, headH: 6.5}
 	g.colW = (d.w - 2*pdfMargin - g.labelW) / float64(max(len(v.days), 1))
 	g.rowH = (d.h - pdfFootH - pdfGridTop - g.headH) / float64(max(len(v.rows), 1))
+	if v.minutes {
+		g.ys = scaledRows(v.rows, g.y0+g.headH, d.h-pdfFootH)
+	}
 	return g
 }
 
+// scaledRows places rows between top and bottom with heights in
+// proportion to their minutes, so that a meeting's block is as tall as it
+// is long whatever pieces the grid cut its time into.
+func scaledRows(rows []gridRow, top, bottom float64) []float64 {
+	total := 0
+	for _, r := range rows {
+		total += int(r.to - r.from)
+	}
+	ys := make([]float64, len(rows)+1)
+	ys[0] = top
+	per := (bottom - top) / float64(max(total, 1))
+	for i, r := range rows {
+		ys[i+1] = ys[i] + float64(r.to-r.from)*per
+	}
+	return ys
+}
+
 func (g gridGeo) colX(c int) float64 { return g.x0 + g.labelW + float64(c)*g.colW }
-func (g gridGeo) rowY(r int) float64 { return g.y0 + g.headH + float64(r)*g.rowH }
+func (g gridGeo) rowY(r int) float64 {
+	if g.ys != nil {
+		return g.ys[r]
+	}
+	return g.y0 + g.headH + float64(r)*g.rowH
+}
+
+// height is the height of grid row r.
+func (g gridGeo) height(r int) float64 {
+	if g.ys != nil {
+		return g.ys[r+1] - g.ys[r]
+	}
+	return g.rowH
+}
 
 // roomCaution is the footer note of room pages.
 const roomCaution = "Seat counts are as entered; the room's posted legal occupancy and local codes take precedence."
@@ -85,6 +119,10 @@ func (d *pdfDoc) gridFrame(g gridGeo) {
 	f.Rect(g.x0, g.y0+g.headH, g.labelW, bottom-g.y0-g.headH, "FD")
 	for r, row := range v.rows {
 		y := g.rowY(r)
+		if g.ys != nil {
+			d.scaledLabel(g, r, row)
+			continue
+		}
 		if g.rowH >= 6.5 {
 			d.font("B", 8)
 			d.text(g.x0+1.5, y+3.4, row.from.String())
@@ -138,9 +176,33 @@ func (d *pdfDoc) hatch(x, y, w, h float64) {
 func (d *pdfDoc) boxRect(g gridGeo, b box) (x, y, w, h float64) {
 	m := &d.v.meetings[b.item]
 	areaH := float64(b.r1-b.r0+1) * g.rowH
+	if g.ys != nil {
+		areaH = g.ys[b.r1+1] - g.ys[b.r0]
+	}
 	x = g.colX(d.v.dayCol[m.day]) + b.x0*g.colW + 0.5
 	w = (b.x1-b.x0)*g.colW - 1
 	y = g.rowY(b.r0) + b.y0*areaH + 0.5
 	h = (b.y1-b.y0)*areaH - 1
 	return x, y, w, h
+}
+
+// scaledLabel labels a row of a grid drawn to scale with its start time,
+// and its end when the row is tall enough; a row too short for text (a
+// few minutes between two other times) stays unlabelled, the blocks give
+// their own times.
+func (d *pdfDoc) scaledLabel(g gridGeo, r int, row gridRow) {
+	y, h := g.rowY(r), g.height(r)
+	switch {
+	case h >= 6.5:
+		d.font("B", 8)
+		d.text(g.x0+1.5, y+3.4, row.from.String())
+		d.font("", 6.5)
+		d.gray(80)
+		d.text(g.x0+1.5, y+6.2, "to "+row.to.String())
+		d.gray(0)
+	case h >= 2.4:
+		size := math.Min(6.5, h/ptToMM*0.85)
+		d.font("", size)
+		d.text(g.x0+1, y+size*ptToMM+0.2, row.from.String())
+	}
 }

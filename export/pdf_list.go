@@ -143,7 +143,7 @@ func (d *pdfDoc) masterList() {
 			f.SetLineWidth(0.5)
 			f.Line(pdfMargin, y, pdfMargin+width, y)
 		}
-		weeks := v.weekRanges(m.sec)
+		weeks := v.weekRanges(m)
 		if weeks == "" {
 			weeks = "all"
 		}

@@ -162,6 +162,7 @@ func TestPDFRenders(t *testing.T) {
 	}
 	term, s := demoTerm()
 	busy, busyS := busyTerm()
+	pat, patS := patternTerm()
 	dir := *renderDir
 	if dir == "" {
 		dir = t.TempDir()
@@ -173,6 +174,8 @@ func TestPDFRenders(t *testing.T) {
 		"room-R101-letter":  writePDF(t, term, s, &Subject{timetable.WhoRoom, "R101"}, Options{Generated: fixedClock, Paper: "Letter"}),
 		"combined-unknown1": writePDF(t, term, &timetable.Schedule{}, nil, Options{Generated: fixedClock}),
 		"busy-combined":     writePDF(t, busy, busyS, nil, Options{Generated: fixedClock}),
+		"pattern-combined":  writePDF(t, pat, patS, nil, Options{Generated: fixedClock}),
+		"pattern-staff-S6":  writePDF(t, pat, patS, &Subject{timetable.WhoStaff, "S6"}, Options{Generated: fixedClock, Paper: "Letter"}),
 	}
 	for name, pdf := range docs {
 		path := filepath.Join(dir, name+".pdf")

@@ -1,5 +1,7 @@
 package export
 
+import "strings"
+
 // Shading of a subject's unavailable times on its grid, as on the
 // Unavailable sheet: hard means the subject must not be booked then,
 // otherwise it is a preference that costs when broken.
@@ -11,7 +13,8 @@ const (
 
 // unavailableCells gives, for each grid row and day column, how strongly
 // who is unavailable there (unavailNone, unavailSoft, unavailHard) and the
-// reason of the strongest entry. Only cells of existing periods count.
+// reason of the strongest entry (with its weeks when it holds only in
+// some weeks: "conference, wks 9-10"). Only cells of existing periods count.
 func (v *view) unavailableCells(who Subject) (level [][]int, reason [][]string) {
 	level = make([][]int, len(v.rows))
 	reason = make([][]string, len(v.rows))
@@ -31,9 +34,13 @@ func (v *view) unavailableCells(who Subject) (level [][]int, reason [][]string) 
 		if u.Hard {
 			l = unavailHard
 		}
+		why := u.Reason
+		if wk := v.weeksLabel(u.Weeks); wk != "" { // only in some weeks: say which
+			why = strings.Join(nonEmpty(why, wk), ", ")
+		}
 		for r, row := range v.rows {
 			if v.has[r][c] && row.from < u.To && u.From < row.to && l > level[r][c] {
-				level[r][c], reason[r][c] = l, u.Reason
+				level[r][c], reason[r][c] = l, why
 			}
 		}
 	}
@@ -68,7 +75,7 @@ func (d *pdfDoc) unavailable(g gridGeo, who Subject) {
 				if !v.has[k][c] {
 					continue
 				}
-				x, y, w, h := g.colX(c)+0.15, g.rowY(k)+0.15, g.colW-0.3, g.rowH-0.3
+				x, y, w, h := g.colX(c)+0.15, g.rowY(k)+0.15, g.colW-0.3, g.height(k)-0.3
 				f.Rect(x, y, w, h, "F")
 				if l == unavailHard {
 					d.crossHatch(x, y, w, h)

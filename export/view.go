@@ -15,13 +15,27 @@ import (
 type meeting struct {
 	sec   *timetable.Section
 	num   int             // 1-based meeting number
-	first int             // index of the first period in Term.Periods
-	last  int             // index of the last period (first+Length-1)
+	first int             // index of the first period in Term.Periods; -1 for a pattern meeting
+	last  int             // index of the last period (first+Length-1); -1 for a pattern meeting
 	day   time.Weekday    // day of the meeting
-	from  timetable.Clock // start of the first period
-	to    timetable.Clock // end of the last period
+	from  timetable.Clock // start of the first period (or of the chosen pattern)
+	to    timetable.Clock // end of the last period (or of the chosen pattern)
 	room  *timetable.Room // nil for sections that take no room
+
+	// A pattern placement is one meeting per day of its choice: time is
+	// the choice (1-based, 0 for a grid meeting), days all its days and
+	// part the index of this day among them (0 for the first day, which
+	// stands for the placement on the master sheet).
+	time  int
+	days  timetable.DaySet
+	part  int
+	weeks timetable.WeekSet // the section's weeks, or the choice's for a pattern meeting; 0 = every week
+	r0    int               // first grid row the meeting covers
+	r1    int               // last grid row the meeting covers
 }
+
+// pattern reports whether m is one day of a pattern placement.
+func (m *meeting) pattern() bool { return m.time > 0 }
 
 // gridRow is one row of a weekly grid: a distinct period time of the term.
 type gridRow struct {
@@ -48,6 +62,7 @@ type view struct {
 	rowOf     []int     // period index -> grid row
 	has       [][]bool  // [row][column]: that day has a period at that time
 	allWeeks  timetable.WeekSet
+	minutes   bool          // the grid rows come from pattern times too: rows are drawn to scale (see buildGrid)
 	cal       *calendarInfo // time zone and dates, made on first use by calendar()
 }
 
@@ -81,9 +96,16 @@ func newView(t *timetable.Term, s *timetable.Schedule) (*view, error) {
 	for i := range t.Cohorts {
 		v.cohorts[t.Cohorts[i].ID] = &t.Cohorts[i]
 	}
-	v.buildGrid()
 	if err := v.resolve(s); err != nil {
 		return nil, err
+	}
+	if v.minutes {
+		v.buildTimeGrid()
+	} else {
+		v.buildGrid()
+	}
+	for i := range v.meetings {
+		v.placeRows(&v.meetings[i])
 	}
 	v.index()
 	return v, nil
@@ -152,13 +174,21 @@ func (v *view) resolve(s *timetable.Schedule) error {
 			continue
 		}
 		sec := &v.t.Sections[si]
+		if sec.UsesTimes() {
+			ms, ok := v.patternMeetings(p, sec, bad)
+			if ok {
+				v.meetings = append(v.meetings, ms...)
+				v.minutes = true
+			}
+			continue
+		}
 		length := max(sec.Length, 1)
 		span, ok := v.t.Span(p.Period, length)
 		if !ok {
 			bad(p, "a meeting of %d period(s) starting at period %d does not fit the weekly grid; place it where its periods follow each other on one day", length, p.Period)
 			continue
 		}
-		m := meeting{sec: sec, num: p.Meeting, first: span[0], last: span[len(span)-1]}
+		m := meeting{sec: sec, num: p.Meeting, first: span[0], last: span[len(span)-1], weeks: sec.Weeks}
 		m.day = v.t.Periods[m.first].Day
 		m.from = v.t.Periods[m.first].Start
 		m.to = v.t.Periods[m.last].End
@@ -174,6 +204,10 @@ func (v *view) resolve(s *timetable.Schedule) error {
 	}
 	if len(errs) > 0 {
 		return fmt.Errorf("the timetable does not fit its term workbook:\n%w", errors.Join(errs...))
+	}
+	if v.minutes {
+		sort.SliceStable(v.meetings, func(i, j int) bool { return clockOrder(&v.meetings[i], &v.meetings[j]) })
+		return nil
 	}
 	sort.SliceStable(v.meetings, func(i, j int) bool {
 		a, b := &v.meetings[i], &v.meetings[j]
@@ -336,10 +370,13 @@ func (v *view) staffNames(sec *timetable.Section) []string {
 	return out
 }
 
-// weeks is the label of a section's weeks on grids: "wks 1-6, 9", "odd
-// weeks", "even weeks", or "" when the section meets every teaching week.
-func (v *view) weeks(sec *timetable.Section) string {
-	switch r := v.weekRanges(sec); r {
+// weeks is the label of a meeting's weeks on grids: "wks 1-6, 9", "odd
+// weeks", "even weeks", or "" when it meets every teaching week.
+func (v *view) weeks(m *meeting) string { return v.weeksLabel(m.weeks) }
+
+// weeksLabel is weeks as grids label them (see weeks); "" for every week.
+func (v *view) weeksLabel(w timetable.WeekSet) string {
+	switch r := v.weekRangesOf(w); r {
 	case "":
 		return ""
 	case "odd", "even":
@@ -349,11 +386,13 @@ func (v *view) weeks(sec *timetable.Section) string {
 	}
 }
 
-// weekRanges is a section's weeks as lists and tables show them: "1-6, 9",
-// "odd" or "even" (as on the Sections sheet), or "" when the section meets
-// every teaching week.
-func (v *view) weekRanges(sec *timetable.Section) string {
-	w := sec.Weeks
+// weekRanges is a meeting's weeks (its section's, or its pattern's) as
+// lists and tables show them: "1-6, 9", "odd" or "even" (as on the
+// Sections sheet), or "" when it meets every teaching week.
+func (v *view) weekRanges(m *meeting) string { return v.weekRangesOf(m.weeks) }
+
+// weekRangesOf is weekRanges for a set of weeks (0 = every week).
+func (v *view) weekRangesOf(w timetable.WeekSet) string {
 	if w == 0 || w&v.allWeeks == v.allWeeks {
 		return ""
 	}

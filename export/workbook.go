@@ -125,7 +125,8 @@ func (v *view) sheetTitle(who Subject) string {
 // the hidden _xlnm._FilterDatabase name), frozen header, page setup.
 func (wb *workbook) master() error {
 	f, sheet := wb.f, timetable.TimetableSheet
-	last, _ := excelize.CoordinatesToCellName(len(timetable.TimetableColumns), len(wb.v.meetings)+1)
+	items := wb.v.masterItems()
+	last, _ := excelize.CoordinatesToCellName(len(timetable.TimetableColumns), len(items)+1)
 	// The stream writer writes what the sheet holds when it starts (sheet
 	// properties) and when it flushes (filter, page setup): set them first.
 	if err := f.AutoFilter(sheet, "A1:"+last, nil); err != nil {
@@ -155,13 +156,13 @@ func (wb *workbook) master() error {
 		return err
 	}
 	row := make([]any, len(timetable.TimetableColumns))
-	for i := range wb.v.meetings {
+	for n, i := range items {
 		m := &wb.v.meetings[i]
 		for k, c := range wb.v.masterRow(m) {
 			row[k] = c
 		}
 		row[2] = m.num
-		cell, _ := excelize.CoordinatesToCellName(1, i+2)
+		cell, _ := excelize.CoordinatesToCellName(1, n+2)
 		if err := sw.SetRow(cell, row); err != nil {
 			return err
 		}

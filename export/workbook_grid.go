@@ -15,6 +15,7 @@ const (
 	gridMaxRowPt  = 409 // Excel's highest row
 	gridLinePt    = 12  // height of one 9-point text line
 	gridCharsLine = 30  // characters that fit on one line of a day column
+	gridMinutePt  = 0.5 // row height per minute in a term with pattern placements
 )
 
 // gridCell names the cell of grid row r (0-based) and day column c
@@ -66,6 +67,9 @@ func (wb *workbook) grid(sheet string, who Subject) error {
 	level, reason := v.unavailableCells(who)
 	for r, row := range v.rows {
 		heights[r] = 2 * gridLinePt
+		if v.minutes { // rows of pattern terms are pieces of any length: drawn to scale, a line at least
+			heights[r] = max(gridMinutePt*float64(row.to-row.from), gridLinePt)
+		}
 		if err := set(fmt.Sprintf("A%d", r+gridHeaderRow+1), row.from.String()+"–"+row.to.String(), wb.st.label); err != nil {
 			return err
 		}
@@ -144,10 +148,10 @@ func (wb *workbook) gridBlock(sheet string, cl cluster, who Subject, heights []f
 // staff.
 func (v *view) blockText(m *meeting, who Subject, shared bool) string {
 	head := m.sec.ID
-	if wk := v.weeks(m.sec); wk != "" {
+	if wk := v.weeks(m); wk != "" {
 		head += " · " + wk
 	}
-	if shared {
+	if shared || m.pattern() {
 		head += " · " + m.from.String() + "–" + m.to.String()
 	}
 	lines := []string{head}

@@ -22,7 +22,12 @@ const loadCaution = "Capacities and limits are as entered in the term workbook. 
 // person teaches in at least one week; "Periods over the term" adds up
 // every period actually taught, date by date (holidays and weeks outside a
 // section's weeks left out). A room's utilisation is its occupied grid
-// periods divided by the grid's periods.
+// periods divided by the grid's periods. A timetable with pattern
+// placements, whose meetings need not fill whole periods, gets the same
+// tables in hours (staffLoadHours, roomLoadHours): the hours of the week
+// a person or room is busy in at least one week, the busiest day's, the
+// hours actually taught over the term date by date, and a room's busy
+// hours over the grid's hours (the grid rows' minutes on each day).
 func (wb *workbook) load() error {
 	f, v, sheet := wb.f, wb.v, LoadSheet
 	if _, err := f.NewSheet(sheet); err != nil {
@@ -54,12 +59,18 @@ func (wb *workbook) load() error {
 	if err := put([]any{"Teaching load per staff member"}, wb.st.bold); err != nil {
 		return err
 	}
-	if err := put(header(loadStaffColumns), wb.st.header); err != nil {
+	staffCols, roomCols := loadStaffColumns, loadRoomColumns
+	staffLoad, roomLoad := v.staffLoad, v.roomLoad
+	if v.minutes {
+		staffCols, roomCols = loadStaffHourColumns, loadRoomHourColumns
+		staffLoad, roomLoad = v.staffLoadHours, v.roomLoadHours
+	}
+	if err := put(header(staffCols), wb.st.header); err != nil {
 		return err
 	}
 	for i := range v.t.Staff {
 		s := &v.t.Staff[i]
-		if err := put(v.staffLoad(s.ID, s.Name, s.MaxPerDay, days), 0); err != nil {
+		if err := put(staffLoad(s.ID, s.Name, s.MaxPerDay, days), 0); err != nil {
 			return err
 		}
 	}
@@ -67,12 +78,12 @@ func (wb *workbook) load() error {
 	if err := put([]any{"Room use"}, wb.st.bold); err != nil {
 		return err
 	}
-	if err := put(header(loadRoomColumns), wb.st.header); err != nil {
+	if err := put(header(roomCols), wb.st.header); err != nil {
 		return err
 	}
 	for i := range v.t.Rooms {
 		r := &v.t.Rooms[i]
-		cells := v.roomLoad(r.ID)
+		cells := roomLoad(r.ID)
 		if err := put(cells, 0); err != nil {
 			return err
 		}

@@ -8,8 +8,8 @@ import (
 
 // Change kinds of a Change.
 const (
-	ChangeUnchanged = "unchanged" // the new timetable holds the meeting at its old day, time and room, in the same weeks
-	ChangeMoved     = "moved"     // paired with a new meeting at another day, time or room, or in other weeks
+	ChangeUnchanged = "unchanged" // the new timetable holds the meeting at its old day (or days of its pattern), time and room, in the same weeks
+	ChangeMoved     = "moved"     // paired with a new meeting at another day, time or room, or in other weeks (another meeting time of a pattern section)
 	ChangeAdded     = "added"     // a new meeting with no old one to pair with
 	ChangeDropped   = "dropped"   // an old meeting with no new one to pair with
 )
@@ -86,8 +86,29 @@ func bySection(ms []Meeting) map[string][]*Meeting {
 	return out
 }
 
-// samePlace reports whether two meetings are at the same day, start and room.
-func samePlace(x, y *Meeting) bool { return x.Day == y.Day && x.Start == y.Start && x.Room == y.Room }
+// samePlace reports whether two meetings are at the same day (all the
+// days of a meeting pattern), start and room.
+func samePlace(x, y *Meeting) bool {
+	return x.AllDays() == y.AllDays() && x.Start == y.Start && x.Room == y.Room
+}
+
+// AllDays is every day the meeting takes place: Days for a meeting pattern,
+// else the one Day.
+func (m *Meeting) AllDays() DaySet {
+	if m.Days != 0 {
+		return m.Days
+	}
+	return DaysOf(m.Day)
+}
+
+// DayText is the meeting's day as the timetable writes it: "Tue", or the
+// days of a meeting pattern, "Mon Wed Fri".
+func (m *Meeting) DayText() string {
+	if m.Days != 0 {
+		return m.Days.String()
+	}
+	return DayName(m.Day)
+}
 
 // pairSection is Compare for one section's old meetings a and new meetings b.
 func pairSection(id string, a, b []*Meeting) []Change {
@@ -157,7 +178,7 @@ func pairSection(id string, a, b []*Meeting) []Change {
 // what lists what differs between two meetings of a section.
 func what(x, y *Meeting) []string {
 	var out []string
-	if x.Day != y.Day {
+	if x.AllDays() != y.AllDays() {
 		out = append(out, ChangedDay)
 	}
 	if x.Start != y.Start || (x.End != y.End && x.End != 0 && y.End != 0) {
@@ -177,7 +198,7 @@ func what(x, y *Meeting) []string {
 // or other weeks (so each weighs more than all the lighter ones together).
 func distance(x, y *Meeting) int64 {
 	var c int64
-	if x.Day != y.Day {
+	if x.AllDays() != y.AllDays() {
 		c += 8
 	}
 	if x.Start != y.Start {

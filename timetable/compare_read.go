@@ -15,7 +15,8 @@ type Meeting struct {
 	Section    string       // section ID
 	Number     int          // 1-based meeting number within the section
 	Title      string       // section title
-	Day        time.Weekday // day of the meeting
+	Day        time.Weekday // day of the meeting (the first of Days for a meeting pattern)
+	Days       DaySet       // every day of a meeting pattern ("Mon Wed Fri"); 0 for a meeting on one day
 	Start      Clock        // start time
 	End        Clock        // end time; 0 when the timetable does not say
 	Room       string       // room ID; "" for meetings without a room
@@ -157,12 +158,15 @@ func meetingRow(cell func(string) (string, Position), ps *Problems) (m Meeting, 
 		m.Number = n
 	}
 	dv, dpos := cell("Day")
-	day, good := ParseDay(dv)
+	days, good := parseDaySet(dv)
 	if !good {
-		ps.errorf(dpos, "%q is not a day — write Mon, Tue, Wed, Thu, Fri, Sat or Sun", dv)
+		ps.errorf(dpos, "%q is not a day — write Mon, Tue, Wed, Thu, Fri, Sat or Sun, or the days of a meeting pattern such as Mon Wed Fri", dv)
 		ok = false
 	}
-	m.Day = day
+	m.Day, _ = days.First()
+	if days.Count() > 1 {
+		m.Days = days
+	}
 	sv, spos := cell("Start")
 	start, err := ParseClock(sv)
 	if err != nil {
@@ -236,6 +240,15 @@ func meetingsFromTerm(t *Term, s *Schedule, cells []Meeting) []Meeting {
 			continue
 		}
 		sec := &t.Sections[si]
+		var choice *TimeChoice
+		if sec.UsesTimes() && p.Time >= 1 && p.Time <= len(sec.Times) {
+			choice = &sec.Times[p.Time-1]
+			m.Day, _ = choice.Days.First()
+			m.Days, m.Start, m.End = 0, choice.Start, choice.End()
+			if choice.Days.Count() > 1 {
+				m.Days = choice.Days
+			}
+		}
 		m.Title, m.Staff, m.Cohorts = sec.Title, sec.Staff, sec.Cohorts
 		m.StaffNames = make([]string, len(sec.Staff))
 		for i, id := range sec.Staff {
@@ -244,11 +257,13 @@ func meetingsFromTerm(t *Term, s *Schedule, cells []Meeting) []Meeting {
 				m.StaffNames[i] = t.Staff[k].Name
 			}
 		}
-		if span, fits := t.Span(p.Period, occLength(sec)); fits {
+		if span, fits := t.Span(p.Period, occLength(sec)); fits && choice == nil {
 			m.End = t.Periods[span[len(span)-1]].End
 		}
 		weeks := sec.Weeks & all
-		if sec.Weeks == 0 {
+		if choice != nil {
+			weeks = choice.Weeks & all
+		} else if sec.Weeks == 0 {
 			weeks = all
 		}
 		m.Weeks = t.WeeksText(weeks)

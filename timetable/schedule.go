@@ -20,7 +20,9 @@ type Schedule struct {
 // Timetable sheet layout shared by the writer (export) and the reader
 // (ReadSchedule): one row per meeting, these headers in this order. Title,
 // Weeks and Staff names are for people reading the sheet; the reader
-// ignores them (the term decides them).
+// ignores them (the term decides them). A pattern placement is one row
+// with all its days in Day ("Mon Wed Fri"); its Day, Start, End and Weeks
+// name the chosen meeting time.
 var TimetableColumns = []string{"Section", "Title", "Meeting", "Day", "Start", "End", "Room", "Staff", "Cohorts", "Weeks", "Staff names"}
 
 // TimetableSheet is the name of the master sheet of a timetable workbook.

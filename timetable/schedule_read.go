@@ -27,6 +27,13 @@ const schedMaxRows = 1_000_000
 // row order). Title, End, Staff and Cohorts are for reading only: the term
 // decides them, and a cell that disagrees with the term gets a warning.
 //
+// A row of a section placed by meeting patterns (Section.Times) names its
+// meeting time: Day holds all its days ("Mon Wed Fri"), Start its start,
+// and End and Weeks, when filled in, pick among meeting times with the
+// same days and start; the row gives a placement with Time set and Period
+// -1, and a row that matches no meeting time (or several) is an error at
+// the first cell that does not fit, listing the section's meeting times.
+//
 // Each placement's Src names its row ("Timetable row 12"). Rows with a
 // cell that cannot be read (a day or time that is not in the grid, a
 // meeting number that is not a whole number) are left out and reported as

@@ -51,13 +51,15 @@ func schedParse(t *Term, sheet string, rows [][]string, lines []int) (*Schedule,
 			}
 			return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
 		}
-		p, blank, ok := schedRow(t, periods, cell, &ps)
+		p, blank, ok := schedRow(t, periods, secs, cell, &ps)
 		if !ok {
 			continue
 		}
 		p.Src = Source{Sheet: sheet, Row: line}
-		if si, known := secs[p.Section]; known {
+		if si, known := secs[p.Section]; known && !t.Sections[si].UsesTimes() {
 			schedReadOnlyCells(t, &t.Sections[si], p, cell, &ps)
+		} else if known {
+			schedReadOnlyPeople(&t.Sections[si], cell, &ps)
 		}
 		if blank {
 			blankMeeting = append(blankMeeting, len(s.Placements))
@@ -105,7 +107,7 @@ func schedHeader(sheet string, header []string, line int, ps *Problems) (map[str
 
 // schedRow reads one data row; blank reports a blank Meeting cell, and ok
 // is false when a cell could not be read (the problem is recorded).
-func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Position), ps *Problems) (p Placement, blank, ok bool) {
+func schedRow(t *Term, periods map[schedKey]int, secs map[string]int, cell func(string) (string, Position), ps *Problems) (p Placement, blank, ok bool) {
 	ok = true
 	sec, pos := cell("Section")
 	if sec == "" {
@@ -121,9 +123,19 @@ func schedRow(t *Term, periods map[schedKey]int, cell func(string) (string, Posi
 	} else {
 		p.Meeting = n
 	}
+	if si, known := secs[sec]; known && t.Sections[si].UsesTimes() {
+		ok = schedPatternRow(t, &t.Sections[si], &p, cell, ps) && ok
+		p.Room, _ = cell("Room")
+		return p, blank, ok
+	}
 	dv, dpos := cell("Day")
 	day, goodDay := ParseDay(dv)
-	if !goodDay {
+	switch days, many := parseDaySet(dv); {
+	case goodDay:
+	case many && days.Count() > 1 && p.Section != "":
+		ps.errorf(dpos, "%q names the days of a meeting pattern, but %s meets on the period grid, one meeting a row — write one day, or give the section meeting times on the meeting times sheet", dv, p.Section)
+		ok = false
+	default:
 		ps.errorf(dpos, "%q is not a day — write Mon, Tue, Wed, Thu, Fri, Sat or Sun", dv)
 		ok = false
 	}
@@ -171,8 +183,10 @@ func schedDays(t *Term) string {
 	return strings.Join(out, ", ")
 }
 
-// schedReadOnlyCells warns when End, Weeks, Staff or Cohorts disagree with
-// the term: the term decides them and the cells are ignored.
+// schedReadOnlyCells warns when End, Weeks, Staff or Cohorts of a grid
+// section's row disagree with the term: the term decides them and the
+// cells are ignored. (For a pattern section End and Weeks pick the
+// meeting time; see schedPatternRow.)
 func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (string, Position), ps *Problems) {
 	if v, pos := cell("Weeks"); v != "" {
 		got, err := parseWeeks(v, t.AllWeeks())
@@ -190,6 +204,11 @@ func schedReadOnlyCells(t *Term, sec *Section, p Placement, cell func(string) (s
 			}
 		}
 	}
+	schedReadOnlyPeople(sec, cell, ps)
+}
+
+// schedReadOnlyPeople warns when Staff or Cohorts disagree with the term.
+func schedReadOnlyPeople(sec *Section, cell func(string) (string, Position), ps *Problems) {
 	for _, c := range []struct {
 		col  string
 		want []string

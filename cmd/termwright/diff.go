@@ -26,7 +26,9 @@ func newDiffCmd(e *env) *cobra.Command {
 			"columns) and lists, per section and then per staff member, room, cohort and (with\n" +
 			"enrolments) student, every meeting that moved (old → new: day, time, room, weeks),\n" +
 			"was added or was dropped. A meeting is unchanged when the new timetable has a\n" +
-			"meeting of its section at its old day, time and room; meeting numbers play no part.\n\n" +
+			"meeting of its section at its old day, time and room; meeting numbers play no part.\n" +
+			"A section placed by a meeting pattern is one meeting with all its days (Mon Wed Fri):\n" +
+			"it moved when it takes another of its meeting times or another room.\n\n" +
 			"With TERM, both timetables must fit that term workbook, and titles, staff,\n" +
 			"cohorts and students come from it; without it, from the timetables' own columns.\n" +
 			"It exits with status 0 when both were read, whether they differ or not.",
@@ -211,7 +213,7 @@ type diffChange struct {
 
 type diffPlace struct {
 	Meeting int    `json:"meeting"`
-	Day     string `json:"day"`
+	Day     string `json:"day"` // "Tue", or the days of a meeting pattern, "Mon Wed Fri"
 	Start   string `json:"start"`
 	End     string `json:"end,omitempty"`
 	Room    string `json:"room,omitempty"`
@@ -273,7 +275,7 @@ func diffPlaceOf(m *timetable.Meeting) *diffPlace {
 	if m == nil {
 		return nil
 	}
-	p := &diffPlace{Meeting: m.Number, Day: timetable.DayName(m.Day), Start: m.Start.String(), Room: m.Room, Weeks: m.Weeks}
+	p := &diffPlace{Meeting: m.Number, Day: m.DayText(), Start: m.Start.String(), Room: m.Room, Weeks: m.Weeks}
 	if m.End != 0 {
 		p.End = m.End.String()
 	}
