@@ -35,7 +35,7 @@ type meetingJSON struct {
 	Staff   []string `json:"staff"`
 	Cohorts []string `json:"cohorts"`
 	Weeks   string   `json:"weeks,omitempty"`
-	Locked  bool     `json:"locked,omitempty"`
+	Locked  bool     `json:"locked"`
 	// Occ is every weekly occurrence by clock time, which the grid draws
 	// in the rows it overlaps.
 	Occ []occJSON `json:"occ"`
