@@ -55,7 +55,7 @@ func (s *Server) noticesLocked(old, new string) (*noticeSet, int, error) {
 	}
 	t := s.opt.Term
 	if hard := timetable.HardViolations(timetable.Check(t, b)); len(hard) > 0 {
-		return nil, http.StatusConflict, fmt.Errorf("%s breaks %d hard requirements (first: %s: %s), so no notices are made; fix the timetable first", bn, len(hard), hard[0].Rule, hard[0].Msg)
+		return nil, http.StatusConflict, fmt.Errorf("%s breaks %s (first: %s: %s), so no notices are made; fix the timetable first", bn, plural(len(hard), "hard requirement"), hard[0].Rule, hard[0].Msg)
 	}
 	c := timetable.Compare(timetable.MeetingsOf(t, a), timetable.MeetingsOf(t, b))
 	n, err := export.NewNotices(t, b, c)
@@ -145,4 +145,12 @@ func (s *Server) handleNoticeCalendar(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	writeError(w, http.StatusNotFound, fmt.Sprintf("%s %q is not affected by the change from %s to %s, so there is no notice for them; pick one from the list of notices", kind, id, set.oldName, set.newName))
+}
+
+// plural is "1 hard requirement", "2 hard requirements".
+func plural(n int, what string) string {
+	if n == 1 {
+		return "1 " + what
+	}
+	return itoa(n) + " " + what + "s"
 }
