@@ -235,7 +235,7 @@ func replanAnswer(t *timetable.Term, kept *timetable.Schedule, locks map[meeting
 		newLocks[meetingKey{place.Section, m}] = true
 	}
 	out.Status, out.Proven = "found", res.Proven
-	out.Checked = "solver.Verify and timetable.Check (every hard requirement holds, every locked meeting is where it was)"
+	out.Checked = "every hard requirement holds and every locked meeting is where it was (solver.Verify, timetable.Check)"
 	for _, mv := range encode.Moves(t, kept, next) {
 		rm := replanMove{Section: mv.Section, Change: mv.Change}
 		if mv.From != nil {

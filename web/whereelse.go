@@ -72,7 +72,7 @@ func (s *Server) handleWhereElse(w http.ResponseWriter, r *http.Request) {
 		if sec.UsesTimes() {
 			j.setProgress(jobProgress{Phase: "trying each of the section's meeting patterns and rooms with the rest of the timetable as it is"})
 			out.Complete = true
-			out.Basis = "each place is proved by this timetable with the meeting moved there alone (timetable.Check); places that would need other meetings to move are not searched for sections with meeting patterns in this build"
+			out.Basis = "Each place is proved by this timetable with the meeting moved there alone (timetable.Check); places that would need other meetings to move are not searched for sections with meeting patterns in this build"
 			cands = patternCandidates(t, &sec, from)
 		} else {
 			j.setProgress(jobProgress{Phase: "testing every start of " + sec.ID + " against the whole term"})
@@ -82,7 +82,7 @@ func (s *Server) handleWhereElse(w http.ResponseWriter, r *http.Request) {
 				return
 			}
 			out.Complete = complete && ctx.Err() == nil
-			out.Basis = "each place is proved by a full timetable of the term in which the section meets there (encode's explanation search: solver.Verify and timetable.Check)"
+			out.Basis = "Each place is proved by a full timetable of the term in which the section meets there (encode's explanation search: solver.Verify and timetable.Check)"
 			for _, p := range places {
 				if p.Period != from.Period {
 					cands = append(cands, whereJSON{At: p.At, Period: p.Period, Room: p.Room})

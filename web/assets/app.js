@@ -157,7 +157,7 @@ function drawGrid() {
           "aria-label": meetingLabel(m) + ", " + whereText(m) + (m.locked ? ", locked" : "") + (pressed ? ", chosen" : ""),
           draggable: m.locked ? "false" : "true", ondragstart: (e) => { e.dataTransfer.setData("text/plain", String(m.index)); pick(m, false); },
           onclick: (e) => { e.stopPropagation(); pressed ? unpick() : pick(m, true); } },
-          m.locked ? el("span", { class: "lock-tag", text: "Locked" }) : null,
+          m.locked ? el("span", { class: "lock-tag", text: "Locked" }) : null, m.locked ? " " : null,
           m.section + " " + m.start + "–" + m.end, el("small", { text: (m.title || "") + " · " + (m.no_room ? "no room" : m.room) + (m.weeks ? " · weeks " + m.weeks : "") })));
       }
       if (p) td.dataset.period = p.index;
@@ -486,17 +486,29 @@ async function whereElse() {
     out.append(el("h3", { id: "where-h", text: "Where else " + a.section + " meeting " + a.meeting + " could go (now " + a.from + ")" }));
     out.append(el("p", { text: a.basis + "." + (a.complete ? " Every start was tried." : " The search stopped before every start was tried: the list may be short.") }));
     if (!a.places.length) { out.append(el("p", { text: "No other place was found." })); return; }
-    const ul = el("ul", { id: "where-list", class: "places" });
-    for (const p of a.places) {
-      const cost = p.cost.length ? "cost " + p.cost.map((c) => c.name + " " + c.before + " → " + c.after).join("; ") : "no change in cost";
-      const li = el("li", {}, el("strong", { text: p.at + (p.room ? " in " + p.room : "") }), " — ",
-        p.alone ? "can move there alone (" + cost + "). " : "other meetings would have to move (moving it alone breaks " + p.reason + "). ");
-      if (p.alone) li.append(el("button", { type: "button", onclick: () => move(p.period, false, p.time || undefined, p.room || ""), "aria-label": "Move " + meetingLabel(m) + " to " + p.at + (p.room ? " in " + p.room : ""), text: "Move here" }));
-      else li.append(el("button", { type: "button", onclick: () => replan({ section: m.section, meeting: m.meeting, period: p.period }), "aria-label": "Lock " + meetingLabel(m) + " at " + p.at + " and re-plan the rest", text: "Lock it there and re-plan" }));
-      ul.append(li);
+    const alone = a.places.filter((p) => p.alone).length;
+    out.append(el("p", { text: a.places.length + " other place" + (a.places.length > 1 ? "s" : "") + ": " + alone + " where it can move alone, cheapest first, then " + (a.places.length - alone) + " where other meetings would have to move too." }));
+    const rank = (p) => p.levels.reduce((acc, l) => acc * 1e6 + (l.after - l.before), 0);
+    const sorted = [...a.places].sort((x, y) => (y.alone - x.alone) || (rank(x) - rank(y)) || (x.period - y.period) || (x.time - y.time));
+    const tb = el("tbody");
+    for (const p of sorted) {
+      const change = levelDelta(p.levels);
+      tb.append(el("tr", {}, el("th", { scope: "row", class: "nowrap", text: p.at }), el("td", { text: p.room || "no room" }),
+        el("td", { text: p.alone ? "alone" : "with other moves" + (p.reason ? " (alone it breaks: " + p.reason.split(":")[0] + ")" : "") }),
+        el("td", { text: p.alone ? change : "—" }),
+        el("td", {}, p.alone
+          ? el("button", { type: "button", onclick: () => move(p.period, false, p.time || undefined, p.room || ""), "aria-label": "Move " + meetingLabel(m) + " to " + p.at + (p.room ? " in " + p.room : ""), text: "Move here" })
+          : el("button", { type: "button", onclick: () => replan({ section: m.section, meeting: m.meeting, period: p.period }), "aria-label": "Lock " + meetingLabel(m) + " at " + p.at + " and re-plan the rest", text: "Lock it there and re-plan" }))));
     }
-    out.append(ul);
+    out.append(el("div", { class: "scroll places-wrap" }, el("table", { id: "where-list", class: "places" },
+      el("thead", {}, el("tr", {}, ...["Place", "Room", "How", "Change in cost (moving it alone)", ""].map((h) => el("th", { scope: "col", text: h })))), tb)));
   });
+}
+
+// levelDelta is "+4 at level 1, −2 at level 0", or "no change".
+function levelDelta(levels) {
+  const parts = (levels || []).filter((l) => l.after !== l.before).map((l) => (l.after > l.before ? "+" : "−") + Math.abs(l.after - l.before) + " at level " + l.level);
+  return parts.length ? parts.join(", ") : "no change";
 }
 
 async function replan(place) {
@@ -517,7 +529,7 @@ async function replan(place) {
     const a = j.result;
     if (a.status !== "found") { out.append(el("p", { class: "tag", text: a.status === "none" ? "No timetable found with these locks." : "No timetable found in time." }), ...(a.notes || []).map((n) => el("p", { text: n }))); return; }
     out.append(el("p", {}, el("strong", { text: "A new timetable was found" + (j.stopped ? " (stopped early: the best so far)" : "") + ". " }),
-      a.moves.length + " meeting" + (a.moves.length === 1 ? "" : "s") + " move; " + a.locked + " locked meeting" + (a.locked === 1 ? " stays" : "s stay") + " where " + (a.locked === 1 ? "it is" : "they are") + ". Checked by " + a.checked + "." + (a.proven ? " No timetable with these locks costs less." : "")));
+      a.moves.length + " meeting" + (a.moves.length === 1 ? "" : "s") + " move; " + a.locked + " locked meeting" + (a.locked === 1 ? " stays" : "s stay") + " where " + (a.locked === 1 ? "it is" : "they are") + ". Checked: " + a.checked + "." + (a.proven ? " No timetable with these locks costs less." : "")));
     if (a.moves.length) out.append(el("ul", { id: "replan-moves" }, ...a.moves.map((mv) => el("li", { text: mv.section + ": " + [mv.from, mv.to].filter(Boolean).join(" → ") + (mv.change !== "moved" ? " (" + mv.change + ")" : "") }))));
     if (a.cost.length) out.append(el("p", { text: "Change in cost: " + a.cost.map((c) => c.name + " " + c.before + " → " + c.after).join("; ") + "." }));
     else out.append(el("p", { text: "No change in cost." }));
@@ -543,17 +555,24 @@ async function notices() {
   out.textContent = "";
   try {
     const n = await api("GET", "/api/notices?old=" + encodeURIComponent($("cmp-old").value) + "&new=" + encodeURIComponent($("cmp-new").value));
-    out.append(el("p", { text: "Change notices from " + n.old + " to " + n.new + ": " + (n.notices.length ? n.notices.length + " affected." : "no one is affected.") }));
-    n.notices.forEach((x, i) => {
-      const id = "notice-" + i;
-      const who = x.kind + " " + (x.name ? x.name + " (" + x.id + ")" : x.id);
-      const ta = el("textarea", { id, readonly: true, rows: String(Math.min(18, x.text.split("\n").length + 1)), "aria-label": "Notice for " + who });
-      ta.value = x.text;
-      const status = el("span", { class: "copied", role: "status" });
-      out.append(el("article", { class: "notice-item" }, el("h3", { text: who + " — " + x.changes + " change" + (x.changes > 1 ? "s" : "") }), ta,
-        el("p", {}, el("button", { type: "button", class: "copy", onclick: () => copyText(ta, status), text: "Copy text" }), " ",
-          el("a", { href: x.calendar, download: x.file, class: "download", text: "Download calendar " + x.file }), " ", status)));
-    });
+    out.append(el("h3", { id: "notices-h", text: "Change notices: " + n.old + " → " + n.new }));
+    out.append(el("p", { text: n.notices.length ? n.notices.length + " staff members, cohorts and students are affected (rooms get no notice). Open one to copy its text or download its calendar." : "No one is affected." }));
+    const kinds = { staff: "Staff", cohort: "Cohorts", student: "Students" };
+    for (const kind of Object.keys(kinds)) {
+      const list = n.notices.map((x, i) => ({ x, i })).filter(({ x }) => x.kind === kind);
+      if (!list.length) continue;
+      const group = el("section", { class: "notice-group", "aria-label": kinds[kind] + " affected" }, el("h4", { text: kinds[kind] + " (" + list.length + ")" }));
+      for (const { x, i } of list) {
+        const who = x.kind + " " + (x.name ? x.name + " (" + x.id + ")" : x.id);
+        const ta = el("textarea", { id: "notice-" + i, readonly: true, rows: String(Math.min(18, x.text.split("\n").length + 1)), "aria-label": "Notice for " + who });
+        ta.value = x.text;
+        const status = el("span", { class: "copied", role: "status" });
+        group.append(el("details", { class: "notice-item" }, el("summary", { text: who + " — " + x.changes + " change" + (x.changes > 1 ? "s" : "") }), ta,
+          el("p", {}, el("button", { type: "button", class: "copy", onclick: () => copyText(ta, status), text: "Copy text" }), " ",
+            el("a", { href: x.calendar, download: x.file, class: "download", text: "Download calendar " + x.file }), " ", status)));
+      }
+      out.append(group);
+    }
   } catch (e) { out.append(el("p", { class: "tag", text: "Problem: " + e.message })); }
 }
 
@@ -572,6 +591,7 @@ document.addEventListener("DOMContentLoaded", () => {
   $("where-else").addEventListener("click", whereElse);
   $("pattern-move").addEventListener("click", () => move(-1, false, Number($("pattern-choice").value), $("room-choice").value));
   $("replan").addEventListener("click", () => replan(null));
+  $("replan-seconds").addEventListener("focus", (e) => e.target.select());
   $("notices").addEventListener("click", notices);
   $("room-choice").addEventListener("change", drawGrid);
   $("cmp-new").addEventListener("change", (e) => { e.target.dataset.touched = "1"; });
