@@ -39,7 +39,9 @@ func TestBrowserKeyboard(t *testing.T) {
 			require.NoError(t, chromedp.Do(ctx, chromedp.KeyEvent(x)))
 		}
 	}
-	active := func() string { return b.eval(`(document.activeElement.getAttribute("aria-label") || document.activeElement.id || document.activeElement.textContent).trim()`) }
+	active := func() string {
+		return b.eval(`(document.activeElement.getAttribute("aria-label") || document.activeElement.id || document.activeElement.textContent).trim()`)
+	}
 	waitFor := func(js string) {
 		t.Helper()
 		_, err := chromedp.Run(ctx, chromedp.Poll[bool](js))
@@ -105,6 +107,10 @@ func TestBrowserKeyboard(t *testing.T) {
 	assert.Contains(t, active(), ", locked")
 	btn := `button.mtg[data-section="` + m.Section + `"][data-meeting="` + strconv.Itoa(m.Meeting) + `"]`
 	assert.Contains(t, b.text(btn), "Locked")
+	// As drawn: the tag's colour on the button's background, WCAG 2.1 SC 1.4.3.
+	fg := b.eval(`getComputedStyle(document.querySelector('` + btn + ` .lock-tag')).color`)
+	bg := b.eval(`getComputedStyle(document.querySelector('` + btn + `')).backgroundColor`)
+	assert.GreaterOrEqual(t, contrast(t, fg, bg), 4.5, "%s on %s", fg, bg)
 	// Enter picks it: a locked meeting offers no cells to move to.
 	keys(kb.Enter)
 	require.NoError(t, chromedp.Do(ctx, chromedp.WaitVisible(`#picked`)))

@@ -305,9 +305,10 @@ function drawVerdict(res, period) {
   v.hidden = false;
   v.textContent = "";
   v.className = "verdict " + (res.legal ? "legal" : "illegal");
-  v.append(el("p", {}, el("span", { class: "tag", text: res.legal ? "Allowed. " : "Not allowed. " }), res.what + (res.applied ? " — done." : " — not moved.")));
+  const forced = res.applied && !res.legal;
+  v.append(el("p", {}, el("span", { class: "tag", text: res.legal ? "Allowed. " : forced ? "Placed anyway. " : "Not allowed. " }), res.what + (res.applied ? " — done." : " — not moved.")));
   if (res.reasons.length) {
-    v.append(el("p", { text: "It would break " + res.reasons.length + " hard requirement" + (res.reasons.length > 1 ? "s" : "") + ":" }));
+    v.append(el("p", { text: "It " + (forced ? "breaks " : "would break ") + res.reasons.length + " hard requirement" + (res.reasons.length > 1 ? "s" : "") + (forced ? " (listed under Requirements and cost until fixed; “Re-plan the rest” can repair it):" : ":") }));
     v.append(el("ul", { class: "problems" }, ...res.reasons.map((r) => el("li", {}, el("strong", { text: r.rule + ": " }), r.msg))));
   }
   if (res.cost.length) {
