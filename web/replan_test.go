@@ -180,9 +180,25 @@ func TestReplanCancel(t *testing.T) {
 	d := newDemo(t)
 	var j jobJSON
 	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: 300}, &j))
+	// One search at a time: why not and where else wait their turn.
+	var e apiError
+	m := d.sched.Placements[0]
+	require.Equal(t, http.StatusServiceUnavailable, d.call(t, "GET", "/api/whynot?section="+m.Section+"&period=0", nil, &e))
+	require.Equal(t, http.StatusServiceUnavailable, d.call(t, "POST", "/api/whereelse", whereElseRequest{Section: m.Section, Meeting: m.Meeting}, &e))
+	assert.Contains(t, e.Error, "another search is running")
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/job/cancel", jobRequest{ID: j.ID}, &j))
 	j = d.waitJob(t, j.ID)
 	assert.True(t, j.Stopped)
 	r := replanResult(t, j)
 	assert.Contains(t, []string{"found", "unknown"}, r.Status)
+}
+
+// TestCloseStopsJobs: Close (serve's shutdown) ends a running re-plan.
+func TestCloseStopsJobs(t *testing.T) {
+	d := newDemo(t)
+	var j jobJSON
+	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: 300}, &j))
+	d.srv.Close()
+	j = d.waitJob(t, j.ID)
+	assert.NotEqual(t, jobRunning, j.State)
 }
