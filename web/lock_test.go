@@ -25,6 +25,34 @@ func (d *demoFixture) waitJob(t *testing.T, id int) jobJSON {
 	return jobJSON{}
 }
 
+// replanFound starts a re-plan with a long limit, waits until it has a
+// verified timetable (or has ended), stops it and returns the finished
+// job: no test depends on how fast the machine is.
+func (d *demoFixture) replanFound(t *testing.T, req replanRequest) jobJSON {
+	t.Helper()
+	req.Seconds = int(replanMax.Seconds())
+	var j jobJSON
+	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", req, &j))
+	return d.stopWhenFound(t, j.ID)
+}
+
+// stopWhenFound waits until a running re-plan has a verified timetable
+// (or has ended), stops it and returns the finished job.
+func (d *demoFixture) stopWhenFound(t *testing.T, id int) jobJSON {
+	t.Helper()
+	var j jobJSON
+	deadline := time.Now().Add(5 * time.Minute)
+	for time.Now().Before(deadline) {
+		require.Equal(t, http.StatusOK, d.call(t, "GET", "/api/job?id="+itoa(id), nil, &j))
+		if j.State != jobRunning || j.Progress.Cost != nil {
+			break
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/job/cancel", jobRequest{ID: id}, &j))
+	return d.waitJob(t, id)
+}
+
 func lockedIn(st stateJSON, section string, meeting int) bool {
 	for _, m := range st.Meetings {
 		if m.Section == section && m.Meeting == meeting {

@@ -63,10 +63,8 @@ func TestReplanKeepsLocks(t *testing.T) {
 	forced := d.current(t)
 	require.NotEmpty(t, timetable.HardViolations(timetable.Check(d.term, forced)), "the forced move breaks a requirement")
 
-	var j jobJSON
-	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: v, Seconds: 3}, &j))
+	j := d.replanFound(t, replanRequest{Version: v})
 	assert.Equal(t, v, j.Base)
-	j = d.waitJob(t, j.ID)
 	r := replanResult(t, j)
 	require.Equal(t, "found", r.Status, "notes: %v", r.Notes)
 	assert.Equal(t, 2, r.Locked)
@@ -102,9 +100,8 @@ func TestReplanKeepsLocks(t *testing.T) {
 func TestReplanPlace(t *testing.T) {
 	d := newDemo(t)
 	m, _, clash, _ := d.legalAndIllegal(t)
-	var j jobJSON
-	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: 3, Place: &placeSpec{m.Section, m.Meeting, clash}}, &j))
-	r := replanResult(t, d.waitJob(t, j.ID))
+	j := d.replanFound(t, replanRequest{Version: 1, Place: &placeSpec{m.Section, m.Meeting, clash}})
+	r := replanResult(t, j)
 	require.Equal(t, "found", r.Status)
 	assert.NotEmpty(t, r.Moves, "another meeting has to move")
 	var st stateJSON
@@ -127,8 +124,8 @@ func TestReplanStaleAndBad(t *testing.T) {
 	d := newDemo(t)
 	m := d.sched.Placements[0]
 	var j jobJSON
-	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: 4}, &j))
-	// While it runs: a second search is refused, keeping is refused.
+	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: int(replanMax.Seconds())}, &j))
+	// While it runs (it runs until stopped below): a second search is refused, keeping is refused.
 	var e apiError
 	require.Equal(t, http.StatusServiceUnavailable, d.call(t, "POST", "/api/replan", replanRequest{Version: 1, Seconds: 2}, &e))
 	assert.Contains(t, e.Error, "another search is running")
@@ -137,8 +134,8 @@ func TestReplanStaleAndBad(t *testing.T) {
 	// An edit meanwhile makes the re-plan stale.
 	var st stateJSON
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/lock", lockRequest{Version: 1, Section: m.Section, Meeting: m.Meeting, Locked: true}, &st))
-	r := replanResult(t, d.waitJob(t, j.ID))
-	require.Equal(t, "found", r.Status)
+	j = d.stopWhenFound(t, j.ID)
+	require.Equal(t, "found", replanResult(t, j).Status)
 	require.Equal(t, http.StatusConflict, d.call(t, "POST", "/api/replan/decide", decideRequest{Version: 2, Job: j.ID, Keep: true}, &e))
 	assert.Contains(t, e.Error, "started from version 1")
 	assert.Equal(t, 2, e.Version)

@@ -468,9 +468,16 @@ async function cancelJob(id) {
   try { await api("POST", "/api/job/cancel", { id }); } catch (e) { notice(e.message, true); }
 }
 
+// jobBox shows a running job's progress and its stop button in out. It
+// builds them once per job and then only updates the text, so the focus
+// stays on the button; the text is not announced at every tick
+// (aria-live off), only the answer that replaces it.
 function jobBox(out, j, stopText) {
+  const p = out.querySelector(".progress");
+  if (p && out.dataset.job === String(j.id)) { p.textContent = progressText(j); return; }
   out.textContent = "";
-  out.append(el("p", { class: "progress", text: progressText(j) }), el("button", { type: "button", class: "stop", onclick: () => cancelJob(j.id), text: stopText }));
+  out.dataset.job = String(j.id);
+  out.append(el("p", { class: "progress", "aria-live": "off", text: progressText(j) }), el("button", { type: "button", class: "stop", onclick: () => cancelJob(j.id), text: stopText }));
 }
 
 async function whereElse() {
@@ -484,7 +491,7 @@ async function whereElse() {
     if (err) { out.textContent = "Problem: " + err.message; return; }
     if (j.state === "failed") { out.textContent = "Problem: " + j.error; return; }
     const a = j.result;
-    out.append(el("h3", { id: "where-h", text: "Where else " + a.section + " meeting " + a.meeting + " could go (now " + a.from + ")" }));
+    out.append(el("h3", { id: "where-h", tabindex: "-1", text: "Where else " + a.section + " meeting " + a.meeting + " could go (now " + a.from + ")" }));
     out.append(el("p", { text: a.basis + "." + (a.complete ? " Every start was tried." : " The search stopped before every start was tried: the list may be short.") }));
     if (!a.places.length) { out.append(el("p", { text: "No other place was found." })); return; }
     const alone = a.places.filter((p) => p.alone).length;
@@ -503,6 +510,7 @@ async function whereElse() {
     }
     out.append(el("div", { class: "scroll places-wrap" }, el("table", { id: "where-list", class: "places" },
       el("thead", {}, el("tr", {}, ...["Place", "Room", "How", "Change in cost (moving it alone)", ""].map((h) => el("th", { scope: "col", text: h })))), tb)));
+    if (document.activeElement === document.body) $("where-h").focus(); // the stop button that had the focus is gone
   });
 }
 
@@ -525,6 +533,7 @@ async function replan(place) {
   watch(job, (j) => jobBox(out, j, "Stop (keep the best so far)"), (j, err) => {
     $("replan").disabled = false;
     out.textContent = "";
+    setTimeout(() => { if (document.activeElement === document.body) $("replan-h").focus(); }, 0); // the stop button that had the focus is gone
     if (err) { out.textContent = "Problem: " + err.message; return; }
     if (j.state === "failed") { out.textContent = "Problem: " + j.error; return; }
     const a = j.result;
