@@ -338,7 +338,8 @@ async function whyNot(period) {
     const a = await api("GET", q);
     out.textContent = "";
     if (a.granted) {
-      out.append(el("p", { text: "Some timetable of the term does have " + a.request + ": the clash is with this timetable's other meetings, which would have to move." }));
+      out.append(el("p", { text: "Some timetable of the term does have " + a.request + ": the clash is with this timetable's other meetings, which would have to move." }),
+        el("button", { type: "button", id: "whynot-replan", onclick: () => replan({ section: m.section, meeting: m.meeting, period }), text: "Lock it there and re-plan the rest" }));
       return;
     }
     out.append(el("p", {}, el("strong", { text: "No timetable of the term can have " + a.request + "." }), a.reasons.length ? " These requirements cannot all hold" + (a.minimal ? " (drop any one and the rest can):" : ":") : ""));
