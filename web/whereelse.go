@@ -92,7 +92,10 @@ func (s *Server) handleWhereElse(w http.ResponseWriter, r *http.Request) {
 		j.setProgress(jobProgress{Phase: "judging a move of the meeting alone to each place"})
 		s.mu.Lock()
 		out.Version = s.version
-		out.Places = s.judgePlacesLocked(at, from, cands, sec.UsesTimes())
+		// Judge on the timetable as it is now: edits made meanwhile count.
+		if now, err := s.placementLocked(req.Section, req.Meeting); err == nil {
+			out.Places = s.judgePlacesLocked(now, s.cur.Placements[now], cands, sec.UsesTimes())
+		}
 		s.mu.Unlock()
 		j.finish(out, nil, nil)
 	})
@@ -126,16 +129,16 @@ func patternCandidates(t *timetable.Term, sec *timetable.Section, from timetable
 }
 
 // judgePlacesLocked judges, on the current timetable, moving the meeting
-// at index at alone to each candidate: in its own room first, else in the
+// at index at (now at from) alone to each candidate: in its own room first, else in the
 // candidate's room. Only lone moves that break nothing count as proved
 // for pattern sections (onlyAlone).
 func (s *Server) judgePlacesLocked(at int, from timetable.Placement, cands []whereJSON, onlyAlone bool) []whereJSON {
 	t := s.opt.Term
 	out := []whereJSON{}
-	if at >= len(s.cur.Placements) || s.cur.Placements[at].Section != from.Section || s.cur.Placements[at].Meeting != from.Meeting {
-		return out // the timetable changed under the search: nothing to judge against
-	}
 	for _, c := range cands {
+		if c.Period == from.Period && c.Time == from.Time && c.Room == from.Room {
+			continue // where it is now (it moved while the search ran)
+		}
 		rooms := []string{from.Room}
 		if c.Room != from.Room {
 			rooms = append(rooms, c.Room)
