@@ -50,7 +50,11 @@ func TestTermAndState(t *testing.T) {
 	// Every period is a cell of the grid: a day column and a time row.
 	for _, p := range tj.Periods {
 		assert.Contains(t, tj.Days, p.Day)
-		assert.Contains(t, tj.Times, timeRow{p.Start, p.End})
+		found := false
+		for _, r := range tj.Times {
+			found = found || (r.Start == p.Start && r.End == p.End)
+		}
+		assert.True(t, found, "period %s has a row", p.Label)
 	}
 
 	st := d.state(t)

@@ -30,23 +30,22 @@ func chromium(t *testing.T) string {
 	return ""
 }
 
-// TestBrowserEndToEnd opens the page in headless Chromium on the demo
-// term: finds a staff member, moves a meeting onto another meeting of
-// theirs with the mouse (refused: a staff clash), then to a free cell
-// with the keyboard (allowed), saves, and checks the saved workbook with
-// timetable.Check. Screenshots go to $SCREENSHOT_DIR when set.
-func TestBrowserEndToEnd(t *testing.T) {
-	exe := chromium(t)
-	if testing.Short() {
-		t.Skip("the browser test is skipped with -short")
-	}
-	d := newDemo(t)
-	m, legal, clash, staff := d.legalAndIllegal(t)
+// browser is a headless Chromium driven by chromedp, with screenshots
+// written to $SCREENSHOT_DIR (a temporary folder when unset).
+type browser struct {
+	ctx  context.Context
+	shot func(name string)
+	text func(sel string) string
+	eval func(js string) string
+	save func(name string, png []byte)
+}
+
+func newBrowser(t *testing.T, exe string) *browser {
+	t.Helper()
 	shots := os.Getenv("SCREENSHOT_DIR")
 	if shots == "" {
 		shots = t.TempDir()
 	}
-
 	opts := []chromedp.ExecAllocatorOption{
 		chromedp.ExecPath(exe),
 		chromedp.Flag("headless", true),
@@ -60,26 +59,53 @@ func TestBrowserEndToEnd(t *testing.T) {
 		chromedp.WindowSize(1400, 1200),
 	}
 	actx, cancel := chromedp.NewExecAllocator(context.Background(), opts...)
-	defer cancel()
+	t.Cleanup(cancel)
 	ctx, cancel := chromedp.NewContext(actx)
-	defer cancel()
-	ctx, cancel = context.WithTimeout(ctx, 90*time.Second)
-	defer cancel()
-
-	shot := func(name string) {
+	t.Cleanup(cancel)
+	ctx, cancel = context.WithTimeout(ctx, 150*time.Second)
+	t.Cleanup(cancel)
+	b := &browser{ctx: ctx}
+	b.save = func(name string, png []byte) {
+		t.Helper()
+		p := filepath.Join(shots, name+".png")
+		require.NoError(t, os.WriteFile(p, png, 0o644))
+		t.Logf("screenshot %s", p)
+	}
+	b.shot = func(name string) {
 		t.Helper()
 		buf, err := chromedp.Run(ctx, chromedp.FullScreenshot(100))
 		require.NoError(t, err)
-		p := filepath.Join(shots, name+".png")
-		require.NoError(t, os.WriteFile(p, buf, 0o644))
-		t.Logf("screenshot %s", p)
+		b.save(name, buf)
 	}
-	text := func(sel string) string {
+	b.text = func(sel string) string {
 		t.Helper()
 		s, err := chromedp.Run(ctx, chromedp.Text(sel))
 		require.NoError(t, err)
 		return s
 	}
+	b.eval = func(js string) string {
+		t.Helper()
+		s, err := chromedp.Run(ctx, chromedp.Evaluate[string](js))
+		require.NoError(t, err)
+		return s
+	}
+	return b
+}
+
+// TestBrowserEndToEnd opens the page in headless Chromium on the demo
+// term: finds a staff member, moves a meeting onto another meeting of
+// theirs with the mouse (refused: a staff clash), then to a free cell
+// with the keyboard (allowed), saves, and checks the saved workbook with
+// timetable.Check. Screenshots go to $SCREENSHOT_DIR when set.
+func TestBrowserEndToEnd(t *testing.T) {
+	exe := chromium(t)
+	if testing.Short() {
+		t.Skip("the browser test is skipped with -short")
+	}
+	d := newDemo(t)
+	m, legal, clash, staff := d.legalAndIllegal(t)
+	b := newBrowser(t, exe)
+	ctx, shot, text := b.ctx, b.shot, b.text
 	var name string
 	for _, s := range d.term.Staff {
 		if s.ID == staff {

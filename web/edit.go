@@ -15,7 +15,10 @@ type moveRequest struct {
 	Version int    `json:"version"` // the version the page showed
 	Section string `json:"section"`
 	Meeting int    `json:"meeting"`
-	Period  int    `json:"period"` // index into the term's periods
+	Period  int    `json:"period"` // index into the term's periods (grid sections)
+	// Time is the 1-based meeting pattern of a pattern section (Section.Times);
+	// Period is not read for those.
+	Time int `json:"time"`
 	// Room is the new room; nil keeps the meeting's room.
 	Room *string `json:"room"`
 	// Force applies the move even when it breaks a hard requirement.
@@ -50,8 +53,6 @@ type versionRequest struct {
 	Version int `json:"version"`
 }
 
-// staleLocked refuses an edit made on another version than the current
-// one, and says so; it reports whether it refused.
 // beginEdit reads an edit's body into req, takes the lock and refuses an
 // edit naming a stale version (version reads it from req). It reports
 // whether the edit may go on, holding the lock; otherwise it has answered
@@ -69,6 +70,8 @@ func (s *Server) beginEdit(w http.ResponseWriter, r *http.Request, req any, vers
 	return true
 }
 
+// staleLocked refuses an edit made on another version than the current
+// one, and says so; it reports whether it refused.
 func (s *Server) staleLocked(w http.ResponseWriter, v int) bool {
 	if v == s.version {
 		return false
@@ -95,9 +98,7 @@ func (s *Server) handleMove(w http.ResponseWriter, r *http.Request) {
 	res := judgeMove(s.opt.Term, s.cur, next)
 	res.What = moveText(s.opt.Term, s.cur.Placements[at], next.Placements[at])
 	if res.Legal || req.Force {
-		s.undo = append(s.undo, s.cur)
-		s.cur = next
-		s.version++
+		s.commitLocked(next, s.locks)
 		res.Applied = true
 	}
 	st := s.stateLocked()
@@ -110,30 +111,30 @@ func (s *Server) handleMove(w http.ResponseWriter, r *http.Request) {
 // request.
 func (s *Server) movedLocked(req moveRequest) (*timetable.Schedule, int, error) {
 	t := s.opt.Term
-	k, ok := t.SectionIndex()[req.Section]
-	if !ok {
-		return nil, 0, fmt.Errorf("there is no section %q in the term; pick a meeting on the page", req.Section)
+	at, err := s.placementLocked(req.Section, req.Meeting)
+	if err != nil {
+		return nil, 0, err
 	}
-	at := -1
-	for i, p := range s.cur.Placements {
-		if p.Section == req.Section && p.Meeting == req.Meeting {
-			at = i
-			break
-		}
+	if s.locks[meetingKey{req.Section, req.Meeting}] {
+		return nil, 0, fmt.Errorf("%s meeting %d is locked; unlock it first to move it", req.Section, req.Meeting)
 	}
-	if at < 0 {
-		return nil, 0, fmt.Errorf("section %s has no meeting %d in the timetable; pick a meeting on the page", req.Section, req.Meeting)
-	}
-	if req.Period < 0 || req.Period >= len(t.Periods) {
-		return nil, 0, fmt.Errorf("period %d is not in the term's grid (0 to %d); pick a cell of the grid", req.Period, len(t.Periods)-1)
-	}
-	sec := t.Sections[k]
-	if _, ok := t.Span(req.Period, sec.Length); !ok {
-		return nil, 0, fmt.Errorf("%s meets for %d consecutive periods, which do not fit from %s (the day ends or has a gap); pick an earlier cell", sec.ID, sec.Length, t.Periods[req.Period].Label())
-	}
+	sec := t.Sections[t.SectionIndex()[req.Section]]
 	next := cloneSchedule(s.cur)
 	p := &next.Placements[at]
-	p.Period = req.Period
+	if sec.UsesTimes() {
+		if req.Time < 1 || req.Time > len(sec.Times) {
+			return nil, 0, fmt.Errorf("%s meets by one of its %d meeting patterns; pick one of them (time 1 to %d), not %d", sec.ID, len(sec.Times), len(sec.Times), req.Time)
+		}
+		p.Period, p.Time = -1, req.Time
+	} else {
+		if req.Period < 0 || req.Period >= len(t.Periods) {
+			return nil, 0, fmt.Errorf("period %d is not in the term's grid (0 to %d); pick a cell of the grid", req.Period, len(t.Periods)-1)
+		}
+		if _, ok := t.Span(req.Period, sec.Length); !ok {
+			return nil, 0, fmt.Errorf("%s meets for %d consecutive periods, which do not fit from %s (the day ends or has a gap); pick an earlier cell", sec.ID, sec.Length, t.Periods[req.Period].Label())
+		}
+		p.Period = req.Period
+	}
 	if req.Room != nil {
 		room := *req.Room
 		switch {
@@ -147,7 +148,7 @@ func (s *Server) movedLocked(req moveRequest) (*timetable.Schedule, int, error) 
 		p.Room = room
 	}
 	if *p == s.cur.Placements[at] {
-		return nil, 0, fmt.Errorf("%s meeting %d is already at %s in %s; pick another cell or room", sec.ID, req.Meeting, t.Periods[req.Period].Label(), roomName(p.Room))
+		return nil, 0, fmt.Errorf("%s meeting %d is already at %s in %s; pick another time or room", sec.ID, req.Meeting, placementWhen(t, *p), roomName(p.Room))
 	}
 	return next, at, nil
 }
@@ -189,7 +190,7 @@ func roomName(r string) string {
 // moveText is "BIO-101 meeting 1: Mon 09:00 in R1 → Tue 10:00 in R2".
 func moveText(t *timetable.Term, from, to timetable.Placement) string {
 	at := func(p timetable.Placement) string {
-		return periodLabel(t, p.Period) + " in " + roomName(p.Room)
+		return placementWhen(t, p) + " in " + roomName(p.Room)
 	}
 	return fmt.Sprintf("%s meeting %d: %s → %s", from.Section, from.Meeting, at(from), at(to))
 }
@@ -204,10 +205,33 @@ func (s *Server) handleUndo(w http.ResponseWriter, r *http.Request) {
 		writeError(w, http.StatusBadRequest, "there is nothing to undo: the timetable is as it was loaded or last undone")
 		return
 	}
-	s.cur = s.undo[len(s.undo)-1]
+	last := s.undo[len(s.undo)-1]
+	s.cur, s.locks = last.sched, last.locks
 	s.undo = s.undo[:len(s.undo)-1]
 	s.version++
 	writeJSON(w, http.StatusOK, s.stateLocked())
+}
+
+// placementWhen is "Tue 10:00" for a grid meeting and "Mon Wed 09:00–10:15"
+// (with weeks when not every week) for a meeting pattern.
+func placementWhen(t *timetable.Term, p timetable.Placement) string {
+	if p.Time == 0 {
+		return periodLabel(t, p.Period)
+	}
+	if k, ok := t.SectionIndex()[p.Section]; ok && p.Time >= 1 && p.Time <= len(t.Sections[k].Times) {
+		return choiceText(t, t.Sections[k].Times[p.Time-1])
+	}
+	return "meeting pattern " + itoa(p.Time)
+}
+
+// choiceText is "Mon Wed 09:00–10:15" with ", weeks 1-6" when the pattern
+// does not meet every week.
+func choiceText(t *timetable.Term, c timetable.TimeChoice) string {
+	s := c.Days.String() + " " + c.Start.String() + "–" + c.End().String()
+	if c.Weeks != t.AllWeeks() {
+		s += ", weeks " + weeksText(c.Weeks)
+	}
+	return s
 }
 
 // periodLabel is "Tue 10:00", or "period N" outside the grid.

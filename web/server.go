@@ -40,13 +40,17 @@ type Options struct {
 type Server struct {
 	mu      sync.Mutex
 	opt     Options
-	version int                   // number of the current state; starts at 1
-	cur     *timetable.Schedule   // current state
-	undo    []*timetable.Schedule // earlier states, most recent last
-	saved   []savedVersion        // versions on file, in order of saving
+	version int                 // number of the current state; starts at 1
+	cur     *timetable.Schedule // current state
+	locks   map[meetingKey]bool // locked meetings of the current state (never written to)
+	undo    []snapshot          // earlier states, most recent last
+	saved   []savedVersion      // versions on file, in order of saving
 	mux     *http.ServeMux
-	// explaining holds a token while an explanation runs (capacity 1).
+	// explaining holds a token while an explanation or a job runs
+	// (capacity 1): each takes the engine for seconds, on a shared machine.
 	explaining chan struct{}
+	jobs       map[int]*job // jobs by ID, the running one and finished ones not yet collected
+	lastJob    int          // ID of the last job started
 }
 
 // New makes a Server for opt. It fails when the term or the timetable is
@@ -69,7 +73,7 @@ func New(opt Options) (*Server, error) {
 		return nil, err
 	}
 	opt.OutDir = abs
-	s := &Server{opt: opt, version: 1, cur: cloneSchedule(opt.Schedule), explaining: make(chan struct{}, 1)}
+	s := &Server{opt: opt, version: 1, cur: cloneSchedule(opt.Schedule), explaining: make(chan struct{}, 1), jobs: map[int]*job{}}
 	if opt.Source != "" {
 		s.saved = append(s.saved, savedVersion{ID: 1, File: filepath.Base(opt.Source), Path: opt.Source, Edit: 1, sched: cloneSchedule(opt.Schedule)})
 	}
@@ -92,6 +96,14 @@ func (s *Server) routes() {
 	m.HandleFunc("GET /api/versions", s.handleVersions)
 	m.HandleFunc("GET /api/compare", s.handleCompare)
 	m.HandleFunc("GET /api/whynot", s.handleWhyNot)
+	m.HandleFunc("POST /api/lock", s.handleLock)
+	m.HandleFunc("POST /api/replan", s.handleReplan)
+	m.HandleFunc("POST /api/replan/decide", s.handleReplanDecide)
+	m.HandleFunc("POST /api/whereelse", s.handleWhereElse)
+	m.HandleFunc("GET /api/job", s.handleJob)
+	m.HandleFunc("POST /api/job/cancel", s.handleJobCancel)
+	m.HandleFunc("GET /api/notices", s.handleNotices)
+	m.HandleFunc("GET /api/notices/calendar", s.handleNoticeCalendar)
 	s.mux = m
 }
 

@@ -11,6 +11,7 @@ import (
 type stateJSON struct {
 	Version  int           `json:"version"`
 	CanUndo  bool          `json:"can_undo"`
+	Locked   int           `json:"locked"` // locked meetings
 	Meetings []meetingJSON `json:"meetings"`
 	Hard     []problemJSON `json:"hard"` // broken hard requirements
 	Soft     []problemJSON `json:"soft"` // student clashes (a preference)
@@ -23,9 +24,10 @@ type meetingJSON struct {
 	Section string   `json:"section"`
 	Meeting int      `json:"meeting"`
 	Title   string   `json:"title"`
-	Period  int      `json:"period"`
-	Periods []int    `json:"periods"` // every period it occupies
-	Day     string   `json:"day"`
+	Period  int      `json:"period"`         // first grid period; -1 for a meeting pattern
+	Time    int      `json:"time,omitempty"` // 1-based meeting pattern (Section.Times)
+	Periods []int    `json:"periods"`        // every grid period it occupies
+	Day     string   `json:"day"`            // "Tue", or "Mon Wed" for a pattern
 	Start   string   `json:"start"`
 	End     string   `json:"end"`
 	Room    string   `json:"room"`
@@ -33,6 +35,17 @@ type meetingJSON struct {
 	Staff   []string `json:"staff"`
 	Cohorts []string `json:"cohorts"`
 	Weeks   string   `json:"weeks,omitempty"`
+	Locked  bool     `json:"locked"`
+	// Occ is every weekly occurrence by clock time, which the grid draws
+	// in the rows it overlaps.
+	Occ []occJSON `json:"occ"`
+}
+
+// occJSON is one occurrence: a day and minutes since midnight.
+type occJSON struct {
+	Day  string `json:"day"`
+	From int    `json:"from"`
+	To   int    `json:"to"`
 }
 
 type problemJSON struct {
@@ -58,7 +71,7 @@ func (s *Server) handleState(w http.ResponseWriter, r *http.Request) {
 
 func (s *Server) stateLocked() stateJSON {
 	t := s.opt.Term
-	out := stateJSON{Version: s.version, CanUndo: len(s.undo) > 0, Meetings: meetingsOf(t, s.cur)}
+	out := stateJSON{Version: s.version, CanUndo: len(s.undo) > 0, Meetings: meetingsOf(t, s.cur, s.locks), Locked: len(s.locks)}
 	for _, v := range timetable.Check(t, s.cur) {
 		if v.Hard {
 			out.Hard = append(out.Hard, problemJSON{v.Rule, v.Msg})
@@ -83,27 +96,40 @@ func costOf(c timetable.CostReport) costJSON {
 	return out
 }
 
-func meetingsOf(t *timetable.Term, s *timetable.Schedule) []meetingJSON {
+func meetingsOf(t *timetable.Term, s *timetable.Schedule, locks map[meetingKey]bool) []meetingJSON {
 	secs := t.SectionIndex()
 	out := make([]meetingJSON, 0, len(s.Placements))
 	for i, p := range s.Placements {
-		m := meetingJSON{Index: i, Section: p.Section, Meeting: p.Meeting, Period: p.Period, Room: p.Room, Staff: []string{}, Cohorts: []string{}}
-		length := 1
-		if k, ok := secs[p.Section]; ok {
-			sec := t.Sections[k]
-			m.Title, m.NoRoom, length = sec.Title, sec.NoRoom, sec.Length
-			m.Staff = append(m.Staff, sec.Staff...)
-			m.Cohorts = append(m.Cohorts, sec.Cohorts...)
-			if sec.Weeks != 0 && sec.Weeks != t.AllWeeks() {
-				m.Weeks = weeksText(sec.Weeks)
+		m := meetingJSON{Index: i, Section: p.Section, Meeting: p.Meeting, Period: p.Period, Time: p.Time, Room: p.Room,
+			Staff: []string{}, Cohorts: []string{}, Periods: []int{}, Occ: []occJSON{}, Locked: locks[meetingKey{p.Section, p.Meeting}]}
+		k, ok := secs[p.Section]
+		if !ok {
+			out = append(out, m)
+			continue
+		}
+		sec := t.Sections[k]
+		m.Title, m.NoRoom = sec.Title, sec.NoRoom
+		m.Staff = append(m.Staff, sec.Staff...)
+		m.Cohorts = append(m.Cohorts, sec.Cohorts...)
+		weeks := sec.Weeks
+		switch {
+		case sec.UsesTimes():
+			if p.Time >= 1 && p.Time <= len(sec.Times) {
+				c := sec.Times[p.Time-1]
+				m.Day, m.Start, m.End, weeks = c.Days.String(), c.Start.String(), c.End().String(), c.Weeks
+			}
+		default:
+			if span, ok := t.Span(p.Period, sec.Length); ok {
+				m.Periods = span
+				first, last := t.Periods[span[0]], t.Periods[span[len(span)-1]]
+				m.Day, m.Start, m.End = timetable.DayName(first.Day), first.Start.String(), last.End.String()
 			}
 		}
-		if span, ok := t.Span(p.Period, length); ok {
-			m.Periods = span
-			first, last := t.Periods[span[0]], t.Periods[span[len(span)-1]]
-			m.Day, m.Start, m.End = timetable.DayName(first.Day), first.Start.String(), last.End.String()
-		} else {
-			m.Periods = []int{}
+		if weeks != 0 && weeks != t.AllWeeks() {
+			m.Weeks = weeksText(weeks)
+		}
+		for _, o := range t.Occurrences(p) {
+			m.Occ = append(m.Occ, occJSON{timetable.DayName(o.Day), int(o.Start), int(o.End)})
 		}
 		out = append(out, m)
 	}

@@ -4,6 +4,7 @@ import (
 	"net/http"
 	"sort"
 	"strconv"
+	"time"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -19,11 +20,32 @@ type termJSON struct {
 	Cohorts  []subjectJSON       `json:"cohorts"`
 	Students []subjectJSON       `json:"students"`
 	Enrolled map[string][]string `json:"enrolled"` // student ID -> section IDs
+	// Patterns holds, per section that meets by meeting patterns, its
+	// acceptable patterns and rooms: the page's choices for a move.
+	Patterns map[string]patternJSON `json:"patterns"`
 }
 
+// patternJSON is a pattern section's choices.
+type patternJSON struct {
+	Times []choiceJSON `json:"times"`
+	Rooms []choiceJSON `json:"rooms"` // empty: any room that fits
+}
+
+// choiceJSON is one acceptable pattern (Time, 1-based) or room.
+type choiceJSON struct {
+	Time   int    `json:"time,omitempty"`
+	Room   string `json:"room,omitempty"`
+	Text   string `json:"text"`
+	Weight int    `json:"weight"` // preference penalty; 0 = fully acceptable
+}
+
+// timeRow is one row of the week grids; From and To are minutes since
+// midnight, for drawing meetings by clock time.
 type timeRow struct {
 	Start string `json:"start"`
 	End   string `json:"end"`
+	From  int    `json:"from"`
+	To    int    `json:"to"`
 }
 
 type periodJSON struct {
@@ -46,33 +68,58 @@ func (s *Server) handleTerm(w http.ResponseWriter, r *http.Request) {
 }
 
 func buildTerm(t *timetable.Term) termJSON {
-	out := termJSON{Name: t.Name, Enrolled: map[string][]string{}}
-	seenDay := map[string]bool{}
+	out := termJSON{Name: t.Name, Enrolled: map[string][]string{}, Patterns: map[string]patternJSON{}}
+	days := map[time.Weekday]bool{}
 	seenTime := map[timeRow]bool{}
-	type tk struct{ s, e timetable.Clock }
-	var times []tk
+	var rows []timeRow
+	addRow := func(a, b timetable.Clock) {
+		r := timeRow{a.String(), b.String(), int(a), int(b)}
+		if !seenTime[r] {
+			seenTime[r] = true
+			rows = append(rows, r)
+		}
+	}
 	for _, p := range t.Periods {
-		d := timetable.DayName(p.Day)
-		if !seenDay[d] {
-			seenDay[d] = true
-			out.Days = append(out.Days, d)
-		}
-		row := timeRow{p.Start.String(), p.End.String()}
-		if !seenTime[row] {
-			seenTime[row] = true
-			times = append(times, tk{p.Start, p.End})
-		}
-		out.Periods = append(out.Periods, periodJSON{Index: p.Index, Day: d, Start: row.Start, End: row.End, Label: p.Label()})
+		days[p.Day] = true
+		addRow(p.Start, p.End)
+		out.Periods = append(out.Periods, periodJSON{Index: p.Index, Day: timetable.DayName(p.Day), Start: p.Start.String(), End: p.End.String(), Label: p.Label()})
 	}
-	sort.Slice(times, func(i, j int) bool {
-		if times[i].s != times[j].s {
-			return times[i].s < times[j].s
+	// Meeting patterns outside the grid's rows get hourly rows of their own,
+	// so that every pattern meeting has a cell to be drawn in.
+	for i := range t.Sections {
+		sec := &t.Sections[i]
+		if !sec.UsesTimes() {
+			continue
 		}
-		return times[i].e < times[j].e
+		pj := patternJSON{Times: []choiceJSON{}, Rooms: []choiceJSON{}}
+		for k, c := range sec.Times {
+			pj.Times = append(pj.Times, choiceJSON{Time: k + 1, Text: choiceText(t, c), Weight: c.Weight})
+			for _, d := range c.Days.List() {
+				days[d] = true
+			}
+			for h := c.Start / 60 * 60; h < c.End(); h += 60 {
+				if !overlapsRow(rows, h, h+60) {
+					addRow(h, h+60)
+				}
+			}
+		}
+		for _, rc := range sec.RoomChoices {
+			pj.Rooms = append(pj.Rooms, choiceJSON{Room: rc.Room, Text: rc.Room, Weight: rc.Weight})
+		}
+		out.Patterns[sec.ID] = pj
+	}
+	for i := 0; i < 7; i++ {
+		if d := time.Weekday((i + 1) % 7); days[d] {
+			out.Days = append(out.Days, timetable.DayName(d))
+		}
+	}
+	sort.Slice(rows, func(i, j int) bool {
+		if rows[i].From != rows[j].From {
+			return rows[i].From < rows[j].From
+		}
+		return rows[i].To < rows[j].To
 	})
-	for _, x := range times {
-		out.Times = append(out.Times, timeRow{x.s.String(), x.e.String()})
-	}
+	out.Times = rows
 	for _, st := range t.Staff {
 		out.Staff = append(out.Staff, subjectJSON{ID: st.ID, Name: st.Name})
 	}
@@ -90,6 +137,16 @@ func buildTerm(t *timetable.Term) termJSON {
 	}
 	sort.Slice(out.Students, func(i, j int) bool { return out.Students[i].ID < out.Students[j].ID })
 	return out
+}
+
+// overlapsRow says some row shares a minute with [a, b).
+func overlapsRow(rows []timeRow, a, b timetable.Clock) bool {
+	for _, r := range rows {
+		if r.From < int(b) && int(a) < r.To {
+			return true
+		}
+	}
+	return false
 }
 
 func roomDetail(r timetable.Room) string {

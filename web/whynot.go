@@ -51,6 +51,10 @@ func (s *Server) handleWhyNot(w http.ResponseWriter, r *http.Request) {
 		writeError(w, http.StatusBadRequest, fmt.Sprintf("there is no section %q in the term; pick a meeting on the page", sec))
 		return
 	}
+	if ps := patternSections(t); len(ps) > 0 {
+		writeError(w, http.StatusBadRequest, errPatterns("why not", ps).Error())
+		return
+	}
 	per, err := strconv.Atoi(q.Get("period"))
 	if err != nil || per < 0 || per >= len(t.Periods) {
 		writeError(w, http.StatusBadRequest, fmt.Sprintf("period %q is not in the term's grid (0 to %d); pick a cell of the grid", q.Get("period"), len(t.Periods)-1))
@@ -65,7 +69,7 @@ func (s *Server) handleWhyNot(w http.ResponseWriter, r *http.Request) {
 	case s.explaining <- struct{}{}:
 		defer func() { <-s.explaining }()
 	default:
-		writeError(w, http.StatusServiceUnavailable, "another explanation is running; wait for its answer and ask again")
+		writeError(w, http.StatusServiceUnavailable, "another search is running (a re-plan, where else or why not); wait for it or stop it, then ask again")
 		return
 	}
 	p := t.Periods[per]

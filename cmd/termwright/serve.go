@@ -41,9 +41,11 @@ func newServeCmd(e *env) *cobra.Command {
 		Long: "serve starts a web page on this machine for the term and its timetable: week\n" +
 			"grids per staff member, room, cohort and student, the master list, the broken\n" +
 			"hard requirements and the cost per preference. Moves are checked at once (allowed\n" +
-			"or not, with the reasons and the change in cost) and can be undone; Save writes a\n" +
+			"or not, with the reasons and the change in cost) and can be undone; meetings can\n" +
+			"be locked and the rest re-planned with as few changes as possible; Save writes a\n" +
 			"new timetable workbook beside the old one (NAME-2.xlsx, NAME-3.xlsx, ...; nothing\n" +
-			"is overwritten) and versions can be compared per person, room and cohort.\n\n" +
+			"is overwritten), versions can be compared per person, room and cohort, and each\n" +
+			"affected person gets a change notice and an updated calendar to download.\n\n" +
 			"Without TIMETABLE it solves the term first (progress on standard error, at most\n" +
 			"--time-limit). The page listens on the loopback address 127.0.0.1:8080 unless\n" +
 			"--addr names another; an address other machines can reach must be named in full\n" +
@@ -148,6 +150,7 @@ func runServe(ctx context.Context, e *env, o *serveOptions, termPath, ttPath str
 	}
 	sctx, cancel := context.WithTimeout(context.Background(), 5*time.Second)
 	defer cancel()
+	srv.Close() // stop a running re-plan or search: its answer has no page left to go to
 	_ = hs.Shutdown(sctx)
 	if err := <-done; err != nil && !errors.Is(err, http.ErrServerClosed) {
 		return failf(exitError, "the web server stopped: %w", err)
