@@ -26,6 +26,8 @@ const (
 	cEarly
 	cLate
 	cSoftRel
+	cTimeChoice // always 0: terms with meeting times are refused (support.go)
+	cRoomChoice // always 0: terms with room choices are refused
 	nCrit
 )
 
@@ -36,6 +38,7 @@ var critNames = [nCrit]string{
 	timetable.CritCohortIsolated, timetable.CritSpreadDays, timetable.CritRoomStability,
 	timetable.CritOverCapacity, timetable.CritWastedSeats, timetable.CritTravel,
 	timetable.CritEarly, timetable.CritLate, timetable.CritSoftRelations,
+	timetable.CritTimeChoice, timetable.CritRoomChoice,
 }
 
 // tally is a cost in criterion units: u the raw units, w the row-weighted
@@ -155,6 +158,9 @@ type undoRec struct{ m, p, r int32 }
 func New(t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule) (*State, error) {
 	if t == nil || s == nil {
 		return nil, errors.New("improve: a term and a timetable are needed")
+	}
+	if why := Unsupported(t); why != "" {
+		return nil, fmt.Errorf("improve: local search does not model this term: %s", why)
 	}
 	if hv := timetable.HardViolations(timetable.Check(t, s)); len(hv) > 0 {
 		return nil, fmt.Errorf("improve: the starting timetable breaks %d hard requirements; the first: %s", len(hv), hv[0].Msg)
