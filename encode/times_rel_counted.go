@@ -33,7 +33,7 @@ func (b *builder) dayLits(items []relItem) []solver.Lit {
 func (b *builder) hardMaxDays(secs []int, n int, sel solver.Lit) {
 	days := b.dayLits(b.relItems(secs))
 	if len(days) > n {
-		b.bound(days, solver.NoBound, n, sel)
+		b.bound(b.distinct(days), solver.NoBound, n, sel)
 	}
 }
 
@@ -97,11 +97,11 @@ func (b *builder) hardDayKind(rel *timetable.Relation, secs []int, sel solver.Li
 			if most <= rel.N {
 				return
 			}
-			b.bound(b.minuteUnits(items, idx, g), solver.NoBound, max(rel.N, 0)/g, sel)
+			b.bound(b.distinct(b.minuteUnits(items, idx, g)), solver.NoBound, max(rel.N, 0)/g, sel)
 		case timetable.MaxBreaks:
 			o := b.blocks(items, idx, rel.M)
 			if len(o.brk) > rel.N+1 {
-				b.bound(o.brk, solver.NoBound, max(rel.N+1, 0), sel)
+				b.bound(b.distinct(o.brk), solver.NoBound, max(rel.N+1, 0), sel)
 			}
 		case timetable.MaxBlock:
 			o := b.blocks(items, idx, rel.M)
