@@ -10,7 +10,7 @@ import (
 // countCap bounds the size (atoms) of the exact counter of a counted soft
 // row whose sum is divided by the teaching weeks; beyond it the row gets
 // the surrogate of softCounted.
-const countCap = 40000
+var countCap int64 = 40000
 
 // compileTimesSoftRelations writes the soft relation rows over pattern
 // sections ("soft relations" criterion): a non-counted row costs its weight
