@@ -2,14 +2,15 @@ package encode
 
 import (
 	"fmt"
+	"math/bits"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
 
-// countCap bounds the size (atoms) of the exact counter of a counted soft
-// row whose sum is divided by the teaching weeks; beyond it the row gets
-// the surrogate of softCounted.
+// countCap bounds the size (atoms) of the unary counter of a counted soft
+// row whose sum is divided by the teaching weeks; beyond it softCounted
+// counts in binary.
 var countCap int64 = 40000
 
 // compileTimesSoftRelations writes the soft relation rows over pattern
@@ -64,14 +65,13 @@ func (b *builder) compileTimesSoftRelations() {
 }
 
 // softCounted writes a counted row of weight w: weak constraints whose
-// total is w · floor(sum of its terms / divisor). When every term's units
-// are a multiple of the divisor (always for "at most days", and when the
-// items meet in every teaching week) each term is one weak constraint;
-// otherwise a sequential weighted counter gives an atom per multiple of the
-// divisor reached (exact), unless it would exceed countCap atoms: then each
-// term costs w · round(units / divisor) (at least w) as a surrogate, the
-// row is recorded in the catalog (relModel), and the third gate and the
-// optimiser's bound leave the row to timetable.Cost (times_rel_gate.go).
+// total is w · floor(sum of its terms / divisor), exactly. When every
+// term's units are a multiple of the divisor (always for "at most days",
+// and when the items meet in every teaching week) each term is one weak
+// constraint; otherwise a unary weighted counter gives an atom per
+// multiple of the divisor reached, or, when that would exceed countCap
+// atoms, the sum is built in binary and divided by the divisor
+// (times_rel_binary.go) and each quotient bit j weighs w·2^j.
 func (sb *softBuilder) softCounted(ri int, rel *timetable.Relation, secs []int, w int64, l int) {
 	terms, div := sb.countedTerms(rel, secs)
 	terms = mergeTerms(terms)
@@ -94,12 +94,17 @@ func (sb *softBuilder) softCounted(ri int, rel *timetable.Relation, secs []int, 
 		}
 		return
 	}
-	sb.c.rel.inexact = append(sb.c.rel.inexact, ri)
+	var total int64
 	for _, tm := range terms {
-		u := max((tm.units+div/2)/div, 1)
-		sb.p.AddWeak(w*u, l, tm.lit)
-		sb.m.crit = append(sb.m.crit, -1)
-		sb.m.subj = append(sb.m.subj, sb.subject)
+		total += tm.units
+	}
+	// The quotient is at most total/div: its higher bits are always false.
+	q := sb.divBits(sb.sumBits(terms), div)
+	q = q[:min(len(q), bits.Len64(uint64(total/div)))]
+	for j, lit := range q {
+		if lit != 0 {
+			sb.weak(timetable.CritSoftRelations, w<<j, l, lit)
+		}
 	}
 }
 
@@ -123,7 +128,7 @@ func mergeTerms(terms []countTerm) []countTerm {
 // weighted counter s(i,v) "the first i terms sum to at least v" over v up
 // to Q·div (in steps of the gcd of the units and div), with
 // s(i,v) :- s(i-1,v) and s(i,v) :- l_i, s(i-1,v-u_i). It returns nil when
-// that would take more than countCap atoms.
+// that would take more than countCap atoms (or the quotient is 0).
 func (sb *softBuilder) floorCounter(rel *timetable.Relation, ri int, terms []countTerm, div int64) []solver.Lit {
 	g := div
 	var total int64
@@ -134,7 +139,7 @@ func (sb *softBuilder) floorCounter(rel *timetable.Relation, ri int, terms []cou
 	d := div / g
 	q := total / g / d
 	if q == 0 {
-		return nil
+		return []solver.Lit{} // the count is always 0
 	}
 	top := q * d
 	var size, prefix int64
