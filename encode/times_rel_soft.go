@@ -11,7 +11,7 @@ import (
 // countCap bounds the size (atoms) of the unary counter of a counted soft
 // row whose sum is divided by the teaching weeks; beyond it softCounted
 // counts in binary.
-var countCap int64 = 40000
+var countCap int64 = 4000
 
 // compileTimesSoftRelations writes the soft relation rows over pattern
 // sections ("soft relations" criterion): a non-counted row costs its weight
