@@ -32,6 +32,7 @@ type builder struct {
 	stamp                                []int32               // stamp[s] == stampGen: section s seen in the current count
 	stampGen                             int32                 // current stamp
 	pat                                  patState              // pattern sections (pattern_unavail.go)
+	rel                                  relState              // pattern relations and limits (times_rel_rooms.go)
 }
 
 // newAtom makes an atom with a name and a meaning.

@@ -324,7 +324,7 @@ func (o *optRun) global(budget int64) error {
 // whole term: the time part of the cost is at least the engine's bound,
 // and the room part is never negative.
 func (o *optRun) readBound() {
-	lb := o.x.s.LowerBound()
+	lb := o.cat.boundOf(o.x.s.LowerBound()) // none under a surrogate objective (times_rel_gate.go)
 	for i, l := range o.x.s.Levels() {
 		if k := slices.Index(o.levels, l); k >= 0 && i < len(lb) {
 			o.bound[k] = max(o.bound[k], lb[i])

@@ -96,7 +96,7 @@ func (c *Catalog) EngineCost(p *solver.Program, model []solver.Atom) []int64 {
 // error wrapping ErrCostMismatch when they differ.
 func (c *Catalog) thirdGate(t *timetable.Term, p *solver.Program, model []solver.Atom, s, kept *timetable.Schedule) error {
 	eng := c.EngineCost(p, model)
-	rep := TimeCost(t, s, kept)
+	rep := TimeCost(c.exactTerm(t), s, kept)
 	var diffs []string
 	for k, cr := range timetable.Criteria {
 		if c.hasPatterns() && slices.Contains(patternUngated, cr.Name) {

@@ -15,7 +15,7 @@ func (b *builder) compileRelations() {
 	t := b.t
 	for ri := range t.Relations {
 		rel := &t.Relations[ri]
-		if !rel.Hard || rel.Kind == timetable.SameRoom {
+		if !rel.Hard || rel.Kind == timetable.SameRoom || b.timesRelation(rel) { // pattern rows: times_rel.go
 			continue
 		}
 		secs := make([]int, 0, len(rel.Sections))

@@ -16,7 +16,7 @@ func (sb *softBuilder) softRelations() {
 	t := sb.t
 	for ri := range t.Relations {
 		rel := &t.Relations[ri]
-		if rel.Hard || rel.Kind == timetable.SameRoom {
+		if rel.Hard || rel.Kind == timetable.SameRoom || sb.timesRelation(rel) { // pattern rows: times_rel_soft.go
 			continue
 		}
 		w, l, ok := sb.weight(timetable.CritSoftRelations, int64(rel.Weight))

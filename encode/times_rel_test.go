@@ -1,0 +1,288 @@
+package encode
+
+import (
+	"context"
+	"fmt"
+	"math/rand"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
+)
+
+// relTestTerm makes a small random pattern term with one relation row of
+// kind k over nSec sections: patterns from a few day sets, starts and
+// lengths, in all, odd, even or the first two of four teaching weeks; room
+// lists over three rooms in two buildings with travel between them when
+// rooms matter. Every criterion weighs 0 but "soft relations", so that the
+// engine's objective is the row's cost alone.
+func relTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int) *timetable.Term {
+	t := &timetable.Term{
+		Name:     "Relation test term",
+		FirstDay: time.Date(2027, 9, 6, 0, 0, 0, 0, time.UTC),
+		LastDay:  time.Date(2027, 10, 1, 0, 0, 0, 0, time.UTC), // 4 teaching weeks
+		Weights:  map[string]timetable.Weight{},
+	}
+	for _, c := range timetable.Criteria {
+		t.Weights[c.Name] = timetable.Weight{Weight: 0, Level: 1}
+	}
+	t.Weights[timetable.CritSoftRelations] = timetable.Weight{Weight: 1, Level: 1}
+	weeks := []timetable.WeekSet{t.AllWeeks(), 0b0101, 0b1010, 0b0011}
+	days := []timetable.DaySet{
+		timetable.DaysOf(time.Monday), timetable.DaysOf(time.Tuesday), timetable.DaysOf(time.Wednesday),
+		timetable.DaysOf(time.Monday, time.Wednesday), timetable.DaysOf(time.Tuesday, time.Thursday),
+		timetable.DaysOf(time.Monday, time.Tuesday), timetable.DaysOf(time.Monday, time.Wednesday, time.Friday),
+	}
+	starts := []timetable.Clock{8 * 60, 8*60 + 30, 9 * 60, 9*60 + 50, 10 * 60, 11 * 60}
+	lengths := []int{50, 60, 80, 110}
+	rooms := k == timetable.SameRoom || k == timetable.DifferentRooms || k == timetable.SamePeople
+	if rooms {
+		t.Rooms = []timetable.Room{{ID: "R1", Capacity: 40, Building: "North"}, {ID: "R2", Capacity: 40, Building: "North"}, {ID: "R3", Capacity: 40, Building: "South"}}
+		t.Travel = []timetable.Travel{{From: "North", To: "South", Minutes: 15}, {From: "R1", To: "R2", Minutes: 5}}
+	}
+	var ids []string
+	for s := 0; s < nSec; s++ {
+		sec := timetable.Section{ID: fmt.Sprintf("S%d", s+1), Meetings: 1, Size: 20, NoRoom: !rooms,
+			Src: timetable.Source{Sheet: "Sections", Row: s + 2}}
+		n := 2 + rng.Intn(3)
+		seen := map[string]bool{}
+		for len(sec.Times) < n {
+			tc := timetable.TimeChoice{Days: days[rng.Intn(len(days))], Start: starts[rng.Intn(len(starts))],
+				Minutes: lengths[rng.Intn(len(lengths))], Weeks: weeks[rng.Intn(len(weeks))]}
+			if key := fmt.Sprint(tc); !seen[key] {
+				seen[key] = true
+				sec.Times = append(sec.Times, tc)
+			}
+		}
+		if rooms {
+			for _, r := range rng.Perm(3)[:1+rng.Intn(2)] {
+				sec.RoomChoices = append(sec.RoomChoices, timetable.RoomChoice{Room: t.Rooms[r].ID})
+			}
+		}
+		t.Sections = append(t.Sections, sec)
+		ids = append(ids, sec.ID)
+	}
+	rel := timetable.Relation{Kind: k, Sections: ids, Hard: hard, Src: timetable.Source{Sheet: "Relations", Row: 2}}
+	if !hard {
+		rel.Weight = 1 + rng.Intn(4)
+	}
+	switch k {
+	case timetable.DaySpan:
+		rel.N = []int{100, 150, 200}[rng.Intn(3)]
+	case timetable.MinGap:
+		rel.N = []int{0, 10, 30}[rng.Intn(3)]
+	case timetable.MaxDays:
+		rel.N = rng.Intn(3)
+	case timetable.MaxDayMinutes:
+		rel.N = []int{50, 90, 130}[rng.Intn(3)]
+	case timetable.MaxBreaks:
+		rel.N, rel.M = rng.Intn(2), []int{0, 10, 40}[rng.Intn(3)]
+	case timetable.MaxBlock:
+		rel.N, rel.M = []int{60, 100, 150}[rng.Intn(3)], []int{0, 10, 40}[rng.Intn(3)]
+	}
+	t.Relations = []timetable.Relation{rel}
+	return t
+}
+
+// engineModels compiles term and enumerates its stable models (every atom
+// but the time and room atoms is defined by rules, so models and
+// assignments correspond one to one), each verified by solver.Verify and
+// timetable.Check; it returns them as assignments (keyed by assignKey) with
+// the engine's "soft relations" cost of each.
+func engineModels(tb testing.TB, term *timetable.Term) map[string]int64 {
+	tb.Helper()
+	p, cat, err := Compile(term, Options{})
+	if err != nil {
+		tb.Fatalf("compile: %v", err)
+	}
+	s, err := solver.New(p, solver.DefaultOptions())
+	if err != nil {
+		tb.Fatalf("engine: %v", err)
+	}
+	soft := critIndex[timetable.CritSoftRelations]
+	out := map[string]int64{}
+	_, complete := s.Enumerate(context.Background(), 0, nil, func(model []solver.Atom) bool {
+		if err := solver.Verify(p, model); err != nil {
+			tb.Fatalf("verify: %v", err)
+		}
+		a := refAssign{time: make([]int, len(term.Sections)), room: make([]int, len(term.Sections))}
+		for s := range a.room {
+			a.time[s], a.room[s] = -1, -1
+		}
+		for _, x := range model {
+			switch info := cat.AtomInfo(x); info.Kind {
+			case AtomTime:
+				a.time[info.Section] = info.Time - 1
+			case AtomRoom:
+				a.room[info.Section] = info.Room
+			}
+		}
+		checkSchedule(tb, term, a)
+		if _, dup := out[assignKey(a)]; dup {
+			tb.Fatalf("two models for %s", assignKey(a))
+		}
+		out[assignKey(a)] = cat.EngineCost(p, model)[soft]
+		return true
+	})
+	if !complete {
+		tb.Fatal("enumeration did not complete")
+	}
+	return out
+}
+
+// checkSchedule puts an assignment through timetable.Check and fails on a
+// hard violation.
+func checkSchedule(tb testing.TB, term *timetable.Term, a refAssign) {
+	tb.Helper()
+	var sch timetable.Schedule
+	for s, sec := range term.Sections {
+		pl := timetable.Placement{Section: sec.ID, Meeting: 1, Period: -1, Time: a.time[s] + 1}
+		if a.room[s] >= 0 {
+			pl.Room = term.Rooms[a.room[s]].ID
+		}
+		sch.Placements = append(sch.Placements, pl)
+	}
+	for _, v := range timetable.HardViolations(timetable.Check(term, &sch)) {
+		tb.Fatalf("check: %s (%v)", v.Msg, a)
+	}
+}
+
+func assignKey(a refAssign) string { return fmt.Sprint(a.time, a.room) }
+
+// compareWithReference checks the engine against the reference on one
+// term: for a hard row, every assignment the reference accepts without a
+// room clash is a model, and every model is accepted by the reference; for
+// a soft row, every model's engine cost equals the row's weight times the
+// reference count, and the engine's optimum equals the reference optimum.
+func compareWithReference(t *testing.T, term *timetable.Term) {
+	t.Helper()
+	rel := term.Relations[0]
+	models := engineModels(t, term)
+	want := map[string]int64{}
+	for _, a := range refAll(term) {
+		n, broken := refCount(term, rel, a)
+		c := int64(n)
+		if rel.Hard && broken {
+			continue
+		}
+		if !rel.Hard {
+			c *= int64(rel.Weight)
+		}
+		key := assignKey(a)
+		got, ok := models[key]
+		switch {
+		case !ok && !refClash(term, a):
+			t.Fatalf("%s: the reference accepts %s (cost %d) but the engine has no such model\n%s", rel.Kind, key, c, describePatterns(term))
+		case ok && got != c:
+			t.Fatalf("%s: engine cost %d, reference %d for %s\n%s", rel.Kind, got, c, key, describePatterns(term))
+		}
+		want[key] = c
+	}
+	for key := range models {
+		if _, ok := want[key]; !ok {
+			t.Fatalf("%s: the engine has model %s, which the reference rejects\n%s", rel.Kind, key, describePatterns(term))
+		}
+	}
+	if !rel.Hard && len(models) > 0 {
+		p, _, err := Compile(term, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := solver.New(p, solver.DefaultOptions())
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, cost, err := s.Optimize(context.Background(), nil)
+		if err != nil || st != solver.Satisfiable {
+			t.Fatalf("optimize: %v %v", st, err)
+		}
+		best := int64(-1)
+		for _, c := range models {
+			if best < 0 || c < best {
+				best = c
+			}
+		}
+		var sum int64
+		for _, c := range cost {
+			sum += c
+		}
+		if sum != best {
+			t.Fatalf("%s: engine optimum %v, reference optimum %d\n%s", rel.Kind, cost, best, describePatterns(term))
+		}
+	}
+}
+
+func describePatterns(t *timetable.Term) string {
+	var sb strings.Builder
+	r := t.Relations[0]
+	fmt.Fprintf(&sb, "relation %s hard=%v w=%d N=%d M=%d\n", r.Kind, r.Hard, r.Weight, r.N, r.M)
+	for _, s := range t.Sections {
+		fmt.Fprintf(&sb, "  %s:", s.ID)
+		for i, tc := range s.Times {
+			fmt.Fprintf(&sb, " [%d] %s %s+%d w%04b;", i, tc.Days, tc.Start, tc.Minutes, tc.Weeks)
+		}
+		for _, rc := range s.RoomChoices {
+			fmt.Fprintf(&sb, " %s", rc.Room)
+		}
+		sb.WriteByte('\n')
+	}
+	return sb.String()
+}
+
+// TestPatternRelationsAgainstReference checks every relation kind, hard
+// and soft, on random small terms against the reference enumeration
+// (times_rel_ref_test.go, the definitions of timetable/term.go).
+func TestPatternRelationsAgainstReference(t *testing.T) {
+	rounds := 12
+	if testing.Short() {
+		rounds = 4
+	}
+	for _, rk := range timetable.RelationKinds {
+		for _, hard := range []bool{true, false} {
+			name := strings.ReplaceAll(rk.Name, " ", "_")
+			if !hard {
+				name += "/soft"
+			}
+			t.Run(name, func(t *testing.T) {
+				rng := rand.New(rand.NewSource(int64(rk.Kind) * 7919))
+				for round := 0; round < rounds; round++ {
+					compareWithReference(t, relTestTerm(rng, rk.Kind, hard, 2+round%2))
+				}
+			})
+		}
+	}
+}
+
+// TestPatternRelationsOrderedPair covers a section listed twice in an
+// ordered row ("before" with A, A: A's meetings all before its own starts,
+// which no pattern of two days or more can do).
+func TestPatternRelationsOrderedPair(t *testing.T) {
+	rng := rand.New(rand.NewSource(5))
+	term := relTestTerm(rng, timetable.Before, true, 1)
+	term.Sections[0].Times = []timetable.TimeChoice{
+		{Days: timetable.DaysOf(time.Monday), Start: 9 * 60, Minutes: 50, Weeks: term.AllWeeks()},
+		{Days: timetable.DaysOf(time.Monday, time.Wednesday), Start: 9 * 60, Minutes: 50, Weeks: term.AllWeeks()},
+	}
+	term.Relations[0].Sections = []string{"S1", "S1"}
+	compareWithReference(t, term)
+	// Reference (term.go, "before"): a meeting's own periods are not before
+	// its start, so no pattern passes.
+	if models := engineModels(t, term); len(models) != 0 {
+		t.Fatalf("models %v, want none", models)
+	}
+}
+
+// TestPatternRelationGridRowsRejected: a new kind over grid sections, or a
+// row mixing grid and pattern sections, is an input error naming its row.
+func TestPatternRelationGridRowsRejected(t *testing.T) {
+	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.NoOverlap, true, 2)
+	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
+	term.Sections[1].Times = nil
+	term.Sections[1].Length = 1
+	_, _, err := Compile(term, Options{})
+	if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
+		t.Fatalf("err = %v, want the mixed row named", err)
+	}
+}
