@@ -76,9 +76,10 @@ func (b *builder) occupantsOf(secs []int, grid bool) []interval {
 	return out
 }
 
-// maximalCliques returns the maximal sets of mutually overlapping
-// intervals among occ, as sorted index lists into occ, each distinct set
-// once: a sweep per teaching week and day over the members meeting then.
+// maximalCliques returns the maximal sets of two or more mutually
+// overlapping intervals among occ, as sorted index lists into occ, each
+// distinct set once: a sweep per teaching week and day over the members
+// meeting then.
 func maximalCliques(occ []interval, nWeeks int) [][]int {
 	if nWeeks < 1 {
 		nWeeks = 1
@@ -120,8 +121,8 @@ func maximalCliques(occ []interval, nWeeks int) [][]int {
 	return out
 }
 
-// sweep returns the maximal cliques of the intervals occ[members] (all on
-// one day of one week), each as a sorted index list: endpoints in order,
+// sweep returns the maximal cliques of two or more of the intervals
+// occ[members] (all on one day of one week), each as a sorted index list: endpoints in order,
 // ends before starts at equal times (intervals are half-open), and the
 // active set reported whenever an end follows a start.
 func sweep(occ []interval, members []int) [][]int {
@@ -152,7 +153,7 @@ func sweep(occ []interval, members []int) [][]int {
 			grown = true
 			continue
 		}
-		if grown {
+		if grown && len(active) >= 2 {
 			c := make([]int, 0, len(active))
 			for i := range active {
 				c = append(c, i)

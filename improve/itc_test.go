@@ -15,6 +15,7 @@ import (
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/timetable"
+	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 // itcDir is the shared ITC-2007 folder (never copied into the
@@ -49,7 +50,7 @@ func readITC(tb testing.TB, name string) *timetable.Term {
 	}
 	require.NoError(tb, err)
 	defer f.Close()
-	term, err := timetable.ReadCTT(f, name+".ctt")
+	term, err := benchfmt.ReadCTT(f, name+".ctt")
 	require.NoError(tb, err)
 	return term
 }
@@ -69,8 +70,8 @@ func firstTimetable(tb testing.TB, term *timetable.Term) *timetable.Schedule {
 // IMPROVE_ITC (for example "30s"; the test is skipped without it or
 // without the shared data) from the engine's first timetable, and prints
 // cost against the best known. It checks every result with the
-// competition's own hard constraints and cost (timetable.ITCHardViolations
-// and timetable.ITCCost, which implement the definitions of Di Gaspero,
+// competition's own hard constraints and cost (benchfmt.CTTHardViolations
+// and benchfmt.CTTCost, which implement the definitions of Di Gaspero,
 // McCollum, Schaerf 2007, QUB/IEEE/Tech/ITC2007/CurriculumCTT/v1.0). No
 // timing is asserted.
 func TestITC2007(t *testing.T) {
@@ -83,7 +84,7 @@ func TestITC2007(t *testing.T) {
 		t.Skip("shared ITC-2007 data not found")
 	}
 	require.NoError(t, err)
-	best, err := timetable.ReadITCBest(f, "best-known.csv")
+	best, err := benchfmt.ReadCTTBest(f, "best-known.csv")
 	f.Close()
 	require.NoError(t, err)
 	// IMPROVE_SHARE and IMPROVE_SEED optionally set Options.CycleShare
@@ -96,15 +97,15 @@ func TestITC2007(t *testing.T) {
 	for _, name := range itcInstances {
 		term := readITC(t, name)
 		start := firstTimetable(t, term)
-		startCost, _ := timetable.ITCCost(term, start)
+		startCost, _ := benchfmt.CTTCost(term, start)
 		ctx, cancel := context.WithTimeout(context.Background(), limit)
 		var bestAt time.Duration
 		t0 := time.Now()
 		res, err := improve.Run(ctx, term, start, nil, improve.Options{Seed: seed, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
 		cancel()
 		require.NoError(t, err)
-		require.Zero(t, timetable.ITCHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
-		cost, parts := timetable.ITCCost(term, res.Best)
+		require.Zero(t, benchfmt.CTTHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
+		cost, parts := benchfmt.CTTCost(term, res.Best)
 		require.Equal(t, int64(cost), res.Cost.ByLevel[1]+res.Cost.ByLevel[0], "%s: termwright's cost differs from the competition's", name)
 		b := best[name].Best
 		ratio := float64(cost+1) / float64(b+1)

@@ -178,7 +178,7 @@ func (x *occupancy) relSameSets(kind RelationKind, secs []int, note func(string,
 		if slices.Equal(first, ks) && (kind != SameStart || len(ks) <= 1) {
 			continue
 		}
-		note(say(secs[0], first)+" but "+say(si, ks), append(relPls(x.sectionMeets(secs[0])), relPls(x.sectionMeets(si))...)...)
+		note(say(secs[0], first)+" while "+say(si, ks), append(relPls(x.sectionMeets(secs[0])), relPls(x.sectionMeets(si))...)...)
 	}
 }
 
@@ -207,7 +207,7 @@ func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(string, ..
 		if dayRank(la.Day) < dayRank(fb.Day) || la.Day == fb.Day && la.End <= fb.Start {
 			return
 		}
-		note(ida+" is still meeting until "+DayName(la.Day)+" "+la.End.String()+" but "+idb+" starts at "+
+		note(ida+" is still meeting until "+DayName(la.Day)+" "+la.End.String()+" while "+idb+" starts at "+
 			DayName(fb.Day)+" "+fb.Start.String(), la.pl, fb.pl)
 	case BackToBack:
 		for _, m := range mb {
@@ -494,11 +494,11 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(string, ...int)
 	var what string
 	switch r.Kind {
 	case MaxDayMinutes:
-		what = chkMinutes(worst) + " too many"
+		what = chkMinutes(worst) + " over the limit"
 	case MaxBreaks:
-		what = itoa(worst) + " breaks too many"
+		what = chkCount(worst, "break", "breaks") + " too many"
 	case MaxBlock:
-		what = itoa(worst) + " blocks too long"
+		what = chkCount(worst, "block", "blocks") + " too long"
 	}
 	note("on "+worstDay+" of week "+itoa(worstWeek)+" they have "+what+" (over all weeks and days "+itoa(total)+", "+
 		itoa(total/x.t.TeachingWeeks())+" after dividing by the "+itoa(x.t.TeachingWeeks())+" teaching weeks)", hit...)
@@ -525,4 +525,12 @@ func relBlocks(b []occMeet, gap int) []relBlock {
 		out = append(out, relBlock{m.Start, m.End, 1})
 	}
 	return out
+}
+
+// chkCount is "1 break", "3 breaks".
+func chkCount(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return itoa(n) + " " + many
 }

@@ -53,7 +53,7 @@ var Criteria = []Criterion{
 	{CritTravel, 1, 1, "per staff member or cohort, per pair of their meetings in consecutive periods of one day held in rooms of different non-empty buildings (grid meetings only; the travel times between rooms are a hard rule for every meeting)"},
 	{CritEarly, 0, 0, "per grid meeting that occupies the first period of its day"},
 	{CritLate, 0, 0, "per grid meeting that occupies the last period of its day"},
-	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken, once however many pairs break it (for the counted kinds at most days, at most minutes a day, at most breaks and longest block: w times the count the kind defines); the criterion weight multiplies w"},
+	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken, once however many pairs break it (for the counted kinds at most days, at most minutes a day, at most breaks and longest block: the cost the kind defines); the criterion weight multiplies w"},
 	{CritTimeChoice, 1, 1, "per pattern section, the Weight of its chosen meeting time; the criterion weight multiplies it"},
 	{CritRoomChoice, 1, 1, "per meeting of a section with room choices (a pattern section's one placement counts once), the Weight of its room; the criterion weight multiplies it"},
 }

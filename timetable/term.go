@@ -207,7 +207,8 @@ type RelationKind int
 // "grid index" as (day in week order, time). Kinds marked "pairwise" hold
 // for every pair of different listed sections; a soft relation costs its
 // Weight once when broken, except the four kinds marked "counted", which
-// cost Weight times the count they define.
+// cost what their definitions say (Weight times a count; the three per-week
+// kinds divide Weight times their excess by the teaching weeks at the end).
 const (
 	SameTime      RelationKind = iota + 1 // all listed sections have the same set of start periods (validation: same Meetings and Length)
 	NotSameTime                           // no two listed sections occupy a common period
@@ -231,9 +232,9 @@ const (
 	DaySpan        // pairwise: any two meetings on a common day in a common week lie within N minutes (latest end minus earliest start <= N)
 	MinGap         // pairwise: any two meetings on a common day in a common week have at least N free minutes between them
 	MaxDays        // counted: the listed sections together meet on at most N distinct weekdays (weeks ignored); count = days over N
-	MaxDayMinutes  // counted: in every teaching week, every day's meetings of the listed sections total at most N minutes; count = sum over weeks and days of the minutes over N, divided by the term's teaching weeks, rounded down
-	MaxBreaks      // counted: in every teaching week and day, the listed sections' meetings form at most N+1 blocks (a meeting starting at most M minutes after a block's end joins it); count = sum over weeks and days of the blocks over N+1, divided by the teaching weeks, rounded down
-	MaxBlock       // counted: in every teaching week and day, no block (as in MaxBreaks, M minutes) of two or more meetings lasts more than N minutes from first start to last end; count = sum over weeks and days of such blocks, divided by the teaching weeks, rounded down
+	MaxDayMinutes  // counted: in every teaching week, every day's meetings of the listed sections total at most N minutes; cost = Weight x (sum over weeks and days of the minutes over N, in 5-minute steps, rounded down) / the term's teaching weeks, rounded down after multiplying
+	MaxBreaks      // counted: in every teaching week and day, the listed sections' meetings form at most N+1 blocks (a meeting starting at most M minutes after a block's end joins it); cost = Weight x (sum over weeks and days of the blocks over N+1) / the teaching weeks, rounded down after multiplying
+	MaxBlock       // counted: in every teaching week and day, no block (as in MaxBreaks, M minutes) of two or more meetings lasts more than N minutes from first start to last end; cost = Weight x (number of such blocks over weeks and days) / the teaching weeks, rounded down after multiplying; a lone meeting longer than N is no block
 )
 
 // RelationKinds lists every kind with its workbook spelling, in sheet order.

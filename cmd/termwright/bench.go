@@ -21,6 +21,7 @@ import (
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
+	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 func init() { register("bench", newBenchCmd) }
@@ -47,7 +48,7 @@ func newBenchCmd(e *env) *cobra.Command {
 	o := &benchOptions{}
 	cmd := &cobra.Command{
 		Use:   "bench DIR",
-		Short: "Measure the solver on a folder of public benchmark instances (.ctt)",
+		Short: "Measure the solver on a folder of public benchmark instances (.ctt, .xml)",
 		Long: "bench runs every .ctt file in DIR (the ITC-2007 curriculum-based course\n" +
 			"timetabling format) through the same compile, search, verify and check steps\n" +
 			"as a real term, with --time-limit per instance. It prints one row per\n" +
@@ -59,37 +60,47 @@ func newBenchCmd(e *env) *cobra.Command {
 			"written as SOLDIR/<instance>.sol in the competition's solution format\n" +
 			"(\"course room day period\" per meeting), never over an existing file unless\n" +
 			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
-			"fails, and 0 otherwise (instances left without a timetable show in the table).",
+			"fails, and 0 otherwise (instances left without a timetable show in the table).\n\n" +
+			"Every .xml file in DIR (the ITC-2019 course timetabling format) runs the same\n" +
+			"way as a term of meeting patterns and room choices; its table gives whether the\n" +
+			"timetable is valid, the cost by the competition's definition and its time, room\n" +
+			"and relation parts (students are not sectioned yet, so their part is left out).\n" +
+			"With --best (a table with instance, best, time, room and distribution columns)\n" +
+			"each cost is compared with the best known's time, room and relation parts as\n" +
+			"(cost+1)/(reference+1). With --out, each timetable is written as\n" +
+			"OUT/<instance>.solution.xml in the competition's solution format.",
 		Args: cobra.ExactArgs(1),
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runBench(cmd.Context(), e, o, args[0]) }),
 	}
 	f := cmd.Flags()
 	f.DurationVar(&o.timeLimit, "time-limit", 60*time.Second, "time allowed per instance")
 	f.StringVar(&o.best, "best", "", "CSV of best-known costs (columns instance,best[,lower_bound,source])")
-	f.StringVar(&o.out, "out", "", "folder to write <instance>.sol solutions to")
+	f.StringVar(&o.out, "out", "", "folder to write <instance>.sol (or .solution.xml) solutions to")
 	f.BoolVar(&o.json, "json", false, "print the results as JSON")
 	f.StringVar(&o.jsonOut, "json-out", "", "also write the results as JSON to this file")
 	f.Int64Var(&o.seed, "seed", 1, "engine seed (the same seed repeats a run)")
 	f.IntVar(&o.threads, "threads", 1, "differently seeded searches to run in parallel per instance")
-	f.BoolVar(&o.force, "force", false, "replace existing .sol files in --out")
+	f.BoolVar(&o.force, "force", false, "replace existing solution files in --out")
 	return cmd
 }
 
 // benchRow is the result for one instance; its JSON form is stable.
 type benchRow struct {
-	Instance  string `json:"instance"`
+	Instance string `json:"instance"`
+	// Format is "curriculum" for a .ctt instance, "patterns" for an .xml one.
+	Format    string `json:"format"`
 	Courses   int    `json:"courses"`
 	Meetings  int    `json:"meetings"`
 	Rooms     int    `json:"rooms"`
 	Curricula int    `json:"curricula"`
 	// Status is the engine's outcome: "satisfiable", "unsatisfiable",
 	// "unknown" (time limit) or "error".
-	Status   string              `json:"status"`
-	Feasible bool                `json:"feasible"` // a timetable with no hard violation (Check and the competition's rules)
-	Cost     *int                `json:"cost"`     // competition cost; null without a timetable
-	Parts    *timetable.ITCParts `json:"parts,omitempty"`
-	Hard     *timetable.ITCHard  `json:"hard,omitempty"`
-	Bound    *int                `json:"lower_bound"` // proved lower bound; null when none
+	Status   string             `json:"status"`
+	Feasible bool               `json:"feasible"` // a timetable with no hard violation (Check and the competition's rules)
+	Cost     *int               `json:"cost"`     // competition cost; null without a timetable
+	Parts    *benchfmt.CTTParts `json:"parts,omitempty"`
+	Hard     *benchfmt.CTTHard  `json:"hard,omitempty"`
+	Bound    *int               `json:"lower_bound"` // proved lower bound; null when none
 	// FirstMS and BestMS are wall-clock milliseconds from the start of the
 	// instance to the first feasible and to the best timetable.
 	FirstMS   *int64   `json:"first_feasible_ms"`
@@ -99,6 +110,9 @@ type benchRow struct {
 	Ratio     *float64 `json:"ratio,omitempty"` // cost / best known, when the best known is positive
 	Solution  string   `json:"solution,omitempty"`
 	Error     string   `json:"error,omitempty"`
+	// Pattern holds what only pattern instances have; Ratio is then
+	// (cost+1)/(reference+1).
+	Pattern *benchPatternRow `json:"patterns,omitempty"`
 }
 
 // benchReport is the JSON output of bench.
@@ -110,6 +124,10 @@ type benchReport struct {
 	// have one; null when none has.
 	GeoMeanRatio *float64 `json:"geomean_ratio"`
 	RatioCount   int      `json:"ratio_count"` // instances in the geometric mean
+	// PatternGeoMean is the geometric mean of (cost+1)/(reference+1) over
+	// the pattern instances that have one.
+	PatternGeoMean    *float64 `json:"patterns_geomean_ratio,omitempty"`
+	PatternRatioCount int      `json:"patterns_ratio_count,omitempty"`
 }
 
 func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
@@ -120,18 +138,28 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		return withCode(exitError, "--time-limit must be positive, e.g. 60s")
 	}
 	files, err := filepath.Glob(filepath.Join(dir, "*.ctt"))
-	if err != nil || len(files) == 0 {
+	xmlFiles, xerr := filepath.Glob(filepath.Join(dir, "*.xml"))
+	if err != nil || xerr != nil || len(files)+len(xmlFiles) == 0 {
 		if _, serr := os.Stat(dir); serr != nil {
 			return failf(exitError, "cannot read %s: %w", dir, serr)
 		}
-		return withCode(exitError, fmt.Sprintf("%s holds no .ctt files; give the folder of benchmark instances", dir))
+		return withCode(exitError, fmt.Sprintf("%s holds no .ctt or .xml files; give the folder of benchmark instances", dir))
 	}
 	sort.Strings(files)
-	best, err := benchReadBest(o.best)
-	if err != nil {
-		return wrapCode(exitError, err)
+	sort.Strings(xmlFiles)
+	var best map[string]benchfmt.CTTBest
+	var xmlBest map[string]benchfmt.XMLBest
+	if len(files) > 0 {
+		if best, err = benchReadBest(o.best); err != nil {
+			return wrapCode(exitError, err)
+		}
 	}
-	if err := benchPrepareOut(o, files); err != nil {
+	if len(xmlFiles) > 0 {
+		if xmlBest, err = benchReadXMLBest(o.best); err != nil {
+			return wrapCode(exitError, err)
+		}
+	}
+	if err := benchPrepareOut(o, files, xmlFiles); err != nil {
 		return wrapCode(exitError, err)
 	}
 	if o.jsonOut != "" && !o.force {
@@ -157,7 +185,30 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		failed = failed || row.Status == "error"
 		rep.Instances = append(rep.Instances, row)
 	}
-	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(rep.Instances)
+	for _, path := range xmlFiles {
+		if ctx.Err() != nil {
+			fmt.Fprintln(e.stderr, "bench: interrupted; results so far follow")
+			break
+		}
+		row := benchOneXML(ctx, e, o, path)
+		if b, ok := xmlBest[row.Instance]; ok {
+			if w, err := benchXMLWeights(path); err == nil {
+				benchXMLRatio(&row, b, w)
+			}
+		}
+		failed = failed || row.Status == "error"
+		rep.Instances = append(rep.Instances, row)
+	}
+	var ctt, pat []benchRow
+	for _, r := range rep.Instances {
+		if r.Pattern != nil {
+			pat = append(pat, r)
+		} else {
+			ctt = append(ctt, r)
+		}
+	}
+	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt)
+	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat)
 	var js bytes.Buffer
 	enc := json.NewEncoder(&js)
 	enc.SetIndent("", "  ")
@@ -174,7 +225,22 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 			return err
 		}
 	} else {
-		benchWriteTable(e.stdout, rep, o.best != "")
+		if len(ctt) > 0 {
+			benchWriteTable(e.stdout, benchReport{Instances: ctt, GeoMeanRatio: rep.GeoMeanRatio, RatioCount: rep.RatioCount}, o.best != "")
+		}
+		if len(pat) > 0 {
+			if len(ctt) > 0 {
+				fmt.Fprintln(e.stdout)
+			}
+			benchWriteXMLTable(e.stdout, pat, o.best != "")
+			if o.best != "" {
+				if rep.PatternGeoMean == nil {
+					fmt.Fprintln(e.stdout, "geometric mean of (cost+1)/(reference+1): - (no instance with a valid timetable and a best known)")
+				} else {
+					fmt.Fprintf(e.stdout, "geometric mean of (cost+1)/(reference+1): %.2f over %d of %d instances\n", *rep.PatternGeoMean, rep.PatternRatioCount, len(pat))
+				}
+			}
+		}
 	}
 	if failed {
 		return withCode(exitError, "some instances could not be run; see the error column")
@@ -185,14 +251,14 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 // benchOne reads, solves, checks and writes one instance.
 func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRow {
 	name := strings.TrimSuffix(filepath.Base(path), ".ctt")
-	row := benchRow{Instance: name, Status: "error"}
+	row := benchRow{Instance: name, Format: "curriculum", Status: "error"}
 	data, err := os.ReadFile(path)
 	if err != nil {
 		row.Error = err.Error()
 		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
 		return row
 	}
-	term, err := timetable.ReadCTT(bytes.NewReader(data), filepath.Base(path))
+	term, err := benchfmt.ReadCTT(bytes.NewReader(data), filepath.Base(path))
 	if err != nil {
 		row.Error = "cannot read the instance"
 		fmt.Fprintf(e.stderr, "bench: %v\n", err)
@@ -237,13 +303,13 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 // benchScore fills feasibility, cost and times for a timetable found after
 // elapsed; benchTimes then refines the times from the optimiser's history.
 func benchScore(e *env, row *benchRow, term *timetable.Term, s *timetable.Schedule, elapsed time.Duration) {
-	hard := timetable.ITCHardViolations(term, s)
+	hard := benchfmt.CTTHardViolations(term, s)
 	checked := timetable.HardViolations(timetable.Check(term, s))
 	row.Feasible = hard.Total() == 0 && len(checked) == 0
 	if hard.Total() == 0 && len(checked) > 0 {
 		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
 	}
-	total, parts := timetable.ITCCost(term, s)
+	total, parts := benchfmt.CTTCost(term, s)
 	row.Cost, row.Parts, row.Hard = &total, &parts, &hard
 	if row.Feasible {
 		var own int64
@@ -267,7 +333,7 @@ func benchTimes(row *benchRow, res *encode.OptimizeResult) {
 		row.FirstMS, row.BestMS = &first, &best
 	}
 	if res.Bound != nil {
-		// Every competition criterion is on one level (timetable.ITCLevel)
+		// Every competition criterion is on one level (benchfmt.CTTLevel)
 		// and all others weigh 0, so the sum is a bound on the total.
 		var b int64
 		for _, v := range res.Bound {
@@ -279,7 +345,7 @@ func benchTimes(row *benchRow, res *encode.OptimizeResult) {
 }
 
 // benchReadBest reads the best-known table, or nothing when path is "".
-func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
+func benchReadBest(path string) (map[string]benchfmt.CTTBest, error) {
 	if path == "" {
 		return nil, nil
 	}
@@ -288,12 +354,12 @@ func benchReadBest(path string) (map[string]timetable.ITCBest, error) {
 		return nil, fmt.Errorf("cannot read --best: %w", err)
 	}
 	defer f.Close()
-	return timetable.ReadITCBest(f, filepath.Base(path))
+	return benchfmt.ReadCTTBest(f, filepath.Base(path))
 }
 
 // benchPrepareOut makes the solution folder and refuses, before any
 // instance runs, to replace existing solutions without --force.
-func benchPrepareOut(o *benchOptions, files []string) error {
+func benchPrepareOut(o *benchOptions, files, xmlFiles []string) error {
 	if o.out == "" {
 		return nil
 	}
@@ -304,8 +370,14 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 		return nil
 	}
 	var exist []string
+	sols := make([]string, 0, len(files)+len(xmlFiles))
 	for _, f := range files {
-		sol := filepath.Join(o.out, strings.TrimSuffix(filepath.Base(f), ".ctt")+".sol")
+		sols = append(sols, filepath.Join(o.out, strings.TrimSuffix(filepath.Base(f), ".ctt")+".sol"))
+	}
+	for _, f := range xmlFiles {
+		sols = append(sols, benchXMLSolutionFile(o.out, f))
+	}
+	for _, sol := range sols {
 		if _, err := os.Stat(sol); err == nil {
 			exist = append(exist, sol)
 		} else if !errors.Is(err, fs.ErrNotExist) {
@@ -321,7 +393,7 @@ func benchPrepareOut(o *benchOptions, files []string) error {
 // benchWriteSolution writes the timetable in the competition's format.
 func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule) error {
 	var buf bytes.Buffer
-	if err := timetable.WriteITCSolution(&buf, term, s); err != nil {
+	if err := benchfmt.WriteCTTSolution(&buf, term, s); err != nil {
 		return err
 	}
 	return writeBytesAtomic(path, buf.Bytes())

@@ -16,10 +16,11 @@ import (
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
+	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 // tinyCTT is the hand-made instance of the timetable package's tests.
-var tinyCTT = filepath.Join("..", "..", "timetable", "testdata", "itc", "tiny.ctt")
+var tinyCTT = filepath.Join("..", "..", "timetable", "benchfmt", "testdata", "ctt", "tiny.ctt")
 
 // benchDir makes a folder holding the tiny instance as tiny.ctt.
 func benchDir(t *testing.T) string {
@@ -48,7 +49,7 @@ func fakeSolve(t *testing.T, status solver.Status, err error) func(context.Conte
 		}
 		res := &encode.OptimizeResult{Result: encode.Result{Status: status}}
 		if status == solver.Satisfiable {
-			s, rerr := timetable.ReadITCSolution(strings.NewReader(tinyC), "fake.sol", term)
+			s, rerr := benchfmt.ReadCTTSolution(strings.NewReader(tinyC), "fake.sol", term)
 			require.NoError(t, rerr)
 			for i := range s.Placements {
 				s.Placements[i].Src = timetable.Source{}
@@ -100,7 +101,7 @@ func TestBenchJSON(t *testing.T) {
   "seed": 9,
   "instances": [
     {
-      "instance": "tiny", "courses": 3, "meetings": 5, "rooms": 2, "curricula": 2,
+      "instance": "tiny", "format": "curriculum", "courses": 3, "meetings": 5, "rooms": 2, "curricula": 2,
       "status": "satisfiable", "feasible": true, "cost": 14,
       "parts": {"room_capacity": 10, "min_working_days": 0, "curriculum_compactness": 4, "room_stability": 0},
       "hard": {"meetings": 0, "conflicts": 0, "availability": 0, "room_occupancy": 0},
@@ -121,7 +122,7 @@ func TestBenchWritesSolutions(t *testing.T) {
 	sol := filepath.Join(solDir, "tiny.sol")
 	got, err := os.ReadFile(sol)
 	require.NoError(t, err)
-	// Sorted by course, then period (timetable.WriteITCSolution).
+	// Sorted by course, then period (benchfmt.WriteCTTSolution).
 	assert.Equal(t, "alg big 0 2\nalg big 1 0\ngeo small 1 1\ngeo small 1 2\nhis big 0 0\n", string(got))
 
 	t.Run("refuses to replace without --force", func(t *testing.T) {
@@ -173,7 +174,7 @@ func TestBenchBadInput(t *testing.T) {
 	t.Run("no instances", func(t *testing.T) {
 		code, _, stderr := runBenchWith(t, nil, t.TempDir())
 		assert.Equal(t, exitError, code)
-		assert.Contains(t, stderr, "holds no .ctt files")
+		assert.Contains(t, stderr, "holds no .ctt or .xml files")
 	})
 	t.Run("missing folder", func(t *testing.T) {
 		code, _, stderr := runBenchWith(t, nil, filepath.Join(t.TempDir(), "nowhere"))

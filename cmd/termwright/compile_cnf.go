@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
+	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 // addCompileCNFFlags adds --cnf and --cnf-names to `termwright compile`.
@@ -35,7 +36,7 @@ func loadCompileTerm(e *env, path string) (*timetable.Term, error) {
 		return nil, failf(exitError, "cannot open the instance: %w", err)
 	}
 	defer f.Close()
-	term, err := timetable.ReadCTT(bufio.NewReader(f), filepath.Base(path))
+	term, err := benchfmt.ReadCTT(bufio.NewReader(f), filepath.Base(path))
 	if err != nil {
 		return nil, wrapCode(exitError, err)
 	}

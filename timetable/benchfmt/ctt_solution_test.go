@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bytes"
@@ -10,14 +10,15 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/timetable"
 )
 
-// readTinySolution reads testdata/itc/<name>.sol for the tiny instance.
-func readTinySolution(t testing.TB, term *Term, name string) *Schedule {
+// readTinySolution reads testdata/ctt/<name>.sol for the tiny instance.
+func readTinySolution(t testing.TB, term *timetable.Term, name string) *timetable.Schedule {
 	t.Helper()
-	data, err := os.ReadFile(filepath.Join("testdata", "itc", name+".sol"))
+	data, err := os.ReadFile(filepath.Join("testdata", "ctt", name+".sol"))
 	require.NoError(t, err)
-	s, err := ReadITCSolution(bytes.NewReader(data), name+".sol", term)
+	s, err := ReadCTTSolution(bytes.NewReader(data), name+".sol", term)
 	require.NoError(t, err)
 	return s
 }
@@ -26,12 +27,12 @@ func TestReadITCSolution(t *testing.T) {
 	term := readTiny(t)
 	s := readTinySolution(t, term, "tiny-a")
 	// Sorted by course order, then period; meetings numbered per course.
-	assert.Equal(t, []Placement{
-		{Section: "alg", Meeting: 1, Period: 0, Room: "big", Src: Source{Sheet: "tiny-a.sol", Row: 1}},
-		{Section: "alg", Meeting: 2, Period: 1, Room: "small", Src: Source{Sheet: "tiny-a.sol", Row: 2}},
-		{Section: "geo", Meeting: 1, Period: 2, Room: "small", Src: Source{Sheet: "tiny-a.sol", Row: 3}},
-		{Section: "geo", Meeting: 2, Period: 5, Room: "big", Src: Source{Sheet: "tiny-a.sol", Row: 5}},
-		{Section: "his", Meeting: 1, Period: 3, Room: "big", Src: Source{Sheet: "tiny-a.sol", Row: 4}},
+	assert.Equal(t, []timetable.Placement{
+		{Section: "alg", Meeting: 1, Period: 0, Room: "big", Src: timetable.Source{Sheet: "tiny-a.sol", Row: 1}},
+		{Section: "alg", Meeting: 2, Period: 1, Room: "small", Src: timetable.Source{Sheet: "tiny-a.sol", Row: 2}},
+		{Section: "geo", Meeting: 1, Period: 2, Room: "small", Src: timetable.Source{Sheet: "tiny-a.sol", Row: 3}},
+		{Section: "geo", Meeting: 2, Period: 5, Room: "big", Src: timetable.Source{Sheet: "tiny-a.sol", Row: 5}},
+		{Section: "his", Meeting: 1, Period: 3, Room: "big", Src: timetable.Source{Sheet: "tiny-a.sol", Row: 4}},
 	}, s.Placements)
 }
 
@@ -41,16 +42,16 @@ func TestITCSolutionRoundTrip(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			s := readTinySolution(t, term, name)
 			var first bytes.Buffer
-			require.NoError(t, WriteITCSolution(&first, term, s))
-			again, err := ReadITCSolution(bytes.NewReader(first.Bytes()), "again.sol", term)
+			require.NoError(t, WriteCTTSolution(&first, term, s))
+			again, err := ReadCTTSolution(bytes.NewReader(first.Bytes()), "again.sol", term)
 			require.NoError(t, err)
 			var second bytes.Buffer
-			require.NoError(t, WriteITCSolution(&second, term, again))
+			require.NoError(t, WriteCTTSolution(&second, term, again))
 			assert.Equal(t, first.String(), second.String())
 			require.Len(t, again.Placements, len(s.Placements))
 			for i := range s.Placements {
 				a, b := s.Placements[i], again.Placements[i]
-				a.Src, b.Src = Source{}, Source{}
+				a.Src, b.Src = timetable.Source{}, timetable.Source{}
 				assert.Equal(t, a, b)
 			}
 		})
@@ -59,13 +60,13 @@ func TestITCSolutionRoundTrip(t *testing.T) {
 
 func TestWriteITCSolutionFormat(t *testing.T) {
 	term := readTiny(t)
-	s := &Schedule{Placements: []Placement{
+	s := &timetable.Schedule{Placements: []timetable.Placement{
 		{Section: "his", Meeting: 1, Period: 3, Room: "big"},
 		{Section: "alg", Meeting: 2, Period: 4, Room: "small"},
 		{Section: "alg", Meeting: 1, Period: 2, Room: "big"},
 	}}
 	var b bytes.Buffer
-	require.NoError(t, WriteITCSolution(&b, term, s))
+	require.NoError(t, WriteCTTSolution(&b, term, s))
 	// "course room day period", 0-based (Di Gaspero, McCollum, Schaerf 2007, output format).
 	assert.Equal(t, "alg big 0 2\nalg small 1 1\nhis big 1 0\n", b.String())
 }
@@ -74,17 +75,17 @@ func TestWriteITCSolutionErrors(t *testing.T) {
 	term := readTiny(t)
 	tests := []struct {
 		name string
-		p    Placement
+		p    timetable.Placement
 		want string
 	}{
-		{"unknown section", Placement{Section: "zz", Meeting: 1, Period: 0, Room: "big"}, "not in the term"},
-		{"no room", Placement{Section: "alg", Meeting: 1, Period: 0}, "has no room"},
-		{"period outside", Placement{Section: "alg", Meeting: 1, Period: 6, Room: "big"}, "outside the term's grid"},
-		{"room with space", Placement{Section: "alg", Meeting: 1, Period: 0, Room: "big hall"}, "spaces"},
+		{"unknown section", timetable.Placement{Section: "zz", Meeting: 1, Period: 0, Room: "big"}, "not in the term"},
+		{"no room", timetable.Placement{Section: "alg", Meeting: 1, Period: 0}, "has no room"},
+		{"period outside", timetable.Placement{Section: "alg", Meeting: 1, Period: 6, Room: "big"}, "outside the term's grid"},
+		{"room with space", timetable.Placement{Section: "alg", Meeting: 1, Period: 0, Room: "big hall"}, "spaces"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			err := WriteITCSolution(&bytes.Buffer{}, term, &Schedule{Placements: []Placement{tc.p}})
+			err := WriteCTTSolution(&bytes.Buffer{}, term, &timetable.Schedule{Placements: []timetable.Placement{tc.p}})
 			require.Error(t, err)
 			assert.Contains(t, err.Error(), tc.want)
 		})
@@ -109,10 +110,10 @@ func TestReadITCSolutionErrors(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			src, marks := markedCTT(strings.Split(strings.TrimSuffix(tc.src, "\n"), "\n")...)
-			_, err := ReadITCSolution(strings.NewReader(src), "x.sol", term)
+			_, err := ReadCTTSolution(strings.NewReader(src), "x.sol", term)
 			require.Error(t, err)
-			assert.True(t, errors.Is(err, ErrITCFormat))
-			var list ITCErrors
+			assert.True(t, errors.Is(err, ErrCTTFormat))
+			var list Errors
 			require.True(t, errors.As(err, &list))
 			var got []int
 			for _, e := range list {
@@ -126,7 +127,7 @@ func TestReadITCSolutionErrors(t *testing.T) {
 
 func TestReadITCSolutionAcceptsWrongCounts(t *testing.T) {
 	term := readTiny(t)
-	s, err := ReadITCSolution(strings.NewReader("alg big 0 0\nalg big 0 0\nalg big 0 1\n"), "x.sol", term)
+	s, err := ReadCTTSolution(strings.NewReader("alg big 0 0\nalg big 0 0\nalg big 0 1\n"), "x.sol", term)
 	require.NoError(t, err)
 	assert.Len(t, s.Placements, 3)
 	assert.Equal(t, []int{1, 2, 3}, []int{s.Placements[0].Meeting, s.Placements[1].Meeting, s.Placements[2].Meeting})

@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bufio"
@@ -8,20 +8,22 @@ import (
 	"strconv"
 	"strings"
 	"unicode"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // The competition's solution format (Di Gaspero, McCollum, Schaerf 2007,
 // section "Output format"): one line per meeting, "course room day period",
 // day and period 0-based, fields separated by white space, in any order.
 
-// WriteITCSolution writes s in the competition's solution format, one line
+// WriteCTTSolution writes s in the competition's solution format, one line
 // "course room day period" per placement, sorted by the course's position in
 // t and then by period. Every placement must name a section of t, a room and
 // a period of t's grid.
-func WriteITCSolution(w io.Writer, t *Term, s *Schedule) error {
+func WriteCTTSolution(w io.Writer, t *timetable.Term, s *timetable.Schedule) error {
 	g := newITCGrid(t)
 	sec := t.SectionIndex()
-	ps := make([]Placement, len(s.Placements))
+	ps := make([]timetable.Placement, len(s.Placements))
 	copy(ps, s.Placements)
 	for _, p := range ps {
 		if _, ok := sec[p.Section]; !ok {
@@ -58,19 +60,19 @@ func WriteITCSolution(w io.Writer, t *Term, s *Schedule) error {
 	return bw.Flush()
 }
 
-// ReadITCSolution reads a solution in the competition's format for term t;
+// ReadCTTSolution reads a solution in the competition's format for term t;
 // name (usually the file name) is used in error messages and as the Src
 // sheet of each placement. Meetings of a course are numbered 1.. in
 // start-period order and placements come out in the course order of t. It
 // reports malformed lines, unknown courses and rooms and days or periods
-// outside the grid, every one as "name:LINE: ..." in ITCErrors; it accepts
-// too few or too many meetings and clashes, which ITCHardViolations counts.
-func ReadITCSolution(r io.Reader, name string, t *Term) (*Schedule, error) {
+// outside the grid, every one as "name:LINE: ..." in Errors; it accepts
+// too few or too many meetings and clashes, which CTTHardViolations counts.
+func ReadCTTSolution(r io.Reader, name string, t *timetable.Term) (*timetable.Schedule, error) {
 	g := newITCGrid(t)
 	sec := t.SectionIndex()
 	rooms := t.RoomIndex()
-	errs := &itcErrs{file: name}
-	var ps []Placement
+	errs := &errList{file: name}
+	var ps []timetable.Placement
 	sc := bufio.NewScanner(r)
 	sc.Buffer(make([]byte, 0, 4096), 1<<16)
 	n := 0
@@ -103,7 +105,7 @@ func ReadITCSolution(r io.Reader, name string, t *Term) (*Schedule, error) {
 			errs.add(n, fmt.Sprintf("day %d period %d is outside the grid of %d days; days and periods count from 0", day, slot, g.days))
 			continue
 		}
-		ps = append(ps, Placement{Section: f[0], Period: p, Room: f[1], Src: Source{Sheet: name, Row: n}})
+		ps = append(ps, timetable.Placement{Section: f[0], Period: p, Room: f[1], Src: timetable.Source{Sheet: name, Row: n}})
 	}
 	if err := sc.Err(); err != nil {
 		errs.add(n+1, "cannot read the line: "+err.Error())
@@ -124,5 +126,5 @@ func ReadITCSolution(r io.Reader, name string, t *Term) (*Schedule, error) {
 			ps[i].Meeting = ps[i-1].Meeting + 1
 		}
 	}
-	return &Schedule{Placements: ps}, nil
+	return &timetable.Schedule{Placements: ps}, nil
 }

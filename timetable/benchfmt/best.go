@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"encoding/csv"
@@ -8,8 +8,8 @@ import (
 	"strings"
 )
 
-// ITCBest is the published record for one benchmark instance.
-type ITCBest struct {
+// CTTBest is the published record for one benchmark instance.
+type CTTBest struct {
 	Instance   string // instance name, the .ctt file name without extension
 	Best       int    // best known cost
 	LowerBound int    // best published lower bound; -1 when not given
@@ -17,12 +17,12 @@ type ITCBest struct {
 	Line       int    // line of the CSV file it came from
 }
 
-// ReadITCBest reads a CSV table of best-known results with a header row
+// ReadCTTBest reads a CSV table of best-known results with a header row
 // naming at least the columns "instance" and "best" (and optionally
 // "lower_bound" and "source"; other columns are ignored), keyed by
-// instance. Problems are reported as ITCErrors "name:LINE: ...".
-func ReadITCBest(r io.Reader, name string) (map[string]ITCBest, error) {
-	errs := &itcErrs{file: name}
+// instance. Problems are reported as Errors "name:LINE: ...".
+func ReadCTTBest(r io.Reader, name string) (map[string]CTTBest, error) {
+	errs := &errList{file: name}
 	cr := csv.NewReader(r)
 	cr.FieldsPerRecord = -1
 	header, err := cr.Read()
@@ -52,7 +52,7 @@ func ReadITCBest(r io.Reader, name string) (map[string]ITCBest, error) {
 		}
 		return ""
 	}
-	out := map[string]ITCBest{}
+	out := map[string]CTTBest{}
 	for {
 		rec, err := cr.Read()
 		if errors.Is(err, io.EOF) {
@@ -60,7 +60,7 @@ func ReadITCBest(r io.Reader, name string) (map[string]ITCBest, error) {
 		}
 		if err != nil {
 			var pe *csv.ParseError
-			if !errors.As(err, &pe) || len(errs.list) >= maxITCErrors {
+			if !errors.As(err, &pe) || len(errs.list) >= maxErrors {
 				errs.add(0, "cannot read the file: "+err.Error())
 				break
 			}
@@ -68,7 +68,7 @@ func ReadITCBest(r io.Reader, name string) (map[string]ITCBest, error) {
 			continue
 		}
 		line, _ := cr.FieldPos(0)
-		b := ITCBest{Instance: field(rec, "instance"), LowerBound: -1, Source: field(rec, "source"), Line: line}
+		b := CTTBest{Instance: field(rec, "instance"), LowerBound: -1, Source: field(rec, "source"), Line: line}
 		if b.Instance == "" {
 			errs.add(line, "the instance name is blank; fill it in or delete the row")
 			continue

@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bufio"
@@ -8,6 +8,9 @@ import (
 	"strings"
 	"time"
 	"unicode"
+	"unicode/utf8"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // The .ctt format is the instance format of the curriculum-based course
@@ -35,7 +38,7 @@ const (
 // slots of one day touch, so that the competition's "adjacent periods" are
 // exactly Term.Consecutive.
 const (
-	cttFirstStart = Clock(8 * 60) // 08:00
+	cttFirstStart = timetable.Clock(8 * 60) // 08:00
 	cttMaxDays    = 7
 	cttMaxSlots   = 96 // slots of 10 minutes from 08:00 still end by midnight
 )
@@ -47,11 +50,11 @@ var cttFirstDay = time.Date(2024, time.January, 1, 0, 0, 0, 0, time.UTC)
 // cttSlotLength is the length in minutes of one period of a day with
 // perDay periods: an hour when they fit between 08:00 and midnight,
 // otherwise the 16 hours shared equally.
-func cttSlotLength(perDay int) Clock {
+func cttSlotLength(perDay int) timetable.Clock {
 	if perDay <= 16 {
 		return 60
 	}
-	return Clock(16 * 60 / perDay)
+	return timetable.Clock(16 * 60 / perDay)
 }
 
 // ITC criterion weights of the competition's cost (Di Gaspero, McCollum,
@@ -65,8 +68,8 @@ const (
 	ITCWeightRoomStability  = 1
 )
 
-// ITCLevel is the one priority level at which ReadCTT sets every weight.
-const ITCLevel = 1
+// CTTLevel is the one priority level at which ReadCTT sets every weight.
+const CTTLevel = 1
 
 // cttLine is one record line split into fields.
 type cttLine struct {
@@ -94,7 +97,7 @@ type cttFile struct {
 // ReadCTT reads an instance in the ITC-2007 curriculum-based course
 // timetabling format (.ctt) into a Term; name (usually the file name) is used
 // in error messages and as the Src sheet of every record. On bad input it
-// returns ITCErrors naming every problem as "name:LINE: what is wrong".
+// returns Errors naming every problem as "name:LINE: what is wrong".
 //
 // The mapping: a nominal one-week term from Monday 2024-01-01 (the format
 // has no dates); Days × Periods_per_day one-hour periods from 08:00, Monday
@@ -104,9 +107,9 @@ type cttFile struct {
 // min_working_days; each unavailability line becomes a hard WhoSection row
 // covering exactly that period; capacity is soft (SoftCapacity) and Weights
 // set every criterion: room over capacity 1, spread days 5, cohort isolated
-// 2, room stability 1, all others 0, all at level ITCLevel.
-func ReadCTT(r io.Reader, name string) (*Term, error) {
-	errs := &itcErrs{file: name}
+// 2, room stability 1, all others 0, all at level CTTLevel.
+func ReadCTT(r io.Reader, name string) (*timetable.Term, error) {
+	errs := &errList{file: name}
 	f := scanCTT(r, errs)
 	if err := errs.err(); err != nil {
 		return nil, err
@@ -120,7 +123,7 @@ func ReadCTT(r io.Reader, name string) (*Term, error) {
 
 // scanCTT splits the file into header values and section records, checking
 // the layout but not the records' contents.
-func scanCTT(r io.Reader, errs *itcErrs) *cttFile {
+func scanCTT(r io.Reader, errs *errList) *cttFile {
 	f := &cttFile{header: map[string]cttLine{}, sectionAt: map[string]int{}, records: map[string][]cttLine{}}
 	sc := bufio.NewScanner(r)
 	sc.Buffer(make([]byte, 0, 64*1024), 1<<20)
@@ -175,7 +178,7 @@ func cttSectionHeader(text string) (string, bool) {
 }
 
 // scanCTTHeader reads one "Key: value" line of the header.
-func scanCTTHeader(f *cttFile, n int, text string, errs *itcErrs) {
+func scanCTTHeader(f *cttFile, n int, text string, errs *errList) {
 	key, val, ok := strings.Cut(text, ":")
 	key, val = strings.TrimSpace(key), strings.TrimSpace(val)
 	if !ok {
@@ -207,20 +210,28 @@ func scanCTTHeader(f *cttFile, n int, text string, errs *itcErrs) {
 	f.header[canon] = cttLine{line: n, fields: []string{val}}
 }
 
-// clip shortens text quoted in an error message, as Quote does.
+// clip shortens text quoted in an error message as timetable.Quote does:
+// more than 60 characters keep their first 40, followed by "…".
 func clip(s string) string {
-	short, _ := shorten(s)
-	return short
+	if utf8.RuneCountInString(s) <= 60 {
+		return s
+	}
+	i := 0
+	for k := 0; k < 40; k++ {
+		_, w := utf8.DecodeRuneInString(s[i:])
+		i += w
+	}
+	return s[:i] + "…"
 }
 
 // maxITCNumber bounds every number of a benchmark file (students, capacities,
 // counts, days, periods, costs): the published instances stay far below
 // it, and with it no cost sum can overflow.
-const maxITCNumber = maxCount
+const maxITCNumber = 1_000_000 // the workbook reader's bound on sizes and capacities
 
 // cttInt parses a whole number field from min to maxITCNumber at line and
 // col (0 when unknown), reporting problems.
-func cttInt(errs *itcErrs, line, col int, what, s string, min int) (int, bool) {
+func cttInt(errs *errList, line, col int, what, s string, min int) (int, bool) {
 	v, err := strconv.Atoi(s)
 	if err != nil && !isDigitRun(s) {
 		errs.addAt(line, col, fmt.Sprintf("%s %q is not a whole number; write digits only", what, clip(s)))
@@ -263,7 +274,7 @@ type cttHeader struct {
 }
 
 // readCTTHeader checks the header values.
-func readCTTHeader(f *cttFile, errs *itcErrs) (cttHeader, bool) {
+func readCTTHeader(f *cttFile, errs *errList) (cttHeader, bool) {
 	var h cttHeader
 	ok := true
 	firstLine := 1
@@ -302,7 +313,7 @@ func readCTTHeader(f *cttFile, errs *itcErrs) (cttHeader, bool) {
 }
 
 // buildCTT resolves the records into a Term.
-func buildCTT(f *cttFile, name string, errs *itcErrs) *Term {
+func buildCTT(f *cttFile, name string, errs *errList) *timetable.Term {
 	h, ok := readCTTHeader(f, errs)
 	for _, sec := range []string{cttCourses, cttRooms, cttCurricula, cttUnavail} {
 		if _, has := f.sectionAt[sec]; !has {
@@ -313,7 +324,7 @@ func buildCTT(f *cttFile, name string, errs *itcErrs) *Term {
 	if !ok {
 		return nil
 	}
-	t := &Term{Name: h.name, TimeZone: "UTC", SoftCapacity: true, FirstDay: cttFirstDay, LastDay: cttFirstDay.AddDate(0, 0, h.days-1)}
+	t := &timetable.Term{Name: h.name, TimeZone: "UTC", SoftCapacity: true, FirstDay: cttFirstDay, LastDay: cttFirstDay.AddDate(0, 0, h.days-1)}
 	t.Periods = cttPeriods(h, name)
 	checkCTTCount(f, errs, cttCourses, "Courses", h.courses)
 	checkCTTCount(f, errs, cttRooms, "Rooms", h.rooms)
@@ -323,7 +334,7 @@ func buildCTT(f *cttFile, name string, errs *itcErrs) *Term {
 	cttRoomList(t, f.records[cttRooms], name, errs)
 	cttCohorts(t, f.records[cttCurricula], courses, name, errs)
 	cttUnavailable(t, f.records[cttUnavail], courses, h, name, errs)
-	t.Weights = ITCWeights()
+	t.Weights = CTTWeights()
 	weeks := t.AllWeeks()
 	for i := range t.Sections {
 		t.Sections[i].Weeks = weeks
@@ -331,36 +342,36 @@ func buildCTT(f *cttFile, name string, errs *itcErrs) *Term {
 	return t
 }
 
-// ITCWeights is the Weights map that makes Cost the competition's cost: a
-// weight for every criterion in Criteria, all at level ITCLevel.
-func ITCWeights() map[string]Weight {
-	w := make(map[string]Weight, len(Criteria))
-	for _, c := range Criteria {
-		w[c.Name] = Weight{Level: ITCLevel}
+// CTTWeights is the Weights map that makes Cost the competition's cost: a
+// weight for every criterion in Criteria, all at level CTTLevel.
+func CTTWeights() map[string]timetable.Weight {
+	w := make(map[string]timetable.Weight, len(timetable.Criteria))
+	for _, c := range timetable.Criteria {
+		w[c.Name] = timetable.Weight{Level: CTTLevel}
 	}
-	w[CritOverCapacity] = Weight{Weight: ITCWeightRoomCapacity, Level: ITCLevel}
-	w[CritSpreadDays] = Weight{Weight: ITCWeightMinWorkingDays, Level: ITCLevel}
-	w[CritCohortIsolated] = Weight{Weight: ITCWeightCompactness, Level: ITCLevel}
-	w[CritRoomStability] = Weight{Weight: ITCWeightRoomStability, Level: ITCLevel}
+	w[timetable.CritOverCapacity] = timetable.Weight{Weight: ITCWeightRoomCapacity, Level: CTTLevel}
+	w[timetable.CritSpreadDays] = timetable.Weight{Weight: ITCWeightMinWorkingDays, Level: CTTLevel}
+	w[timetable.CritCohortIsolated] = timetable.Weight{Weight: ITCWeightCompactness, Level: CTTLevel}
+	w[timetable.CritRoomStability] = timetable.Weight{Weight: ITCWeightRoomStability, Level: CTTLevel}
 	return w
 }
 
 // cttPeriods makes the grid: days from Monday, slots touching.
-func cttPeriods(h cttHeader, name string) []Period {
+func cttPeriods(h cttHeader, name string) []timetable.Period {
 	length := cttSlotLength(h.perDay)
-	out := make([]Period, 0, h.days*h.perDay)
+	out := make([]timetable.Period, 0, h.days*h.perDay)
 	for d := 0; d < h.days; d++ {
 		day := time.Weekday((int(time.Monday) + d) % 7)
 		for s := 0; s < h.perDay; s++ {
-			start := cttFirstStart + Clock(s)*length
-			out = append(out, Period{Index: len(out), Day: day, Start: start, End: start + length, Src: Source{Sheet: name, Row: h.daysLine}})
+			start := cttFirstStart + timetable.Clock(s)*length
+			out = append(out, timetable.Period{Index: len(out), Day: day, Start: start, End: start + length, Src: timetable.Source{Sheet: name, Row: h.daysLine}})
 		}
 	}
 	return out
 }
 
 // checkCTTCount compares a section's number of lines with its header count.
-func checkCTTCount(f *cttFile, errs *itcErrs, sec, key string, want int) {
+func checkCTTCount(f *cttFile, errs *errList, sec, key string, want int) {
 	if got := len(f.records[sec]); got != want {
 		errs.add(f.sectionAt[sec], fmt.Sprintf("section %s has %d lines but the header says %s: %d (line %d); correct whichever is wrong",
 			sec, got, key, want, f.header[key].line))
@@ -369,7 +380,7 @@ func checkCTTCount(f *cttFile, errs *itcErrs, sec, key string, want int) {
 
 // cttSections reads the COURSES lines into sections and staff; it returns
 // the course index by ID.
-func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string]int {
+func cttSections(t *timetable.Term, recs []cttLine, name string, errs *errList) map[string]int {
 	index := map[string]int{} // -1 for a course named on a line that had errors
 	lineOf := map[string]int{}
 	staffAt := map[string]bool{}
@@ -395,21 +406,21 @@ func cttSections(t *Term, recs []cttLine, name string, errs *itcErrs) map[string
 			continue
 		}
 		index[id] = len(t.Sections)
-		t.Sections = append(t.Sections, Section{
+		t.Sections = append(t.Sections, timetable.Section{
 			ID: id, Title: id, Staff: []string{teacher}, Size: students,
 			Meetings: meetings, Length: 1, SameDay: true, MinDays: minDays,
-			Src: Source{Sheet: name, Row: r.line},
+			Src: timetable.Source{Sheet: name, Row: r.line},
 		})
 		if !staffAt[teacher] {
 			staffAt[teacher] = true
-			t.Staff = append(t.Staff, Staff{ID: teacher, Name: teacher, Src: Source{Sheet: name, Row: r.line}})
+			t.Staff = append(t.Staff, timetable.Staff{ID: teacher, Name: teacher, Src: timetable.Source{Sheet: name, Row: r.line}})
 		}
 	}
 	return index
 }
 
 // cttRoomList reads the ROOMS lines.
-func cttRoomList(t *Term, recs []cttLine, name string, errs *itcErrs) {
+func cttRoomList(t *timetable.Term, recs []cttLine, name string, errs *errList) {
 	seen := map[string]int{}
 	for _, r := range recs {
 		if len(r.fields) != 2 {
@@ -426,12 +437,12 @@ func cttRoomList(t *Term, recs []cttLine, name string, errs *itcErrs) {
 			continue
 		}
 		seen[id] = r.line
-		t.Rooms = append(t.Rooms, Room{ID: id, Capacity: capacity, Src: Source{Sheet: name, Row: r.line}})
+		t.Rooms = append(t.Rooms, timetable.Room{ID: id, Capacity: capacity, Src: timetable.Source{Sheet: name, Row: r.line}})
 	}
 }
 
 // cttCohorts reads the CURRICULA lines into cohorts and section membership.
-func cttCohorts(t *Term, recs []cttLine, courses map[string]int, name string, errs *itcErrs) {
+func cttCohorts(t *timetable.Term, recs []cttLine, courses map[string]int, name string, errs *errList) {
 	seen := map[string]int{}
 	for _, r := range recs {
 		if len(r.fields) < 2 {
@@ -468,7 +479,7 @@ func cttCohorts(t *Term, recs []cttLine, courses map[string]int, name string, er
 			continue
 		}
 		seen[id] = r.line
-		t.Cohorts = append(t.Cohorts, Cohort{ID: id, Name: id, Src: Source{Sheet: name, Row: r.line}})
+		t.Cohorts = append(t.Cohorts, timetable.Cohort{ID: id, Name: id, Src: timetable.Source{Sheet: name, Row: r.line}})
 		for _, i := range members {
 			t.Sections[i].Cohorts = append(t.Sections[i].Cohorts, id)
 		}
@@ -476,7 +487,7 @@ func cttCohorts(t *Term, recs []cttLine, courses map[string]int, name string, er
 }
 
 // cttUnavailable reads the UNAVAILABILITY_CONSTRAINTS lines into hard rows.
-func cttUnavailable(t *Term, recs []cttLine, courses map[string]int, h cttHeader, name string, errs *itcErrs) {
+func cttUnavailable(t *timetable.Term, recs []cttLine, courses map[string]int, h cttHeader, name string, errs *errList) {
 	for _, r := range recs {
 		if len(r.fields) != 3 {
 			errs.add(r.line, fmt.Sprintf("an unavailability line has 3 fields (course day period), found %d", len(r.fields)))
@@ -501,9 +512,9 @@ func cttUnavailable(t *Term, recs []cttLine, courses map[string]int, h cttHeader
 			continue
 		}
 		p := t.Periods[day*h.perDay+slot]
-		t.Unavailable = append(t.Unavailable, Unavailability{
-			Who: c, Kind: WhoSection, Day: p.Day, From: p.Start, To: p.End, Hard: true,
-			Reason: "unavailable in the benchmark instance", Src: Source{Sheet: name, Row: r.line},
+		t.Unavailable = append(t.Unavailable, timetable.Unavailability{
+			Who: c, Kind: timetable.WhoSection, Day: p.Day, From: p.Start, To: p.End, Hard: true,
+			Reason: "unavailable in the benchmark instance", Src: timetable.Source{Sheet: name, Row: r.line},
 		})
 	}
 }

@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"errors"
@@ -11,12 +11,13 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/timetable"
 )
 
-// readTiny reads testdata/itc/tiny.ctt, a hand-made instance.
-func readTiny(t testing.TB) *Term {
+// readTiny reads testdata/ctt/tiny.ctt, a hand-made instance.
+func readTiny(t testing.TB) *timetable.Term {
 	t.Helper()
-	f, err := os.Open(filepath.Join("testdata", "itc", "tiny.ctt"))
+	f, err := os.Open(filepath.Join("testdata", "ctt", "tiny.ctt"))
 	require.NoError(t, err)
 	defer f.Close()
 	term, err := ReadCTT(f, "tiny.ctt")
@@ -36,7 +37,7 @@ func TestReadCTTMapping(t *testing.T) {
 		require.Len(t, term.Periods, 6)
 		want := []struct {
 			day        time.Weekday
-			start, end Clock
+			start, end timetable.Clock
 		}{
 			{time.Monday, 480, 540}, {time.Monday, 540, 600}, {time.Monday, 600, 660},
 			{time.Tuesday, 480, 540}, {time.Tuesday, 540, 600}, {time.Tuesday, 600, 660},
@@ -58,37 +59,37 @@ func TestReadCTTMapping(t *testing.T) {
 	t.Run("sections", func(t *testing.T) {
 		require.Len(t, term.Sections, 3)
 		alg := term.Sections[0]
-		assert.Equal(t, Section{
+		assert.Equal(t, timetable.Section{
 			ID: "alg", Title: "alg", Staff: []string{"Ada"}, Cohorts: []string{"y1"}, Size: 40,
 			Meetings: 2, Length: 1, SameDay: true, MinDays: 2, Weeks: term.AllWeeks(),
-			Src: Source{Sheet: "tiny.ctt", Row: 10},
+			Src: timetable.Source{Sheet: "tiny.ctt", Row: 10},
 		}, alg)
 		assert.Equal(t, []string{"y2"}, term.Sections[2].Cohorts)
-		assert.Equal(t, WeekSet(1), alg.Weeks)
+		assert.Equal(t, timetable.WeekSet(1), alg.Weeks)
 	})
 
 	t.Run("people and rooms", func(t *testing.T) {
-		assert.Equal(t, []Staff{
-			{ID: "Ada", Name: "Ada", Src: Source{Sheet: "tiny.ctt", Row: 10}},
-			{ID: "Bo", Name: "Bo", Src: Source{Sheet: "tiny.ctt", Row: 11}},
+		assert.Equal(t, []timetable.Staff{
+			{ID: "Ada", Name: "Ada", Src: timetable.Source{Sheet: "tiny.ctt", Row: 10}},
+			{ID: "Bo", Name: "Bo", Src: timetable.Source{Sheet: "tiny.ctt", Row: 11}},
 		}, term.Staff)
-		assert.Equal(t, []Room{
-			{ID: "big", Capacity: 35, Src: Source{Sheet: "tiny.ctt", Row: 15}},
-			{ID: "small", Capacity: 25, Src: Source{Sheet: "tiny.ctt", Row: 16}},
+		assert.Equal(t, []timetable.Room{
+			{ID: "big", Capacity: 35, Src: timetable.Source{Sheet: "tiny.ctt", Row: 15}},
+			{ID: "small", Capacity: 25, Src: timetable.Source{Sheet: "tiny.ctt", Row: 16}},
 		}, term.Rooms)
-		assert.Equal(t, []Cohort{
-			{ID: "y1", Name: "y1", Src: Source{Sheet: "tiny.ctt", Row: 19}},
-			{ID: "y2", Name: "y2", Src: Source{Sheet: "tiny.ctt", Row: 20}},
+		assert.Equal(t, []timetable.Cohort{
+			{ID: "y1", Name: "y1", Src: timetable.Source{Sheet: "tiny.ctt", Row: 19}},
+			{ID: "y2", Name: "y2", Src: timetable.Source{Sheet: "tiny.ctt", Row: 20}},
 		}, term.Cohorts)
 	})
 
 	t.Run("unavailability covers exactly its period", func(t *testing.T) {
 		require.Len(t, term.Unavailable, 1)
 		u := term.Unavailable[0]
-		assert.Equal(t, WhoSection, u.Kind)
+		assert.Equal(t, timetable.WhoSection, u.Kind)
 		assert.Equal(t, "geo", u.Who)
 		assert.True(t, u.Hard)
-		assert.Equal(t, Source{Sheet: "tiny.ctt", Row: 23}, u.Src)
+		assert.Equal(t, timetable.Source{Sheet: "tiny.ctt", Row: 23}, u.Src)
 		for i, p := range term.Periods {
 			assert.Equal(t, i == 0, u.Covers(p), "period %d", i)
 		}
@@ -97,13 +98,13 @@ func TestReadCTTMapping(t *testing.T) {
 	t.Run("weights", func(t *testing.T) {
 		// Weights of the competition's soft constraints (Di Gaspero,
 		// McCollum, Schaerf 2007): 1, 5, 2, 1; every other criterion off.
-		want := map[string]int{CritOverCapacity: 1, CritSpreadDays: 5, CritCohortIsolated: 2, CritRoomStability: 1}
-		require.Len(t, term.Weights, len(Criteria))
-		for _, c := range Criteria {
+		want := map[string]int{timetable.CritOverCapacity: 1, timetable.CritSpreadDays: 5, timetable.CritCohortIsolated: 2, timetable.CritRoomStability: 1}
+		require.Len(t, term.Weights, len(timetable.Criteria))
+		for _, c := range timetable.Criteria {
 			w, ok := term.Weights[c.Name]
 			require.True(t, ok, c.Name)
 			assert.Equal(t, want[c.Name], w.Weight, c.Name)
-			assert.Equal(t, ITCLevel, w.Level, c.Name)
+			assert.Equal(t, CTTLevel, w.Level, c.Name)
 		}
 	})
 }
@@ -220,8 +221,8 @@ func TestReadCTTErrors(t *testing.T) {
 			term, err := ReadCTT(strings.NewReader(src), "bad.ctt")
 			require.Error(t, err)
 			assert.Nil(t, term)
-			assert.True(t, errors.Is(err, ErrITCFormat))
-			var list ITCErrors
+			assert.True(t, errors.Is(err, ErrCTTFormat))
+			var list Errors
 			require.True(t, errors.As(err, &list), "error is %T", err)
 			var got []int
 			for _, e := range list {
@@ -250,7 +251,7 @@ func TestReadCTTManyErrorsListedOnce(t *testing.T) {
 	}
 	_, err := ReadCTT(strings.NewReader(b.String()), "junk.ctt")
 	require.Error(t, err)
-	var list ITCErrors
+	var list Errors
 	require.True(t, errors.As(err, &list))
 	assert.Len(t, list, 201, "each line plus the missing END.")
 	assert.Contains(t, err.Error(), "... and 151 more problems")

@@ -1,8 +1,12 @@
-package timetable
+package benchfmt
 
-import "math"
+import (
+	"math"
 
-// ITCParts is the competition's soft cost of a timetable by component,
+	"github.com/termwright/termwright/timetable"
+)
+
+// CTTParts is the competition's soft cost of a timetable by component,
 // each already multiplied by its weight (Di Gaspero, McCollum, Schaerf 2007,
 // "soft constraints"):
 //
@@ -15,7 +19,7 @@ import "math"
 //     period right before or right after it on the same day.
 //   - RoomStability: for each course, 1 per distinct room used beyond the
 //     first.
-type ITCParts struct {
+type CTTParts struct {
 	RoomCapacity          int `json:"room_capacity"`
 	MinWorkingDays        int `json:"min_working_days"`
 	CurriculumCompactness int `json:"curriculum_compactness"`
@@ -24,7 +28,7 @@ type ITCParts struct {
 
 // Total is the sum of the parts (the competition's objective).
 // A sum that does not fit an int is clamped to math.MaxInt.
-func (p ITCParts) Total() int {
+func (p CTTParts) Total() int {
 	return addClamped(addClamped(p.RoomCapacity, p.MinWorkingDays), addClamped(p.CurriculumCompactness, p.RoomStability))
 }
 
@@ -45,15 +49,15 @@ func mulClamped(a, b int) int {
 	return a * b
 }
 
-// ITCCost evaluates the competition's soft cost of s directly from its
+// CTTCost evaluates the competition's soft cost of s directly from its
 // published definitions, reading the Term as ReadCTT builds it: a course is
 // a Section (students = Size, meetings = placements, minimum working days =
 // MinDays), a curriculum is a Cohort (its courses are the sections listing
 // it), days and slots follow the grid order. It shares no code with Cost, so
 // that the two check each other. Placements naming an unknown section, room
-// or period are skipped (ITCHardViolations counts them); meetings that
+// or period are skipped (CTTHardViolations counts them); meetings that
 // clash are still each counted, as the competition's validator does.
-func ITCCost(t *Term, s *Schedule) (total int, parts ITCParts) {
+func CTTCost(t *timetable.Term, s *timetable.Schedule) (total int, parts CTTParts) {
 	g := newITCGrid(t)
 	secIdx := t.SectionIndex()
 	roomIdx := t.RoomIndex()

@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"math/rand/v2"
@@ -7,25 +7,26 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/timetable"
 )
 
 // costParts reads the ITC components out of a CostReport of a term read by
 // ReadCTT, and the total over every criterion.
-func costParts(r CostReport) (ITCParts, int) {
+func costParts(r timetable.CostReport) (CTTParts, int) {
 	total := 0
 	for _, c := range r.Criteria {
 		total += int(c.Cost)
 	}
-	return ITCParts{
-		RoomCapacity:          int(r.Criterion(CritOverCapacity).Cost),
-		MinWorkingDays:        int(r.Criterion(CritSpreadDays).Cost),
-		CurriculumCompactness: int(r.Criterion(CritCohortIsolated).Cost),
-		RoomStability:         int(r.Criterion(CritRoomStability).Cost),
+	return CTTParts{
+		RoomCapacity:          int(r.Criterion(timetable.CritOverCapacity).Cost),
+		MinWorkingDays:        int(r.Criterion(timetable.CritSpreadDays).Cost),
+		CurriculumCompactness: int(r.Criterion(timetable.CritCohortIsolated).Cost),
+		RoomStability:         int(r.Criterion(timetable.CritRoomStability).Cost),
 	}, total
 }
 
 // Cost under the ITC mapping must equal the competition's definition
-// (Di Gaspero, McCollum, Schaerf 2007), here evaluated by ITCCost, on every
+// (Di Gaspero, McCollum, Schaerf 2007), here evaluated by CTTCost, on every
 // hard-feasible timetable. On infeasible ones the two may differ: the
 // competition counts each clashing meeting as isolated, Cost counts the
 // busy period once.
@@ -34,9 +35,9 @@ func TestCostAgreesWithITCOnTiny(t *testing.T) {
 	for _, name := range []string{"tiny-a", "tiny-c"} {
 		t.Run(name, func(t *testing.T) {
 			s := readTinySolution(t, term, name)
-			require.Empty(t, HardViolations(Check(term, s)))
-			total, parts := ITCCost(term, s)
-			got, gotTotal := costParts(Cost(term, s, nil))
+			require.Empty(t, timetable.HardViolations(timetable.Check(term, s)))
+			total, parts := CTTCost(term, s)
+			got, gotTotal := costParts(timetable.Cost(term, s, nil))
 			assert.Equal(t, parts, got)
 			assert.Equal(t, total, gotTotal)
 		})
@@ -44,7 +45,7 @@ func TestCostAgreesWithITCOnTiny(t *testing.T) {
 }
 
 func TestCostAgreesWithITCOnRandomSchedules(t *testing.T) {
-	terms := map[string]*Term{"tiny": readTiny(t)}
+	terms := map[string]*timetable.Term{"tiny": readTiny(t)}
 	if dir := itcDataDirOrEmpty(); dir != "" {
 		terms["toy"] = readShared(t, dir, "toy")
 		if !testing.Short() {
@@ -53,14 +54,14 @@ func TestCostAgreesWithITCOnRandomSchedules(t *testing.T) {
 	}
 	for name, term := range terms {
 		t.Run(name, func(t *testing.T) {
-			require.Empty(t, Validate(term).Errors(), "the ITC term passes validation")
+			require.Empty(t, timetable.Validate(term).Errors(), "the ITC term passes validation")
 			rng := rand.New(rand.NewPCG(2007, 3))
 			for i := range 40 {
 				s := randomITCSchedule(rng, term)
-				require.Equal(t, ITCHard{}, ITCHardViolations(term, s))
-				require.Empty(t, HardViolations(Check(term, s)), "schedule %d passes Check", i)
-				total, parts := ITCCost(term, s)
-				got, gotTotal := costParts(Cost(term, s, nil))
+				require.Equal(t, CTTHard{}, CTTHardViolations(term, s))
+				require.Empty(t, timetable.HardViolations(timetable.Check(term, s)), "schedule %d passes Check", i)
+				total, parts := CTTCost(term, s)
+				got, gotTotal := costParts(timetable.Cost(term, s, nil))
 				require.Equal(t, parts, got, "schedule %d", i)
 				require.Equal(t, total, gotTotal, "schedule %d", i)
 			}
@@ -73,12 +74,12 @@ func TestCheckSeesITCHardViolations(t *testing.T) {
 	term := readTiny(t)
 	s := readTinySolution(t, term, "tiny-b")
 	rules := map[string]bool{}
-	for _, v := range HardViolations(Check(term, s)) {
+	for _, v := range timetable.HardViolations(timetable.Check(term, s)) {
 		rules[v.Rule] = true
 	}
 	// tiny-b's room double-booking is alg twice in big at one period, which
 	// Check names as the section overlapping itself.
-	for _, r := range []string{RuleMeetings, RuleCohortClash, RuleUnavailable, RuleSelfOverlap} {
+	for _, r := range []string{timetable.RuleMeetings, timetable.RuleCohortClash, timetable.RuleUnavailable, timetable.RuleSelfOverlap} {
 		assert.True(t, rules[r], "Check reports %q", r)
 	}
 }
@@ -112,12 +113,12 @@ Geotec A 4 2
 
 func TestToyZeroCostSolution(t *testing.T) {
 	term := readShared(t, itcDataDir(t), "toy")
-	s, err := ReadITCSolution(strings.NewReader(toyZero), "toy.sol", term)
+	s, err := ReadCTTSolution(strings.NewReader(toyZero), "toy.sol", term)
 	require.NoError(t, err)
-	assert.Equal(t, ITCHard{}, ITCHardViolations(term, s))
-	assert.Empty(t, HardViolations(Check(term, s)))
-	total, parts := ITCCost(term, s)
+	assert.Equal(t, CTTHard{}, CTTHardViolations(term, s))
+	assert.Empty(t, timetable.HardViolations(timetable.Check(term, s)))
+	total, parts := CTTCost(term, s)
 	assert.Equal(t, 0, total, "%+v", parts)
-	_, own := costParts(Cost(term, s, nil))
+	_, own := costParts(timetable.Cost(term, s, nil))
 	assert.Equal(t, 0, own)
 }

@@ -1,6 +1,8 @@
-package timetable
+package benchfmt
 
-// ITCHard counts violations of the competition's hard constraints
+import "github.com/termwright/termwright/timetable"
+
+// CTTHard counts violations of the competition's hard constraints
 // (Di Gaspero, McCollum, Schaerf 2007, "hard constraints"); a timetable is
 // feasible when every count is zero.
 //
@@ -18,7 +20,7 @@ package timetable
 //     not have but a Term may).
 //   - RoomOccupancy: one meeting per room and period. Counts, per room and
 //     period, the meetings beyond the first.
-type ITCHard struct {
+type CTTHard struct {
 	Meetings      int `json:"meetings"`
 	Conflicts     int `json:"conflicts"`
 	Availability  int `json:"availability"`
@@ -26,12 +28,12 @@ type ITCHard struct {
 }
 
 // Total is the number of violations of every kind.
-func (h ITCHard) Total() int { return h.Meetings + h.Conflicts + h.Availability + h.RoomOccupancy }
+func (h CTTHard) Total() int { return h.Meetings + h.Conflicts + h.Availability + h.RoomOccupancy }
 
-// ITCHardViolations counts the violations of the competition's hard
+// CTTHardViolations counts the violations of the competition's hard
 // constraints by s on t.
-func ITCHardViolations(t *Term, s *Schedule) ITCHard {
-	var h ITCHard
+func CTTHardViolations(t *timetable.Term, s *timetable.Schedule) CTTHard {
+	var h CTTHard
 	secIdx := t.SectionIndex()
 	roomIdx := t.RoomIndex()
 	nP := len(t.Periods)
@@ -88,7 +90,7 @@ func ITCHardViolations(t *Term, s *Schedule) ITCHard {
 }
 
 // itcConflict reports whether two courses share a curriculum or a teacher.
-func itcConflict(a, b *Section) bool {
+func itcConflict(a, b *timetable.Section) bool {
 	return sharesString(a.Cohorts, b.Cohorts) || sharesString(a.Staff, b.Staff)
 }
 
@@ -104,9 +106,9 @@ func sharesString(a, b []string) bool {
 }
 
 // itcBlocks indexes the hard unavailability rows of a term by kind and ID.
-type itcBlocks map[WhoKind]map[string][]*Unavailability
+type itcBlocks map[timetable.WhoKind]map[string][]*timetable.Unavailability
 
-func newITCBlocks(t *Term) itcBlocks {
+func newITCBlocks(t *timetable.Term) itcBlocks {
 	b := itcBlocks{}
 	for i := range t.Unavailable {
 		u := &t.Unavailable[i]
@@ -114,7 +116,7 @@ func newITCBlocks(t *Term) itcBlocks {
 			continue
 		}
 		if b[u.Kind] == nil {
-			b[u.Kind] = map[string][]*Unavailability{}
+			b[u.Kind] = map[string][]*timetable.Unavailability{}
 		}
 		b[u.Kind][u.Who] = append(b[u.Kind][u.Who], u)
 	}
@@ -123,9 +125,9 @@ func newITCBlocks(t *Term) itcBlocks {
 
 // blocked reports whether meeting p of sec falls in a hard unavailability
 // of the course, its teacher, a curriculum or its room.
-func (b itcBlocks) blocked(t *Term, sec *Section, p Placement) bool {
+func (b itcBlocks) blocked(t *timetable.Term, sec *timetable.Section, p timetable.Placement) bool {
 	per := t.Periods[p.Period]
-	covers := func(kind WhoKind, who string) bool {
+	covers := func(kind timetable.WhoKind, who string) bool {
 		for _, u := range b[kind][who] {
 			if u.Covers(per) {
 				return true
@@ -133,16 +135,16 @@ func (b itcBlocks) blocked(t *Term, sec *Section, p Placement) bool {
 		}
 		return false
 	}
-	if covers(WhoSection, sec.ID) || covers(WhoRoom, p.Room) {
+	if covers(timetable.WhoSection, sec.ID) || covers(timetable.WhoRoom, p.Room) {
 		return true
 	}
 	for _, st := range sec.Staff {
-		if covers(WhoStaff, st) {
+		if covers(timetable.WhoStaff, st) {
 			return true
 		}
 	}
 	for _, c := range sec.Cohorts {
-		if covers(WhoCohort, c) {
+		if covers(timetable.WhoCohort, c) {
 			return true
 		}
 	}

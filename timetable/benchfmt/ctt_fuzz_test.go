@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bytes"
@@ -8,18 +8,20 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // checkITCErr checks that err lists problems at lines of the input (0 for
 // the whole file, at most one past the last line) under the given name.
 func checkITCErr(t *testing.T, err error, name string, input []byte) {
 	t.Helper()
-	if !errors.Is(err, ErrITCFormat) {
-		t.Fatalf("error does not match ErrITCFormat: %v", err)
+	if !errors.Is(err, ErrCTTFormat) {
+		t.Fatalf("error does not match ErrCTTFormat: %v", err)
 	}
-	var list ITCErrors
+	var list Errors
 	if !errors.As(err, &list) || len(list) == 0 {
-		t.Fatalf("error is not a non-empty ITCErrors: %T %v", err, err)
+		t.Fatalf("error is not a non-empty Errors: %T %v", err, err)
 	}
 	lines := bytes.Count(input, []byte("\n")) + 1
 	for _, e := range list {
@@ -34,29 +36,29 @@ func checkITCErr(t *testing.T, err error, name string, input []byte) {
 
 // stripSources zeroes every Src of t, for comparing terms read from
 // differently laid out files.
-func stripSources(t *Term) {
+func stripSources(t *timetable.Term) {
 	for i := range t.Periods {
-		t.Periods[i].Src = Source{}
+		t.Periods[i].Src = timetable.Source{}
 	}
 	for i := range t.Rooms {
-		t.Rooms[i].Src = Source{}
+		t.Rooms[i].Src = timetable.Source{}
 	}
 	for i := range t.Staff {
-		t.Staff[i].Src = Source{}
+		t.Staff[i].Src = timetable.Source{}
 	}
 	for i := range t.Cohorts {
-		t.Cohorts[i].Src = Source{}
+		t.Cohorts[i].Src = timetable.Source{}
 	}
 	for i := range t.Sections {
-		t.Sections[i].Src = Source{}
+		t.Sections[i].Src = timetable.Source{}
 	}
 	for i := range t.Unavailable {
-		t.Unavailable[i].Src = Source{}
+		t.Unavailable[i].Src = timetable.Source{}
 	}
 }
 
 func FuzzReadCTT(f *testing.F) {
-	if data, err := os.ReadFile(filepath.Join("testdata", "itc", "tiny.ctt")); err == nil {
+	if data, err := os.ReadFile(filepath.Join("testdata", "ctt", "tiny.ctt")); err == nil {
 		f.Add(data)
 		f.Add(bytes.ReplaceAll(data, []byte("\n"), []byte("\r\n")))
 		f.Add(data[:len(data)/2])
@@ -78,13 +80,13 @@ func FuzzReadCTT(f *testing.F) {
 		// Every meeting in the first room at the first period: the cost
 		// sums stay non-negative whatever numbers were read.
 		if len(term.Rooms) > 0 && len(term.Periods) > 0 {
-			var s Schedule
+			var s timetable.Schedule
 			for _, sec := range term.Sections {
 				for m := 1; m <= sec.Meetings; m++ {
-					s.Placements = append(s.Placements, Placement{Section: sec.ID, Meeting: m, Room: term.Rooms[0].ID})
+					s.Placements = append(s.Placements, timetable.Placement{Section: sec.ID, Meeting: m, Room: term.Rooms[0].ID})
 				}
 			}
-			if total, _ := ITCCost(term, &s); total < 0 {
+			if total, _ := CTTCost(term, &s); total < 0 {
 				t.Fatalf("negative ITC cost %d", total)
 			}
 		}
@@ -112,9 +114,9 @@ func FuzzReadCTT(f *testing.F) {
 }
 
 // termsEqual compares the parts of a Term that ReadCTT fills.
-func termsEqual(a, b *Term) bool {
+func termsEqual(a, b *timetable.Term) bool {
 	var x, y bytes.Buffer
-	dump := func(w *bytes.Buffer, t *Term) {
+	dump := func(w *bytes.Buffer, t *timetable.Term) {
 		w.WriteString(t.Name)
 		for _, v := range []any{t.Periods, t.Rooms, t.Staff, t.Cohorts, t.Sections, t.Unavailable, t.Weights, t.SoftCapacity} {
 			w.WriteString(strings.ReplaceAll(strings.TrimSpace(sprintAny(v)), "\n", " "))
@@ -127,7 +129,7 @@ func termsEqual(a, b *Term) bool {
 
 func FuzzReadITCSolution(f *testing.F) {
 	for _, n := range []string{"tiny-a", "tiny-b", "tiny-c"} {
-		if data, err := os.ReadFile(filepath.Join("testdata", "itc", n+".sol")); err == nil {
+		if data, err := os.ReadFile(filepath.Join("testdata", "ctt", n+".sol")); err == nil {
 			f.Add(data)
 		}
 	}
@@ -135,29 +137,29 @@ func FuzzReadITCSolution(f *testing.F) {
 	f.Add([]byte("his small +1 00\r\n"))
 	term := readTiny(f)
 	f.Fuzz(func(t *testing.T, data []byte) {
-		s, err := ReadITCSolution(bytes.NewReader(data), "fuzz.sol", term)
+		s, err := ReadCTTSolution(bytes.NewReader(data), "fuzz.sol", term)
 		if err != nil {
 			checkITCErr(t, err, "fuzz.sol", data)
 			return
 		}
 		var first, second bytes.Buffer
-		if err := WriteITCSolution(&first, term, s); err != nil {
+		if err := WriteCTTSolution(&first, term, s); err != nil {
 			t.Fatalf("a read solution cannot be written: %v", err)
 		}
-		again, err := ReadITCSolution(bytes.NewReader(first.Bytes()), "again.sol", term)
+		again, err := ReadCTTSolution(bytes.NewReader(first.Bytes()), "again.sol", term)
 		if err != nil {
 			t.Fatal(err)
 		}
-		if err := WriteITCSolution(&second, term, again); err != nil {
+		if err := WriteCTTSolution(&second, term, again); err != nil {
 			t.Fatal(err)
 		}
 		if first.String() != second.String() {
 			t.Fatalf("write, read, write differs:\n%s---\n%s", first.String(), second.String())
 		}
 		// The evaluators accept anything read and agree with themselves.
-		c1, _ := ITCCost(term, s)
-		c2, _ := ITCCost(term, again)
-		if c1 != c2 || ITCHardViolations(term, s) != ITCHardViolations(term, again) {
+		c1, _ := CTTCost(term, s)
+		c2, _ := CTTCost(term, again)
+		if c1 != c2 || CTTHardViolations(term, s) != CTTHardViolations(term, again) {
 			t.Fatal("cost changed across a round trip")
 		}
 	})
@@ -169,7 +171,7 @@ func FuzzReadITCBest(f *testing.F) {
 	f.Add([]byte("instance,best\n\"unterminated,1\n"))
 	f.Add([]byte("x,y\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		m, err := ReadITCBest(bytes.NewReader(data), "fuzz.csv")
+		m, err := ReadCTTBest(bytes.NewReader(data), "fuzz.csv")
 		if err != nil {
 			checkITCErr(t, err, "fuzz.csv", data)
 			return

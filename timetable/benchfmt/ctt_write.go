@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bufio"
@@ -7,6 +7,8 @@ import (
 	"strconv"
 	"strings"
 	"unicode"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // WriteCTT writes t in the .ctt format ReadCTT reads, so that read → write
@@ -17,7 +19,7 @@ import (
 // "no room"; unavailability is hard and per section (one line per covered
 // period); there are no relations or enrolments; IDs have no spaces.
 // Anything else is an error that names the first record that does not fit.
-func WriteCTT(w io.Writer, t *Term) error {
+func WriteCTT(w io.Writer, t *timetable.Term) error {
 	perDay, err := cttCheckWritable(t)
 	if err != nil {
 		return err
@@ -73,7 +75,7 @@ func WriteCTT(w io.Writer, t *Term) error {
 
 // cttCheckWritable says why t cannot be written as .ctt, or returns the
 // number of periods per day.
-func cttCheckWritable(t *Term) (int, error) {
+func cttCheckWritable(t *timetable.Term) (int, error) {
 	bad := func(format string, a ...any) (int, error) {
 		return 0, fmt.Errorf("write .ctt: "+format, a...)
 	}
@@ -124,7 +126,7 @@ func cttCheckWritable(t *Term) (int, error) {
 		}
 	}
 	for _, u := range t.Unavailable {
-		if !u.Hard || u.Kind != WhoSection {
+		if !u.Hard || u.Kind != timetable.WhoSection {
 			return bad("unavailability of %s %q: only hard unavailability of a section fits the format", u.Kind, u.Who)
 		}
 	}

@@ -1,4 +1,6 @@
-package timetable
+package benchfmt
+
+import "github.com/termwright/termwright/timetable"
 
 // itcGrid numbers the periods of a term the way the competition does: a
 // day number (0 = the first day of the grid) and a slot within the day
@@ -13,7 +15,7 @@ type itcGrid struct {
 
 // newITCGrid numbers the periods of t; Term.Periods is sorted by day and
 // start time, so numbering follows slice order.
-func newITCGrid(t *Term) *itcGrid {
+func newITCGrid(t *timetable.Term) *itcGrid {
 	g := &itcGrid{day: make([]int, len(t.Periods)), slot: make([]int, len(t.Periods)), at: make(map[[2]int]int, len(t.Periods))}
 	d, s := -1, 0
 	for i, p := range t.Periods {

@@ -1,4 +1,4 @@
-package timetable
+package benchfmt
 
 import (
 	"bufio"
@@ -11,6 +11,7 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+	"github.com/termwright/termwright/timetable"
 )
 
 // itcDataDir finds the shared ITC-2007 instances: $TERMWRIGHT_DATA/itc2007
@@ -49,7 +50,7 @@ func itcDataDirOrEmpty() string {
 }
 
 // readShared reads one shared instance by name ("comp01").
-func readShared(t testing.TB, dir, name string) *Term {
+func readShared(t testing.TB, dir, name string) *timetable.Term {
 	t.Helper()
 	f, err := os.Open(filepath.Join(dir, name+".ctt"))
 	if os.IsNotExist(err) {
@@ -118,7 +119,7 @@ func TestReadCTTSharedInstances(t *testing.T) {
 				require.Len(t, s.Staff, 1)
 			}
 			assert.Equal(t, meetings, total)
-			assert.Empty(t, Validate(term).Errors(), "the term passes termwright's validation")
+			assert.Empty(t, timetable.Validate(term).Errors(), "the term passes termwright's validation")
 		})
 	}
 }
