@@ -120,6 +120,23 @@ func (b *builder) compileTimesRelations() {
 			b.hardMaxDays(secs, rel.N, sel)
 		case rel.Kind == timetable.MaxDayMinutes, rel.Kind == timetable.MaxBreaks, rel.Kind == timetable.MaxBlock:
 			b.hardDayKind(rel, secs, sel)
+		case rel.Kind == timetable.NoOverlap, rel.Kind == timetable.NotSameTime, rel.Kind == timetable.SamePeople:
+			// One meeting at a time among the sections: a bound per
+			// maximal clique of overlapping patterns (pattern_cliques.go),
+			// weeks ignored for "not same time"; then travel.
+			occ := b.occupantsOf(secs, false)
+			if rel.Kind == timetable.NotSameTime {
+				for i := range occ {
+					occ[i].weeks = t.AllWeeks()
+				}
+			}
+			b.cliqueBounds(occ, -1, g, KindRelation)
+			if rel.Kind == timetable.SamePeople {
+				b.in(g, KindRelation)
+				for _, body := range b.travelWays(secs) {
+					b.rule(0, append(body, sel)...)
+				}
+			}
 		default:
 			for _, body := range b.relWays(rel, secs) {
 				b.rule(0, append(body, sel)...)
