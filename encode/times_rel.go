@@ -64,9 +64,11 @@ func (b *builder) timesRelation(rel *timetable.Relation) bool {
 }
 
 // relSecs lists the known sections of a relation row in written order
-// (each once unless the kind compares consecutive pairs), and false after
-// reporting an input error when the row cannot be stated over patterns.
-func (b *builder) relSecs(rel *timetable.Relation) ([]int, bool) {
+// (each once unless the kind compares consecutive pairs), and false when
+// the row cannot be stated over patterns (reported as an input error when
+// report is set: the hard part reports every row, hard or soft, so that
+// Solve and Optimize refuse the same terms).
+func (b *builder) relSecs(rel *timetable.Relation, report bool) ([]int, bool) {
 	ordered := consecutiveKind(rel.Kind)
 	var secs []int
 	grid := 0
@@ -81,6 +83,9 @@ func (b *builder) relSecs(rel *timetable.Relation) ([]int, bool) {
 		secs = append(secs, s)
 	}
 	if grid > 0 {
+		if !report {
+			return nil, false
+		}
 		if grid == len(secs) {
 			b.errorf(rel.Src, "relation %q is for sections with meeting times, but %s are placed on the period grid: give them meeting times or use one of the first seven kinds", rel.Kind, strings.Join(rel.Sections, ", "))
 		} else {
@@ -106,7 +111,7 @@ func (b *builder) compileTimesRelations() {
 		if !b.timesRelation(rel) {
 			continue
 		}
-		secs, ok := b.relSecs(rel)
+		secs, ok := b.relSecs(rel, true)
 		if !ok || !rel.Hard || len(secs) < 2 && !rel.Kind.Counted() {
 			continue
 		}

@@ -33,7 +33,7 @@ func (b *builder) compileTimesSoftRelations() {
 		if rel.Hard || !b.timesRelation(rel) {
 			continue
 		}
-		secs, ok := b.relSecs(rel)
+		secs, ok := b.relSecs(rel, false)
 		if !ok || len(secs) == 0 {
 			continue
 		}

@@ -291,8 +291,20 @@ func TestPatternRelationGridRowsRejected(t *testing.T) {
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
 	term.Sections[1].Times = nil
 	term.Sections[1].Length = 1
-	_, _, err := Compile(term, Options{})
-	if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
-		t.Fatalf("err = %v, want the mixed row named", err)
+	for _, soft := range []bool{false, true} {
+		term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
+		_, _, err := Compile(term, Options{})
+		if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
+			t.Fatalf("soft=%v: err = %v, want the mixed row named", soft, err)
+		}
+		if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
+			t.Fatalf("soft=%v: the row is reported %d times", soft, n)
+		}
+	}
+	term.Sections[0].Times = nil
+	term.Sections[0].Length = 1
+	_, _, err := Compile(term, Options{HardOnly: true})
+	if err == nil || !strings.Contains(err.Error(), "placed on the period grid") {
+		t.Fatalf("err = %v, want the grid row named", err)
 	}
 }
