@@ -138,9 +138,9 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
 	if cat.hasPatterns() && o.opt.LocalShare >= 0 {
-		// Package improve moves grid meetings only: neighbourhood search
-		// takes all the time.
-		o.opt.LocalShare = -1
+		// Package improve moves grid meetings only: its turns go to
+		// neighbourhood search (the phases keep their shares of the time).
+		o.skipLocal = true
 		o.res.Local.Skipped = "local search skipped: the term has sections with meeting times, which it does not move"
 	}
 	if o.opt.GlobalConflicts == 0 {
@@ -201,6 +201,8 @@ type optRun struct {
 
 	phase    string
 	lastNote time.Time
+
+	skipLocal bool // the term has pattern sections: no local-search runs (optimize_local.go)
 }
 
 func (o *optRun) run() error {

@@ -12,6 +12,7 @@ type Stats struct {
 	TimeAtoms      int            `json:"time_atoms,omitempty"`       // time(S,I) of pattern sections
 	RoomAtoms      int            `json:"room_atoms,omitempty"`       // in(S,R) of pattern sections
 	PatternSecs    int            `json:"pattern_sections,omitempty"` // sections with meeting times
+	LazyRooms      int            `json:"lazy_rooms,omitempty"`       // rooms whose one-at-a-time Decode checks (pattern_lazy.go)
 	SelectorAtoms  int            `json:"selector_atoms"`
 	AuxAtoms       int            `json:"aux_atoms"` // busy, meets and started_by atoms
 	Rules          int            `json:"rules"`     // normal rules, facts and integrity constraints
@@ -55,6 +56,7 @@ func (c *Catalog) Stats(p *solver.Program) Stats {
 			st.AuxAtoms++
 		}
 	}
+	st.LazyRooms = c.LazyRooms()
 	for i := range c.pats {
 		if c.pats[i].on {
 			st.PatternSecs++
