@@ -18,7 +18,10 @@ import (
 //     patterns' days, start, minutes and weeks (times_rel_pairs.go). For
 //     each group of patterns of A with the same incompatible patterns of B
 //     it states "A at one of these and B at one of those" as one body of
-//     two interned any_time literals: near-linear, never all pairs of pairs;
+//     two interned any_time literals: near-linear, never all pairs of pairs.
+//     Hard "no overlap", "not same time" and the overlap half of "same
+//     people" are instead one bound "at most 1" per maximal clique of
+//     overlapping candidate meetings (pattern_cliques.go);
 //   - room kinds (same room, different rooms, the travel half of same
 //     people) are stated over the room atoms (times_rel_rooms.go);
 //   - day-based kinds (at most days, at most minutes a day, at most breaks,
@@ -29,7 +32,14 @@ import (
 // A hard row becomes integrity constraints or bounds under its group's
 // selector; a soft row (times_rel_soft.go) an atom broken(relation,R)
 // defined by one rule per way the row can break, weighted once, or for the
-// counted kinds weak constraints that sum to weight × count.
+// counted kinds weak constraints that sum to weight × count, exactly, also
+// when the count is divided by the teaching weeks (a unary counter, or
+// binary adders and a long division for large sums: times_rel_binary.go).
+// So the engine's objective equals timetable.Cost on every row and the
+// third gate (optimize_gate.go) compares "soft relations" on pattern terms.
+//
+// Staff weekly limits and lunch breaks of staff and cohorts are
+// times_limits*.go.
 //
 // A row is handled here when it lists a pattern section or has one of the
 // kinds added for pattern terms; a row that mixes pattern and grid sections,
