@@ -21,8 +21,12 @@ func (c *checker) patternPlacement(i int, sec *Section) {
 	p := x.s.Placements[i]
 	switch {
 	case p.Time == 0:
+		which := "one of its " + itoa(len(sec.Times)) + " meeting times"
+		if len(sec.Times) == 1 {
+			which = "its one meeting time"
+		}
 		c.add(RuleTimeChoice, true, []int{i}, []Source{sec.Src},
-			x.meetingLabel(i)+" names no meeting time; "+sec.ID+" meets at one of its "+itoa(len(sec.Times))+" meeting times")
+			x.meetingLabel(i)+" names no meeting time; "+sec.ID+" meets at "+which)
 	case !x.pl[i].pok:
 		c.add(RuleTimeChoice, true, []int{i}, []Source{sec.Src},
 			x.meetingLabel(i)+" names meeting time "+itoa(p.Time)+", but "+sec.ID+" has meeting times 1 to "+itoa(len(sec.Times)))

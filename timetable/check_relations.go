@@ -13,7 +13,7 @@ func (c *checker) relations() {
 		if !r.Hard {
 			continue
 		}
-		reason, pls, _ := x.relationJudge(r)
+		reason, pls, _, _ := x.relationJudge(r)
 		if reason == "" {
 			continue
 		}

@@ -32,36 +32,43 @@ const relMaxReasons = 3
 
 // relationJudge evaluates relation r as term.go defines it and returns
 // "" when it holds, or a sentence saying how it is broken, the placements
-// involved, and the count a soft relation costs its weight times (1 for a
-// broken relation of a kind that is not counted; for a counted kind the
-// count it defines, which may be 0 while the hard reading is broken).
+// involved, and what a soft row costs: Weight times count, divided by div
+// and rounded down (count 1, div 1 for a broken row of a kind that is not
+// counted; for a counted kind its sum over weeks and days and the divisor
+// its definition gives, so the cost may be 0 while the hard reading is
+// broken).
 // Relations of the first seven kinds over grid sections only keep their
 // grid evaluation (relationBroken); everything else is judged on
 // occurrences.
-func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
+func (x *occupancy) relationJudge(r Relation) (why string, pls []int, count, div int64) {
 	ordered := r.Kind == Before || r.Kind == BackToBack || r.Kind == FirstBefore
 	secs := x.relSections(r, !ordered)
 	if r.Kind <= SameRoom && !x.relUsesTimes(secs) {
-		why, pls := x.relationBroken(r)
-		if why == "" {
-			return "", nil, 0
+		w, ps := x.relationBroken(r)
+		if w == "" {
+			return "", nil, 0, 1
 		}
-		return why, pls, 1
+		return w, ps, 1, 1
 	}
 	if r.Kind == SameRoom {
-		why, pls := x.relationBroken(r)
-		if why == "" {
-			return "", nil, 0
+		w, ps := x.relationBroken(r)
+		if w == "" {
+			return "", nil, 0, 1
 		}
-		return why, pls, 1
+		return w, ps, 1, 1
 	}
-	var why []string
-	var pls []int
-	count := int64(1)
+	var reasons []string
+	count, div = 1, 1
 	more := 0
-	note := func(w string, ps ...int) {
-		if len(why) < relMaxReasons {
-			why = append(why, w)
+	note := func(w func() string, ps ...int) {
+		if x.quiet {
+			if len(reasons) == 0 {
+				reasons = append(reasons, "broken")
+			}
+			return
+		}
+		if len(reasons) < relMaxReasons {
+			reasons = append(reasons, w())
 		} else {
 			more++
 		}
@@ -75,19 +82,22 @@ func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
 			x.relOrdered(r.Kind, secs[k], secs[k+1], note)
 		}
 	case MaxDays, MaxDayMinutes, MaxBreaks, MaxBlock:
-		count = x.relCounted(r, secs, note)
+		count, div = x.relCounted(r, secs, note)
 	default:
-		for a := 0; a < len(secs); a++ {
-			for b := a + 1; b < len(secs); b++ {
+		for a := 0; a < len(secs) && !(x.quiet && len(reasons) > 0); a++ {
+			for b := a + 1; b < len(secs) && !(x.quiet && len(reasons) > 0); b++ {
 				x.relPair(r, secs[a], secs[b], note)
 			}
 		}
 	}
-	if len(why) == 0 {
-		return "", nil, 0
+	if len(reasons) == 0 {
+		return "", nil, 0, 1
+	}
+	if x.quiet {
+		return "broken", nil, count, div
 	}
 	if more > 0 {
-		why = append(why, itoa(more)+" more")
+		reasons = append(reasons, itoa(more)+" more")
 	}
 	ids := make([]string, len(secs))
 	for k, si := range secs {
@@ -98,7 +108,7 @@ func (x *occupancy) relationJudge(r Relation) (string, []int, int64) {
 		phrase = strings.NewReplacer(" N ", " "+itoa(r.N)+" ", " M ", " "+itoa(r.M)+" ").Replace(relPhraseMore[r.Kind])
 	}
 	slices.Sort(pls)
-	return chkJoin(ids) + " " + phrase + ", but " + strings.Join(why, "; "), slices.Compact(pls), count
+	return chkJoin(ids) + " " + phrase + ", but " + strings.Join(reasons, "; "), slices.Compact(pls), count, div
 }
 
 // relUsesTimes reports whether a listed section uses meeting patterns.
@@ -125,7 +135,7 @@ func relPls(ms []occMeet) []int {
 // relSameSets handles the kinds where every section must show one key
 // set: same time (day and start of each meeting), same day (days), same
 // start (start times, one for all meetings of all sections).
-func (x *occupancy) relSameSets(kind RelationKind, secs []int, note func(string, ...int)) {
+func (x *occupancy) relSameSets(kind RelationKind, secs []int, note func(func() string, ...int)) {
 	key := func(m occMeet) int {
 		switch kind {
 		case SameTime:
@@ -171,19 +181,19 @@ func (x *occupancy) relSameSets(kind RelationKind, secs []int, note func(string,
 	}
 	first := set(secs[0])
 	if kind == SameStart && len(first) > 1 {
-		note(say(secs[0], first), relPls(x.sectionMeets(secs[0]))...)
+		note(func() string { return say(secs[0], first) }, relPls(x.sectionMeets(secs[0]))...)
 	}
 	for _, si := range secs[1:] {
 		ks := set(si)
 		if slices.Equal(first, ks) && (kind != SameStart || len(ks) <= 1) {
 			continue
 		}
-		note(say(secs[0], first)+" while "+say(si, ks), append(relPls(x.sectionMeets(secs[0])), relPls(x.sectionMeets(si))...)...)
+		note(func() string { return say(secs[0], first) + " while " + say(si, ks) }, append(relPls(x.sectionMeets(secs[0])), relPls(x.sectionMeets(si))...)...)
 	}
 }
 
 // relOrdered handles the kinds defined on consecutive pairs (A, B).
-func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(string, ...int)) {
+func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(func() string, ...int)) {
 	ma, mb := x.sectionMeets(a), x.sectionMeets(b)
 	if len(ma) == 0 || len(mb) == 0 {
 		return
@@ -207,8 +217,10 @@ func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(string, ..
 		if dayRank(la.Day) < dayRank(fb.Day) || la.Day == fb.Day && la.End <= fb.Start {
 			return
 		}
-		note(ida+" is still meeting until "+DayName(la.Day)+" "+la.End.String()+" while "+idb+" starts at "+
-			DayName(fb.Day)+" "+fb.Start.String(), la.pl, fb.pl)
+		note(func() string {
+			return ida + " is still meeting until " + DayName(la.Day) + " " + la.End.String() + " while " + idb + " starts at " +
+				DayName(fb.Day) + " " + fb.Start.String()
+		}, la.pl, fb.pl)
 	case BackToBack:
 		for _, m := range mb {
 			ok := false
@@ -218,7 +230,9 @@ func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(string, ..
 				}
 			}
 			if !ok {
-				note(idb+" at "+DayName(m.Day)+" "+m.Start.String()+" does not start right when a meeting of "+ida+" ends", m.pl)
+				note(func() string {
+					return idb + " at " + DayName(m.Day) + " " + m.Start.String() + " does not start right when a meeting of " + ida + " ends"
+				}, m.pl)
 			}
 		}
 	case FirstBefore:
@@ -246,11 +260,15 @@ func (x *occupancy) relOrdered(kind RelationKind, a, b int, note func(string, ..
 			if endA <= startB {
 				return
 			}
-			note(ida+" ends at "+DayName(da)+" "+endA.String()+" of week "+itoa(wa)+", after "+idb+" starts at "+startB.String(),
+			note(func() string {
+				return ida + " ends at " + DayName(da) + " " + endA.String() + " of week " + itoa(wa) + ", after " + idb + " starts at " + startB.String()
+			},
 				append(relPls(ma), relPls(mb)...)...)
 			return
 		}
-		note(ida+" first meets in week "+itoa(wa)+" on "+DayName(da)+", "+idb+" in week "+itoa(wb)+" on "+DayName(db),
+		note(func() string {
+			return ida + " first meets in week " + itoa(wa) + " on " + DayName(da) + ", " + idb + " in week " + itoa(wb) + " on " + DayName(db)
+		},
 			append(relPls(ma), relPls(mb)...)...)
 	}
 }
@@ -285,13 +303,13 @@ func (x *occupancy) relRooms(ms []occMeet) []string {
 }
 
 // relPair handles the pairwise kinds for sections a and b.
-func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
+func (x *occupancy) relPair(r Relation, a, b int, note func(func() string, ...int)) {
 	ma, mb := x.sectionMeets(a), x.sectionMeets(b)
 	if len(ma) == 0 || len(mb) == 0 {
 		return
 	}
 	ida, idb := x.t.Sections[a].ID, x.t.Sections[b].ID
-	both := append(relPls(ma), relPls(mb)...)
+	both := func() []int { return append(relPls(ma), relPls(mb)...) }
 	hours := func(m occMeet) string { return m.Start.String() + "–" + m.End.String() }
 	at := func(m, n occMeet) string {
 		return DayName(m.Day) + " " + max(m.Start, n.Start).String() + "–" + min(m.End, n.End).String()
@@ -302,14 +320,14 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 		if da&db == da || da&db == db {
 			return
 		}
-		note(ida+" meets on "+da.String()+" and "+idb+" on "+db.String(), both...)
+		note(func() string { return ida + " meets on " + da.String() + " and " + idb + " on " + db.String() }, both()...)
 		return
 	case WeeksWithin:
 		wa, wb := relWeeks(ma), relWeeks(mb)
 		if wa&wb == wa || wa&wb == wb {
 			return
 		}
-		note(ida+" meets"+chkInWeeks(x.t, wa)+" and "+idb+chkInWeeks(x.t, wb), both...)
+		note(func() string { return ida + " meets" + chkInWeeks(x.t, wa) + " and " + idb + chkInWeeks(x.t, wb) }, both()...)
 		return
 	case DifferentWeeks, DifferentDays:
 		if r.Kind == DifferentDays {
@@ -318,12 +336,12 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 				for _, w := range d.List() {
 					names = append(names, DayName(w))
 				}
-				note(ida+" and "+idb+" both meet on "+chkJoin(names), both...)
+				note(func() string { return ida + " and " + idb + " both meet on " + chkJoin(names) }, both()...)
 			}
 			return
 		}
 		if w := relWeeks(ma) & relWeeks(mb); w != 0 {
-			note(ida+" and "+idb+" both meet"+chkInWeeks(x.t, w)+relAllWeeks(x.t, w), both...)
+			note(func() string { return ida + " and " + idb + " both meet" + chkInWeeks(x.t, w) + relAllWeeks(x.t, w) }, both()...)
 		}
 		return
 	case DifferentRooms:
@@ -335,7 +353,7 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 			}
 		}
 		if len(common) > 0 {
-			note(ida+" and "+idb+" both use "+chkJoin(common), both...)
+			note(func() string { return ida + " and " + idb + " both use " + chkJoin(common) }, both()...)
 		}
 		return
 	case OverlapRel:
@@ -346,7 +364,7 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 				}
 			}
 		}
-		note(ida+" and "+idb+" never meet at a common time", both...)
+		note(func() string { return ida + " and " + idb + " never meet at a common time" }, both()...)
 		return
 	}
 	var ti *travelIndex
@@ -361,42 +379,53 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 				first, second = n, m
 			}
 			gap := int(second.Start - first.End)
-			var w string
+			var w func() string
 			switch r.Kind {
 			case WithinHours:
 				if !(m.Start <= n.Start && n.End <= m.End || n.Start <= m.Start && m.End <= n.End) {
-					w = ida + " meets " + hours(m) + " and " + idb + " " + hours(n) + ", neither within the other"
+					w = func() string {
+						return ida + " meets " + hours(m) + " and " + idb + " " + hours(n) + ", neither within the other"
+					}
 				}
 			case DifferentHours, NotSameTime:
 				if m.Start < n.End && n.Start < m.End && (r.Kind == DifferentHours || m.Day == n.Day) {
 					if r.Kind == NotSameTime {
-						w = ida + " and " + idb + " both meet at " + at(m, n)
+						w = func() string {
+							return ida + " and " + idb + " both meet at " + at(m, n)
+						}
 					} else {
-						w = ida + " meets " + hours(m) + " and " + idb + " " + hours(n)
+						w = func() string {
+							return ida + " meets " + hours(m) + " and " + idb + " " + hours(n)
+						}
 					}
 				}
 			case NoOverlap:
 				if m.Overlaps(n.Occurrence) {
-					w = ida + " and " + idb + " both meet at " + at(m, n) + chkInWeeks(x.t, m.Weeks&n.Weeks)
+					w = func() string {
+						return ida + " and " + idb + " both meet at " + at(m, n) + chkInWeeks(x.t, m.Weeks&n.Weeks)
+					}
 				}
 			case SamePeople:
 				if !sameDayWeek {
 					break
 				}
 				if m.Overlaps(n.Occurrence) {
-					w = ida + " and " + idb + " both meet at " + at(m, n) + chkInWeeks(x.t, m.Weeks&n.Weeks)
+					w = func() string {
+						return ida + " and " + idb + " both meet at " + at(m, n) + chkInWeeks(x.t, m.Weeks&n.Weeks)
+					}
 					break
 				}
 				ra, rb := x.roomOfMeet(first), x.roomOfMeet(second)
 				if need := ti.between(ra, rb); gap < need {
-					w = x.s.Placements[first.pl].Section + " ends at " + DayName(first.Day) + " " + first.End.String() + " in " + ra +
-						" and " + x.s.Placements[second.pl].Section + " starts at " + second.Start.String() + " in " + rb +
-						chkInWeeks(x.t, m.Weeks&n.Weeks) + ", but getting there takes " + chkMinutes(need)
+					w = func() string {
+						return x.s.Placements[first.pl].Section + " ends at " + DayName(first.Day) + " " + first.End.String() + " in " + ra + " and " + x.s.Placements[second.pl].Section + " starts at " + second.Start.String() + " in " + rb + chkInWeeks(x.t, m.Weeks&n.Weeks) + ", but getting there takes " + chkMinutes(need)
+					}
 				}
 			case DaySpan:
 				if span := int(max(m.End, n.End) - min(m.Start, n.Start)); sameDayWeek && span > r.N {
-					w = ida + " and " + idb + " span " + min(m.Start, n.Start).String() + "–" + max(m.End, n.End).String() +
-						" on " + DayName(m.Day) + chkInWeeks(x.t, m.Weeks&n.Weeks) + ", " + chkMinutes(span)
+					w = func() string {
+						return ida + " and " + idb + " span " + min(m.Start, n.Start).String() + "–" + max(m.End, n.End).String() + " on " + DayName(m.Day) + chkInWeeks(x.t, m.Weeks&n.Weeks) + ", " + chkMinutes(span)
+					}
 				}
 			case MinGap:
 				if sameDayWeek && gap < r.N {
@@ -404,11 +433,12 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(string, ...int)) {
 					if gap >= 0 {
 						free = "leave " + chkMinutes(gap) + " between them"
 					}
-					w = ida + " and " + idb + " " + free + " on " + DayName(m.Day) + chkInWeeks(x.t, m.Weeks&n.Weeks) +
-						" (" + hours(first) + " and " + hours(second) + ")"
+					w = func() string {
+						return ida + " and " + idb + " " + free + " on " + DayName(m.Day) + chkInWeeks(x.t, m.Weeks&n.Weeks) + " (" + hours(first) + " and " + hours(second) + ")"
+					}
 				}
 			}
-			if w != "" {
+			if w != nil {
 				note(w, m.pl, n.pl)
 				return
 			}
@@ -433,11 +463,13 @@ func newTravelIndexOnce(x *occupancy) *travelIndex {
 	return x.travelIdx
 }
 
-// relCounted handles the counted kinds, returning the count: for at most
-// days, the days over N; for the others, the sum over teaching weeks and
-// days of the excess, divided by the term's teaching weeks (rounded down).
-// note is called when the hard reading is broken (any excess at all).
-func (x *occupancy) relCounted(r Relation, secs []int, note func(string, ...int)) int64 {
+// relCounted handles the counted kinds, returning the count and the
+// divisor of a soft row's cost: for at most days, the days over N (divisor
+// 1); for the others, the sum over teaching weeks and days of the excess,
+// divided by the term's teaching weeks, the division last (minutes count
+// in 5-minute steps, rounded down). note is called when the hard reading
+// is broken (any excess at all).
+func (x *occupancy) relCounted(r Relation, secs []int, note func(func() string, ...int)) (int64, int64) {
 	var ms []occMeet
 	for _, si := range secs {
 		ms = append(ms, x.sectionMeets(si)...)
@@ -446,10 +478,10 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(string, ...int)
 		d := relDays(ms)
 		over := d.Count() - r.N
 		if over <= 0 {
-			return 0
+			return 0, 1
 		}
-		note("they meet on "+itoa(d.Count())+" days ("+d.String()+")", relPls(ms)...)
-		return int64(over)
+		note(func() string { return "they meet on " + itoa(d.Count()) + " days (" + d.String() + ")" }, relPls(ms)...)
+		return int64(over), 1
 	}
 	days := byDay(ms)
 	total, worst, worstWeek := 0, 0, 0
@@ -488,8 +520,9 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(string, ...int)
 			}
 		}
 	}
+	div := int64(x.t.TeachingWeeks())
 	if total == 0 {
-		return 0
+		return 0, div
 	}
 	var what string
 	switch r.Kind {
@@ -500,9 +533,13 @@ func (x *occupancy) relCounted(r Relation, secs []int, note func(string, ...int)
 	case MaxBlock:
 		what = chkCount(worst, "block", "blocks") + " too long"
 	}
-	note("on "+worstDay+" of week "+itoa(worstWeek)+" they have "+what+" (over all weeks and days "+itoa(total)+", "+
-		itoa(total/x.t.TeachingWeeks())+" after dividing by the "+itoa(x.t.TeachingWeeks())+" teaching weeks)", hit...)
-	return int64(total / x.t.TeachingWeeks())
+	note(func() string {
+		return "on " + worstDay + " of week " + itoa(worstWeek) + " they have " + what + " (" + itoa(total) + " over all weeks and days)"
+	}, hit...)
+	if r.Kind == MaxDayMinutes {
+		return int64(total / 5), div // 5-minute steps, rounded down
+	}
+	return int64(total), div
 }
 
 // relBlock is a run of meetings of one day, each starting at most M

@@ -14,8 +14,11 @@ import (
 // "University course timetabling and International Timetabling
 // Competition 2019", PATAT 2018; formulas recalled from memory, minutes in
 // place of 5-minute slots) the examples follow those formulas too, and the
-// counted kinds divide by the teaching weeks (12 here) and round down as
-// those rules do. Each row's comment has the arithmetic.
+// counted kinds multiply by the weight, then divide by the teaching weeks
+// (12 here) and round down, as those rules do (the cost of the three
+// per-week kinds is penalty × excess / weeks with the integer division
+// last in the competition organisers' published evaluator, UniTime
+// cpsolver ItcMaxBreaksConstraint). Each row's comment has the arithmetic.
 func TestRelationKinds(t *testing.T) {
 	a := func(days, start string, mins int, weeks WeekSet, room string) ptSec {
 		return ptSec{ID: "A", Days: days, Start: start, Minutes: mins, Weeks: weeks, Room: room}
@@ -131,12 +134,14 @@ func TestRelationKinds(t *testing.T) {
 		{"at most days holds", MaxDays, 3, 0, []ptSec{a("Mon Wed Fri", "09:00", 50, all, "R1"), b("Mon Wed", "11:00", 50, all, "R2")}, nil, false, 3, 0},
 		// {Mon, Wed, Fri} ∪ {Tue, Thu} = 5 days, N = 2 → 3 over; soft 3 × 3 = 9.
 		{"at most days broken", MaxDays, 2, 0, []ptSec{a("Mon Wed Fri", "09:00", 50, all, "R1"), b("Tue Thu", "11:00", 75, all, "R2")}, nil, true, 3, 9},
-		// Mon: A 75 min weeks 1–12, B 75 min weeks 1–6. Weeks 1–6: 150 − 120 = 30 over, × 6 = 180;
-		// weeks 7–12: 75 ≤ 120. 180 ÷ 12 weeks = 15; soft 2 × 15 = 30.
-		{"at most minutes a day", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, all, "R1"), b("Mon", "10:30", 75, ptWeeks("1-6"), "R2")}, nil, true, 2, 30},
-		// the same in week 1 only with N = 140: 150 − 140 = 10 over ÷ 12 = 0.83 → 0: hard broken, soft cost 0;
-		// with N = 120 it is 30 ÷ 12 = 2.5 → 2, soft 2 × 2 = 4.
-		{"at most minutes a day rounds to 2", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 2, 4},
+		// Mon: A 75 min weeks 1–12, B 75 min weeks 1–6. Weeks 1–6: 150 − 120 = 30 over, × 6 = 180
+		// minutes = 36 five-minute steps; weeks 7–12: 75 ≤ 120. Soft 2 × 36 ÷ 12 weeks = 6.
+		{"at most minutes a day", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, all, "R1"), b("Mon", "10:30", 75, ptWeeks("1-6"), "R2")}, nil, true, 2, 6},
+		// the same in week 1 only: 30 minutes over = 6 steps, soft 2 × 6 ÷ 12 = 1; with N = 140:
+		// 10 minutes = 2 steps, 2 × 2 ÷ 12 = 0.33 → 0: hard broken, soft cost 0; with N = 143:
+		// 7 minutes = 1 step (rounded down), weight 12: 12 × 1 ÷ 12 = 1.
+		{"at most minutes a day in one week", MaxDayMinutes, 120, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 2, 1},
+		{"at most minutes a day in whole steps", MaxDayMinutes, 143, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 12, 1},
 		{"at most minutes a day rounds down", MaxDayMinutes, 140, 0, []ptSec{a("Mon", "09:00", 75, w1, "R1"), b("Mon", "10:30", 75, w1, "R2")}, nil, true, 2, 0},
 		// Mon, every week: A 9:00–9:50, B 10:00–10:50 (10-minute gap ≤ M = 10 joins), C 13:00, D 15:00
 		// → 3 blocks, N + 1 = 2 allowed → 1 over × 12 weeks ÷ 12 = 1; soft 5 × 1 = 5.
@@ -150,8 +155,10 @@ func TestRelationKinds(t *testing.T) {
 		// A 9:00–9:50 and B 10:00–10:50 join (gap 10 ≤ 10): block 110 minutes > 100, every week:
 		// 12 ÷ 12 = 1; soft 4 × 1 = 4.
 		{"longest block", MaxBlock, 100, 10, []ptSec{a("Mon", "09:00", 50, all, "R1"), b("Mon", "10:00", 50, all, "R2")}, nil, true, 4, 4},
-		// B in odd weeks only: 6 long blocks ÷ 12 = 0 → hard broken, soft 0.
-		{"longest block rounds down", MaxBlock, 100, 10, []ptSec{a("Mon", "09:00", 50, all, "R1"), b("Mon", "10:00", 50, ptOdd, "R2")}, nil, true, 4, 0},
+		// B in odd weeks only: 6 long blocks; weight 1: 1 × 6 ÷ 12 = 0 → hard broken, soft 0;
+		// weight 4: 4 × 6 ÷ 12 = 2 (the division last, as the competition rules divide).
+		{"longest block rounds down", MaxBlock, 100, 10, []ptSec{a("Mon", "09:00", 50, all, "R1"), b("Mon", "10:00", 50, ptOdd, "R2")}, nil, true, 1, 0},
+		{"longest block divides last", MaxBlock, 100, 10, []ptSec{a("Mon", "09:00", 50, all, "R1"), b("Mon", "10:00", 50, ptOdd, "R2")}, nil, true, 4, 2},
 		// one meeting of 120 minutes alone is no block of two → holds.
 		{"longest block of one meeting", MaxBlock, 100, 10, []ptSec{a("Mon", "09:00", 120, all, "R1"), b("Tue", "10:00", 50, all, "R2")}, nil, false, 4, 0},
 	}

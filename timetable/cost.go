@@ -84,7 +84,9 @@ func (r CostReport) Criterion(name string) CriterionCost {
 //     first/last period of its day in the grid.
 //   - "time choice"/"room choice": Count is the sum of the chosen weights.
 //   - "soft relations": Count is the broken rows, each counted kind adding
-//     its count instead of 1.
+//     its count (divided as its cost is) instead of 1; a counted row costs
+//     its weight times its count (minutes in 5-minute steps) divided by the
+//     teaching weeks, rounded down after multiplying, as term.go defines.
 //
 // Cost runs in O(P·(staff+cohorts) + placements + Σ students·k²).
 func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
@@ -112,8 +114,10 @@ type coster struct {
 }
 
 func newCoster(t *Term, s *Schedule) *coster {
+	x := newOccupancy(t, s)
+	x.quiet = true
 	c := &coster{
-		x:      newOccupancy(t, s),
+		x:      x,
 		at:     map[string]int{},
 		weight: map[string]int{},
 		rep: CostReport{
@@ -175,8 +179,8 @@ func (c *coster) softRelations() {
 		if r.Hard {
 			continue
 		}
-		if why, _, n := c.x.relationJudge(r); why != "" {
-			c.add(CritSoftRelations, n, n*int64(r.Weight), 0, "")
+		if why, _, n, div := c.x.relationJudge(r); why != "" {
+			c.add(CritSoftRelations, n/div, n*int64(r.Weight)/div, 0, "")
 		}
 	}
 }

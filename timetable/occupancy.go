@@ -31,6 +31,7 @@ type occupancy struct {
 	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
 	hasPat    bool         // some valid placement is a pattern placement
 	travelIdx *travelIndex // built on first use
+	quiet     bool         // Cost: relations judged without sentences or placements
 	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
 
 	dayFirst []int // period index -> index of the first period of its day
@@ -58,9 +59,6 @@ type occMeet struct {
 	Occurrence
 	pl int
 }
-
-// valid reports whether placement i is a valid grid or pattern placement.
-func (x *occupancy) valid(i int) bool { return x.pl[i].ok || x.pl[i].pok }
 
 // meetsOf lists the occurrences of placement i (none when invalid).
 func (x *occupancy) meetsOf(i int) []occMeet { return x.meets[x.pl[i].m0:x.pl[i].m1] }
