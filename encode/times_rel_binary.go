@@ -173,3 +173,14 @@ func (b *builder) sumBits(terms []countTerm) []solver.Lit {
 	}
 	return sum
 }
+
+// mulBits returns x · c for a constant c >= 0 (shifted copies added).
+func (b *builder) mulBits(x []solver.Lit, c int64) []solver.Lit {
+	var out []solver.Lit
+	for i := 0; c>>i != 0; i++ {
+		if c>>i&1 == 1 {
+			out = b.addBits(out, append(make([]solver.Lit, i), x...))
+		}
+	}
+	return out
+}
