@@ -70,6 +70,9 @@ func BenchmarkITC2019(b *testing.B) {
 				b.ReportMetric(wall.Seconds(), "first-s")
 				b.ReportMetric(float64(peakRSS())/(1<<20), "peakRSS-MiB")
 				b.ReportMetric(norel, "norel")
+				b.ReportMetric(float64(res.Rounds), "rounds")
+				b.ReportMetric(float64(res.Nogoods), "nogoods")
+				b.ReportMetric(float64(st.LazyRooms), "lazyrooms")
 				if res.Status == solver.Satisfiable {
 					b.ReportMetric(1, "valid")
 				} else {
