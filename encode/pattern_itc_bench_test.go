@@ -28,6 +28,11 @@ func BenchmarkITC2019(b *testing.B) {
 	if len(files) == 0 {
 		b.Skip("no ITC-2019 instances in " + itc2019Dir)
 	}
+	if v, err := strconv.Atoi(os.Getenv("LAZY_ROOM_BUDGET")); err == nil {
+		saved := lazyRoomBudget
+		lazyRoomBudget = v // for measuring other budgets
+		defer func() { lazyRoomBudget = saved }()
+	}
 	for _, f := range files {
 		name := strings.TrimSuffix(filepath.Base(f), ".xml")
 		b.Run(name, func(b *testing.B) {
