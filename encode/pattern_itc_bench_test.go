@@ -28,6 +28,11 @@ func BenchmarkITC2019(b *testing.B) {
 	if len(files) == 0 {
 		b.Skip("no ITC-2019 instances in " + itc2019Dir)
 	}
+	if v, err := strconv.Atoi(os.Getenv("LAZY_ROOM_BUDGET")); err == nil {
+		saved := lazyRoomBudget
+		lazyRoomBudget = v // for measuring other budgets
+		defer func() { lazyRoomBudget = saved }()
+	}
 	for _, f := range files {
 		name := strings.TrimSuffix(filepath.Base(f), ".xml")
 		b.Run(name, func(b *testing.B) {
@@ -70,6 +75,9 @@ func BenchmarkITC2019(b *testing.B) {
 				b.ReportMetric(wall.Seconds(), "first-s")
 				b.ReportMetric(float64(peakRSS())/(1<<20), "peakRSS-MiB")
 				b.ReportMetric(norel, "norel")
+				b.ReportMetric(float64(res.Rounds), "rounds")
+				b.ReportMetric(float64(res.Nogoods), "nogoods")
+				b.ReportMetric(float64(st.LazyRooms), "lazyrooms")
 				if res.Status == solver.Satisfiable {
 					b.ReportMetric(1, "valid")
 				} else {
