@@ -120,7 +120,7 @@ type Catalog struct {
 	secs        []secModel // per section of the term
 	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
 	anyPat      bool       // some section is a pattern section
-	rel         relModel   // pattern relations encoded by a surrogate (times_rel_gate.go)
+	lazy        []bool     // lazy[r]: room r's one-at-a-time is checked by Decode (pattern_lazy.go); nil: none
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none
 	choiceGroup []int32        // group of Program.Choices[i]

@@ -102,6 +102,9 @@ func decodeWith(ctx context.Context, t *timetable.Term, c *Catalog, model []solv
 	if err := d.readPatterns(model); err != nil {
 		return nil, err
 	}
+	if err := d.lazyRoomClashes(); err != nil {
+		return nil, err
+	}
 	if err := d.hallCheck(); err != nil {
 		return nil, err
 	}

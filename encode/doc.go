@@ -213,6 +213,57 @@
 // verified timetable so far, and the search never stops early while time
 // remains.
 //
+// # Pattern sections (pattern_*.go)
+//
+// A section with meeting patterns (Section.Times) is decided by atoms
+// time(S,I), one per acceptable pattern, and in(S,R), one per acceptable
+// room (RoomChoices, else Rooms, else every room that fits), each set with
+// an "exactly one" choice; a section that takes no room has no room atoms.
+// Patterns that meet during hard unavailability of the section, its staff
+// or cohorts (minutes and teaching weeks exact) are left out; a (pattern,
+// room) pair that meets the room's unavailability is one integrity
+// constraint. The grid parts see such a section as one with no meetings
+// and no room, so a grid term compiles exactly as before.
+//
+// One meeting at a time, for every staff member, cohort and room of a
+// pattern section: candidate meetings are intervals on a day in teaching
+// weeks; per week and day a sweep over the sorted endpoints yields the
+// maximal cliques (Gilmore and Hoffman 1964; Golumbic, Algorithmic Graph
+// Theory, ch. 8), identical member lists are swept once and identical
+// cliques stated once, and each clique of two or more sections is one
+// bound "at most 1" over one literal per section: any_time(S,K) (the
+// section meets at one of its patterns in the clique; the time atom
+// itself for one pattern), interned and shared by every bound. Grid starts
+// of the same people take part as intervals. Rooms need time and room
+// together: room_time(S,R,N) :- in(S,R), any_time(S,K), interned by
+// section, room and time literal (the time literal alone when R is the
+// section's only room). Per section this costs its patterns, its rooms,
+// and one any_time per distinct stabbing set of its patterns and one
+// room_time per (room, stabbing set); on the public ITC-2019 instances
+// 40–730 atoms per section, relations included (room_time dominates where
+// sections have dozens of rooms and patterns each). Above lazyRoomBudget
+// room_time atoms per section the dearest rooms get no bounds: Decode
+// finds their clashes and the search forbids each clashing pair of
+// sections that room at every overlapping pair of their patterns
+// (pattern_lazy.go; integrity constraints the live engine takes as
+// clauses). A grid section may share a room with
+// pattern sections only as its single candidate room (its start then means
+// that room); otherwise Compile says so.
+//
+// Travel (Term.Travel, hard) between two pattern sections of one staff
+// member or cohort: for each pair of patterns on a common day and week
+// with a gap below the longest travel time, and each pair of candidate
+// rooms farther apart than the gap, one integrity constraint. Decode reads
+// one placement per pattern section (Period -1, Time, Room). The soft
+// criteria time choice, room choice, avoid times, wasted seats, room over
+// capacity and (with Keep: another pattern or room) moved meetings are
+// weak constraints on these atoms; relations, weekly limits and lunch
+// breaks of pattern sections are in times_rel*.go and times_limits*.go.
+// Optimize skips local search on such terms (package improve moves grid
+// meetings only; OptimizeResult.Local.Skipped says so); neighbourhoods
+// free pattern sections like grid ones. Explain mode refuses pattern
+// terms with a message.
+//
 // # Naming
 //
 // Atoms print as ground terms of the standard rule syntax: start("BIO-101",

@@ -428,9 +428,15 @@ func (o *optRun) dayHood(ls *lnsState) []int {
 		}
 	}
 	var days []int
-	for d := 0; d < 7; d++ {
-		if present&(1<<uint(d)) != 0 {
-			days = append(days, d)
+	if o.cat.hasPatterns() {
+		for d := 0; d < 7; d++ {
+			if present&(1<<uint(d)) != 0 {
+				days = append(days, d)
+			}
+		}
+	} else {
+		for _, d := range t.Days() { // grid order, as before pattern sections
+			days = append(days, int(d))
 		}
 	}
 	if len(days) == 0 {

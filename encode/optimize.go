@@ -138,9 +138,9 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
 	if cat.hasPatterns() && o.opt.LocalShare >= 0 {
-		// Package improve moves grid meetings only: neighbourhood search
-		// takes all the time.
-		o.opt.LocalShare = -1
+		// Package improve moves grid meetings only: its turns go to
+		// neighbourhood search (the phases keep their shares of the time).
+		o.skipLocal = true
 		o.res.Local.Skipped = "local search skipped: the term has sections with meeting times, which it does not move"
 	}
 	if o.opt.GlobalConflicts == 0 {
@@ -201,6 +201,8 @@ type optRun struct {
 
 	phase    string
 	lastNote time.Time
+
+	skipLocal bool // the term has pattern sections: no local-search runs (optimize_local.go)
 }
 
 func (o *optRun) run() error {
@@ -324,7 +326,7 @@ func (o *optRun) global(budget int64) error {
 // whole term: the time part of the cost is at least the engine's bound,
 // and the room part is never negative.
 func (o *optRun) readBound() {
-	lb := o.cat.boundOf(o.x.s.LowerBound()) // none under a surrogate objective (times_rel_gate.go)
+	lb := o.x.s.LowerBound()
 	for i, l := range o.x.s.Levels() {
 		if k := slices.Index(o.levels, l); k >= 0 && i < len(lb) {
 			o.bound[k] = max(o.bound[k], lb[i])

@@ -73,7 +73,7 @@ func randomSoftTerm(rng *rand.Rand, timeOnly bool) *timetable.Term {
 			Weight: 1 + rng.IntN(3), Src: timetable.Source{Sheet: "Unavailable", Row: len(t.Unavailable) + 2}})
 	}
 	if rng.IntN(2) == 0 {
-		kinds := timetable.RelationKinds
+		kinds := timetable.RelationKinds[:7] // grid rows take the first seven kinds (times_rel.go)
 		kind := kinds[rng.IntN(len(kinds))].Kind
 		for timeOnly && kind == timetable.SameRoom {
 			kind = kinds[rng.IntN(len(kinds))].Kind

@@ -51,13 +51,13 @@ func TimeCost(t *timetable.Term, s, kept *timetable.Schedule) timetable.CostRepo
 
 // patternUngated are the criteria the third gate leaves out on terms with
 // pattern sections: the engine does not write their pattern part (student
-// clashes of pattern sections; soft relations over pattern sections are
-// helper rel's relation files). Every other criterion is encoded exactly
+// clashes of pattern sections). Every other criterion is encoded exactly
 // for pattern sections (time and room choice, avoid times, seats, moved
-// meetings) or counts grid meetings only. On such terms the engine's bound
+// meetings, soft relations: times_rel*.go, rows encoded by a surrogate
+// left out by exactTerm) or counts grid meetings only. On such terms the engine's bound
 // covers the gated criteria; the cost reported is always timetable.Cost of
 // the written timetable.
-var patternUngated = []string{timetable.CritStudentClash, timetable.CritSoftRelations}
+var patternUngated = []string{timetable.CritStudentClash}
 
 // EngineCost returns the cost of model under the weak constraints the soft
 // criteria wrote into p, per criterion (indexed like timetable.Criteria).
@@ -96,7 +96,7 @@ func (c *Catalog) EngineCost(p *solver.Program, model []solver.Atom) []int64 {
 // error wrapping ErrCostMismatch when they differ.
 func (c *Catalog) thirdGate(t *timetable.Term, p *solver.Program, model []solver.Atom, s, kept *timetable.Schedule) error {
 	eng := c.EngineCost(p, model)
-	rep := TimeCost(c.exactTerm(t), s, kept)
+	rep := TimeCost(t, s, kept)
 	var diffs []string
 	for k, cr := range timetable.Criteria {
 		if c.hasPatterns() && slices.Contains(patternUngated, cr.Name) {

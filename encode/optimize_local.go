@@ -48,7 +48,7 @@ var errNotAdopted = errors.New("not a model of the program")
 // localSearch runs one local-search run from the incumbent and adopts its
 // best timetable when that is better (adopt puts it through every gate).
 func (o *optRun) localSearch() error {
-	if o.opt.LocalShare < 0 || o.best == nil {
+	if o.opt.LocalShare < 0 || o.best == nil || o.skipLocal {
 		return nil
 	}
 

@@ -206,6 +206,3 @@ func bruteCheck(t *timetable.Term, sched *timetable.Schedule) (int, []string) {
 	}
 	return cost, probs
 }
-
-// hardCount counts the hard violations.
-func hardCount(vs []timetable.Violation) int { return len(timetable.HardViolations(vs)) }

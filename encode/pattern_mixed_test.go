@@ -88,3 +88,41 @@ func TestPatternExplainRefused(t *testing.T) {
 	_, _, err := Compile(cliqueTerm(), Options{Explain: true})
 	require.ErrorContains(t, err, "explanations do not cover sections with meeting times")
 }
+
+// TestPatternKeep: re-planning with the timetable itself kept moves
+// nothing ("moved meetings" is the top level); keeping a timetable whose
+// one section now has a pattern forbidden moves exactly that section, and
+// Moves reports it as moved (another meeting time or room).
+func TestPatternKeep(t *testing.T) {
+	for seed := int64(1); seed <= 12; seed++ {
+		tm := patternTerm(seed, 6, 4, 3)
+		first, err := Solve(context.Background(), tm, SolveOptions{Seed: seed})
+		if err != nil || first.Status != solver.Satisfiable {
+			continue
+		}
+		res, err := Optimize(context.Background(), tm, OptimizeOptions{Seed: seed, Keep: first.Schedule, MaxStall: 10})
+		require.NoError(t, err)
+		require.Empty(t, res.Moves, "seed %d", seed)
+		// Forbid the kept pattern of the first section by a hard row of the
+		// section on its first day.
+		pl := first.Schedule.Placements[0]
+		s := tm.SectionIndex()[pl.Section]
+		tc := tm.Sections[s].Times[pl.Time-1]
+		d, _ := tc.Days.First()
+		tm.Unavailable = append(tm.Unavailable, timetable.Unavailability{Who: pl.Section, Kind: timetable.WhoSection,
+			Day: d, From: tc.Start, To: tc.End(), Hard: true, Src: timetable.Source{Sheet: "Unavailable", Row: 99}})
+		res, err = Optimize(context.Background(), tm, OptimizeOptions{Seed: seed, Keep: first.Schedule, MaxStall: 10})
+		if err != nil {
+			var ce CompileError
+			require.ErrorAs(t, err, &ce) // that was its only possible time
+			continue
+		}
+		if res.Status != solver.Satisfiable {
+			continue
+		}
+		require.Empty(t, timetable.HardViolations(timetable.Check(tm, res.Schedule)))
+		require.NotEmpty(t, res.Moves)
+		require.Equal(t, pl.Section, res.Moves[0].Section)
+		require.Equal(t, ChangeMoved, res.Moves[0].Change)
+	}
+}

@@ -2,6 +2,8 @@ package encode
 
 import (
 	"fmt"
+	"sort"
+	"strconv"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
@@ -93,6 +95,15 @@ func (b *builder) patternRoomOverlap() {
 			gridSecs[r] = append(gridSecs[r], s)
 		}
 	}
+	type roomPlan struct {
+		r       int
+		secs    []int
+		occ     []interval
+		cliques [][]int
+		cost    int // room_time literals its bounds would need (distinct per section)
+	}
+	var plans []roomPlan
+	total := 0
 	for r, secs := range roomSecs {
 		if gridSecs != nil {
 			secs = append(secs, gridSecs[r]...)
@@ -100,19 +111,82 @@ func (b *builder) patternRoomOverlap() {
 		if len(secs) < 2 {
 			continue
 		}
-		room := &t.Rooms[r]
-		g := b.newGroup(KindRoomSupply, []string{"pattern", room.ID},
-			fmt.Sprintf("room %s holds at most one meeting at a time (sections %s)", room.ID, sectionList(t, secs)),
-			[]timetable.Source{room.Src}, RelaxRooms)
-		b.cliqueBounds(b.occupantsOf(secs, true), r, g, KindRoomSupply)
+		occ := b.occupantsOf(secs, true)
+		cl := maximalCliques(occ, t.TeachingWeeks())
+		plans = append(plans, roomPlan{r: r, secs: secs, occ: occ, cliques: cl, cost: roomTimeCost(occ, cl)})
+		total += plans[len(plans)-1].cost
 	}
+	// Above the budget, the dearest rooms are checked lazily (Decode finds
+	// their clashes, the search forbids them and goes on), the others get
+	// their clique bounds.
+	budget := lazyRoomBudget * len(t.Sections)
+	if total > budget {
+		order := make([]int, len(plans))
+		for i := range order {
+			order[i] = i
+		}
+		sort.SliceStable(order, func(i, j int) bool { return plans[order[i]].cost < plans[order[j]].cost })
+		sum := 0
+		for _, i := range order {
+			if sum+plans[i].cost > budget && !b.roomHasGrid(gridSecs, plans[i].r) {
+				b.c.lazyRoom(plans[i].r)
+				continue
+			}
+			sum += plans[i].cost
+		}
+	}
+	for _, pl := range plans {
+		if b.c.isLazyRoom(pl.r) {
+			continue
+		}
+		room := &t.Rooms[pl.r]
+		g := b.newGroup(KindRoomSupply, []string{"pattern", room.ID},
+			fmt.Sprintf("room %s holds at most one meeting at a time (sections %s)", room.ID, sectionList(t, pl.secs)),
+			[]timetable.Source{room.Src}, RelaxRooms)
+		b.cliqueBoundsOf(pl.occ, pl.cliques, pl.r, g, KindRoomSupply)
+	}
+}
+
+// lazyRoomBudget is the number of room_time literals per section above
+// which the rooms whose clique bounds cost most are checked lazily. On the
+// public ITC-2019 instances only lums-spr18 (about 1,500 per section:
+// dozens of rooms times dozens of patterns per section) exceeds it.
+var lazyRoomBudget = 600
+
+// roomHasGrid reports whether grid sections use room r (such rooms are
+// never lazy: the grid's meetings are not checked by Decode).
+func (b *builder) roomHasGrid(gridSecs [][]int, r int) bool {
+	return gridSecs != nil && len(gridSecs[r]) > 0
+}
+
+// roomTimeCost counts the distinct (section, patterns) pairs of the
+// cliques: the room_time atoms their bounds need.
+func roomTimeCost(occ []interval, cliques [][]int) int {
+	seen := map[string]bool{}
+	var key []byte
+	for _, c := range cliques {
+		for k := 0; k < len(c); {
+			s := occ[c[k]].s
+			key = strconv.AppendInt(key[:0], int64(s), 10)
+			for ; k < len(c) && occ[c[k]].s == s; k++ {
+				key = append(key, ',')
+				key = strconv.AppendInt(key, int64(occ[c[k]].idx), 10)
+			}
+			seen[string(key)] = true
+		}
+	}
+	return len(seen)
 }
 
 // cliqueBounds states "at most 1" under group g's selector for every
 // maximal clique of occ that involves two sections or more; room >= 0
 // asks for the room literals of that room.
 func (b *builder) cliqueBounds(occ []interval, room, g int, kind string) {
-	cliques := maximalCliques(occ, b.t.TeachingWeeks())
+	b.cliqueBoundsOf(occ, maximalCliques(occ, b.t.TeachingWeeks()), room, g, kind)
+}
+
+// cliqueBoundsOf is cliqueBounds with the cliques given.
+func (b *builder) cliqueBoundsOf(occ []interval, cliques [][]int, room, g int, kind string) {
 	b.in(g, kind)
 	sel := b.sel(g)
 	var lits []solver.Lit

@@ -102,3 +102,46 @@ func TestPatternOptimumEqualsBrute(t *testing.T) {
 		t.Fatalf("only %d feasible terms", n)
 	}
 }
+
+// TestPatternLazyRoomsAgreeWithBrute: with every room checked lazily
+// (budget 0: Decode finds room clashes and the search forbids them), Solve
+// still finds a timetable exactly when brute force does, passing
+// timetable.Check, and Optimize still reaches the brute-force optimum.
+func TestPatternLazyRoomsAgreeWithBrute(t *testing.T) {
+	saved := lazyRoomBudget
+	lazyRoomBudget = 0
+	defer func() { lazyRoomBudget = saved }()
+	lazy := 0
+	for seed := int64(1); seed <= 40; seed++ {
+		tm := patternTerm(seed, 7, 4, 2)
+		want, feasible := bruteBest(tm)
+		res, err := Solve(context.Background(), tm, SolveOptions{Seed: seed})
+		var cerr CompileError
+		if errors.As(err, &cerr) && !feasible {
+			continue
+		}
+		if err != nil {
+			t.Fatalf("seed %d: %v", seed, err)
+		}
+		lazy += res.Size.LazyRooms
+		if (res.Status == solver.Satisfiable) != feasible {
+			t.Fatalf("seed %d: engine %v, brute force feasible=%v", seed, res.Status, feasible)
+		}
+		if !feasible {
+			continue
+		}
+		if hard := timetable.HardViolations(timetable.Check(tm, res.Schedule)); len(hard) > 0 {
+			t.Fatalf("seed %d: %v", seed, hard)
+		}
+		opt, err := Optimize(context.Background(), tm, OptimizeOptions{Seed: seed, MaxStall: 20})
+		if err != nil {
+			t.Fatalf("seed %d: %v", seed, err)
+		}
+		if got := opt.Cost.ByLevel[1]; got != int64(want) || !opt.Proven {
+			t.Fatalf("seed %d: cost %d (proven %v), brute force %d", seed, got, opt.Proven, want)
+		}
+	}
+	if lazy == 0 {
+		t.Fatal("no room was checked lazily")
+	}
+}

@@ -9,6 +9,10 @@ type Stats struct {
 	Sections       int            `json:"sections"`
 	Atoms          int            `json:"atoms"`
 	StartAtoms     int            `json:"start_atoms"`
+	TimeAtoms      int            `json:"time_atoms,omitempty"`       // time(S,I) of pattern sections
+	RoomAtoms      int            `json:"room_atoms,omitempty"`       // in(S,R) of pattern sections
+	PatternSecs    int            `json:"pattern_sections,omitempty"` // sections with meeting times
+	LazyRooms      int            `json:"lazy_rooms,omitempty"`       // rooms whose one-at-a-time Decode checks (pattern_lazy.go)
 	SelectorAtoms  int            `json:"selector_atoms"`
 	AuxAtoms       int            `json:"aux_atoms"` // busy, meets and started_by atoms
 	Rules          int            `json:"rules"`     // normal rules, facts and integrity constraints
@@ -42,10 +46,20 @@ func (c *Catalog) Stats(p *solver.Program) Stats {
 		switch a.Kind {
 		case AtomStart:
 			st.StartAtoms++
+		case AtomTime:
+			st.TimeAtoms++
+		case AtomRoom:
+			st.RoomAtoms++
 		case AtomSelector:
 			st.SelectorAtoms++
 		case AtomBusy, AtomMeetsDay, AtomStartedBy, AtomAux:
 			st.AuxAtoms++
+		}
+	}
+	st.LazyRooms = c.LazyRooms()
+	for i := range c.pats {
+		if c.pats[i].on {
+			st.PatternSecs++
 		}
 	}
 	for i, b := range p.Bounds {

@@ -213,7 +213,7 @@ func (b *builder) weekMinutes(st *timetable.Staff, items []limItem) {
 			grp = b.weekGroup(st, "minutes", st.MaxWeekMinutes)
 		}
 		b.in(grp, KindStaffWeekLimit)
-		b.bound(lits, solver.NoBound, st.MaxWeekMinutes/g, b.sel(grp))
+		b.bound(b.distinct(lits), solver.NoBound, st.MaxWeekMinutes/g, b.sel(grp))
 	}
 }
 
@@ -249,7 +249,7 @@ func (b *builder) weekDays(st *timetable.Staff, items []limItem) {
 			grp = b.weekGroup(st, "days", st.MaxWeekDays)
 		}
 		b.in(grp, KindStaffWeekLimit)
-		b.bound(days, solver.NoBound, st.MaxWeekDays, b.sel(grp))
+		b.bound(b.distinct(days), solver.NoBound, st.MaxWeekDays, b.sel(grp))
 	}
 }
 

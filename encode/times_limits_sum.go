@@ -61,3 +61,27 @@ func (b *builder) unitChain(vals []litVal) []solver.Lit {
 	}
 	return out
 }
+
+// distinct returns lits with every repeat of a literal replaced by a new
+// atom equal to it (copy :- l), because a bound counts a literal listed
+// twice once: a pattern meeting on two days gives the same literal for
+// both days, and each day must count.
+func (b *builder) distinct(lits []solver.Lit) []solver.Lit {
+	seen := map[solver.Lit]bool{}
+	out := make([]solver.Lit, len(lits))
+	for i, l := range lits {
+		if !seen[l] {
+			seen[l] = true
+			out[i] = l
+			continue
+		}
+		saveG, saveK := b.group, b.boundKind
+		b.in(-1, "pattern relation aux")
+		b.rel.n++
+		a := b.newAtom(fmt.Sprintf("again_%d", b.rel.n), aux(-1, -1))
+		b.rule(a, l)
+		b.group, b.boundKind = saveG, saveK
+		out[i] = solver.Pos(a)
+	}
+	return out
+}

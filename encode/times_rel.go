@@ -18,7 +18,10 @@ import (
 //     patterns' days, start, minutes and weeks (times_rel_pairs.go). For
 //     each group of patterns of A with the same incompatible patterns of B
 //     it states "A at one of these and B at one of those" as one body of
-//     two interned any_time literals: near-linear, never all pairs of pairs;
+//     two interned any_time literals: near-linear, never all pairs of pairs.
+//     Hard "no overlap", "not same time" and the overlap half of "same
+//     people" are instead one bound "at most 1" per maximal clique of
+//     overlapping candidate meetings (pattern_cliques.go);
 //   - room kinds (same room, different rooms, the travel half of same
 //     people) are stated over the room atoms (times_rel_rooms.go);
 //   - day-based kinds (at most days, at most minutes a day, at most breaks,
@@ -29,7 +32,14 @@ import (
 // A hard row becomes integrity constraints or bounds under its group's
 // selector; a soft row (times_rel_soft.go) an atom broken(relation,R)
 // defined by one rule per way the row can break, weighted once, or for the
-// counted kinds weak constraints that sum to weight × count.
+// counted kinds weak constraints that sum to weight × count, exactly, also
+// when the count is divided by the teaching weeks (a unary counter, or
+// binary adders and a long division for large sums: times_rel_binary.go).
+// So the engine's objective equals timetable.Cost on every row and the
+// third gate (optimize_gate.go) compares "soft relations" on pattern terms.
+//
+// Staff weekly limits and lunch breaks of staff and cohorts are
+// times_limits*.go.
 //
 // A row is handled here when it lists a pattern section or has one of the
 // kinds added for pattern terms; a row that mixes pattern and grid sections,
@@ -64,9 +74,11 @@ func (b *builder) timesRelation(rel *timetable.Relation) bool {
 }
 
 // relSecs lists the known sections of a relation row in written order
-// (each once unless the kind compares consecutive pairs), and false after
-// reporting an input error when the row cannot be stated over patterns.
-func (b *builder) relSecs(rel *timetable.Relation) ([]int, bool) {
+// (each once unless the kind compares consecutive pairs), and false when
+// the row cannot be stated over patterns (reported as an input error when
+// report is set: the hard part reports every row, hard or soft, so that
+// Solve and Optimize refuse the same terms).
+func (b *builder) relSecs(rel *timetable.Relation, report bool) ([]int, bool) {
 	ordered := consecutiveKind(rel.Kind)
 	var secs []int
 	grid := 0
@@ -81,6 +93,9 @@ func (b *builder) relSecs(rel *timetable.Relation) ([]int, bool) {
 		secs = append(secs, s)
 	}
 	if grid > 0 {
+		if !report {
+			return nil, false
+		}
 		if grid == len(secs) {
 			b.errorf(rel.Src, "relation %q is for sections with meeting times, but %s are placed on the period grid: give them meeting times or use one of the first seven kinds", rel.Kind, strings.Join(rel.Sections, ", "))
 		} else {
@@ -106,7 +121,7 @@ func (b *builder) compileTimesRelations() {
 		if !b.timesRelation(rel) {
 			continue
 		}
-		secs, ok := b.relSecs(rel)
+		secs, ok := b.relSecs(rel, true)
 		if !ok || !rel.Hard || len(secs) < 2 && !rel.Kind.Counted() {
 			continue
 		}
@@ -120,6 +135,23 @@ func (b *builder) compileTimesRelations() {
 			b.hardMaxDays(secs, rel.N, sel)
 		case rel.Kind == timetable.MaxDayMinutes, rel.Kind == timetable.MaxBreaks, rel.Kind == timetable.MaxBlock:
 			b.hardDayKind(rel, secs, sel)
+		case rel.Kind == timetable.NoOverlap, rel.Kind == timetable.NotSameTime, rel.Kind == timetable.SamePeople:
+			// One meeting at a time among the sections: a bound per
+			// maximal clique of overlapping patterns (pattern_cliques.go),
+			// weeks ignored for "not same time"; then travel.
+			occ := b.occupantsOf(secs, false)
+			if rel.Kind == timetable.NotSameTime {
+				for i := range occ {
+					occ[i].weeks = t.AllWeeks()
+				}
+			}
+			b.cliqueBounds(occ, -1, g, KindRelation)
+			if rel.Kind == timetable.SamePeople {
+				b.in(g, KindRelation)
+				for _, body := range b.travelWays(secs) {
+					b.rule(0, append(body, sel)...)
+				}
+			}
 		default:
 			for _, body := range b.relWays(rel, secs) {
 				b.rule(0, append(body, sel)...)

@@ -1,6 +1,8 @@
 package encode
 
 import (
+	"slices"
+
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -33,7 +35,7 @@ func (b *builder) dayLits(items []relItem) []solver.Lit {
 func (b *builder) hardMaxDays(secs []int, n int, sel solver.Lit) {
 	days := b.dayLits(b.relItems(secs))
 	if len(days) > n {
-		b.bound(days, solver.NoBound, n, sel)
+		b.bound(b.distinct(days), solver.NoBound, n, sel)
 	}
 }
 
@@ -97,11 +99,11 @@ func (b *builder) hardDayKind(rel *timetable.Relation, secs []int, sel solver.Li
 			if most <= rel.N {
 				return
 			}
-			b.bound(b.minuteUnits(items, idx, g), solver.NoBound, max(rel.N, 0)/g, sel)
+			b.bound(b.distinct(b.minuteUnits(items, idx, g)), solver.NoBound, max(rel.N, 0)/g, sel)
 		case timetable.MaxBreaks:
 			o := b.blocks(items, idx, rel.M)
 			if len(o.brk) > rel.N+1 {
-				b.bound(o.brk, solver.NoBound, max(rel.N+1, 0), sel)
+				b.bound(b.distinct(o.brk), solver.NoBound, max(rel.N+1, 0), sel)
 			}
 		case timetable.MaxBlock:
 			o := b.blocks(items, idx, rel.M)
@@ -137,20 +139,17 @@ func (b *builder) countedTerms(rel *timetable.Relation, secs []int) ([]countTerm
 		}
 		return terms, 1
 	}
-	g := minuteStep(items)
 	classDays(items, func(idx []int, weeks int) {
 		n := int64(weeks)
 		switch rel.Kind {
 		case timetable.MaxDayMinutes:
-			units := b.minuteUnits(items, idx, g)
-			if len(units)*g <= rel.N {
-				return
-			}
-			c := b.atLeast(units)
-			for k := 1; k <= len(units); k++ {
-				if inc := k*g - max((k-1)*g, rel.N); inc > 0 {
-					terms = append(terms, countTerm{c[k-1], n * int64(inc)})
+			vals, ge := b.dayTotals(items, idx)
+			prev := 0
+			for k, v := range vals {
+				if inc := v - max(prev, rel.N); inc > 0 {
+					terms = append(terms, countTerm{ge[k], n * int64(inc)})
 				}
+				prev = v
 			}
 		case timetable.MaxBreaks:
 			o := b.blocks(items, idx, rel.M)
@@ -171,4 +170,56 @@ func (b *builder) countedTerms(rel *timetable.Relation, secs []int) ([]countTerm
 		}
 	})
 	return terms, int64(b.t.TeachingWeeks())
+}
+
+// dayTotals returns the distinct positive totals the items idx (one class
+// and day) can add up to, ascending, with literals ge[k] holding exactly
+// when the day's minutes are at least vals[k]: a dynamic programme over
+// the sections (at most one pattern each), on the partial sums they can
+// reach: "the first i sections reach v" :- "the first i-1 reach v", and
+// :- "section i meets for u minutes", "the first i-1 reach v-u".
+func (b *builder) dayTotals(items []relItem, idx []int) ([]int, []solver.Lit) {
+	sums := []int{0}                            // reachable partial sums, ascending
+	ge := []solver.Lit{0}                       // ge[k]: the partial sum is at least sums[k] (ge[0] unused: always)
+	atLeast := func(v int) (solver.Lit, bool) { // the literal for "at least v" among sums, true when v <= 0
+		if v <= 0 {
+			return 0, true
+		}
+		k, _ := slices.BinarySearch(sums, v)
+		if k == len(sums) {
+			return 0, false
+		}
+		return ge[k], true
+	}
+	for stage, part := range bySection(items, idx) {
+		next := slices.Clone(sums)
+		for _, s := range sums {
+			for _, k := range part {
+				next = append(next, s+items[k].tc.Minutes)
+			}
+		}
+		slices.Sort(next)
+		next = slices.Compact(next)
+		nge := make([]solver.Lit, len(next))
+		for n, v := range next {
+			if v == 0 {
+				continue
+			}
+			var bodies [][]solver.Lit
+			if l, ok := atLeast(v); ok {
+				bodies = append(bodies, []solver.Lit{l})
+			}
+			for _, k := range part {
+				x := solver.Pos(b.c.TimeAtom(items[k].s, items[k].i))
+				if l, ok := atLeast(v - items[k].tc.Minutes); ok && l == 0 {
+					bodies = append(bodies, []solver.Lit{x})
+				} else if ok {
+					bodies = append(bodies, []solver.Lit{x, l})
+				}
+			}
+			nge[n] = b.relOr(itemsKey("total", items, idx, stage, v), "day_minutes", bodies)
+		}
+		sums, ge = next, nge
+	}
+	return sums[1:], ge[1:]
 }

@@ -83,6 +83,24 @@ func refCount(t *timetable.Term, rel timetable.Relation, a refAssign) (count int
 	return count, sum > 0
 }
 
+// refSoftCost is what a soft row of weight rowW costs under a (criterion
+// weight 1), as timetable/term.go defines it: rowW when a non-counted row
+// is broken; rowW times the days over N for "at most days"; for the three
+// per-week kinds rowW times their sum over weeks and days (minutes over N
+// in whole 5-minute steps, rounded down) divided by the teaching weeks,
+// rounded down after multiplying.
+func refSoftCost(t *timetable.Term, rel timetable.Relation, a refAssign) int64 {
+	count, sum := refCountSum(t, rel, a)
+	w := int64(rel.Weight)
+	switch rel.Kind {
+	case timetable.MaxDayMinutes:
+		return w * int64(sum/5) / int64(t.TeachingWeeks())
+	case timetable.MaxBreaks, timetable.MaxBlock:
+		return w * int64(sum) / int64(t.TeachingWeeks())
+	}
+	return w * int64(count)
+}
+
 // refCountSum returns the count and, for the kinds summed over weeks and
 // days, the sum before the division (else the count).
 func refCountSum(t *timetable.Term, rel timetable.Relation, a refAssign) (int, int) {

@@ -2,20 +2,21 @@ package encode
 
 import (
 	"fmt"
+	"math/bits"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
 
-// countCap bounds the size (atoms) of the exact counter of a counted soft
-// row whose sum is divided by the teaching weeks; beyond it the row gets
-// the surrogate of softCounted.
-const countCap = 40000
+// countCap bounds the size (atoms) of the unary counter of a counted soft
+// row whose sum is divided by the teaching weeks; beyond it softCounted
+// counts in binary.
+var countCap int64 = 4000
 
 // compileTimesSoftRelations writes the soft relation rows over pattern
 // sections ("soft relations" criterion): a non-counted row costs its weight
 // once, through an atom broken(relation,R) with one rule per way it breaks
-// (relWays); a counted row costs its weight times its count (softCounted).
+// (relWays); a counted row costs what its definition says (softCounted).
 // Its statements join the soft criteria's (HardProgram leaves them out)
 // when they directly follow them.
 func (b *builder) compileTimesSoftRelations() {
@@ -32,7 +33,7 @@ func (b *builder) compileTimesSoftRelations() {
 		if rel.Hard || !b.timesRelation(rel) {
 			continue
 		}
-		secs, ok := b.relSecs(rel)
+		secs, ok := b.relSecs(rel, false)
 		if !ok || len(secs) == 0 {
 			continue
 		}
@@ -42,7 +43,8 @@ func (b *builder) compileTimesSoftRelations() {
 		}
 		sb.aboutSection(secs[0])
 		if rel.Kind.Counted() {
-			sb.softCounted(ri, rel, secs, w, l)
+			critW, _ := t.CriterionWeight(timetable.CritSoftRelations)
+			sb.softCounted(ri, rel, secs, int64(critW), l)
 			continue
 		}
 		if len(secs) < 2 {
@@ -63,43 +65,71 @@ func (b *builder) compileTimesSoftRelations() {
 	}
 }
 
-// softCounted writes a counted row of weight w: weak constraints whose
-// total is w · floor(sum of its terms / divisor). When every term's units
-// are a multiple of the divisor (always for "at most days", and when the
-// items meet in every teaching week) each term is one weak constraint;
-// otherwise a sequential weighted counter gives an atom per multiple of the
-// divisor reached (exact), unless it would exceed countCap atoms: then each
-// term costs w · round(units / divisor) (at least w) as a surrogate, the
-// row is recorded in the catalog (relModel), and the third gate and the
-// optimiser's bound leave the row to timetable.Cost (times_rel_gate.go).
-func (sb *softBuilder) softCounted(ri int, rel *timetable.Relation, secs []int, w int64, l int) {
+// softCounted writes a counted row as weak constraints whose total is
+// exactly what timetable/term.go charges: with critW the criterion's
+// weight, rowW the row's, S the sum of the terms and W the divisor (1 for
+// "at most days", the teaching weeks otherwise), critW · floor(rowW ·
+// floor(S/q) / W), where q is 5 for "at most minutes a day" (minutes over
+// count in whole 5-minute steps) and 1 otherwise. When every term's share
+// is whole (q divides its units and W divides rowW times its steps) each
+// term is one weak constraint; otherwise the cost is a sum of indicators
+// "S reaches threshold T_k", T_k = q · ceil(k·W / rowW), written by a unary
+// weighted counter, or, when that would exceed countCap atoms, S is built
+// in binary, divided by q, multiplied by rowW and divided by W
+// (times_rel_binary.go) and each bit j of the result weighs critW·2^j.
+func (sb *softBuilder) softCounted(ri int, rel *timetable.Relation, secs []int, critW int64, l int) {
 	terms, div := sb.countedTerms(rel, secs)
 	terms = mergeTerms(terms)
 	if len(terms) == 0 {
 		return
 	}
-	multiple := true
-	for _, tm := range terms {
-		multiple = multiple && tm.units%div == 0
+	q := int64(1)
+	if rel.Kind == timetable.MaxDayMinutes {
+		q = 5
 	}
-	if multiple {
+	rowW := int64(rel.Weight)
+	whole := true
+	var total int64
+	for _, tm := range terms {
+		whole = whole && tm.units%q == 0 && rowW*(tm.units/q)%div == 0
+		total += tm.units
+	}
+	if whole {
 		for _, tm := range terms {
-			sb.weak(timetable.CritSoftRelations, w*(tm.units/div), l, tm.lit)
+			sb.weak(timetable.CritSoftRelations, critW*rowW*(tm.units/q)/div, l, tm.lit)
 		}
 		return
 	}
-	if reach := sb.floorCounter(rel, ri, terms, div); reach != nil {
-		for _, lit := range reach {
-			sb.weak(timetable.CritSoftRelations, w, l, lit)
+	top := rowW * (total / q) / div // the largest cost (before critW)
+	if top == 0 {
+		return
+	}
+	// Thresholds of S, each with the number of cost units it adds.
+	var thr []int64
+	add := map[int64]int64{}
+	for k := int64(1); k <= top; k++ {
+		t := q * ((k*div + rowW - 1) / rowW)
+		if add[t] == 0 {
+			thr = append(thr, t)
+		}
+		add[t]++
+	}
+	if reach := sb.thresholdCounter(rel, ri, terms, thr); reach != nil {
+		for k, lit := range reach {
+			sb.weak(timetable.CritSoftRelations, critW*add[thr[k]], l, lit)
 		}
 		return
 	}
-	sb.c.rel.inexact = append(sb.c.rel.inexact, ri)
-	for _, tm := range terms {
-		u := max((tm.units+div/2)/div, 1)
-		sb.p.AddWeak(w*u, l, tm.lit)
-		sb.m.crit = append(sb.m.crit, -1)
-		sb.m.subj = append(sb.m.subj, sb.subject)
+	s := sb.sumBits(terms)
+	if q > 1 {
+		s = sb.divBits(s, q)
+	}
+	r := sb.divBits(sb.mulBits(s, rowW), div)
+	r = r[:min(len(r), bits.Len64(uint64(top)))] // higher bits are always false
+	for j, lit := range r {
+		if lit != 0 {
+			sb.weak(timetable.CritSoftRelations, critW<<j, l, lit)
+		}
 	}
 }
 
@@ -118,25 +148,21 @@ func mergeTerms(terms []countTerm) []countTerm {
 	return out
 }
 
-// floorCounter returns literals r[q-1] (q = 1 .. Q) holding exactly when
-// the terms' sum reaches q·div, Q = floor(total / div): a sequential
-// weighted counter s(i,v) "the first i terms sum to at least v" over v up
-// to Q·div (in steps of the gcd of the units and div), with
-// s(i,v) :- s(i-1,v) and s(i,v) :- l_i, s(i-1,v-u_i). It returns nil when
-// that would take more than countCap atoms.
-func (sb *softBuilder) floorCounter(rel *timetable.Relation, ri int, terms []countTerm, div int64) []solver.Lit {
-	g := div
-	var total int64
+// thresholdCounter returns literals r[k] holding exactly when the terms'
+// sum reaches thr[k] (ascending): a sequential weighted counter s(i,v)
+// "the first i terms sum to at least v" over v up to the last threshold
+// (in steps of the gcd of the units and thresholds), with s(i,v) :-
+// s(i-1,v) and s(i,v) :- l_i, s(i-1,v-u_i). It returns nil when that would
+// take more than countCap atoms.
+func (sb *softBuilder) thresholdCounter(rel *timetable.Relation, ri int, terms []countTerm, thr []int64) []solver.Lit {
+	g := int64(0)
 	for _, tm := range terms {
 		g = gcd64(g, tm.units)
-		total += tm.units
 	}
-	d := div / g
-	q := total / g / d
-	if q == 0 {
-		return nil
+	for _, t := range thr {
+		g = gcd64(g, t)
 	}
-	top := q * d
+	top := thr[len(thr)-1] / g
 	var size, prefix int64
 	for _, tm := range terms {
 		prefix += tm.units / g
@@ -148,7 +174,7 @@ func (sb *softBuilder) floorCounter(rel *timetable.Relation, ri int, terms []cou
 	saveG, saveK := sb.group, sb.boundKind
 	sb.in(-1, "pattern relation aux")
 	defer func() { sb.group, sb.boundKind = saveG, saveK }()
-	var prev []solver.Lit // prev[v-1]: the terms so far sum to at least v (steps of g)
+	var prev []solver.Lit // prev[v-1]: the terms so far sum to at least v·g
 	prefix = 0
 	for i, tm := range terms {
 		u := tm.units / g
@@ -169,9 +195,11 @@ func (sb *softBuilder) floorCounter(rel *timetable.Relation, ri int, terms []cou
 		}
 		prev = cur
 	}
-	out := make([]solver.Lit, q)
-	for k := int64(1); k <= q; k++ {
-		out[k-1] = prev[k*d-1]
+	out := make([]solver.Lit, len(thr))
+	for k, t := range thr {
+		if v := t / g; v <= int64(len(prev)) {
+			out[k] = prev[v-1]
+		}
 	}
 	return out
 }

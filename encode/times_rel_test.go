@@ -66,7 +66,7 @@ func relTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int) 
 	}
 	rel := timetable.Relation{Kind: k, Sections: ids, Hard: hard, Src: timetable.Source{Sheet: "Relations", Row: 2}}
 	if !hard {
-		rel.Weight = 1 + rng.Intn(4)
+		rel.Weight = 1 + rng.Intn(6) // below, at and above the 4 teaching weeks
 	}
 	switch k {
 	case timetable.DaySpan:
@@ -89,7 +89,8 @@ func relTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int) 
 // engineModels compiles term and enumerates its stable models (every atom
 // but the time and room atoms is defined by rules, so models and
 // assignments correspond one to one), each verified by solver.Verify and
-// timetable.Check; it returns them as assignments (keyed by assignKey) with
+// timetable.Check, with the engine's cost equal to timetable.Cost's; it
+// returns them as assignments (keyed by assignKey) with
 // the engine's "soft relations" cost of each.
 func engineModels(tb testing.TB, term *timetable.Term) map[string]int64 {
 	tb.Helper()
@@ -119,11 +120,15 @@ func engineModels(tb testing.TB, term *timetable.Term) map[string]int64 {
 				a.room[info.Section] = info.Room
 			}
 		}
-		checkSchedule(tb, term, a)
+		sch := checkSchedule(tb, term, a)
+		eng := cat.EngineCost(p, model)[soft]
+		if got := timetable.Cost(term, sch, nil).Criterion(timetable.CritSoftRelations).Cost; got != eng {
+			tb.Fatalf("engine cost %d, timetable.Cost %d for %s\n%s", eng, got, assignKey(a), describePatterns(term))
+		}
 		if _, dup := out[assignKey(a)]; dup {
 			tb.Fatalf("two models for %s", assignKey(a))
 		}
-		out[assignKey(a)] = cat.EngineCost(p, model)[soft]
+		out[assignKey(a)] = eng
 		return true
 	})
 	if !complete {
@@ -133,8 +138,8 @@ func engineModels(tb testing.TB, term *timetable.Term) map[string]int64 {
 }
 
 // checkSchedule puts an assignment through timetable.Check and fails on a
-// hard violation.
-func checkSchedule(tb testing.TB, term *timetable.Term, a refAssign) {
+// hard violation; it returns the schedule.
+func checkSchedule(tb testing.TB, term *timetable.Term, a refAssign) *timetable.Schedule {
 	tb.Helper()
 	var sch timetable.Schedule
 	for s, sec := range term.Sections {
@@ -147,6 +152,7 @@ func checkSchedule(tb testing.TB, term *timetable.Term, a refAssign) {
 	for _, v := range timetable.HardViolations(timetable.Check(term, &sch)) {
 		tb.Fatalf("check: %s (%v)", v.Msg, a)
 	}
+	return &sch
 }
 
 func assignKey(a refAssign) string { return fmt.Sprint(a.time, a.room) }
@@ -162,13 +168,13 @@ func compareWithReference(t *testing.T, term *timetable.Term) {
 	models := engineModels(t, term)
 	want := map[string]int64{}
 	for _, a := range refAll(term) {
-		n, broken := refCount(term, rel, a)
-		c := int64(n)
+		_, broken := refCount(term, rel, a)
 		if rel.Hard && broken {
 			continue
 		}
+		var c int64
 		if !rel.Hard {
-			c *= int64(rel.Weight)
+			c = refSoftCost(term, rel, a)
 		}
 		key := assignKey(a)
 		got, ok := models[key]
@@ -248,7 +254,11 @@ func TestPatternRelationsAgainstReference(t *testing.T) {
 			t.Run(name, func(t *testing.T) {
 				rng := rand.New(rand.NewSource(int64(rk.Kind) * 7919))
 				for round := 0; round < rounds; round++ {
-					compareWithReference(t, relTestTerm(rng, rk.Kind, hard, 2+round%2))
+					n := 2 + round%2
+					if rk.Kind.Counted() {
+						n = 1 + round%3 // a counted row may list one section
+					}
+					compareWithReference(t, relTestTerm(rng, rk.Kind, hard, n))
 				}
 			})
 		}
@@ -281,8 +291,20 @@ func TestPatternRelationGridRowsRejected(t *testing.T) {
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
 	term.Sections[1].Times = nil
 	term.Sections[1].Length = 1
-	_, _, err := Compile(term, Options{})
-	if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
-		t.Fatalf("err = %v, want the mixed row named", err)
+	for _, soft := range []bool{false, true} {
+		term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
+		_, _, err := Compile(term, Options{})
+		if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
+			t.Fatalf("soft=%v: err = %v, want the mixed row named", soft, err)
+		}
+		if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
+			t.Fatalf("soft=%v: the row is reported %d times", soft, n)
+		}
+	}
+	term.Sections[0].Times = nil
+	term.Sections[0].Length = 1
+	_, _, err := Compile(term, Options{HardOnly: true})
+	if err == nil || !strings.Contains(err.Error(), "placed on the period grid") {
+		t.Fatalf("err = %v, want the grid row named", err)
 	}
 }

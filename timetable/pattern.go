@@ -102,7 +102,7 @@ type Travel struct {
 	Src      Source
 }
 
-// LunchBreak guarantees at least Minutes free minutes between From and To on
+// LunchBreak guarantees a run of at least Minutes consecutive free minutes between From and To on
 // every day a person or cohort teaches or is taught (hard). The zero value
 // means no guarantee.
 type LunchBreak struct {
