@@ -89,9 +89,11 @@ func (s *Server) handleReplan(w http.ResponseWriter, r *http.Request) {
 	}
 	defer s.mu.Unlock()
 	t := s.opt.Term
-	if ps := patternSections(t); len(ps) > 0 {
-		writeError(w, http.StatusBadRequest, errPatterns("re-planning", ps).Error())
-		return
+	if req.Place != nil {
+		if k, ok := t.SectionIndex()[req.Place.Section]; ok && t.Sections[k].UsesTimes() {
+			writeError(w, http.StatusBadRequest, fmt.Sprintf("%s meets by meeting times, so it cannot be asked for at a grid cell; move it to the meeting time you want, lock it there and re-plan", req.Place.Section))
+			return
+		}
 	}
 	limit := replanDefault
 	switch {
@@ -108,14 +110,18 @@ func (s *Server) handleReplan(w http.ResponseWriter, r *http.Request) {
 		writeError(w, http.StatusBadRequest, err.Error())
 		return
 	}
+	pin := pinPatterns(work, kept, locks)
 	j, err := s.startJobLocked("replan", limit, func(ctx context.Context, j *job) {
 		j.setProgress(jobProgress{Phase: "looking for a first timetable with the locks"})
-		res, err := encode.Optimize(ctx, work, encode.OptimizeOptions{Seed: 1, Keep: kept, Progress: func(p encode.Progress) {
+		res, err := encode.Optimize(ctx, work, encode.OptimizeOptions{Seed: 1, Keep: pin.toWork(kept), Progress: func(p encode.Progress) {
 			j.setProgress(jobProgress{Phase: p.Phase, Cost: slices.Clone(p.Cost), Found: p.Found, Steps: p.Steps})
 		}})
 		if err != nil {
 			j.finish(nil, nil, err)
 			return
+		}
+		if res.Schedule != nil {
+			res.Schedule = pin.fromWork(res.Schedule)
 		}
 		out, keep, err := replanAnswer(t, kept, locks, req.Place, res)
 		j.finish(out, keep, err)
@@ -156,6 +162,9 @@ func lockedTerm(t *timetable.Term, sched *timetable.Schedule, locks map[meetingK
 		return nil
 	}
 	for _, k := range lockedList(locks) {
+		if si, ok := idx[k.Section]; ok && t.Sections[si].UsesTimes() {
+			continue // pinned by pinPatterns: a pattern section has no fixed meetings
+		}
 		for _, pl := range sched.Placements {
 			if pl.Section == k.Section && pl.Meeting == k.Meeting {
 				if err := fix(pl.Section, pl.Period, pl.Room, "locked on the page"); err != nil {
