@@ -11,11 +11,11 @@ import (
 // than lazyRoomBudget room_time atoms per section, the rooms whose bounds
 // cost most get none. Decode then checks them: when two pattern sections
 // meet in such a room at overlapping times, it returns a
-// *RoomConflictError whose nogoods forbid the two sections that room at
-// every pair of their overlapping patterns (integrity constraints over
-// time and room atoms: the live engine takes them as clauses, no rebuild),
-// and the search goes on. Each pair of sections and room is forbidden
-// once (a forbidden clash cannot come back).
+// *RoomConflictError whose nogoods forbid each of the two sections, at its
+// chosen pattern in that room, the other in that room at any pattern that
+// overlaps it (integrity constraints over time and room atoms: the live
+// engine takes them as clauses, no rebuild), and the search goes on. A
+// forbidden clash cannot come back.
 
 // lazyRoom marks room r as checked lazily.
 func (c *Catalog) lazyRoom(r int) {
@@ -80,7 +80,8 @@ func (d *decoder) lazyRoomClashes() error {
 					continue
 				}
 				rerr.Sections = append(rerr.Sections, t.Sections[ps[x].s].ID, t.Sections[ps[y].s].ID)
-				rerr.nogoods = append(rerr.nogoods, c.roomPairNogoods(ps[x].s, ps[y].s, r)...)
+				rerr.nogoods = append(rerr.nogoods, c.roomPairNogoods(ps[x].s, ps[x].i, ps[y].s, r)...)
+				rerr.nogoods = append(rerr.nogoods, c.roomPairNogoods(ps[y].s, ps[y].i, ps[x].s, r)...)
 			}
 		}
 	}
@@ -99,18 +100,19 @@ func (d *decoder) lazyRoomClashes() error {
 	return rerr
 }
 
-// roomPairNogoods forbids sections s1 and s2 room r at every pair of
-// their candidate patterns that overlap: one nogood per pair.
-func (c *Catalog) roomPairNogoods(s1, s2, r int) [][]solver.Lit {
+// roomPairNogoods forbids section s1 at its pattern i in room r together
+// with section s2 in room r at any of its candidate patterns that overlap
+// pattern i: one nogood per such pattern (linear in s2's patterns; all
+// pairs of patterns would be quadratic, and cost millions of clauses on
+// the largest public instances).
+func (c *Catalog) roomPairNogoods(s1, i, s2, r int) [][]solver.Lit {
 	t := c.term
 	a1, a2 := c.RoomAtom(s1, r), c.RoomAtom(s2, r)
 	var out [][]solver.Lit
-	for _, i := range c.pats[s1].times {
-		for _, j := range c.pats[s2].times {
-			if patternsOverlap(&t.Sections[s1].Times[i], &t.Sections[s2].Times[j]) {
-				out = append(out, []solver.Lit{solver.Neg(c.pats[s1].time[i]), solver.Neg(a1),
-					solver.Neg(c.pats[s2].time[j]), solver.Neg(a2)})
-			}
+	for _, j := range c.pats[s2].times {
+		if patternsOverlap(&t.Sections[s1].Times[i], &t.Sections[s2].Times[j]) {
+			out = append(out, []solver.Lit{solver.Neg(c.pats[s1].time[i]), solver.Neg(a1),
+				solver.Neg(c.pats[s2].time[j]), solver.Neg(a2)})
 		}
 	}
 	return out
