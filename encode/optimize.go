@@ -6,6 +6,7 @@ import (
 	"slices"
 	"time"
 
+	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -137,11 +138,12 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	}
 	o.p, o.cat = p, cat
 	o.res.Program, o.res.Catalog = p, cat
-	if cat.hasPatterns() && o.opt.LocalShare >= 0 {
-		// Package improve moves grid meetings only: its turns go to
-		// neighbourhood search (the phases keep their shares of the time).
+	if why := improve.Unsupported(t); why != "" && o.opt.LocalShare >= 0 {
+		// Package improve moves grid meetings and counts the grid criteria
+		// only: its turns go to neighbourhood search (the phases keep their
+		// shares of the time).
 		o.skipLocal = true
-		o.res.Local.Skipped = "local search skipped: the term has sections with meeting times, which it does not move"
+		o.res.Local.Skipped = "local search skipped: " + why + ", which it does not model"
 	}
 	if o.opt.GlobalConflicts == 0 {
 		o.opt.GlobalConflicts = DefaultGlobalConflicts
