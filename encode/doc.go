@@ -240,7 +240,7 @@
 // section's only room). Per section this costs its patterns, its rooms,
 // and one any_time per distinct stabbing set of its patterns and one
 // room_time per (room, stabbing set); on the public ITC-2019 instances
-// 40–730 atoms per section, relations included (room_time dominates where
+// 40–1,650 atoms per section, relations included (room_time dominates where
 // sections have dozens of rooms and patterns each). Above lazyRoomBudget
 // room_time atoms per section the dearest rooms get no bounds: Decode
 // finds their clashes and the search forbids each clashing pair of

@@ -148,10 +148,13 @@ func (b *builder) patternRoomOverlap() {
 }
 
 // lazyRoomBudget is the number of room_time literals per section above
-// which the rooms whose clique bounds cost most are checked lazily. On the
-// public ITC-2019 instances only lums-spr18 (about 1,500 per section:
-// dozens of rooms times dozens of patterns per section) exceeds it.
-var lazyRoomBudget = 600
+// which the rooms whose clique bounds cost most are checked lazily. No
+// public ITC-2019 instance exceeds it (lums-spr18 needs about 1,500 per
+// section): measured there (shared 2-core machine, lightly loaded), eager
+// bounds gave a first timetable in 56 s with 806k atoms and 1.7 GiB, lazy
+// rooms at 600 none in 5 minutes (401 rounds, 400k nogoods, 1.1 GiB), so
+// lazy checking is kept for terms far beyond them.
+var lazyRoomBudget = 2000
 
 // roomHasGrid reports whether grid sections use room r (such rooms are
 // never lazy: the grid's meetings are not checked by Decode).
