@@ -45,6 +45,7 @@ var parts = []part{
 	{"no-overlap", (*builder).compileNoOverlap, false},
 	{"pattern no-overlap", (*builder).compilePatternNoOverlap, false},
 	{"pattern travel", (*builder).compilePatternTravel, false},
+	{"travel scope", (*builder).compileTravelScope, false},
 	{"staff limits", (*builder).compileStaffLimits, false},
 	{"relations", (*builder).compileRelations, false},
 	{"room supply", (*builder).compileRoomSupply, false},

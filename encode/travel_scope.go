@@ -1,0 +1,74 @@
+package encode
+
+import (
+	"fmt"
+)
+
+// travelScopeLimit is how many people a refusal of travel rows names.
+const travelScopeLimit = 5
+
+// compileTravelScope refuses a term whose travel times would reach grid
+// meetings. Travel (Term.Travel) is hard for every meeting of a staff member
+// or cohort, but grid sections get their rooms after the search (Hall
+// bounds, then Decode), so the gap a pair of grid meetings leaves cannot be
+// tied to their rooms' distance during the search: a timetable would fail
+// timetable.Check after the fact. Saying so at compile time, with the rows
+// to change, is better than searching for a timetable that will be refused.
+func (b *builder) compileTravelScope() {
+	t := b.t
+	if len(t.Travel) == 0 {
+		return
+	}
+	most := 0
+	for _, tr := range t.Travel {
+		most = max(most, tr.Minutes)
+	}
+	if most <= 0 {
+		return
+	}
+	named := 0
+	check := func(kind, id string, secs []int) {
+		grid, rooms := -1, 0
+		for _, s := range secs {
+			sec := &t.Sections[s]
+			if sec.NoRoom {
+				continue
+			}
+			rooms++
+			if !sec.UsesTimes() && grid < 0 {
+				grid = s
+			}
+		}
+		if grid < 0 || rooms < 2 {
+			return
+		}
+		named++
+		if named > travelScopeLimit {
+			return
+		}
+		b.errorf(t.Travel[0].Src, "travel times are kept between sections with meeting times only, but %s %s teaches or attends grid section %s (%s) and other sections in rooms — give %s's sections meeting times on the Meeting times sheet, or remove the travel rows", kind, id, t.Sections[grid].ID, t.Sections[grid].Src, id)
+	}
+	bySt := make([][]int, len(t.Staff))
+	byCo := make([][]int, len(t.Cohorts))
+	for s := range t.Sections {
+		for _, id := range t.Sections[s].Staff {
+			if k, ok := b.staffIdx[id]; ok {
+				bySt[k] = append(bySt[k], s)
+			}
+		}
+		for _, id := range t.Sections[s].Cohorts {
+			if k, ok := b.cohortIdx[id]; ok {
+				byCo[k] = append(byCo[k], s)
+			}
+		}
+	}
+	for k := range t.Staff {
+		check("staff", t.Staff[k].ID, bySt[k])
+	}
+	for k := range t.Cohorts {
+		check("cohort", t.Cohorts[k].ID, byCo[k])
+	}
+	if named > travelScopeLimit {
+		b.errorf(t.Travel[0].Src, "%s more staff members or cohorts have grid sections that the travel rows would reach", fmt.Sprint(named-travelScopeLimit))
+	}
+}
