@@ -62,14 +62,7 @@ func (c *checker) fixedPattern(si int) {
 		if found {
 			continue
 		}
-		want := DayName(f.Day) + " " + f.Start.String()
-		if f.Room != "" {
-			want += " in " + f.Room
-		}
-		text := f.Text
-		if text == "" {
-			text = want
-		}
+		want, text := f.wanted()
 		c.add(RuleFixed, true, nil, []Source{sec.Src},
 			sec.ID+" is fixed at "+chkQuote(text)+" but its meeting time in the timetable does not meet at "+want)
 	}
