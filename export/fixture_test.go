@@ -8,6 +8,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/timetable"
 )
@@ -127,4 +128,52 @@ func busyTerm() (*timetable.Term, *timetable.Schedule) {
 		timetable.Placement{Section: "CS104", Meeting: 1, Period: at(time.Tuesday, 14), Room: "A1"},
 	)
 	return t, s
+}
+
+// writeTimetableXLSX writes the timetable workbook of s (generated at
+// fixedClock) as dir/timetable.xlsx and gives its path.
+func writeTimetableXLSX(t *testing.T, dir string, term *timetable.Term, s *timetable.Schedule) string {
+	t.Helper()
+	var b bytes.Buffer
+	require.NoError(t, WriteTimetableWorkbook(&b, term, s, Options{Generated: fixedClock}))
+	path := filepath.Join(dir, "timetable.xlsx")
+	require.NoError(t, os.WriteFile(path, b.Bytes(), 0o644))
+	return path
+}
+
+// writeTimetableFiles writes the timetable workbook and the CSV of s as
+// dir/timetable.xlsx and dir/timetable.csv and gives their paths.
+func writeTimetableFiles(t *testing.T, dir string, term *timetable.Term, s *timetable.Schedule) (xlsx, csvPath string) {
+	t.Helper()
+	xlsx = writeTimetableXLSX(t, dir, term, s)
+	var b bytes.Buffer
+	require.NoError(t, WriteTimetableCSV(&b, term, s))
+	csvPath = filepath.Join(dir, "timetable.csv")
+	require.NoError(t, os.WriteFile(csvPath, b.Bytes(), 0o644))
+	return xlsx, csvPath
+}
+
+// assertReadsBack reads each file back with timetable.ReadSchedule: no
+// problem is reported and the placements of s come back.
+func assertReadsBack(t *testing.T, term *timetable.Term, s *timetable.Schedule, paths ...string) {
+	t.Helper()
+	for _, p := range paths {
+		t.Run(filepath.Ext(p), func(t *testing.T) {
+			got, problems, err := timetable.ReadSchedule(p, term)
+			require.NoError(t, err)
+			assert.Empty(t, problems)
+			assert.Equal(t, placements(s), placements(got))
+		})
+	}
+}
+
+// gridSheets lists the view's grid subjects and the names of their sheets
+// in the timetable workbook.
+func gridSheets(v *view) ([]Subject, []string) {
+	subjects := v.gridSubjects()
+	titles := make([]string, len(subjects))
+	for i, who := range subjects {
+		titles[i] = v.sheetTitle(who)
+	}
+	return subjects, SheetNames(titles, timetable.TimetableSheet, LoadSheet)
 }

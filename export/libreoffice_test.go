@@ -146,12 +146,7 @@ func TestLibreOfficeReadsWorkbooks(t *testing.T) {
 		})
 	}
 
-	subjects := v.gridSubjects()
-	titles := make([]string, len(subjects))
-	for i, who := range subjects {
-		titles[i] = v.sheetTitle(who)
-	}
-	names := SheetNames(titles, timetable.TimetableSheet, LoadSheet)
+	subjects, names := gridSheets(v)
 	for k, who := range subjects {
 		t.Run("timetable.xlsx/"+names[k], func(t *testing.T) {
 			assert.Equal(t, expectedGrid(v, who), sheet("timetable.xlsx", names[k]))
@@ -259,11 +254,7 @@ func expectedGrid(v *view, who Subject) [][]string {
 func TestLibreOfficeFilterAndPageSetup(t *testing.T) {
 	term, s := busyTerm()
 	dir := t.TempDir()
-	path := filepath.Join(dir, "timetable.xlsx")
-	f, err := os.Create(path)
-	require.NoError(t, err)
-	require.NoError(t, WriteTimetableWorkbook(f, term, s, Options{Generated: fixedClock}))
-	require.NoError(t, f.Close())
+	path := writeTimetableXLSX(t, dir, term, s)
 	soffice(t, "ods", dir, path)
 	doc := readODS(t, filepath.Join(dir, "timetable.ods"))
 
@@ -377,11 +368,7 @@ func readODS(t *testing.T, path string) odsDoc {
 func TestLibreOfficeReadsPatternWorkbook(t *testing.T) {
 	term, s := patternTerm()
 	dir := t.TempDir()
-	path := filepath.Join(dir, "timetable.xlsx")
-	f, err := os.Create(path)
-	require.NoError(t, err)
-	require.NoError(t, WriteTimetableWorkbook(f, term, s, Options{Generated: fixedClock}))
-	require.NoError(t, f.Close())
+	path := writeTimetableXLSX(t, dir, term, s)
 	out := filepath.Join(dir, "csv")
 	soffice(t, sofficeCSVFilter, out, path)
 	sheet := func(name string) [][]string { return readCSVFile(t, filepath.Join(out, "timetable-"+name+".csv")) }
@@ -394,12 +381,7 @@ func TestLibreOfficeReadsPatternWorkbook(t *testing.T) {
 	got := sheet(timetable.TimetableSheet)
 	assert.Equal(t, trimRows(master), got)
 	assert.Contains(t, flatten(got), "Mon Wed Fri")
-	subjects := v.gridSubjects()
-	titles := make([]string, len(subjects))
-	for i, who := range subjects {
-		titles[i] = v.sheetTitle(who)
-	}
-	names := SheetNames(titles, timetable.TimetableSheet, LoadSheet)
+	subjects, names := gridSheets(v)
 	for k, who := range subjects {
 		t.Run(names[k], func(t *testing.T) {
 			assert.Equal(t, expectedGrid(v, who), sheet(names[k]))

@@ -2,8 +2,6 @@ package export
 
 import (
 	"bytes"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 	"time"
@@ -130,23 +128,8 @@ func TestPatternBlocksToScale(t *testing.T) {
 // before, with no problem reported.
 func TestPatternReadsBack(t *testing.T) {
 	term, s := patternTerm()
-	dir := t.TempDir()
-	xlsx := filepath.Join(dir, "timetable.xlsx")
-	var b bytes.Buffer
-	require.NoError(t, WriteTimetableWorkbook(&b, term, s, Options{Generated: fixedClock}))
-	require.NoError(t, os.WriteFile(xlsx, b.Bytes(), 0o644))
-	b.Reset()
-	require.NoError(t, WriteTimetableCSV(&b, term, s))
-	csvPath := filepath.Join(dir, "timetable.csv")
-	require.NoError(t, os.WriteFile(csvPath, b.Bytes(), 0o644))
-	for _, p := range []string{xlsx, csvPath} {
-		t.Run(filepath.Ext(p), func(t *testing.T) {
-			got, problems, err := timetable.ReadSchedule(p, term)
-			require.NoError(t, err)
-			assert.Empty(t, problems)
-			assert.Equal(t, placements(s), placements(got))
-		})
-	}
+	xlsx, csvPath := writeTimetableFiles(t, t.TempDir(), term, s)
+	assertReadsBack(t, term, s, xlsx, csvPath)
 }
 
 // TestPatternCalendarDates parses the calendars of S5 (the odd-week lab)

@@ -124,12 +124,7 @@ func (d *pdfDoc) gridFrame(g gridGeo) {
 			continue
 		}
 		if g.rowH >= 6.5 {
-			d.font("B", 8)
-			d.text(g.x0+1.5, y+3.4, row.from.String())
-			d.font("", 6.5)
-			d.gray(80)
-			d.text(g.x0+1.5, y+6.2, "to "+row.to.String())
-			d.gray(0)
+			d.fromToLabel(g, y, row)
 		} else {
 			size := math.Min(6, g.rowH/ptToMM*0.8)
 			d.font("", size)
@@ -194,15 +189,22 @@ func (d *pdfDoc) scaledLabel(g gridGeo, r int, row gridRow) {
 	y, h := g.rowY(r), g.height(r)
 	switch {
 	case h >= 6.5:
-		d.font("B", 8)
-		d.text(g.x0+1.5, y+3.4, row.from.String())
-		d.font("", 6.5)
-		d.gray(80)
-		d.text(g.x0+1.5, y+6.2, "to "+row.to.String())
-		d.gray(0)
+		d.fromToLabel(g, y, row)
 	case h >= 2.4:
 		size := math.Min(6.5, h/ptToMM*0.85)
 		d.font("", size)
 		d.text(g.x0+1, y+size*ptToMM+0.2, row.from.String())
 	}
+}
+
+// fromToLabel writes a row label on two lines at the row's top y: its
+// start in bold and, smaller and grey, "to" its end; a row at least 6.5 mm
+// tall has room for it.
+func (d *pdfDoc) fromToLabel(g gridGeo, y float64, row gridRow) {
+	d.font("B", 8)
+	d.text(g.x0+1.5, y+3.4, row.from.String())
+	d.font("", 6.5)
+	d.gray(80)
+	d.text(g.x0+1.5, y+6.2, "to "+row.to.String())
+	d.gray(0)
 }

@@ -1,13 +1,10 @@
 package export
 
 import (
-	"os"
-	"path/filepath"
 	"sort"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
-	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -23,26 +20,8 @@ func TestDemoScheduleIsValid(t *testing.T) {
 // with no problems reported.
 func TestWorkbookReadsBack(t *testing.T) {
 	term, s := demoTerm()
-	dir := t.TempDir()
-	xlsx := filepath.Join(dir, "timetable.xlsx")
-	f, err := os.Create(xlsx)
-	require.NoError(t, err)
-	require.NoError(t, WriteTimetableWorkbook(f, term, s, Options{Generated: fixedClock}))
-	require.NoError(t, f.Close())
-	csvPath := filepath.Join(dir, "timetable.csv")
-	f, err = os.Create(csvPath)
-	require.NoError(t, err)
-	require.NoError(t, WriteTimetableCSV(f, term, s))
-	require.NoError(t, f.Close())
-
-	for _, p := range []string{xlsx, csvPath} {
-		t.Run(filepath.Ext(p), func(t *testing.T) {
-			got, problems, err := timetable.ReadSchedule(p, term)
-			require.NoError(t, err)
-			assert.Empty(t, problems)
-			assert.Equal(t, placements(s), placements(got))
-		})
-	}
+	xlsx, csvPath := writeTimetableFiles(t, t.TempDir(), term, s)
+	assertReadsBack(t, term, s, xlsx, csvPath)
 }
 
 // placements lists a schedule's placements without their sources, sorted.

@@ -73,12 +73,7 @@ func TestWorkbookGrids(t *testing.T) {
 	f := openWorkbook(t, term, s, Options{})
 	v, err := newView(term, s)
 	require.NoError(t, err)
-	subjects := v.gridSubjects()
-	titles := make([]string, len(subjects))
-	for i, who := range subjects {
-		titles[i] = v.sheetTitle(who)
-	}
-	names := SheetNames(titles, timetable.TimetableSheet, LoadSheet)
+	subjects, names := gridSheets(v)
 	for k, who := range subjects {
 		sheet := names[k]
 		t.Run(sheet, func(t *testing.T) {

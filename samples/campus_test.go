@@ -1,11 +1,6 @@
 package samples
 
 import (
-	"bytes"
-	"errors"
-	"io/fs"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -17,29 +12,7 @@ import (
 // TestCampusFiles regenerates the second demo term and compares it byte for
 // byte with the checked-in workbook and CSV folder (rewrite with -update).
 func TestCampusFiles(t *testing.T) {
-	var buf bytes.Buffer
-	require.NoError(t, timetable.WriteTermWorkbook(Campus(), &buf))
-	if *update {
-		require.NoError(t, os.WriteFile(CampusWorkbook, buf.Bytes(), 0o644))
-		require.NoError(t, timetable.WriteTermCSV(Campus(), CampusCSVDir))
-	}
-	want, err := os.ReadFile(CampusWorkbook)
-	require.NoError(t, err)
-	assert.True(t, bytes.Equal(want, buf.Bytes()),
-		"%s differs from Campus(); if it changed on purpose, run go test ./samples -run TestCampusFiles -update", CampusWorkbook)
-
-	dir := t.TempDir()
-	require.NoError(t, timetable.WriteTermCSV(Campus(), dir))
-	for _, name := range timetable.TermCSVFiles() {
-		got, err := os.ReadFile(filepath.Join(dir, name))
-		if errors.Is(err, fs.ErrNotExist) {
-			continue
-		}
-		require.NoError(t, err)
-		want, err := os.ReadFile(filepath.Join(CampusCSVDir, name))
-		require.NoError(t, err)
-		assert.Equal(t, string(want), string(got), "%s/%s differs; rerun with -update", CampusCSVDir, name)
-	}
+	checkTermFiles(t, Campus(), CampusWorkbook, CampusCSVDir, "Campus()", "TestCampusFiles")
 }
 
 // TestCampusReadsClean loads the checked-in second demo with both readers:

@@ -1,12 +1,6 @@
 package samples
 
 import (
-	"bytes"
-	"errors"
-	"flag"
-	"io/fs"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -15,34 +9,10 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-var update = flag.Bool("update", false, "rewrite the demo workbook and CSV folder")
-
 // TestDemoFiles regenerates the demo term and compares it byte for byte with
 // the checked-in workbook and CSV folder.
 func TestDemoFiles(t *testing.T) {
-	var buf bytes.Buffer
-	require.NoError(t, timetable.WriteTermWorkbook(Demo(), &buf))
-	if *update {
-		require.NoError(t, os.WriteFile(DemoWorkbook, buf.Bytes(), 0o644))
-		require.NoError(t, timetable.WriteTermCSV(Demo(), DemoCSVDir))
-	}
-	want, err := os.ReadFile(DemoWorkbook)
-	require.NoError(t, err)
-	assert.True(t, bytes.Equal(want, buf.Bytes()),
-		"%s differs from Generate(DemoConfig); if the generator changed on purpose, run go test ./samples -run TestDemoFiles -update", DemoWorkbook)
-
-	dir := t.TempDir()
-	require.NoError(t, timetable.WriteTermCSV(Demo(), dir))
-	for _, name := range timetable.TermCSVFiles() {
-		got, err := os.ReadFile(filepath.Join(dir, name))
-		if errors.Is(err, fs.ErrNotExist) {
-			continue // a sheet the grid demo does not use
-		}
-		require.NoError(t, err)
-		want, err := os.ReadFile(filepath.Join(DemoCSVDir, name))
-		require.NoError(t, err)
-		assert.Equal(t, string(want), string(got), "%s/%s differs; rerun with -update", DemoCSVDir, name)
-	}
+	checkTermFiles(t, Demo(), DemoWorkbook, DemoCSVDir, "Generate(DemoConfig)", "TestDemoFiles")
 }
 
 // TestDemoReadsClean loads the checked-in demo files with the workbook

@@ -69,17 +69,7 @@ func occurrenceClashes(term *timetable.Term, w *timetable.Schedule) []string {
 			out = append(out, fmt.Sprintf("%s: placement %+v names no valid time", s.ID, pl))
 		}
 		for _, o := range occ {
-			var who []string
-			for _, id := range s.Staff {
-				who = append(who, "staff "+id)
-			}
-			for _, id := range s.Cohorts {
-				who = append(who, "cohort "+id)
-			}
-			if pl.Room != "" {
-				who = append(who, "room "+pl.Room)
-			}
-			for _, k := range who {
+			for _, k := range bookedBy(s, pl.Room) {
 				byWho[k] = append(byWho[k], use{o, pl.Room, s.ID})
 			}
 		}

@@ -58,15 +58,8 @@ func clashes(term *timetable.Term, w *timetable.Schedule) []string {
 			out = append(out, pl.Section+": meeting does not fit the grid")
 			continue
 		}
-		who := []string{}
-		for _, p := range s.Staff {
-			who = append(who, "staff "+p)
-		}
-		for _, c := range s.Cohorts {
-			who = append(who, "cohort "+c)
-		}
+		who := bookedBy(s, pl.Room)
 		if pl.Room != "" {
-			who = append(who, "room "+pl.Room)
 			r := term.Rooms[rooms[pl.Room]]
 			if r.Capacity < s.Size {
 				out = append(out, fmt.Sprintf("%s: %d students in %s of %d seats", s.ID, s.Size, r.ID, r.Capacity))

@@ -11,23 +11,10 @@ import (
 // common period) and a section's meetings that overlap each other.
 func (c *checker) clashes() {
 	x := c.x
-	for k := range x.byStaff {
-		label := x.staffLabel(k)
-		c.resourceClashes(x.byStaff[k], x.t.Staff[k].Src, RuleStaffClash, func(a, b, when string) string {
-			return label + " teaches " + a + " and " + b + " at " + when
-		})
-	}
-	for k := range x.byCohort {
-		label := x.cohortLabel(k)
-		c.resourceClashes(x.byCohort[k], x.t.Cohorts[k].Src, RuleCohortClash, func(a, b, when string) string {
-			return label + " has " + a + " and " + b + " at " + when
-		})
-	}
-	for k := range x.byRoom {
-		label := "room " + x.t.Rooms[k].ID
-		c.resourceClashes(x.byRoom[k], x.t.Rooms[k].Src, RuleRoomClash, func(a, b, when string) string {
-			return label + " holds " + a + " and " + b + " at " + when
-		})
+	for _, r := range x.clashKinds() {
+		for k := range r.grid {
+			c.resourceClashes(r.grid[k], r.src(k), r.rule, r.say(k))
+		}
 	}
 	for si := range x.t.Sections {
 		pls := x.sectionOK(si)
@@ -36,6 +23,35 @@ func (c *checker) clashes() {
 				x.t.Sections[si].ID+" meetings "+itoa(x.s.Placements[i].Meeting)+" and "+
 					itoa(x.s.Placements[j].Meeting)+" overlap at "+chkRange(x.t, first, last))
 		})
+	}
+}
+
+// clashKind is one kind of resource that cannot be in two places at once;
+// clashes and patternClashes report staff, cohorts and rooms in this order.
+type clashKind struct {
+	rule  string
+	grid  [][]int            // resource index -> valid grid placements
+	pat   [][]int            // resource index -> valid pattern placements
+	label func(k int) string // "staff …", "cohort …", "room …"
+	src   func(k int) Source // the resource's term row
+	verb  string             // what the resource does with two sections at once
+}
+
+// clashKinds lists staff, cohorts and rooms as clashKinds.
+func (x *occupancy) clashKinds() []clashKind {
+	return []clashKind{
+		{RuleStaffClash, x.byStaff, x.patStaff, x.staffLabel, func(k int) Source { return x.t.Staff[k].Src }, "teaches"},
+		{RuleCohortClash, x.byCohort, x.patCohort, x.cohortLabel, func(k int) Source { return x.t.Cohorts[k].Src }, "has"},
+		{RuleRoomClash, x.byRoom, x.patRoom, func(k int) string { return "room " + x.t.Rooms[k].ID }, func(k int) Source { return x.t.Rooms[k].Src }, "holds"},
+	}
+}
+
+// say gives the message maker for a double booking of resource k:
+// "staff … teaches A and B at when".
+func (r clashKind) say(k int) func(a, b, when string) string {
+	label := r.label(k)
+	return func(a, b, when string) string {
+		return label + " " + r.verb + " " + a + " and " + b + " at " + when
 	}
 }
 

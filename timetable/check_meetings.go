@@ -243,14 +243,7 @@ func (c *checker) fixed() {
 			if try(f, make([]bool, len(pls))) {
 				continue
 			}
-			want := DayName(fx.Day) + " " + fx.Start.String()
-			if fx.Room != "" {
-				want += " in " + fx.Room
-			}
-			text := fx.Text
-			if text == "" {
-				text = want
-			}
+			want, text := fx.wanted()
 			further := ""
 			for _, i := range pls {
 				if fits(fx, i) {
@@ -261,4 +254,19 @@ func (c *checker) fixed() {
 				sec.ID+" is fixed at "+chkQuote(text)+" but the timetable has no "+further+"meeting of it at "+want)
 		}
 	}
+}
+
+// wanted gives, for the messages about a Fixed entry that the timetable
+// does not meet, the time (and room) it asks for, "Tue 10:00 in R204", and
+// its text as written in the workbook (the former when none was kept).
+func (f Fixed) wanted() (want, text string) {
+	want = DayName(f.Day) + " " + f.Start.String()
+	if f.Room != "" {
+		want += " in " + f.Room
+	}
+	text = f.Text
+	if text == "" {
+		text = want
+	}
+	return want, text
 }

@@ -62,14 +62,7 @@ func (c *checker) fixedPattern(si int) {
 		if found {
 			continue
 		}
-		want := DayName(f.Day) + " " + f.Start.String()
-		if f.Room != "" {
-			want += " in " + f.Room
-		}
-		text := f.Text
-		if text == "" {
-			text = want
-		}
+		want, text := f.wanted()
 		c.add(RuleFixed, true, nil, []Source{sec.Src},
 			sec.ID+" is fixed at "+chkQuote(text)+" but its meeting time in the timetable does not meet at "+want)
 	}
@@ -115,32 +108,12 @@ func (c *checker) patternClashes() {
 	if !x.hasPat {
 		return
 	}
-	for k := range x.t.Staff {
-		if len(x.patStaff[k]) == 0 {
-			continue
+	for _, r := range x.clashKinds() {
+		for k := range r.pat {
+			if len(r.pat[k]) > 0 {
+				c.meetClashes(x.personMeets(r.grid[k], r.pat[k]), r.src(k), r.rule, r.say(k))
+			}
 		}
-		label := x.staffLabel(k)
-		c.meetClashes(x.personMeets(x.byStaff[k], x.patStaff[k]), x.t.Staff[k].Src, RuleStaffClash, func(a, b, when string) string {
-			return label + " teaches " + a + " and " + b + " at " + when
-		})
-	}
-	for k := range x.t.Cohorts {
-		if len(x.patCohort[k]) == 0 {
-			continue
-		}
-		label := x.cohortLabel(k)
-		c.meetClashes(x.personMeets(x.byCohort[k], x.patCohort[k]), x.t.Cohorts[k].Src, RuleCohortClash, func(a, b, when string) string {
-			return label + " has " + a + " and " + b + " at " + when
-		})
-	}
-	for k := range x.t.Rooms {
-		if len(x.patRoom[k]) == 0 {
-			continue
-		}
-		label := "room " + x.t.Rooms[k].ID
-		c.meetClashes(x.personMeets(x.byRoom[k], x.patRoom[k]), x.t.Rooms[k].Src, RuleRoomClash, func(a, b, when string) string {
-			return label + " holds " + a + " and " + b + " at " + when
-		})
 	}
 }
 

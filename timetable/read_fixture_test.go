@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/xuri/excelize/v2"
 )
 
@@ -202,6 +203,44 @@ func csvDir(t testing.TB, sheets []testSheet) string {
 		}
 	}
 	return dir
+}
+
+// plantCase is one mistake planted into a base workbook and the problem
+// it must give.
+type plantCase struct {
+	name  string
+	edits []cellEdit
+	at    string // expected position; "" = the last edited cell
+	sev   Severity
+	msg   string // expected part of the message; "" = the term reads clean
+}
+
+// runPlantCases reads base with each case's edits applied and checks that
+// a problem of the case's severity whose message contains its msg is
+// reported at exactly its cell, or, for a case without msg, that the term
+// reads clean.
+func runPlantCases(t *testing.T, base []testSheet, cases []plantCase) {
+	t.Helper()
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			_, ps := readSheets(t, applyEdits(t, base, tc.edits...))
+			if tc.msg == "" {
+				assert.Empty(t, ps, "expected a clean term")
+				return
+			}
+			at := tc.at
+			if at == "" {
+				last := tc.edits[len(tc.edits)-1]
+				at = last.sheet + "!" + last.cell
+			}
+			for _, p := range ps {
+				if p.Pos.String() == at && p.Severity == tc.sev && strings.Contains(p.Msg, tc.msg) {
+					return
+				}
+			}
+			t.Errorf("want %s at %s: %q\ngot:\n%s", tc.sev, at, tc.msg, ps)
+		})
+	}
 }
 
 // readSheets reads the sheets through ReadWorkbook.

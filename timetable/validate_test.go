@@ -1,10 +1,7 @@
 package timetable
 
 import (
-	"strings"
 	"testing"
-
-	"github.com/stretchr/testify/assert"
 )
 
 // e is a cell edit; the last edit of a case also marks where the expected
@@ -15,13 +12,7 @@ func e(sheet, cell, value string) cellEdit { return cellEdit{sheet: sheet, cell:
 // and checks that a problem with the expected message is reported at
 // exactly the planted cell (sheet, column letter and row).
 func TestProblemsAtCells(t *testing.T) {
-	cases := []struct {
-		name  string
-		edits []cellEdit
-		at    string // expected position; "" = the last edited cell
-		sev   Severity
-		msg   string // expected part of the message
-	}{
+	cases := []plantCase{
 		// references and IDs
 		{"unknown staff", []cellEdit{e("Sections", "C2", "S-117")}, "", Error, `staff "S-117" is not on the Staff sheet — add them to Staff or correct the ID`},
 		{"unknown staff in a list", []cellEdit{e("Sections", "C4", "S-1, S-8, S-9")}, "", Error, `staff "S-8" and "S-9" are not on the Staff sheet`},
@@ -125,25 +116,5 @@ func TestProblemsAtCells(t *testing.T) {
 			e("Unavailable", "A8", "C-2"), e("Unavailable", "B8", "Fri"), e("Unavailable", "C8", "09:00"), e("Unavailable", "D8", "12:00"),
 		}, "Cohorts!A3", Error, `cohort "C-2" must attend 5 periods in some week but is available for only 2`},
 	}
-	for _, tc := range cases {
-		t.Run(tc.name, func(t *testing.T) {
-			sheets := applyEdits(t, goodSheets(), tc.edits...)
-			_, ps := readSheets(t, sheets)
-			if tc.msg == "" {
-				assert.Empty(t, ps, "expected a clean term")
-				return
-			}
-			at := tc.at
-			if at == "" {
-				last := tc.edits[len(tc.edits)-1]
-				at = last.sheet + "!" + last.cell
-			}
-			for _, p := range ps {
-				if p.Pos.String() == at && p.Severity == tc.sev && strings.Contains(p.Msg, tc.msg) {
-					return
-				}
-			}
-			t.Errorf("want %s at %s: %q\ngot:\n%s", tc.sev, at, tc.msg, ps)
-		})
-	}
+	runPlantCases(t, goodSheets(), cases)
 }

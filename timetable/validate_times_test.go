@@ -70,13 +70,7 @@ func TestPatternSheetsRead(t *testing.T) {
 // TestPatternProblemsAtCells plants one mistake per case into the pattern
 // base and checks that the problem is reported at exactly the planted cell.
 func TestPatternProblemsAtCells(t *testing.T) {
-	cases := []struct {
-		name  string
-		edits []cellEdit
-		at    string // expected position; "" = the last edited cell
-		sev   Severity
-		msg   string
-	}{
+	cases := []plantCase{
 		// meeting times
 		{"unknown section", []cellEdit{e("Meeting times", "A3", "SEC-9")}, "", Error, `section "SEC-9" is not on the Sections sheet — correct the ID or add the section`},
 		{"blank section", []cellEdit{e("Meeting times", "A3", "")}, "", Error, "Section is blank"},
@@ -162,26 +156,7 @@ func TestPatternProblemsAtCells(t *testing.T) {
 			e("Meeting times", "A4", "SEC-6"), e("Meeting times", "B4", "Mon Tue Wed Thu Fri"), e("Meeting times", "C4", "13:00"), e("Meeting times", "D4", "120")}, "", 0, ""},
 		{"grid term without periods", []cellEdit{{sheet: "Periods", remove: true}}, "Periods", Error, "the workbook has no Periods sheet"},
 	}
-	for _, tc := range cases {
-		t.Run(tc.name, func(t *testing.T) {
-			_, ps := readSheets(t, applyEdits(t, patternSheets(t), tc.edits...))
-			if tc.msg == "" {
-				assert.Empty(t, ps, "expected a clean term")
-				return
-			}
-			at := tc.at
-			if at == "" {
-				last := tc.edits[len(tc.edits)-1]
-				at = last.sheet + "!" + last.cell
-			}
-			for _, p := range ps {
-				if p.Pos.String() == at && p.Severity == tc.sev && strings.Contains(p.Msg, tc.msg) {
-					return
-				}
-			}
-			t.Errorf("want %s at %s: %q\ngot:\n%s", tc.sev, at, tc.msg, ps)
-		})
-	}
+	runPlantCases(t, patternSheets(t), cases)
 }
 
 // patternBuilt is builtTerm with every section a pattern section and no

@@ -168,11 +168,7 @@ func TestWriteTermWorkbookDeterministic(t *testing.T) {
 }
 
 func TestWriteTermWorkbookLayout(t *testing.T) {
-	var buf bytes.Buffer
-	require.NoError(t, timetable.WriteTermWorkbook(handTerm(), &buf))
-	f, err := excelize.OpenReader(&buf)
-	require.NoError(t, err)
-	defer f.Close()
+	f := openTermWorkbook(t, handTerm())
 	assert.Equal(t, []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights"}, f.GetSheetList())
 	for _, sheet := range f.GetSheetList() {
 		panes, err := f.GetPanes(sheet)
@@ -242,6 +238,18 @@ func TestWriteTermReadBack(t *testing.T) {
 			assertSameTerm(t, c.term, got)
 		})
 	}
+}
+
+// openTermWorkbook writes term with WriteTermWorkbook and opens the bytes
+// with excelize; the file is closed when the test ends.
+func openTermWorkbook(t *testing.T, term *timetable.Term) *excelize.File {
+	t.Helper()
+	var buf bytes.Buffer
+	require.NoError(t, timetable.WriteTermWorkbook(term, &buf))
+	f, err := excelize.OpenReader(&buf)
+	require.NoError(t, err)
+	t.Cleanup(func() { f.Close() })
+	return f
 }
 
 // assertSameTerm compares two terms field by field, ignoring Src and the

@@ -9,7 +9,6 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
-	"github.com/xuri/excelize/v2"
 
 	"github.com/termwright/termwright/samples"
 	"github.com/termwright/termwright/timetable"
@@ -57,21 +56,13 @@ func TestMixedTermValidates(t *testing.T) {
 // TestGridTermWritesNoPatternParts: a term without meeting patterns gets
 // neither the new sheets nor the new columns (its bytes are as before).
 func TestGridTermWritesNoPatternParts(t *testing.T) {
-	var buf bytes.Buffer
-	require.NoError(t, timetable.WriteTermWorkbook(handTerm(), &buf))
-	f, err := excelize.OpenReader(&buf)
-	require.NoError(t, err)
-	defer f.Close()
+	f := openTermWorkbook(t, handTerm())
 	assert.Equal(t, []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights"}, f.GetSheetList())
 	rows, err := f.GetRows("Staff")
 	require.NoError(t, err)
 	assert.Equal(t, []string{"Staff ID", "Name", "Email", "Max periods per day", "Max consecutive periods"}, rows[0])
 
-	buf.Reset()
-	require.NoError(t, timetable.WriteTermWorkbook(mixedTerm(), &buf))
-	g, err := excelize.OpenReader(&buf)
-	require.NoError(t, err)
-	defer g.Close()
+	g := openTermWorkbook(t, mixedTerm())
 	assert.Equal(t, []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights", "Meeting times", "Room choices", "Travel"}, g.GetSheetList())
 	rows, err = g.GetRows("Meeting times")
 	require.NoError(t, err)

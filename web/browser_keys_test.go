@@ -20,19 +20,11 @@ import (
 // and makes the change notices.
 func TestBrowserKeyboard(t *testing.T) {
 	exe := chromium(t)
-	if testing.Short() {
-		t.Skip("the browser test is skipped with -short")
-	}
 	d := newDemo(t)
 	m, legal, _, staff := d.legalAndIllegal(t)
 	b := newBrowser(t, exe)
 	ctx := b.ctx
-	var name string
-	for _, s := range d.term.Staff {
-		if s.ID == staff {
-			name = s.Name
-		}
-	}
+	name := d.staffName(staff)
 	keys := func(k ...string) {
 		t.Helper()
 		for _, x := range k {

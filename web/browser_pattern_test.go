@@ -18,9 +18,6 @@ import (
 // engine cannot take yet.
 func TestBrowserPatternTerm(t *testing.T) {
 	exe := chromium(t)
-	if testing.Short() {
-		t.Skip("the browser test is skipped with -short")
-	}
 	d, sec := newPatternDemo(t)
 	room := d.term.Rooms[0].ID
 	b := newBrowser(t, exe)

@@ -19,10 +19,14 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// chromium finds the headless browser (Debian's chromium package).
+// chromium finds the headless browser (Debian's chromium package); the
+// test is skipped when there is none or under -short.
 func chromium(t *testing.T) string {
 	for _, name := range []string{"chromium", "chromium-browser", "google-chrome"} {
 		if p, err := exec.LookPath(name); err == nil {
+			if testing.Short() {
+				t.Skip("the browser test is skipped with -short")
+			}
 			return p
 		}
 	}
@@ -99,19 +103,11 @@ func newBrowser(t *testing.T, exe string) *browser {
 // timetable.Check. Screenshots go to $SCREENSHOT_DIR when set.
 func TestBrowserEndToEnd(t *testing.T) {
 	exe := chromium(t)
-	if testing.Short() {
-		t.Skip("the browser test is skipped with -short")
-	}
 	d := newDemo(t)
 	m, legal, clash, staff := d.legalAndIllegal(t)
 	b := newBrowser(t, exe)
 	ctx, shot, text := b.ctx, b.shot, b.text
-	var name string
-	for _, s := range d.term.Staff {
-		if s.ID == staff {
-			name = s.Name
-		}
-	}
+	name := d.staffName(staff)
 	mtg := `button.mtg[data-section="` + m.Section + `"][data-meeting="` + strconv.Itoa(m.Meeting) + `"]`
 	here := func(p int) string { return `button.here[data-period="` + strconv.Itoa(p) + `"]` }
 	require.NoError(t, chromedp.Do(ctx,

@@ -133,3 +133,27 @@ func contains(xs []string, x string) bool {
 	}
 	return false
 }
+
+// jobResult decodes the answer of a finished job (a re-plan's replanJSON,
+// a where-else search's whereElseJSON) into T; the job must be done.
+func jobResult[T any](t *testing.T, j jobJSON) T {
+	t.Helper()
+	require.Equal(t, jobDone, j.State, "job error: %s", j.Error)
+	b, err := json.Marshal(j.Result)
+	require.NoError(t, err)
+	var r T
+	require.NoError(t, json.Unmarshal(b, &r))
+	return r
+}
+
+// staffName is the name of staff member id in the demo term ("" when
+// there is none).
+func (d *demoFixture) staffName(id string) string {
+	var name string
+	for _, s := range d.term.Staff {
+		if s.ID == id {
+			name = s.Name
+		}
+	}
+	return name
+}

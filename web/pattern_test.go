@@ -129,7 +129,7 @@ func TestPatternTermSearches(t *testing.T) {
 
 	var j jobJSON
 	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/whereelse", whereElseRequest{Section: sec, Meeting: 1}, &j))
-	r := whereResult(t, d.waitJob(t, j.ID))
+	r := jobResult[whereElseJSON](t, d.waitJob(t, j.ID))
 	idx := -1
 	for i, p := range d.sched.Placements {
 		if p.Section == sec {

@@ -58,7 +58,7 @@ func TestReplanPatternLock(t *testing.T) {
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/lock", lockRequest{Version: 2, Section: sec, Meeting: 1, Locked: true}, &st))
 
 	j := d.replanFound(t, replanRequest{Version: 3})
-	r := replanResult(t, j)
+	r := jobResult[replanJSON](t, j)
 	require.Equal(t, "found", r.Status, "notes: %v", r.Notes)
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/replan/decide", decideRequest{Version: 3, Job: j.ID, Keep: true}, &st))
 	kept := d.current(t)

@@ -1,7 +1,6 @@
 package web
 
 import (
-	"encoding/json"
 	"net/http"
 	"testing"
 
@@ -9,17 +8,6 @@ import (
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/timetable"
 )
-
-// replanResult decodes a finished re-plan's answer.
-func replanResult(t *testing.T, j jobJSON) replanJSON {
-	t.Helper()
-	require.Equal(t, jobDone, j.State, "job error: %s", j.Error)
-	b, err := json.Marshal(j.Result)
-	require.NoError(t, err)
-	var r replanJSON
-	require.NoError(t, json.Unmarshal(b, &r))
-	return r
-}
 
 func (d *demoFixture) current(t *testing.T) *timetable.Schedule {
 	d.srv.mu.Lock()
@@ -65,7 +53,7 @@ func TestReplanKeepsLocks(t *testing.T) {
 
 	j := d.replanFound(t, replanRequest{Version: v})
 	assert.Equal(t, v, j.Base)
-	r := replanResult(t, j)
+	r := jobResult[replanJSON](t, j)
 	require.Equal(t, "found", r.Status, "notes: %v", r.Notes)
 	assert.Equal(t, 2, r.Locked)
 	assert.Equal(t, v, d.state(t).Version, "a finished re-plan changes nothing until kept")
@@ -101,7 +89,7 @@ func TestReplanPlace(t *testing.T) {
 	d := newDemo(t)
 	m, _, clash, _ := d.legalAndIllegal(t)
 	j := d.replanFound(t, replanRequest{Version: 1, Place: &placeSpec{m.Section, m.Meeting, clash}})
-	r := replanResult(t, j)
+	r := jobResult[replanJSON](t, j)
 	require.Equal(t, "found", r.Status)
 	assert.NotEmpty(t, r.Moves, "another meeting has to move")
 	var st stateJSON
@@ -135,7 +123,7 @@ func TestReplanStaleAndBad(t *testing.T) {
 	var st stateJSON
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/lock", lockRequest{Version: 1, Section: m.Section, Meeting: m.Meeting, Locked: true}, &st))
 	j = d.stopWhenFound(t, j.ID)
-	require.Equal(t, "found", replanResult(t, j).Status)
+	require.Equal(t, "found", jobResult[replanJSON](t, j).Status)
 	require.Equal(t, http.StatusConflict, d.call(t, "POST", "/api/replan/decide", decideRequest{Version: 2, Job: j.ID, Keep: true}, &e))
 	assert.Contains(t, e.Error, "started from version 1")
 	assert.Equal(t, 2, e.Version)
@@ -186,7 +174,7 @@ func TestReplanCancel(t *testing.T) {
 	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/job/cancel", jobRequest{ID: j.ID}, &j))
 	j = d.waitJob(t, j.ID)
 	assert.True(t, j.Stopped)
-	r := replanResult(t, j)
+	r := jobResult[replanJSON](t, j)
 	assert.Contains(t, []string{"found", "unknown"}, r.Status)
 }
 

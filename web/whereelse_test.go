@@ -1,7 +1,6 @@
 package web
 
 import (
-	"encoding/json"
 	"net/http"
 	"testing"
 
@@ -9,16 +8,6 @@ import (
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/timetable"
 )
-
-func whereResult(t *testing.T, j jobJSON) whereElseJSON {
-	t.Helper()
-	require.Equal(t, jobDone, j.State, "job error: %s", j.Error)
-	b, err := json.Marshal(j.Result)
-	require.NoError(t, err)
-	var r whereElseJSON
-	require.NoError(t, json.Unmarshal(b, &r))
-	return r
-}
 
 // TestWhereElseFull asks where else a meeting could go. Checked by brute
 // force with timetable.Check: every start where the meeting alone can
@@ -31,7 +20,7 @@ func TestWhereElseFull(t *testing.T) {
 	m, _, _, _ := d.legalAndIllegal(t)
 	var j jobJSON
 	require.Equal(t, http.StatusAccepted, d.call(t, "POST", "/api/whereelse", whereElseRequest{Section: m.Section, Meeting: m.Meeting}, &j))
-	r := whereResult(t, d.waitJob(t, j.ID))
+	r := jobResult[whereElseJSON](t, d.waitJob(t, j.ID))
 	require.True(t, r.Complete)
 	at := map[int]whereJSON{}
 	for _, p := range r.Places {
@@ -76,7 +65,7 @@ func TestWhereElseFull(t *testing.T) {
 		}
 	}
 	if other != nil {
-		rr := replanResult(t, d.replanFound(t, replanRequest{Version: 1, Place: &placeSpec{m.Section, m.Meeting, other.Period}}))
+		rr := jobResult[replanJSON](t, d.replanFound(t, replanRequest{Version: 1, Place: &placeSpec{m.Section, m.Meeting, other.Period}}))
 		assert.Equal(t, "found", rr.Status, "%s needs other moves, and a timetable has it there", other.At)
 	}
 }

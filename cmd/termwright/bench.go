@@ -247,16 +247,8 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRow {
 	name := strings.TrimSuffix(filepath.Base(path), ".ctt")
 	row := benchRow{Instance: name, Format: "curriculum", Status: "error"}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		row.Error = err.Error()
-		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row
-	}
-	term, err := benchfmt.ReadCTT(bytes.NewReader(data), filepath.Base(path))
-	if err != nil {
-		row.Error = "cannot read the instance"
-		fmt.Fprintf(e.stderr, "bench: %v\n", err)
+	term, ok := benchRead(e, &row, path, benchfmt.ReadCTT)
+	if !ok {
 		return row
 	}
 	row.Courses, row.Rooms, row.Curricula = len(term.Sections), len(term.Rooms), len(term.Cohorts)
@@ -264,20 +256,8 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 		row.Meetings += s.Meetings
 	}
 	fmt.Fprintf(e.stderr, "bench: %s: %d courses, %d meetings; solving for up to %s\n", name, row.Courses, row.Meetings, o.timeLimit)
-	ictx, cancel := context.WithTimeout(ctx, o.timeLimit)
-	defer cancel()
-	start := e.now()
-	res, err := benchSolve(ictx, term, o.seed, o.threads)
-	elapsed := e.now().Sub(start)
-	row.TotalMS = elapsed.Milliseconds()
-	if err != nil {
-		row.Error = err.Error()
-		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row
-	}
-	row.Status = res.Status.String()
-	if res.Status != solver.Satisfiable || res.Schedule == nil {
-		fmt.Fprintf(e.stderr, "bench: %s: %s after %s\n", name, row.Status, benchDuration(elapsed))
+	res, elapsed := benchRunTerm(ctx, e, o, &row, term)
+	if res == nil {
 		return row
 	}
 	benchScore(e, &row, term, res.Schedule, elapsed)
@@ -299,24 +279,10 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 // elapsed; benchTimes then refines the times from the optimiser's history.
 func benchScore(e *env, row *benchRow, term *timetable.Term, s *timetable.Schedule, elapsed time.Duration) {
 	hard := benchfmt.CTTHardViolations(term, s)
-	checked := timetable.HardViolations(timetable.Check(term, s))
-	row.Feasible = hard.Total() == 0 && len(checked) == 0
-	if hard.Total() == 0 && len(checked) > 0 {
-		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
-	}
+	benchFeasible(e, row, term, s, hard.Total())
 	total, parts := benchfmt.CTTCost(term, s)
 	row.Cost, row.Parts, row.Hard = &total, &parts, &hard
-	if row.Feasible {
-		var own int64
-		for _, c := range timetable.Cost(term, s, nil).Criteria {
-			own += c.Cost
-		}
-		if own != int64(total) {
-			fmt.Fprintf(e.stderr, "bench: %s: termwright's cost %d differs from the competition's %d; please report this\n", row.Instance, own, total)
-		}
-		ms := elapsed.Milliseconds()
-		row.FirstMS, row.BestMS = &ms, &ms
-	}
+	benchOwnCost(e, row, term, s, total, elapsed)
 }
 
 // benchTimes fills the lower bound and the times of the first and the best
@@ -428,26 +394,13 @@ func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 	}
 	fmt.Fprintln(tw, head)
 	for _, r := range rep.Instances {
-		feasible := "no"
-		switch {
-		case r.Status == "error":
-			feasible = "error"
-		case r.Feasible:
-			feasible = "yes"
-		case r.Status != solver.Satisfiable.String():
-			feasible = "no (" + r.Status + ")"
-		}
 		line := strings.Join([]string{
 			r.Instance,
 			fmt.Sprintf("%d/%d/%d/%d", r.Courses, r.Meetings, r.Rooms, r.Curricula),
-			feasible, intOrDash(r.Cost), intOrDash(r.Bound), msOrDash(r.FirstMS), msOrDash(r.BestMS),
+			benchValid(r), intOrDash(r.Cost), intOrDash(r.Bound), msOrDash(r.FirstMS), msOrDash(r.BestMS),
 		}, "\t")
 		if withBest {
-			ratio := "-"
-			if r.Ratio != nil {
-				ratio = strconv.FormatFloat(*r.Ratio, 'f', 2, 64)
-			}
-			line += "\t" + intOrDash(r.BestKnown) + "\t" + ratio
+			line += "\t" + intOrDash(r.BestKnown) + "\t" + ratioOrDash(r.Ratio)
 		}
 		fmt.Fprintln(tw, line)
 	}
@@ -459,6 +412,29 @@ func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 			fmt.Fprintf(w, "geometric mean of cost / best known: %.2f over %d of %d instances\n", *rep.GeoMeanRatio, rep.RatioCount, len(rep.Instances))
 		}
 	}
+}
+
+// benchValid is the table's word for whether a row's timetable meets every
+// hard constraint: "yes", "no", "no (STATUS)" when the engine found no
+// timetable, or "error".
+func benchValid(r benchRow) string {
+	switch {
+	case r.Status == "error":
+		return "error"
+	case r.Feasible:
+		return "yes"
+	case r.Status != solver.Satisfiable.String():
+		return "no (" + r.Status + ")"
+	}
+	return "no"
+}
+
+// ratioOrDash prints a ratio with two decimals, or "-" when there is none.
+func ratioOrDash(v *float64) string {
+	if v == nil {
+		return "-"
+	}
+	return strconv.FormatFloat(*v, 'f', 2, 64)
 }
 
 func intOrDash(v *int) string {

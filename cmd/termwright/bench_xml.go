@@ -12,7 +12,6 @@ import (
 	"text/tabwriter"
 	"time"
 
-	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 	"github.com/termwright/termwright/timetable/benchfmt"
 )
@@ -56,16 +55,8 @@ func benchOneXML(ctx context.Context, e *env, o *benchOptions, path string, best
 func benchRunXML(ctx context.Context, e *env, o *benchOptions, path string) (benchRow, *benchfmt.XMLWeights) {
 	name := benchXMLName(path)
 	row := benchRow{Instance: name, Format: "patterns", Status: "error", Pattern: &benchPatternRow{}}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		row.Error = err.Error()
-		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row, nil
-	}
-	in, err := benchfmt.ReadXML(bytes.NewReader(data), filepath.Base(path))
-	if err != nil {
-		row.Error = "cannot read the instance"
-		fmt.Fprintf(e.stderr, "bench: %v\n", err)
+	in, ok := benchRead(e, &row, path, benchfmt.ReadXML)
+	if !ok {
 		return row, nil
 	}
 	term := in.Term()
@@ -73,20 +64,8 @@ func benchRunXML(ctx context.Context, e *env, o *benchOptions, path string) (ben
 	row.Rooms = len(term.Rooms)
 	row.Pattern.Sections, row.Pattern.Relations, row.Pattern.Students = len(term.Sections), len(in.Distributions), len(in.Students)
 	fmt.Fprintf(e.stderr, "bench: %s: %d sections, %d rooms, %d relations; solving for up to %s\n", name, len(term.Sections), len(term.Rooms), len(term.Relations), o.timeLimit)
-	ictx, cancel := context.WithTimeout(ctx, o.timeLimit)
-	defer cancel()
-	start := e.now()
-	res, err := benchSolve(ictx, term, o.seed, o.threads)
-	elapsed := e.now().Sub(start)
-	row.TotalMS = elapsed.Milliseconds()
-	if err != nil {
-		row.Error = err.Error()
-		fmt.Fprintf(e.stderr, "bench: %s: %v\n", name, err)
-		return row, w
-	}
-	row.Status = res.Status.String()
-	if res.Status != solver.Satisfiable || res.Schedule == nil {
-		fmt.Fprintf(e.stderr, "bench: %s: %s after %s\n", name, row.Status, benchDuration(elapsed))
+	res, elapsed := benchRunTerm(ctx, e, o, &row, term)
+	if res == nil {
 		return row, w
 	}
 	sol, err := benchfmt.XMLSolutionOf(in, res.Schedule, benchfmt.XMLRunInfo{
@@ -121,28 +100,13 @@ func benchRunXML(ctx context.Context, e *env, o *benchOptions, path string) (ben
 // compares them with termwright's own Check and Cost.
 func benchScoreXML(e *env, row *benchRow, in *benchfmt.XMLInstance, term *timetable.Term, s *timetable.Schedule, sol *benchfmt.XMLSolution, elapsed time.Duration) {
 	hard := benchfmt.XMLHardViolations(in, sol)
-	checked := timetable.HardViolations(timetable.Check(term, s))
-	row.Feasible = hard.Total() == 0 && len(checked) == 0
-	switch {
-	case hard.Total() == 0 && len(checked) > 0:
-		fmt.Fprintf(e.stderr, "bench: %s: Check reports %d hard violations the competition's rules do not: %s\n", row.Instance, len(checked), checked[0].Msg)
-	case hard.Total() > 0 && len(checked) == 0:
+	if checked := benchFeasible(e, row, term, s, hard.Total()); hard.Total() > 0 && checked == 0 {
 		fmt.Fprintf(e.stderr, "bench: %s: the competition's rules find %d hard violations Check does not (%d unplaced, %d at unlisted times or rooms, %d room clashes, %d in unavailable rooms, %d relations); please report this\n",
 			row.Instance, hard.Total(), hard.Unplaced, hard.NotListed, hard.RoomClashes, hard.RoomUnavailable, hard.Distributions)
 	}
 	total, parts := benchfmt.XMLCost(in, sol) // no students enrolled: the student part is 0
 	row.Cost, row.Pattern.Parts, row.Pattern.Hard = &total, &parts, &hard
-	if row.Feasible {
-		var own int64
-		for _, c := range timetable.Cost(term, s, nil).Criteria {
-			own += c.Cost
-		}
-		if own != int64(total) {
-			fmt.Fprintf(e.stderr, "bench: %s: termwright's cost %d differs from the competition's %d; please report this\n", row.Instance, own, total)
-		}
-		ms := elapsed.Milliseconds()
-		row.FirstMS, row.BestMS = &ms, &ms
-	}
+	benchOwnCost(e, row, term, s, total, elapsed)
 }
 
 // benchReadXMLBest reads the best-known table of ITC-2019 instances.
@@ -179,28 +143,15 @@ func benchWriteXMLTable(w io.Writer, rows []benchRow, withBest bool) {
 	fmt.Fprintln(tw, head)
 	for _, r := range rows {
 		p := r.Pattern
-		valid := "no"
-		switch {
-		case r.Status == "error":
-			valid = "error"
-		case r.Feasible:
-			valid = "yes"
-		case r.Status != solver.Satisfiable.String():
-			valid = "no (" + r.Status + ")"
-		}
 		parts := []string{"-", "-", "-"}
 		if p.Parts != nil {
 			parts = []string{strconv.Itoa(p.Parts.Time), strconv.Itoa(p.Parts.Room), strconv.Itoa(p.Parts.Distribution)}
 		}
 		line := strings.Join(append([]string{
-			r.Instance, fmt.Sprintf("%d/%d/%d", p.Sections, r.Rooms, p.Relations), valid, intOrDash(r.Cost),
+			r.Instance, fmt.Sprintf("%d/%d/%d", p.Sections, r.Rooms, p.Relations), benchValid(r), intOrDash(r.Cost),
 		}, append(parts, "not sectioned", msOrDash(r.FirstMS), msOrDash(r.BestMS))...), "\t")
 		if withBest {
-			ratio := "-"
-			if r.Ratio != nil {
-				ratio = strconv.FormatFloat(*r.Ratio, 'f', 2, 64)
-			}
-			line += "\t" + intOrDash(p.Reference) + "\t" + ratio
+			line += "\t" + intOrDash(p.Reference) + "\t" + ratioOrDash(r.Ratio)
 		}
 		fmt.Fprintln(tw, line)
 	}

@@ -1,10 +1,7 @@
 package benchfmt
 
 import (
-	"bufio"
-	"bytes"
 	"encoding/xml"
-	"errors"
 	"fmt"
 	"io"
 	"strconv"
@@ -58,60 +55,25 @@ type xmlReader struct {
 // ErrXMLFormat.
 func ReadXML(r io.Reader, name string) (*XMLInstance, error) {
 	errs := &errList{file: name, format: ErrXMLFormat}
-	br := bufio.NewReader(r)
-	if b, err := br.Peek(3); err == nil && bytes.Equal(b, []byte{0xEF, 0xBB, 0xBF}) {
-		_, _ = br.Discard(3)
-	}
-	x := &xmlReader{d: xml.NewDecoder(br), errs: errs, in: &XMLInstance{}}
-	x.d.Strict = true
+	x := &xmlReader{errs: errs, in: &XMLInstance{}}
 	sawRoot := false
-	for {
-		tok, err := x.d.Token()
-		if err == io.EOF {
-			break
+	start := func(parent string, t xml.StartElement) bool {
+		if !contains(xmlChildren[parent], t.Name.Local) {
+			x.fail("element <%s> is not expected here; this is not an instance in the ITC-2019 format", clip(t.Name.Local))
+			return false
 		}
-		if err != nil {
-			line, _ := x.d.InputPos()
-			var se *xml.SyntaxError
-			msg := err.Error()
-			if errors.As(err, &se) {
-				line, msg = se.Line, se.Msg
+		if t.Name.Local == "problem" {
+			if sawRoot {
+				x.fail("the file holds a second instance; give one instance per file")
+				return false
 			}
-			errs.add(line, "the file is not well-formed XML ("+clip(msg)+"); repair or download the instance again")
-			return nil, errs.err()
+			sawRoot = true
 		}
-		switch t := tok.(type) {
-		case xml.StartElement:
-			x.line, _ = x.d.InputPos()
-			parent := ""
-			if len(x.stack) > 0 {
-				parent = x.stack[len(x.stack)-1]
-			}
-			if !contains(xmlChildren[parent], t.Name.Local) {
-				x.fail("element <%s> is not expected here; this is not an instance in the ITC-2019 format", clip(t.Name.Local))
-				return nil, errs.err()
-			}
-			if t.Name.Local == "problem" {
-				if sawRoot {
-					x.fail("the file holds a second instance; give one instance per file")
-					return nil, errs.err()
-				}
-				sawRoot = true
-			}
-			x.stack = append(x.stack, t.Name.Local)
-			x.start(t)
-		case xml.EndElement:
-			x.end(t.Name.Local)
-			x.stack = x.stack[:len(x.stack)-1]
-		case xml.CharData:
-			if len(bytes.TrimSpace(t)) > 0 {
-				line, _ := x.d.InputPos()
-				errs.add(line, "text "+strconv.Quote(clip(string(bytes.TrimSpace(t))))+" stands outside any attribute; remove it")
-			}
-		}
-		if len(errs.list) >= maxErrors {
-			return nil, errs.err()
-		}
+		x.start(t)
+		return true
+	}
+	if !x.walk(r, "repair or download the instance again", start, x.end) {
+		return nil, errs.err()
 	}
 	if !sawRoot {
 		errs.add(0, "the file holds no instance; give an ITC-2019 instance")

@@ -4,11 +4,9 @@ import (
 	"bufio"
 	"bytes"
 	"encoding/xml"
-	"errors"
 	"fmt"
 	"io"
 	"strconv"
-	"strings"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -132,87 +130,51 @@ func WriteXMLSolution(w io.Writer, in *XMLInstance, sol *XMLSolution) error {
 // Problems are reported in Errors matching ErrXMLFormat.
 func ReadXMLSolution(r io.Reader, name string, in *XMLInstance) (*XMLSolution, error) {
 	errs := &errList{file: name, format: ErrXMLFormat}
-	br := bufio.NewReader(r)
-	if b, err := br.Peek(3); err == nil && bytes.Equal(b, []byte{0xEF, 0xBB, 0xBF}) {
-		_, _ = br.Discard(3)
-	}
-	d := xml.NewDecoder(br)
-	d.Strict = true
-	x := &xmlReader{d: d, errs: errs, in: in}
+	x := &xmlReader{errs: errs, in: in}
 	sol := &XMLSolution{}
 	idx := in.classIndex()
 	seen := map[string]int{}
-	var stack []string
 	root := false
-	for {
-		tok, err := d.Token()
-		if err == io.EOF {
-			break
+	start := func(parent string, t xml.StartElement) bool {
+		want := map[string]string{"": "solution", "solution": "class", "class": "student"}[parent]
+		if t.Name.Local != want || (want == "solution" && root) {
+			x.fail("element <%s> is not expected here; this is not a solution in the ITC-2019 format", clip(t.Name.Local))
+			return false
 		}
-		if err != nil {
-			line, _ := d.InputPos()
-			var se *xml.SyntaxError
-			msg := err.Error()
-			if errors.As(err, &se) {
-				line, msg = se.Line, se.Msg
+		switch want {
+		case "solution":
+			root = true
+			a := x.attrs(t, "the solution")
+			sol.Name = a.m["name"]
+			if sol.Name != in.Name {
+				x.fail("the solution is for instance %s, not %s; give the solution of this instance", strconv.Quote(clip(sol.Name)), strconv.Quote(clip(in.Name)))
 			}
-			errs.add(line, "the file is not well-formed XML ("+clip(msg)+"); repair it")
-			return nil, errs.err()
+			sol.Info.Runtime, _ = strconv.ParseFloat(a.m["runtime"], 64)
+			sol.Info.Cores, _ = strconv.Atoi(a.m["cores"])
+			sol.Info.Technique, sol.Info.Author = a.m["technique"], a.m["author"]
+			sol.Info.Institution, sol.Info.Country = a.m["institution"], a.m["country"]
+		case "class":
+			a := x.attrs(t, "a class of the solution")
+			as := XMLAssignment{Class: a.id("id", "class"), Room: a.m["room"], Line: x.line}
+			as.Days = uint8(a.bits("days", "days", in.Days))
+			as.Start = a.num("start", "start slot", 0, -1)
+			as.Weeks = a.bits("weeks", "weeks", in.Weeks)
+			if _, ok := idx[as.Class]; !ok && as.Class != "" {
+				x.fail("class %s is not in instance %s; correct the class", strconv.Quote(clip(as.Class)), strconv.Quote(clip(in.Name)))
+			} else if l, dup := seen[as.Class]; dup {
+				x.fail("class %s is given twice (first on line %d); give each class once", strconv.Quote(clip(as.Class)), l)
+			}
+			seen[as.Class] = x.line
+			sol.Classes = append(sol.Classes, as)
+		case "student":
+			a := x.attrs(t, "a student of the solution")
+			c := &sol.Classes[len(sol.Classes)-1]
+			c.Students = append(c.Students, a.id("id", "student"))
 		}
-		switch t := tok.(type) {
-		case xml.StartElement:
-			x.line, _ = d.InputPos()
-			parent := ""
-			if len(stack) > 0 {
-				parent = stack[len(stack)-1]
-			}
-			want := map[string]string{"": "solution", "solution": "class", "class": "student"}[parent]
-			if t.Name.Local != want || (want == "solution" && root) {
-				x.fail("element <%s> is not expected here; this is not a solution in the ITC-2019 format", clip(t.Name.Local))
-				return nil, errs.err()
-			}
-			stack = append(stack, t.Name.Local)
-			switch want {
-			case "solution":
-				root = true
-				a := x.attrs(t, "the solution")
-				sol.Name = a.m["name"]
-				if sol.Name != in.Name {
-					x.fail("the solution is for instance %s, not %s; give the solution of this instance", strconv.Quote(clip(sol.Name)), strconv.Quote(clip(in.Name)))
-				}
-				sol.Info.Runtime, _ = strconv.ParseFloat(a.m["runtime"], 64)
-				sol.Info.Cores, _ = strconv.Atoi(a.m["cores"])
-				sol.Info.Technique, sol.Info.Author = a.m["technique"], a.m["author"]
-				sol.Info.Institution, sol.Info.Country = a.m["institution"], a.m["country"]
-			case "class":
-				a := x.attrs(t, "a class of the solution")
-				as := XMLAssignment{Class: a.id("id", "class"), Room: a.m["room"], Line: x.line}
-				as.Days = uint8(a.bits("days", "days", in.Days))
-				as.Start = a.num("start", "start slot", 0, -1)
-				as.Weeks = a.bits("weeks", "weeks", in.Weeks)
-				if _, ok := idx[as.Class]; !ok && as.Class != "" {
-					x.fail("class %s is not in instance %s; correct the class", strconv.Quote(clip(as.Class)), strconv.Quote(clip(in.Name)))
-				} else if l, dup := seen[as.Class]; dup {
-					x.fail("class %s is given twice (first on line %d); give each class once", strconv.Quote(clip(as.Class)), l)
-				}
-				seen[as.Class] = x.line
-				sol.Classes = append(sol.Classes, as)
-			case "student":
-				a := x.attrs(t, "a student of the solution")
-				c := &sol.Classes[len(sol.Classes)-1]
-				c.Students = append(c.Students, a.id("id", "student"))
-			}
-		case xml.EndElement:
-			stack = stack[:len(stack)-1]
-		case xml.CharData:
-			if len(bytes.TrimSpace(t)) > 0 {
-				line, _ := d.InputPos()
-				errs.add(line, "text "+strconv.Quote(clip(strings.TrimSpace(string(t))))+" stands outside any attribute; remove it")
-			}
-		}
-		if len(errs.list) >= maxErrors {
-			return nil, errs.err()
-		}
+		return true
+	}
+	if !x.walk(r, "repair it", start, nil) {
+		return nil, errs.err()
 	}
 	if !root {
 		errs.add(0, "the file holds no solution; give an ITC-2019 solution")
