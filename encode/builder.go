@@ -18,21 +18,22 @@ type builder struct {
 	c   *Catalog
 
 	staffIdx, cohortIdx, roomIdx, secIdx map[string]int
-	fits                                 map[int][]bool        // fits[length][start]: the meeting fits in one run
-	unavail                              unavailTable          // hard unavailability per staff, cohort, section, room
-	group                                int32                 // group of the statements being added, -1 for none
-	boundKind                            string                // kind recorded for bounds being added
-	errs                                 []InputError          // problems found so far
-	days                                 [][]int               // periods of each grid day, in grid order
-	dayOf                                []int                 // dayOf[p]: index into days
-	meets                                map[int][]solver.Atom // meets[s][day order]: meets(S,D) atoms, made on demand
-	startedBy                            map[int][]solver.Atom // startedBy[s][p]: started_by(S,P) atoms, made on demand
-	busy                                 map[int][]solver.Atom // busy[staff][p]: busy(T,P) atoms, made on demand
-	itemsBySet                           map[int][]roomItem    // candidate meetings by room set id (roomItemsBySet)
-	stamp                                []int32               // stamp[s] == stampGen: section s seen in the current count
-	stampGen                             int32                 // current stamp
-	pat                                  patState              // pattern sections (pattern_unavail.go)
-	rel                                  relState              // pattern relations and limits (times_rel_rooms.go)
+	fits                                 map[int][]bool         // fits[length][start]: the meeting fits in one run
+	unavail                              unavailTable           // hard unavailability per staff, cohort, section, room
+	group                                int32                  // group of the statements being added, -1 for none
+	boundKind                            string                 // kind recorded for bounds being added
+	errs                                 []InputError           // problems found so far
+	days                                 [][]int                // periods of each grid day, in grid order
+	dayOf                                []int                  // dayOf[p]: index into days
+	meets                                map[int][]solver.Atom  // meets[s][day order]: meets(S,D) atoms, made on demand
+	startedBy                            map[int][]solver.Atom  // startedBy[s][p]: started_by(S,P) atoms, made on demand
+	busy                                 map[int][]solver.Atom  // busy[staff][p]: busy(T,P) atoms, made on demand
+	itemsBySet                           map[int][]roomItem     // candidate meetings by room set id (roomItemsBySet)
+	travel                               *timetable.TravelIndex // travel times (travelMinutes), built on first use
+	stamp                                []int32                // stamp[s] == stampGen: section s seen in the current count
+	stampGen                             int32                  // current stamp
+	pat                                  patState               // pattern sections (pattern_unavail.go)
+	rel                                  relState               // pattern relations and limits (times_rel_rooms.go)
 }
 
 // newAtom makes an atom with a name and a meaning.

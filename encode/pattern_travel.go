@@ -7,6 +7,20 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
+// travelMinutes is the travel time between rooms a and c (indexes into
+// Term.Rooms).
+func (b *builder) travelMinutes(a, c int) int {
+	return b.travelIndex().Between(b.t.Rooms[a].ID, b.t.Rooms[c].ID)
+}
+
+// travelIndex is the term's travel index, built on first use.
+func (b *builder) travelIndex() *timetable.TravelIndex {
+	if b.travel == nil {
+		b.travel = timetable.NewTravelIndex(b.t)
+	}
+	return b.travel
+}
+
 // compilePatternTravel: a staff member or cohort never has two meetings of
 // pattern sections on a common day in a common week with less free time
 // between them than the travel time between their rooms (Term.Travel,
@@ -21,26 +35,11 @@ func (b *builder) compilePatternTravel() {
 	if !b.pat.any || len(t.Travel) == 0 {
 		return
 	}
-	maxT := 0
-	for _, tr := range t.Travel {
-		maxT = max(maxT, tr.Minutes)
-	}
+	maxT := b.travelIndex().Most()
 	if maxT <= 0 {
 		return
 	}
-	dist := map[[2]int]int{}
-	travel := func(a, c int) int {
-		if a > c {
-			a, c = c, a
-		}
-		k := [2]int{a, c}
-		if v, ok := dist[k]; ok {
-			return v
-		}
-		v := t.TravelMinutes(t.Rooms[a].ID, t.Rooms[c].ID)
-		dist[k] = v
-		return v
-	}
+	travel := b.travelMinutes
 	people := func(kind string, id string, src timetable.Source, name string, secs []int) {
 		var pats []int
 		for _, s := range secs {

@@ -143,7 +143,7 @@ func (b *builder) travelWays(secs []int) [][]solver.Lit {
 			var taus []int
 			for _, ra := range b.c.RoomCandidates(a) {
 				for _, rc := range b.c.RoomCandidates(c) {
-					tau := b.t.TravelMinutes(b.t.Rooms[ra].ID, b.t.Rooms[rc].ID)
+					tau := b.travelMinutes(ra, rc)
 					if tau <= 0 {
 						continue
 					}

@@ -19,11 +19,7 @@ func (b *builder) compileTravelScope() {
 	if len(t.Travel) == 0 {
 		return
 	}
-	most := 0
-	for _, tr := range t.Travel {
-		most = max(most, tr.Minutes)
-	}
-	if most <= 0 {
+	if b.travelIndex().Most() <= 0 {
 		return
 	}
 	named := 0

@@ -180,54 +180,6 @@ func chkInWeeks(t *Term, w WeekSet) string {
 	return " in weeks " + chkJoin(items)
 }
 
-// travelIndex answers Term.TravelMinutes in O(1): the largest Travel row
-// for each unordered pair of places, looked up for the rooms and their
-// buildings (the four pairings TravelMinutes's scan matches).
-type travelIndex struct {
-	t       *Term
-	x       *occupancy
-	minutes map[[2]string]int
-	most    int // the largest travel time of the term
-}
-
-func newTravelIndex(x *occupancy) *travelIndex {
-	ti := &travelIndex{t: x.t, x: x, minutes: make(map[[2]string]int, len(x.t.Travel))}
-	for _, tr := range x.t.Travel {
-		k := placePair(tr.From, tr.To)
-		ti.minutes[k] = max(ti.minutes[k], tr.Minutes)
-		ti.most = max(ti.most, tr.Minutes)
-	}
-	return ti
-}
-
-func placePair(a, b string) [2]string {
-	if b < a {
-		a, b = b, a
-	}
-	return [2]string{a, b}
-}
-
-// between is the travel time between rooms a and b, as TravelMinutes.
-func (ti *travelIndex) between(a, b string) int {
-	if a == "" || b == "" || a == b || len(ti.minutes) == 0 {
-		return 0
-	}
-	pa, pb := []string{a}, []string{b}
-	if ri, ok := ti.x.roomIdx[a]; ok && ti.t.Rooms[ri].Building != "" {
-		pa = append(pa, ti.t.Rooms[ri].Building)
-	}
-	if ri, ok := ti.x.roomIdx[b]; ok && ti.t.Rooms[ri].Building != "" {
-		pb = append(pb, ti.t.Rooms[ri].Building)
-	}
-	best := 0
-	for _, u := range pa {
-		for _, v := range pb {
-			best = max(best, ti.minutes[placePair(u, v)])
-		}
-	}
-	return best
-}
-
 // roomOfMeet is the room of a meet's placement.
 func (x *occupancy) roomOfMeet(m occMeet) string { return x.s.Placements[m.pl].Room }
 
@@ -240,7 +192,7 @@ func (c *checker) travel() {
 	if len(x.t.Travel) == 0 {
 		return
 	}
-	ti := newTravelIndex(x)
+	ti := newTravelIndexOnce(x)
 	for k := range x.t.Staff {
 		c.travelOf(ti, x.personMeets(x.byStaff[k], x.patStaff[k]), x.staffLabel(k), x.t.Staff[k].Src)
 	}
@@ -249,7 +201,7 @@ func (c *checker) travel() {
 	}
 }
 
-func (c *checker) travelOf(ti *travelIndex, ms []occMeet, label string, src Source) {
+func (c *checker) travelOf(ti *TravelIndex, ms []occMeet, label string, src Source) {
 	x := c.x
 	type pair struct{ i, j int }
 	seen := map[pair]bool{}
@@ -257,13 +209,13 @@ func (c *checker) travelOf(ti *travelIndex, ms []occMeet, label string, src Sour
 	for _, d := range weekOrder {
 		b := days[d]
 		for a := 0; a < len(b); a++ {
-			for k := a + 1; k < len(b) && b[k].Start < b[a].End+Clock(ti.most); k++ {
+			for k := a + 1; k < len(b) && b[k].Start < b[a].End+Clock(ti.Most()); k++ {
 				ma, mb := b[a], b[k]
 				if ma.pl == mb.pl || mb.Start < ma.End || !ma.Weeks.Overlaps(mb.Weeks) {
 					continue
 				}
 				ra, rb := x.roomOfMeet(ma), x.roomOfMeet(mb)
-				need := ti.between(ra, rb)
+				need := ti.Between(ra, rb)
 				gap := int(mb.Start - ma.End)
 				if gap >= need {
 					continue

@@ -277,10 +277,10 @@ func TestTravelIndexAgreesWithTravelMinutes(t *testing.T) {
 		for k := rng.IntN(6); k > 0; k-- {
 			tm.Travel = append(tm.Travel, Travel{From: places[rng.IntN(len(places))], To: places[rng.IntN(len(places))], Minutes: rng.IntN(30)})
 		}
-		ti := newTravelIndex(newOccupancy(tm, &Schedule{}))
+		ti := NewTravelIndex(tm)
 		for _, a := range []string{"R1", "R2", "R3", "R4", "", "R9"} {
 			for _, b := range []string{"R1", "R2", "R3", "R4", "", "R9"} {
-				require.Equal(t, tm.TravelMinutes(a, b), ti.between(a, b), "trial %d: %s to %s with %v", trial, a, b, tm.Travel)
+				require.Equal(t, tm.TravelMinutes(a, b), ti.Between(a, b), "trial %d: %s to %s with %v", trial, a, b, tm.Travel)
 			}
 		}
 	}

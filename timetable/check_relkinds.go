@@ -367,7 +367,7 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(func() string, ...in
 		note(func() string { return ida + " and " + idb + " never meet at a common time" }, both()...)
 		return
 	}
-	var ti *travelIndex
+	var ti *TravelIndex
 	if r.Kind == SamePeople {
 		ti = newTravelIndexOnce(x)
 	}
@@ -416,7 +416,7 @@ func (x *occupancy) relPair(r Relation, a, b int, note func(func() string, ...in
 					break
 				}
 				ra, rb := x.roomOfMeet(first), x.roomOfMeet(second)
-				if need := ti.between(ra, rb); gap < need {
+				if need := ti.Between(ra, rb); gap < need {
 					w = func() string {
 						return x.s.Placements[first.pl].Section + " ends at " + DayName(first.Day) + " " + first.End.String() + " in " + ra + " and " + x.s.Placements[second.pl].Section + " starts at " + second.Start.String() + " in " + rb + chkInWeeks(x.t, m.Weeks&n.Weeks) + ", but getting there takes " + chkMinutes(need)
 					}
@@ -456,9 +456,9 @@ func relAllWeeks(t *Term, w WeekSet) string {
 }
 
 // newTravelIndexOnce builds the travel index of x once.
-func newTravelIndexOnce(x *occupancy) *travelIndex {
+func newTravelIndexOnce(x *occupancy) *TravelIndex {
 	if x.travelIdx == nil {
-		x.travelIdx = newTravelIndex(x)
+		x.travelIdx = NewTravelIndex(x.t)
 	}
 	return x.travelIdx
 }

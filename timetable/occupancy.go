@@ -30,7 +30,7 @@ type occupancy struct {
 	meets     []occMeet    // occurrences of every valid placement, grid and pattern
 	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
 	hasPat    bool         // some valid placement is a pattern placement
-	travelIdx *travelIndex // built on first use
+	travelIdx *TravelIndex // built on first use
 	quiet     bool         // Cost: relations judged without sentences or placements
 	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
 
