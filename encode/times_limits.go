@@ -54,7 +54,7 @@ func (b *builder) personItems(id string, staff bool) (items []limItem, grid []in
 		grid = append(grid, s)
 		m := &b.c.secs[s]
 		for _, p := range m.starts {
-			occ := t.Occurrences(timetable.Placement{Section: sec.ID, Period: p, Meeting: 1})
+			occ := t.SectionOccurrences(sec, timetable.Placement{Section: sec.ID, Period: p, Meeting: 1})
 			if len(occ) == 0 {
 				continue
 			}

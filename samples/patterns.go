@@ -99,7 +99,7 @@ func witnessChoice(t *timetable.Term, s *timetable.Section, pls []timetable.Plac
 	}
 	var c timetable.TimeChoice
 	for i, pl := range pls {
-		occ := t.Occurrences(pl)
+		occ := t.SectionOccurrences(s, pl)
 		if len(occ) != 1 || pl.Room != pls[0].Room {
 			return c, false
 		}
@@ -195,7 +195,7 @@ func witnessTravel(t *timetable.Term, w *timetable.Schedule) []timetable.Travel 
 			continue
 		}
 		s := &t.Sections[secs[pl.Section]]
-		for _, o := range t.Occurrences(pl) {
+		for _, o := range t.SectionOccurrences(s, pl) {
 			for _, who := range append(prefixed("s:", s.Staff), prefixed("c:", s.Cohorts)...) {
 				if byWho[who] == nil {
 					order = append(order, who)
@@ -251,7 +251,7 @@ func limitWeekMinutes(t *timetable.Term, w *timetable.Schedule, rng *rand.Rand) 
 	busiest := map[string]*[64]int{}
 	for _, pl := range w.Placements {
 		s := &t.Sections[secs[pl.Section]]
-		for _, o := range t.Occurrences(pl) {
+		for _, o := range t.SectionOccurrences(s, pl) {
 			for _, id := range s.Staff {
 				if busiest[id] == nil {
 					busiest[id] = new([64]int)

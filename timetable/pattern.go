@@ -143,12 +143,20 @@ func (o Occurrence) Overlaps(p Occurrence) bool {
 // per day of its chosen pattern, or the one grid meeting from its start
 // period over the section's Length periods. It returns nil when the placement
 // does not name a known section and a valid choice or period run.
+//
+// It finds the section by a scan; callers that walk a whole schedule and
+// have the section at hand call SectionOccurrences.
 func (t *Term) Occurrences(pl Placement) []Occurrence {
 	si, ok := t.sectionAt(pl.Section)
 	if !ok {
 		return nil
 	}
-	s := &t.Sections[si]
+	return t.SectionOccurrences(&t.Sections[si], pl)
+}
+
+// SectionOccurrences is Occurrences for a placement of section s (one of
+// t.Sections).
+func (t *Term) SectionOccurrences(s *Section, pl Placement) []Occurrence {
 	if s.UsesTimes() {
 		if pl.Time < 1 || pl.Time > len(s.Times) {
 			return nil

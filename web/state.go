@@ -128,7 +128,7 @@ func meetingsOf(t *timetable.Term, s *timetable.Schedule, locks map[meetingKey]b
 		if weeks != 0 && weeks != t.AllWeeks() {
 			m.Weeks = weeksText(weeks)
 		}
-		for _, o := range t.Occurrences(p) {
+		for _, o := range t.SectionOccurrences(&sec, p) {
 			m.Occ = append(m.Occ, occJSON{timetable.DayName(o.Day), int(o.Start), int(o.End)})
 		}
 		out = append(out, m)
