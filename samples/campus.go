@@ -21,7 +21,7 @@ const (
 const CampusInstitution = "Vellmoor University"
 
 // Campus returns the second demo term: Vellmoor University's spring term,
-// scheduled by meeting patterns instead of a period grid. Lectures meet
+// scheduled by meeting patterns instead of a period grid. Main classes meet
 // Mon Wed Fri for 50 minutes or Tue Thu for 75 minutes; labs meet every
 // other week; one intensive course runs in weeks 3 to 6 only. Sections list
 // their acceptable rooms with preferences; the Town campus and the Cray Hill
@@ -39,7 +39,7 @@ func Campus() *timetable.Term {
 	campusRooms(t)
 	campusPeople(t)
 	c := &campusBuilder{t: t, all: all}
-	c.lectures()
+	c.mainClasses()
 	c.labs(odd, all&^odd)
 	c.block()
 	c.online()
@@ -158,7 +158,8 @@ func pick(id string, weight int) timetable.RoomChoice {
 	return timetable.RoomChoice{Room: id, Weight: weight}
 }
 
-func (c *campusBuilder) lectures() {
+// mainClasses adds the sections that meet two or three times a week.
+func (c *campusBuilder) mainClasses() {
 	a := c.all
 	proj := []string{"projector"}
 	c.add("BIO101-L", "Cells and Organisms", "VU-01", "BIO-1", 80, proj,
@@ -240,13 +241,13 @@ func campusRelations(t *timetable.Term) {
 	t.Relations = []timetable.Relation{
 		// The two Calculus sections run in parallel at one start time.
 		{Kind: timetable.SameStart, Sections: []string{"MTH110-A", "MTH110-B"}, Hard: true},
-		// Each lab group meets after the week's first lecture.
+		// Each lab group meets after the week's first main class.
 		{Kind: timetable.FirstBefore, Sections: []string{"BIO101-L", "BIO101-LAB-1"}, Weight: 3},
 		// The two lab groups alternate weeks and so never share a week.
 		{Kind: timetable.DifferentWeeks, Sections: []string{"CHM101-LAB-1", "CHM101-LAB-2"}, Hard: true},
-		// Second-year biology keeps its lecture days within three days.
+		// Second-year biology keeps its main classes within three days.
 		{Kind: timetable.MaxDays, Sections: []string{"BIO201-L", "BIO202-L"}, Weight: 2, N: 3},
-		// A quarter of an hour between the history lecture and seminar.
+		// A quarter of an hour between the history class and its seminar.
 		{Kind: timetable.MinGap, Sections: []string{"HIS201-L", "HIS202-S"}, Hard: true, N: 15},
 		// Fine Art's teaching day spans at most six hours.
 		{Kind: timetable.DaySpan, Sections: []string{"ART101-L", "ART102-L"}, Weight: 1, N: 360},

@@ -15,7 +15,7 @@ import (
 // valid term (no errors, no warnings).
 func patternSheets(t testing.TB) []testSheet {
 	return applyEdits(t, goodSheets(),
-		e("Sections", "A6", "SEC-5"), e("Sections", "B6", "Patterned Lecture"), e("Sections", "C6", "S-2"),
+		e("Sections", "A6", "SEC-5"), e("Sections", "B6", "Patterned Class"), e("Sections", "C6", "S-2"),
 		e("Sections", "D6", "C-2"), e("Sections", "E6", "30"), e("Sections", "H6", "projector"),
 		e("Meeting times", "A1", "Section"), e("Meeting times", "B1", "Days"), e("Meeting times", "C1", "Start"),
 		e("Meeting times", "D1", "Minutes"), e("Meeting times", "E1", "Weeks"), e("Meeting times", "F1", "Weight"),

@@ -21,7 +21,7 @@ import (
 func mixedTerm() *timetable.Term {
 	t := handTerm()
 	t.Sections = append(t.Sections, timetable.Section{
-		ID: "PAT-1", Title: "Patterned Lecture", Staff: []string{"S-1002"}, Size: 30, Meetings: 1, Length: 1,
+		ID: "PAT-1", Title: "Patterned Class", Staff: []string{"S-1002"}, Size: 30, Meetings: 1, Length: 1,
 		Weeks: t.AllWeeks(),
 		Times: []timetable.TimeChoice{
 			{Days: timetable.DaysOf(time.Monday, time.Wednesday, time.Friday), Start: 8*60 + 5, Minutes: 50, Weeks: t.AllWeeks()},
