@@ -14,8 +14,9 @@ import (
 	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
-// itc2019Dir holds the public ITC-2019 instances (read from there only).
-const itc2019Dir = "/work/shared/data/itc2019"
+// itc2019Dir holds the public ITC-2019 instances (read from there only;
+// "" when absent, and the tests and benchmarks that need them skip).
+var itc2019Dir = benchfmt.DataDir("itc2019", ".xml")
 
 // BenchmarkITC2019 compiles and solves every public ITC-2019 instance in
 // itc2019Dir (skipped when absent) to a first timetable within 5 minutes:
@@ -117,4 +118,21 @@ func peakRSS() int64 {
 		}
 	}
 	return 0
+}
+
+// readSmallITC2019 reads one shared instance by name into a term,
+// skipping the test when the instances are absent.
+func readSmallITC2019(t *testing.T, name string) *timetable.Term {
+	t.Helper()
+	f := filepath.Join(itc2019Dir, name+".xml")
+	fh, err := os.Open(f)
+	if itc2019Dir == "" || err != nil {
+		t.Skip("no ITC-2019 instances in " + itc2019Dir)
+	}
+	defer fh.Close()
+	in, err := benchfmt.ReadXML(fh, f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return in.Term()
 }

@@ -1,15 +1,12 @@
 package encode
 
 import (
-	"os"
-	"path/filepath"
 	"sort"
 	"strings"
 	"testing"
 	"time"
 
 	"github.com/termwright/termwright/solver"
-	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 // TestITC2019Sizes compiles the four small public ITC-2019 instances
@@ -20,17 +17,7 @@ import (
 // choices per section.)
 func TestITC2019Sizes(t *testing.T) {
 	for _, name := range []string{"bet-sum18", "lums-sum17", "pu-cs-fal07", "wbg-fal10"} {
-		f := filepath.Join(itc2019Dir, name+".xml")
-		fh, err := os.Open(f)
-		if err != nil {
-			t.Skip("no ITC-2019 instances in " + itc2019Dir)
-		}
-		in, err := benchfmt.ReadXML(fh, f)
-		fh.Close()
-		if err != nil {
-			t.Fatal(err)
-		}
-		tm := in.Term()
+		tm := readSmallITC2019(t, name)
 		t0 := time.Now()
 		p, cat, err := Compile(tm, Options{HardOnly: true})
 		if err != nil {

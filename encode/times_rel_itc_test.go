@@ -1,12 +1,9 @@
 package encode
 
 import (
-	"os"
-	"path/filepath"
 	"testing"
 	"time"
 
-	"github.com/termwright/termwright/timetable/benchfmt"
 )
 
 // TestITC2019RelationSizes compiles the four small public ITC-2019
@@ -17,17 +14,7 @@ import (
 // statements on average (our limit for "near-linear", DESIGN.md).
 func TestITC2019RelationSizes(t *testing.T) {
 	for _, name := range []string{"bet-sum18", "lums-sum17", "pu-cs-fal07", "wbg-fal10"} {
-		f := filepath.Join(itc2019Dir, name+".xml")
-		fh, err := os.Open(f)
-		if err != nil {
-			t.Skip("no ITC-2019 instances in " + itc2019Dir)
-		}
-		in, err := benchfmt.ReadXML(fh, f)
-		fh.Close()
-		if err != nil {
-			t.Fatal(err)
-		}
-		tm := in.Term()
+		tm := readSmallITC2019(t, name)
 		kinds := map[string]int{}
 		hard := 0
 		for _, r := range tm.Relations {

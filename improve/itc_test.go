@@ -19,24 +19,8 @@ import (
 )
 
 // itcDir is the shared ITC-2007 folder (never copied into the
-// repository): shared/data/itc2007 in the nearest directory above this
-// package that has it, as timetable's tests find it ("../shared/data/itc2007"
-// from a checkout beside the shared folder); "" when absent.
-var itcDir = func() string {
-	wd, err := os.Getwd()
-	if err != nil {
-		return ""
-	}
-	for dir := wd; ; dir = filepath.Dir(dir) {
-		d := filepath.Join(dir, "shared", "data", "itc2007")
-		if _, err := os.Stat(filepath.Join(d, "best-known.csv")); err == nil {
-			return d
-		}
-		if filepath.Dir(dir) == dir {
-			return ""
-		}
-	}
-}()
+// repository), found as benchfmt's tests find it; "" when absent.
+var itcDir = benchfmt.DataDir("itc2007", ".ctt")
 
 // itcInstances are the public competition instances measured.
 var itcInstances = []string{"comp01", "comp02", "comp03", "comp04", "comp05", "comp06", "comp07"}

@@ -28,26 +28,7 @@ func itcDataDir(t testing.TB) string {
 }
 
 // itcDataDirOrEmpty is itcDataDir without skipping: "" when absent.
-func itcDataDirOrEmpty() string {
-	var tries []string
-	if d := os.Getenv("TERMWRIGHT_DATA"); d != "" {
-		tries = append(tries, filepath.Join(d, "itc2007"), d)
-	}
-	if wd, err := os.Getwd(); err == nil {
-		for dir := wd; ; dir = filepath.Dir(dir) {
-			tries = append(tries, filepath.Join(dir, "shared", "data", "itc2007"))
-			if filepath.Dir(dir) == dir {
-				break
-			}
-		}
-	}
-	for _, d := range tries {
-		if m, _ := filepath.Glob(filepath.Join(d, "*.ctt")); len(m) > 0 {
-			return d
-		}
-	}
-	return ""
-}
+func itcDataDirOrEmpty() string { return DataDir("itc2007", ".ctt") }
 
 // readShared reads one shared instance by name ("comp01").
 func readShared(t testing.TB, dir, name string) *timetable.Term {

@@ -14,22 +14,8 @@ import (
 // when absent.
 func xmlDataDir(t testing.TB) string {
 	t.Helper()
-	var tries []string
-	if d := os.Getenv("TERMWRIGHT_DATA"); d != "" {
-		tries = append(tries, filepath.Join(d, "itc2019"), d)
-	}
-	if wd, err := os.Getwd(); err == nil {
-		for dir := wd; ; dir = filepath.Dir(dir) {
-			tries = append(tries, filepath.Join(dir, "shared", "data", "itc2019"))
-			if filepath.Dir(dir) == dir {
-				break
-			}
-		}
-	}
-	for _, d := range tries {
-		if m, _ := filepath.Glob(filepath.Join(d, "*.xml")); len(m) > 0 {
-			return d
-		}
+	if d := DataDir("itc2019", ".xml"); d != "" {
+		return d
 	}
 	t.Skip("ITC-2019 instances not found (set TERMWRIGHT_DATA or place them in ../shared/data/itc2019)")
 	return ""
