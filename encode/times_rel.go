@@ -62,7 +62,7 @@ func init() {
 // timesRelation reports whether relation row rel is stated by this file
 // (and so skipped by relations.go and soft_relations.go).
 func (b *builder) timesRelation(rel *timetable.Relation) bool {
-	if rel.Kind >= timetable.SameStart {
+	if !rel.Kind.OnGrid() {
 		return true
 	}
 	for _, id := range rel.Sections {

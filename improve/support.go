@@ -44,7 +44,7 @@ func Unsupported(t *timetable.Term) string {
 		}
 	}
 	for _, r := range t.Relations {
-		if r.Kind > timetable.SameRoom {
+		if !r.Kind.OnGrid() {
 			return fmt.Sprintf("the term has %q relations", r.Kind)
 		}
 	}

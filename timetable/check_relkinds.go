@@ -43,7 +43,7 @@ const relMaxReasons = 3
 func (x *occupancy) relationJudge(r Relation) (why string, pls []int, count, div int64) {
 	ordered := r.Kind == Before || r.Kind == BackToBack || r.Kind == FirstBefore
 	secs := x.relSections(r, !ordered)
-	if r.Kind <= SameRoom && !x.relUsesTimes(secs) {
+	if r.Kind.OnGrid() && !x.relUsesTimes(secs) {
 		w, ps := x.relationBroken(r)
 		if w == "" {
 			return "", nil, 0, 1

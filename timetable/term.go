@@ -268,6 +268,11 @@ var RelationKinds = []struct {
 	{MaxBlock, "longest block"},
 }
 
+// OnGrid reports whether the kind is one of the first seven, defined on the
+// period grid (the others are defined on meetings by clock time). The zero
+// kind, which Validate refuses, counts as a grid kind.
+func (k RelationKind) OnGrid() bool { return k <= SameRoom }
+
 // Counted reports whether a soft relation of this kind costs its weight
 // times a count (see the kind's definition) rather than once.
 func (k RelationKind) Counted() bool {
