@@ -112,17 +112,7 @@ func meetingsFromCells(sheet string, rows [][]string, lines []int) ([]Meeting, P
 	var blank []int
 	for r := 1; r < len(rows); r++ {
 		row, line := rows[r], lines[r]
-		cell := func(name string) (string, Position) {
-			i, ok := col[name]
-			if !ok {
-				return "", Position{}
-			}
-			v := ""
-			if i < len(row) {
-				v = strings.TrimSpace(row[i])
-			}
-			return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
-		}
+		cell := schedCell(sheet, col, row, line)
 		m, isBlank, ok := meetingRow(cell, &ps)
 		if !ok {
 			continue

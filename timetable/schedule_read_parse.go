@@ -40,17 +40,7 @@ func schedParse(t *Term, sheet string, rows [][]string, lines []int) (*Schedule,
 	var blankMeeting []int // placements whose Meeting cell was blank
 	for r := 1; r < len(rows); r++ {
 		row, line := rows[r], lines[r]
-		cell := func(name string) (string, Position) {
-			i, ok := col[name]
-			if !ok {
-				return "", Position{}
-			}
-			v := ""
-			if i < len(row) {
-				v = strings.TrimSpace(row[i])
-			}
-			return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
-		}
+		cell := schedCell(sheet, col, row, line)
 		p, blank, ok := schedRow(t, periods, secs, cell, &ps)
 		if !ok {
 			continue
@@ -297,4 +287,21 @@ func schedColLetter(i int) string {
 		b = append([]byte{byte('A' + (i-1)%26)}, b...)
 	}
 	return string(b)
+}
+
+// schedCell reads the cells of one timetable row by header name: the
+// trimmed value and its position, or "" and the zero Position when the
+// sheet has no such column.
+func schedCell(sheet string, col map[string]int, row []string, line int) func(string) (string, Position) {
+	return func(name string) (string, Position) {
+		i, ok := col[name]
+		if !ok {
+			return "", Position{}
+		}
+		v := ""
+		if i < len(row) {
+			v = strings.TrimSpace(row[i])
+		}
+		return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
+	}
 }
