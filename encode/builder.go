@@ -30,6 +30,7 @@ type builder struct {
 	busy                                 map[int][]solver.Atom  // busy[staff][p]: busy(T,P) atoms, made on demand
 	itemsBySet                           map[int][]roomItem     // candidate meetings by room set id (roomItemsBySet)
 	travel                               *timetable.TravelIndex // travel times (travelMinutes), built on first use
+	staffSecs, cohortSecs                [][]int                // peopleSections, built on first use
 	stamp                                []int32                // stamp[s] == stampGen: section s seen in the current count
 	stampGen                             int32                  // current stamp
 	pat                                  patState               // pattern sections (pattern_unavail.go)

@@ -20,23 +20,8 @@ func (b *builder) compilePatternNoOverlap() {
 		return
 	}
 	t := b.t
-	staffSecs := make([][]int, len(t.Staff))
-	cohortSecs := make([][]int, len(t.Cohorts))
-	staffPat := make([]bool, len(t.Staff))
-	cohortPat := make([]bool, len(t.Cohorts))
-	for s, sec := range t.Sections {
-		on := b.c.pats[s].on
-		for _, id := range uniq(sec.Staff) {
-			i := b.staffIdx[id]
-			staffSecs[i] = append(staffSecs[i], s)
-			staffPat[i] = staffPat[i] || on
-		}
-		for _, id := range uniq(sec.Cohorts) {
-			i := b.cohortIdx[id]
-			cohortSecs[i] = append(cohortSecs[i], s)
-			cohortPat[i] = cohortPat[i] || on
-		}
-	}
+	staffSecs, cohortSecs := b.peopleSections()
+	staffPat, cohortPat := b.anyPattern(staffSecs), b.anyPattern(cohortSecs)
 	for i, secs := range staffSecs {
 		if len(secs) < 2 || !staffPat[i] {
 			continue
@@ -200,4 +185,16 @@ func (b *builder) cliqueBoundsOf(occ []interval, cliques [][]int, room, g int, k
 			b.bound(lits, solver.NoBound, 1, sel)
 		}
 	}
+}
+
+// anyPattern reports, per list of sections, whether one of them is a
+// pattern section.
+func (b *builder) anyPattern(lists [][]int) []bool {
+	out := make([]bool, len(lists))
+	for i, secs := range lists {
+		for _, s := range secs {
+			out[i] = out[i] || b.c.pats[s].on
+		}
+	}
+	return out
 }

@@ -83,16 +83,7 @@ func (b *builder) compilePatternTravel() {
 			}
 		}
 	}
-	staffSecs := make([][]int, len(t.Staff))
-	cohortSecs := make([][]int, len(t.Cohorts))
-	for s, sec := range t.Sections {
-		for _, id := range uniq(sec.Staff) {
-			staffSecs[b.staffIdx[id]] = append(staffSecs[b.staffIdx[id]], s)
-		}
-		for _, id := range uniq(sec.Cohorts) {
-			cohortSecs[b.cohortIdx[id]] = append(cohortSecs[b.cohortIdx[id]], s)
-		}
-	}
+	staffSecs, cohortSecs := b.peopleSections()
 	for i, secs := range staffSecs {
 		st := &t.Staff[i]
 		people(KindStaffTravel, st.ID, st.Src, "staff "+staffName(st), secs)

@@ -7,24 +7,36 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
+// peopleSections lists, per staff member and per cohort (indexes into
+// Term.Staff and Term.Cohorts), the sections they teach or attend, each
+// once, in section order. It is built once per compilation; callers must
+// not change the lists.
+func (b *builder) peopleSections() (staff, cohorts [][]int) {
+	if b.staffSecs == nil {
+		t := b.t
+		b.staffSecs = make([][]int, len(t.Staff))
+		b.cohortSecs = make([][]int, len(t.Cohorts))
+		for s, sec := range t.Sections {
+			for _, id := range uniq(sec.Staff) {
+				i := b.staffIdx[id]
+				b.staffSecs[i] = append(b.staffSecs[i], s)
+			}
+			for _, id := range uniq(sec.Cohorts) {
+				i := b.cohortIdx[id]
+				b.cohortSecs[i] = append(b.cohortSecs[i], s)
+			}
+		}
+	}
+	return b.staffSecs, b.cohortSecs
+}
+
 // compileNoOverlap: no staff member or cohort is in two meetings that
 // occupy a common period in overlapping weeks: for each of them, each
 // period and each week scope, at most one of the start atoms covering the
 // period (one bound over start literals; never pairwise clauses).
 func (b *builder) compileNoOverlap() {
 	t := b.t
-	staffSecs := make([][]int, len(t.Staff))
-	cohortSecs := make([][]int, len(t.Cohorts))
-	for s, sec := range t.Sections {
-		for _, id := range uniq(sec.Staff) {
-			i := b.staffIdx[id]
-			staffSecs[i] = append(staffSecs[i], s)
-		}
-		for _, id := range uniq(sec.Cohorts) {
-			i := b.cohortIdx[id]
-			cohortSecs[i] = append(cohortSecs[i], s)
-		}
-	}
+	staffSecs, cohortSecs := b.peopleSections()
 	for i, secs := range staffSecs {
 		if len(secs) < 2 {
 			continue

@@ -44,20 +44,7 @@ func (b *builder) compileTravelScope() {
 		}
 		b.errorf(t.Travel[0].Src, "travel times are kept between sections with meeting times only, but %s %s teaches or attends grid section %s (%s) and other sections in rooms — give %s's sections meeting times on the Meeting times sheet, or remove the travel rows", kind, id, t.Sections[grid].ID, t.Sections[grid].Src, id)
 	}
-	bySt := make([][]int, len(t.Staff))
-	byCo := make([][]int, len(t.Cohorts))
-	for s := range t.Sections {
-		for _, id := range t.Sections[s].Staff {
-			if k, ok := b.staffIdx[id]; ok {
-				bySt[k] = append(bySt[k], s)
-			}
-		}
-		for _, id := range t.Sections[s].Cohorts {
-			if k, ok := b.cohortIdx[id]; ok {
-				byCo[k] = append(byCo[k], s)
-			}
-		}
-	}
+	bySt, byCo := b.peopleSections()
 	for k := range t.Staff {
 		check("staff", t.Staff[k].ID, bySt[k])
 	}
