@@ -3,7 +3,6 @@ package encode
 import (
 	"testing"
 	"time"
-
 )
 
 // TestITC2019RelationSizes compiles the four small public ITC-2019
