@@ -6,6 +6,7 @@ import (
 	"path/filepath"
 	"runtime"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -26,8 +27,13 @@ func TestWriteOutputRemovesStaleTemps(t *testing.T) {
 	live := filepath.Join(dir, ".timetable.xlsx.999.tmp")
 	other := filepath.Join(dir, ".notes.xlsx.1.tmp")
 	mine := filepath.Join(dir, "timetable.xlsx.tmp")
-	for _, p := range []string{stale, probe, live, other, mine} {
+	young := filepath.Join(dir, ".timetable.xlsx.4242.tmp") // created, not yet locked
+	old := time.Now().Add(-2 * staleAfter)
+	for _, p := range []string{stale, probe, live, other, mine, young} {
 		require.NoError(t, os.WriteFile(p, []byte("x"), 0o644))
+		if p != young {
+			require.NoError(t, os.Chtimes(p, old, old))
+		}
 	}
 	release, held, err := export.TryLock(live) // a run that is still writing
 	require.NoError(t, err)
@@ -41,6 +47,7 @@ func TestWriteOutputRemovesStaleTemps(t *testing.T) {
 	assert.NoFileExists(t, stale, "a killed run's temporary file")
 	assert.NoFileExists(t, probe, "a killed run's probe file")
 	assert.FileExists(t, live, "a live run's file is held")
+	assert.FileExists(t, young, "a file just created may not be locked yet")
 	assert.FileExists(t, other, "another output's file is not ours to remove")
 	assert.FileExists(t, mine, "a user's file that merely looks alike")
 	data, err := os.ReadFile(out)
