@@ -28,6 +28,8 @@ const (
 	cSoftRel
 	cTimeChoice // always 0: terms with meeting times are refused (support.go)
 	cRoomChoice // always 0: terms with room choices are refused
+	cUnplaced   // always 0 here: students are sectioned after the timetable
+	cMovedStudents
 	nCrit
 )
 
@@ -38,7 +40,8 @@ var critNames = [nCrit]string{
 	timetable.CritCohortIsolated, timetable.CritSpreadDays, timetable.CritRoomStability,
 	timetable.CritOverCapacity, timetable.CritWastedSeats, timetable.CritTravel,
 	timetable.CritEarly, timetable.CritLate, timetable.CritSoftRelations,
-	timetable.CritTimeChoice, timetable.CritRoomChoice,
+	timetable.CritTimeChoice, timetable.CritRoomChoice, timetable.CritUnplaced,
+	timetable.CritMovedStudents,
 }
 
 // tally is a cost in criterion units: u the raw units, w the row-weighted

@@ -32,6 +32,8 @@ const (
 	CritSoftRelations  = "soft relations"
 	CritTimeChoice     = "time choice"
 	CritRoomChoice     = "room choice"
+	CritUnplaced       = "unplaced requests"
+	CritMovedStudents  = "moved students"
 )
 
 // Criteria lists every soft criterion with its defaults. Unless a
@@ -40,7 +42,7 @@ const (
 // period p; "day" means the periods of one weekday in grid order.
 var Criteria = []Criterion{
 	{CritMoved, 1, 3, "per meeting of the kept timetable (--keep) that no meeting of its section holds any more at its day, start time and room (for a pattern section: its meeting time and room; meetings a section no longer has count too)"},
-	{CritStudentClash, 1, 2, "per student, per pair of that student's enrolled sections whose week sets overlap, per period both occupy; when either section uses meeting patterns, 1 per student for the pair when some meetings of the two share a minute of a common day in a common week"},
+	{CritStudentClash, 1, 2, "per student, per pair of that student's sections (fixed and sectioned enrolments) whose week sets overlap, per period both occupy; when either section uses meeting patterns, 1 per student for the pair when some meetings of the two share a minute of a common day in a common week, or meet on a common day in a common week with less free time between them than the travel time between their rooms"},
 	{CritAvoidTimes, 1, 1, "for each soft Unavailable row (weight w), w per occupied period of a grid meeting involving its staff/room/cohort/section that overlaps the row's time, and w per day of a chosen meeting pattern involving them that overlaps it; a row naming weeks counts only meetings in a common week; the criterion weight multiplies w"},
 	{CritStaffGaps, 1, 1, "per staff member and day, number of periods not busy that lie between their first and last busy period of that day (grid meetings only: pattern meetings occupy no periods)"},
 	{CritStaffDays, 0, 1, "per staff member, number of days with at least one busy period (grid meetings only)"},
@@ -56,6 +58,8 @@ var Criteria = []Criterion{
 	{CritSoftRelations, 1, 1, "for each soft Relation row (weight w), w when the relation is broken, once however many pairs break it (for the counted kinds at most days, at most minutes a day, at most breaks and longest block: the cost the kind defines); the criterion weight multiplies w"},
 	{CritTimeChoice, 1, 1, "per pattern section, the Weight of its chosen meeting time; the criterion weight multiplies it"},
 	{CritRoomChoice, 1, 1, "per meeting of a section with room choices (a pattern section's one placement counts once), the Weight of its room; the criterion weight multiplies it"},
+	{CritUnplaced, 1, 4, "per course request (Term.Requests) for which the student is placed neither in its course nor in any of its alternatives"},
+	{CritMovedStudents, 1, 3, "per sectioned enrolment (student, section) of the kept timetable (--keep) whose student is still placed in that section's course but no longer in that section"},
 }
 
 // CriterionWeight returns the weight and level of criterion name for term t:

@@ -15,6 +15,10 @@ type Placement struct {
 // and exactly one (Meeting 1, Period -1, Time set) for every pattern section.
 type Schedule struct {
 	Placements []Placement
+	// Enrolments are the students the sectioner placed (each names a
+	// section with a Course); Term.Enrolments, the fixed ones, are not
+	// repeated here. Empty when the term has no Requests.
+	Enrolments []Enrolment
 }
 
 // Timetable sheet layout shared by the writer (export) and the reader

@@ -143,6 +143,16 @@ type Section struct {
 	// their preference penalties (it replaces Rooms; capacity and features
 	// still hold). Empty means Rooms / any room that fits.
 	RoomChoices []RoomChoice
+	// Sectioning: students ask for courses (Term.Requests) and the
+	// sectioner places each in one section of every part of one
+	// arrangement of the course (see Term.Courses and the seating rule
+	// there). Empty Course: the section is not requested (its students
+	// come from Enrolments and Cohorts).
+	Course      string // the course this section teaches, as students request it
+	Arrangement string // the course's arrangement of parts it belongs to; "" = the course's only arrangement
+	Part        string // its part of the arrangement (e.g. "Lab"); "" = the arrangement's only part
+	Parent      string // a section every student of this one also attends ("" none): same course and arrangement, another part
+	Limit       int    // most students in it, fixed enrolments included; 0 = Size
 	Src         Source
 }
 
@@ -317,6 +327,18 @@ type Enrolment struct {
 	Src     Source
 }
 
+// Request is one student's request for a course. It is met when the
+// student is placed in Course or, failing that, in one of Alternatives.
+type Request struct {
+	Student      string
+	Course       string
+	Alternatives []string // courses taken instead, most wanted first, when Course cannot be placed
+	// Priority orders who gets scarce places first: 1 is the most
+	// important; 0 (not given) comes after every number.
+	Priority int
+	Src      Source
+}
+
 // Term is one academic term: everything needed to build and judge a
 // timetable. Readers return a validated Term; code that builds a Term by hand
 // should call Validate.
@@ -331,7 +353,8 @@ type Term struct {
 	Staff       []Staff
 	Cohorts     []Cohort
 	Sections    []Section
-	Enrolments  []Enrolment
+	Enrolments  []Enrolment // students fixed to sections (never moved by the sectioner)
+	Requests    []Request   // students' course requests, placed by the sectioner
 	Unavailable []Unavailability
 	Relations   []Relation
 	// Travel holds travel times between rooms or buildings. Staff and
