@@ -29,5 +29,15 @@ type Schedule struct {
 // name the chosen meeting time.
 var TimetableColumns = []string{"Section", "Title", "Meeting", "Day", "Start", "End", "Room", "Staff", "Cohorts", "Weeks", "Staff names"}
 
+// ClassListSheet is the sheet of a timetable workbook that lists the
+// sectioned students (Schedule.Enrolments), one row per student and
+// section, with ClassListColumns in this order. Course, Part and Title are
+// for people; the reader keys on Section and Student. Fixed enrolments
+// (Term.Enrolments) are term data and are not listed here.
+const ClassListSheet = "Class lists"
+
+// ClassListColumns are the headers of the class-list sheet and CSV file.
+var ClassListColumns = []string{"Section", "Course", "Part", "Title", "Student"}
+
 // TimetableSheet is the name of the master sheet of a timetable workbook.
 const TimetableSheet = "Timetable"
