@@ -166,7 +166,7 @@ func (c *checker) seatParts(st *seatIndex, k int, ci int32, group []seatItem) {
 			for _, si := range part.Sections {
 				ids = append(ids, t.Sections[si].ID)
 			}
-			c.add(RuleSeating, true, nil, srcs(), name+" takes course "+course.ID+" but no section of its "+seatPartName(part.ID)+" (one of "+seatList(ids)+")")
+			c.add(RuleSeating, true, nil, srcs(), name+" takes course "+course.ID+" but no section of its "+seatPartName(part.ID)+" ("+seatList(ids)+")")
 		case len(held) > 1:
 			c.add(RuleSeating, true, nil, srcs(), name+" holds "+itoa(len(held))+" sections of the "+seatPartName(part.ID)+" of course "+course.ID+" ("+chkJoin(held)+"); a student takes one")
 		}
@@ -289,10 +289,10 @@ func seatPartName(id string) string {
 	return "part " + id
 }
 
-// seatList is "A", "A or B", "A, B or C".
+// seatList is "section A", "one of A or B", "one of A, B or C".
 func seatList(ids []string) string {
 	if len(ids) <= 1 {
-		return strings.Join(ids, "")
+		return "section " + strings.Join(ids, "")
 	}
-	return strings.Join(ids[:len(ids)-1], ", ") + " or " + ids[len(ids)-1]
+	return "one of " + strings.Join(ids[:len(ids)-1], ", ") + " or " + ids[len(ids)-1]
 }
