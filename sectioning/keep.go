@@ -61,7 +61,7 @@ func (p *problem) moves(keep *timetable.Schedule) []Move {
 	}
 	type key struct {
 		student, course string
-		part          int32
+		part            int32
 	}
 	from := map[key]string{}
 	for _, e := range keep.Enrolments {
@@ -108,4 +108,3 @@ func (p *problem) moves(keep *timetable.Schedule) []Move {
 	})
 	return out
 }
-
