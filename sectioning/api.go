@@ -43,6 +43,15 @@ type Move struct {
 // and every seating rule. It stops early, with the best sectioning so far,
 // when ctx ends.
 func Section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt Options) (*Result, error) {
+	return section(ctx, t, s, opt, config{exact: true})
+}
+
+// config holds switches the tests use to reach one phase alone.
+type config struct {
+	exact bool // search small terms exhaustively after the heuristic
+}
+
+func section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt Options, cfg config) (*Result, error) {
 	if t == nil || s == nil {
 		return nil, errors.New("sectioning: a term and a finished timetable are needed")
 	}
@@ -56,5 +65,8 @@ func Section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt 
 	p.seatKept(sr)
 	p.greedy(sr, rng, rep)
 	p.improve(ctx, sr, rep, rng)
+	if cfg.exact {
+		p.exact(ctx)
+	}
 	return p.result(opt.Keep), nil
 }

@@ -2,6 +2,7 @@ package sectioning
 
 import (
 	"fmt"
+	"slices"
 	"math/rand/v2"
 	"time"
 
@@ -112,7 +113,7 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			demand[c]++
 			if g.alternatives && rng.IntN(3) == 0 {
 				alt := rng.IntN(g.courses)
-				if alt != c {
+				if !slices.Contains(picked, alt) {
 					r.Alternatives = []string{fmt.Sprintf("C%03d", alt)}
 				}
 			}
