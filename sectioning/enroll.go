@@ -51,6 +51,7 @@ type searcher struct {
 	nodes  int
 	keptC  []int32
 	arrOf  int32
+	others []int32 // scratch for callers building a query's others
 }
 
 func newSearcher(p *problem) *searcher { return &searcher{p: p} }

@@ -2,8 +2,8 @@ package sectioning
 
 import (
 	"fmt"
-	"slices"
 	"math/rand/v2"
+	"slices"
 	"time"
 
 	"github.com/termwright/termwright/timetable"
@@ -66,6 +66,10 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 					pid = []string{"Lecture", "Lab", "Tutorial", "Seminar"}[pt%4] + fmt.Sprint(pt/4+1)
 				}
 				nSec := 1 + rng.IntN(g.maxSections)
+				child := g.parents && pt > 0 && len(first) > 0
+				if child { // every parent gets one or two children in this part
+					nSec = len(first) * (1 + rng.IntN(2))
+				}
 				var secs []int
 				for k := 0; k < nSec; k++ {
 					sec := timetable.Section{
@@ -73,8 +77,8 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 						Size: 1, Meetings: 1, Length: 1, NoRoom: true, Weeks: all,
 						Course: cid, Arrangement: aid, Part: pid,
 					}
-					if g.parents && pt > 0 && len(first) > 0 {
-						sec.Parent = t.Sections[first[rng.IntN(len(first))]].ID
+					if child {
+						sec.Parent = t.Sections[first[k%len(first)]].ID
 					}
 					si := len(t.Sections)
 					if pattern {
@@ -124,12 +128,27 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			t.Requests = append(t.Requests, r)
 		}
 	}
+	// limits: the first part of an arrangement shares the course's demand
+	// times slack; a child section shares its parent's limit with its
+	// siblings (parents come first in cps)
+	idx := t.SectionIndex()
 	for c, cps := range coursesParts {
 		for _, pr := range cps {
 			lim := int(demand[c]*g.slack/float64(len(pr.secs)) + 0.999)
 			for _, si := range pr.secs {
-				t.Sections[si].Limit = max(lim, 1)
-				t.Sections[si].Size = t.Sections[si].Limit
+				sec := &t.Sections[si]
+				sec.Limit = max(lim, 1)
+				if sec.Parent != "" {
+					par := idx[sec.Parent]
+					sib := 0
+					for _, sj := range pr.secs {
+						if t.Sections[sj].Parent == sec.Parent {
+							sib++
+						}
+					}
+					sec.Limit = max((t.Sections[par].Limit+sib-1)/sib, 1)
+				}
+				sec.Size = sec.Limit
 			}
 		}
 	}
