@@ -366,3 +366,4 @@ func sortedEnrolments(es []timetable.Enrolment) []timetable.Enrolment {
 	})
 	return out
 }
+

@@ -24,18 +24,28 @@ func (p *problem) enrollCost(r int32, secs, others []int32) int64 {
 	return p.enrollCostIn(r, p.course(r), secs, others)
 }
 
-// improve runs the rounds.
+// improve runs the rounds. A request is looked at again only when
+// something it depends on changed since it last failed to improve: its
+// student's seating, or room in its course (state's change counters).
 func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng *rand.Rand) {
 	order := make([]int32, len(p.reqs))
 	for i := range order {
 		order[i] = int32(i)
 	}
+	seen := make([]uint64, len(p.reqs)) // version key + 1 at the last failed look; 0 none
 	var others []int32
-	for round := 0; ctx.Err() == nil; round++ {
+	for ctx.Err() == nil {
 		changed := false
 		for _, r := range order {
-			if p.st.opt[r] < 0 && rep.repair(r) {
-				changed = true
+			if p.st.opt[r] >= 0 {
+				continue
+			}
+			if key := p.unplacedKey(r) + 1; seen[r] != key {
+				if rep.repair(r) {
+					changed = true
+				} else {
+					seen[r] = p.unplacedKey(r) + 1
+				}
 			}
 		}
 		rng.Shuffle(len(order), func(i, j int) { order[i], order[j] = order[j], order[i] })
@@ -47,12 +57,18 @@ func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng 
 			if o < 0 {
 				continue
 			}
+			key := p.placedKey(r) + 1
+			if seen[r] == key {
+				continue
+			}
 			if o > 0 && p.placeBest(sr, r, int(o)) {
 				changed = true
 				continue
 			}
 			if p.moveBetter(sr, r, &others) {
 				changed = true
+			} else {
+				seen[r] = p.placedKey(r) + 1
 			}
 		}
 		if p.swapRound(ctx, rng, order) {
@@ -62,6 +78,24 @@ func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng 
 			return
 		}
 	}
+}
+
+// placedKey is the version of what a placed request's best move depends
+// on: its student's seating and room in its course.
+func (p *problem) placedKey(r int32) uint64 {
+	return uint64(p.st.courseVer[p.course(r)])<<32 | uint64(p.st.studentVer[p.reqs[r].student])
+}
+
+// unplacedKey is the version for an unplaced request: room in any of its
+// courses (summed) and its student's seating.
+func (p *problem) unplacedKey(r int32) uint64 {
+	var v uint32
+	for _, c := range p.reqs[r].options {
+		if c >= 0 {
+			v += p.st.courseVer[c]
+		}
+	}
+	return uint64(v)<<32 | uint64(p.st.studentVer[p.reqs[r].student])
 }
 
 // moveBetter moves placed request r to its cheapest enrollment with room

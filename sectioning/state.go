@@ -9,6 +9,11 @@ type state struct {
 	opt     []int32   // request -> index into its options, -1 when unplaced
 	secs    [][]int32 // request -> its sectioned sections (its enrollment without fixed sections)
 	holders [][]int32 // section -> requests seated in it
+	// Change counters for skipping work that cannot pay: a student's
+	// counter grows whenever their seating changes, a course's whenever
+	// one of its sections loses a student (gains room).
+	studentVer []uint32
+	courseVer  []uint32
 }
 
 func newState(p *problem) state {
@@ -17,6 +22,9 @@ func newState(p *problem) state {
 		opt:     make([]int32, len(p.reqs)),
 		secs:    make([][]int32, len(p.reqs)),
 		holders: make([][]int32, len(p.t.Sections)),
+
+		studentVer: make([]uint32, len(p.students)),
+		courseVer:  make([]uint32, len(p.courses)),
 	}
 	for i := range st.opt {
 		st.opt[i] = -1
@@ -31,6 +39,7 @@ func (p *problem) seat(r int32, o int32, secs []int32) {
 		p.unseat(r)
 	}
 	st.opt[r] = o
+	st.studentVer[p.reqs[r].student]++
 	st.secs[r] = append(st.secs[r][:0], secs...)
 	for _, x := range secs {
 		st.load[x]++
@@ -44,6 +53,8 @@ func (p *problem) unseat(r int32) {
 	if st.opt[r] < 0 {
 		return
 	}
+	st.studentVer[p.reqs[r].student]++
+	st.courseVer[p.reqs[r].options[st.opt[r]]]++
 	for _, x := range st.secs[r] {
 		st.load[x]--
 		h := st.holders[x]
