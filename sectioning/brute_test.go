@@ -366,4 +366,3 @@ func sortedEnrolments(es []timetable.Enrolment) []timetable.Enrolment {
 	})
 	return out
 }
-
