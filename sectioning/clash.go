@@ -154,3 +154,19 @@ func (ct *clashTable) compute(a, b int32) int {
 	}
 	return 0
 }
+
+// overlap reports whether some meetings of a and b share a minute of a
+// common day in a common week (grid pairs: a common period).
+func (ct *clashTable) overlap(a, b int32) bool {
+	if !ct.pat[a] && !ct.pat[b] {
+		return ct.gridClash(a, b) > 0
+	}
+	for _, m := range ct.meets[a] {
+		for _, o := range ct.meets[b] {
+			if m.Overlaps(o.Occurrence) {
+				return true
+			}
+		}
+	}
+	return false
+}
