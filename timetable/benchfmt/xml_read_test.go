@@ -175,8 +175,8 @@ func TestReadXMLByteOrderMark(t *testing.T) {
 // courseXML is a hand-made instance with course A in two configurations
 // (config 1: a lecture subpart with classes 1, 2 and a lab subpart with
 // classes 3, 4 whose parents are 1 and 2; config 2: one class 5) and
-// course B with one class 6, and students 7 (A, B) and 8 (B). Student
-// weight 4.
+// course B with one class 6, and students 7 (A, B), 8 (B) and 9 (A).
+// Student weight 4.
 const courseXML = `<problem name="c" nrDays="5" slotsPerDay="288" nrWeeks="1">
 <optimization time="1" room="1" distribution="1" student="4"/>
 <courses>
@@ -187,13 +187,13 @@ const courseXML = `<problem name="c" nrDays="5" slotsPerDay="288" nrWeeks="1">
 <class id="3" limit="12" parent="1" room="false"><time days="00100" start="100" length="10" weeks="1"/></class>
 <class id="4" limit="12" parent="2" room="false"><time days="00010" start="100" length="10" weeks="1"/></class>
 </subpart></config><config id="2"><subpart id="X">
-<class id="5" limit="8" room="false"><time days="00001" start="100" length="10" weeks="1"/></class>
+<class id="5" limit="1" room="false"><time days="00001" start="100" length="10" weeks="1"/></class>
 </subpart></config></course>
 <course id="B"><config id="3"><subpart id="Y">
 <class id="6" limit="20" room="false"><time days="10000" start="200" length="10" weeks="1"/></class>
 </subpart></config></course>
 </courses>
-<students><student id="7"><course id="A"/><course id="B"/></student><student id="8"><course id="B"/></student></students>
+<students><student id="7"><course id="A"/><course id="B"/></student><student id="8"><course id="B"/></student><student id="9"><course id="A"/></student></students>
 </problem>`
 
 // TestXMLTermCourses checks the course structure and the students in the
@@ -213,7 +213,7 @@ func TestXMLTermCourses(t *testing.T) {
 	}
 	assert.Equal(t, []sec{
 		{"A", "1", "L", "", 30}, {"A", "1", "L", "", 30}, {"A", "1", "P", "1", 12}, {"A", "1", "P", "2", 12},
-		{"A", "2", "X", "", 8}, {"B", "3", "Y", "", 20},
+		{"A", "2", "X", "", 1}, {"B", "3", "Y", "", 20},
 	}, got)
 	assert.Equal(t, []timetable.Course{
 		{ID: "A", Arrangements: []timetable.Arrangement{
@@ -222,7 +222,7 @@ func TestXMLTermCourses(t *testing.T) {
 		}},
 		{ID: "B", Arrangements: []timetable.Arrangement{{ID: "3", Parts: []timetable.Part{{ID: "Y", Sections: []int{5}}}}}},
 	}, term.Courses())
-	assert.Equal(t, []timetable.Request{{Student: "7", Course: "A"}, {Student: "7", Course: "B"}, {Student: "8", Course: "B"}}, term.Requests)
+	assert.Equal(t, []timetable.Request{{Student: "7", Course: "A"}, {Student: "7", Course: "B"}, {Student: "8", Course: "B"}, {Student: "9", Course: "A"}}, term.Requests)
 	w, _ := term.CriterionWeight(timetable.CritStudentClash)
 	assert.Equal(t, 4, w)
 	assert.Equal(t, 12, term.SectionLimit(2))
