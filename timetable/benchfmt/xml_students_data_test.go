@@ -63,6 +63,9 @@ func TestXMLStudentCostAgreesWithCost(t *testing.T) {
 				total, parts := XMLCost(in, sol)
 				got, by := ownCost(term, s)
 				assert.Equal(t, int64(parts.Student*in.Weights.Student), by[timetable.CritStudentClash], "student part, round %d", round)
+				if len(term.Requests) > 0 {
+					assert.Positive(t, parts.Student, "random timetables make students clash, round %d", round)
+				}
 				assert.Equal(t, int64(total), got-by[timetable.CritUnplaced], "total without unplaced requests, round %d", round)
 			}
 		})
