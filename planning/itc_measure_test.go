@@ -17,6 +17,12 @@ import (
 
 // readITC reads a shared ITC-2019 instance as a term (skips when absent).
 func readITC(t *testing.T, name string) *timetable.Term {
+	_, term := readITCInstance(t, name)
+	return term
+}
+
+// readITCInstance reads a shared ITC-2019 instance and its term.
+func readITCInstance(t *testing.T, name string) (*benchfmt.XMLInstance, *timetable.Term) {
 	t.Helper()
 	dir := benchfmt.DataDir("itc2019", ".xml")
 	f, err := os.Open(filepath.Join(dir, name+".xml"))
@@ -28,7 +34,7 @@ func readITC(t *testing.T, name string) *timetable.Term {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return in.Term()
+	return in, in.Term()
 }
 
 // TestITCPlanMeasure measures Plan on shared ITC-2019 instances named in
@@ -47,7 +53,7 @@ func TestITCPlanMeasure(t *testing.T) {
 		name, secs, _ := strings.Cut(item, ":")
 		n, _ := strconv.Atoi(secs)
 		n = max(n, 10)
-		term := readITC(t, name)
+		in, term := readITCInstance(t, name)
 		ctx, cancel := context.WithTimeout(context.Background(), time.Duration(n)*time.Second)
 		t0 := time.Now()
 		res, err := Plan(ctx, term, Options{OptimizeOptions: encode.OptimizeOptions{Seed: 1}})
@@ -69,8 +75,15 @@ func TestITCPlanMeasure(t *testing.T) {
 		t.Logf("%s (%d s, shared 2-core machine): %d sections, %d requests, %d sectioned enrolments, %d unplaced; levels %v total %v bound %v; student clashes %d units; elapsed %v",
 			name, n, len(term.Sections), len(term.Requests), len(res.Schedule.Enrolments), len(res.Sectioning.Unplaced),
 			res.Levels, res.Total, res.Bound, cost.Criterion(timetable.CritStudentClash).Count, time.Since(t0).Round(time.Second))
+		sol, err := benchfmt.XMLSolutionOf(in, res.Schedule, benchfmt.XMLRunInfo{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		total, parts := benchfmt.XMLCost(in, sol)
+		t.Logf("  competition cost %d (time %d, room %d, distribution %d, student %d); its hard violations %+v",
+			total, parts.Time, parts.Room, parts.Distribution, parts.Student, benchfmt.XMLHardViolations(in, sol))
 		for i, r := range res.Rounds {
-			t.Logf("  round %d: total %v, student clash units %d, kept %v", i, r.Total, r.Clashes, r.Kept)
+			t.Logf("  round %d: total %v, student clash units %d, kept %v, at %v", i, r.Total, r.Clashes, r.Kept, r.At.Round(time.Second))
 		}
 		for _, c := range cost.Criteria {
 			if c.Cost != 0 {

@@ -2,6 +2,7 @@ package planning
 
 import (
 	"context"
+	"time"
 
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/sectioning"
@@ -42,9 +43,10 @@ type Result struct {
 // Round is one timetable of the planning loop and the full cost of its
 // sectioning.
 type Round struct {
-	Total   []int64 // timetable.Cost of the sectioned timetable per level of Result.Levels
-	Clashes int64   // its "student clashes" units
-	Kept    bool    // it became the best so far
+	Total   []int64       // timetable.Cost of the sectioned timetable per level of Result.Levels
+	Clashes int64         // its "student clashes" units
+	Kept    bool          // it became the best so far
+	At      time.Duration // when it was sectioned, from the start of Plan
 }
 
 // Plan finds the best timetable for t it can before ctx ends. Without
