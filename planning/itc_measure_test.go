@@ -38,7 +38,8 @@ func readITCInstance(t *testing.T, name string) (*benchfmt.XMLInstance, *timetab
 }
 
 // TestITCPlanMeasure measures Plan on shared ITC-2019 instances named in
-// $TERMWRIGHT_PLAN_ITC ("name:seconds,name:seconds"; skipped when unset):
+// $TERMWRIGHT_PLAN_ITC ("name:seconds,name:seconds"; skipped when unset;
+// $TERMWRIGHT_PLAN_ROUNDS sets Options.Rounds):
 // the program size without and with the sectioned students' clashes, and
 // the full cost (students included) of each round of the loop. It asserts
 // only what must hold whatever the time: the result passes Check and its
@@ -56,7 +57,8 @@ func TestITCPlanMeasure(t *testing.T) {
 		in, term := readITCInstance(t, name)
 		ctx, cancel := context.WithTimeout(context.Background(), time.Duration(n)*time.Second)
 		t0 := time.Now()
-		res, err := Plan(ctx, term, Options{OptimizeOptions: encode.OptimizeOptions{Seed: 1}})
+		rounds, _ := strconv.Atoi(os.Getenv("TERMWRIGHT_PLAN_ROUNDS")) // -1: no loop
+		res, err := Plan(ctx, term, Options{OptimizeOptions: encode.OptimizeOptions{Seed: 1}, Rounds: rounds})
 		cancel()
 		if err != nil {
 			t.Fatalf("%s: %v", name, err)
