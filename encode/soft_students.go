@@ -162,6 +162,7 @@ type studentClasher struct {
 	orStarts  map[string]solver.Lit // "s:p,p" -> or of start atoms
 	nAny      int
 	bodies    [][]solver.Lit // the ways the pair being written can clash
+	table     []int32        // travel minutes between rooms x and y at x*len(Rooms)+y; nil until needed
 }
 
 // patternPair writes the clashes of pattern sections a and b.
@@ -233,7 +234,7 @@ func (sc *studentClasher) far(a, b, g int) solver.Lit {
 	for k1, r1 := range pa.rooms {
 		ks = ks[:0]
 		for k2, r2 := range pb.rooms {
-			if sb.travelMinutes(r1, r2) > g {
+			if sc.travel(r1, r2) > g {
 				ks = append(ks, k2)
 			}
 		}
@@ -249,6 +250,29 @@ func (sc *studentClasher) far(a, b, g int) solver.Lit {
 	}
 	return solver.Pos(f)
 }
+
+// travel is the travel time between rooms a and c: from a table of every
+// pair of rooms built on first use (each pair of sections asks for many),
+// or from the travel index on terms with very many rooms.
+func (sc *studentClasher) travel(a, c int) int {
+	n := len(sc.sb.t.Rooms)
+	if n > maxTravelTable {
+		return sc.sb.travelMinutes(a, c)
+	}
+	if sc.table == nil {
+		sc.table = make([]int32, n*n)
+		for x := 0; x < n; x++ {
+			for y := 0; y < n; y++ {
+				sc.table[x*n+y] = int32(sc.sb.travelMinutes(x, y))
+			}
+		}
+	}
+	return int(sc.table[a*n+c])
+}
+
+// maxTravelTable is the most rooms for which studentClasher.travel keeps
+// a table (4 MB at most).
+const maxTravelTable = 1000
 
 // room returns "section s is in one of its candidate rooms ks" (positions
 // in patModel.rooms): the room atom for one, else an interned any_room atom.
