@@ -17,6 +17,10 @@ import (
 // optimiseShare, the sectioner the rest (and whatever the optimiser leaves).
 const optimiseShare = 0.75
 
+// onlyRoundShare is the optimiser's share without rounds (Options.Rounds
+// negative): the sectioner runs once.
+const onlyRoundShare = 0.9
+
 // planned is one sectioned timetable of the loop.
 type planned struct {
 	res   *encode.OptimizeResult // the optimiser's result on the working term
@@ -46,13 +50,13 @@ func planWithRequests(ctx context.Context, t *timetable.Term, opt Options) (*Res
 	}
 	rounds = max(rounds, 0)
 	first, err := l.round(0, rounds+1, nil)
-	if err != nil || first == nil {
+	if err != nil || first.sched == nil {
 		return l.result(first, err)
 	}
 	l.bound = l.levelBound(first.res)
 	l.keep(first)
-	for r := 1; r <= rounds && ctx.Err() == nil; r++ {
-		p, err := l.round(r, rounds+1-r, l.best)
+	for r := 1; ctx.Err() == nil && (r <= rounds || opt.Rounds >= 0 && l.timeForMore()); r++ {
+		p, err := l.round(r, max(rounds+1-r, 1), l.best)
 		if err != nil {
 			return nil, err
 		}
@@ -63,6 +67,18 @@ func planWithRequests(ctx context.Context, t *timetable.Term, opt Options) (*Res
 	}
 	return l.result(nil, nil)
 }
+
+// timeForMore reports whether ctx has a deadline and more than
+// extraRoundShare of Plan's time is left after the planned rounds: the
+// loop then goes on with more rounds.
+func (l *loop) timeForMore() bool {
+	end, timed := l.ctx.Deadline()
+	return timed && time.Until(end) > time.Duration(extraRoundShare*float64(end.Sub(l.start)))
+}
+
+// extraRoundShare is the share of Plan's time that must be left for a
+// round beyond Options.Rounds.
+const extraRoundShare = 0.1
 
 // round optimises the timetable on the working term (with from's seated
 // students as fixed, none in the first round) and seats the students in
@@ -114,7 +130,11 @@ func (l *loop) optimiseCtx(o *encode.OptimizeOptions, left int) (context.Context
 		return l.ctx, func() {}
 	}
 	ctx, cancel := context.WithCancel(l.ctx)
-	due := time.Now().Add(time.Duration(optimiseShare * float64(time.Until(end)) / float64(left)))
+	share := optimiseShare
+	if l.opt.Rounds < 0 {
+		share = onlyRoundShare
+	}
+	due := time.Now().Add(time.Duration(share * float64(time.Until(end)) / float64(left)))
 	user := o.Progress
 	o.Progress = func(p encode.Progress) {
 		if user != nil {
@@ -167,7 +187,7 @@ func (l *loop) result(first *planned, err error) (*Result, error) {
 		return nil, err
 	}
 	if l.best == nil {
-		return &Result{OptimizeResult: first.res, Rounds: l.rounds}, nil
+		return &Result{OptimizeResult: first.res}, nil
 	}
 	b := l.best
 	res := *b.res

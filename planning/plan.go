@@ -15,7 +15,9 @@ type Options struct {
 	Threads                int // parallel searches (encode.OptimizePortfolio); 0 means 1
 	// Rounds is the number of improvement rounds after the first
 	// sectioning (re-optimise the timetable for the seated students, seat
-	// them again); 0 means DefaultRounds, negative means none.
+	// them again); 0 means DefaultRounds, negative means none. With a
+	// deadline the rounds share the time, and more rounds follow while
+	// more than a tenth of Plan's time is left.
 	Rounds int
 }
 
