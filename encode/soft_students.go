@@ -16,18 +16,18 @@ import (
 //
 // The pairs come from the enrolments (students counted once per section,
 // all of a pair's students together: weight k for k shared students).
-// Each pair is written without a clause per pair of clashing meeting
+// Each pair gets one weak constraint of weight k on an atom clash(A,B)
+// (on the clash's only way when there is one), defined by one rule per way
+// the two can clash, written without a rule per pair of clashing meeting
 // times:
 //
 //   - two pattern sections a and b: the candidate times of a are grouped
-//     by the set J of b's times they overlap; each group I gives one weak
-//     constraint "a meets at one of I and b at one of J" (any_time atoms,
-//     interned and shared by every pair and every other part). Exactly one
-//     time holds per section, so at most one of the pair's constraints
-//     holds and the pair costs k at most once. Times of a that leave b's
-//     time j a gap g shorter than the longest travel time add, grouped the
+//     by the set J of b's times they overlap; each group I gives the rule
+//     "a meets at one of I and b at one of J" (any_time atoms, interned and
+//     shared by every pair and every other part). Times of a that leave b's
+//     times a gap g shorter than the longest travel time add, grouped the
 //     same way per gap, "a at one of I, b at one of J, and their rooms more
-//     than g minutes apart" (an atom far(a,b,g) defined by a's rooms and the
+//     than g minutes apart" (an atom far(A,B,g) defined by a's rooms and the
 //     sets of b's rooms too far from each, any_room atoms interned);
 //   - a grid section a and a pattern section b: b's candidate times are
 //     grouped by the set P of a's start periods whose meeting overlaps them;
@@ -38,7 +38,8 @@ import (
 // Pairs that share a staff member or cohort are left out when both use
 // patterns: the hard no-overlap and travel rules keep them from clashing.
 // The program grows with the pairs times the distinct clash sets per
-// section, not with the pairs of meeting times.
+// section, not with the pairs of meeting times; the objective has one
+// literal per pair.
 
 // studentPair is a pair of section indexes, lower first, with the number
 // of students enrolled in both.
@@ -108,6 +109,7 @@ func (sb *softBuilder) patternStudentClashes() {
 			continue
 		}
 		pa, pb := sb.c.pats[pr.a].on, sb.c.pats[pr.b].on
+		sc.bodies = sc.bodies[:0]
 		switch {
 		case pa && pb:
 			if sb.shareSomeone(pr.a, pr.b) {
@@ -118,13 +120,38 @@ func (sb *softBuilder) patternStudentClashes() {
 			if len(sb.c.pats[b].times) < len(sb.c.pats[a].times) {
 				a, b = b, a
 			}
-			sc.patternPair(a, b, w, l)
+			sc.patternPair(a, b)
 		case pa:
-			sc.gridPair(pr.b, pr.a, w, l)
+			sc.gridPair(pr.b, pr.a)
 		default:
-			sc.gridPair(pr.a, pr.b, w, l)
+			sc.gridPair(pr.a, pr.b)
 		}
+		sc.finish(pr, w, l)
 	}
+}
+
+// body notes one way the pair being written can clash.
+func (sc *studentClasher) body(lits ...solver.Lit) {
+	sc.bodies = append(sc.bodies, append([]solver.Lit(nil), lits...))
+}
+
+// finish writes the pair's one weak constraint: on its only body, or on an
+// atom clash(A,B) that each body implies (so the pair costs its weight
+// once however many of its meetings clash).
+func (sc *studentClasher) finish(pr studentPair, w int64, l int) {
+	sb := sc.sb
+	switch len(sc.bodies) {
+	case 0:
+		return
+	case 1:
+		sb.weak(timetable.CritStudentClash, w, l, sc.bodies[0]...)
+		return
+	}
+	a := sb.newAtom("clash("+quote(sb.t.Sections[pr.a].ID)+","+quote(sb.t.Sections[pr.b].ID)+")", aux(pr.a, -1))
+	for _, body := range sc.bodies {
+		sb.rule(a, body...)
+	}
+	sb.weak(timetable.CritStudentClash, w, l, solver.Pos(a))
 }
 
 // studentClasher holds the interned atoms of the pattern student clashes.
@@ -134,10 +161,12 @@ type studentClasher struct {
 	anyRoom   map[string]solver.Lit // "s:k,k" -> any_room atom (positions in patModel.rooms)
 	orStarts  map[string]solver.Lit // "s:p,p" -> or of start atoms
 	nAny      int
+	bodies    [][]solver.Lit // the ways the pair being written can clash
+	table     []int32        // travel minutes between rooms x and y at x*len(Rooms)+y; nil until needed
 }
 
 // patternPair writes the clashes of pattern sections a and b.
-func (sc *studentClasher) patternPair(a, b int, w int64, l int) {
+func (sc *studentClasher) patternPair(a, b int) {
 	sb := sc.sb
 	t := sb.t
 	pa, pb := &sb.c.pats[a], &sb.c.pats[b]
@@ -180,7 +209,7 @@ func (sc *studentClasher) patternPair(a, b int, w int64, l int) {
 		}
 	}
 	for k, set := range groups.sets {
-		sb.weak(timetable.CritStudentClash, w, l, sb.anyTime(a, groups.members[k]), sb.anyTime(b, set))
+		sc.body(sb.anyTime(a, groups.members[k]), sb.anyTime(b, set))
 	}
 	slices.Sort(gapOrder)
 	for _, g := range gapOrder {
@@ -190,7 +219,7 @@ func (sc *studentClasher) patternPair(a, b int, w int64, l int) {
 		}
 		cg := travel[g]
 		for k, set := range cg.sets {
-			sb.weak(timetable.CritStudentClash, w, l, sb.anyTime(a, cg.members[k]), sb.anyTime(b, set), far)
+			sc.body(sb.anyTime(a, cg.members[k]), sb.anyTime(b, set), far)
 		}
 	}
 }
@@ -205,7 +234,7 @@ func (sc *studentClasher) far(a, b, g int) solver.Lit {
 	for k1, r1 := range pa.rooms {
 		ks = ks[:0]
 		for k2, r2 := range pb.rooms {
-			if sb.travelMinutes(r1, r2) > g {
+			if sc.travel(r1, r2) > g {
 				ks = append(ks, k2)
 			}
 		}
@@ -221,6 +250,29 @@ func (sc *studentClasher) far(a, b, g int) solver.Lit {
 	}
 	return solver.Pos(f)
 }
+
+// travel is the travel time between rooms a and c: from a table of every
+// pair of rooms built on first use (each pair of sections asks for many),
+// or from the travel index on terms with very many rooms.
+func (sc *studentClasher) travel(a, c int) int {
+	n := len(sc.sb.t.Rooms)
+	if n > maxTravelTable {
+		return sc.sb.travelMinutes(a, c)
+	}
+	if sc.table == nil {
+		sc.table = make([]int32, n*n)
+		for x := 0; x < n; x++ {
+			for y := 0; y < n; y++ {
+				sc.table[x*n+y] = int32(sc.sb.travelMinutes(x, y))
+			}
+		}
+	}
+	return int(sc.table[a*n+c])
+}
+
+// maxTravelTable is the most rooms for which studentClasher.travel keeps
+// a table (4 MB at most).
+const maxTravelTable = 1000
 
 // room returns "section s is in one of its candidate rooms ks" (positions
 // in patModel.rooms): the room atom for one, else an interned any_room atom.
@@ -243,7 +295,7 @@ func (sc *studentClasher) room(s int, ks []int) solver.Lit {
 }
 
 // gridPair writes the clashes of grid section g and pattern section p.
-func (sc *studentClasher) gridPair(g, p int, w int64, l int) {
+func (sc *studentClasher) gridPair(g, p int) {
 	sb := sc.sb
 	t := sb.t
 	gm, pm := &sb.c.secs[g], &sb.c.pats[p]
@@ -274,7 +326,7 @@ func (sc *studentClasher) gridPair(g, p int, w int64, l int) {
 		groups.add(j, ks)
 	}
 	for k, set := range groups.sets {
-		sb.weak(timetable.CritStudentClash, w, l, sb.anyTime(p, groups.members[k]), sc.starts(g, set))
+		sc.body(sb.anyTime(p, groups.members[k]), sc.starts(g, set))
 	}
 }
 
