@@ -36,7 +36,7 @@ func TestFixedEnrolmentsStay(t *testing.T) {
 	term, sched := genTerm(rand.New(rand.NewPCG(4, 4)), g)
 	res, err := Section(context.Background(), term, sched, Options{Seed: 4})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, res))
+	require.Empty(t, allSeatingErrors(term, sched, res))
 	fixed := map[timetable.Enrolment]bool{}
 	load := map[string]int{}
 	for _, e := range term.Enrolments {
@@ -69,23 +69,26 @@ func TestFixedEnrolmentsStay(t *testing.T) {
 	require.Positive(t, aroundFixed, "the test term should seat someone around a fixed section")
 }
 
-// TestClashesAgreeWithCost: on grid terms, the clashes the sectioner
-// counts (judge, from the criterion's words) equal timetable.Cost's
-// "student clashes" over fixed and sectioned enrolments. Outside check:
-// the domain's cost function.
+// TestClashesAgreeWithCost: the clashes the sectioner counts, and those
+// judge counts from the criterion's words, equal timetable.Cost's
+// "student clashes" over fixed and sectioned enrolments, on grid terms
+// and on terms with meeting patterns and travel times. Outside check: the
+// domain's cost function.
 func TestClashesAgreeWithCost(t *testing.T) {
 	for seed := uint64(1); seed <= 4; seed++ {
-		term, sched := genTerm(rand.New(rand.NewPCG(seed, 9)), medium)
+		g := medium
+		g.patterns = seed%2 == 0
+		term, sched := genTerm(rand.New(rand.NewPCG(seed, 9)), g)
 		res, err := Section(context.Background(), term, sched, Options{Seed: int64(seed)})
 		require.NoError(t, err)
-		all := *term
-		all.Enrolments = append(append([]timetable.Enrolment(nil), term.Enrolments...), res.Enrolments...)
+		withStudents := &timetable.Schedule{Placements: sched.Placements, Enrolments: res.Enrolments}
 		var cost int64
-		for _, c := range timetable.Cost(&all, sched, nil).Criteria {
+		for _, c := range timetable.Cost(term, withStudents, nil).Criteria {
 			if c.Name == timetable.CritStudentClash {
 				cost = c.Count
 			}
 		}
+		require.Positive(t, cost)
 		got := judge(term, sched, nil, res)
 		require.Equal(t, cost, int64(got.clashes), "seed %d", seed)
 		p := newProblem(term, sched)
@@ -140,9 +143,15 @@ func TestKeepAfterChange(t *testing.T) {
 	require.NoError(t, err)
 	fresh, err := Section(context.Background(), term, changed, Options{Seed: 12})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, withKeep))
+	require.Empty(t, allSeatingErrors(term, changed, withKeep))
 	jk, jf := judge(term, changed, kept, withKeep), judge(term, changed, kept, fresh)
 	require.Less(t, jk.moved, jf.moved)
+	// the moved students as timetable.Cost counts them (outside check)
+	for _, c := range timetable.Cost(term, &timetable.Schedule{Placements: changed.Placements, Enrolments: withKeep.Enrolments}, kept).Criteria {
+		if c.Name == timetable.CritMovedStudents {
+			require.Equal(t, int64(jk.moved), c.Count)
+		}
+	}
 	require.LessOrEqual(t, jk.unplaced, jf.unplaced)
 	require.NotEmpty(t, withKeep.Moves)
 	// every move names a real change of the student's section in a part
@@ -168,13 +177,14 @@ func TestKeepAfterChange(t *testing.T) {
 	t.Logf("moved students: %d with keep, %d afresh; unplaced %d and %d; clashes %d and %d", jk.moved, jf.moved, jk.unplaced, jf.unplaced, jk.clashes, jf.clashes)
 }
 
-// TestSeatingErrorsCatchPlantedMistakes makes sure the rule checker used
-// above is not blind: each planted mistake is reported.
+// TestSeatingErrorsCatchPlantedMistakes makes sure the rule checkers used
+// above are not blind: each planted mistake is reported by seatingErrors
+// and (except unplaced requests, which it does not see) by timetable.Check.
 func TestSeatingErrorsCatchPlantedMistakes(t *testing.T) {
 	term, sched := genTerm(rand.New(rand.NewPCG(3, 3)), medium)
 	res, err := Section(context.Background(), term, sched, Options{Seed: 3})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, res))
+	require.Empty(t, allSeatingErrors(term, sched, res))
 	idx := term.SectionIndex()
 	plants := []struct {
 		name  string
@@ -210,6 +220,9 @@ func TestSeatingErrorsCatchPlantedMistakes(t *testing.T) {
 			r := &Result{Enrolments: append([]timetable.Enrolment(nil), res.Enrolments...), Unplaced: append([]Unplaced(nil), res.Unplaced...)}
 			pl.plant(r)
 			require.NotEmpty(t, seatingErrors(term, r))
+			if pl.name != "an unplaced request not reported" { // Check does not see Result.Unplaced
+				require.Greater(t, len(allSeatingErrors(term, sched, r)), len(seatingErrors(term, r)), "timetable.Check should see it too")
+			}
 		})
 	}
 }
