@@ -226,3 +226,25 @@ func TestSeatingErrorsCatchPlantedMistakes(t *testing.T) {
 		})
 	}
 }
+
+// TestPriorityTakesScarcePlaces: a course with one place, held in the kept
+// sectioning by a student whose request has priority 3, goes to a new
+// student asking with priority 1; the other is left unplaced with a
+// reason (the number of unplaced requests is the same either way).
+func TestPriorityTakesScarcePlaces(t *testing.T) {
+	term := &timetable.Term{Periods: []timetable.Period{{Day: 1, Start: 540, End: 600}},
+		Sections: []timetable.Section{{ID: "A-1", Course: "A", Meetings: 1, Length: 1, NoRoom: true, Limit: 1, Weeks: 1}},
+		Requests: []timetable.Request{{Student: "late", Course: "A", Priority: 3}, {Student: "first", Course: "A", Priority: 1}},
+	}
+	sched := &timetable.Schedule{Placements: []timetable.Placement{{Section: "A-1", Meeting: 1, Period: 0}}}
+	kept := &timetable.Schedule{Placements: sched.Placements, Enrolments: []timetable.Enrolment{{Student: "late", Section: "A-1"}}}
+	for _, exact := range []bool{false, true} {
+		res, err := section(context.Background(), term, sched, Options{Keep: kept}, config{exact: exact})
+		require.NoError(t, err)
+		require.Equal(t, []timetable.Enrolment{{Student: "first", Section: "A-1"}}, res.Enrolments, "exact phase %v", exact)
+		require.Len(t, res.Unplaced, 1)
+		require.Equal(t, 0, res.Unplaced[0].Request)
+		require.Equal(t, "Course A is full (every section has reached its limit).", res.Unplaced[0].Reason)
+		require.Equal(t, []Move{{Student: "late", Course: "A", From: "A-1"}}, res.Moves)
+	}
+}
