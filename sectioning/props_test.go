@@ -248,3 +248,20 @@ func TestPriorityTakesScarcePlaces(t *testing.T) {
 		require.Equal(t, []Move{{Student: "late", Course: "A", From: "A-1"}}, res.Moves)
 	}
 }
+
+// TestCancelledContextStillSeats: with its context already ended the
+// sectioner skips the improvement and returns the first seating, which
+// keeps every rule and is no better than the full run.
+func TestCancelledContextStillSeats(t *testing.T) {
+	term, sched := genTerm(rand.New(rand.NewPCG(5, 5)), medium)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	quick, err := Section(ctx, term, sched, Options{Seed: 5})
+	require.NoError(t, err)
+	require.Empty(t, allSeatingErrors(term, sched, quick))
+	full, err := Section(context.Background(), term, sched, Options{Seed: 5})
+	require.NoError(t, err)
+	jq, jf := judge(term, sched, nil, quick), judge(term, sched, nil, full)
+	require.False(t, jq.less(jf), "quick %v, full %v", jq, jf)
+	require.True(t, jf.less(jq), "the improvement should pay on this term: %v", jf)
+}
