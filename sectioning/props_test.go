@@ -265,3 +265,39 @@ func TestCancelledContextStillSeats(t *testing.T) {
 	require.False(t, jq.less(jf), "quick %v, full %v", jq, jf)
 	require.True(t, jf.less(jq), "the improvement should pay on this term: %v", jf)
 }
+
+// TestOddInputs: requests for unknown courses, the same course asked
+// twice, sections with no room at all, a kept timetable naming sections
+// and students the term no longer has: the sectioner keeps every rule
+// and says why each unmet request is unmet.
+func TestOddInputs(t *testing.T) {
+	rng := rand.New(rand.NewPCG(31, 31))
+	term, sched := genTerm(rng, medium)
+	term.Requests = append(term.Requests,
+		timetable.Request{Student: "S00001", Course: "NOPE"},
+		timetable.Request{Student: "S00002", Course: term.Requests[0].Course, Alternatives: []string{"NOPE"}},
+		timetable.Request{Student: term.Requests[0].Student, Course: term.Requests[0].Course})
+	fixed := map[string]bool{}
+	for _, e := range term.Enrolments {
+		fixed[e.Section] = true
+	}
+	for i := range term.Sections {
+		if rng.IntN(15) == 0 && !fixed[term.Sections[i].ID] {
+			term.Sections[i].Limit, term.Sections[i].Size = 0, 0
+		}
+	}
+	kept := &timetable.Schedule{Enrolments: []timetable.Enrolment{{Student: "gone", Section: term.Sections[0].ID}, {Student: "S00003", Section: "gone"}}}
+	res, err := Section(context.Background(), term, sched, Options{Seed: 31, Keep: kept})
+	require.NoError(t, err)
+	require.Empty(t, allSeatingErrors(term, sched, res))
+	n := len(term.Requests)
+	reasons := map[int]string{}
+	for _, u := range res.Unplaced {
+		require.NotEmpty(t, u.Reason)
+		reasons[u.Request] = u.Reason
+	}
+	require.Contains(t, reasons[n-3], "is not offered")
+	require.Contains(t, reasons[n-1], "through another request")
+	rep := NewReport(term, sched, res)
+	require.Len(t, rep.Unplaced, len(res.Unplaced))
+}
