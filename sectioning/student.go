@@ -11,7 +11,7 @@ import "slices"
 // seating where only changing two courses together helps; this can.
 
 // studentBudget bounds one student's search in nodes.
-const studentBudget = 3000
+const studentBudget = 10000
 
 type studentSearch struct {
 	p        *problem
