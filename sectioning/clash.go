@@ -38,6 +38,12 @@ type meet struct {
 const denseMax = 4096
 
 func newClashTable(t *timetable.Term, s *timetable.Schedule) *clashTable {
+	return newClashTableUpTo(t, s, denseMax)
+}
+
+// newClashTableUpTo is newClashTable with the dense matrix for up to
+// dense sections.
+func newClashTableUpTo(t *timetable.Term, s *timetable.Schedule, dense int) *clashTable {
 	n := len(t.Sections)
 	ct := &clashTable{
 		n:      n,
@@ -52,7 +58,7 @@ func newClashTable(t *timetable.Term, s *timetable.Schedule) *clashTable {
 		patterns = patterns || t.Sections[i].UsesTimes()
 	}
 	switch {
-	case patterns && n <= denseMax:
+	case patterns && n <= dense:
 		ct.dense = make([]int16, n*n)
 		for i := range ct.dense {
 			ct.dense[i] = -1
