@@ -31,7 +31,7 @@
 //   - priority.go: an unplaced request takes the place of a less
 //     important one when no repair can seat it;
 //   - student.go: a student move re-seats all of one student's courses at
-//     once by branch and bound (Müller and Murray's per-student search);
+//     once by branch and bound over a small clash matrix of their sections;
 //   - improve.go: rounds of retries of unplaced requests, student moves
 //     and swaps of two students' enrollments, until nothing improves or
 //     the context ends; a student is looked at again only when their
