@@ -126,7 +126,7 @@ func TestBenchXMLBadInput(t *testing.T) {
 // 1 (penalty 0): cost 2; student s takes one class of the course's one
 // part, so no student rule breaks and no clash is possible.
 func TestBenchXMLRealSolve(t *testing.T) {
-	code, out, stderr := runBenchWith(t, nil, benchXMLDir(t), "--json", "--time-limit", "60s")
+	code, out, stderr := runBenchWith(t, nil, benchXMLDir(t), "--json", "--time-limit", "20s")
 	require.Equal(t, exitOK, code, stderr)
 	var rep benchReport
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
