@@ -2,6 +2,7 @@ package planning
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"slices"
 	"strings"
@@ -208,8 +209,17 @@ func (l *loop) result(first *planned, err error) (*Result, error) {
 	res.Bound = l.bound
 	res.Proven = slices.Equal(res.Total, res.Bound)
 	res.TimeProven = slices.Equal(l.byLevel(encode.TimeCost(l.t, b.sched, l.opt.Keep)), res.Bound)
-	if res.Proven {
+	// The optimiser's reason is about its working copy of the term (an
+	// optimum there is none here): say why the loop ended instead.
+	switch {
+	case res.Proven:
 		res.Stopped = "optimal"
+	case errors.Is(l.ctx.Err(), context.DeadlineExceeded):
+		res.Stopped = "time limit"
+	case l.ctx.Err() != nil:
+		res.Stopped = "interrupted"
+	default:
+		res.Stopped = "rounds done"
 	}
 	return &Result{OptimizeResult: &res, Sectioning: b.sec, Rounds: l.rounds}, nil
 }

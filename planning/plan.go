@@ -36,6 +36,8 @@ const DefaultRounds = 3
 // the engine proved on the term with its fixed students only, which is a
 // bound on every level because seating students only adds cost, with 0 on
 // the levels only requests have; Proven is set only when Total meets it.
+// Stopped is "optimal" (Proven), "time limit", "interrupted" or "rounds
+// done" (the rounds ended by themselves).
 type Result struct {
 	*encode.OptimizeResult
 	Sectioning *sectioning.Result // nil when the term has no requests
