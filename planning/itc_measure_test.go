@@ -85,7 +85,7 @@ func TestITCPlanMeasure(t *testing.T) {
 		t.Logf("  competition cost %d (time %d, room %d, distribution %d, student %d); its hard violations %+v",
 			total, parts.Time, parts.Room, parts.Distribution, parts.Student, benchfmt.XMLHardViolations(in, sol))
 		for i, r := range res.Rounds {
-			t.Logf("  round %d: total %v, student clash units %d, kept %v, at %v", i, r.Total, r.Clashes, r.Kept, r.At.Round(time.Second))
+			t.Logf("  round %d: total %v, student clash units %d, kept %v, same seating %v, at %v", i, r.Total, r.Clashes, r.Kept, r.SameSeating, r.At.Round(time.Second))
 		}
 		for _, c := range cost.Criteria {
 			if c.Cost != 0 {

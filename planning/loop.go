@@ -35,6 +35,9 @@ type planned struct {
 	sched *timetable.Schedule // res.Schedule with sec's students
 	cost  timetable.CostReport
 	total []int64 // cost.ByLevel per level of levels
+	// sameSeating: the round kept the seating it started from, which cost
+	// less on its timetable than seating the students again.
+	sameSeating bool
 }
 
 // loop is the state of one Plan call on a term with requests.
@@ -123,7 +126,22 @@ func (l *loop) round(r, left int, from *planned) (*planned, error) {
 	if err != nil {
 		return nil, err
 	}
-	return l.judge(res, sec)
+	p, err := l.judge(res, sec)
+	if err != nil || from == nil {
+		return p, err
+	}
+	// The timetable was optimised for the seating it started from, and
+	// that seating holds on it (the seating rule does not depend on
+	// times): it competes with the new one.
+	old, err := l.judge(res, from.sec)
+	if err != nil {
+		return nil, err
+	}
+	if slices.Compare(old.total, p.total) < 0 {
+		old.sameSeating = true
+		return old, nil
+	}
+	return p, nil
 }
 
 // optimiseCtx is the context of a round's optimisation: with a deadline,
@@ -185,7 +203,7 @@ func (l *loop) judge(res *encode.OptimizeResult, sec *sectioning.Result) (*plann
 func (l *loop) keep(p *planned) {
 	better := l.best == nil || slices.Compare(p.total, l.best.total) < 0
 	l.rounds = append(l.rounds, Round{Total: p.total, Clashes: p.cost.Criterion(timetable.CritStudentClash).Count,
-		Kept: better, At: time.Since(l.start)})
+		Kept: better, At: time.Since(l.start), SameSeating: p.sameSeating})
 	if better {
 		l.best = p
 	}

@@ -51,6 +51,9 @@ type Round struct {
 	Clashes int64         // its "student clashes" units
 	Kept    bool          // it became the best so far
 	At      time.Duration // when it was sectioned, from the start of Plan
+	// SameSeating: the round kept the seating it started from, which cost
+	// less on its new timetable than seating the students again.
+	SameSeating bool
 }
 
 // Plan finds the best timetable for t it can before ctx ends. Without
