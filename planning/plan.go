@@ -36,6 +36,8 @@ const DefaultRounds = 3
 // the engine proved on the term with its fixed students only, which is a
 // bound on every level because seating students only adds cost, with 0 on
 // the levels only requests have; Proven is set only when Total meets it.
+// Stopped is "optimal" (Proven), "time limit", "interrupted" or "rounds
+// done" (the rounds ended by themselves).
 type Result struct {
 	*encode.OptimizeResult
 	Sectioning *sectioning.Result // nil when the term has no requests
@@ -49,6 +51,9 @@ type Round struct {
 	Clashes int64         // its "student clashes" units
 	Kept    bool          // it became the best so far
 	At      time.Duration // when it was sectioned, from the start of Plan
+	// SameSeating: the round kept the seating it started from, which cost
+	// less on its new timetable than seating the students again.
+	SameSeating bool
 }
 
 // Plan finds the best timetable for t it can before ctx ends. Without

@@ -50,6 +50,8 @@ func TestPlanWithRequests(t *testing.T) {
 			require.Equal(t, cost.ByLevel[l], res.Total[i], "level %d", l)
 		}
 		require.LessOrEqual(t, slices.Compare(res.Bound, res.Total), 0)
+		_, unplacedLevel := term.CriterionWeight(timetable.CritUnplaced)
+		require.Zero(t, res.Bound[slices.Index(res.Levels, unplacedLevel)], "no bound on a level only requests have")
 		require.Len(t, res.Rounds, 3)
 		asked := map[[2]string]bool{}
 		for _, r := range term.Requests {
