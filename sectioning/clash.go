@@ -1,6 +1,8 @@
 package sectioning
 
 import (
+	"math/bits"
+
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -10,15 +12,18 @@ import (
 // occupy; when either uses meeting patterns, 1 when some meetings of the
 // two share a minute of a common day in a common week or leave less free
 // time between them on such a day than the travel time between their
-// rooms, else 0. Pairs are computed on first use and remembered: a dense
-// lazily filled matrix for terms of up to denseMax sections (2 bytes a
-// pair), a map beyond. Safe for one goroutine.
+// rooms, else 0. Grid pairs are counted from period bit sets at each
+// call (a few words); pairs with a pattern section are computed on first
+// use and remembered: a dense lazily filled matrix for terms of up to
+// denseMax sections (2 bytes a pair), a map beyond. Safe for one
+// goroutine.
 type clashTable struct {
 	n      int
 	dense  []int16 // n*n, -1 = not yet computed
 	sparse map[uint64]int16
 	meets  [][]meet // section -> its meetings, by day then start
-	grid   [][]int  // grid section -> periods it occupies, ascending
+	words  int      // uint64 words of one section's period set
+	bits   []uint64 // section i's occupied periods at bits[i*words:(i+1)*words] (grid sections)
 	weeks  []timetable.WeekSet
 	pat    []bool // section uses meeting patterns
 	travel *timetable.TravelIndex
@@ -33,23 +38,35 @@ type meet struct {
 const denseMax = 4096
 
 func newClashTable(t *timetable.Term, s *timetable.Schedule) *clashTable {
+	return newClashTableUpTo(t, s, denseMax)
+}
+
+// newClashTableUpTo is newClashTable with the dense matrix for up to
+// dense sections.
+func newClashTableUpTo(t *timetable.Term, s *timetable.Schedule, dense int) *clashTable {
 	n := len(t.Sections)
 	ct := &clashTable{
 		n:      n,
 		meets:  make([][]meet, n),
-		grid:   make([][]int, n),
+		words:  (len(t.Periods) + 63) / 64,
 		weeks:  make([]timetable.WeekSet, n),
 		pat:    make([]bool, n),
 		travel: timetable.NewTravelIndex(t),
 	}
-	if n <= denseMax {
+	patterns := false
+	for i := range t.Sections {
+		patterns = patterns || t.Sections[i].UsesTimes()
+	}
+	switch {
+	case patterns && n <= dense:
 		ct.dense = make([]int16, n*n)
 		for i := range ct.dense {
 			ct.dense[i] = -1
 		}
-	} else {
+	case patterns:
 		ct.sparse = map[uint64]int16{}
 	}
+	ct.bits = make([]uint64, n*ct.words)
 	idx := t.SectionIndex()
 	for i := range t.Sections {
 		ct.pat[i] = t.Sections[i].UsesTimes()
@@ -69,34 +86,22 @@ func newClashTable(t *timetable.Term, s *timetable.Schedule) *clashTable {
 		}
 		if !sec.UsesTimes() {
 			if span, ok := t.Span(pl.Period, sec.Length); ok {
-				ct.grid[si] = mergePeriods(ct.grid[si], span)
+				for _, q := range span {
+					ct.bits[si*ct.words+q/64] |= 1 << (q % 64)
+				}
 			}
 		}
 	}
 	return ct
 }
 
-// mergePeriods adds span to the ascending distinct list ps.
-func mergePeriods(ps, span []int) []int {
-	for _, p := range span {
-		i := len(ps)
-		for i > 0 && ps[i-1] > p {
-			i--
-		}
-		if i > 0 && ps[i-1] == p {
-			continue
-		}
-		ps = append(ps, 0)
-		copy(ps[i+1:], ps[i:])
-		ps[i] = p
-	}
-	return ps
-}
-
 // get is the clash count of sections a and b (0 when a == b).
 func (ct *clashTable) get(a, b int32) int {
 	if a == b {
 		return 0
+	}
+	if !ct.pat[a] && !ct.pat[b] {
+		return ct.gridClash(a, b)
 	}
 	if a > b {
 		a, b = b, a
@@ -119,27 +124,23 @@ func (ct *clashTable) get(a, b int32) int {
 	return v
 }
 
-func (ct *clashTable) compute(a, b int32) int {
-	if !ct.pat[a] && !ct.pat[b] {
-		if !ct.weeks[a].Overlaps(ct.weeks[b]) {
-			return 0
-		}
-		pa, pb := ct.grid[a], ct.grid[b]
-		n, i, j := 0, 0, 0
-		for i < len(pa) && j < len(pb) {
-			switch {
-			case pa[i] == pb[j]:
-				n++
-				i++
-				j++
-			case pa[i] < pb[j]:
-				i++
-			default:
-				j++
-			}
-		}
-		return min(n, 32767)
+// gridClash counts the periods two grid sections both occupy, 0 when
+// their weeks do not overlap.
+func (ct *clashTable) gridClash(a, b int32) int {
+	if !ct.weeks[a].Overlaps(ct.weeks[b]) {
+		return 0
 	}
+	wa := ct.bits[int(a)*ct.words : int(a+1)*ct.words]
+	wb := ct.bits[int(b)*ct.words : int(b+1)*ct.words]
+	n := 0
+	for i := range wa {
+		n += bits.OnesCount64(wa[i] & wb[i])
+	}
+	return n
+}
+
+// compute is the clash of a pair with a pattern section.
+func (ct *clashTable) compute(a, b int32) int {
 	for _, m := range ct.meets[a] {
 		for _, o := range ct.meets[b] {
 			if m.Day != o.Day || !m.Weeks.Overlaps(o.Weeks) {
@@ -158,4 +159,20 @@ func (ct *clashTable) compute(a, b int32) int {
 		}
 	}
 	return 0
+}
+
+// overlap reports whether some meetings of a and b share a minute of a
+// common day in a common week (grid pairs: a common period).
+func (ct *clashTable) overlap(a, b int32) bool {
+	if !ct.pat[a] && !ct.pat[b] {
+		return ct.gridClash(a, b) > 0
+	}
+	for _, m := range ct.meets[a] {
+		for _, o := range ct.meets[b] {
+			if m.Overlaps(o.Occurrence) {
+				return true
+			}
+		}
+	}
+	return false
 }

@@ -3,6 +3,7 @@ package sectioning
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"time"
 
 	"github.com/termwright/termwright/timetable"
@@ -65,6 +66,10 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 					pid = []string{"Lecture", "Lab", "Tutorial", "Seminar"}[pt%4] + fmt.Sprint(pt/4+1)
 				}
 				nSec := 1 + rng.IntN(g.maxSections)
+				child := g.parents && pt > 0 && len(first) > 0
+				if child { // every parent gets one or two children in this part
+					nSec = len(first) * (1 + rng.IntN(2))
+				}
 				var secs []int
 				for k := 0; k < nSec; k++ {
 					sec := timetable.Section{
@@ -72,8 +77,8 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 						Size: 1, Meetings: 1, Length: 1, NoRoom: true, Weeks: all,
 						Course: cid, Arrangement: aid, Part: pid,
 					}
-					if g.parents && pt > 0 && len(first) > 0 {
-						sec.Parent = t.Sections[first[rng.IntN(len(first))]].ID
+					if child {
+						sec.Parent = t.Sections[first[k%len(first)]].ID
 					}
 					si := len(t.Sections)
 					if pattern {
@@ -112,7 +117,7 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			demand[c]++
 			if g.alternatives && rng.IntN(3) == 0 {
 				alt := rng.IntN(g.courses)
-				if alt != c {
+				if !slices.Contains(picked, alt) {
 					r.Alternatives = []string{fmt.Sprintf("C%03d", alt)}
 				}
 			}
@@ -123,18 +128,46 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			t.Requests = append(t.Requests, r)
 		}
 	}
+	// limits: the first part of an arrangement shares the course's demand
+	// times slack; a child section shares its parent's limit with its
+	// siblings (parents come first in cps)
+	idx := t.SectionIndex()
 	for c, cps := range coursesParts {
 		for _, pr := range cps {
 			lim := int(demand[c]*g.slack/float64(len(pr.secs)) + 0.999)
 			for _, si := range pr.secs {
-				t.Sections[si].Limit = max(lim, 1)
-				t.Sections[si].Size = t.Sections[si].Limit
+				sec := &t.Sections[si]
+				sec.Limit = max(lim, 1)
+				if sec.Parent != "" {
+					par := idx[sec.Parent]
+					sib := 0
+					for _, sj := range pr.secs {
+						if t.Sections[sj].Parent == sec.Parent {
+							sib++
+						}
+					}
+					sec.Limit = max((t.Sections[par].Limit+sib-1)/sib, 1)
+				}
+				sec.Size = sec.Limit
 			}
 		}
 	}
+	// fixed enrolments, distinct; a section's limit is raised to hold its
+	// fixed students (a term over its limits by fixed enrolments alone is
+	// bad data, not a sectioning problem)
+	fixed := map[timetable.Enrolment]bool{}
+	count := map[int]int{}
 	for f := 0; f < g.fixed; f++ {
 		si := rng.IntN(len(t.Sections))
-		t.Enrolments = append(t.Enrolments, timetable.Enrolment{Student: fmt.Sprintf("S%05d", rng.IntN(max(g.students, 1))), Section: t.Sections[si].ID})
+		e := timetable.Enrolment{Student: fmt.Sprintf("S%05d", rng.IntN(max(g.students, 1))), Section: t.Sections[si].ID}
+		if fixed[e] {
+			continue
+		}
+		fixed[e] = true
+		count[si]++
+		t.Enrolments = append(t.Enrolments, e)
+		t.Sections[si].Limit = max(t.Sections[si].Limit, count[si])
+		t.Sections[si].Size = t.Sections[si].Limit
 	}
 	return t, s
 }

@@ -71,27 +71,35 @@ func (p *problem) order(rng *rand.Rand) []int32 {
 }
 
 // placeBest seats request r in its best option with room, trying options
-// up to (not including) upto; it reports whether it did. With a current
-// seating, it moves only to something strictly better.
+// up to (not including) upto; it reports whether it did.
 func (p *problem) placeBest(sr *searcher, r int32, upto int) bool {
-	rq := &p.reqs[r]
-	k := rq.student
-	others := p.others(k, r, nil)
-	for o := 0; o < upto && o < len(rq.options); o++ {
-		c := rq.options[o]
-		if c < 0 || p.holdsCourse(k, c, r) {
-			continue
-		}
-		q := query{r: r, k: k, c: c, others: others, pass: -1}
-		if p.course(r) == c {
-			q.own = p.st.secs[r]
-		}
-		if e, ok := sr.find(&q); ok {
-			p.seat(r, int32(o), e.secs)
+	for o := 0; o < upto && o < len(p.reqs[r].options); o++ {
+		if p.placeOption(sr, r, int32(o)) {
 			return true
 		}
 	}
 	return false
+}
+
+// placeOption seats request r in its cheapest enrollment with room of
+// option o (r's own sections count as room); it reports whether it did.
+func (p *problem) placeOption(sr *searcher, r, o int32) bool {
+	rq := &p.reqs[r]
+	k := rq.student
+	c := rq.options[o]
+	if c < 0 || p.holdsCourse(k, c, r) {
+		return false
+	}
+	sr.others = p.others(k, r, sr.others)
+	q := query{r: r, k: k, c: c, others: sr.others, pass: -1}
+	if p.course(r) == c {
+		q.own = p.st.secs[r]
+	}
+	e, ok := sr.find(&q)
+	if ok {
+		p.seat(r, o, e.secs)
+	}
+	return ok
 }
 
 // greedy seats every request in order, repairing where places run out.

@@ -30,27 +30,29 @@ func (p *problem) setKept(keep *timetable.Schedule) {
 	}
 }
 
-// seatKept seats the kept students first, each request in its best
-// option with room: the moved-students cost keeps their sections where
-// the rules and the limits still allow.
+// seatKept seats the kept students first, each request in the option
+// it held in the kept timetable (its best enrollment with room there: the
+// moved-students cost keeps the sections where the rules and the limits
+// still allow), higher priorities first.
 func (p *problem) seatKept(sr *searcher) {
-	var rs []int32
+	type keptReq struct{ r, o int32 }
+	var rs []keptReq
 	for k := range p.students {
 		if len(p.students[k].kept) == 0 {
 			continue
 		}
 		for _, r := range p.students[k].reqs {
-			for _, c := range p.reqs[r].options {
+			for o, c := range p.reqs[r].options {
 				if c >= 0 && len(p.students[k].kept[c]) > 0 {
-					rs = append(rs, r)
+					rs = append(rs, keptReq{r, int32(o)})
 					break
 				}
 			}
 		}
 	}
-	sort.SliceStable(rs, func(i, j int) bool { return p.reqs[rs[i]].rank < p.reqs[rs[j]].rank })
-	for _, r := range rs {
-		p.placeBest(sr, r, len(p.reqs[r].options))
+	sort.SliceStable(rs, func(i, j int) bool { return p.reqs[rs[i].r].rank < p.reqs[rs[j].r].rank })
+	for _, kr := range rs {
+		p.placeOption(sr, kr.r, kr.o)
 	}
 }
 
@@ -63,11 +65,18 @@ func (p *problem) moves(keep *timetable.Schedule) []Move {
 		student, course string
 		part            int32
 	}
+	byID := make(map[string]int32, len(p.students))
+	for k := range p.students {
+		byID[p.students[k].id] = int32(k)
+	}
 	from := map[key]string{}
 	for _, e := range keep.Enrolments {
 		si, ok := p.secIdx[e.Section]
 		if !ok || p.secCourse[si] < 0 {
 			continue
+		}
+		if k, ok := byID[e.Student]; ok && p.isFixed(k, int32(si)) {
+			continue // now a fixed enrolment: the student did not move
 		}
 		from[key{e.Student, p.courses[p.secCourse[si]].ID, p.secPart[si]}] = e.Section
 	}

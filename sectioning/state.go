@@ -9,6 +9,15 @@ type state struct {
 	opt     []int32   // request -> index into its options, -1 when unplaced
 	secs    [][]int32 // request -> its sectioned sections (its enrollment without fixed sections)
 	holders [][]int32 // section -> requests seated in it
+	// Change counters for skipping work that cannot pay: a student's
+	// counter grows whenever their seating changes, a course's whenever
+	// one of its full sections loses a student (opens).
+	studentVer []uint32
+	courseVer  []uint32
+	opened     []uint32 // section -> times it went from full to having room
+	// zeroAt[r] is the student's counter at which request r was last seen
+	// to cost nothing (0: never; counters start at 1).
+	zeroAt []uint32
 }
 
 func newState(p *problem) state {
@@ -17,6 +26,14 @@ func newState(p *problem) state {
 		opt:     make([]int32, len(p.reqs)),
 		secs:    make([][]int32, len(p.reqs)),
 		holders: make([][]int32, len(p.t.Sections)),
+
+		studentVer: make([]uint32, len(p.students)),
+		courseVer:  make([]uint32, len(p.courses)),
+		zeroAt:     make([]uint32, len(p.reqs)),
+		opened:     make([]uint32, len(p.t.Sections)),
+	}
+	for i := range st.studentVer {
+		st.studentVer[i] = 1
 	}
 	for i := range st.opt {
 		st.opt[i] = -1
@@ -31,6 +48,7 @@ func (p *problem) seat(r int32, o int32, secs []int32) {
 		p.unseat(r)
 	}
 	st.opt[r] = o
+	st.studentVer[p.reqs[r].student]++
 	st.secs[r] = append(st.secs[r][:0], secs...)
 	for _, x := range secs {
 		st.load[x]++
@@ -44,7 +62,12 @@ func (p *problem) unseat(r int32) {
 	if st.opt[r] < 0 {
 		return
 	}
+	st.studentVer[p.reqs[r].student]++
 	for _, x := range st.secs[r] {
+		if st.load[x] == p.limit[x] {
+			st.opened[x]++
+			st.courseVer[p.secCourse[x]]++
+		}
 		st.load[x]--
 		h := st.holders[x]
 		for i, q := range h {
