@@ -120,12 +120,13 @@ func TestBenchXMLBadInput(t *testing.T) {
 	assert.Contains(t, stderr, `best.csv:1: the header has no "time" column`)
 }
 
-// TestBenchXMLRealSolve runs the real pipeline on tinyXML. By hand: class 1
-// on Monday overlaps class 2 (2 x distribution weight 3 = 6), so the best
-// is class 1 on Tuesday (time penalty 1 x weight 2) in room 1 (penalty 0):
-// cost 2.
+// TestBenchXMLRealSolve runs the real pipeline (planning.Plan) on tinyXML.
+// By hand: class 1 on Monday overlaps class 2 (2 x distribution weight 3 =
+// 6), so the best is class 1 on Tuesday (time penalty 1 x weight 2) in room
+// 1 (penalty 0): cost 2; student s takes one class of the course's one
+// part, so no student rule breaks and no clash is possible.
 func TestBenchXMLRealSolve(t *testing.T) {
-	code, out, stderr := runBenchWith(t, nil, benchXMLDir(t), "--json", "--time-limit", "60s")
+	code, out, stderr := runBenchWith(t, nil, benchXMLDir(t), "--json", "--time-limit", "20s")
 	require.Equal(t, exitOK, code, stderr)
 	var rep benchReport
 	require.NoError(t, json.Unmarshal([]byte(out), &rep))
@@ -134,6 +135,8 @@ func TestBenchXMLRealSolve(t *testing.T) {
 	assert.True(t, r.Feasible, stderr)
 	require.NotNil(t, r.Cost)
 	assert.Equal(t, 2, *r.Cost)
+	require.NotNil(t, r.Pattern.Hard)
+	assert.Zero(t, r.Pattern.Hard.Sectioning, "student s is seated")
 	assert.NotContains(t, stderr, "differs")
 	assert.NotContains(t, stderr, "please report")
 }

@@ -216,3 +216,25 @@ func fullest(s *timetable.Schedule) (string, int) {
 	}
 	return best, n
 }
+
+// BenchmarkXMLHardWithStudents evaluates the hard rules, students
+// included, of a random timetable of pu-cs-fal07 with the sectioner's
+// seating (2,002 students).
+func BenchmarkXMLHardWithStudents(b *testing.B) {
+	in := readSharedXML(b, "pu-cs-fal07")
+	term := in.Term()
+	s := randomSchedule(term, rand.New(rand.NewPCG(1, 1)))
+	res, err := sectioning.Section(context.Background(), term, s, sectioning.Options{Seed: 1})
+	if err != nil {
+		b.Fatal(err)
+	}
+	s.Enrolments = res.Enrolments
+	sol, err := XMLSolutionOf(in, s, XMLRunInfo{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		XMLHardViolations(in, sol)
+	}
+}
