@@ -82,14 +82,16 @@ func (b *builder) sameRoomWays(secs []int) [][]solver.Lit {
 	return ways
 }
 
-// roomUsers lists, per room used by two or more of secs, the room atoms.
+// roomUsers lists, per room used by two or more of secs, the literals
+// "the section uses the room" (sectionRoomLit: room atoms, or for grid
+// sections with known rooms their starts there).
 func (b *builder) roomUsers(secs []int) [][]solver.Lit {
 	var out [][]solver.Lit
 	for r := range b.t.Rooms {
 		var lits []solver.Lit
 		for _, s := range secs {
-			if a := b.c.RoomAtom(s, r); a != 0 {
-				lits = append(lits, solver.Pos(a))
+			if l := b.sectionRoomLit(s, r); l != 0 {
+				lits = append(lits, l)
 			}
 		}
 		if len(lits) >= 2 {
@@ -103,7 +105,7 @@ func (b *builder) roomUsers(secs []int) [][]solver.Lit {
 // (one bound per shared room).
 func (b *builder) hardDifferentRooms(secs []int, sel solver.Lit) {
 	for _, lits := range b.roomUsers(secs) {
-		b.bound(lits, solver.NoBound, 1, sel)
+		b.bound(b.distinct(lits), solver.NoBound, 1, sel)
 	}
 }
 

@@ -284,27 +284,36 @@ func TestPatternRelationsOrderedPair(t *testing.T) {
 	}
 }
 
-// TestPatternRelationGridRowsRejected: a new kind over grid sections, or a
-// row mixing grid and pattern sections, is an input error naming its row.
+// TestPatternRelationGridRowsRejected: the rows with grid sections the
+// encoder does not state are input errors naming their row, once, for hard
+// and soft rows alike: "same room" mixing grid and pattern sections, and
+// "different rooms" with a grid section that may meet in several rooms.
 func TestPatternRelationGridRowsRejected(t *testing.T) {
-	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.NoOverlap, true, 2)
+	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.SameRoom, true, 2)
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
 	term.Sections[1].Times = nil
 	term.Sections[1].Length = 1
-	for _, soft := range []bool{false, true} {
-		term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
-		_, _, err := Compile(term, Options{})
-		if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
-			t.Fatalf("soft=%v: err = %v, want the mixed row named", soft, err)
+	term.Sections[1].RoomChoices = nil
+	for _, kind := range []timetable.RelationKind{timetable.SameRoom, timetable.DifferentRooms} {
+		term.Relations[0].Kind = kind
+		want := "mixes"
+		if kind == timetable.DifferentRooms {
+			want = "may meet in any of several rooms"
 		}
-		if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
-			t.Fatalf("soft=%v: the row is reported %d times", soft, n)
+		for _, soft := range []bool{false, true} {
+			term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
+			_, _, err := Compile(term, Options{})
+			if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), want) {
+				t.Fatalf("%s soft=%v: err = %v, want the row named", kind, soft, err)
+			}
+			if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
+				t.Fatalf("%s soft=%v: the row is reported %d times", kind, soft, n)
+			}
 		}
 	}
-	term.Sections[0].Times = nil
-	term.Sections[0].Length = 1
-	_, _, err := Compile(term, Options{HardOnly: true})
-	if err == nil || !strings.Contains(err.Error(), "placed on the period grid") {
-		t.Fatalf("err = %v, want the grid row named", err)
+	// With one room for the grid section, "different rooms" compiles.
+	term.Sections[1].Rooms = []string{"R1"}
+	if _, _, err := Compile(term, Options{}); err != nil {
+		t.Fatalf("different rooms with a one-room grid section: %v", err)
 	}
 }

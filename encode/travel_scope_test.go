@@ -19,7 +19,7 @@ func TestTravelScope(t *testing.T) {
 	grid.Travel = []timetable.Travel{{From: grid.Rooms[0].ID, To: grid.Rooms[1].ID, Minutes: 15, Src: timetable.Source{Sheet: "Travel", Row: 2}}}
 	_, _, err := Compile(grid, Options{})
 	require.Error(t, err)
-	assert.Contains(t, err.Error(), "Travel row 2: travel times are kept between sections with meeting times only")
+	assert.Contains(t, err.Error(), "Travel row 2: travel times are kept for grid sections with one room only")
 
 	campus := samples.Campus()
 	require.NotEmpty(t, campus.Travel)

@@ -1,0 +1,126 @@
+package encode
+
+import (
+	"github.com/termwright/termwright/solver"
+)
+
+// itemRoom is one way an item of a relation or a person's meetings can be
+// held: in room r (index into Term.Rooms) when lit holds (0: the item's
+// room is known, no literal needed).
+type itemRoom struct {
+	r   int
+	lit solver.Lit
+}
+
+// itemRooms lists the rooms an item can be held in: a pattern section's
+// candidate rooms with their room atoms, a grid start's known room
+// (gridRoomOf; none when unknown, which callers refuse beforehand, or when
+// the section takes no room).
+func (b *builder) itemRooms(it *relItem) []itemRoom {
+	if it.grid {
+		if r, ok := b.gridRoomOf(it.s, it.i); ok && r >= 0 {
+			return []itemRoom{{r, 0}}
+		}
+		return nil
+	}
+	var out []itemRoom
+	for _, r := range b.c.RoomCandidates(it.s) {
+		out = append(out, itemRoom{r, solver.Pos(b.c.RoomAtom(it.s, r))})
+	}
+	return out
+}
+
+// sectionRoomLit is a literal "section s uses room r" (0: never): the room
+// atom of a pattern section; for a grid section with known rooms the
+// disjunction of its starts held in r, or the constant true when all are.
+func (b *builder) sectionRoomLit(s, r int) solver.Lit {
+	if b.c.IsPattern(s) {
+		if a := b.c.RoomAtom(s, r); a != 0 {
+			return solver.Pos(a)
+		}
+		return 0
+	}
+	items := b.gridItems(s)
+	var in []int
+	for k := range items {
+		if rr, ok := b.gridRoomOf(s, items[k].i); ok && rr == r {
+			in = append(in, k)
+		}
+	}
+	switch {
+	case len(in) == 0:
+		return 0
+	case len(in) == len(items):
+		return b.relTrue()
+	}
+	return b.itemsOr(items, in)
+}
+
+// travelPairWays appends the bodies that hold exactly when an item x of A
+// and an item y of C (two sections, or one grid section's two starts when
+// same) meet on a common day in a common week without overlapping, with
+// less free time between them than the travel time between their rooms.
+// Pairs whose gap reaches maxT never need it and are skipped.
+func (b *builder) travelPairWays(ways [][]solver.Lit, A, C []relItem, same bool, maxT int) [][]solver.Lit {
+	for i := range A {
+		x := &A[i]
+		ra := b.itemRooms(x)
+		if len(ra) == 0 {
+			continue
+		}
+		for j := range C {
+			y := &C[j]
+			if same && (j <= i || x.grp == y.grp) {
+				continue
+			}
+			gap, ok := patternGap(x.tc, y.tc)
+			if !ok || gap >= maxT {
+				continue
+			}
+			for _, p := range ra {
+				for _, q := range b.itemRooms(y) {
+					if b.travelMinutes(p.r, q.r) <= gap {
+						continue
+					}
+					body := []solver.Lit{x.lit, y.lit}
+					if p.lit != 0 {
+						body = append(body, p.lit)
+					}
+					if q.lit != 0 {
+						body = append(body, q.lit)
+					}
+					ways = append(ways, body)
+				}
+			}
+		}
+	}
+	return ways
+}
+
+// itemTravelWays is the travel half of "same people" for a pair of
+// sections of a row with grid sections.
+func (b *builder) itemTravelWays(A, C []relItem) [][]solver.Lit {
+	if len(b.t.Travel) == 0 {
+		return nil
+	}
+	most := b.travelIndex().Most()
+	if most <= 0 {
+		return nil
+	}
+	return b.travelPairWays(nil, A, C, false, most)
+}
+
+// relTravelWays is the travel half of a "same people" row: travelWays for
+// pattern sections, itemTravelWays per pair when grid sections take part.
+func (b *builder) relTravelWays(secs []int) [][]solver.Lit {
+	if !b.hasGrid(secs) {
+		return b.travelWays(secs)
+	}
+	var ways [][]solver.Lit
+	for i, a := range secs {
+		for _, c := range secs[i+1:] {
+			ways = append(ways, b.itemTravelWays(b.relItems([]int{a}), b.relItems([]int{c}))...)
+		}
+	}
+	return ways
+}
