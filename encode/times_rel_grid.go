@@ -77,11 +77,11 @@ func (b *builder) gridRoomOf(s, p int) (int, bool) {
 	return members[0], true
 }
 
-// gridRoomsKnown reports whether every candidate meeting of grid section s
-// has a known room (gridRoomOf).
+// gridRoomsKnown reports whether the room of every candidate meeting of
+// grid section s is known or chosen during the search (gridItemRooms).
 func (b *builder) gridRoomsKnown(s int) bool {
 	for _, p := range b.c.secs[s].starts {
-		if _, ok := b.gridRoomOf(s, p); !ok {
+		if _, ok := b.gridItemRooms(s, p); !ok {
 			return false
 		}
 	}

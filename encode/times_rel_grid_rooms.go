@@ -18,10 +18,8 @@ type itemRoom struct {
 // the section takes no room).
 func (b *builder) itemRooms(it *relItem) []itemRoom {
 	if it.grid {
-		if r, ok := b.gridRoomOf(it.s, it.i); ok && r >= 0 {
-			return []itemRoom{{r, 0}}
-		}
-		return nil
+		rooms, _ := b.gridItemRooms(it.s, it.i)
+		return rooms
 	}
 	var out []itemRoom
 	for _, r := range b.c.RoomCandidates(it.s) {
@@ -42,18 +40,20 @@ func (b *builder) sectionRoomLit(s, r int) solver.Lit {
 	}
 	items := b.gridItems(s)
 	var in []int
+	var bodies [][]solver.Lit
 	for k := range items {
-		if rr, ok := b.gridRoomOf(s, items[k].i); ok && rr == r {
+		if l := b.gridRoomLit(s, items[k].i, r); l != 0 {
 			in = append(in, k)
+			bodies = append(bodies, []solver.Lit{l})
 		}
 	}
 	switch {
 	case len(in) == 0:
 		return 0
-	case len(in) == len(items):
+	case len(in) == len(items) && !b.explicitGrid(s):
 		return b.relTrue()
 	}
-	return b.itemsOr(items, in)
+	return b.relOr(itemsKey("in_room", items, in, r), "uses_room", bodies)
 }
 
 // travelPairWays appends the bodies that hold exactly when an item x of A

@@ -40,7 +40,8 @@ func mixedGridPeriods() []timetable.Period {
 // over nSec sections, grid and pattern sections mixed (the first is on the
 // grid; with two or more, the second has patterns, the rest either). Rows
 // of the room kinds get rooms in two buildings with travel between them:
-// grid sections one room each, pattern sections a list of one or two.
+// grid sections one room, or two of which one is the second section's
+// first room; pattern sections a list of one or two.
 // Every criterion weighs 0 but "soft relations".
 func mixedTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int) *timetable.Term {
 	t := relTestTerm(rng, k, hard, nSec)
@@ -65,6 +66,13 @@ func mixedTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int
 			if !sec.NoRoom {
 				sec.RoomChoices = nil
 				sec.Rooms = []string{t.Rooms[rng.Intn(len(t.Rooms))].ID}
+				if len(t.Sections) > 1 && rng.Intn(2) == 0 {
+					// Two rooms, one shared with S2 (a pattern section):
+					// explicit grid rooms (rooms_grid.go).
+					shared := t.Sections[1].RoomChoices[0].Room
+					other := t.Rooms[(slices.IndexFunc(t.Rooms, func(r timetable.Room) bool { return r.ID == shared })+1+rng.Intn(2))%3].ID
+					sec.Rooms = []string{shared, other}
+				}
 			}
 			continue
 		}
@@ -84,8 +92,9 @@ func mixedTestTerm(rng *rand.Rand, k timetable.RelationKind, hard bool, nSec int
 }
 
 // bruteSchedules lists every timetable of a term whose sections take no
-// room or one (grid) / a list (RoomChoices) of rooms: grid sections at
-// every set of Meetings start periods whose meetings fit the grid, pattern
+// room or list their rooms (Rooms for grid sections, RoomChoices for
+// pattern sections): grid sections at every set of Meetings start periods
+// whose meetings fit the grid, each meeting in every listed room, pattern
 // sections at every pattern and candidate room.
 func bruteSchedules(t *timetable.Term) []*timetable.Schedule {
 	type opt []timetable.Placement
@@ -107,9 +116,9 @@ func bruteSchedules(t *timetable.Term) []*timetable.Schedule {
 			}
 			continue
 		}
-		room := ""
+		rooms := []string{""}
 		if !sec.NoRoom {
-			room = sec.Rooms[0]
+			rooms = sec.Rooms
 		}
 		var fit []int
 		for p := range t.Periods {
@@ -120,11 +129,16 @@ func bruteSchedules(t *timetable.Term) []*timetable.Schedule {
 		var rec func(from int, cur []int)
 		rec = func(from int, cur []int) {
 			if len(cur) == sec.Meetings {
-				var o opt
-				for k, p := range cur {
-					o = append(o, timetable.Placement{Section: sec.ID, Meeting: k + 1, Period: p, Room: room})
+				// every room of the list for each meeting
+				for code := 0; code < pow(len(rooms), len(cur)); code++ {
+					var o opt
+					c := code
+					for k, p := range cur {
+						o = append(o, timetable.Placement{Section: sec.ID, Meeting: k + 1, Period: p, Room: rooms[c%len(rooms)]})
+						c /= len(rooms)
+					}
+					per[s] = append(per[s], o)
 				}
-				per[s] = append(per[s], o)
 				return
 			}
 			for k := from; k < len(fit); k++ {
@@ -145,6 +159,14 @@ func bruteSchedules(t *timetable.Term) []*timetable.Schedule {
 		}
 	}
 	rec(0, nil)
+	return out
+}
+
+func pow(a, n int) int {
+	out := 1
+	for range n {
+		out *= a
+	}
 	return out
 }
 
@@ -371,24 +393,31 @@ func TestGridTravelAgainstCheck(t *testing.T) {
 	}
 }
 
-// TestGridTravelRefusal: a grid section that may meet in several rooms,
-// beside other sections in rooms of one staff member, still stops the
-// compile under travel rows, naming the Travel row and the section.
-func TestGridTravelRefusal(t *testing.T) {
+// TestGridTravelRooms: a grid section that may meet in several rooms,
+// beside other sections in rooms of one staff member under travel rows,
+// gets explicit rooms (rooms_grid.go) and compiles; in a same-room
+// relation as well, it stops the compile naming the section.
+func TestGridTravelRooms(t *testing.T) {
 	term := mixedTestTerm(rand.New(rand.NewSource(5)), timetable.SamePeople, true, 2)
 	term.Relations = nil
 	term.Staff = []timetable.Staff{{ID: "T1", Name: "Teacher One"}}
 	for s := range term.Sections {
 		term.Sections[s].Staff = []string{"T1"}
 	}
-	term.Travel[0].Src = timetable.Source{Sheet: "Travel", Row: 2}
 	term.Sections[0].Rooms = []string{"R1", "R3"}
-	_, _, err := Compile(term, Options{})
-	if err == nil || !strings.Contains(err.Error(), "Travel row 2") || !strings.Contains(err.Error(), "grid section S1") {
-		t.Fatalf("err = %v, want the travel row and S1 named", err)
+	_, cat, err := Compile(term, Options{})
+	if err != nil {
+		t.Fatal(err)
 	}
-	term.Sections[0].Rooms = []string{"R3"}
-	if _, _, err := Compile(term, Options{}); err != nil {
-		t.Fatalf("one room: %v", err)
+	if _, ok := cat.gridRooms[0]; !ok {
+		t.Fatal("S1 has no explicit rooms")
+	}
+	agreeWithCheck(t, term)
+	term.Sections = append(term.Sections, timetable.Section{ID: "S3", Meetings: 1, Length: 1, Size: 10, Rooms: []string{"R1", "R3"},
+		Weeks: term.AllWeeks(), Src: timetable.Source{Sheet: "Sections", Row: 4}})
+	term.Relations = []timetable.Relation{{Kind: timetable.SameRoom, Sections: []string{"S1", "S3"}, Hard: true, Src: timetable.Source{Sheet: "Relations", Row: 2}}}
+	_, _, err = Compile(term, Options{})
+	if err == nil || !strings.Contains(err.Error(), "Sections row 2") || !strings.Contains(err.Error(), "section S1 is in a same-room relation") {
+		t.Fatalf("err = %v, want S1 named", err)
 	}
 }

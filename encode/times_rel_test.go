@@ -287,7 +287,8 @@ func TestPatternRelationsOrderedPair(t *testing.T) {
 // TestPatternRelationGridRowsRejected: the rows with grid sections the
 // encoder does not state are input errors naming their row, once, for hard
 // and soft rows alike: "same room" mixing grid and pattern sections, and
-// "different rooms" with a grid section that may meet in several rooms.
+// "different rooms" with a grid section that may meet in several rooms no
+// pattern section shares (its rooms are matched after the search).
 func TestPatternRelationGridRowsRejected(t *testing.T) {
 	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.SameRoom, true, 2)
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
@@ -298,7 +299,10 @@ func TestPatternRelationGridRowsRejected(t *testing.T) {
 		term.Relations[0].Kind = kind
 		want := "mixes"
 		if kind == timetable.DifferentRooms {
+			// S1 may use rooms S2 does not share: its rooms are matched.
 			want = "may meet in any of several rooms"
+			term.Sections[0].RoomChoices = []timetable.RoomChoice{{Room: "R3"}}
+			term.Sections[1].Rooms = []string{"R1", "R2"}
 		}
 		for _, soft := range []bool{false, true} {
 			term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
