@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"github.com/termwright/termwright/solver"
+	"github.com/termwright/termwright/timetable"
 )
 
 // Explicit rooms for grid sections. The grid's rooms are counted during
@@ -106,6 +107,30 @@ func (b *builder) makeExplicitGrid() {
 		}
 		return u
 	}
+	// Room rows that list a grid section beside a pattern section, or
+	// compare rooms in a kind of pattern terms.
+	for _, rel := range t.Relations {
+		k := rel.Kind
+		if k != timetable.SameRoom && k != timetable.DifferentRooms && k != timetable.SamePeople {
+			continue
+		}
+		var secs []int
+		pat := false
+		for _, id := range rel.Sections {
+			if s, ok := b.secIdx[id]; ok {
+				secs = append(secs, s)
+				pat = pat || b.c.IsPattern(s)
+			}
+		}
+		if k == timetable.SameRoom && !pat {
+			continue // the grid's own same-room groups
+		}
+		for _, s := range secs {
+			if multi(s) {
+				explicit[s] = true
+			}
+		}
+	}
 	for s := range explicit {
 		watched = watched.union(cands(s))
 	}
@@ -135,10 +160,6 @@ func (b *builder) makeExplicitGrid() {
 		}
 		m := &b.c.secs[s]
 		sec := &t.Sections[s]
-		if m.sameRoom >= 0 {
-			b.errorf(sec.Src, "section %s is in a same-room relation and may use rooms that sections with meeting times (or travel times) also need: give it one room, or leave it out of the same-room relation (this mix is not supported yet)", sec.ID)
-			continue
-		}
 		gm := &gridRoomModel{rooms: map[int][]gridRoomAtom{}}
 		b.c.gridRooms[s] = gm
 		for _, p := range m.starts {
@@ -161,6 +182,16 @@ func (b *builder) makeExplicitGrid() {
 			}
 			b.choice(heads, 1, 1, solver.Pos(m.start[p]))
 		}
+	}
+	// A hard same-room group of the grid (rooms.sameRoom) with explicit
+	// rooms: its meetings use one room. Its members share one candidate
+	// set, so they are all explicit or none is.
+	for g := range rm.sameRoom {
+		gr := &rm.sameRoom[g]
+		if !explicit[gr.sections[0]] {
+			continue
+		}
+		b.bound(b.usedRooms(gr.sections), solver.NoBound, 1)
 	}
 }
 

@@ -32,10 +32,10 @@ import (
 //     on the keys (mixedWays);
 //   - the counted kinds reuse times_rel_days.go on the items, each grid
 //     start its own exclusive group;
-//   - rooms (different rooms, the travel half of same people, travel
-//     times) are known for a grid section only when each of its candidate
-//     starts has one candidate room (gridRoomOf); others are refused with
-//     the row named (the grid's rooms are matched after the search).
+//   - rooms (same room, different rooms, the travel half of same people,
+//     travel times) are known for a grid section when each of its
+//     candidate starts has one candidate room (gridRoomOf), or chosen by
+//     explicit grid_in atoms (rooms_grid.go), which these rows ask for.
 
 // gridItems lists the candidate starts of grid section s as items.
 func (b *builder) gridItems(s int) []relItem {
@@ -89,13 +89,12 @@ func (b *builder) gridRoomsKnown(s int) bool {
 }
 
 // mixedRefusal says why a row with grid sections cannot be stated ("" when
-// it can): "same room" needs the grid's room matching, and the room kinds
-// need every listed grid section's rooms known.
+// it can): the room kinds need every listed grid section's rooms known or
+// explicit (rooms_grid.go makes them explicit for these rows, so this is a
+// safeguard).
 func (b *builder) mixedRefusal(rel *timetable.Relation, secs []int) string {
 	switch rel.Kind {
-	case timetable.SameRoom:
-		return fmt.Sprintf("relation %q mixes sections with meeting times and sections on the period grid (%s), which is not supported for this kind yet: give every listed section meeting times, or none", rel.Kind, strings.Join(rel.Sections, ", "))
-	case timetable.DifferentRooms, timetable.SamePeople:
+	case timetable.SameRoom, timetable.DifferentRooms, timetable.SamePeople:
 		for _, s := range secs {
 			if !b.c.IsPattern(s) && !b.gridRoomsKnown(s) {
 				return fmt.Sprintf("relation %q needs the rooms of grid section %s, which may meet in any of several rooms: give it one room (or meeting times), or use another kind", rel.Kind, b.t.Sections[s].ID)
@@ -250,6 +249,8 @@ func (b *builder) mixedWays(rel *timetable.Relation, secs []int) [][]solver.Lit 
 		return b.sameStartWays(secs, per)
 	case timetable.DifferentRooms:
 		return b.differentRoomsWays(secs)
+	case timetable.SameRoom:
+		return b.mixedSameRoomWays(secs)
 	}
 	for _, pr := range relPairs(k, secs) {
 		A, C := per[pr[0]], per[pr[1]]

@@ -124,3 +124,36 @@ func (b *builder) relTravelWays(secs []int) [][]solver.Lit {
 	}
 	return ways
 }
+
+// usedRooms returns, per room some of secs may use, the literal "one of
+// secs holds a meeting there" (sectionRoomLit), made distinct for bounds.
+func (b *builder) usedRooms(secs []int) []solver.Lit {
+	var used []solver.Lit
+	for r := range b.t.Rooms {
+		var bodies [][]solver.Lit
+		for _, s := range secs {
+			if l := b.sectionRoomLit(s, r); l != 0 {
+				bodies = append(bodies, []solver.Lit{l})
+			}
+		}
+		if l := b.relOr("", "room_used", bodies); l != 0 {
+			used = append(used, l)
+		}
+	}
+	return b.distinct(used)
+}
+
+// mixedSameRoomWays: "all meetings of all listed sections use one room"
+// breaks when two rooms are used (timetable.Check: the listed sections'
+// meetings with a room use one room; sections that take none are left
+// out).
+func (b *builder) mixedSameRoomWays(secs []int) [][]solver.Lit {
+	used := b.usedRooms(secs)
+	var ways [][]solver.Lit
+	for i := range used {
+		for j := i + 1; j < len(used); j++ {
+			ways = append(ways, []solver.Lit{used[i], used[j]})
+		}
+	}
+	return ways
+}

@@ -284,12 +284,12 @@ func TestPatternRelationsOrderedPair(t *testing.T) {
 	}
 }
 
-// TestPatternRelationGridRowsRejected: the rows with grid sections the
-// encoder does not state are input errors naming their row, once, for hard
-// and soft rows alike: "same room" mixing grid and pattern sections, and
-// "different rooms" with a grid section that may meet in several rooms no
-// pattern section shares (its rooms are matched after the search).
-func TestPatternRelationGridRowsRejected(t *testing.T) {
+// TestPatternRelationGridRowsExplicit: room rows that list a grid section
+// with several candidate rooms beside a pattern section ("same room",
+// "different rooms"), hard or soft, give the grid section explicit rooms
+// (rooms_grid.go) and compile; their agreement with timetable.Check is
+// TestGridRelationsAgainstCheck's.
+func TestPatternRelationGridRowsExplicit(t *testing.T) {
 	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.SameRoom, true, 2)
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
 	term.Sections[1].Times = nil
@@ -297,27 +297,15 @@ func TestPatternRelationGridRowsRejected(t *testing.T) {
 	term.Sections[1].RoomChoices = nil
 	for _, kind := range []timetable.RelationKind{timetable.SameRoom, timetable.DifferentRooms} {
 		term.Relations[0].Kind = kind
-		want := "mixes"
-		if kind == timetable.DifferentRooms {
-			// S1 may use rooms S2 does not share: its rooms are matched.
-			want = "may meet in any of several rooms"
-			term.Sections[0].RoomChoices = []timetable.RoomChoice{{Room: "R3"}}
-			term.Sections[1].Rooms = []string{"R1", "R2"}
-		}
 		for _, soft := range []bool{false, true} {
 			term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
-			_, _, err := Compile(term, Options{})
-			if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), want) {
-				t.Fatalf("%s soft=%v: err = %v, want the row named", kind, soft, err)
+			_, cat, err := Compile(term, Options{})
+			if err != nil {
+				t.Fatalf("%s soft=%v: %v", kind, soft, err)
 			}
-			if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
-				t.Fatalf("%s soft=%v: the row is reported %d times", kind, soft, n)
+			if _, ok := cat.gridRooms[1]; !ok {
+				t.Fatalf("%s soft=%v: S2 has no explicit rooms", kind, soft)
 			}
 		}
-	}
-	// With one room for the grid section, "different rooms" compiles.
-	term.Sections[1].Rooms = []string{"R1"}
-	if _, _, err := Compile(term, Options{}); err != nil {
-		t.Fatalf("different rooms with a one-room grid section: %v", err)
 	}
 }
