@@ -34,6 +34,7 @@ import (
 // explicit rooms.
 type gridRoomModel struct {
 	rooms map[int][]gridRoomAtom // rooms[p]: the candidate rooms of the meeting starting at p
+	lits  map[int][]itemRoom     // lits[p]: the same as rooms and literals (gridItemRooms), read-only
 }
 
 // gridRoomAtom is one candidate room of one grid meeting.
@@ -160,7 +161,7 @@ func (b *builder) makeExplicitGrid() {
 		}
 		m := &b.c.secs[s]
 		sec := &t.Sections[s]
-		gm := &gridRoomModel{rooms: map[int][]gridRoomAtom{}}
+		gm := &gridRoomModel{rooms: map[int][]gridRoomAtom{}, lits: map[int][]itemRoom{}}
 		b.c.gridRooms[s] = gm
 		for _, p := range m.starts {
 			id := m.candAt(p)
@@ -174,6 +175,7 @@ func (b *builder) makeExplicitGrid() {
 				a := b.newAtom(fmt.Sprintf("grid_in(%s,%s,%s)", quote(sec.ID), periodName(t.Periods[p]), quote(t.Rooms[r].ID)),
 					AtomInfo{Kind: AtomAux, Section: s, Period: p, Staff: -1, Group: -1, Room: r})
 				gm.rooms[p] = append(gm.rooms[p], gridRoomAtom{r: r, atom: a, one: rm.sets.intern(one)})
+				gm.lits[p] = append(gm.lits[p], itemRoom{r, solver.Pos(a)})
 				heads = append(heads, a)
 			}
 			if len(heads) == 0 {
@@ -217,11 +219,7 @@ func (b *builder) roomBlockedFor(r, p, length int) bool {
 // room is matched after the search (several candidates, no explicit atoms).
 func (b *builder) gridItemRooms(s, p int) ([]itemRoom, bool) {
 	if b.explicitGrid(s) {
-		var out []itemRoom
-		for _, x := range b.c.gridRooms[s].rooms[p] {
-			out = append(out, itemRoom{x.r, solver.Pos(x.atom)})
-		}
-		return out, true
+		return b.c.gridRooms[s].lits[p], true
 	}
 	r, ok := b.gridRoomOf(s, p)
 	if !ok {
@@ -281,4 +279,12 @@ func (d *decoder) modelMarks(model []solver.Atom) []bool {
 		}
 	}
 	return d.marks
+}
+
+// explicitRooms reports whether grid section s has explicit room atoms:
+// its rooms were chosen by the search against pattern meetings and travel,
+// so the room improvement after the search leaves them alone.
+func (c *Catalog) explicitRooms(s int) bool {
+	_, ok := c.gridRooms[s]
+	return ok
 }

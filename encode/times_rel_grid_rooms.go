@@ -1,6 +1,9 @@
 package encode
 
 import (
+	"fmt"
+	"strconv"
+
 	"github.com/termwright/termwright/solver"
 )
 
@@ -56,15 +59,83 @@ func (b *builder) sectionRoomLit(s, r int) solver.Lit {
 	return b.relOr(itemsKey("in_room", items, in, r), "uses_room", bodies)
 }
 
+// travelClasses puts rooms with the same travel time to every room in one
+// class (rooms of one building, usually): within a class travel is 0
+// (travel(r, r') = travel(r', r') for two rooms of one class), and between
+// two classes it is one number, so travel is stated per pair of classes.
+// It returns each room's class and a representative room per class.
+func (b *builder) travelClasses() (classOf, rep []int) {
+	if b.rel.classOf != nil {
+		return b.rel.classOf, b.rel.classRep
+	}
+	n := len(b.t.Rooms)
+	classOf = make([]int, n)
+	at := map[string]int{}
+	var key []byte
+	for r := range n {
+		key = key[:0]
+		for q := range n {
+			key = strconv.AppendInt(key, int64(b.travelMinutes(r, q)), 10)
+			key = append(key, ',')
+		}
+		c, ok := at[string(key)]
+		if !ok {
+			c = len(rep)
+			at[string(key)] = c
+			rep = append(rep, r)
+		}
+		classOf[r] = c
+	}
+	b.rel.classOf, b.rel.classRep = classOf, rep
+	return classOf, rep
+}
+
+// itemPlaces is itemRooms merged by travel class: per class the item can
+// be held in, its representative room and the literal "in one of the
+// class's rooms" (0 when known).
+func (b *builder) itemPlaces(it *relItem) []itemRoom {
+	rooms := b.itemRooms(it)
+	if len(rooms) <= 1 {
+		return rooms
+	}
+	classOf, rep := b.travelClasses()
+	by := map[int][][]solver.Lit{}
+	var order []int
+	for _, x := range rooms {
+		c := classOf[x.r]
+		if _, ok := by[c]; !ok {
+			order = append(order, c)
+		}
+		by[c] = append(by[c], []solver.Lit{x.lit})
+	}
+	out := make([]itemRoom, 0, len(order))
+	for _, c := range order {
+		key := fmt.Sprintf("place:%d:%d:%d:%d", it.s, it.i, btoi(it.grid), c)
+		out = append(out, itemRoom{rep[c], b.relOr(key, "in_place", by[c])})
+	}
+	return out
+}
+
+func btoi(x bool) int {
+	if x {
+		return 1
+	}
+	return 0
+}
+
 // travelPairWays appends the bodies that hold exactly when an item x of A
 // and an item y of C (two sections, or one grid section's two starts when
 // same) meet on a common day in a common week without overlapping, with
 // less free time between them than the travel time between their rooms.
 // Pairs whose gap reaches maxT never need it and are skipped.
 func (b *builder) travelPairWays(ways [][]solver.Lit, A, C []relItem, same bool, maxT int) [][]solver.Lit {
+	cls := make([][]itemRoom, len(C))
+	for j := range C {
+		cls[j] = b.itemPlaces(&C[j])
+	}
 	for i := range A {
 		x := &A[i]
-		ra := b.itemRooms(x)
+		ra := b.itemPlaces(x)
 		if len(ra) == 0 {
 			continue
 		}
@@ -78,7 +149,7 @@ func (b *builder) travelPairWays(ways [][]solver.Lit, A, C []relItem, same bool,
 				continue
 			}
 			for _, p := range ra {
-				for _, q := range b.itemRooms(y) {
+				for _, q := range cls[j] {
 					if b.travelMinutes(p.r, q.r) <= gap {
 						continue
 					}

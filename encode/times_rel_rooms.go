@@ -16,6 +16,8 @@ type relState struct {
 	units map[string][]solver.Lit // minute unit chains by items and step (units)
 	count map[string][]solver.Lit // sequential counters by their literals (atLeast)
 	n     int                     // auxiliary atoms made, for unique names
+	// classOf[r], classRep[c]: travel classes of rooms (travelClasses).
+	classOf, classRep []int
 }
 
 // relOr returns one literal that holds exactly when one of bodies holds:
