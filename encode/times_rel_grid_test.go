@@ -418,3 +418,48 @@ func TestGridTravelRooms(t *testing.T) {
 		t.Fatal("no timetable: the same-room case checked nothing")
 	}
 }
+
+// TestGridLimitsAgainstCheck: a staff member's weekly limits (periods,
+// minutes, days) and lunch breaks of staff and cohorts over grid and
+// pattern sections mixed (times_limits*.go count grid starts as meetings),
+// against Check on every timetable.
+func TestGridLimitsAgainstCheck(t *testing.T) {
+	rounds := 16
+	if testing.Short() {
+		rounds = 6
+	}
+	rng := rand.New(rand.NewSource(91))
+	accepted, total := 0, 0
+	for round := 0; round < rounds; round++ {
+		term := mixedTestTerm(rng, timetable.NoOverlap, true, 2+round%2)
+		term.Relations = nil
+		st := timetable.Staff{ID: "T1", Name: "Teacher One", Src: timetable.Source{Sheet: "Staff", Row: 2}}
+		co := timetable.Cohort{ID: "K1", Name: "Cohort One", Src: timetable.Source{Sheet: "Cohorts", Row: 2}}
+		switch round % 4 {
+		case 0:
+			st.MaxWeekMinutes = []int{100, 150, 200}[rng.Intn(3)]
+		case 1:
+			st.MaxWeekDays = 1 + rng.Intn(2)
+		case 2:
+			st.MaxWeekPeriods = 2 + rng.Intn(2)
+			st.Lunch = timetable.LunchBreak{From: 9 * 60, To: 11 * 60, Minutes: []int{30, 60}[rng.Intn(2)]}
+		case 3:
+			co.Lunch = timetable.LunchBreak{From: 8*60 + 30, To: 10*60 + 30, Minutes: []int{40, 60}[rng.Intn(2)]}
+		}
+		term.Staff, term.Cohorts = []timetable.Staff{st}, []timetable.Cohort{co}
+		for s := range term.Sections {
+			if s%2 == 0 || round%4 != 3 {
+				term.Sections[s].Staff = []string{"T1"}
+			}
+			if round%4 == 3 {
+				term.Sections[s].Cohorts = []string{"K1"}
+			}
+		}
+		accepted += agreeWithCheck(t, term)
+		total += len(bruteSchedules(term))
+	}
+	t.Logf("%d of %d timetables accepted", accepted, total)
+	if accepted == 0 {
+		t.Fatal("no round had a timetable: the test checked nothing")
+	}
+}
