@@ -135,6 +135,9 @@ func (b *builder) makeExplicitGrid() {
 	for s := range explicit {
 		watched = watched.union(cands(s))
 	}
+	if watched.count() == 0 {
+		return // no pattern room, no seed: the grid's rooms stay matched
+	}
 	for grew := true; grew; {
 		grew = false
 		for s := range t.Sections {

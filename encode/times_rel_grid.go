@@ -111,15 +111,6 @@ func (b *builder) itemsOr(items []relItem, idx []int) solver.Lit {
 	return b.relOr(itemsKey("one_of", items, idx), "one_of", bodies)
 }
 
-// allIdx is 0 .. n-1.
-func allIdx(n int) []int {
-	out := make([]int, n)
-	for i := range out {
-		out[i] = i
-	}
-	return out
-}
-
 // itemPairWays appends the bodies that hold exactly when an item x of A
 // and an item y of C both hold with !ok(x, y) (x in A's role). same says A
 // and C are one section (listed twice in an ordered row): then x and y may
