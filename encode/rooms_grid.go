@@ -17,7 +17,8 @@ import (
 //   - one of its candidate rooms is a candidate room of a pattern section,
 //     or of a grid section that has explicit rooms already (closure: the
 //     matching after the search must never compete for a room the search
-//     assigned), or
+//     assigned), or it is listed in a hard room relation (same room with a
+//     pattern section, different rooms, same people), or
 //   - the term has travel times and the section is one of two or more
 //     room-taking sections of a staff member or cohort (or may meet twice a
 //     day): travel needs its rooms.
@@ -112,8 +113,8 @@ func (b *builder) makeExplicitGrid() {
 	// compare rooms in a kind of pattern terms.
 	for _, rel := range t.Relations {
 		k := rel.Kind
-		if k != timetable.SameRoom && k != timetable.DifferentRooms && k != timetable.SamePeople {
-			continue
+		if !rel.Hard || k != timetable.SameRoom && k != timetable.DifferentRooms && k != timetable.SamePeople {
+			continue // soft rows read grid rooms as blank (softRoomSecs)
 		}
 		var secs []int
 		pat := false

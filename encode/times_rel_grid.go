@@ -89,10 +89,14 @@ func (b *builder) gridRoomsKnown(s int) bool {
 }
 
 // mixedRefusal says why a row with grid sections cannot be stated ("" when
-// it can): the room kinds need every listed grid section's rooms known or
-// explicit (rooms_grid.go makes them explicit for these rows, so this is a
-// safeguard).
+// it can): a hard row of the room kinds needs every listed grid section's
+// rooms known or explicit (rooms_grid.go makes them explicit for these
+// rows, so this is a safeguard). Soft rows read grid rooms as blank
+// (softRoomSecs).
 func (b *builder) mixedRefusal(rel *timetable.Relation, secs []int) string {
+	if !rel.Hard {
+		return ""
+	}
 	switch rel.Kind {
 	case timetable.SameRoom, timetable.DifferentRooms, timetable.SamePeople:
 		for _, s := range secs {
@@ -239,9 +243,9 @@ func (b *builder) mixedWays(rel *timetable.Relation, secs []int) [][]solver.Lit 
 	case timetable.SameStart:
 		return b.sameStartWays(secs, per)
 	case timetable.DifferentRooms:
-		return b.differentRoomsWays(secs)
+		return b.differentRoomsWays(b.softRoomSecs(rel, secs))
 	case timetable.SameRoom:
-		return b.mixedSameRoomWays(secs)
+		return b.mixedSameRoomWays(b.softRoomSecs(rel, secs))
 	}
 	for _, pr := range relPairs(k, secs) {
 		A, C := per[pr[0]], per[pr[1]]
@@ -275,13 +279,34 @@ func (b *builder) mixedWays(rel *timetable.Relation, secs []int) [][]solver.Lit 
 			ways = b.firstBeforeWays(ways, A, C)
 		case timetable.SamePeople:
 			ways = b.itemPairWays(ways, A, C, same, func(x, y *relItem) bool { return pairOK(timetable.NoOverlap, 0, x.tc, y.tc) })
-			ways = append(ways, b.itemTravelWays(A, C)...)
+			if rel.Hard || b.c.IsPattern(pr[0]) && b.c.IsPattern(pr[1]) {
+				ways = append(ways, b.itemTravelWays(A, C)...)
+			}
 		default:
 			n := rel.N
 			ways = b.itemPairWays(ways, A, C, same, func(x, y *relItem) bool { return pairOK(k, n, x.tc, y.tc) })
 		}
 	}
 	return ways
+}
+
+// softRoomSecs keeps, for a soft row, the pattern sections of secs: the
+// engine's objective reads grid meetings without rooms (their rooms'
+// criteria are judged after the search, as for grid terms: the third gate
+// compares with timetable.Cost of the timetable with grid rooms left out,
+// optimize_gate.go), so a grid section uses no room in a soft room row.
+// A hard row keeps every section.
+func (b *builder) softRoomSecs(rel *timetable.Relation, secs []int) []int {
+	if rel.Hard {
+		return secs
+	}
+	var out []int
+	for _, s := range secs {
+		if b.c.IsPattern(s) {
+			out = append(out, s)
+		}
+	}
+	return out
 }
 
 // notWithin is a literal "some key of x is not a key of y" (0: never).

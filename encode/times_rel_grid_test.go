@@ -182,12 +182,15 @@ func scheduleKey(s *timetable.Schedule) string {
 }
 
 // checkAccepts is the outside verdict on a schedule: no hard violation
-// from timetable.Check, and the "soft relations" cost from timetable.Cost.
+// from timetable.Check, and the "soft relations" cost from timetable.Cost
+// of the schedule with grid rooms left out — the part of the objective the
+// engine states (grid rooms are judged after the search, as the third gate
+// of optimize_gate.go reads it).
 func checkAccepts(t *timetable.Term, s *timetable.Schedule) (int64, bool) {
 	if len(timetable.HardViolations(timetable.Check(t, s))) > 0 {
 		return 0, false
 	}
-	return timetable.Cost(t, s, nil).Criterion(timetable.CritSoftRelations).Cost, true
+	return timetable.Cost(t, withoutRooms(s), nil).Criterion(timetable.CritSoftRelations).Cost, true
 }
 
 // engineSchedules enumerates the stable models of the compiled term, each
