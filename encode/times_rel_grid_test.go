@@ -466,3 +466,31 @@ func TestGridLimitsAgainstCheck(t *testing.T) {
 		t.Fatal("no round had a timetable: the test checked nothing")
 	}
 }
+
+// TestGridRoomsAgainstCheck: rooms alone — grid sections with one room or
+// two (one shared with a pattern section: explicit rooms), pattern
+// sections with room lists, no relation and no travel — against Check on
+// every timetable: no room ever holds two meetings at once.
+func TestGridRoomsAgainstCheck(t *testing.T) {
+	rounds := 16
+	if testing.Short() {
+		rounds = 6
+	}
+	rng := rand.New(rand.NewSource(31))
+	accepted, total, explicit := 0, 0, 0
+	for round := 0; round < rounds; round++ {
+		term := mixedTestTerm(rng, timetable.DifferentRooms, true, 2+round%2)
+		term.Relations, term.Travel = nil, nil
+		_, cat, err := Compile(term, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		explicit += len(cat.gridRooms)
+		accepted += agreeWithCheck(t, term)
+		total += len(bruteSchedules(term))
+	}
+	t.Logf("%d of %d timetables accepted; %d grid sections with explicit rooms", accepted, total, explicit)
+	if accepted == 0 || explicit == 0 {
+		t.Fatal("the test checked nothing")
+	}
+}
