@@ -36,6 +36,10 @@ import (
 type gridRoomModel struct {
 	rooms map[int][]gridRoomAtom // rooms[p]: the candidate rooms of the meeting starting at p
 	lits  map[int][]itemRoom     // lits[p]: the same as rooms and literals (gridItemRooms), read-only
+	// places[p]: per travel class of its rooms, a representative room and
+	// the class atom grid_at (nil when the rooms are in one class or the
+	// term has no travel), read-only.
+	places map[int][]itemRoom
 }
 
 // gridRoomAtom is one candidate room of one grid meeting.
@@ -156,6 +160,7 @@ func (b *builder) makeExplicitGrid() {
 		return
 	}
 	b.c.gridRooms = map[int]*gridRoomModel{}
+	travel := len(t.Travel) > 0 && b.travelIndex().Most() > 0
 	saveG, saveK := b.group, b.boundKind
 	defer func() { b.group, b.boundKind = saveG, saveK }()
 	b.in(-1, "grid room")
@@ -164,29 +169,10 @@ func (b *builder) makeExplicitGrid() {
 			continue
 		}
 		m := &b.c.secs[s]
-		sec := &t.Sections[s]
-		gm := &gridRoomModel{rooms: map[int][]gridRoomAtom{}, lits: map[int][]itemRoom{}}
+		gm := &gridRoomModel{rooms: map[int][]gridRoomAtom{}, lits: map[int][]itemRoom{}, places: map[int][]itemRoom{}}
 		b.c.gridRooms[s] = gm
 		for _, p := range m.starts {
-			id := m.candAt(p)
-			var heads []solver.Atom
-			for _, r := range rm.sets.sets[id].members() {
-				if b.roomBlockedFor(r, p, m.length) {
-					continue
-				}
-				one := newRoomSet(rm.n)
-				one.add(r)
-				a := b.newAtom(fmt.Sprintf("grid_in(%s,%s,%s)", quote(sec.ID), periodName(t.Periods[p]), quote(t.Rooms[r].ID)),
-					AtomInfo{Kind: AtomAux, Section: s, Period: p, Staff: -1, Group: -1, Room: r})
-				gm.rooms[p] = append(gm.rooms[p], gridRoomAtom{r: r, atom: a, one: rm.sets.intern(one)})
-				gm.lits[p] = append(gm.lits[p], itemRoom{r, solver.Pos(a)})
-				heads = append(heads, a)
-			}
-			if len(heads) == 0 {
-				b.rule(0, solver.Pos(m.start[p])) // every candidate room is away then
-				continue
-			}
-			b.choice(heads, 1, 1, solver.Pos(m.start[p]))
+			b.gridStartRooms(s, p, gm, travel)
 		}
 	}
 	// A hard same-room group of the grid (rooms.sameRoom) with explicit
@@ -198,6 +184,71 @@ func (b *builder) makeExplicitGrid() {
 			continue
 		}
 		b.bound(b.usedRooms(gr.sections), solver.NoBound, 1)
+	}
+}
+
+// gridStartRooms makes the grid_in atoms of the meeting of section s
+// starting at p: "exactly one of them" when it starts. With travel (and
+// rooms in two travel classes or more) the room is chosen in two steps,
+// the class first — grid_at(S,P,C), exactly one when it starts, then
+// exactly one room of that class — so that travel is stated on the class
+// atoms (itemPlaces) without a disjunction per class.
+func (b *builder) gridStartRooms(s, p int, gm *gridRoomModel, travel bool) {
+	t := b.t
+	rm := &b.c.rooms
+	m := &b.c.secs[s]
+	sec := &t.Sections[s]
+	var rooms []int
+	for _, r := range rm.sets.sets[m.candAt(p)].members() {
+		if !b.roomBlockedFor(r, p, m.length) {
+			rooms = append(rooms, r)
+		}
+	}
+	start := solver.Pos(m.start[p])
+	if len(rooms) == 0 {
+		b.rule(0, start) // every candidate room is away then
+		return
+	}
+	byClass := map[int][]int{}
+	var classes []int
+	if travel {
+		classOf, _ := b.travelClasses()
+		for _, r := range rooms {
+			c := classOf[r]
+			if _, ok := byClass[c]; !ok {
+				classes = append(classes, c)
+			}
+			byClass[c] = append(byClass[c], r)
+		}
+	}
+	if len(classes) < 2 {
+		classes, byClass = []int{-1}, map[int][]int{-1: rooms}
+	}
+	var atHeads []solver.Atom
+	for _, c := range classes {
+		cond := start
+		if c >= 0 {
+			_, rep := b.travelClasses()
+			at := b.newAtom(fmt.Sprintf("grid_at(%s,%s,%d)", quote(sec.ID), periodName(t.Periods[p]), c),
+				AtomInfo{Kind: AtomAux, Section: s, Period: p, Staff: -1, Group: -1, Room: rep[c]})
+			atHeads = append(atHeads, at)
+			gm.places[p] = append(gm.places[p], itemRoom{rep[c], solver.Pos(at)})
+			cond = solver.Pos(at)
+		}
+		var heads []solver.Atom
+		for _, r := range byClass[c] {
+			one := newRoomSet(rm.n)
+			one.add(r)
+			a := b.newAtom(fmt.Sprintf("grid_in(%s,%s,%s)", quote(sec.ID), periodName(t.Periods[p]), quote(t.Rooms[r].ID)),
+				AtomInfo{Kind: AtomAux, Section: s, Period: p, Staff: -1, Group: -1, Room: r})
+			gm.rooms[p] = append(gm.rooms[p], gridRoomAtom{r: r, atom: a, one: rm.sets.intern(one)})
+			gm.lits[p] = append(gm.lits[p], itemRoom{r, solver.Pos(a)})
+			heads = append(heads, a)
+		}
+		b.choice(heads, 1, 1, cond)
+	}
+	if len(atHeads) > 0 {
+		b.choice(atHeads, 1, 1, start)
 	}
 }
 

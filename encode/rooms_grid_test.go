@@ -20,7 +20,8 @@ import (
 // timetable.Check. The generator's witness, checked by Check here, shows
 // one exists, so "unsatisfiable" would be a bug.
 func TestGeneratePatternsSolves(t *testing.T) {
-	cfgs := []samples.Config{{Sections: 40, Seed: 1}, {Sections: 80, Seed: 2}, {Sections: 120, Seed: 3}}
+	// The generator adds travel between buildings from 150 sections.
+	cfgs := []samples.Config{{Sections: 40, Seed: 1}, {Sections: 80, Seed: 2}, {Sections: 120, Seed: 3}, {Sections: 180, Seed: 5}}
 	if testing.Short() {
 		cfgs = cfgs[:1]
 	}
@@ -31,6 +32,9 @@ func TestGeneratePatternsSolves(t *testing.T) {
 			_, cat, err := Compile(term, Options{})
 			require.NoError(t, err)
 			require.NotEmpty(t, cat.gridRooms, "grid sections with explicit rooms")
+			if cfg.Sections >= 150 {
+				require.NotEmpty(t, term.Travel, "travel between buildings")
+			}
 			res, err := Solve(context.Background(), term, SolveOptions{Seed: 1})
 			require.NoError(t, err)
 			require.Equal(t, solver.Satisfiable, res.Status)

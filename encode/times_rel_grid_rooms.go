@@ -94,6 +94,11 @@ func (b *builder) travelClasses() (classOf, rep []int) {
 // be held in, its representative room and the literal "in one of the
 // class's rooms" (0 when known).
 func (b *builder) itemPlaces(it *relItem) []itemRoom {
+	if it.grid && b.explicitGrid(it.s) {
+		if pl := b.c.gridRooms[it.s].places[it.i]; pl != nil {
+			return pl // the class atoms grid_at (rooms_grid.go)
+		}
+	}
 	rooms := b.itemRooms(it)
 	if len(rooms) <= 1 {
 		return rooms
@@ -107,6 +112,11 @@ func (b *builder) itemPlaces(it *relItem) []itemRoom {
 			order = append(order, c)
 		}
 		by[c] = append(by[c], []solver.Lit{x.lit})
+	}
+	if len(order) == 1 {
+		// Every room of the item is in one class: exactly one of its room
+		// literals holds whenever the item does, so none is needed.
+		return []itemRoom{{rep[order[0]], 0}}
 	}
 	out := make([]itemRoom, 0, len(order))
 	for _, c := range order {
