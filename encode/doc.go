@@ -248,7 +248,8 @@
 // (pattern_lazy.go; integrity constraints the live engine takes as
 // clauses). A grid section takes part in a room's bounds through its start
 // atoms when that room is its meeting's only candidate, and otherwise
-// through explicit atoms grid_in(S,P,R), exactly one per chosen start, made
+// through explicit atoms grid_in(S,P,R), exactly one per chosen start
+// (under a travel-class atom grid_at(S,P,C) when travel needs it), made
 // for the grid sections whose rooms pattern sections, travel times or room
 // relations with pattern sections reach, closed under sharing rooms
 // (rooms_grid.go); Decode takes their rooms from the model and room

@@ -27,9 +27,10 @@ import (
 // one-meeting-at-a-time bounds of every room (patternRoomOverlap), in
 // travel (compilePatternTravel) and in the room kinds of relations; grid
 // sections with one candidate room per meeting take part through their
-// start atoms. Decode reads the chosen room (a one-room candidate set) in
-// place of matching. Atoms: candidate starts × candidate rooms, for these
-// sections only.
+// start atoms. With travel the room is chosen by travel class first
+// (grid_at(S,P,C), gridStartRooms). Decode reads the chosen room (a
+// one-room candidate set) in place of matching. Atoms: candidate starts ×
+// candidate rooms (plus travel classes), for these sections only.
 
 // gridRoomModel is what the catalog keeps of one grid section with
 // explicit rooms.
