@@ -35,6 +35,7 @@ type builder struct {
 	stampGen                             int32                  // current stamp
 	pat                                  patState               // pattern sections (pattern_unavail.go)
 	rel                                  relState               // pattern relations and limits (times_rel_rooms.go)
+	gridRoomsDone                        bool                   // explicit grid rooms decided (rooms_grid.go)
 }
 
 // newAtom makes an atom with a name and a meaning.

@@ -116,11 +116,12 @@ type Catalog struct {
 
 	term        *timetable.Term
 	explain     bool
-	atoms       []AtomInfo // atoms[a] for atom a; atoms[0] unused
-	secs        []secModel // per section of the term
-	pats        []patModel // per section of the term; on only for pattern sections (pattern_atoms.go)
-	anyPat      bool       // some section is a pattern section
-	lazy        []bool     // lazy[r]: room r's one-at-a-time is checked by Decode (pattern_lazy.go); nil: none
+	atoms       []AtomInfo             // atoms[a] for atom a; atoms[0] unused
+	secs        []secModel             // per section of the term
+	pats        []patModel             // per section of the term; on only for pattern sections (pattern_atoms.go)
+	anyPat      bool                   // some section is a pattern section
+	lazy        []bool                 // lazy[r]: room r's one-at-a-time is checked by Decode (pattern_lazy.go); nil: none
+	gridRooms   map[int]*gridRoomModel // grid sections with explicit room atoms (rooms_grid.go); nil: none
 	rooms       roomModel
 	ruleGroup   []int32        // group of Program.Rules[i], -1 for none
 	choiceGroup []int32        // group of Program.Choices[i]

@@ -70,6 +70,7 @@ type decoder struct {
 	pats   []timetable.Placement // placements of pattern sections (pattern_decode.go)
 	// members caches the member list of each room set.
 	members map[int][]int
+	marks   []bool // marks[a]: atom a is in the model (modelMarks; explicit grid rooms only)
 }
 
 // Decode turns a stable model of a program compiled by Compile into a
@@ -129,6 +130,9 @@ func (d *decoder) readStarts(model []solver.Atom) error {
 		})
 		if m.takesRoom {
 			d.ms[len(d.ms)-1].cand = m.candAt(info.Period)
+			if one, ok := d.c.explicitCand(info.Section, info.Period, d.modelMarks(model)); ok {
+				d.ms[len(d.ms)-1].cand = one // grid_in chosen by the search (rooms_grid.go)
+			}
 		}
 		count[info.Section]++
 	}

@@ -110,12 +110,12 @@
 // atoms in numbering order, keeps each section's last candidates and piles
 // meetings into the last periods of the week.
 //
-// Explicit room atoms in the main program are therefore never needed: the
-// rare cases that would need them (same-room relations, fixed rooms) are
-// handled by narrowing candidate sets plus exact assignment at decode. The
-// price is a limitation in Explain mode: the narrowing by a same-room
-// relation is part of the room model and is not switched off by the
-// relation's selector.
+// Explicit room atoms for grid meetings are needed only where rooms meet
+// the pattern part of the model (below): grid-only terms handle same-room
+// relations and fixed rooms by narrowing candidate sets plus exact
+// assignment at decode. The price is a limitation in Explain mode: the
+// narrowing by a same-room relation is part of the room model and is not
+// switched off by the relation's selector.
 //
 // # Selectors and the catalog
 //
@@ -246,15 +246,23 @@
 // finds their clashes and the search forbids each clashing pair of
 // sections that room at every overlapping pair of their patterns
 // (pattern_lazy.go; integrity constraints the live engine takes as
-// clauses). A grid section may share a room with
-// pattern sections only as its single candidate room (its start then means
-// that room); otherwise Compile says so.
+// clauses). A grid section takes part in a room's bounds through its start
+// atoms when that room is its meeting's only candidate, and otherwise
+// through explicit atoms grid_in(S,P,R), exactly one per chosen start
+// (under a travel-class atom grid_at(S,P,C) when travel needs it), made
+// for the grid sections whose rooms pattern sections, travel times or room
+// relations with pattern sections reach, closed under sharing rooms
+// (rooms_grid.go); Decode takes their rooms from the model and room
+// improvement leaves them there.
 //
-// Travel (Term.Travel, hard) between two pattern sections of one staff
-// member or cohort: for each pair of patterns on a common day and week
-// with a gap below the longest travel time, and each pair of candidate
-// rooms farther apart than the gap, one integrity constraint. Decode reads
-// one placement per pattern section (Period -1, Time, Room). The soft
+// Travel (Term.Travel, hard) between two meetings of one staff member or
+// cohort: for each pair of candidate meetings (patterns, grid starts) on a
+// common day and week with a gap below the longest travel time, and each
+// pair of their rooms (per travel class of rooms for grid meetings)
+// farther apart than the gap, one integrity constraint. Relation rows
+// listing grid sections state every kind on their candidate starts seen as
+// one-day meetings (times_rel_grid.go). Decode reads one placement per
+// pattern section (Period -1, Time, Room). The soft
 // criteria time choice, room choice, avoid times, wasted seats, room over
 // capacity and (with Keep: another pattern or room) moved meetings are
 // weak constraints on these atoms; relations, weekly limits and lunch

@@ -189,6 +189,12 @@ func (b *builder) cliqueLits(dst []solver.Lit, occ []interval, clique []int, inR
 			// Grid starts of one section in one clique overlap each other,
 			// which the section's own constraints forbid: at most one holds.
 			for _, p := range idx {
+				if inRoom >= 0 {
+					if l := b.gridRoomLit(s, p, inRoom); l != 0 {
+						dst = append(dst, l) // its grid_in atom, or its start when the room is its only one
+					}
+					continue
+				}
 				dst = append(dst, solver.Pos(b.c.secs[s].start[p]))
 			}
 			continue

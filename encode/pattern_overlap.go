@@ -17,6 +17,9 @@ import (
 // are implied by these and cost little).
 func (b *builder) compilePatternNoOverlap() {
 	if !b.pat.any {
+		if b.makeExplicitGrid(); b.c.gridRooms != nil {
+			b.patternRoomOverlap() // grid sections with explicit rooms (travel)
+		}
 		return
 	}
 	t := b.t
@@ -46,16 +49,29 @@ func (b *builder) compilePatternNoOverlap() {
 }
 
 // patternRoomOverlap: one meeting at a time in every room a pattern
-// section may use. Grid sections whose only candidate room it is take
-// part (their start means that room); a grid section that may use it
-// among others is an input error, since the grid's rooms are counted, not
-// chosen (see the package documentation).
+// section, or a grid section with explicit rooms (rooms_grid.go), may use.
+// Grid sections take part through their grid_in atoms, or their start
+// atoms when the room is the meeting's only candidate.
 func (b *builder) patternRoomOverlap() {
 	t := b.t
+	b.makeExplicitGrid()
 	roomSecs := make([][]int, len(t.Rooms))
 	for s := range t.Sections {
 		for _, r := range b.c.pats[s].rooms {
 			roomSecs[r] = append(roomSecs[r], s)
+		}
+	}
+	watched := make([]bool, len(t.Rooms))
+	for s := range t.Sections {
+		for _, r := range b.c.pats[s].rooms {
+			watched[r] = true
+		}
+		if gm, ok := b.c.gridRooms[s]; ok {
+			for _, xs := range gm.rooms {
+				for _, x := range xs {
+					watched[x.r] = true
+				}
+			}
 		}
 	}
 	var gridSecs [][]int
@@ -64,14 +80,18 @@ func (b *builder) patternRoomOverlap() {
 		if b.c.pats[s].on || !m.takesRoom || m.cand < 0 {
 			continue
 		}
-		set := b.c.rooms.sets.sets[m.cand]
-		members := set.members()
-		for _, r := range members {
-			if len(roomSecs[r]) == 0 {
-				continue
+		in := make([]bool, len(t.Rooms))
+		for _, p := range m.starts {
+			rooms, ok := b.gridItemRooms(s, p)
+			if !ok {
+				continue // matched after the search, in rooms no pattern or explicit section uses
 			}
-			if len(members) > 1 || len(m.fixedCand) > 0 {
-				b.errorf(t.Sections[s].Src, "section %s may use room %s, which sections with meeting times also use: give it that room alone or other rooms (mixing the two kinds of section in rooms with several candidates is not supported yet)", t.Sections[s].ID, t.Rooms[r].ID)
+			for _, x := range rooms {
+				in[x.r] = true
+			}
+		}
+		for r := range in {
+			if !in[r] || !watched[r] {
 				continue
 			}
 			if gridSecs == nil {

@@ -21,18 +21,19 @@ func (b *builder) travelIndex() *timetable.TravelIndex {
 	return b.travel
 }
 
-// compilePatternTravel: a staff member or cohort never has two meetings of
-// pattern sections on a common day in a common week with less free time
-// between them than the travel time between their rooms (Term.Travel,
-// hard). For each pair of their pattern sections, each pair of candidate
-// patterns that leave a gap shorter than the longest travel time, and each
-// pair of candidate rooms too far apart for that gap, one integrity
-// constraint forbids the four choices together. Only terms with travel
-// rows pay for it. Grid sections' rooms are assigned after the search, so
-// their travel stays the soft criterion "travel" (see criteria.go).
+// compilePatternTravel: a staff member or cohort never has two meetings on
+// a common day in a common week with less free time between them than the
+// travel time between their rooms (Term.Travel, hard). For each pair of
+// their pattern sections, each pair of candidate patterns that leave a gap
+// shorter than the longest travel time, and each pair of candidate rooms
+// too far apart for that gap, one integrity constraint forbids the four
+// choices together. Grid sections take part when the room of each of their
+// candidate meetings is known before the search (one candidate room:
+// gridRoomOf), through their start atoms (travelPairWays); the travel
+// scope part refuses the others. Only terms with travel rows pay for it.
 func (b *builder) compilePatternTravel() {
 	t := b.t
-	if !b.pat.any || len(t.Travel) == 0 {
+	if len(t.Travel) == 0 {
 		return
 	}
 	maxT := b.travelIndex().Most()
@@ -41,16 +42,28 @@ func (b *builder) compilePatternTravel() {
 	}
 	travel := b.travelMinutes
 	people := func(kind string, id string, src timetable.Source, name string, secs []int) {
-		var pats []int
+		var pats, grid []int
 		for _, s := range secs {
-			if b.c.pats[s].on && len(b.c.pats[s].rooms) > 0 {
+			switch {
+			case b.c.pats[s].on && len(b.c.pats[s].rooms) > 0:
 				pats = append(pats, s)
+			case !b.c.pats[s].on && b.c.secs[s].takesRoom && b.gridRoomsKnown(s):
+				grid = append(grid, s)
 			}
 		}
-		if len(pats) < 2 {
+		if len(pats)+len(grid) < 2 && !(len(grid) == 1 && t.Sections[grid[0]].SameDay) {
 			return
 		}
 		g := -1
+		forbid := func(body ...solver.Lit) {
+			if g < 0 {
+				g = b.newGroup(kind, []string{id},
+					fmt.Sprintf("%s has enough time to travel between the rooms of consecutive meetings", name),
+					[]timetable.Source{src}, RelaxNoOverlap)
+				b.in(g, kind)
+			}
+			b.rule(0, append(body, b.sel(g))...)
+		}
 		for x := 0; x < len(pats); x++ {
 			for y := x + 1; y < len(pats); y++ {
 				s1, s2 := pats[x], pats[y]
@@ -68,19 +81,31 @@ func (b *builder) compilePatternTravel() {
 								if travel(r1, r2) <= gap {
 									continue
 								}
-								if g < 0 {
-									g = b.newGroup(kind, []string{id},
-										fmt.Sprintf("%s has enough time to travel between the rooms of consecutive meetings", name),
-										[]timetable.Source{src}, RelaxNoOverlap)
-									b.in(g, kind)
-								}
-								b.rule(0, solver.Pos(p1.time[i]), solver.Pos(p2.time[j]),
-									solver.Pos(p1.room[k1]), solver.Pos(p2.room[k2]), b.sel(g))
+								forbid(solver.Pos(p1.time[i]), solver.Pos(p2.time[j]),
+									solver.Pos(p1.room[k1]), solver.Pos(p2.room[k2]))
 							}
 						}
 					}
 				}
 			}
+		}
+		// Pairs with a grid section, and a grid section's own meetings
+		// when they may share a day (each meeting its own room).
+		var ways [][]solver.Lit
+		for x, s1 := range grid {
+			items := b.relItems([]int{s1})
+			if t.Sections[s1].SameDay {
+				ways = b.travelPairWays(ways, items, items, true, maxT)
+			}
+			for _, s2 := range grid[x+1:] {
+				ways = b.travelPairWays(ways, items, b.relItems([]int{s2}), false, maxT)
+			}
+			for _, s2 := range pats {
+				ways = b.travelPairWays(ways, items, b.relItems([]int{s2}), false, maxT)
+			}
+		}
+		for _, w := range ways {
+			forbid(w...)
 		}
 	}
 	staffSecs, cohortSecs := b.peopleSections()

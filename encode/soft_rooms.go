@@ -134,7 +134,7 @@ func newRoomSearch(t *timetable.Term, c *Catalog, s *timetable.Schedule, kept *t
 		}
 		rm := roomMeeting{pl: i, sec: si, start: p.Period, end: p.Period + m.length - 1, weeks: m.weeks,
 			room: r, cands: c.rooms.sets.sets[cand].members()}
-		rm.movable = m.sameRoom < 0 && len(rm.cands) > 1
+		rm.movable = m.sameRoom < 0 && len(rm.cands) > 1 && !c.explicitRooms(si) // the search chose explicit rooms (rooms_grid.go)
 		rs.bySec[si] = append(rs.bySec[si], len(rs.ms))
 		rs.ms = append(rs.ms, rm)
 	}

@@ -42,9 +42,10 @@ import (
 // times_limits*.go.
 //
 // A row is handled here when it lists a pattern section or has one of the
-// kinds added for pattern terms; a row that mixes pattern and grid sections,
-// or gives a new kind to grid sections only, is an input error (the grid's
-// relations are relations.go's).
+// kinds added for pattern terms; its grid sections take part through their
+// start atoms (times_rel_grid.go), except where their rooms are matched
+// after the search (mixedRefusal). Rows of the first seven kinds over grid
+// sections alone are relations.go's.
 
 func init() {
 	// Hard parts go before the optimiser's parts (so that Options.HardOnly
@@ -75,33 +76,27 @@ func (b *builder) timesRelation(rel *timetable.Relation) bool {
 
 // relSecs lists the known sections of a relation row in written order
 // (each once unless the kind compares consecutive pairs), and false when
-// the row cannot be stated over patterns (reported as an input error when
-// report is set: the hard part reports every row, hard or soft, so that
-// Solve and Optimize refuse the same terms).
+// the row cannot be stated (reported as an input error when report is set:
+// the hard part reports every row, hard or soft, so that Solve and
+// Optimize refuse the same terms). Grid sections take part through their
+// start atoms (times_rel_grid.go); mixedRefusal names what is not covered.
 func (b *builder) relSecs(rel *timetable.Relation, report bool) ([]int, bool) {
 	ordered := consecutiveKind(rel.Kind)
 	var secs []int
-	grid := 0
 	for _, id := range rel.Sections {
 		s, ok := b.secIdx[id]
 		if !ok || (!ordered && slices.Contains(secs, s)) {
 			continue
 		}
-		if !b.c.IsPattern(s) {
-			grid++
-		}
 		secs = append(secs, s)
 	}
-	if grid > 0 {
-		if !report {
+	if b.hasGrid(secs) {
+		if why := b.mixedRefusal(rel, secs); why != "" {
+			if report {
+				b.errorf(rel.Src, "%s", why)
+			}
 			return nil, false
 		}
-		if grid == len(secs) {
-			b.errorf(rel.Src, "relation %q is for sections with meeting times, but %s are placed on the period grid: give them meeting times or use one of the first seven kinds", rel.Kind, strings.Join(rel.Sections, ", "))
-		} else {
-			b.errorf(rel.Src, "relation %q mixes sections with meeting times and sections on the period grid (%s): give every listed section meeting times, or none", rel.Kind, strings.Join(rel.Sections, ", "))
-		}
-		return nil, false
 	}
 	return secs, true
 }
@@ -139,7 +134,7 @@ func (b *builder) compileTimesRelations() {
 			// One meeting at a time among the sections: a bound per
 			// maximal clique of overlapping patterns (pattern_cliques.go),
 			// weeks ignored for "not same time"; then travel.
-			occ := b.occupantsOf(secs, false)
+			occ := b.occupantsOf(secs, true)
 			if rel.Kind == timetable.NotSameTime {
 				for i := range occ {
 					occ[i].weeks = t.AllWeeks()
@@ -148,7 +143,7 @@ func (b *builder) compileTimesRelations() {
 			b.cliqueBounds(occ, -1, g, KindRelation)
 			if rel.Kind == timetable.SamePeople {
 				b.in(g, KindRelation)
-				for _, body := range b.travelWays(secs) {
+				for _, body := range b.relTravelWays(secs) {
 					b.rule(0, append(body, sel)...)
 				}
 			}
@@ -162,9 +157,12 @@ func (b *builder) compileTimesRelations() {
 }
 
 // relWays lists the ways a relation row of a non-counted kind can break:
-// bodies over the pattern sections' atoms, one of which holds exactly when
-// the row is broken.
+// bodies over the sections' time, start and room atoms, one of which
+// holds exactly when the row is broken.
 func (b *builder) relWays(rel *timetable.Relation, secs []int) [][]solver.Lit {
+	if b.hasGrid(secs) {
+		return b.mixedWays(rel, secs)
+	}
 	switch rel.Kind {
 	case timetable.SameRoom:
 		return b.sameRoomWays(secs)

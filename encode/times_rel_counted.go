@@ -210,7 +210,7 @@ func (b *builder) dayTotals(items []relItem, idx []int) ([]int, []solver.Lit) {
 				bodies = append(bodies, []solver.Lit{l})
 			}
 			for _, k := range part {
-				x := solver.Pos(b.c.TimeAtom(items[k].s, items[k].i))
+				x := items[k].lit
 				if l, ok := atLeast(v - items[k].tc.Minutes); ok && l == 0 {
 					bodies = append(bodies, []solver.Lit{x})
 				} else if ok {

@@ -11,10 +11,18 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// relItem is one candidate pattern of one pattern section.
+// relItem is one candidate meeting decision of a section in a relation
+// row: a candidate pattern of a pattern section (exactly one of a
+// section's holds), or a candidate start of a grid section, seen as a
+// pattern of one day from the start period's clock to the last period's
+// end in the section's weeks (Meetings of a section's hold:
+// times_rel_grid.go).
 type relItem struct {
-	s, i int                   // section index, 0-based pattern index
-	tc   *timetable.TimeChoice // the pattern
+	s, i int                   // section index; 0-based pattern index, or the start period of a grid item
+	tc   *timetable.TimeChoice // the pattern (for a grid item, made from Term.Periods)
+	grp  int                   // items of one group exclude each other: the section for patterns, one group per grid start
+	lit  solver.Lit            // the time or start literal
+	grid bool                  // a grid start
 }
 
 // weekClass is a set of teaching weeks in which the same items meet.
@@ -23,12 +31,16 @@ type weekClass struct {
 	items []int // indexes into the item list of the items meeting in these weeks
 }
 
-// relItems lists the candidate patterns of secs.
+// relItems lists the candidate patterns and grid starts of secs.
 func (b *builder) relItems(secs []int) []relItem {
 	var out []relItem
 	for _, s := range secs {
+		if !b.c.IsPattern(s) {
+			out = append(out, b.gridItems(s)...)
+			continue
+		}
 		for _, i := range b.c.TimeCandidates(s) {
-			out = append(out, relItem{s: s, i: i, tc: &b.t.Sections[s].Times[i]})
+			out = append(out, relItem{s: s, i: i, tc: &b.t.Sections[s].Times[i], grp: s, lit: solver.Pos(b.c.TimeAtom(s, i))})
 		}
 	}
 	return out
@@ -82,11 +94,11 @@ var weekdays = []time.Weekday{time.Monday, time.Tuesday, time.Wednesday, time.Th
 // as bodies for relOr. Items of one section are adjacent in idx.
 func (b *builder) anyOf(items []relItem, idx []int, keep func(*relItem) bool) [][]solver.Lit {
 	var bodies [][]solver.Lit
-	sec := -1
+	grp := -1
 	var cur []int
 	flush := func() {
 		if len(cur) > 0 {
-			bodies = append(bodies, []solver.Lit{b.anyTime(sec, cur)})
+			bodies = append(bodies, []solver.Lit{b.groupLit(items, cur)})
 		}
 		cur = nil
 	}
@@ -95,11 +107,11 @@ func (b *builder) anyOf(items []relItem, idx []int, keep func(*relItem) bool) []
 		if !keep(it) {
 			continue
 		}
-		if it.s != sec {
+		if it.grp != grp {
 			flush()
-			sec = it.s
+			grp = it.grp
 		}
-		cur = append(cur, it.i)
+		cur = append(cur, k)
 	}
 	flush()
 	return bodies
@@ -115,7 +127,7 @@ func itemsKey(prefix string, items []relItem, idx []int, extra ...int) string {
 	}
 	for _, k := range idx {
 		sb.WriteByte(';')
-		sb.WriteString(strconv.Itoa(items[k].s))
+		sb.WriteString(strconv.Itoa(items[k].grp))
 		sb.WriteByte('.')
 		sb.WriteString(strconv.Itoa(items[k].i))
 	}
@@ -201,10 +213,10 @@ func (b *builder) longBlockWays(items []relItem, o *dayOrder, n int) [][][]solve
 		long := func(it *relItem) bool { return it.tc.End() > limit }
 		var ways [][]solver.Lit
 		// Two meetings at a (different sections), one of them long.
-		secsAt := map[int][]int{}
+		secsAt := map[int][]int{} // by exclusive group
 		var order []int
 		for _, k := range o.at[a] {
-			s := items[k].s
+			s := items[k].grp
 			if _, ok := secsAt[s]; !ok {
 				order = append(order, s)
 			}
@@ -217,7 +229,7 @@ func (b *builder) longBlockWays(items []relItem, o *dayOrder, n int) [][][]solve
 			}
 			for _, s2 := range order {
 				if s2 != s {
-					ways = append(ways, []solver.Lit{o.brk[a], l, b.anyTime(s2, itemIdx(items, secsAt[s2]))})
+					ways = append(ways, []solver.Lit{o.brk[a], l, b.groupLit(items, secsAt[s2])})
 				}
 			}
 		}
@@ -238,14 +250,19 @@ func (b *builder) longBlockWays(items []relItem, o *dayOrder, n int) [][][]solve
 	return out
 }
 
-// itemIdx lists the pattern indexes of the items idx (one section).
-func itemIdx(items []relItem, idx []int) []int {
-	out := make([]int, len(idx))
-	for k, x := range idx {
-		out[k] = items[x].i
+// groupLit is one literal "one of the items idx (one exclusive group)
+// holds": an interned any_time literal for a pattern section's patterns,
+// the start literal for a grid start.
+func (b *builder) groupLit(items []relItem, idx []int) solver.Lit {
+	if items[idx[0]].grid {
+		return items[idx[0]].lit
 	}
-	slices.Sort(out)
-	return out
+	pats := make([]int, len(idx))
+	for k, x := range idx {
+		pats[k] = items[x].i
+	}
+	slices.Sort(pats)
+	return b.anyTime(items[idx[0]].s, pats)
 }
 
 // units returns, for the items idx of one section meeting on one class and
@@ -254,16 +271,17 @@ func itemIdx(items []relItem, idx []int) []int {
 func (b *builder) units(items []relItem, idx []int, g int) []solver.Lit {
 	vals := make([]litVal, len(idx))
 	for k, x := range idx {
-		vals[k] = litVal{solver.Pos(b.c.TimeAtom(items[x].s, items[x].i)), items[x].tc.Minutes / g}
+		vals[k] = litVal{items[x].lit, items[x].tc.Minutes / g}
 	}
 	return b.unitChain(vals)
 }
 
-// bySection splits items idx by section, in order.
+// bySection splits items idx by exclusive group (a pattern section's
+// patterns; each grid start alone), in order.
 func bySection(items []relItem, idx []int) [][]int {
 	var out [][]int
 	for _, k := range idx {
-		if len(out) == 0 || items[out[len(out)-1][0]].s != items[k].s {
+		if len(out) == 0 || items[out[len(out)-1][0]].grp != items[k].grp {
 			out = append(out, nil)
 		}
 		out[len(out)-1] = append(out[len(out)-1], k)

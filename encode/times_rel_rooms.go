@@ -16,6 +16,8 @@ type relState struct {
 	units map[string][]solver.Lit // minute unit chains by items and step (units)
 	count map[string][]solver.Lit // sequential counters by their literals (atLeast)
 	n     int                     // auxiliary atoms made, for unique names
+	// classOf[r], classRep[c]: travel classes of rooms (travelClasses).
+	classOf, classRep []int
 }
 
 // relOr returns one literal that holds exactly when one of bodies holds:
@@ -82,14 +84,16 @@ func (b *builder) sameRoomWays(secs []int) [][]solver.Lit {
 	return ways
 }
 
-// roomUsers lists, per room used by two or more of secs, the room atoms.
+// roomUsers lists, per room used by two or more of secs, the literals
+// "the section uses the room" (sectionRoomLit: room atoms, or for grid
+// sections with known rooms their starts there).
 func (b *builder) roomUsers(secs []int) [][]solver.Lit {
 	var out [][]solver.Lit
 	for r := range b.t.Rooms {
 		var lits []solver.Lit
 		for _, s := range secs {
-			if a := b.c.RoomAtom(s, r); a != 0 {
-				lits = append(lits, solver.Pos(a))
+			if l := b.sectionRoomLit(s, r); l != 0 {
+				lits = append(lits, l)
 			}
 		}
 		if len(lits) >= 2 {
@@ -103,7 +107,7 @@ func (b *builder) roomUsers(secs []int) [][]solver.Lit {
 // (one bound per shared room).
 func (b *builder) hardDifferentRooms(secs []int, sel solver.Lit) {
 	for _, lits := range b.roomUsers(secs) {
-		b.bound(lits, solver.NoBound, 1, sel)
+		b.bound(b.distinct(lits), solver.NoBound, 1, sel)
 	}
 }
 

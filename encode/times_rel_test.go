@@ -284,27 +284,28 @@ func TestPatternRelationsOrderedPair(t *testing.T) {
 	}
 }
 
-// TestPatternRelationGridRowsRejected: a new kind over grid sections, or a
-// row mixing grid and pattern sections, is an input error naming its row.
-func TestPatternRelationGridRowsRejected(t *testing.T) {
-	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.NoOverlap, true, 2)
+// TestPatternRelationGridRowsExplicit: room rows that list a grid section
+// with several candidate rooms beside a pattern section ("same room",
+// "different rooms"), hard or soft, give the grid section explicit rooms
+// (rooms_grid.go) and compile; their agreement with timetable.Check is
+// TestGridRelationsAgainstCheck's.
+func TestPatternRelationGridRowsExplicit(t *testing.T) {
+	term := relTestTerm(rand.New(rand.NewSource(1)), timetable.SameRoom, true, 2)
 	term.Periods = []timetable.Period{{Index: 0, Day: time.Monday, Start: 9 * 60, End: 10 * 60}}
 	term.Sections[1].Times = nil
 	term.Sections[1].Length = 1
-	for _, soft := range []bool{false, true} {
-		term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
-		_, _, err := Compile(term, Options{})
-		if err == nil || !strings.Contains(err.Error(), "Relations row 2") || !strings.Contains(err.Error(), "mixes") {
-			t.Fatalf("soft=%v: err = %v, want the mixed row named", soft, err)
+	term.Sections[1].RoomChoices = nil
+	for _, kind := range []timetable.RelationKind{timetable.SameRoom, timetable.DifferentRooms} {
+		term.Relations[0].Kind = kind
+		for _, soft := range []bool{false, true} {
+			term.Relations[0].Hard, term.Relations[0].Weight = !soft, 2
+			_, cat, err := Compile(term, Options{})
+			if err != nil {
+				t.Fatalf("%s soft=%v: %v", kind, soft, err)
+			}
+			if _, ok := cat.gridRooms[1]; !ok {
+				t.Fatalf("%s soft=%v: S2 has no explicit rooms", kind, soft)
+			}
 		}
-		if n := strings.Count(err.Error(), "Relations row 2"); n != 1 {
-			t.Fatalf("soft=%v: the row is reported %d times", soft, n)
-		}
-	}
-	term.Sections[0].Times = nil
-	term.Sections[0].Length = 1
-	_, _, err := Compile(term, Options{HardOnly: true})
-	if err == nil || !strings.Contains(err.Error(), "placed on the period grid") {
-		t.Fatalf("err = %v, want the grid row named", err)
 	}
 }

@@ -8,10 +8,13 @@ import (
 const travelScopeLimit = 5
 
 // compileTravelScope refuses a term whose travel times would reach grid
-// meetings. Travel (Term.Travel) is hard for every meeting of a staff member
-// or cohort, but grid sections get their rooms after the search (Hall
-// bounds, then Decode), so the gap a pair of grid meetings leaves cannot be
-// tied to their rooms' distance during the search: a timetable would fail
+// meetings whose rooms are chosen after the search. Travel (Term.Travel)
+// is hard for every meeting of a staff member or cohort; a grid section
+// with one candidate room per meeting takes part in the travel constraints
+// (compilePatternTravel), but a grid section that may meet in any of
+// several rooms gets its rooms after the search (Hall bounds, then
+// Decode), so the gap a pair of its meetings leaves cannot be tied to
+// their rooms' distance during the search: a timetable would fail
 // timetable.Check after the fact. Saying so at compile time, with the rows
 // to change, is better than searching for a timetable that will be refused.
 func (b *builder) compileTravelScope() {
@@ -31,18 +34,18 @@ func (b *builder) compileTravelScope() {
 				continue
 			}
 			rooms++
-			if !sec.UsesTimes() && grid < 0 {
+			if !sec.UsesTimes() && grid < 0 && !b.gridRoomsKnown(s) {
 				grid = s
 			}
 		}
-		if grid < 0 || rooms < 2 {
+		if grid < 0 || rooms < 2 && !t.Sections[grid].SameDay {
 			return
 		}
 		named++
 		if named > travelScopeLimit {
 			return
 		}
-		b.errorf(t.Travel[0].Src, "travel times are kept between sections with meeting times only, but %s %s teaches or attends grid section %s (%s) and other sections in rooms — give %s's sections meeting times on the Meeting times sheet, or remove the travel rows", kind, id, t.Sections[grid].ID, t.Sections[grid].Src, id)
+		b.errorf(t.Travel[0].Src, "travel times are kept for grid sections with one room only, but %s %s teaches or attends grid section %s (%s), which may meet in any of several rooms, and other sections in rooms — give %s one room, or meeting times on the Meeting times sheet, or remove the travel rows", kind, id, t.Sections[grid].ID, t.Sections[grid].Src, t.Sections[grid].ID)
 	}
 	bySt, byCo := b.peopleSections()
 	for k := range t.Staff {
