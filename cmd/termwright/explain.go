@@ -51,7 +51,10 @@ func newExplainCmd(e *env) *cobra.Command {
 			"Section, At and Room): can they all be granted together? If yes, a full\n" +
 			"timetable that grants them is found and checked (-o writes it); if not, the\n" +
 			"reasons, what would have to give, and the times where the section could meet\n" +
-			"instead.\n\n" +
+			"instead. For a section with meeting times, --at names one of them as the\n" +
+			"Meeting times sheet writes it (\"Tue Thu 10:30\": exactly those days), or one\n" +
+			"day and start (\"Tue 10:30\": any of its meeting times on that day at that\n" +
+			"start); the other places are its meeting times and rooms, cheapest first.\n\n" +
 			"Problems the term check finds at once (a cohort or staff member needing more\n" +
 			"periods than they have, too many simultaneous fixed meetings) are printed first.\n" +
 			"Exit status: 0 a timetable exists / the requests are granted, 2 none exists /\n" +
@@ -61,7 +64,7 @@ func newExplainCmd(e *env) *cobra.Command {
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.section, "section", "", "section of a request (with --at)")
-	f.StringVar(&o.at, "at", "", `requested start of one meeting, like "Tue 10:00" (with --section)`)
+	f.StringVar(&o.at, "at", "", `requested start of one meeting, like "Tue 10:00", or a meeting time's days and start, like "Mon Wed Fri 9:00" (with --section)`)
 	f.StringVar(&o.room, "room", "", "requested room (optional, with --section and --at)")
 	f.StringVar(&o.requests, "requests", "", "file of requests: .csv, or .xlsx with a Requests sheet (columns Section, At, Room)")
 	f.IntVar(&o.alternatives, "alternatives", 3, "how many ways out to list (0 for none)")
@@ -189,11 +192,11 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 	case o.section == "" || o.at == "":
 		return nil, withCode(exitError, `a request needs both --section and --at, like --section BIO-101 --at "Tue 10:00"`)
 	}
-	day, start, err := encode.ParseAt(o.at)
+	req, err := encode.NewRequest(o.section, o.at, o.room)
 	if err != nil {
 		return nil, failf(exitError, "--at: %w", err)
 	}
-	return []encode.Request{{Section: o.section, Day: day, Start: start, Room: o.room}}, nil
+	return []encode.Request{req}, nil
 }
 
 // explainLoad reads the term. Problems of reading (cells, sheets) stop the
@@ -401,6 +404,10 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 			}
 			continue
 		}
+		if r.Places[0].Time > 0 {
+			explainPatternPlaces(w, r)
+			continue
+		}
 		// One line per day: "Mon 13:00, 14:00; Tue 08:00".
 		var days []string
 		for i, p := range r.Places {
@@ -422,6 +429,57 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 			fmt.Fprintln(w, "  (Some times were not decided within the budget.)")
 		}
 	}
+}
+
+// explainPatternPlaces lists the meeting times and rooms where a refused
+// request's pattern section could meet instead, cheapest first, one line
+// per meeting time: "Mon Wed Fri 09:00-09:50 in ASH-101 or CED-1 (preference
+// cost 1 in CED-1)".
+func explainPatternPlaces(w io.Writer, r encode.RequestResult) {
+	fmt.Fprintf(w, "\nSection %s could meet instead at (cheapest first):\n", r.Section)
+	type line struct {
+		at    string
+		rooms []string
+		costs []string
+		cost  int
+	}
+	var lines []*line
+	byTime := map[int]*line{}
+	for _, p := range r.Places {
+		l, ok := byTime[p.Time]
+		if !ok {
+			l = &line{at: p.At, cost: p.Cost}
+			byTime[p.Time] = l
+			lines = append(lines, l)
+		}
+		if p.Room != "" {
+			l.rooms = append(l.rooms, p.Room)
+		}
+		if p.Cost > 0 {
+			l.costs = append(l.costs, fmt.Sprintf("%d in %s", p.Cost, roomOrNone(p.Room)))
+		}
+	}
+	for _, l := range lines {
+		text := "  " + l.at
+		if len(l.rooms) > 0 {
+			text += " in " + strings.Join(l.rooms, " or ")
+		}
+		if len(l.costs) > 0 {
+			text += " (preference cost " + strings.Join(l.costs, ", ") + ")"
+		}
+		fmt.Fprintln(w, text)
+	}
+	fmt.Fprintln(w, "  (A full timetable passing the timetable check was found for each meeting time and room.)")
+	if !r.PlacesComplete {
+		fmt.Fprintln(w, "  (Some meeting times or rooms were not decided within the budget.)")
+	}
+}
+
+func roomOrNone(room string) string {
+	if room == "" {
+		return "no room"
+	}
+	return room
 }
 
 // explainCost prints the preference cost of a granted timetable, beside
