@@ -280,6 +280,8 @@ func patViolationOf(v timetable.Violation, r Reason) bool {
 		rules, sheet = []string{timetable.RuleRelation}, "Relations"
 	case KindStaffTravel:
 		rules, sheet = []string{timetable.RuleTravel}, "Staff"
+	case KindCohortTravel:
+		rules, sheet = []string{timetable.RuleTravel}, "Cohorts"
 	case KindStaffWeekLimit:
 		rules, sheet = []string{timetable.RuleWeekLimit}, "Staff"
 	case KindStaffLunch:
@@ -356,6 +358,9 @@ func patBruteEach(t *timetable.Term, ids []string, f func(*timetable.Schedule) b
 // all) breaks no hard requirement that counts (per timetable.Check) and
 // grants req (when given).
 func patBruteFeasible(t *timetable.Term, ids []string, counts func(timetable.Violation) bool, req *Request) bool {
+	if ids != nil {
+		t = subTerm(t, ids)
+	}
 	found := false
 	patBruteEach(t, ids, func(s *timetable.Schedule) bool {
 		if req != nil && !patGrantsBrute(t, s, *req) {
@@ -370,6 +375,22 @@ func patBruteFeasible(t *timetable.Term, ids []string, counts func(timetable.Vio
 		return false
 	})
 	return found
+}
+
+// subTerm is t with only the sections ids: the others are removed from
+// the Sections sheet and from every relation row (a row left with no
+// section is dropped), as if never written.
+func subTerm(t *timetable.Term, ids []string) *timetable.Term {
+	c := *t
+	c.Sections = slices.DeleteFunc(slices.Clone(t.Sections), func(s timetable.Section) bool { return !slices.Contains(ids, s.ID) })
+	c.Relations = nil
+	for _, r := range t.Relations {
+		r.Sections = slices.DeleteFunc(slices.Clone(r.Sections), func(id string) bool { return !slices.Contains(ids, id) })
+		if len(r.Sections) > 0 {
+			c.Relations = append(c.Relations, r)
+		}
+	}
+	return &c
 }
 
 // patGrantsBrute reads a request by its words (request.go): several days name
@@ -468,5 +489,111 @@ func TestPatternExplainFeasible(t *testing.T) {
 		} else {
 			require.NotNil(t, ex.Conflict)
 		}
+	}
+}
+
+// TestPatternExplainRandomBrute: random small pattern terms with random
+// hard relations and one random request. Brute force over every
+// timetable decides whether the request can be granted; a granted
+// request's timetable passes timetable.Check and grants it; a refused
+// one's conflict is a minimal unsatisfiable set by brute force, and its
+// places are exactly those of brute force.
+func TestPatternExplainRandomBrute(t *testing.T) {
+	refused := 0
+	const n = 40 // 400 passed too (not kept: a few seconds)
+	for seed := int64(1); seed <= n; seed++ {
+		term, req := randomPatRequest(seed)
+		name := fmt.Sprintf("seed %d: %s", seed, req)
+		ex, err := Explain(context.Background(), term, []Request{req}, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1})
+		require.NoError(t, err, name)
+		all := func(timetable.Violation) bool { return true }
+		want := patBruteFeasible(term, nil, all, &req)
+		require.Equal(t, want, ex.Status == StatusGranted, "%s: %s", name, ex.Status)
+		if want {
+			require.Empty(t, timetable.HardViolations(timetable.Check(term, ex.Schedule)), name)
+			require.True(t, patGrantsBrute(term, ex.Schedule, req), name)
+			continue
+		}
+		refused++
+		require.NotNil(t, ex.Conflict, name)
+		if !ex.Conflict.Minimal {
+			continue
+		}
+		assertBruteMinimal(t, name, term, ex.Conflict, req)
+		if !ex.TermInfeasible {
+			rr := ex.Requests[0]
+			require.True(t, rr.PlacesComplete, name)
+			var got []string
+			for _, p := range rr.Places {
+				got = append(got, fmt.Sprintf("%d/%s", p.Time, p.Room))
+			}
+			assert.ElementsMatch(t, patBrutePlaces(term, req), got, name)
+		}
+	}
+	t.Logf("%d of %d requests refused", refused, n)
+	require.Greater(t, refused, 3, "the random terms exercise refusals")
+}
+
+// randomPatRequest is a random pattern term (patternTerm: four sections)
+// with up to two random hard relation rows between them, and a request
+// for one of the meeting times of a random section, half the time in one
+// of its rooms.
+func randomPatRequest(seed int64) (*timetable.Term, Request) {
+	kinds := []timetable.RelationKind{timetable.DifferentDays, timetable.NoOverlap, timetable.SameStart,
+		timetable.MinGap, timetable.SameDayRel, timetable.DifferentRooms, timetable.SameRoom}
+	term := patternTerm(seed, 4, 3, 2)
+	rng := xRand(uint64(seed))
+	for k := rng.IntN(3); k > 0; k-- {
+		a, c := rng.IntN(4), rng.IntN(4)
+		if a == c {
+			continue
+		}
+		rel := timetable.Relation{Kind: kinds[rng.IntN(len(kinds))], Hard: true, N: 30,
+			Sections: []string{term.Sections[a].ID, term.Sections[c].ID},
+			Src:      timetable.Source{Sheet: "Relations", Row: len(term.Relations) + 2}}
+		term.Relations = append(term.Relations, rel)
+	}
+	sec := &term.Sections[rng.IntN(4)]
+	tc := sec.Times[rng.IntN(len(sec.Times))]
+	req := Request{Section: sec.ID, Start: tc.Start}
+	req.Day, _ = tc.Days.First()
+	if tc.Days.Count() > 1 {
+		req.Days = tc.Days
+	}
+	if opts := patBruteChoices(term, sec); !sec.NoRoom && rng.IntN(2) == 0 {
+		req.Room = opts[rng.IntN(len(opts))].Room
+	}
+	return term, req
+}
+
+// assertBruteMinimal checks by brute force that conflict c is a minimal
+// unsatisfiable set: with only its reasons and sections it cannot hold,
+// and without any one reason or section it can.
+func assertBruteMinimal(t *testing.T, name string, term *timetable.Term, c *Conflict, req Request) {
+	t.Helper()
+	var secs []string
+	for _, s := range c.Sections {
+		secs = append(secs, s.ID)
+	}
+	keep := func(rs []Reason) func(timetable.Violation) bool {
+		return func(v timetable.Violation) bool {
+			return slices.ContainsFunc(rs, func(r Reason) bool { return patViolationOf(v, r) })
+		}
+	}
+	hasReq := func(rs []Reason, ss []string) *Request {
+		if slices.ContainsFunc(rs, func(r Reason) bool { return r.Kind == KindRequest }) && slices.Contains(ss, req.Section) {
+			return &req
+		}
+		return nil
+	}
+	reasons := c.Reasons
+	require.False(t, patBruteFeasible(term, secs, keep(reasons), hasReq(reasons, secs)), "%s: the conflict alone holds by brute force: %v", name, reasons)
+	for i, r := range reasons {
+		rest := slices.Delete(slices.Clone(reasons), i, i+1)
+		require.True(t, patBruteFeasible(term, secs, keep(rest), hasReq(rest, secs)), "%s: without %q the conflict still cannot hold", name, r.Sentence)
+	}
+	for i := range secs {
+		rest := slices.Delete(slices.Clone(secs), i, i+1)
+		require.True(t, patBruteFeasible(term, rest, keep(reasons), hasReq(reasons, rest)), "%s: without section %s the conflict still cannot hold", name, secs[i])
 	}
 }
