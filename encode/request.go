@@ -27,6 +27,10 @@ type Request struct {
 	// Days, when it holds two days or more, is the requested pattern's set
 	// of days (pattern sections only); 0 or one day: Day alone.
 	Days timetable.DaySet
+	// Time, when above 0, names one meeting pattern of a pattern section
+	// exactly, by its 1-based position (as Placement.Time); Day, Days and
+	// Start then only word it.
+	Time int
 }
 
 // At is the requested start as "Tue 10:00", or the requested pattern's
@@ -175,7 +179,7 @@ func planRequests(t *timetable.Term, reqs []Request) (*requestPlan, error) {
 			if _, msg := matchTimes(&t.Sections[s], r); msg != "" {
 				bad(r, "%s", msg)
 			}
-		} else if r.Days.Count() > 1 {
+		} else if r.Days.Count() > 1 || r.Time > 0 {
 			bad(r, "section %s meets on the period grid, one meeting at a time — give one day and start time, like \"Tue 10:00\"", r.Section)
 		} else if t.PeriodAt(r.Day, r.Start) < 0 {
 			bad(r, "%s is not the start of a period of the grid — use a day and start time from the Periods sheet", r.At())

@@ -18,11 +18,17 @@ import (
 // switching it off drops it entirely.
 
 // matchTimes lists the 0-based patterns of pattern section sec that
-// request r names: with two days or more (r.Days), the patterns with
+// request r names: r.Time's pattern when given; with two days or more (r.Days), the patterns with
 // exactly those days and r's start; with one day, every pattern meeting on
 // that day and starting at r's start. When none matches it returns a
 // message saying so, with the section's meeting times.
 func matchTimes(sec *timetable.Section, r Request) ([]int, string) {
+	if r.Time > 0 {
+		if r.Time > len(sec.Times) {
+			return nil, fmt.Sprintf("section %s has %d meeting times, not %d — ask for one of 1 to %d", sec.ID, len(sec.Times), r.Time, len(sec.Times))
+		}
+		return []int{r.Time - 1}, ""
+	}
 	var idx []int
 	for i := range sec.Times {
 		tc := &sec.Times[i]
@@ -213,4 +219,14 @@ func patternRequestsFixed(c *timetable.Term, reqs []Request) func(*timetable.Sch
 			}
 		}
 	}
+}
+
+// PatternRequest is the request for pattern section sec at its 1-based
+// meeting pattern k, in room (or any room), worded by the pattern's days
+// and start; k must be one of 1 to len(sec.Times).
+func PatternRequest(sec *timetable.Section, k int, room string) Request {
+	tc := sec.Times[k-1]
+	r := requestAt(sec.ID, tc.Days, tc.Start, room)
+	r.Time = k
+	return r
 }
