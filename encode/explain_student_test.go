@@ -175,4 +175,3 @@ func pairClashCost(term *timetable.Term, sched *timetable.Schedule, a, b string)
 	c.Enrolments = []timetable.Enrolment{{Student: "X", Section: a}, {Student: "X", Section: b}}
 	return timetable.Cost(&c, sched, nil).Criterion(timetable.CritStudentClash).Cost
 }
-

@@ -32,12 +32,13 @@ type explainOptions struct {
 	timeLimit    time.Duration // whole run
 	seed         int64         // engine seed
 	budget       int64         // conflicts per check
+	student      string        // explain one student's clashes on a timetable (explain_student.go)
 }
 
 func newExplainCmd(e *env) *cobra.Command {
 	o := &explainOptions{}
 	cmd := &cobra.Command{
-		Use:   "explain TERM [--section S --at \"Tue 10:00\" [--room R] | --requests FILE]",
+		Use:   "explain TERM [--section S --at \"Tue 10:00\" [--room R] | --requests FILE | TIMETABLE --student ID]",
 		Short: "Say why a term (or a requested slot) has no timetable, and what would have to give",
 		Long: "explain reads a term workbook (or folder of CSV files) and answers one question.\n\n" +
 			"Without requests: does a timetable meeting every hard requirement exist? If not,\n" +
@@ -55,12 +56,27 @@ func newExplainCmd(e *env) *cobra.Command {
 			"Meeting times sheet writes it (\"Tue Thu 10:30\": exactly those days), or one\n" +
 			"day and start (\"Tue 10:30\": any of its meeting times on that day at that\n" +
 			"start); the other places are its meeting times and rooms, cheapest first.\n\n" +
+			"With a timetable and --student: can the student get a section of every part of\n" +
+			"every course they asked for (Course requests sheet) without a clash on that\n" +
+			"timetable? If not, a smallest set of their requests that cannot be combined,\n" +
+			"and the clashes (overlaps, too little travel time) and full sections that rule\n" +
+			"out every choice, each section with its times and rows.\n\n" +
 			"Problems the term check finds at once (a cohort or staff member needing more\n" +
 			"periods than they have, too many simultaneous fixed meetings) are printed first.\n" +
 			"Exit status: 0 a timetable exists / the requests are granted, 2 none exists /\n" +
 			"refused (explained), 1 error or no answer within the time limit.",
-		Args: cobra.ExactArgs(1),
-		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runExplain(cmd.Context(), e, o, args[0]) }),
+		Args: cobra.RangeArgs(1, 2),
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error {
+			switch {
+			case o.student != "" && len(args) == 2:
+				return runExplainStudent(e, o, args[0], args[1])
+			case o.student != "":
+				return withCode(exitError, "--student needs the timetable to judge: termwright explain TERM TIMETABLE --student ID")
+			case len(args) == 2:
+				return withCode(exitError, "a second file (a timetable) is only read with --student ID")
+			}
+			return runExplain(cmd.Context(), e, o, args[0])
+		}),
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.section, "section", "", "section of a request (with --at)")
@@ -74,6 +90,7 @@ func newExplainCmd(e *env) *cobra.Command {
 	f.DurationVar(&o.timeLimit, "time-limit", 2*time.Minute, "stop after this long and report what was found (0 for no limit)")
 	f.Int64Var(&o.seed, "seed", 1, "seed of the search; the same seed gives the same answer")
 	f.Int64Var(&o.budget, "budget", encode.DefaultCheckConflicts, "search conflicts allowed per check; a check that runs out leaves an answer marked not minimal")
+	f.StringVar(&o.student, "student", "", "with a TIMETABLE: why this student cannot get all requested courses without a clash")
 	addColumnsFlag(cmd, e)
 	return cmd
 }
