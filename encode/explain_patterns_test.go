@@ -597,3 +597,50 @@ func assertBruteMinimal(t *testing.T, name string, term *timetable.Term, c *Conf
 		require.True(t, patBruteFeasible(term, rest, keep(reasons), hasReq(reasons, rest)), "%s: without section %s the conflict still cannot hold", name, secs[i])
 	}
 }
+
+// TestPatternPlacesOfBrute: PlacesOf on random pattern terms lists
+// exactly the (meeting time, room) choices that some timetable passing
+// timetable.Check gives the section (brute force), cheapest first.
+func TestPatternPlacesOfBrute(t *testing.T) {
+	for seed := int64(1); seed <= 12; seed++ {
+		term, req := randomPatRequest(seed)
+		if !patBruteFeasible(term, nil, func(timetable.Violation) bool { return true }, nil) {
+			continue
+		}
+		places, complete, err := PlacesOf(context.Background(), term, req.Section, ExplainOptions{Seed: 1})
+		require.NoError(t, err)
+		require.True(t, complete)
+		var got []string
+		for i, p := range places {
+			got = append(got, fmt.Sprintf("%d/%s", p.Time, p.Room))
+			if i > 0 {
+				assert.LessOrEqual(t, places[i-1].Cost, p.Cost, "seed %d: cheapest first", seed)
+			}
+		}
+		none := Request{Section: req.Section, Start: -1} // names no meeting time
+		assert.ElementsMatch(t, patBrutePlaces(term, none), got, "seed %d", seed)
+	}
+}
+
+// FuzzParseWhen: what ParseWhen reads, written back as days and start,
+// reads the same (a round trip).
+func FuzzParseWhen(f *testing.F) {
+	for _, s := range []string{"Tue 10:00", "Mon Wed Fri 9:00", "tuesday 9.30", "Mon,Wed/Fri 13:05", "Sun 0:00", "x 10:00", "Mon 25:00", ""} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		days, start, err := ParseWhen(s)
+		if err != nil {
+			return
+		}
+		again := days.String() + " " + start.String()
+		d2, s2, err := ParseWhen(again)
+		require.NoError(t, err, "%q read as %q", s, again)
+		require.Equal(t, days, d2)
+		require.Equal(t, start, s2)
+		r, err := NewRequest("S", s, "")
+		require.NoError(t, err)
+		require.Equal(t, days.Count() > 1, r.Days != 0)
+		require.True(t, days.Has(r.Day))
+	})
+}
