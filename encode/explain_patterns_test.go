@@ -476,20 +476,27 @@ func ruleText(p *solver.Program, r solver.Rule) string {
 
 // TestPatternExplainFeasible: with every requirement holding, an
 // explanation of a random pattern term agrees with brute force on whether
-// a timetable exists, and a timetable it returns passes timetable.Check.
+// a timetable exists; a timetable it returns passes timetable.Check, and
+// a conflict it names is minimal by brute force.
 func TestPatternExplainFeasible(t *testing.T) {
-	for seed := int64(1); seed <= 10; seed++ {
-		term := patternTerm(seed, 4, 3, 2)
+	infeasible := 0
+	for seed := int64(1); seed <= 30; seed++ {
+		term, _ := randomPatRequest(seed)
 		ex, err := Explain(context.Background(), term, nil, ExplainOptions{Seed: 1, VerifyModels: true, Alternatives: -1})
 		require.NoError(t, err)
 		want := patBruteFeasible(term, nil, func(timetable.Violation) bool { return true }, nil)
 		require.Equal(t, want, ex.Status == StatusFeasible, "seed %d: %s", seed, ex.Status)
 		if want {
 			require.Empty(t, timetable.HardViolations(timetable.Check(term, ex.Schedule)))
-		} else {
-			require.NotNil(t, ex.Conflict)
+			continue
+		}
+		infeasible++
+		require.NotNil(t, ex.Conflict)
+		if ex.Conflict.Minimal {
+			assertBruteMinimal(t, fmt.Sprintf("seed %d", seed), term, ex.Conflict, Request{})
 		}
 	}
+	t.Logf("%d of 30 terms have no timetable", infeasible)
 }
 
 // TestPatternExplainRandomBrute: random small pattern terms with random
