@@ -77,7 +77,11 @@ const maxCheckRounds = 50
 // rooms a meeting may use even while their group is off, so a set found
 // with one of them switched off can be stricter than the words say.
 // Switching a section off removes it from every constraint (constraints
-// that would need its meetings get its selector, see guardAbsent).
+// that would need its meetings get its selector, see guardAbsent). A
+// staff member's weekly minutes count every meeting (docs/workbook.md);
+// timetable.Check counts busy minutes, the same unless two meetings
+// overlap, which only a check with that staff member's no-overlap
+// switched off allows.
 type Explainer struct {
 	term *timetable.Term // the term as given: timetables are checked against it
 	work *timetable.Term // term with requested rooms added as fixed meetings (== term when none)
