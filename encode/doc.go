@@ -269,8 +269,11 @@
 // breaks of pattern sections are in times_rel*.go and times_limits*.go.
 // Optimize skips local search on such terms (package improve moves grid
 // meetings only; OptimizeResult.Local.Skipped says so); neighbourhoods
-// free pattern sections like grid ones. Explain mode refuses pattern
-// terms with a message.
+// free pattern sections like grid ones. Explain mode keeps every pattern
+// and room of a pattern section and states what normally prunes them
+// (hard unavailability, room fit, room unavailability) as constraints
+// under the grid's groups (explain_patterns.go); the section's
+// "scheduled" selector is the body of its time and room choices.
 //
 // # Naming
 //

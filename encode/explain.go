@@ -77,7 +77,11 @@ const maxCheckRounds = 50
 // rooms a meeting may use even while their group is off, so a set found
 // with one of them switched off can be stricter than the words say.
 // Switching a section off removes it from every constraint (constraints
-// that would need its meetings get its selector, see guardAbsent).
+// that would need its meetings get its selector, see guardAbsent). A
+// staff member's weekly minutes count every meeting (docs/workbook.md);
+// timetable.Check counts busy minutes, the same unless two meetings
+// overlap, which only a check with that staff member's no-overlap
+// switched off allows.
 type Explainer struct {
 	term *timetable.Term // the term as given: timetables are checked against it
 	work *timetable.Term // term with requested rooms added as fixed meetings (== term when none)
@@ -93,6 +97,7 @@ type Explainer struct {
 	reqGroup   []int       // group of each request
 	reqStart   []int       // requested start period of each request (index into Periods)
 	reqSec     []int       // section index of each request
+	reqTimes   [][]int     // requested patterns (0-based) of each request on a pattern section; nil for the grid
 	secGroup   []int       // "section is scheduled" group of each section
 	roomAssign int         // group guarding room nogoods
 	raSecs     []int       // sections named by room nogoods, in order of discovery
@@ -193,23 +198,31 @@ func (x *Explainer) addSectionSelectors() error {
 		x.secGroup[s] = g
 		x.setRole(g, roleSection)
 	}
+	// Grid sections only: a pattern section's group is already the body of
+	// its time and room choices (patSectionBody, made by Compile).
+	var grid []int
+	for s := range t.Sections {
+		if !x.cat.IsPattern(s) {
+			grid = append(grid, s)
+		}
+	}
 	k := 0
 	for i := range x.p.Bounds {
 		if i >= len(x.cat.boundKind) || x.cat.boundKind[i] != "meetings per week" {
 			continue
 		}
-		if k >= len(t.Sections) {
-			return errors.New("internal error: more meetings-per-week bounds than sections")
+		if k >= len(grid) {
+			return errors.New("internal error: more meetings-per-week bounds than grid sections")
 		}
 		bd := &x.p.Bounds[i]
-		if len(bd.Lits) > 0 && x.cat.AtomInfo(bd.Lits[0].Atom()).Section != k {
+		if len(bd.Lits) > 0 && x.cat.AtomInfo(bd.Lits[0].Atom()).Section != grid[k] {
 			return errors.New("internal error: meetings-per-week bounds are not in section order")
 		}
-		bd.Cond = append(bd.Cond, b.sel(x.secGroup[k]))
+		bd.Cond = append(bd.Cond, b.sel(x.secGroup[grid[k]]))
 		k++
 	}
-	if k != len(t.Sections) {
-		return fmt.Errorf("internal error: %d meetings-per-week bounds for %d sections", k, len(t.Sections))
+	if k != len(grid) {
+		return fmt.Errorf("internal error: %d meetings-per-week bounds for %d grid sections", k, len(grid))
 	}
 	for i := range x.p.Choices {
 		ch := &x.p.Choices[i]
@@ -258,8 +271,14 @@ func (x *Explainer) guardAbsent() {
 				continue
 			}
 			switch info := x.cat.AtomInfo(l.Atom()); info.Kind {
-			case AtomStart, AtomMeetsDay, AtomStartedBy:
+			case AtomStart, AtomMeetsDay, AtomStartedBy, AtomTime, AtomRoom:
 				secs = append(secs, info.Section)
+			case AtomAux:
+				// Helper atoms of one pattern section (any_time, room_time):
+				// asking for one asks for a meeting of that section.
+				if x.cat.IsPattern(info.Section) {
+					secs = append(secs, info.Section)
+				}
 			}
 		}
 		if i < len(x.cat.ruleGroup) {
@@ -279,15 +298,22 @@ func (x *Explainer) guardAbsent() {
 // sectionSentence says what scheduling section s asks for.
 func sectionSentence(t *timetable.Term, s int) string {
 	sec := &t.Sections[s]
+	if sec.UsesTimes() {
+		return fmt.Sprintf("section %s meets at one of its %d acceptable meeting times", sectionTitled(sec), len(sec.Times))
+	}
 	what := fmt.Sprintf("%d meeting(s) a week of %d period(s)", sec.Meetings, sec.Length)
 	if sec.Meetings == 1 {
 		what = fmt.Sprintf("1 meeting a week of %d period(s)", sec.Length)
 	}
-	name := sec.ID
+	return fmt.Sprintf("section %s has %s", sectionTitled(sec), what)
+}
+
+// sectionTitled is "BIO-101 (Cell biology)", or the ID alone.
+func sectionTitled(sec *timetable.Section) string {
 	if sec.Title != "" {
-		name += " (" + sec.Title + ")"
+		return sec.ID + " (" + sec.Title + ")"
 	}
-	return fmt.Sprintf("section %s has %s", name, what)
+	return sec.ID
 }
 
 // Program returns the explanation program (it grows as room families and

@@ -137,7 +137,16 @@ func (x *Explainer) decode(ctx context.Context, model []solver.Atom, isOn func(i
 		}
 	}
 	copied = false
+	copiedPats := false
 	for s, g := range x.secGroup {
+		if !isOn(g) && cc.IsPattern(s) {
+			// An absent pattern section has no time: Decode skips it.
+			if !copiedPats {
+				cc.pats = slices.Clone(cc.pats)
+				copiedPats = true
+			}
+			cc.pats[s].on = false
+		}
 		if !isOn(g) && cc.secs[s].meetings != 0 {
 			if !copied {
 				cc.secs = slices.Clone(cc.secs)

@@ -30,6 +30,9 @@ func (x *Explainer) countingConflict() []int {
 			need := 0
 			for _, s := range secs {
 				sec := &t.Sections[s]
+				if x.cat.IsPattern(s) {
+					continue // its minutes are not periods of the grid
+				}
 				if x.cat.secs[s].weeks.Has(w) {
 					active = append(active, s)
 					need += sec.Meetings * sec.Length

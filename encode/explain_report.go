@@ -177,11 +177,16 @@ func (x *Explainer) unavailableTimes(src []timetable.Source) string {
 	type span struct {
 		day      time.Weekday
 		from, to timetable.Clock
+		weeks    timetable.WeekSet // 0: every week
 	}
 	var spans []span
 	for _, u := range x.work.Unavailable {
 		if u.Hard && u.Src.Sheet != "" && slices.Contains(src, u.Src) {
-			spans = append(spans, span{u.Day, u.From, u.To})
+			w := u.Weeks
+			if w == x.work.AllWeeks() {
+				w = 0
+			}
+			spans = append(spans, span{u.Day, u.From, u.To, w})
 		}
 	}
 	sort.Slice(spans, func(i, j int) bool {
@@ -193,7 +198,7 @@ func (x *Explainer) unavailableTimes(src []timetable.Source) string {
 	})
 	var merged []span
 	for _, sp := range spans {
-		if n := len(merged); n > 0 && merged[n-1].day == sp.day && sp.from <= merged[n-1].to {
+		if n := len(merged); n > 0 && merged[n-1].day == sp.day && merged[n-1].weeks == sp.weeks && sp.from <= merged[n-1].to {
 			merged[n-1].to = max(merged[n-1].to, sp.to)
 			continue
 		}
@@ -208,8 +213,11 @@ func (x *Explainer) unavailableTimes(src []timetable.Source) string {
 			}
 		}
 		text := timetable.DayName(sp.day) + " " + sp.from.String() + "-" + sp.to.String()
-		if sp.from <= first && sp.to >= last {
+		if first < last && sp.from <= first && sp.to >= last {
 			text = timetable.DayName(sp.day) + " all day"
+		}
+		if sp.weeks != 0 {
+			text += " in weeks " + weekList(sp.weeks)
 		}
 		parts = append(parts, text)
 	}
@@ -307,7 +315,9 @@ func (x *Explainer) conflict(mus, core []int, minimal bool) *Conflict {
 		for _, g := range secs {
 			r := x.reason(g)
 			s := slices.Index(x.secGroup, g)
-			if len(x.cat.Candidates(s)) == 0 {
+			if x.cat.IsPattern(s) {
+				r.Sentence += ", but none of them can hold"
+			} else if len(x.cat.Candidates(s)) == 0 {
 				r.Sentence += ", but no run of consecutive periods in the grid can hold one meeting"
 			} else {
 				r.Sentence += ", but the grid has too few starts for them"
@@ -397,6 +407,9 @@ func (x *Explainer) witness(r explainCheck) error {
 
 // grantsRequest reports whether schedule s has a meeting as request r asks.
 func grantsRequest(t *timetable.Term, s *timetable.Schedule, r Request) bool {
+	if i, ok := t.SectionIndex()[r.Section]; ok && t.Sections[i].UsesTimes() {
+		return grantsPatternRequest(t, s, r)
+	}
 	p := t.PeriodAt(r.Day, r.Start)
 	for _, pl := range s.Placements {
 		if pl.Section == r.Section && pl.Period == p && (r.Room == "" || pl.Room == r.Room) {

@@ -156,10 +156,14 @@ const (
 func (x *Explainer) compareOptimised(ctx context.Context, out *Explanation) error {
 	opt := OptimizeOptions{Seed: x.opt.Seed, GlobalConflicts: costGlobalConflicts, MaxStall: costMaxStall}
 	wctx, cancel := explainShare(ctx, 0.25)
-	with, err := Optimize(wctx, requestsFixed(x.term, x.reqs), opt)
+	fixedTerm, back := requestsFixed(x.term, x.reqs)
+	with, err := Optimize(wctx, fixedTerm, opt)
 	cancel()
 	if err != nil {
 		return err
+	}
+	if with.Schedule != nil {
+		back(with.Schedule)
 	}
 	octx, cancel := explainShare(ctx, 0.33)
 	without, err := Optimize(octx, x.term, opt)
@@ -184,12 +188,20 @@ func (x *Explainer) compareOptimised(ctx context.Context, out *Explanation) erro
 	return nil
 }
 
-// requestsFixed is a copy of t in which every request is a fixed meeting.
-func requestsFixed(t *timetable.Term, reqs []Request) *timetable.Term {
-	c := *t
+// requestsFixed is a copy of t in which every request on a grid section
+// is a fixed meeting and every pattern section with requests keeps only
+// the requested patterns and room; back turns a timetable of the copy into
+// one of t.
+func requestsFixed(t *timetable.Term, reqs []Request) (c *timetable.Term, back func(*timetable.Schedule)) {
+	cp := *t
+	c = &cp
 	c.Sections = slices.Clone(t.Sections)
 	idx := t.SectionIndex()
+	back = patternRequestsFixed(c, reqs)
 	for _, r := range reqs {
+		if t.Sections[idx[r.Section]].UsesTimes() {
+			continue
+		}
 		sec := &c.Sections[idx[r.Section]]
 		p := t.PeriodAt(r.Day, r.Start)
 		done := false
@@ -206,7 +218,7 @@ func requestsFixed(t *timetable.Term, reqs []Request) *timetable.Term {
 			sec.Fixed = append(sec.Fixed, timetable.Fixed{Day: r.Day, Start: r.Start, Room: r.Room, Text: r.At() + ", as requested"})
 		}
 	}
-	return &c
+	return c, back
 }
 
 // answerRequests checks whether the term works without any request and,

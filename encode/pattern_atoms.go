@@ -142,12 +142,12 @@ func (b *builder) compilePatternChoices() {
 			roomFree[k] = make([]bool, len(sec.Times))
 		}
 		for i := range sec.Times {
-			if b.patternBlocked(s, i) {
-				continue
+			if !b.opt.Explain && b.patternBlocked(s, i) {
+				continue // Explain mode: explain_patterns.go states it with a selector
 			}
 			any := len(rooms) == 0
 			for k, r := range rooms {
-				if !b.pat.roomBlocked(r, &sec.Times[i]) {
+				if b.opt.Explain || !b.pat.roomBlocked(r, &sec.Times[i]) {
 					roomFree[k][i] = true
 					any = true
 				}
@@ -169,7 +169,7 @@ func (b *builder) compilePatternChoices() {
 		}
 		pm.times = times
 		b.in(-1, "meeting time")
-		b.choice(heads, 1, 1)
+		b.choice(heads, 1, 1, b.patSectionBody(s)...)
 		if !sec.TakesRoom() {
 			continue
 		}
@@ -205,7 +205,7 @@ func (b *builder) compilePatternChoices() {
 			}
 		}
 		b.in(-1, "meeting room")
-		b.choice(heads2, 1, 1)
+		b.choice(heads2, 1, 1, b.patSectionBody(s)...)
 		if len(clash) > 0 {
 			b.in(-1, "room availability")
 			for _, c := range clash {
@@ -247,8 +247,8 @@ func (b *builder) patternRooms(sec *timetable.Section) (rooms, weights []int) {
 			continue
 		}
 		room := &t.Rooms[r]
-		if (!t.SoftCapacity && room.Capacity < sec.Size) || !room.HasFeatures(sec.Needs) {
-			continue
+		if !b.opt.Explain && !patternRoomFits(t, sec, room) {
+			continue // Explain mode: explain_patterns.go states it with a selector
 		}
 		rooms = append(rooms, r)
 		weights = append(weights, wt)

@@ -96,13 +96,6 @@ func TestMixedRoomShared(t *testing.T) {
 	require.Equal(t, solver.Unsatisfiable, res.Status)
 }
 
-// TestPatternExplainRefused: explanations say clearly that they do not
-// cover pattern sections yet, instead of failing on them.
-func TestPatternExplainRefused(t *testing.T) {
-	_, _, err := Compile(cliqueTerm(), Options{Explain: true})
-	require.ErrorContains(t, err, "explanations do not cover sections with meeting times")
-}
-
 // TestPatternKeep: re-planning with the timetable itself kept moves
 // nothing ("moved meetings" is the top level); keeping a timetable whose
 // one section now has a pattern forbidden moves exactly that section, and

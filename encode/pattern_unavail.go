@@ -34,9 +34,6 @@ func (b *builder) initPatterns() {
 	if !b.pat.any {
 		return
 	}
-	if b.opt.Explain {
-		b.errorf(timetable.Source{}, "explanations do not cover sections with meeting times yet: use solve or optimise for this term")
-	}
 	b.pat.staff = make([][]timetable.Unavailability, len(t.Staff))
 	b.pat.cohort = make([][]timetable.Unavailability, len(t.Cohorts))
 	b.pat.section = make([][]timetable.Unavailability, len(t.Sections))

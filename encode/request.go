@@ -12,16 +12,35 @@ import (
 
 // Request asks for one meeting of a section to start at a given day and
 // time, optionally in a given room: "BIO-101 on Tue 10:00 in L2".
+//
+// For a section with meeting patterns (Section.Times) the request names
+// one of them as the Meeting times sheet writes it: with several days
+// ("CHEM-110 at Tue Thu 10:30"), the patterns with exactly those days and
+// that start; with one day ("CHEM-110 on Tue at 10:30"), every pattern
+// that meets on that day at that start. See request_patterns.go.
 type Request struct {
 	Section string           // section ID
-	Day     time.Weekday     // day of the requested start
-	Start   timetable.Clock  // requested start time: the start of a period of the grid
+	Day     time.Weekday     // day of the requested start (the first of Days when several)
+	Start   timetable.Clock  // requested start time: the start of a period of the grid, or of a meeting pattern
 	Room    string           // requested room ID; "" for any suitable room
 	Src     timetable.Source // Requests row; zero for the command line
+	// Days, when it holds two days or more, is the requested pattern's set
+	// of days (pattern sections only); 0 or one day: Day alone.
+	Days timetable.DaySet
+	// Time, when above 0, names one meeting pattern of a pattern section
+	// exactly, by its 1-based position (as Placement.Time); Day, Days and
+	// Start then only word it.
+	Time int
 }
 
-// At is the requested start as "Tue 10:00".
-func (r Request) At() string { return timetable.DayName(r.Day) + " " + r.Start.String() }
+// At is the requested start as "Tue 10:00", or the requested pattern's
+// days and start as "Tue Thu 10:30".
+func (r Request) At() string {
+	if r.Days.Count() > 1 {
+		return r.Days.String() + " " + r.Start.String()
+	}
+	return timetable.DayName(r.Day) + " " + r.Start.String()
+}
 
 // String is "section BIO-101 at Tue 10:00 in room L2".
 func (r Request) String() string {
@@ -39,15 +58,55 @@ func ParseAt(s string) (time.Weekday, timetable.Clock, error) {
 	if len(f) != 2 {
 		return 0, 0, fmt.Errorf("%q is not a day and a time: write it like \"Tue 10:00\"", s)
 	}
-	day, ok := timetable.ParseDay(f[0])
-	if !ok {
-		return 0, 0, fmt.Errorf("%q does not start with a day name: write it like \"Tue 10:00\"", s)
+	days, c, err := ParseWhen(s)
+	if err != nil {
+		return 0, 0, err
 	}
-	c, ok := parseRequestClock(f[1])
+	day, _ := days.First()
+	return day, c, nil
+}
+
+// ParseWhen reads one or more days and a start time: "Tue 10:00" (a grid
+// start, or a pattern meeting on Tuesday at 10:00) or, for a meeting
+// pattern, its days as the Meeting times sheet writes them, "Mon Wed Fri
+// 9:00" (days separated by spaces, commas or slashes).
+func ParseWhen(s string) (timetable.DaySet, timetable.Clock, error) {
+	f := strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == ',' || r == '/' || r == '\t' })
+	if len(f) < 2 {
+		return 0, 0, fmt.Errorf("%q is not a day and a time: write it like \"Tue 10:00\" (or, for a meeting pattern, \"Mon Wed Fri 9:00\")", s)
+	}
+	var days timetable.DaySet
+	for _, w := range f[:len(f)-1] {
+		d, ok := timetable.ParseDay(w)
+		if !ok {
+			return 0, 0, fmt.Errorf("%q does not start with day names: write it like \"Tue 10:00\" (or \"Mon Wed Fri 9:00\")", s)
+		}
+		days |= timetable.DaysOf(d)
+	}
+	c, ok := parseRequestClock(f[len(f)-1])
 	if !ok {
 		return 0, 0, fmt.Errorf("%q has no valid 24-hour time: write it like \"Tue 10:00\"", s)
 	}
-	return day, c, nil
+	return days, c, nil
+}
+
+// NewRequest is the request "section at when (in room)", when read by
+// ParseWhen.
+func NewRequest(section, when, room string) (Request, error) {
+	days, start, err := ParseWhen(when)
+	if err != nil {
+		return Request{}, err
+	}
+	return requestAt(section, days, start, room), nil
+}
+
+func requestAt(section string, days timetable.DaySet, start timetable.Clock, room string) Request {
+	day, _ := days.First()
+	r := Request{Section: section, Day: day, Start: start, Room: room}
+	if days.Count() > 1 {
+		r.Days = days
+	}
+	return r
 }
 
 // parseRequestClock reads "10:00", "9:30" or "10.00" (24-hour).
@@ -88,9 +147,10 @@ func (e RequestError) Error() string {
 // fixed meeting's rooms), the others plain constraints on start atoms.
 type requestPlan struct {
 	work  *timetable.Term
-	fixed []int // per request: index into work.Sections[s].Fixed, or -1
-	sec   []int // per request: section index
-	start []int // per request: start period
+	fixed []int   // per request: index into work.Sections[s].Fixed, or -1
+	sec   []int   // per request: section index
+	start []int   // per request: start period (-1 for a pattern section)
+	times [][]int // per request: the requested patterns (0-based) of a pattern section; nil for the grid
 }
 
 // planRequests checks the requests against the term and plans them.
@@ -115,7 +175,13 @@ func planRequests(t *timetable.Term, reqs []Request) (*requestPlan, error) {
 			bad(r, "section %q is not on the Sections sheet — correct the section ID", r.Section)
 			continue
 		}
-		if t.PeriodAt(r.Day, r.Start) < 0 {
+		if t.Sections[s].UsesTimes() {
+			if _, msg := matchTimes(&t.Sections[s], r); msg != "" {
+				bad(r, "%s", msg)
+			}
+		} else if r.Days.Count() > 1 || r.Time > 0 {
+			bad(r, "section %s meets on the period grid, one meeting at a time — give one day and start time, like \"Tue 10:00\"", r.Section)
+		} else if t.PeriodAt(r.Day, r.Start) < 0 {
 			bad(r, "%s is not the start of a period of the grid — use a day and start time from the Periods sheet", r.At())
 		}
 		if r.Room != "" {
@@ -134,10 +200,19 @@ func planRequests(t *timetable.Term, reqs []Request) (*requestPlan, error) {
 	copied := map[int]bool{}
 	for _, r := range reqs {
 		s := secIdx[r.Section]
-		p := t.PeriodAt(r.Day, r.Start)
 		plan.sec = append(plan.sec, s)
-		plan.start = append(plan.start, p)
 		plan.fixed = append(plan.fixed, -1)
+		if t.Sections[s].UsesTimes() {
+			// A pattern request is a constraint on time and room atoms
+			// (addPatternRequest); it does not touch the room model.
+			idx, _ := matchTimes(&t.Sections[s], r)
+			plan.start = append(plan.start, -1)
+			plan.times = append(plan.times, idx)
+			continue
+		}
+		p := t.PeriodAt(r.Day, r.Start)
+		plan.start = append(plan.start, p)
+		plan.times = append(plan.times, nil)
 		if r.Room == "" {
 			continue
 		}
@@ -179,12 +254,19 @@ func (x *Explainer) addRequests(plan *requestPlan) error {
 		s, p := plan.sec[i], plan.start[i]
 		x.reqSec = append(x.reqSec, s)
 		x.reqStart = append(x.reqStart, p)
-		sentence := requestSentence(x.work, r, i+1, s, p)
+		x.reqTimes = append(x.reqTimes, plan.times[i])
 		src := []timetable.Source{r.Src}
 		if r.Src.Sheet == "" {
 			src = nil
 		}
 		var g int
+		if x.work.Sections[s].UsesTimes() {
+			g = x.addPatternRequest(b, i, s, plan.times[i], src)
+			x.reqGroup = append(x.reqGroup, g)
+			x.setRole(g, roleRequest)
+			continue
+		}
+		sentence := requestSentence(x.work, r, i+1, s, p)
 		if fi := plan.fixed[i]; fi >= 0 {
 			key := KindFixed + "\x00" + r.Section + "\x00" + strconv.Itoa(fi+1)
 			var ok bool

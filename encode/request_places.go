@@ -10,11 +10,18 @@ import (
 )
 
 // Place is a start where a refused request's section could meet instead,
-// with the room of a timetable that proves it.
+// with the room of a timetable that proves it; for a pattern section, a
+// meeting pattern and room that a timetable gives it.
 type Place struct {
-	At     string `json:"at"`     // "Tue 10:00"
-	Period int    `json:"period"` // index into Term.Periods
+	At     string `json:"at"`     // "Tue 10:00"; for a pattern "Tue Thu 10:30-11:45"
+	Period int    `json:"period"` // index into Term.Periods; -1 for a meeting pattern
 	Room   string `json:"room"`   // room in the proving timetable; "" for sections that take no room
+	// Time is the 1-based meeting pattern (as Placement.Time); 0 on the grid.
+	Time int `json:"time,omitempty"`
+	// Cost is the pattern's and room's own preference penalty (criteria
+	// time choice and room choice); pattern places are listed cheapest
+	// first.
+	Cost int `json:"cost,omitempty"`
 }
 
 // places tests every candidate start of request r's section, with request
@@ -26,6 +33,9 @@ type Place struct {
 // compiled into the room model, so a second explainer without it answers.
 // complete is false when some check ran out of budget or time.
 func (x *Explainer) places(ctx context.Context, r int) (out []Place, complete bool, err error) {
+	if s := x.reqSec[r]; x.cat.IsPattern(s) {
+		return x.placesPattern(ctx, s, x.patternSkip(r), x.allOn(x.reqGroup[r]))
+	}
 	if x.reqs[r].Room != "" {
 		// The requested room narrows the section's rooms at the requested
 		// start even with the request off: ask an explainer without it.
@@ -46,6 +56,9 @@ func (x *Explainer) places(ctx context.Context, r int) (out []Place, complete bo
 // placesOf tests the candidate starts of section s other than want with
 // the groups of on holding.
 func (x *Explainer) placesOf(ctx context.Context, s, want int, on []bool) (out []Place, complete bool, err error) {
+	if x.cat.IsPattern(s) {
+		return x.placesPattern(ctx, s, func(patPlace) bool { return false }, on)
+	}
 	if x.work.Sections[s].Meetings == 1 {
 		return x.placesOne(ctx, s, want, on)
 	}

@@ -16,7 +16,8 @@ import (
 )
 
 // RequestsSheet is the name of the sheet (or CSV file stem) that lists
-// requests: columns Section, At ("Tue 10:00") and, optionally, Room.
+// requests: columns Section, At ("Tue 10:00", or a meeting pattern's days
+// and start, "Mon Wed Fri 9:00") and, optionally, Room.
 const RequestsSheet = "Requests"
 
 // maxRequests caps the rows of a requests sheet.
@@ -151,12 +152,13 @@ func parseRequestRows(rows [][]string, lines []int, sheet string) ([]Request, er
 			errs = append(errs, InputError{Src: src, Msg: fmt.Sprintf("a cell holds %s, more than the %d characters a request cell may hold — shorten it", timetable.Quote(long), timetable.MaxCellChars)})
 			continue
 		}
-		day, start, err := ParseAt(at)
+		req, err := NewRequest(sec, at, room)
 		if err != nil {
 			errs = append(errs, InputError{Src: src, Msg: "At: " + err.Error()})
 			continue
 		}
-		out = append(out, Request{Section: sec, Day: day, Start: start, Room: room, Src: src})
+		req.Src = src
+		out = append(out, req)
 	}
 	if len(errs) > 0 {
 		return nil, errs

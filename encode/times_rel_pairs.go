@@ -178,6 +178,7 @@ func (b *builder) pairWaysOf(ways [][]solver.Lit, a, c int, ok func(x, y *timeta
 		body := []solver.Lit{b.anyTime(a, g.pats)}
 		switch {
 		case len(g.bad) == len(cc):
+			body = append(body, b.patSectionBody(c)...) // Explain mode: only while c is scheduled
 		case len(cc)-len(g.bad) < len(g.bad):
 			body = append(body, b.anyTime(c, without(cc, g.bad)).Not())
 		default:

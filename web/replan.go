@@ -59,29 +59,6 @@ type replanMove struct {
 	To      string `json:"to,omitempty"`
 }
 
-// patternSections lists the sections that meet by meeting patterns. The
-// engine's encoding (package encode) does not compile meeting patterns in
-// this build, so the searches (re-plan, where else, why not) refuse terms
-// and sections that have them rather than answer wrongly.
-func patternSections(t *timetable.Term) []string {
-	var out []string
-	for i := range t.Sections {
-		if t.Sections[i].UsesTimes() {
-			out = append(out, t.Sections[i].ID)
-		}
-	}
-	return out
-}
-
-// errPatterns is the sentence for a search on a term with meeting patterns.
-func errPatterns(what string, secs []string) error {
-	more := ""
-	if len(secs) > 1 {
-		more = fmt.Sprintf(" and %d other sections", len(secs)-1)
-	}
-	return fmt.Errorf("%s is not available for terms with meeting patterns yet (section %s%s meets by patterns, which the solver in this build cannot search); move meetings by hand, or re-plan with `termwright solve --keep` once it supports them", what, secs[0], more)
-}
-
 func (s *Server) handleReplan(w http.ResponseWriter, r *http.Request) {
 	var req replanRequest
 	if !s.beginEdit(w, r, &req, func() int { return req.Version }) {

@@ -2,6 +2,7 @@ package web
 
 import (
 	"context"
+	"errors"
 	"net/http"
 	"time"
 
@@ -59,33 +60,38 @@ func (s *Server) handleWhereElse(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	sec := t.Sections[t.SectionIndex()[req.Section]]
-	if !sec.UsesTimes() {
-		if ps := patternSections(t); len(ps) > 0 {
-			writeError(w, http.StatusBadRequest, errPatterns("where else for a grid section", ps).Error())
-			return
-		}
-	}
 	from := s.cur.Placements[at]
 	j, err := s.startJobLocked("whereelse", whereElseLimit, func(ctx context.Context, j *job) {
 		out := &whereElseJSON{Section: req.Section, Meeting: req.Meeting, From: placementWhen(t, from) + " in " + roomName(from.Room), Places: []whereJSON{}}
-		var cands []whereJSON
+		what := "every start of " + sec.ID
 		if sec.UsesTimes() {
-			j.setProgress(jobProgress{Phase: "trying each of the section's meeting patterns and rooms with the rest of the timetable as it is"})
-			out.Complete = true
-			out.Basis = "Each place is proved by this timetable with the meeting moved there alone (timetable.Check); places that would need other meetings to move are not searched for sections with meeting patterns in this build"
+			what = "every meeting time and room of " + sec.ID
+		}
+		j.setProgress(jobProgress{Phase: "testing " + what + " against the whole term"})
+		places, complete, err := encode.PlacesOf(ctx, t, sec.ID, encode.ExplainOptions{Seed: 1, Alternatives: -1})
+		var cerr encode.CompileError
+		onlyAlone := false
+		var cands []whereJSON
+		switch {
+		case errors.As(err, &cerr) && sec.UsesTimes():
+			// The engine cannot search this term (a mix of grid and pattern
+			// sections it does not compile): fall back to the moves that
+			// work alone on this timetable.
+			out.Complete, onlyAlone = true, true
+			out.Basis = "Each place is proved by this timetable with the meeting moved there alone (timetable.Check); the whole term cannot be searched: " + cerr.Error()
 			cands = patternCandidates(t, &sec, from)
-		} else {
-			j.setProgress(jobProgress{Phase: "testing every start of " + sec.ID + " against the whole term"})
-			places, complete, err := encode.PlacesOf(ctx, t, sec.ID, encode.ExplainOptions{Seed: 1, Alternatives: -1})
-			if err != nil {
-				j.finish(nil, nil, err)
-				return
-			}
+		case err != nil:
+			j.finish(nil, nil, err)
+			return
+		default:
 			out.Complete = complete && ctx.Err() == nil
 			out.Basis = "Each place is proved by a full timetable of the term in which the section meets there (encode's explanation search: solver.Verify and timetable.Check)"
+			if sec.UsesTimes() {
+				out.Basis += "; meeting times and rooms are listed cheapest first"
+			}
 			for _, p := range places {
-				if p.Period != from.Period {
-					cands = append(cands, whereJSON{At: p.At, Period: p.Period, Room: p.Room})
+				if p.Time > 0 && !(p.Time == from.Time && p.Room == from.Room) || p.Time == 0 && p.Period != from.Period {
+					cands = append(cands, whereJSON{At: p.At, Period: p.Period, Time: p.Time, Room: p.Room})
 				}
 			}
 		}
@@ -94,7 +100,7 @@ func (s *Server) handleWhereElse(w http.ResponseWriter, r *http.Request) {
 		out.Version = s.version
 		// Judge on the timetable as it is now: edits made meanwhile count.
 		if now, err := s.placementLocked(req.Section, req.Meeting); err == nil {
-			out.Places = s.judgePlacesLocked(now, s.cur.Placements[now], cands, sec.UsesTimes())
+			out.Places = s.judgePlacesLocked(now, s.cur.Placements[now], cands, onlyAlone)
 		}
 		s.mu.Unlock()
 		j.finish(out, nil, nil)
@@ -129,9 +135,10 @@ func patternCandidates(t *timetable.Term, sec *timetable.Section, from timetable
 }
 
 // judgePlacesLocked judges, on the current timetable, moving the meeting
-// at index at (now at from) alone to each candidate: in its own room first, else in the
-// candidate's room. Only lone moves that break nothing count as proved
-// for pattern sections (onlyAlone).
+// at index at (now at from) alone to each candidate: a grid start in its
+// own room first, else in the candidate's room; a meeting time in the
+// candidate's room. With onlyAlone, only the moves that work alone are
+// kept (nothing else proves the others).
 func (s *Server) judgePlacesLocked(at int, from timetable.Placement, cands []whereJSON, onlyAlone bool) []whereJSON {
 	t := s.opt.Term
 	out := []whereJSON{}

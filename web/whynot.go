@@ -40,27 +40,37 @@ func reasonsOf(rs []encode.Reason) []reasonJSON {
 	return out
 }
 
-// handleWhyNot runs encode.Explain for one request: section at period
-// (and room). The term is read-only, so it runs outside the lock; one
-// explanation at a time, as each takes the engine for seconds.
+// handleWhyNot runs encode.Explain for one request: section at period, or
+// a section with meeting patterns at its 1-based pattern time (and room).
+// The term is read-only, so it runs outside the lock; one explanation at
+// a time, as each takes the engine for seconds.
 func (s *Server) handleWhyNot(w http.ResponseWriter, r *http.Request) {
 	t := s.opt.Term
 	q := r.URL.Query()
 	sec := q.Get("section")
-	if _, ok := t.SectionIndex()[sec]; !ok {
+	si, ok := t.SectionIndex()[sec]
+	if !ok {
 		writeError(w, http.StatusBadRequest, fmt.Sprintf("there is no section %q in the term; pick a meeting on the page", sec))
 		return
 	}
-	if ps := patternSections(t); len(ps) > 0 {
-		writeError(w, http.StatusBadRequest, errPatterns("why not", ps).Error())
-		return
-	}
-	per, err := strconv.Atoi(q.Get("period"))
-	if err != nil || per < 0 || per >= len(t.Periods) {
-		writeError(w, http.StatusBadRequest, fmt.Sprintf("period %q is not in the term's grid (0 to %d); pick a cell of the grid", q.Get("period"), len(t.Periods)-1))
-		return
-	}
 	room := q.Get("room")
+	var req encode.Request
+	if ts := &t.Sections[si]; ts.UsesTimes() {
+		k, err := strconv.Atoi(q.Get("time"))
+		if err != nil || k < 1 || k > len(ts.Times) {
+			writeError(w, http.StatusBadRequest, fmt.Sprintf("time %q is not one of section %s's meeting times (1 to %d); pick one of them", q.Get("time"), sec, len(ts.Times)))
+			return
+		}
+		req = encode.PatternRequest(ts, k, room)
+	} else {
+		per, err := strconv.Atoi(q.Get("period"))
+		if err != nil || per < 0 || per >= len(t.Periods) {
+			writeError(w, http.StatusBadRequest, fmt.Sprintf("period %q is not in the term's grid (0 to %d); pick a cell of the grid", q.Get("period"), len(t.Periods)-1))
+			return
+		}
+		p := t.Periods[per]
+		req = encode.Request{Section: sec, Day: p.Day, Start: p.Start, Room: room}
+	}
 	if _, ok := t.RoomIndex()[room]; room != "" && !ok {
 		writeError(w, http.StatusBadRequest, fmt.Sprintf("there is no room %q in the term; pick one of the term's rooms", room))
 		return
@@ -72,8 +82,6 @@ func (s *Server) handleWhyNot(w http.ResponseWriter, r *http.Request) {
 		writeError(w, http.StatusServiceUnavailable, "another search is running (a re-plan, where else or why not); wait for it or stop it, then ask again")
 		return
 	}
-	p := t.Periods[per]
-	req := encode.Request{Section: sec, Day: p.Day, Start: p.Start, Room: room}
 	ctx, cancel := context.WithTimeout(r.Context(), whyNotLimit)
 	defer cancel()
 	ex, err := encode.Explain(ctx, t, []encode.Request{req}, encode.ExplainOptions{Seed: 1, Alternatives: 2})

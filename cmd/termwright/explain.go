@@ -32,12 +32,13 @@ type explainOptions struct {
 	timeLimit    time.Duration // whole run
 	seed         int64         // engine seed
 	budget       int64         // conflicts per check
+	student      string        // explain one student's clashes on a timetable (explain_student.go)
 }
 
 func newExplainCmd(e *env) *cobra.Command {
 	o := &explainOptions{}
 	cmd := &cobra.Command{
-		Use:   "explain TERM [--section S --at \"Tue 10:00\" [--room R] | --requests FILE]",
+		Use:   "explain TERM [--section S --at \"Tue 10:00\" [--room R] | --requests FILE | TIMETABLE --student ID]",
 		Short: "Say why a term (or a requested slot) has no timetable, and what would have to give",
 		Long: "explain reads a term workbook (or folder of CSV files) and answers one question.\n\n" +
 			"Without requests: does a timetable meeting every hard requirement exist? If not,\n" +
@@ -51,17 +52,35 @@ func newExplainCmd(e *env) *cobra.Command {
 			"Section, At and Room): can they all be granted together? If yes, a full\n" +
 			"timetable that grants them is found and checked (-o writes it); if not, the\n" +
 			"reasons, what would have to give, and the times where the section could meet\n" +
-			"instead.\n\n" +
+			"instead. For a section with meeting times, --at names one of them as the\n" +
+			"Meeting times sheet writes it (\"Tue Thu 10:30\": exactly those days), or one\n" +
+			"day and start (\"Tue 10:30\": any of its meeting times on that day at that\n" +
+			"start); the other places are its meeting times and rooms, cheapest first.\n\n" +
+			"With a timetable and --student: can the student get a section of every part of\n" +
+			"every course they asked for (Course requests sheet) without a clash on that\n" +
+			"timetable? If not, a smallest set of their requests that cannot be combined,\n" +
+			"and the clashes (overlaps, too little travel time) and full sections that rule\n" +
+			"out every choice, each section with its times and rows.\n\n" +
 			"Problems the term check finds at once (a cohort or staff member needing more\n" +
 			"periods than they have, too many simultaneous fixed meetings) are printed first.\n" +
 			"Exit status: 0 a timetable exists / the requests are granted, 2 none exists /\n" +
 			"refused (explained), 1 error or no answer within the time limit.",
-		Args: cobra.ExactArgs(1),
-		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runExplain(cmd.Context(), e, o, args[0]) }),
+		Args: cobra.RangeArgs(1, 2),
+		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error {
+			switch {
+			case o.student != "" && len(args) == 2:
+				return runExplainStudent(e, o, args[0], args[1])
+			case o.student != "":
+				return withCode(exitError, "--student needs the timetable to judge: termwright explain TERM TIMETABLE --student ID")
+			case len(args) == 2:
+				return withCode(exitError, "a second file (a timetable) is only read with --student ID")
+			}
+			return runExplain(cmd.Context(), e, o, args[0])
+		}),
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.section, "section", "", "section of a request (with --at)")
-	f.StringVar(&o.at, "at", "", `requested start of one meeting, like "Tue 10:00" (with --section)`)
+	f.StringVar(&o.at, "at", "", `requested start of one meeting, like "Tue 10:00", or a meeting time's days and start, like "Mon Wed Fri 9:00" (with --section)`)
 	f.StringVar(&o.room, "room", "", "requested room (optional, with --section and --at)")
 	f.StringVar(&o.requests, "requests", "", "file of requests: .csv, or .xlsx with a Requests sheet (columns Section, At, Room)")
 	f.IntVar(&o.alternatives, "alternatives", 3, "how many ways out to list (0 for none)")
@@ -71,6 +90,7 @@ func newExplainCmd(e *env) *cobra.Command {
 	f.DurationVar(&o.timeLimit, "time-limit", 2*time.Minute, "stop after this long and report what was found (0 for no limit)")
 	f.Int64Var(&o.seed, "seed", 1, "seed of the search; the same seed gives the same answer")
 	f.Int64Var(&o.budget, "budget", encode.DefaultCheckConflicts, "search conflicts allowed per check; a check that runs out leaves an answer marked not minimal")
+	f.StringVar(&o.student, "student", "", "with a TIMETABLE: why this student cannot get all requested courses without a clash")
 	addColumnsFlag(cmd, e)
 	return cmd
 }
@@ -189,11 +209,11 @@ func explainRequests(o *explainOptions) ([]encode.Request, error) {
 	case o.section == "" || o.at == "":
 		return nil, withCode(exitError, `a request needs both --section and --at, like --section BIO-101 --at "Tue 10:00"`)
 	}
-	day, start, err := encode.ParseAt(o.at)
+	req, err := encode.NewRequest(o.section, o.at, o.room)
 	if err != nil {
 		return nil, failf(exitError, "--at: %w", err)
 	}
-	return []encode.Request{{Section: o.section, Day: day, Start: start, Room: o.room}}, nil
+	return []encode.Request{req}, nil
 }
 
 // explainLoad reads the term. Problems of reading (cells, sheets) stop the
@@ -401,6 +421,10 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 			}
 			continue
 		}
+		if r.Places[0].Time > 0 {
+			explainPatternPlaces(w, r)
+			continue
+		}
 		// One line per day: "Mon 13:00, 14:00; Tue 08:00".
 		var days []string
 		for i, p := range r.Places {
@@ -422,6 +446,57 @@ func explainPlaces(w io.Writer, ex *encode.Explanation) {
 			fmt.Fprintln(w, "  (Some times were not decided within the budget.)")
 		}
 	}
+}
+
+// explainPatternPlaces lists the meeting times and rooms where a refused
+// request's pattern section could meet instead, cheapest first, one line
+// per meeting time: "Mon Wed Fri 09:00-09:50 in ASH-101 or CED-1 (preference
+// cost 1 in CED-1)".
+func explainPatternPlaces(w io.Writer, r encode.RequestResult) {
+	fmt.Fprintf(w, "\nSection %s could meet instead at (cheapest first):\n", r.Section)
+	type line struct {
+		at    string
+		rooms []string
+		costs []string
+		cost  int
+	}
+	var lines []*line
+	byTime := map[int]*line{}
+	for _, p := range r.Places {
+		l, ok := byTime[p.Time]
+		if !ok {
+			l = &line{at: p.At, cost: p.Cost}
+			byTime[p.Time] = l
+			lines = append(lines, l)
+		}
+		if p.Room != "" {
+			l.rooms = append(l.rooms, p.Room)
+		}
+		if p.Cost > 0 {
+			l.costs = append(l.costs, fmt.Sprintf("%d in %s", p.Cost, roomOrNone(p.Room)))
+		}
+	}
+	for _, l := range lines {
+		text := "  " + l.at
+		if len(l.rooms) > 0 {
+			text += " in " + strings.Join(l.rooms, " or ")
+		}
+		if len(l.costs) > 0 {
+			text += " (preference cost " + strings.Join(l.costs, ", ") + ")"
+		}
+		fmt.Fprintln(w, text)
+	}
+	fmt.Fprintln(w, "  (A full timetable passing the timetable check was found for each meeting time and room.)")
+	if !r.PlacesComplete {
+		fmt.Fprintln(w, "  (Some meeting times or rooms were not decided within the budget.)")
+	}
+}
+
+func roomOrNone(room string) string {
+	if room == "" {
+		return "no room"
+	}
+	return room
 }
 
 // explainCost prints the preference cost of a granted timetable, beside

@@ -319,27 +319,28 @@ function drawVerdict(res, period) {
   if (res.levels && res.levels.length) v.append(el("p", { text: "Total cost by level (highest first): " + res.levels.map((l) => "level " + l.level + " " + l.before + " → " + l.after).join("; ") + "." }));
   if (!res.applied) {
     v.append(el("button", { type: "button", id: "force", onclick: () => move(period, true, S.lastMove && S.lastMove.time, S.lastMove && S.lastMove.body.room), text: "Place it anyway (breaks the requirements above)" }));
-    if (!(S.lastMove && S.lastMove.time)) v.append(" ", el("button", { type: "button", id: "ask-why", onclick: () => whyNot(period), text: "Why not, and where else could it go?" }));
+    v.append(" ", el("button", { type: "button", id: "ask-why", onclick: () => whyNot(period, S.lastMove && S.lastMove.time), text: "Why not, and where else could it go?" }));
     v.append(el("div", { id: "whynot", "aria-live": "polite" }));
   }
   if (res.applied) v.append(el("button", { type: "button", onclick: undo, text: "Undo this move" }));
 }
 
 // whyNot asks the explanation engine whether any timetable of the term
-// can have the picked meeting's section at period, and where else it could go.
-async function whyNot(period) {
+// can have the picked meeting's section at period (or at its meeting time
+// time), and where else it could go.
+async function whyNot(period, time) {
   const m = S.picked, out = $("whynot");
   if (!m || !out) return;
   out.textContent = "Searching every timetable of the term (this can take a few seconds)…";
-  let q = "/api/whynot?section=" + encodeURIComponent(m.section) + "&period=" + period;
-  const chosen = $("room-choice").value;
+  let q = "/api/whynot?section=" + encodeURIComponent(m.section) + (time ? "&time=" + time : "&period=" + period);
+  const chosen = $("room-choice").value || (time && S.lastMove.body.room) || "";
   if (chosen) q += "&room=" + encodeURIComponent(chosen);
   try {
     const a = await api("GET", q);
     out.textContent = "";
     if (a.granted) {
-      out.append(el("p", { text: "Some timetable of the term does have " + a.request + ": the clash is with this timetable's other meetings, which would have to move." }),
-        el("button", { type: "button", id: "whynot-replan", onclick: () => replan({ section: m.section, meeting: m.meeting, period }), text: "Lock it there and re-plan the rest" }));
+      out.append(el("p", { text: "Some timetable of the term does have " + a.request + ": the clash is with this timetable's other meetings, which would have to move." }));
+      if (!time) out.append(el("button", { type: "button", id: "whynot-replan", onclick: () => replan({ section: m.section, meeting: m.meeting, period }), text: "Lock it there and re-plan the rest" }));
       return;
     }
     out.append(el("p", {}, el("strong", { text: "No timetable of the term can have " + a.request + "." }), a.reasons.length ? " These requirements cannot all hold" + (a.minimal ? " (drop any one and the rest can):" : ":") : ""));
@@ -347,7 +348,7 @@ async function whyNot(period) {
     if (a.places.length) {
       out.append(el("p", { text: "It could go instead at" + (a.complete ? "" : " (not every time was tried)") + ":" }));
       out.append(el("ul", { id: "whynot-places" }, ...a.places.map((p) => el("li", {}, p.at + (p.room ? " in " + p.room : "") + " ",
-        el("button", { type: "button", onclick: () => move(p.period, false), "aria-label": "Try moving " + meetingLabel(m) + " to " + p.at, text: "Try this" })))));
+        el("button", { type: "button", onclick: () => (p.time ? move(p.period, false, p.time, p.room || "") : move(p.period, false)), "aria-label": "Try moving " + meetingLabel(m) + " to " + p.at, text: "Try this" })))));
     } else out.append(el("p", { text: "No other time was found for it." }));
     if (a.uncertain) out.append(el("p", { text: "Note: " + a.uncertain }));
   } catch (e) { out.textContent = "Problem: " + e.message; }
