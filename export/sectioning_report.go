@@ -21,16 +21,17 @@ const (
 // SectioningColumns are the headers of the sectioning report sheet.
 var SectioningColumns = []string{"Finding", "Student", "Course", "Section", "Students", "Limit", "Details", "Workbook row"}
 
-// Finding is one line of the sectioning report.
+// Finding is one line of the sectioning report; the JSON names are
+// stable (solve --json prints findings).
 type Finding struct {
-	Kind     string // FindingUnplaced, FindingFull, FindingNearlyFull or FindingClash
-	Student  string // unplaced requests and clashes
-	Course   string // the requested course; a section's course
-	Section  string // full and nearly full sections; the first section of a clash
-	Students int    // full and nearly full sections: students in it, fixed enrolments included
-	Limit    int    // full and nearly full sections: Term.SectionLimit
-	Details  string // the reason, the free places, or what the section clashes with and when
-	Where    string // the term row: "Course requests row 5", "Sections row 12"
+	Kind     string `json:"kind"`               // FindingUnplaced, FindingFull, FindingNearlyFull or FindingClash
+	Student  string `json:"student,omitempty"`  // unplaced requests and clashes
+	Course   string `json:"course,omitempty"`   // the requested course; a section's course
+	Section  string `json:"section,omitempty"`  // full and nearly full sections; the first section of a clash
+	Students int    `json:"students,omitempty"` // full and nearly full sections: students in it, fixed enrolments included
+	Limit    int    `json:"limit,omitempty"`    // full and nearly full sections: Term.SectionLimit
+	Details  string `json:"details"`            // the reason, the free places, or what the section clashes with and when
+	Where    string `json:"where,omitempty"`    // the term row: "Course requests row 5", "Sections row 12"
 }
 
 // SectioningFindings is the sectioning report of s, in this order:

@@ -14,6 +14,7 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/export"
+	"github.com/termwright/termwright/planning"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -31,7 +32,7 @@ type solveOptions struct {
 	quiet     bool          // no progress display
 	keep      string        // earlier timetable to stay close to (minimal change)
 	steps     int           // neighbourhood steps at most; 0 = no limit
-	threads   int           // parallel searches (encode.OptimizePortfolio)
+	threads   int           // parallel searches (planning.Options.Threads)
 }
 
 func newSolveCmd(e *env) *cobra.Command {
@@ -96,7 +97,10 @@ type solveReport struct {
 	Nogoods   int           `json:"room_conflicts_forbidden"`
 	TimingsMS solveTimingMS `json:"timings_ms"`
 	Quality   *solveQuality `json:"quality,omitempty"`
-	Caution   string        `json:"caution,omitempty"`
+	// Sectioning summarises where the requesting students were seated
+	// (terms with course requests only).
+	Sectioning *solveSectioning `json:"sectioning,omitempty"`
+	Caution    string           `json:"caution,omitempty"`
 	// Reasons are the counting proofs that no timetable exists, when the
 	// term check finds them before any search.
 	Reasons []checkProblem `json:"reasons,omitempty"`
@@ -180,7 +184,9 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	}
 	progress := newSolveProgress(e, o.quiet || o.json, term)
 	t0 := time.Now()
-	res, err := encode.OptimizePortfolio(sctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show}, max(o.threads, 1))
+	res, err := planning.Plan(sctx, term, planning.Options{
+		OptimizeOptions: encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show},
+		Threads:         max(o.threads, 1)})
 	searched := time.Since(t0)
 	progress.done()
 	if err != nil {
@@ -193,7 +199,8 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		rep.Interrupted = sig
 	}
 	if res.Status == solver.Satisfiable {
-		rep.Quality = solveBuildQuality(term, res)
+		rep.Quality = solveBuildQuality(term, res.OptimizeResult)
+		rep.Sectioning = solveBuildSectioning(term, res)
 		if rep.Interrupted != "" {
 			rep.Quality.Stopped = "interrupted (" + rep.Interrupted + ")"
 		}
@@ -225,15 +232,19 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		return withCode(exitError, fmt.Sprintf("no timetable found within %v; nothing was written — allow more time with --time-limit", o.timeLimit))
 	}
 	tw := time.Now()
+	extra, reasons := solveQualitySheets(term, res.OptimizeResult), solveReasons(res)
+	if res.Kept && res.Sectioning != nil {
+		extra = append(extra, solveMovedStudentsSheet(res.Sectioning))
+	}
 	written, werr := writeOutput(o.out, o.force, func(w io.Writer) error {
-		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: solveQualitySheets(term, res)})
+		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: extra, Reasons: reasons})
 	})
 	if written == "" {
 		return wrapCode(exitError, werr)
 	}
 	rep.Status, rep.Output = "solved", written
 	if o.publish != "" && werr == nil {
-		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: solveQualitySheets(term, res)}); err != nil {
+		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: extra, Reasons: reasons}); err != nil {
 			return failf(exitError, "the timetable was written to %s, but publishing failed: %w", written, err)
 		}
 		rep.Published = o.publish
@@ -375,6 +386,9 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 		}
 		if rep.Quality != nil {
 			solvePrintQuality(w, rep.Quality)
+		}
+		if rep.Sectioning != nil {
+			solvePrintSectioning(w, rep.Sectioning)
 		}
 	case "infeasible":
 		fmt.Fprintf(w, "No timetable exists for %s (%s).\n", name, checkCount(rep.Sections, "section"))
