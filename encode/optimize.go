@@ -17,6 +17,10 @@ type OptimizeOptions struct {
 	// Keep is the earlier timetable for minimal-change re-planning: its
 	// meetings that move cost "moved meetings".
 	Keep *timetable.Schedule
+	// Start is a timetable to start from (a warm start): the engine tries
+	// its meetings' places first, so when it is valid on the term the
+	// first timetable is usually it. Nil starts from nothing.
+	Start *timetable.Schedule
 	// GlobalConflicts is the conflict budget of the first phase, model-
 	// improving search with core-guided bounds on the whole term; 0 means
 	// DefaultGlobalConflicts when the program has at most
@@ -157,6 +161,10 @@ func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*Opt
 	note := func(solver.Stats) { o.note(false) }
 	o.x = NewSearch(t, p, cat, SearchOptions{Engine: eopts, Progress: note, Tally: &o.res.Result, Improve: o.bestRooms})
 	o.h = NewSearch(t, p, cat, SearchOptions{Engine: firstTimetableOptions(eopts, p), Progress: note, Tally: &o.res.Result, HardOnly: true})
+	if start := cat.startAtoms(opt.Start); start != nil {
+		o.x.Prefer(start)
+		o.h.Prefer(start)
+	}
 	if err := o.run(); err != nil {
 		return nil, err
 	}
