@@ -63,8 +63,18 @@ var Criteria = []Criterion{
 }
 
 // CriterionWeight returns the weight and level of criterion name for term t:
-// the Weights sheet entry when present, otherwise the default.
+// the Weights sheet entry when present, otherwise the default. The
+// sectioning criteria (unplaced requests, moved students) weigh 0 in a
+// term without course requests, so such a term is judged, and reported,
+// exactly as before they existed.
 func (t *Term) CriterionWeight(name string) (weight, level int) {
+	if !t.CriterionApplies(name) {
+		for _, c := range Criteria {
+			if c.Name == name {
+				return 0, c.Level
+			}
+		}
+	}
 	if w, ok := t.Weights[name]; ok {
 		return w.Weight, w.Level
 	}
@@ -74,4 +84,12 @@ func (t *Term) CriterionWeight(name string) (weight, level int) {
 		}
 	}
 	return 0, 0
+}
+
+// CriterionApplies reports whether criterion name can count in t: the
+// sectioning criteria only where students request courses. Reports list
+// only the criteria that apply, so that a term without requests reads as
+// it did before sectioning existed.
+func (t *Term) CriterionApplies(name string) bool {
+	return len(t.Requests) > 0 || name != CritUnplaced && name != CritMovedStudents
 }

@@ -64,7 +64,9 @@ func (s *Server) noticesLocked(old, new string) (*noticeSet, int, error) {
 	}
 	set := &noticeSet{notices: n, cmp: c, files: map[string]string{}, oldName: an, newName: bn}
 	ids := map[string][]string{}
-	for _, af := range c.Affected(studentsOf(t)) {
+	moves := export.SectionChanges(t, a, b)
+	n.SetSectionChanges(moves)
+	for _, af := range export.WithSectionChanges(c.Affected(export.StayingStudents(t, a, b)), moves) {
 		if _, ok := export.NoticeSubject(af); ok {
 			set.affected = append(set.affected, af)
 			ids[af.Kind] = append(ids[af.Kind], af.ID)

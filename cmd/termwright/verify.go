@@ -119,7 +119,7 @@ func verifyBuild(t *timetable.Term, path string, s *timetable.Schedule, ps timet
 		Term: t.Name, Timetable: path, Meetings: len(s.Placements),
 		Problems:   []checkProblem{},
 		Violations: []verifyViolation{},
-		Cost:       verifyCost{Levels: []verifyLevel{}, Criteria: cost.Criteria},
+		Cost:       verifyCost{Levels: []verifyLevel{}, Criteria: termCriteria(t, cost.Criteria)},
 	}
 	for _, p := range append(ps.Errors(), ps.Warnings()...) {
 		rep.Problems = append(rep.Problems, checkProblem{Where: p.Pos.String(), Severity: p.Severity.String(), Message: p.Msg})
