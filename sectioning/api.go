@@ -3,6 +3,7 @@ package sectioning
 import (
 	"context"
 	"errors"
+	"math/rand/v2"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -42,5 +43,30 @@ type Move struct {
 // and every seating rule. It stops early, with the best sectioning so far,
 // when ctx ends.
 func Section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt Options) (*Result, error) {
-	return nil, errors.New("sectioning: not built yet") // replaced by the sectioning helper
+	return section(ctx, t, s, opt, config{exact: true})
+}
+
+// config holds switches the tests use to reach one phase alone.
+type config struct {
+	exact bool // search small terms exhaustively after the heuristic
+}
+
+func section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt Options, cfg config) (*Result, error) {
+	if t == nil || s == nil {
+		return nil, errors.New("sectioning: a term and a finished timetable are needed")
+	}
+	p := newProblem(t, s)
+	if opt.Keep != nil {
+		p.setKept(opt.Keep)
+	}
+	rng := rand.New(rand.NewPCG(uint64(opt.Seed), 0x5ec7))
+	sr := newSearcher(p)
+	rep := newRepairer(p, sr)
+	p.seatKept(sr)
+	p.greedy(sr, rng, rep)
+	p.improve(ctx, sr, rep, rng)
+	if cfg.exact {
+		p.exact(ctx)
+	}
+	return p.result(opt.Keep), nil
 }
