@@ -14,7 +14,8 @@ type Violation struct {
 	// "fixed meeting", "meetings per week", "meeting length", "same day",
 	// "max per day", "max consecutive", "relation", "unknown section",
 	// "unknown room", "no room", "outside grid", "meeting time", "travel
-	// time", "weekly limit", "lunch break".
+	// time", "weekly limit", "lunch break", "seating", "section limit",
+	// "not requested".
 	Rule string
 	// Msg says in plain words who and what is involved, e.g. "Timetable rows
 	// 12 and 15: staff Dr Ana Petrović (S-017) teaches BIO-101 and CHE-210
@@ -52,8 +53,8 @@ const (
 
 // Check is the independent domain verifier: it reads only the Term and the
 // Schedule and lists every broken hard requirement (Hard=true) and every
-// student clash from the Enrolments sheet (Hard=false: students with clashes
-// are a soft criterion). A schedule is acceptable when HardViolations of the
+// student clash of fixed or sectioned students (Hard=false: students with
+// clashes are a soft criterion). A schedule is acceptable when HardViolations of the
 // result is empty.
 //
 // Hard requirements checked:
@@ -89,7 +90,12 @@ const (
 //     time between their rooms;
 //   - lunch breaks of staff and cohorts: on each day and week they have a
 //     meeting, the window holds a free run of the break's minutes;
-//   - every hard relation holds as defined in term.go.
+//   - every hard relation holds as defined in term.go;
+//   - the seating rule (Course's doc comment) for the sectioned students
+//     (Schedule.Enrolments): see checker.seating.
+//
+// Student clashes count fixed and sectioned enrolments alike
+// (Term.StudentEnrolments).
 //
 // A zero Section.Weeks is read as every week. The result is sorted: hard
 // first, then by first placement, rule and message. Cost is
@@ -109,6 +115,7 @@ func Check(t *Term, s *Schedule) []Violation {
 	c.patternClashes()
 	c.travel()
 	c.students()
+	c.seating()
 	c.unavailable()
 	c.staffLimits()
 	c.weeklyLimits()

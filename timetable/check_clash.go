@@ -103,47 +103,56 @@ func chkOverlapPairs(x *occupancy, pls []int, found func(i, j, first, last int))
 type chkStudentPair struct{ a, b int }
 
 // chkClashPair is a pair of sections that share students, have overlapping
-// week sets and occupy common periods.
+// week sets and occupy common periods (or, with a pattern section, meet
+// together or too close for the travel between their rooms).
 type chkClashPair struct {
 	common   int    // periods both sections occupy; 1 for a pair with a pattern section
-	students []int  // index of the first enrolment of each shared student
+	students []int  // index (into seatIndex.ens) of the first enrolment of each shared student
 	at       string // for a pair with a pattern section: their first common time
-	pls      []int  // for a pair with a pattern section: the placements meeting together
+	travel   bool   // for a pair with a pattern section: they do not meet together but leave too little travel time
+	pls      []int  // for a pair with a pattern section: the placements involved
 }
 
-// studentClashes finds every pair of distinct known sections with
-// overlapping week sets that occupy a common period and share enrolled
-// students (each student counted once per section). Shared by Check and
-// Cost; O(Σ k²) for k sections per student, with a word-wide set
-// intersection per pair.
+// seats returns the students' index, building it on first use.
+func (x *occupancy) seats() *seatIndex {
+	if x.seat == nil {
+		x.seat = newSeatIndex(x.t, x.s, x.secIdx)
+	}
+	return x.seat
+}
+
+// studentClashes finds every pair of distinct known sections that share
+// students (fixed and sectioned enrolments, each student counted once per
+// section) and clash by the definition of "student clashes": overlapping
+// week sets and a common period; with a pattern section, a common minute
+// of a common day in a common week, or two meetings on a common day in a
+// common week with less free time between them than the travel time
+// between their rooms. Shared by Check and Cost; O(Σ k²) for k sections
+// per student, each pair judged once (a word-wide set intersection for
+// grid pairs).
 func (x *occupancy) studentClashes() map[chkStudentPair]*chkClashPair {
 	out := map[chkStudentPair]*chkClashPair{}
-	if len(x.t.Enrolments) == 0 {
+	st := x.seats()
+	if len(st.ens) == 0 {
 		return out
 	}
 	sets := make([]occSet, len(x.t.Sections))
 	for si := range x.t.Sections {
 		sets[si] = x.sectionPeriods(si)
 	}
-	bySt := map[string][]int{}
-	var order []string
-	for ei, e := range x.t.Enrolments {
-		if _, ok := x.secIdx[e.Section]; !ok {
-			continue
-		}
-		if _, ok := bySt[e.Student]; !ok {
-			order = append(order, e.Student)
-		}
-		bySt[e.Student] = append(bySt[e.Student], ei)
+	var ti *TravelIndex
+	if len(x.t.Travel) > 0 {
+		ti = newTravelIndexOnce(x)
 	}
+	judged := map[chkStudentPair]bool{} // pairs already judged not to clash
 	var secs, first []int
-	for _, st := range order {
+	for k := range st.names {
 		secs, first = secs[:0], first[:0]
-		for _, ei := range bySt[st] {
-			si := x.secIdx[x.t.Enrolments[ei].Section]
-			if !slices.Contains(secs, si) {
+		for _, ei := range st.enrolmentsOf(k) {
+			si := int(st.ensSec[ei])
+			if si >= 0 && !slices.Contains(secs, si) {
 				secs = append(secs, si)
-				first = append(first, ei)
+				first = append(first, int(ei))
 			}
 		}
 		for a := range secs {
@@ -152,29 +161,80 @@ func (x *occupancy) studentClashes() map[chkStudentPair]*chkClashPair {
 				if sa > sb {
 					sa, sb, ea = sb, sa, first[b]
 				}
-				k := chkStudentPair{sa, sb}
-				cp := out[k]
-				if cp == nil && (x.t.Sections[sa].UsesTimes() || x.t.Sections[sb].UsesTimes()) {
-					if at, pls := x.meetTogether(sa, sb); at != "" {
-						cp = &chkClashPair{common: 1, at: at, pls: pls}
-						out[k] = cp
-					} else {
-						continue
-					}
-				}
+				key := chkStudentPair{sa, sb}
+				cp := out[key]
 				if cp == nil {
-					n := sets[sa].commonCount(sets[sb])
-					if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
+					if judged[key] {
 						continue
 					}
-					cp = &chkClashPair{common: n}
-					out[k] = cp
+					cp = x.judgeStudentPair(ti, sets, sa, sb)
+					if cp == nil {
+						judged[key] = true
+						continue
+					}
+					out[key] = cp
 				}
 				cp.students = append(cp.students, ea)
 			}
 		}
 	}
 	return out
+}
+
+// judgeStudentPair decides whether sections sa and sb clash for a student
+// who takes both (nil when not).
+func (x *occupancy) judgeStudentPair(ti *TravelIndex, sets []occSet, sa, sb int) *chkClashPair {
+	if x.t.Sections[sa].UsesTimes() || x.t.Sections[sb].UsesTimes() {
+		if at, pls := x.meetTogether(sa, sb); at != "" {
+			return &chkClashPair{common: 1, at: at, pls: pls}
+		}
+		if ti != nil {
+			if at, pls := x.tooLittleTravel(ti, sa, sb); at != "" {
+				return &chkClashPair{common: 1, at: at, pls: pls, travel: true}
+			}
+		}
+		return nil
+	}
+	n := sets[sa].commonCount(sets[sb])
+	if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
+		return nil
+	}
+	return &chkClashPair{common: n}
+}
+
+// tooLittleTravel names the first time (in week order) at which a meeting
+// of section a and one of section b fall on a common day in a common week,
+// without overlapping, with less free time between them than the travel
+// time between their rooms, and the two placements; "" when none do.
+func (x *occupancy) tooLittleTravel(ti *TravelIndex, a, b int) (string, []int) {
+	at, bestKey := "", -1
+	var pls []int
+	for _, m := range x.sectionMeets(a) {
+		for _, n := range x.sectionMeets(b) {
+			if m.Day != n.Day || !m.Weeks.Overlaps(n.Weeks) {
+				continue
+			}
+			early, late := m, n
+			if n.Start < m.Start {
+				early, late = n, m
+			}
+			if late.Start < early.End {
+				continue // they overlap: meetTogether's case
+			}
+			ra, rb := x.roomOfMeet(early), x.roomOfMeet(late)
+			gap, need := int(late.Start-early.End), ti.Between(ra, rb)
+			if gap >= need {
+				continue
+			}
+			if key := dayRank(m.Day)*24*60 + int(early.End); bestKey < 0 || key < bestKey {
+				bestKey = key
+				pls = []int{early.pl, late.pl}
+				at = DayName(m.Day) + " " + early.End.String() + "–" + late.Start.String() + chkInWeeks(x.t, m.Weeks&n.Weeks) +
+					" (" + chkMinutes(gap) + " to get from " + ra + " to " + rb + ", which takes " + chkMinutes(need) + ")"
+			}
+		}
+	}
+	return at, pls
 }
 
 // students reports pairs of sections with overlapping weeks that share a
@@ -192,16 +252,21 @@ func (c *checker) students() {
 		}
 		return keys[i].b < keys[j].b
 	})
+	ens := x.seats().ens
 	for _, k := range keys {
 		if cp := pairs[k]; cp.at != "" {
 			srcs := []Source{x.t.Sections[k.a].Src, x.t.Sections[k.b].Src}
 			var names []string
 			for _, ei := range cp.students {
-				names = append(names, x.t.Enrolments[ei].Student)
-				srcs = append(srcs, x.t.Enrolments[ei].Src)
+				names = append(names, ens[ei].Student)
+				srcs = append(srcs, ens[ei].Src)
+			}
+			how := ", which meet together at "
+			if cp.travel {
+				how = ", which leave too little time between them at "
 			}
 			c.add(RuleStudentClash, false, cp.pls, srcs, chkStudentsText(names)+" enrolled in both "+
-				x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+", which meet together at "+cp.at)
+				x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+how+cp.at)
 			continue
 		}
 		sa, sb := x.sectionPeriods(k.a), x.sectionPeriods(k.b)
@@ -220,8 +285,8 @@ func (c *checker) students() {
 		srcs := []Source{x.t.Sections[k.a].Src, x.t.Sections[k.b].Src}
 		var names []string
 		for _, ei := range pairs[k].students {
-			names = append(names, x.t.Enrolments[ei].Student)
-			srcs = append(srcs, x.t.Enrolments[ei].Src)
+			names = append(names, ens[ei].Student)
+			srcs = append(srcs, ens[ei].Src)
 		}
 		c.add(RuleStudentClash, false, pls, srcs, chkStudentsText(names)+" enrolled in both "+
 			x.t.Sections[k.a].ID+" and "+x.t.Sections[k.b].ID+", which meet together at "+chkTimes(x.t, common.members()))

@@ -114,9 +114,9 @@ func TestReadColumnMapOption(t *testing.T) {
 	assert.Contains(t, err.Error(), `bad!1: the bad sheet has no "Sheet" column`)
 
 	// A rename built in code has no row; its problems name it.
-	_, ps, err = Load(dir, WithColumns(ColumnMap{{Sheet: "Sections", From: "Crs Nbr", To: "Course"}}))
+	_, ps, err = Load(dir, WithColumns(ColumnMap{{Sheet: "Sections", From: "Crs Nbr", To: "Catalog number"}}))
 	require.NoError(t, err)
-	assert.Contains(t, ps.String(), `column rename "Crs Nbr" → "Course": "Course" is not a column of the Sections sheet`)
+	assert.Contains(t, ps.String(), `column rename "Crs Nbr" → "Catalog number": "Catalog number" is not a column of the Sections sheet`)
 }
 
 // FuzzColumnRename renames one header of the good CSV term to an arbitrary

@@ -92,7 +92,8 @@ func schedFileRows(path string) (sheet string, rows [][]string, lines []int, err
 		rows, lines, err = schedCSVRows(data, name)
 		return strings.TrimSuffix(name, filepath.Ext(name)), rows, lines, err
 	}
-	return schedXLSXRows(data, name)
+	main, _, err := schedXLSXRows(data, name)
+	return main.name, main.rows, main.lines, err
 }
 
 // meetingsFromCells reads every row from its own cells; rows whose

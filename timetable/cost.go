@@ -83,6 +83,13 @@ func (r CostReport) Criterion(name string) CriterionCost {
 //   - "early periods"/"late periods": a meeting counts when it occupies the
 //     first/last period of its day in the grid.
 //   - "time choice"/"room choice": Count is the sum of the chosen weights.
+//   - "student clashes": over Term.StudentEnrolments (fixed and sectioned).
+//   - "unplaced requests": a student is placed in a course when they hold
+//     a section of it, fixed or sectioned; each request is judged on its
+//     own (a request whose course is unknown is unplaced).
+//   - "moved students": a kept sectioned enrolment (kept.Enrolments) of a
+//     known section with a Course counts when its student now holds a
+//     section of that course (fixed or sectioned) but not that section.
 //   - "soft relations": Count is the broken rows, each counted kind adding
 //     its count (divided as its cost is) instead of 1; a counted row costs
 //     its weight times its count (minutes in 5-minute steps) divided by the
@@ -102,6 +109,8 @@ func Cost(t *Term, s *Schedule, kept *Schedule) CostReport {
 	c.travel()
 	c.softRelations()
 	c.choices()
+	c.unplaced()
+	c.movedStudents(kept)
 	return c.finish()
 }
 
@@ -209,6 +218,59 @@ func (c *coster) avoidTimes() {
 			c.add(CritAvoidTimes, n, n*int64(u.Weight), u.Kind, u.Who)
 		}
 	}
+}
+
+// unplaced counts the course requests met neither by their course nor by
+// any alternative.
+func (c *coster) unplaced() {
+	if len(c.x.t.Requests) == 0 {
+		return
+	}
+	st := c.x.seats()
+	n := int64(0)
+	for k := range st.names {
+		for _, ri := range st.requestsOf(k) {
+			if !c.requestMet(st, k, ri) {
+				n++
+			}
+		}
+	}
+	c.add(CritUnplaced, n, n, 0, "")
+}
+
+// requestMet reports whether student k holds a section of request ri's
+// course or of one of its alternatives.
+func (c *coster) requestMet(st *seatIndex, k int, ri int32) bool {
+	if st.holdsCourse(k, st.reqCourse[ri]) {
+		return true
+	}
+	for _, a := range c.x.t.Requests[ri].Alternatives {
+		if st.holdsCourse(k, st.courseOf(a)) {
+			return true
+		}
+	}
+	return false
+}
+
+// movedStudents counts the kept sectioned enrolments whose student keeps
+// the course but not the section.
+func (c *coster) movedStudents(kept *Schedule) {
+	if kept == nil || len(kept.Enrolments) == 0 {
+		return
+	}
+	st := c.x.seats()
+	n := int64(0)
+	for _, e := range kept.Enrolments {
+		si, ok := c.x.secIdx[e.Section]
+		if !ok || st.secCourse[si] < 0 {
+			continue
+		}
+		k, ok := st.stuID[e.Student]
+		if ok && st.holdsCourse(int(k), st.secCourse[si]) && !st.holdsSection(int(k), int32(si)) {
+			n++
+		}
+	}
+	c.add(CritMovedStudents, n, n, 0, "")
 }
 
 // studentClashes counts, per pair of sections with overlapping weeks, the

@@ -7,8 +7,8 @@ package timetable
 // placed in a course holds exactly one section of every part of exactly
 // one of its arrangements, and no other section of the course; for every
 // held section with a Parent the student holds the parent too; no
-// section holds more students than its limit (SectionLimit), fixed
-// enrolments included; and a student is placed by the sectioner
+// section of a course holds more students than its limit (SectionLimit),
+// fixed enrolments included; and a student is placed by the sectioner
 // (Schedule.Enrolments) only in courses they requested, as Course or as
 // one of its Alternatives, at most one course per request.
 type Course struct {

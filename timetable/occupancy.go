@@ -31,6 +31,7 @@ type occupancy struct {
 	secMeets  [][]occMeet  // section index -> its meets (built lazily by sectionMeets)
 	hasPat    bool         // some valid placement is a pattern placement
 	travelIdx *TravelIndex // built on first use
+	seat      *seatIndex   // students' enrolments and requests, built on first use (seats)
 	quiet     bool         // Cost: relations judged without sentences or placements
 	nWeeks    int          // weeks the weekly rules look at: teaching weeks, or more when a week set names later weeks
 

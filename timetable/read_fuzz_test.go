@@ -49,8 +49,14 @@ func FuzzReadWorkbook(f *testing.F) {
 	bad := xlsxBytes(f, applyEdits(f, goodSheets(),
 		e("Sections", "C2", "S-117"), e("Periods", "B3", "#n:0.9999999"), e("Term", "B3", "#n:60"),
 		e("Rooms", "B2", "#n:1e308"), e("Sections", "K2", "1-64"), e("Sections", "F2", "100"), e("Sections", "G2", "#n:-1")))
+	courses := xlsxBytes(f, courseSheets())
+	badCourses := xlsxBytes(f, applyEdits(f, courseSheets(),
+		e("Sections", "P2", "SEC-4"), e("Sections", "Q3", "-5"), e("Course requests", "B2", "NOPE"),
+		e("Course requests", "C3", "#n:1e300"), e("Course requests", "D4", ";;, ,SEM;SEM")))
 	f.Add(good)
 	f.Add(bad)
+	f.Add(courses)
+	f.Add(badCourses)
 	f.Add(good[:len(good)/3])
 	f.Add([]byte{})
 	f.Add([]byte("Key,Value\nName,x\n"))
@@ -66,11 +72,11 @@ func FuzzReadWorkbook(f *testing.F) {
 	})
 }
 
-// FuzzReadCSV replaces one file of a valid CSV folder with arbitrary bytes:
-// the reader must never panic, must name only real rows of that file, and
-// must be deterministic.
+// FuzzReadCSV replaces one file of a valid CSV folder (with courses and
+// course requests) with arbitrary bytes: the reader must never panic, must
+// name only real rows of that file, and must be deterministic.
 func FuzzReadCSV(f *testing.F) {
-	base := goodSheets()
+	base := courseSheets()
 	files := csvFiles(base)
 	for i := range files {
 		f.Add(uint8(i), files[i].data)
@@ -80,6 +86,8 @@ func FuzzReadCSV(f *testing.F) {
 	f.Add(uint8(0), []byte("\xEF\xBB\xBFKey,Value\nFirst day,2027-02-29\nLast day,99999999\n"))
 	f.Add(uint8(7), []byte("Who,Day,From,To\nS-1,Mon,\"unterminated\n"))
 	f.Add(uint8(2), []byte("Room,Capacity\n\xff\xfe,1\n"))
+	f.Add(uint8(10), []byte("Student,Course,Priority,Or instead\nST3,FND,-1,\"FND, FND\"\n,,,\nST3,FND,x,SEM\n"))
+	f.Add(uint8(5), []byte("Section,Course,Part,Parent section,Limit\nA,X,P,B,0\nB,X,Q,A,-1\nC,,Lab,,3\n"))
 	f.Fuzz(func(t *testing.T, which uint8, data []byte) {
 		set := csvFiles(base)
 		k := int(which) % len(set)

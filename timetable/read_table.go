@@ -31,6 +31,7 @@ var longColumns = map[string][]string{
 	shUnavailable: {"Reason", "Weeks"},
 	shRelations:   {"Sections"},
 	shTimes:       {"Weeks"},
+	shRequests:    {"Or instead"},
 }
 
 // sheetSpec describes one sheet of the layout in docs/workbook.md.
@@ -57,6 +58,7 @@ const (
 	shTimes       = "Meeting times"
 	shRoomChoices = "Room choices"
 	shTravel      = "Travel"
+	shRequests    = "Course requests"
 )
 
 // shLists is the hidden sheet of the template that holds the values of the
@@ -103,7 +105,8 @@ var sheetSpecs = []sheetSpec{
 		"Lunch window end HH:MM.",
 		"Free minutes guaranteed inside the lunch window.",
 	}},
-	{name: shSections, required: true, cols: []string{"Section", "Title", "Staff", "Cohorts", "Expected size", "Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days"}, need: []string{"Section"}, notes: []string{
+	{name: shSections, required: true, cols: []string{"Section", "Title", "Staff", "Cohorts", "Expected size", "Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days",
+		"Course", "Arrangement", "Part", "Parent section", "Limit"}, need: []string{"Section"}, notes: []string{
 		"Unique section ID.",
 		"Title shown on schedules.",
 		"Staff IDs (comma list); all attend every meeting.",
@@ -116,6 +119,11 @@ var sheetSpecs = []sheetSpec{
 		"Pre-assigned meetings separated by ;, e.g. Tue 10:00 R204; Thu 10:00",
 		"all (default), odd, even, or weeks and ranges such as 1-4, 6, 9-12.",
 		"Blank: meetings fall on different days. A number: meetings may share a day; fewer days than this costs.",
+		"Course students request on the Course requests sheet (optional); blank = the section is not requested.",
+		"With Course: the way of taking the course this section belongs to, when it has more than one (e.g. A, B); blank = the only one.",
+		"With Course: its part, e.g. Lecture or Lab; a student takes one section of every part. Blank = the only part.",
+		"With Course: a section every student of this one also takes: same course and arrangement, another part.",
+		"Most students, fixed enrolments included; blank = Expected size. Must not exceed what the room may legally hold.",
 	}},
 	{name: shEnrolments, cols: []string{"Student", "Section"}, need: []string{"Student", "Section"}, notes: []string{
 		"Student ID.",
@@ -159,6 +167,12 @@ var sheetSpecs = []sheetSpec{
 		"A room or a building (Building column of Rooms).",
 		"Another room or building; the time holds both ways.",
 		"Minutes needed to get from one to the other; staff and cohorts always get this much free time between meetings there.",
+	}},
+	{name: shRequests, cols: []string{"Student", "Course", "Priority", "Or instead"}, need: []string{"Student", "Course"}, notes: []string{
+		"Student ID. One row per course the student asks for.",
+		"A course named in the Course column of the Sections sheet.",
+		"Who gets scarce places first: 1 is the most important; blank comes after every number.",
+		"Courses taken instead, most wanted first (comma list), when the course cannot be placed.",
 	}},
 	{name: shColumns, cols: []string{colMapSheet, colMapTheir, colMapOur}, need: []string{colMapSheet, colMapTheir, colMapOur}, notes: []string{
 		"Optional. The sheet whose column is renamed, e.g. Sections.",

@@ -42,6 +42,7 @@ func buildTerm(sheets []*rawSheet, date1904 bool, cfg *loadConfig) (*Term, Probl
 	r.requirePeriods()
 	r.readTravel()
 	r.readEnrolments()
+	r.readRequests()
 	r.readUnavailable()
 	r.readRelations()
 	r.readWeights()
@@ -402,6 +403,7 @@ func (r *termReader) readSections() {
 			s.SameDay = true
 			s.MinDays = r.whole(t, row, "Min days", 0, 7, 0)
 		}
+		r.readCourseCells(t, row, &s)
 		r.t.Sections = append(r.t.Sections, s)
 	})
 }

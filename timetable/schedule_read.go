@@ -34,6 +34,11 @@ const schedMaxRows = 1_000_000
 // -1, and a row that matches no meeting time (or several) is an error at
 // the first cell that does not fit, listing the section's meeting times.
 //
+// A workbook's optional ClassListSheet ("Class lists") gives
+// Schedule.Enrolments, the sectioned students, keyed on Section and
+// Student (see schedParseClassList); a CSV timetable has none here (read
+// its class-list file with ReadClassListCSV).
+//
 // Each placement's Src names its row ("Timetable row 12"). Rows with a
 // cell that cannot be read (a day or time that is not in the grid, a
 // meeting number that is not a whole number) are left out and reported as
@@ -65,18 +70,63 @@ func ReadSchedule(path string, t *Term) (*Schedule, Problems, error) {
 	var sheet string
 	var rows [][]string
 	var lines []int
+	var lists *schedSheet
 	if strings.EqualFold(filepath.Ext(path), ".csv") {
 		sheet = strings.TrimSuffix(name, filepath.Ext(name))
 		rows, lines, err = schedCSVRows(data, name)
 	} else {
-		sheet, rows, lines, err = schedXLSXRows(data, name)
+		var main schedSheet
+		main, lists, err = schedXLSXRows(data, name)
+		sheet, rows, lines = main.name, main.rows, main.lines
 	}
 	if err != nil {
 		return nil, nil, err
 	}
 	s, ps := schedParse(t, sheet, rows, lines)
+	if lists != nil {
+		var more Problems
+		s.Enrolments, more = schedParseClassList(t, lists.name, lists.rows, lists.lines)
+		ps = append(ps, more...)
+	}
 	ps.Sort()
 	return s, ps, nil
+}
+
+// ReadClassListCSV reads a class-list CSV file (the ClassListColumns
+// headers; see schedParseClassList) written for term t, the CSV form of
+// a timetable workbook's Class lists sheet. Problems name the file stem as
+// the sheet. The error wraps ErrUnreadable only when the file cannot be
+// read at all.
+func ReadClassListCSV(path string, t *Term) ([]Enrolment, Problems, error) {
+	fi, err := os.Stat(path)
+	if err != nil {
+		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path of the class-list file", path, err)
+	}
+	if !fi.Mode().IsRegular() {
+		return nil, nil, unreadablef("%s", notRegular(path, fi).Error())
+	}
+	if fi.Size() > schedMaxBytes {
+		return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a class-list file may be", path, fi.Size()>>20, schedMaxBytes>>20)
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
+	}
+	name := filepath.Base(path)
+	rows, lines, err := schedCSVRows(data, name)
+	if err != nil {
+		return nil, nil, err
+	}
+	es, ps := schedParseClassList(t, strings.TrimSuffix(name, filepath.Ext(name)), rows, lines)
+	ps.Sort()
+	return es, ps, nil
+}
+
+// schedSheet is one sheet's non-blank rows with their 1-based numbers.
+type schedSheet struct {
+	name  string
+	rows  [][]string
+	lines []int
 }
 
 // schedCSVRows splits CSV bytes into records with their 1-based line
@@ -109,20 +159,21 @@ func schedCSVRows(data []byte, name string) ([][]string, []int, error) {
 }
 
 // schedXLSXRows opens an .xlsx workbook and returns the raw cell values of
-// its Timetable sheet (or of its only sheet) with 1-based row numbers.
-func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lines []int, err error) {
+// its Timetable sheet (or of its only sheet), and of its Class lists sheet
+// when it has one (nil otherwise).
+func schedXLSXRows(data []byte, name string) (main schedSheet, lists *schedSheet, err error) {
 	if !bytes.HasPrefix(data, []byte("PK\x03\x04")) {
-		return "", nil, nil, unreadablef("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
+		return main, nil, unreadablef("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
 	}
 	census, err := checkPackage(data, name)
 	if err != nil {
-		return "", nil, nil, unreadablef("%s", err.Error())
+		return main, nil, unreadablef("%s", err.Error())
 	}
 	defer func() {
 		// The spreadsheet library may panic on malformed parts: a damaged
 		// file must give a sentence, not a stack trace.
 		if rec := recover(); rec != nil {
-			sheet, rows, lines = "", nil, nil
+			main, lists = schedSheet{}, nil
 			err = unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
 		}
 	}()
@@ -130,48 +181,69 @@ func schedXLSXRows(data []byte, name string) (sheet string, rows [][]string, lin
 		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
 	})
 	if err != nil {
-		return "", nil, nil, unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
+		return main, nil, unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
 	}
 	defer f.Close()
 	list := f.GetSheetList()
+	sheet, classes := "", ""
 	for _, sh := range list {
-		if strings.EqualFold(strings.TrimSpace(sh), TimetableSheet) {
+		switch {
+		case strings.EqualFold(strings.TrimSpace(sh), TimetableSheet):
 			sheet = sh
+		case strings.EqualFold(strings.TrimSpace(sh), ClassListSheet):
+			classes = sh
 		}
 	}
 	if sheet == "" {
 		if len(list) != 1 {
-			return "", nil, nil, unreadablef("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
+			return main, nil, unreadablef("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
 		}
 		sheet = list[0]
 	}
+	if main, err = schedReadSheet(f, census, name, sheet); err != nil {
+		return schedSheet{}, nil, err
+	}
+	if classes != "" {
+		cl, err := schedReadSheet(f, census, name, classes)
+		if err != nil {
+			return schedSheet{}, nil, err
+		}
+		lists = &cl
+	}
+	return main, lists, nil
+}
+
+// schedReadSheet reads the non-blank rows of one sheet of an open
+// workbook, refusing a sheet read short of the rows its XML holds.
+func schedReadSheet(f *excelize.File, census map[string]sheetCensus, name, sheet string) (schedSheet, error) {
+	out := schedSheet{name: sheet}
 	it, err := f.Rows(sheet)
 	if err != nil {
-		return "", nil, nil, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+		return out, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
 	}
 	defer it.Close()
 	n := 0
 	for it.Next() {
 		n++
 		if n > schedMaxRows {
-			return "", nil, nil, unreadablef("%s: sheet %q has more than %d rows — a timetable holds far fewer", name, sheet, schedMaxRows)
+			return out, unreadablef("%s: sheet %q has more than %d rows — a timetable holds far fewer", name, sheet, schedMaxRows)
 		}
 		cols, err := it.Columns(excelize.Options{RawCellValue: true})
 		if err != nil {
-			return "", nil, nil, unreadablef("%s: sheet %q row %d cannot be read (%s) — open and save the workbook again", name, sheet, n, oneLineErr(err))
+			return out, unreadablef("%s: sheet %q row %d cannot be read (%s) — open and save the workbook again", name, sheet, n, oneLineErr(err))
 		}
 		if !schedBlank(cols) {
-			rows = append(rows, cols)
-			lines = append(lines, n)
+			out.rows = append(out.rows, cols)
+			out.lines = append(out.lines, n)
 		}
 	}
 	if err := it.Error(); err != nil {
-		return "", nil, nil, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
+		return out, unreadablef("%s: sheet %q cannot be read (%s) — open and save the workbook again", name, sheet, oneLineErr(err))
 	}
 	if c, ok := census[sheet]; ok && n != c.lastRow {
-		return "", nil, nil, unreadablef("%s: the %s sheet could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program", name, Quote(sheet), n, c.lastRow)
+		return out, unreadablef("%s: the %s sheet could be read only up to row %d of its %d rows — open and save the workbook again in your spreadsheet program", name, Quote(sheet), n, c.lastRow)
 	}
-	return sheet, rows, lines, nil
+	return out, nil
 }
 
 // schedBlank reports whether every cell is blank.

@@ -52,6 +52,8 @@ func FuzzReadScheduleXLSX(f *testing.F) {
 	f.Add(ckXLSX(f, "Sheet1", [][]string{{"Section", "Day", "Start", "Room"}, {"BIO-101", "Mon", "0.375", "R1"}}, nil))
 	f.Add([]byte("PK\x03\x04"))
 	f.Add([]byte{})
+	f.Add(ckWorkbook(f, testSheet{TimetableSheet, ckTimetableRows(tm, ckSchedule())}, testSheet{ClassListSheet, ckClassRows()}))
+	f.Add(ckWorkbook(f, testSheet{TimetableSheet, ckTimetableRows(tm, ckSchedule())}, testSheet{ClassListSheet, [][]string{{"student", "SECTION", "Student"}, {"", "X"}}}))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, ps, err := ReadSchedule(ckWrite(t, "t.xlsx", data), tm)
 		if err != nil {
@@ -65,6 +67,52 @@ func FuzzReadScheduleXLSX(f *testing.F) {
 		}
 		for _, p := range ps {
 			require.NotEmpty(t, p.Msg)
+		}
+		secs := tm.SectionIndex()
+		for _, e := range s.Enrolments {
+			require.NotEmpty(t, e.Student)
+			require.Contains(t, secs, e.Section)
+		}
+	})
+}
+
+// FuzzReadClassListCSV reads arbitrary bytes as a class-list CSV: never a
+// panic, no enrolment with a blank student or unknown section, and
+// whatever reads without errors prints and reads back to the same
+// enrolments (print → read → same).
+func FuzzReadClassListCSV(f *testing.F) {
+	tm := ckClassTerm()
+	f.Add(ckCSV(ckClassRows()))
+	f.Add([]byte("Student,Section\nst1,BIO-101\nst1,BIO-101\n,ART-120\nst2,NOPE\n"))
+	f.Add([]byte("\xef\xbb\xbfSECTION , student,Course\n\"BIO-101\",\"a,b\",X\n"))
+	f.Add([]byte("Section,Section,Student\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		es, ps, err := ReadClassListCSV(ckWrite(t, "c.csv", data), tm)
+		if err != nil {
+			require.ErrorIs(t, err, ErrUnreadable)
+			return
+		}
+		secs := tm.SectionIndex()
+		for _, e := range es {
+			require.NotEmpty(t, strings.TrimSpace(e.Student))
+			require.Contains(t, secs, e.Section)
+		}
+		if len(ps.Errors()) > 0 {
+			return
+		}
+		rows := [][]string{{"Student", "Section"}}
+		for _, e := range es {
+			if strings.ContainsRune(e.Student, '\r') {
+				return // CSV folds \r\n inside quoted cells into \n
+			}
+			rows = append(rows, []string{e.Student, e.Section})
+		}
+		again, ps2, err := ReadClassListCSV(ckWrite(t, "d.csv", ckCSV(rows)), tm)
+		require.NoError(t, err)
+		require.Empty(t, ps2.Errors())
+		require.Equal(t, len(es), len(again))
+		for i := range es {
+			require.Equal(t, [2]string{es[i].Student, es[i].Section}, [2]string{again[i].Student, again[i].Section})
 		}
 	})
 }

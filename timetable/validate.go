@@ -86,6 +86,8 @@ func validate(t *Term, lay *layout) Problems {
 	v.buildHard()
 	v.checkSections()
 	v.checkEnrolments()
+	v.checkCourses()
+	v.checkRequests()
 	v.checkRelations()
 	v.checkTravel()
 	v.checkWeights()

@@ -40,9 +40,10 @@ const wtFixedTime = "2000-01-01T00:00:00Z"
 // ISO text (YYYY-MM-DD), times HH:MM text, lists comma-separated, Weeks
 // "all"/"odd"/"even" or ranges, Strength "hard" or the weight. The optional
 // sheets Enrolments, Unavailable, Relations and Weights are always written
-// (possibly with headers only); the Meeting times, Room choices and Travel
-// sheets, and the columns of weekly limits, lunch breaks, unavailable weeks
-// and relation numbers, only when the term uses them. The same Term always
+// (possibly with headers only); the Meeting times, Room choices, Travel and
+// Course requests sheets, and the columns of weekly limits, lunch breaks,
+// unavailable weeks, relation numbers and courses (Course, Arrangement,
+// Part, Parent section, Limit), only when the term uses them. The same Term always
 // gives the same bytes.
 // Sources (Src fields) are not written.
 func WriteTermWorkbook(t *Term, w io.Writer) error {
@@ -163,8 +164,8 @@ func writeTermCSV(t *Term, dir string, full bool) error {
 }
 
 // TermCSVFiles lists the file names WriteTermCSV may write, in sheet order
-// (the files of meeting times, room choices and travel only when the term
-// has such rows).
+// (the files of meeting times, room choices, travel and course requests
+// only when the term has such rows).
 func TermCSVFiles() []string {
 	names := make([]string, len(wtSheetNames))
 	for i, n := range wtSheetNames {
@@ -174,7 +175,7 @@ func TermCSVFiles() []string {
 }
 
 // wtSheetNames are the sheets of docs/workbook.md in writing order.
-var wtSheetNames = []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights", shTimes, shRoomChoices, shTravel}
+var wtSheetNames = []string{"Term", "Periods", "Rooms", "Staff", "Cohorts", "Sections", "Enrolments", "Unavailable", "Relations", "Weights", shTimes, shRoomChoices, shTravel, shRequests}
 
 func wtWriteFileAtomic(path string, data []byte) error {
 	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
@@ -215,13 +216,13 @@ func wtTables(t *Term, full bool) []wtTable {
 		wtRoomsTable(t),
 		wtStaffTable(t, full),
 		wtCohortsTable(t, full),
-		wtSectionsTable(t),
+		wtSectionsTable(t, full),
 		wtEnrolmentsTable(t),
 		wtUnavailableTable(t, full),
 		wtRelationsTable(t, full),
 		wtWeightsTable(t),
 	}
-	for _, tb := range []wtTable{wtTimesTable(t), wtRoomChoicesTable(t), wtTravelTable(t)} {
+	for _, tb := range []wtTable{wtTimesTable(t), wtRoomChoicesTable(t), wtTravelTable(t), wtRequestsTable(t)} {
 		if full || len(tb.rows) > 0 {
 			tabs = append(tabs, tb)
 		}
@@ -336,10 +337,13 @@ func wtCohortsTable(t *Term, full bool) wtTable {
 // (in the Rooms column of the Sections sheet).
 const NoRoomText = "no room"
 
-func wtSectionsTable(t *Term) wtTable {
+func wtSectionsTable(t *Term, full bool) wtTable {
 	tb := wtTable{name: "Sections", header: []string{"Section", "Title", "Staff", "Cohorts", "Expected size",
-		"Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days"}}
+		"Meetings per week", "Periods per meeting", "Needs", "Rooms", "Fixed", "Weeks", "Min days",
+		"Course", "Arrangement", "Part", "Parent section", "Limit"}}
+	courses := full
 	for _, s := range t.Sections {
+		courses = courses || s.Course != "" || s.Arrangement != "" || s.Part != "" || s.Parent != "" || s.Limit != 0
 		rooms := wtList(s.Rooms)
 		if s.NoRoom {
 			rooms = NoRoomText
@@ -356,10 +360,15 @@ func wtSectionsTable(t *Term) wtTable {
 		if s.UsesTimes() {
 			meetings, length = "", "" // the Meeting times sheet gives them
 		}
+		var limit any = ""
+		if s.Limit != 0 {
+			limit = s.Limit
+		}
 		tb.rows = append(tb.rows, []any{s.ID, s.Title, wtList(s.Staff), wtList(s.Cohorts), s.Size,
-			meetings, length, wtList(s.Needs), rooms, strings.Join(fixed, "; "), t.WeeksText(s.Weeks), minDays})
+			meetings, length, wtList(s.Needs), rooms, strings.Join(fixed, "; "), t.WeeksText(s.Weeks), minDays,
+			s.Course, s.Arrangement, s.Part, s.Parent, limit})
 	}
-	return tb
+	return tb.dropColumns(courses, "Course", "Arrangement", "Part", "Parent section", "Limit")
 }
 
 func wtEnrolmentsTable(t *Term) wtTable {
@@ -436,6 +445,16 @@ func wtTravelTable(t *Term) wtTable {
 	tb := wtTable{name: shTravel, header: []string{"From", "To", "Minutes"}}
 	for _, tr := range t.Travel {
 		tb.rows = append(tb.rows, []any{tr.From, tr.To, tr.Minutes})
+	}
+	return tb
+}
+
+// wtRequestsTable writes the Course requests sheet (a blank Priority
+// when it is 0, "not given").
+func wtRequestsTable(t *Term) wtTable {
+	tb := wtTable{name: shRequests, header: []string{"Student", "Course", "Priority", "Or instead"}}
+	for _, r := range t.Requests {
+		tb.rows = append(tb.rows, []any{r.Student, r.Course, wtWeight(r.Priority), wtList(r.Alternatives)})
 	}
 	return tb
 }

@@ -211,6 +211,7 @@ func TestWriteTermReadBack(t *testing.T) {
 		{"generated demo", samples.Generate(samples.DemoConfig)},
 		{"campus demo (meeting patterns)", samples.Campus()},
 		{"mixed grid and patterns", mixedTerm()},
+		{"courses and requests", courseTerm()},
 		{"generated odd grid", samples.Generate(samples.Config{Sections: 40, Seed: 5, Days: 6, PeriodsPerDay: 5, Weeks: 7,
 			FirstDay: time.Date(2028, 1, 12, 0, 0, 0, 0, time.UTC)})},
 	}
@@ -267,6 +268,7 @@ func assertSameTerm(t *testing.T, want, got *timetable.Term) {
 	assert.Equal(t, w.Cohorts, g.Cohorts)
 	assert.Equal(t, w.Sections, g.Sections)
 	assert.Equal(t, w.Enrolments, g.Enrolments)
+	assert.Equal(t, w.Requests, g.Requests)
 	assert.Equal(t, w.Unavailable, g.Unavailable)
 	assert.Equal(t, w.Relations, g.Relations)
 	assert.Equal(t, w.Travel, g.Travel)
@@ -289,6 +291,7 @@ func normalTerm(t *timetable.Term) timetable.Term {
 	c.Cohorts = clearSrc(t.Cohorts)
 	c.Sections = clearSrc(t.Sections)
 	c.Enrolments = clearSrc(t.Enrolments)
+	c.Requests = clearSrc(t.Requests)
 	c.Unavailable = clearSrc(t.Unavailable)
 	c.Relations = clearSrc(t.Relations)
 	c.Travel = clearSrc(t.Travel)
