@@ -97,8 +97,7 @@ func TestClassListsSheet(t *testing.T) {
 // the fixture worked out by hand: st-012's request unplaced with the
 // sectioner's reason and its Course requests row, st-013's met by its
 // alternative (not listed); both tutorials full (2 of 2), the lecture
-// nearly full (4 of 5: one place free, a tenth of 5 rounds to 0, so the
-// one-place minimum applies); st-001's tutorial MA110-T1 (Mon 10:00)
+// not listed (4 of 5 is 80%, under NearlyFullPercent); st-001's tutorial MA110-T1 (Mon 10:00)
 // meets together with its fixed CS101 (Mon 09:00-11:00). Golden file for
 // the report's text form.
 func TestSectioningFindings(t *testing.T) {
@@ -114,11 +113,11 @@ func TestSectioningFindings(t *testing.T) {
 	for _, f := range fs {
 		kinds[f.Kind]++
 	}
-	assert.Equal(t, map[string]int{FindingUnplaced: 1, FindingFull: 2, FindingNearlyFull: 1, FindingClash: 1}, kinds)
+	assert.Equal(t, map[string]int{FindingUnplaced: 1, FindingFull: 2, FindingClash: 1}, kinds)
 	assert.Equal(t, Finding{Kind: FindingUnplaced, Student: "st-012", Course: "MA110", Details: sectionedReasons[4], Where: "Course requests row 6"}, fs[0])
-	assert.Equal(t, "st-001", fs[4].Student)
-	assert.Equal(t, "CS101", fs[4].Section)
-	assert.Equal(t, "meets together with MA110-T1 at Mon 10:00–11:00", fs[4].Details)
+	assert.Equal(t, "st-001", fs[3].Student)
+	assert.Equal(t, "CS101", fs[3].Section)
+	assert.Equal(t, "meets together with MA110-T1 at Mon 10:00–11:00", fs[3].Details)
 
 	fs, err = SectioningFindings(term, s, nil)
 	require.NoError(t, err)
@@ -190,4 +189,31 @@ func dumpRows(rows [][]string) string {
 		b.WriteString("\n")
 	}
 	return b.String()
+}
+
+// TestSectionFill checks the full and nearly full thresholds at their
+// edges: full when no place is left, nearly full from 90% of the limit
+// (NearlyFullPercent, common practice).
+func TestSectionFill(t *testing.T) {
+	for _, tc := range []struct {
+		students, limit int
+		full, nearly    bool
+		details         string
+	}{
+		{9, 10, false, true, "9 of 10 places taken, 1 free"},
+		{8, 10, false, false, "8 of 10 places taken, 2 free"},
+		{10, 10, true, false, "10 of 10 places taken"},
+		{12, 10, true, false, "12 of 10 places taken (2 over the limit)"},
+		{4, 5, false, false, "4 of 5 places taken, 1 free"},
+		{1, 1, true, false, "1 of 1 places taken"},
+		{0, 1, false, false, "0 of 1 places taken, 1 free"},
+		{27, 30, false, true, "27 of 30 places taken, 3 free"},
+	} {
+		t.Run(tc.details, func(t *testing.T) {
+			full, nearly := sectionFill(tc.students, tc.limit)
+			assert.Equal(t, tc.full, full)
+			assert.Equal(t, tc.nearly, nearly)
+			assert.Equal(t, tc.details, FillDetails(tc.students, tc.limit))
+		})
+	}
 }

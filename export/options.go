@@ -29,6 +29,11 @@ type Options struct {
 	// not meet a request (sectioning.Result.Unplaced); the sectioning
 	// report lists an unmet request without one as "not placed".
 	Reasons map[int]string
+	// Findings, when not nil, are the sectioning report's lines as the
+	// caller has them (for example from the sectioner's own report, which
+	// also knows clashes by travel time); otherwise the report is
+	// SectioningFindings of the timetable.
+	Findings []Finding
 }
 
 // ExtraSheet is an additional sheet of the timetable workbook: a header row

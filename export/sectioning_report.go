@@ -40,9 +40,8 @@ type Finding struct {
 //     request order, with reasons[i] (the sectioner's reason for request i)
 //     or, when there is none, a plain "not placed";
 //   - every section with a Course that is full (no free place under
-//     Term.SectionLimit) and then every one nearly full (at most a tenth
-//     of its limit free, at least one place: common practice for a
-//     warning), in term order;
+//     Term.SectionLimit) and then every one nearly full (at least
+//     NearlyFullPercent of its limit taken), in term order;
 //   - per student (sorted by ID) every pair of their sections that meet
 //     at the same time (a common minute of a common day in a common week),
 //     with the first such time. Too little travel time between two
@@ -100,22 +99,42 @@ func (v *view) sectioningFindings(reasons map[int]string) []Finding {
 		if s.Course == "" || limit <= 0 {
 			continue
 		}
-		free := limit - count[si]
 		f := Finding{Course: s.Course, Section: s.ID, Students: count[si], Limit: limit, Where: s.Src.String()}
-		switch {
-		case free <= 0:
-			f.Kind, f.Details = FindingFull, fmt.Sprintf("%d of %d places taken", count[si], limit)
-			if free < 0 {
-				f.Details += fmt.Sprintf(" (%d over the limit)", -free)
-			}
+		switch full, near := sectionFill(count[si], limit); {
+		case full:
+			f.Kind, f.Details = FindingFull, FillDetails(count[si], limit)
 			out = append(out, f)
-		case free <= max(1, limit/10):
-			f.Kind, f.Details = FindingNearlyFull, fmt.Sprintf("%d of %d places taken, %d free", count[si], limit, free)
+		case near:
+			f.Kind, f.Details = FindingNearlyFull, FillDetails(count[si], limit)
 			nearly = append(nearly, f)
 		}
 	}
 	out = append(out, nearly...)
 	return append(out, v.studentClashFindings()...)
+}
+
+// NearlyFullPercent is the share of its limit from which a section is
+// reported as nearly full: 90%, a common-practice warning level for
+// enrolment (the sectioner's report uses the same).
+const NearlyFullPercent = 90
+
+// sectionFill says whether a section holding students under limit is
+// full (no place left) or nearly full (at least NearlyFullPercent).
+func sectionFill(students, limit int) (full, nearly bool) {
+	return students >= limit, students < limit && 100*students >= NearlyFullPercent*limit
+}
+
+// FillDetails is "9 of 10 places taken, 1 free", "10 of 10 places taken"
+// or "12 of 10 places taken (2 over the limit)".
+func FillDetails(students, limit int) string {
+	s := fmt.Sprintf("%d of %d places taken", students, limit)
+	switch free := limit - students; {
+	case free > 0:
+		s += fmt.Sprintf(", %d free", free)
+	case free < 0:
+		s += fmt.Sprintf(" (%d over the limit)", -free)
+	}
+	return s
 }
 
 // studentClashFindings lists, per student in ID order, every pair of
@@ -192,11 +211,15 @@ func clashTime(a, b *meeting) clashAt {
 	return clashAt{rank: timetable.WeekOrder(a.day), day: timetable.DayName(a.day), from: max(a.from, b.from), until: min(a.to, b.to)}
 }
 
-// sectioningSheet writes the SectioningSheet: one row per finding with
+// sectioningSheet writes the SectioningSheet (opt.Findings, or else
+// SectioningFindings with opt.Reasons): one row per finding with
 // SectioningColumns (Students and Limit as numbers, empty when they do not
 // apply), frozen header, AutoFilter.
-func (wb *workbook) sectioningSheet(name string, reasons map[int]string) error {
-	fs := wb.v.sectioningFindings(reasons)
+func (wb *workbook) sectioningSheet(name string, opt Options) error {
+	fs := opt.Findings
+	if fs == nil {
+		fs = wb.v.sectioningFindings(opt.Reasons)
+	}
 	rows := make([][]any, len(fs))
 	for i, f := range fs {
 		var n, l any = "", ""

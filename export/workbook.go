@@ -20,7 +20,8 @@ const LoadSheet = "Load"
 // sheet, with sectioning (course requests in the term or sectioned
 // students in s) the timetable.ClassListSheet (one row per sectioned
 // student and section, timetable.ClassListColumns, sorted by section then
-// student) and the SectioningSheet (SectioningFindings, with opt.Reasons),
+// student) and the SectioningSheet (opt.Findings, or else
+// SectioningFindings with opt.Reasons),
 // then opt.Extra. timetable.ReadSchedule reads the master sheet and the
 // class lists back.
 func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedule, opt Options) error {
@@ -84,7 +85,7 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 		if err := wb.classLists(); err != nil {
 			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", timetable.ClassListSheet, err)
 		}
-		if err := wb.sectioningSheet(SectioningSheet, opt.Reasons); err != nil {
+		if err := wb.sectioningSheet(SectioningSheet, opt); err != nil {
 			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", SectioningSheet, err)
 		}
 	}

@@ -233,18 +233,22 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	}
 	tw := time.Now()
 	extra, reasons := solveQualitySheets(term, res.OptimizeResult), solveReasons(res)
-	if res.Kept && res.Sectioning != nil {
-		extra = append(extra, solveMovedStudentsSheet(res.Sectioning))
+	var findings []export.Finding
+	if rep.Sectioning != nil {
+		findings = rep.Sectioning.Findings
+		if res.Kept {
+			extra = append(extra, solveMovedStudentsSheet(res.Sectioning))
+		}
 	}
 	written, werr := writeOutput(o.out, o.force, func(w io.Writer) error {
-		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: extra, Reasons: reasons})
+		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: extra, Reasons: reasons, Findings: findings})
 	})
 	if written == "" {
 		return wrapCode(exitError, werr)
 	}
 	rep.Status, rep.Output = "solved", written
 	if o.publish != "" && werr == nil {
-		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: extra, Reasons: reasons}); err != nil {
+		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: extra, Reasons: reasons, Findings: findings}); err != nil {
 			return failf(exitError, "the timetable was written to %s, but publishing failed: %w", written, err)
 		}
 		rep.Published = o.publish

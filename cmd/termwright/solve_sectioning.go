@@ -16,10 +16,12 @@ import (
 type solveSectioning struct {
 	Requests         int               `json:"requests"`
 	Unplaced         int               `json:"unplaced"`
+	ByAlternative    int               `json:"met_by_alternative"`
 	Sectioned        int               `json:"sectioned_enrolments"` // (student, section) pairs the sectioner made
 	Full             int               `json:"full_sections"`
 	NearlyFull       int               `json:"nearly_full_sections"`
 	ClashingStudents int               `json:"students_with_clashes"`
+	TotalClashes     int               `json:"clashes"` // units of criterion "student clashes", fixed and sectioned students
 	Findings         []export.Finding  `json:"findings"`
 	Moves            []sectioning.Move `json:"moved_students,omitempty"` // with --keep
 	Kept             bool              `json:"kept"`                     // --keep was given
@@ -38,27 +40,21 @@ func solveReasons(res *planning.Result) map[int]string {
 	return out
 }
 
-// solveBuildSectioning summarises the sectioning of the written timetable;
-// nil for a term without course requests.
+// solveBuildSectioning summarises the sectioning of the written timetable
+// from the sectioner's own report (sectioning.NewReport); nil for a term
+// without course requests.
 func solveBuildSectioning(t *timetable.Term, res *planning.Result) *solveSectioning {
-	if len(t.Requests) == 0 || res.Schedule == nil {
+	if len(t.Requests) == 0 || res.Schedule == nil || res.Sectioning == nil {
 		return nil
 	}
-	fs, err := export.SectioningFindings(t, res.Schedule, solveReasons(res))
-	if err != nil {
-		fs = nil // the timetable passed the checks; a view error here would be a bug, and the counts stay 0
-	}
-	sec := &solveSectioning{Requests: len(t.Requests), Sectioned: len(res.Schedule.Enrolments), Findings: fs,
-		Kept: res.Kept, byKind: map[string][]int{}}
-	if sec.Findings == nil {
-		sec.Findings = []export.Finding{}
-	}
+	rep := sectioning.NewReport(t, res.Schedule, res.Sectioning)
+	fs := solveFindings(t, rep)
+	sec := &solveSectioning{Requests: rep.Requests, Unplaced: rep.Requests - rep.Placed, ByAlternative: rep.ByAlternative,
+		Sectioned: len(res.Schedule.Enrolments), Findings: fs, Kept: res.Kept, byKind: map[string][]int{}, TotalClashes: rep.TotalClashes}
 	clashing := map[string]bool{}
 	for i, f := range fs {
 		sec.byKind[f.Kind] = append(sec.byKind[f.Kind], i)
 		switch f.Kind {
-		case export.FindingUnplaced:
-			sec.Unplaced++
 		case export.FindingFull:
 			sec.Full++
 		case export.FindingNearlyFull:
@@ -68,10 +64,50 @@ func solveBuildSectioning(t *timetable.Term, res *planning.Result) *solveSection
 		}
 	}
 	sec.ClashingStudents = len(clashing)
-	if res.Sectioning != nil && res.Kept {
+	if res.Kept {
 		sec.Moves = res.Sectioning.Moves
 	}
 	return sec
+}
+
+// solveFindings turns the sectioner's report into the lines of the
+// workbook's Sectioning sheet (export.Finding): unplaced requests with
+// their reasons, then the full and nearly full sections, then each
+// student's clashing pairs.
+func solveFindings(t *timetable.Term, rep *sectioning.Report) []export.Finding {
+	out := []export.Finding{}
+	for _, u := range rep.Unplaced {
+		out = append(out, export.Finding{Kind: export.FindingUnplaced, Student: u.Student, Course: u.Course, Details: u.Reason, Where: u.Src.String()})
+	}
+	var nearly []export.Finding
+	for _, f := range rep.Sections {
+		x := export.Finding{Kind: export.FindingFull, Course: f.Course, Section: f.Section, Students: f.Students, Limit: f.Limit,
+			Details: export.FillDetails(f.Students, f.Limit), Where: f.Src.String()}
+		if !f.Full {
+			x.Kind = export.FindingNearlyFull
+			nearly = append(nearly, x)
+			continue
+		}
+		out = append(out, x)
+	}
+	out = append(out, nearly...)
+	idx := t.SectionIndex()
+	for _, c := range rep.Clashes {
+		x := export.Finding{Kind: export.FindingClash, Student: c.Student, Section: c.A}
+		if i, ok := idx[c.A]; ok {
+			x.Course, x.Where = t.Sections[i].Course, t.Sections[i].Src.String()
+		}
+		switch {
+		case c.Travel:
+			x.Details = "too little time to travel between it and " + c.B
+		case c.Count > 1:
+			x.Details = fmt.Sprintf("meets together with %s (%d common periods)", c.B, c.Count)
+		default:
+			x.Details = "meets together with " + c.B
+		}
+		out = append(out, x)
+	}
+	return out
 }
 
 // solveShown is how many findings of each kind the text summary lists
@@ -80,8 +116,12 @@ const solveShown = 5
 
 // solvePrintSectioning prints the sectioning summary.
 func solvePrintSectioning(w io.Writer, s *solveSectioning) {
-	fmt.Fprintf(w, "Sectioning: %d of %s met, %s placed in sections; %d full and %d nearly full section%s; %s with clashes.\n",
-		s.Requests-s.Unplaced, checkCount(s.Requests, "course request"), checkCount(s.Sectioned, "student-section place"),
+	alt := ""
+	if s.ByAlternative > 0 {
+		alt = fmt.Sprintf(" (%d by an alternative)", s.ByAlternative)
+	}
+	fmt.Fprintf(w, "Sectioning: %d of %s met%s, %s in sections; %d full and %d nearly full section%s; %s with clashes.\n",
+		s.Requests-s.Unplaced, checkCount(s.Requests, "course request"), alt, checkCount(s.Sectioned, "student place"),
 		s.Full, s.NearlyFull, plural(s.NearlyFull, "", "s"), checkCount(s.ClashingStudents, "student"))
 	list := func(kind, head string, text func(export.Finding) string) {
 		idx := s.byKind[kind]
