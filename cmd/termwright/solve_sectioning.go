@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"strings"
 
 	"github.com/termwright/termwright/export"
 	"github.com/termwright/termwright/planning"
@@ -156,23 +157,50 @@ func solvePrintSectioning(w io.Writer, s *solveSectioning) {
 		fmt.Fprintln(w, "No student changed section from the kept timetable.")
 		return
 	}
-	fmt.Fprintf(w, "Students moved between sections (%s):\n", checkCount(len(s.Moves), "change"))
+	students := map[string]bool{}
 	for _, m := range s.Moves {
-		fmt.Fprintf(w, "  %s\n", moveText(m))
+		students[m.Student] = true
+	}
+	fmt.Fprintf(w, "Students moved between sections (%s, %s of section):\n", checkCount(len(students), "student"), checkCount(len(s.Moves), "change"))
+	for _, line := range moveLines(s.Moves) {
+		fmt.Fprintf(w, "  %s\n", line)
 	}
 }
 
-// moveText is "st-001 MA110: MA110-T1 → MA110-T2" ("now in", "no longer
-// in" when one side is empty).
-func moveText(m sectioning.Move) string {
-	head := m.Student + " " + m.Course + ": "
-	switch {
-	case m.From == "":
-		return head + "now in " + m.To
-	case m.To == "":
-		return head + "no longer in " + m.From
+// moveLines gives one line per student and course: "st-001 MA110:
+// MA110-T1 → MA110-T2", "st-002 MA110: no longer in MA110-L,
+// MA110-T2", "st-003 MA110: now in MA110-L, MA110-T1" (changes of
+// section first, then the sections joined, then those left).
+func moveLines(moves []sectioning.Move) []string {
+	type key struct{ student, course string }
+	var order []key
+	changed, joined, left := map[key][]string{}, map[key][]string{}, map[key][]string{}
+	for _, m := range moves {
+		k := key{m.Student, m.Course}
+		if len(changed[k])+len(joined[k])+len(left[k]) == 0 {
+			order = append(order, k)
+		}
+		switch {
+		case m.From == "":
+			joined[k] = append(joined[k], m.To)
+		case m.To == "":
+			left[k] = append(left[k], m.From)
+		default:
+			changed[k] = append(changed[k], m.From+" → "+m.To)
+		}
 	}
-	return head + m.From + " → " + m.To
+	out := make([]string, len(order))
+	for i, k := range order {
+		parts := changed[k]
+		if l := joined[k]; len(l) > 0 {
+			parts = append(parts, "now in "+strings.Join(l, ", "))
+		}
+		if l := left[k]; len(l) > 0 {
+			parts = append(parts, "no longer in "+strings.Join(l, ", "))
+		}
+		out[i] = k.student + " " + k.course + ": " + strings.Join(parts, "; ")
+	}
+	return out
 }
 
 // solveMovedStudentsSheet is the Moved students sheet of the timetable
