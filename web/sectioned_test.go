@@ -7,6 +7,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/chromedp"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/termwright/termwright/planning"
@@ -81,4 +82,30 @@ func TestSectionedStateAndReplan(t *testing.T) {
 	assert.Len(t, cur.Enrolments, 8, "the re-planned timetable seats the students again")
 	assert.Empty(t, timetable.HardViolations(timetable.Check(d.term, cur)))
 	assert.Len(t, kept.Students, 4)
+}
+
+// TestBrowserSectionedStudent opens the page on the sectioned term and
+// finds a sectioned student (who is on no Enrolments sheet): their week
+// shows the lecture and their one tutorial, taken from the timetable's
+// sectioned students.
+func TestBrowserSectionedStudent(t *testing.T) {
+	exe := chromium(t)
+	d := sectionedFixture(t)
+	var tutorial string
+	for _, e := range d.sched.Enrolments {
+		if e.Student == "S1" && e.Section != "STA100-L" {
+			tutorial = e.Section
+		}
+	}
+	require.NotEmpty(t, tutorial)
+	b := newBrowser(t, exe)
+	require.NoError(t, chromedp.Do(b.ctx,
+		chromedp.Navigate(d.ts.URL+"/?find=S1"),
+		chromedp.WaitVisible(`#master tbody tr`),
+		chromedp.Click(`#matches button[data-kind="student"][data-id="S1"]`),
+		chromedp.WaitVisible(`#grid`),
+	))
+	shown := b.eval(`[...new Set([...document.querySelectorAll("#grid button.mtg")].map((x) => x.dataset.section))].sort().join(" ")`)
+	assert.Equal(t, "STA100-L "+tutorial, shown)
+	b.shot("s1-sectioned-student")
 }
