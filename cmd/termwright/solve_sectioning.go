@@ -49,13 +49,28 @@ func solveBuildSectioning(t *timetable.Term, res *planning.Result) *solveSection
 		return nil
 	}
 	rep := sectioning.NewReport(t, res.Schedule, res.Sectioning)
-	fs := solveFindings(t, rep)
-	sec := &solveSectioning{Requests: rep.Requests, Unplaced: rep.Requests - rep.Placed, ByAlternative: rep.ByAlternative,
-		Sectioned: len(res.Schedule.Enrolments), Findings: fs, Kept: res.Kept, byKind: map[string][]int{}, TotalClashes: rep.TotalClashes}
+	sec := newSolveSectioning(t, res.Schedule, solveFindings(t, rep))
+	sec.ByAlternative, sec.TotalClashes, sec.Kept = rep.ByAlternative, rep.TotalClashes, res.Kept
+	if res.Kept {
+		sec.Moves = res.Sectioning.Moves
+	}
+	return sec
+}
+
+// newSolveSectioning counts the findings of a sectioning report of
+// timetable s (verify builds it from the timetable alone, with
+// export.SectioningFindings).
+func newSolveSectioning(t *timetable.Term, s *timetable.Schedule, fs []export.Finding) *solveSectioning {
+	sec := &solveSectioning{Requests: len(t.Requests), Sectioned: len(s.Enrolments), Findings: fs, byKind: map[string][]int{}}
+	if sec.Findings == nil {
+		sec.Findings = []export.Finding{}
+	}
 	clashing := map[string]bool{}
 	for i, f := range fs {
 		sec.byKind[f.Kind] = append(sec.byKind[f.Kind], i)
 		switch f.Kind {
+		case export.FindingUnplaced:
+			sec.Unplaced++
 		case export.FindingFull:
 			sec.Full++
 		case export.FindingNearlyFull:
@@ -65,9 +80,6 @@ func solveBuildSectioning(t *timetable.Term, res *planning.Result) *solveSection
 		}
 	}
 	sec.ClashingStudents = len(clashing)
-	if res.Kept {
-		sec.Moves = res.Sectioning.Moves
-	}
 	return sec
 }
 

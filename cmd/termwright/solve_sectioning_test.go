@@ -79,6 +79,15 @@ func TestSolveWithRequests(t *testing.T) {
 	assert.Equal(t, export.FindingUnplaced, rows[1][0])
 	assert.NotEmpty(t, rows[1][6], "with the sectioner's reason")
 	assert.Equal(t, []string{export.FindingFull, "", "STA100", "STA100-T1", "2", "2", "2 of 2 places taken"}, rows[2][:7])
+
+	// check counts the courses and requests; verify reports the same
+	// sectioning from the written timetable alone.
+	e, stdout, stderr = solveEnv()
+	run([]string{"check", termPath}, e)
+	assert.Contains(t, stdout.String(), "Sectioning: 1 requested course (3 sections), 5 course requests from 5 students.\n", "stderr: %s", stderr)
+	e, stdout, stderr = solveEnv()
+	require.Equal(t, exitOK, run([]string{"verify", termPath, out}, e), "stderr: %s", stderr)
+	assert.Contains(t, stdout.String(), "Sectioning: 4 of 5 course requests met, 8 student places in sections; 2 full and 0 nearly full sections; 0 students with clashes.")
 }
 
 // TestSolveKeepMovesFewStudents solves a term where four students fill
