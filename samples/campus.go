@@ -25,7 +25,10 @@ const CampusInstitution = "Vellmoor University"
 // Mon Wed Fri for 50 minutes or Tue Thu for 75 minutes; labs meet every
 // other week; one intensive course runs in weeks 3 to 6 only. Sections list
 // their acceptable rooms with preferences; the Town campus and the Cray Hill
-// campus are 25 minutes apart. Every name is invented.
+// campus are 25 minutes apart. Students ask for courses (campusCourses):
+// three courses have a main class with two parallel labs that belong to it,
+// Calculus runs in two parallel sections, and History Methods may be taken
+// in two ways (the archive seminar, or online). Every name is invented.
 func Campus() *timetable.Term {
 	t := &timetable.Term{
 		Name:     CampusInstitution + " — Spring 2028",
@@ -44,6 +47,7 @@ func Campus() *timetable.Term {
 	c.block()
 	c.online()
 	campusRelations(t)
+	campusCourses(t)
 	t.Unavailable = []timetable.Unavailability{
 		{Who: "VU-06", Kind: timetable.WhoStaff, Day: time.Friday, From: 12 * 60, To: 24 * 60, Hard: true, Reason: "conference travel", Weeks: 0b1100000000}, // weeks 9-10
 		{Who: "CED-1", Kind: timetable.WhoRoom, Day: time.Tuesday, From: 8 * 60, To: 12 * 60, Hard: true, Reason: "floor works", Weeks: 0b11},                // weeks 1-2
@@ -253,5 +257,57 @@ func campusRelations(t *timetable.Term) {
 		{Kind: timetable.DaySpan, Sections: []string{"ART101-L", "ART102-L"}, Weight: 1, N: 360},
 		// No more than three hours of teaching in a row for first-year chemistry.
 		{Kind: timetable.MaxBlock, Sections: []string{"CHM101-L", "CHM102-L", "MTH110-A"}, Weight: 2, N: 180, M: 15},
+	}
+}
+
+// campusCourses makes courses of the sections and adds the course requests
+// of 44 invented students (IDs V28001 to V28044): BIO101, CHM101 and
+// BIO201 each have a main class (part Lecture) and two parallel labs (part
+// Lab) whose parent is the main class; MTH110 has two parallel sections;
+// HIS220 (History Methods) has two arrangements, the Archive seminar or the
+// Online class.
+func campusCourses(t *timetable.Term) {
+	type course struct{ course, arr, part, parent string }
+	of := map[string]course{
+		"BIO101-L": {"BIO101", "", "Lecture", ""}, "BIO101-LAB-1": {"BIO101", "", "Lab", "BIO101-L"}, "BIO101-LAB-2": {"BIO101", "", "Lab", "BIO101-L"},
+		"CHM101-L": {"CHM101", "", "Lecture", ""}, "CHM101-LAB-1": {"CHM101", "", "Lab", "CHM101-L"}, "CHM101-LAB-2": {"CHM101", "", "Lab", "CHM101-L"},
+		"BIO201-L": {"BIO201", "", "Lecture", ""}, "BIO201-LAB-1": {"BIO201", "", "Lab", "BIO201-L"}, "BIO201-LAB-2": {"BIO201", "", "Lab", "BIO201-L"},
+		"MTH110-A": {"MTH110", "", "", ""}, "MTH110-B": {"MTH110", "", "", ""},
+		"HIS202-S": {"HIS220", "Archive", "", ""}, "HIS210-W": {"HIS220", "Online", "", ""},
+	}
+	for i := range t.Sections {
+		if c, ok := of[t.Sections[i].ID]; ok {
+			s := &t.Sections[i]
+			s.Course, s.Arrangement, s.Part, s.Parent = c.course, c.arr, c.part, c.parent
+		}
+	}
+	// The seminar takes 18 of its 20 seats: two are kept for visiting students.
+	for i := range t.Sections {
+		if t.Sections[i].ID == "HIS202-S" {
+			t.Sections[i].Limit = 18
+		}
+	}
+	for n := 1; n <= 44; n++ {
+		st := fmt.Sprintf("V28%03d", n)
+		ask := func(course string, priority int, instead ...string) {
+			t.Requests = append(t.Requests, timetable.Request{Student: st, Course: course, Priority: priority, Alternatives: instead})
+		}
+		switch {
+		case n <= 20: // first-year biology
+			ask("BIO101", 1)
+			ask("MTH110", 2)
+			ask("HIS220", 0)
+		case n <= 36: // first-year chemistry
+			ask("CHM101", 1)
+			ask("MTH110", 1)
+			ask("BIO101", 3, "HIS220")
+		default: // second-year biology
+			ask("BIO201", 1)
+			if n%2 == 0 {
+				ask("HIS220", 2)
+			} else {
+				ask("CHM101", 2, "MTH110")
+			}
+		}
 	}
 }

@@ -19,7 +19,8 @@ func TestCampusFiles(t *testing.T) {
 // no errors and no warnings, no period grid, and every feature the demo is
 // there to show (issue 14: MWF 50 minutes, TuTh 75 minutes, an
 // every-other-week lab, a block course in weeks 3-6, room lists with
-// preferences, two campuses with travel time, some of the new relations).
+// preferences, two campuses with travel time, some of the new relations;
+// issue 15: courses in parts and arrangements, and course requests).
 func TestCampusReadsClean(t *testing.T) {
 	assert.Empty(t, timetable.Validate(Campus()), "Campus() validates")
 	for _, path := range []string{CampusWorkbook, CampusCSVDir} {
@@ -65,6 +66,28 @@ func TestCampusReadsClean(t *testing.T) {
 			for _, k := range []timetable.RelationKind{timetable.SameStart, timetable.MinGap, timetable.MaxDays, timetable.MaxBlock} {
 				assert.True(t, kinds[k], "a %s relation", k)
 			}
+			// Issue 15: courses in parts with parallel labs tied to their main
+			// class, a course of two arrangements, and course requests.
+			courses := map[string]timetable.Course{}
+			for _, c := range term.Courses() {
+				courses[c.ID] = c
+			}
+			require.Len(t, courses, 5)
+			bio := courses["BIO101"].Arrangements
+			require.Len(t, bio, 1)
+			require.Len(t, bio[0].Parts, 2)
+			assert.Equal(t, "Lab", bio[0].Parts[1].ID)
+			for _, si := range bio[0].Parts[1].Sections {
+				assert.Equal(t, "BIO101-L", term.Sections[si].Parent, "each lab belongs to the main class")
+			}
+			assert.Len(t, bio[0].Parts[1].Sections, 2, "two parallel labs")
+			assert.Len(t, courses["HIS220"].Arrangements, 2, "History Methods in two ways")
+			assert.Len(t, term.Requests, 44*3-8)
+			alternatives := 0
+			for _, r := range term.Requests {
+				alternatives += len(r.Alternatives)
+			}
+			assert.Positive(t, alternatives, "some requests name a course to take instead")
 		})
 	}
 }

@@ -140,6 +140,9 @@ func HardViolations(vs []Violation) []Violation {
 type checker struct {
 	x   *occupancy
 	out []Violation
+
+	seatMatch []int  // seatRequested's matching, reused per student
+	seatSeen  []bool // seatRequested's visited requests, reused per student
 }
 
 // add records a violation; msg is the sentence without rows, which add

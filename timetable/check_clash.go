@@ -127,62 +127,87 @@ func (x *occupancy) seats() *seatIndex {
 // week sets and a common period; with a pattern section, a common minute
 // of a common day in a common week, or two meetings on a common day in a
 // common week with less free time between them than the travel time
-// between their rooms. Shared by Check and Cost; O(Σ k²) for k sections
-// per student, each pair judged once (a word-wide set intersection for
-// grid pairs).
+// between their rooms. Shared by Check and Cost. The (pair, student)
+// tuples are collected in flat slices and ordered by two counting sorts,
+// so each distinct pair is judged once (a word-wide set intersection for
+// grid pairs) without a hash lookup per tuple: O(T + sections) for
+// T = Σ k² tuples, k sections per student.
 func (x *occupancy) studentClashes() map[chkStudentPair]*chkClashPair {
 	out := map[chkStudentPair]*chkClashPair{}
 	st := x.seats()
 	if len(st.ens) == 0 {
 		return out
 	}
-	sets := make([]occSet, len(x.t.Sections))
-	for si := range x.t.Sections {
-		sets[si] = x.sectionPeriods(si)
+	// One (pair, student) tuple per pair of a student's distinct sections,
+	// in student order: lo, hi the pair's section indexes, en the student's
+	// first enrolment in lo.
+	var lo, hi, en []int32
+	var secs, first []int
+	for pass := 0; pass < 2; pass++ { // the first pass only counts, to allocate once
+		n := 0
+		for k := range st.names {
+			secs, first = secs[:0], first[:0]
+			for _, ei := range st.enrolmentsOf(k) {
+				si := int(st.ensSec[ei])
+				if si >= 0 && !slices.Contains(secs, si) {
+					secs = append(secs, si)
+					first = append(first, int(ei))
+				}
+			}
+			if pass == 0 {
+				n += len(secs) * (len(secs) - 1) / 2
+				continue
+			}
+			for a := range secs {
+				for b := a + 1; b < len(secs); b++ {
+					sa, sb, ea := secs[a], secs[b], first[a]
+					if sa > sb {
+						sa, sb, ea = sb, sa, first[b]
+					}
+					lo, hi, en = append(lo, int32(sa)), append(hi, int32(sb)), append(en, int32(ea))
+				}
+			}
+		}
+		if pass == 0 {
+			lo, hi, en = make([]int32, 0, n), make([]int32, 0, n), make([]int32, 0, n)
+		}
 	}
+	// Two stable counting sorts (by hi, then by lo) order the tuples by
+	// pair, students in order within a pair: O(tuples + sections).
+	_, byHi := groupBy(hi, len(x.t.Sections))
+	loOfHi := make([]int32, len(byHi))
+	for i, t := range byHi {
+		loOfHi[i] = lo[t]
+	}
+	_, order := groupBy(loOfHi, len(x.t.Sections))
+	for i, o := range order {
+		order[i] = byHi[o]
+	}
+	sets := make([]occSet, len(x.t.Sections))
 	var ti *TravelIndex
 	if len(x.t.Travel) > 0 {
 		ti = newTravelIndexOnce(x)
 	}
-	judged := map[chkStudentPair]bool{} // pairs already judged not to clash
-	var secs, first []int
-	for k := range st.names {
-		secs, first = secs[:0], first[:0]
-		for _, ei := range st.enrolmentsOf(k) {
-			si := int(st.ensSec[ei])
-			if si >= 0 && !slices.Contains(secs, si) {
-				secs = append(secs, si)
-				first = append(first, int(ei))
-			}
+	for i := 0; i < len(order); {
+		sa, sb := lo[order[i]], hi[order[i]]
+		j := i
+		for j < len(order) && lo[order[j]] == sa && hi[order[j]] == sb {
+			j++
 		}
-		for a := range secs {
-			for b := a + 1; b < len(secs); b++ {
-				sa, sb, ea := secs[a], secs[b], first[a]
-				if sa > sb {
-					sa, sb, ea = sb, sa, first[b]
-				}
-				key := chkStudentPair{sa, sb}
-				cp := out[key]
-				if cp == nil {
-					if judged[key] {
-						continue
-					}
-					cp = x.judgeStudentPair(ti, sets, sa, sb)
-					if cp == nil {
-						judged[key] = true
-						continue
-					}
-					out[key] = cp
-				}
-				cp.students = append(cp.students, ea)
+		if cp := x.judgeStudentPair(ti, sets, int(sa), int(sb)); cp != nil {
+			cp.students = make([]int, 0, j-i)
+			for _, t := range order[i:j] {
+				cp.students = append(cp.students, int(en[t]))
 			}
+			out[chkStudentPair{int(sa), int(sb)}] = cp
 		}
+		i = j
 	}
 	return out
 }
 
 // judgeStudentPair decides whether sections sa and sb clash for a student
-// who takes both (nil when not).
+// who takes both (nil when not); sets caches the sections' period sets.
 func (x *occupancy) judgeStudentPair(ti *TravelIndex, sets []occSet, sa, sb int) *chkClashPair {
 	if x.t.Sections[sa].UsesTimes() || x.t.Sections[sb].UsesTimes() {
 		if at, pls := x.meetTogether(sa, sb); at != "" {
@@ -195,8 +220,16 @@ func (x *occupancy) judgeStudentPair(ti *TravelIndex, sets []occSet, sa, sb int)
 		}
 		return nil
 	}
+	if !x.weeks(sa).Overlaps(x.weeks(sb)) {
+		return nil
+	}
+	for _, si := range [2]int{sa, sb} {
+		if sets[si] == nil {
+			sets[si] = x.sectionPeriods(si)
+		}
+	}
 	n := sets[sa].commonCount(sets[sb])
-	if n == 0 || !x.weeks(sa).Overlaps(x.weeks(sb)) {
+	if n == 0 {
 		return nil
 	}
 	return &chkClashPair{common: n}

@@ -29,9 +29,9 @@ type seatItem struct {
 // each its own request that names it (as Course or under Alternatives);
 // and no student is both fixed and sectioned in a section, or sectioned
 // in it twice. Students with fixed enrolments only are term data, judged
-// by Validate. O(enrolments + requests) with small per-student sorts.
+// by Validate, except that they count against the limits. O(enrolments + requests) with small per-student sorts.
 func (c *checker) seating() {
-	if len(c.x.s.Enrolments) == 0 {
+	if len(c.x.s.Enrolments) == 0 && !c.x.t.hasCourses() {
 		return
 	}
 	st := c.x.seats()
@@ -135,7 +135,7 @@ func (c *checker) seatCourses(st *seatIndex, k int, items []seatItem) {
 // seatParts checks one student's sections of one course.
 func (c *checker) seatParts(st *seatIndex, k int, ci int32, group []seatItem) {
 	t := c.x.t
-	course := st.courses[ci]
+	course := &st.courses[ci]
 	name := "student " + st.names[k]
 	srcs := func() []Source {
 		out := make([]Source, 0, len(group))
@@ -154,21 +154,27 @@ func (c *checker) seatParts(st *seatIndex, k int, ci int32, group []seatItem) {
 		}
 	}
 	for pi, part := range course.Arrangements[arr].Parts {
-		var held []string
+		n := 0
 		for _, it := range group {
 			if st.secPart[it.sec] == int32(pi) {
-				held = append(held, t.Sections[it.sec].ID)
+				n++
 			}
 		}
 		switch {
-		case len(held) == 0:
+		case n == 0:
 			var ids []string
 			for _, si := range part.Sections {
 				ids = append(ids, t.Sections[si].ID)
 			}
 			c.add(RuleSeating, true, nil, srcs(), name+" takes course "+course.ID+" but no section of its "+seatPartName(part.ID)+" ("+seatList(ids)+")")
-		case len(held) > 1:
-			c.add(RuleSeating, true, nil, srcs(), name+" holds "+itoa(len(held))+" sections of the "+seatPartName(part.ID)+" of course "+course.ID+" ("+chkJoin(held)+"); a student takes one")
+		case n > 1:
+			var held []string
+			for _, it := range group {
+				if st.secPart[it.sec] == int32(pi) {
+					held = append(held, t.Sections[it.sec].ID)
+				}
+			}
+			c.add(RuleSeating, true, nil, srcs(), name+" holds "+itoa(n)+" sections of the "+seatPartName(part.ID)+" of course "+course.ID+" ("+chkJoin(held)+"); a student takes one")
 		}
 	}
 	for _, it := range group {
@@ -215,8 +221,16 @@ func (c *checker) seatRequested(st *seatIndex, k int, courses []int32) {
 		c.add(RuleNotRequested, true, nil, nil, "student "+st.names[k]+" is sectioned into "+what+" (as a course or under Or instead)")
 		return
 	}
-	match := make([]int, len(reqs)) // request position -> course position + 1, 0 = free
-	var seen []bool
+	match := c.seatMatch[:0] // request position -> course position + 1, 0 = free
+	for range reqs {
+		match = append(match, 0)
+	}
+	c.seatMatch = match
+	seen := c.seatSeen[:0]
+	for range reqs {
+		seen = append(seen, false)
+	}
+	c.seatSeen = seen
 	var augment func(cp int) bool
 	augment = func(cp int) bool {
 		for rp, ri := range reqs {
@@ -232,7 +246,7 @@ func (c *checker) seatRequested(st *seatIndex, k int, courses []int32) {
 		return false
 	}
 	for cp := range courses {
-		seen = make([]bool, len(reqs))
+		clear(seen)
 		if !augment(cp) {
 			var ids []string
 			for _, ci := range courses {

@@ -89,3 +89,13 @@ func (t *Term) StudentEnrolments(s *Schedule) []Enrolment {
 	out = append(out, t.Enrolments...)
 	return append(out, s.Enrolments...)
 }
+
+// hasCourses reports whether some section names a Course.
+func (t *Term) hasCourses() bool {
+	for i := range t.Sections {
+		if t.Sections[i].Course != "" {
+			return true
+		}
+	}
+	return false
+}

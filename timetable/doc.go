@@ -1,8 +1,8 @@
 // Package timetable is termwright's domain: a Term (the weekly grid, rooms,
-// staff, cohorts, sections, enrolments, unavailability, relations and
-// weights of one academic term), a Schedule (one placement per meeting), the
-// readers that build a Term from a term workbook, and the checks that judge
-// both.
+// staff, cohorts, sections, enrolments, course requests, unavailability,
+// relations and weights of one academic term), a Schedule (one placement
+// per meeting, and the students the sectioner placed), the readers that
+// build a Term from a term workbook, and the checks that judge both.
 //
 // # Reading
 //
@@ -28,9 +28,13 @@
 // and attach to its sections by ID: Meeting times gives Section.Times,
 // Room choices gives Section.RoomChoices; Travel gives Term.Travel. A
 // section with meeting times is a pattern section (Meetings and Length are
-// set to 1, and its grid cells only warn). The writers (write_term.go)
+// set to 1, and its grid cells only warn). The course columns of Sections
+// (read_courses.go) give Section.Course, Arrangement, Part, Parent and
+// Limit, and the Course requests sheet Term.Requests; Term.Courses builds
+// the courses from the sections. The writers (write_term.go)
 // write those sheets, and the new columns of Staff, Cohorts, Unavailable
-// and Relations, only when a term uses them, so a grid term's workbook is
+// and Relations, the course columns of Sections and the Course requests
+// sheet, only when a term uses them, so a grid term's workbook is
 // byte for byte what it was before they existed; WriteTemplate and
 // WriteTemplateCSV have every sheet and column.
 //
@@ -56,8 +60,22 @@
 // for their meeting times (5-minute steps, within the day and the term),
 // room choices, and whether any of their times can be used at all; the grid
 // counting arguments leave them out, and a term of pattern sections only
-// needs no period grid. Positions come from each record's Source; column
-// letters are known only for terms that were read from a workbook.
+// needs no period grid. Courses and requests (validate_courses.go) are
+// checked for their links (parents, arrangements, known courses) and, by
+// counting, whether each course's limits can seat the students who ask for
+// it first (a warning: registrars may over-request on purpose). Positions
+// come from each record's Source; column letters are known only for terms
+// that were read from a workbook.
+//
+// # Checking students
+//
+// Check and Cost see every student's sections as Term.StudentEnrolments:
+// the fixed Enrolments and the sectioned Schedule.Enrolments (read back
+// from a timetable workbook's Class lists sheet). seatIndex groups them,
+// and the course requests, by a dense student number in flat slices, so
+// the seating rule (Course's doc comment, check_seating.go), the student
+// clashes and the sectioning criteria run in time near-linear in
+// enrolments.
 //
 // # Local naming
 //

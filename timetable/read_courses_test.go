@@ -53,6 +53,7 @@ func TestReadCourses(t *testing.T) {
 	}, term.Requests)
 	cs := term.Courses()
 	require.Len(t, cs, 3)
+	assert.Equal(t, Counts{Sections: 4, Meetings: 7, Staff: 3, Rooms: 3, Cohorts: 2, Periods: 25, Students: 2, Enrolments: 3, Courses: 3, Requests: 3}, Summary(term))
 	assert.Equal(t, []Part{{ID: "Lecture", Sections: []int{0}}, {ID: "Reading", Sections: []int{3}}}, cs[0].Arrangements[0].Parts)
 }
 

@@ -10,6 +10,8 @@ type Counts struct {
 	Periods    int `json:"periods"`
 	Students   int `json:"students"` // distinct students on the Enrolments sheet
 	Enrolments int `json:"enrolments"`
+	Courses    int `json:"courses,omitempty"`  // requestable courses (Term.Courses)
+	Requests   int `json:"requests,omitempty"` // rows of the Course requests sheet
 }
 
 // Summary counts the records of a term.
@@ -17,6 +19,7 @@ func Summary(t *Term) Counts {
 	c := Counts{
 		Sections: len(t.Sections), Staff: len(t.Staff), Rooms: len(t.Rooms),
 		Cohorts: len(t.Cohorts), Periods: len(t.Periods), Enrolments: len(t.Enrolments),
+		Courses: len(t.Courses()), Requests: len(t.Requests),
 	}
 	for i := range t.Sections {
 		s := &t.Sections[i]

@@ -1,7 +1,11 @@
 package timetable_test
 
 import (
+	"bytes"
+	"strings"
 	"testing"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -55,4 +59,62 @@ func TestCourseColumnsWritten(t *testing.T) {
 		{"Q2700002", "CHM102", "", "CHM101"},
 		{"Q2700003", "CHM102", "3", "CHM101"},
 	}, rows)
+}
+
+// FuzzWriteCourseTermRoundTrip writes courseTerm with an arbitrary limit,
+// priority, arrangement name and list of alternatives and reads it back
+// through the workbook and the CSV folder: the term comes back unchanged
+// (STYLE.md 14: print → read → print).
+func FuzzWriteCourseTermRoundTrip(f *testing.F) {
+	f.Add(22, 1, "Tutored", uint8(1))
+	f.Add(1_000_000, 1_000_000, "A; B", uint8(0))
+	f.Add(0, 0, "=cmd", uint8(3)) // a formula-like cell: SafeCSVCell guards it in CSV
+	f.Fuzz(func(t *testing.T, limit, priority int, arr string, alts uint8) {
+		clean := func(s string) string { // an ID as a cell holds it: one line, trimmed, no list separators
+			s = strings.Map(func(r rune) rune {
+				if r == ',' || r == ';' || r < ' ' || r == 0x7f || !utf8.ValidRune(r) || unicode.IsSpace(r) && r != ' ' {
+					return -1
+				}
+				return r
+			}, s)
+			return strings.TrimSpace(strings.ToValidUTF8(s, ""))
+		}
+		abs := func(x int) int {
+			if x < 0 {
+				return -(x + 1)
+			}
+			return x
+		}
+		term := courseTerm()
+		term.Sections[1].Limit = abs(limit)%1_000_000 + 1
+		term.Requests[0].Priority = abs(priority) % 1_000_001
+		a := clean(arr)
+		if len(a) > 100 {
+			a = clean(a[:100]) // cutting may split a character or leave a trailing space
+		}
+		if a != "" && a != "Online" {
+			term.Sections[3].Arrangement = a
+		}
+		term.Requests[1].Alternatives = nil
+		if alts&1 != 0 {
+			term.Requests[1].Alternatives = []string{"CHM101"}
+		}
+		if ps := timetable.Validate(term); len(ps) > 0 {
+			t.Skipf("not a valid term: %s", ps)
+		}
+
+		var buf bytes.Buffer
+		require.NoError(t, timetable.WriteTermWorkbook(term, &buf))
+		got, ps, err := timetable.ReadWorkbook(&buf, "fuzz.xlsx")
+		require.NoError(t, err)
+		require.Empty(t, ps, "problems:\n%s", ps)
+		assertSameTerm(t, term, got)
+
+		dir := t.TempDir()
+		require.NoError(t, timetable.WriteTermCSV(term, dir))
+		got, ps, err = timetable.ReadCSVDir(dir)
+		require.NoError(t, err)
+		require.Empty(t, ps, "problems:\n%s", ps)
+		assertSameTerm(t, term, got)
+	})
 }
