@@ -50,14 +50,12 @@ func TimeCost(t *timetable.Term, s, kept *timetable.Schedule) timetable.CostRepo
 }
 
 // patternUngated are the criteria the third gate leaves out on terms with
-// pattern sections: the engine does not write their pattern part (student
-// clashes of pattern sections). Every other criterion is encoded exactly
+// pattern sections: none since the encoder writes the student clashes of
+// pattern sections (soft_students.go). Every criterion is encoded exactly
 // for pattern sections (time and room choice, avoid times, seats, moved
 // meetings, soft relations: times_rel*.go, rows encoded by a surrogate
-// left out by exactTerm) or counts grid meetings only. On such terms the engine's bound
-// covers the gated criteria; the cost reported is always timetable.Cost of
-// the written timetable.
-var patternUngated = []string{timetable.CritStudentClash}
+// left out by exactTerm, student clashes) or counts grid meetings only.
+var patternUngated []string
 
 // EngineCost returns the cost of model under the weak constraints the soft
 // criteria wrote into p, per criterion (indexed like timetable.Criteria).

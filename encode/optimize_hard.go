@@ -52,6 +52,9 @@ func (c *Catalog) HardProgram(p *solver.Program) *solver.Program {
 // the gates. Room problems become cuts and the search goes on. It sets the
 // result's status when there is no timetable.
 func (o *optRun) first() error {
+	if ok, err := o.startFrom(); err != nil || ok {
+		return err
+	}
 	st, _, err := o.h.Find(o.ctx, nil, func(ctx context.Context, hard []solver.Atom) error {
 		var assume []solver.Lit
 		for _, a := range hard {

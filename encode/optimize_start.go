@@ -44,3 +44,33 @@ func (c *Catalog) startAtoms(s *timetable.Schedule) []solver.Atom {
 	}
 	return out
 }
+
+// startFrom makes the warm start (OptimizeOptions.Start) the first
+// timetable when the whole program has a model with its decisions: the
+// engine completes it under those assumptions and the model goes through
+// the gates. It reports false, with nothing kept, when the start is not a
+// timetable of this term, or its rooms need a cut (the search for a first
+// timetable then runs as usual, the start's places tried first).
+func (o *optRun) startFrom() (bool, error) {
+	assume := o.cat.startAtoms(o.opt.Start)
+	if len(assume) == 0 {
+		return false, nil
+	}
+	lits := make([]solver.Lit, len(assume))
+	for i, a := range assume {
+		lits[i] = solver.Pos(a)
+	}
+	st, err := o.x.Solve(o.ctx, lits...)
+	if err != nil || st != solver.Satisfiable {
+		return false, err
+	}
+	c, err := o.evaluate(o.x.Model())
+	if err != nil {
+		if o.x.Cut(err) || o.ctx.Err() != nil {
+			return false, nil
+		}
+		return false, err
+	}
+	o.accept(c)
+	return true, nil
+}

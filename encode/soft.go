@@ -70,6 +70,7 @@ func (b *builder) compileSoft() {
 	b.in(-1, "soft")
 	sb.keepMeetings()
 	sb.studentClashes()
+	sb.patternStudentClashes() // soft_students.go
 	sb.avoidTimes()
 	sb.staffCriteria()
 	sb.cohortCriteria()

@@ -2,6 +2,7 @@ package planning
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"slices"
 	"strings"
@@ -17,6 +18,16 @@ import (
 // optimiseShare, the sectioner the rest (and whatever the optimiser leaves).
 const optimiseShare = 0.75
 
+// firstRoundWeight shortens the first round's optimisation: it sees no
+// sectioned students, so time spent polishing its timetable is mostly
+// lost once they are seated (on one shared instance the first round's
+// student clashes were 97% of its cost).
+const firstRoundWeight = 0.4
+
+// onlyRoundShare is the optimiser's share without rounds (Options.Rounds
+// negative): the sectioner runs once.
+const onlyRoundShare = 0.9
+
 // planned is one sectioned timetable of the loop.
 type planned struct {
 	res   *encode.OptimizeResult // the optimiser's result on the working term
@@ -24,6 +35,9 @@ type planned struct {
 	sched *timetable.Schedule // res.Schedule with sec's students
 	cost  timetable.CostReport
 	total []int64 // cost.ByLevel per level of levels
+	// sameSeating: the round kept the seating it started from, which cost
+	// less on its timetable than seating the students again.
+	sameSeating bool
 }
 
 // loop is the state of one Plan call on a term with requests.
@@ -35,23 +49,24 @@ type loop struct {
 	best   *planned
 	rounds []Round
 	bound  []int64 // per level of levels: what the first round proved
+	start  time.Time
 }
 
 func planWithRequests(ctx context.Context, t *timetable.Term, opt Options) (*Result, error) {
-	l := &loop{ctx: ctx, t: t, opt: opt, levels: termLevels(t)}
+	l := &loop{ctx: ctx, t: t, opt: opt, levels: termLevels(t), start: time.Now()}
 	rounds := opt.Rounds
 	if rounds == 0 {
 		rounds = DefaultRounds
 	}
 	rounds = max(rounds, 0)
 	first, err := l.round(0, rounds+1, nil)
-	if err != nil || first == nil {
+	if err != nil || first.sched == nil {
 		return l.result(first, err)
 	}
 	l.bound = l.levelBound(first.res)
 	l.keep(first)
-	for r := 1; r <= rounds && ctx.Err() == nil; r++ {
-		p, err := l.round(r, rounds+1-r, l.best)
+	for r := 1; ctx.Err() == nil && (r <= rounds || opt.Rounds >= 0 && l.timeForMore()); r++ {
+		p, err := l.round(r, max(rounds+1-r, 1), l.best)
 		if err != nil {
 			return nil, err
 		}
@@ -63,21 +78,23 @@ func planWithRequests(ctx context.Context, t *timetable.Term, opt Options) (*Res
 	return l.result(nil, nil)
 }
 
+// timeForMore reports whether ctx has a deadline and more than
+// extraRoundShare of Plan's time is left after the planned rounds: the
+// loop then goes on with more rounds.
+func (l *loop) timeForMore() bool {
+	end, timed := l.ctx.Deadline()
+	return timed && time.Until(end) > time.Duration(extraRoundShare*float64(end.Sub(l.start)))
+}
+
+// extraRoundShare is the share of Plan's time that must be left for a
+// round beyond Options.Rounds.
+const extraRoundShare = 0.1
+
 // round optimises the timetable on the working term (with from's seated
 // students as fixed, none in the first round) and seats the students in
 // it; left counts this round and those after it, which share the time
 // left. A nil result means the optimiser found no timetable.
 func (l *loop) round(r, left int, from *planned) (*planned, error) {
-	end, timed := l.ctx.Deadline()
-	octx, sctx := l.ctx, l.ctx
-	if timed {
-		span := time.Until(end) / time.Duration(left)
-		var c1, c2 context.CancelFunc
-		octx, c1 = context.WithTimeout(l.ctx, time.Duration(optimiseShare*float64(span)))
-		defer c1()
-		sctx, c2 = context.WithTimeout(l.ctx, span)
-		defer c2()
-	}
 	var seated []timetable.Enrolment
 	o := l.opt.OptimizeOptions
 	o.Keep = workingKeep(o.Keep)
@@ -86,8 +103,10 @@ func (l *loop) round(r, left int, from *planned) (*planned, error) {
 		seated = from.sec.Enrolments
 		o.Start = from.res.Schedule
 	}
+	octx, stop := l.optimiseCtx(&o, left, r == 0)
 	work := workingTerm(l.t, seated)
 	res, err := encode.OptimizePortfolio(octx, work, o, max(l.opt.Threads, 1))
+	stop()
 	if err != nil {
 		return nil, err
 	}
@@ -97,11 +116,67 @@ func (l *loop) round(r, left int, from *planned) (*planned, error) {
 		}
 		return nil, nil
 	}
+	sctx := l.ctx
+	if end, timed := l.ctx.Deadline(); timed {
+		var cancel context.CancelFunc
+		sctx, cancel = context.WithTimeout(l.ctx, time.Until(end)/time.Duration(left+1))
+		defer cancel()
+	}
 	sec, err := sectioning.Section(sctx, l.t, res.Schedule, sectioning.Options{Seed: l.opt.Seed, Keep: l.opt.Keep})
 	if err != nil {
 		return nil, err
 	}
-	return l.judge(res, sec)
+	p, err := l.judge(res, sec)
+	if err != nil || from == nil {
+		return p, err
+	}
+	// The timetable was optimised for the seating it started from, and
+	// that seating holds on it (the seating rule does not depend on
+	// times): it competes with the new one.
+	old, err := l.judge(res, from.sec)
+	if err != nil {
+		return nil, err
+	}
+	if slices.Compare(old.total, p.total) < 0 {
+		old.sameSeating = true
+		return old, nil
+	}
+	return p, nil
+}
+
+// optimiseCtx is the context of a round's optimisation: with a deadline,
+// it ends once the optimiser has a timetable and its share of the round
+// (optimiseShare of the time left over left rounds, less for the first)
+// is spent, so that a
+// slow first timetable is never thrown away; o's Progress is wrapped to
+// watch. stop releases it.
+func (l *loop) optimiseCtx(o *encode.OptimizeOptions, left int, first bool) (context.Context, func()) {
+	end, timed := l.ctx.Deadline()
+	if !timed {
+		return l.ctx, func() {}
+	}
+	ctx, cancel := context.WithCancel(l.ctx)
+	share := optimiseShare
+	switch {
+	case l.opt.Rounds < 0:
+		share = onlyRoundShare
+	case first:
+		share *= firstRoundWeight
+	}
+	due := time.Now().Add(time.Duration(share * float64(time.Until(end)) / float64(left)))
+	user := o.Progress
+	o.Progress = func(p encode.Progress) {
+		if user != nil {
+			user(p)
+		}
+		if p.Cost != nil && time.Now().After(due) {
+			cancel()
+		}
+	}
+	if o.ProgressEvery <= 0 || o.ProgressEvery > time.Second {
+		o.ProgressEvery = 250 * time.Millisecond
+	}
+	return ctx, cancel
 }
 
 // judge puts a sectioned timetable through timetable.Check on the term and
@@ -127,7 +202,8 @@ func (l *loop) judge(res *encode.OptimizeResult, sec *sectioning.Result) (*plann
 // keep records round p and makes it the best when its full cost is lower.
 func (l *loop) keep(p *planned) {
 	better := l.best == nil || slices.Compare(p.total, l.best.total) < 0
-	l.rounds = append(l.rounds, Round{Total: p.total, Clashes: p.cost.Criterion(timetable.CritStudentClash).Count, Kept: better})
+	l.rounds = append(l.rounds, Round{Total: p.total, Clashes: p.cost.Criterion(timetable.CritStudentClash).Count,
+		Kept: better, At: time.Since(l.start), SameSeating: p.sameSeating})
 	if better {
 		l.best = p
 	}
@@ -140,7 +216,7 @@ func (l *loop) result(first *planned, err error) (*Result, error) {
 		return nil, err
 	}
 	if l.best == nil {
-		return &Result{OptimizeResult: first.res, Rounds: l.rounds}, nil
+		return &Result{OptimizeResult: first.res}, nil
 	}
 	b := l.best
 	res := *b.res
@@ -151,8 +227,17 @@ func (l *loop) result(first *planned, err error) (*Result, error) {
 	res.Bound = l.bound
 	res.Proven = slices.Equal(res.Total, res.Bound)
 	res.TimeProven = slices.Equal(l.byLevel(encode.TimeCost(l.t, b.sched, l.opt.Keep)), res.Bound)
-	if res.Proven {
+	// The optimiser's reason is about its working copy of the term (an
+	// optimum there is none here): say why the loop ended instead.
+	switch {
+	case res.Proven:
 		res.Stopped = "optimal"
+	case errors.Is(l.ctx.Err(), context.DeadlineExceeded):
+		res.Stopped = "time limit"
+	case l.ctx.Err() != nil:
+		res.Stopped = "interrupted"
+	default:
+		res.Stopped = "rounds done"
 	}
 	return &Result{OptimizeResult: &res, Sectioning: b.sec, Rounds: l.rounds}, nil
 }

@@ -2,6 +2,7 @@ package planning
 
 import (
 	"context"
+	"time"
 
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/sectioning"
@@ -14,7 +15,9 @@ type Options struct {
 	Threads                int // parallel searches (encode.OptimizePortfolio); 0 means 1
 	// Rounds is the number of improvement rounds after the first
 	// sectioning (re-optimise the timetable for the seated students, seat
-	// them again); 0 means DefaultRounds, negative means none.
+	// them again); 0 means DefaultRounds, negative means none. With a
+	// deadline the rounds share the time, and more rounds follow while
+	// more than a tenth of Plan's time is left.
 	Rounds int
 }
 
@@ -33,6 +36,8 @@ const DefaultRounds = 3
 // the engine proved on the term with its fixed students only, which is a
 // bound on every level because seating students only adds cost, with 0 on
 // the levels only requests have; Proven is set only when Total meets it.
+// Stopped is "optimal" (Proven), "time limit", "interrupted" or "rounds
+// done" (the rounds ended by themselves).
 type Result struct {
 	*encode.OptimizeResult
 	Sectioning *sectioning.Result // nil when the term has no requests
@@ -42,9 +47,13 @@ type Result struct {
 // Round is one timetable of the planning loop and the full cost of its
 // sectioning.
 type Round struct {
-	Total   []int64 // timetable.Cost of the sectioned timetable per level of Result.Levels
-	Clashes int64   // its "student clashes" units
-	Kept    bool    // it became the best so far
+	Total   []int64       // timetable.Cost of the sectioned timetable per level of Result.Levels
+	Clashes int64         // its "student clashes" units
+	Kept    bool          // it became the best so far
+	At      time.Duration // when it was sectioned, from the start of Plan
+	// SameSeating: the round kept the seating it started from, which cost
+	// less on its new timetable than seating the students again.
+	SameSeating bool
 }
 
 // Plan finds the best timetable for t it can before ctx ends. Without

@@ -33,11 +33,15 @@ type XMLHard struct {
 	RoomClashes     int `json:"room_clashes"`     // pairs of classes in one room that overlap
 	RoomUnavailable int `json:"room_unavailable"` // classes meeting while their room is unavailable
 	Distributions   int `json:"relations"`        // broken required distributions
+	// Sectioning counts broken student rules (see sectioning): students
+	// not seated in a wanted course as the rules require, students in a
+	// class of a course they do not want, and students over a class's limit.
+	Sectioning int `json:"sectioning"`
 }
 
 // Total is the number of broken hard requirements.
 func (h XMLHard) Total() int {
-	return h.Unplaced + h.NotListed + h.RoomClashes + h.RoomUnavailable + h.Distributions
+	return h.Unplaced + h.NotListed + h.RoomClashes + h.RoomUnavailable + h.Distributions + h.Sectioning
 }
 
 // placed is one class's assignment as the evaluator sees it.
@@ -113,6 +117,7 @@ func evaluate(in *XMLInstance, sol *XMLSolution) *evaluation {
 	e.rooms()
 	e.distributions()
 	e.students(sol)
+	e.sectioning(sol)
 	return e
 }
 

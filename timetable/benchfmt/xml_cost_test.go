@@ -133,9 +133,11 @@ func TestXMLHardAndPenalties(t *testing.T) {
 		// both in room 2 (a pays 7), 100-110 and 105-115 in week 2: one clash; b's time pays 1.
 		{"room clash", []XMLAssignment{as("a", 0, "2"), as("b", 0, "2")}, XMLParts{Time: 1, Room: 7}, XMLHard{RoomClashes: 1}},
 		// same times in different rooms: no clash; a student in both overlaps: one conflict.
-		{"student overlap", []XMLAssignment{as("a", 0, "1", "s1", "s2"), as("b", 0, "2", "s1")}, XMLParts{Time: 1, Student: 1}, XMLHard{}},
+		// (The instance has no students: each of the 3 listings breaks the
+		// student rules, see TestXMLSectioningRules.)
+		{"student overlap", []XMLAssignment{as("a", 0, "1", "s1", "s2"), as("b", 0, "2", "s1")}, XMLParts{Time: 1, Student: 1}, XMLHard{Sectioning: 3}},
 		// 100-110 in room 1 then 112 in room 2: 2 slots < travel 4: a conflict per student.
-		{"student travel", []XMLAssignment{as("a", 0, "1", "s1", "s2"), as("b", 1, "2", "s1", "s2")}, XMLParts{Student: 2}, XMLHard{}},
+		{"student travel", []XMLAssignment{as("a", 0, "1", "s1", "s2"), as("b", 1, "2", "s1", "s2")}, XMLParts{Student: 2}, XMLHard{Sectioning: 4}},
 		// b missing; a in a room it does not list.
 		{"unplaced and not listed", []XMLAssignment{{Class: "a", Days: 1, Start: 100, Weeks: 2, Room: "3"}}, XMLParts{}, XMLHard{Unplaced: 1, NotListed: 1}},
 		// a at a time it does not list.

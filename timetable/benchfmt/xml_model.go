@@ -12,9 +12,8 @@ package benchfmt
 // they want. Days and weeks are bit strings, the first character being the
 // first day (Monday) or the first week.
 
-// XMLInstance is one ITC-2019 instance as read, kept whole: the course
-// structure and the students are side data for sectioning (not yet mapped
-// into a Term).
+// XMLInstance is one ITC-2019 instance as read, kept whole (Term maps it,
+// course structure and students included).
 type XMLInstance struct {
 	Name          string
 	Days          int // days per week (bit string length), 1..7
@@ -118,6 +117,7 @@ type XMLDistribution struct {
 type XMLStudent struct {
 	ID      string
 	Courses []string
+	Line    int
 }
 
 // xmlKinds gives the number of parameters of every distribution type.

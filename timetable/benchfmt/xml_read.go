@@ -281,7 +281,7 @@ func (x *xmlReader) start(t xml.StartElement) {
 		x.startDistribution(a)
 	case "student":
 		a := x.attrs(t, "a student")
-		in.Students = append(in.Students, XMLStudent{ID: a.id("id", "id")})
+		in.Students = append(in.Students, XMLStudent{ID: a.id("id", "id"), Line: x.line})
 		x.student = &in.Students[len(in.Students)-1]
 	}
 }
@@ -362,9 +362,12 @@ func (x *xmlReader) check() {
 		}
 		classes[c.ID] = true
 	}
+	where := in.classIndex()
 	for _, c := range in.Classes {
 		if c.Parent != "" && !classes[c.Parent] {
 			x.errs.add(c.Line, fmt.Sprintf("class %s has parent %s, which is not given; correct the parent", strconv.Quote(clip(c.ID)), strconv.Quote(clip(c.Parent))))
+		} else if p := in.Classes[where[c.Parent]]; c.Parent != "" && (p.Course != c.Course || p.Config != c.Config || p.Subpart == c.Subpart) {
+			x.errs.add(c.Line, fmt.Sprintf("class %s has parent %s, which is not of another part of its configuration; correct the parent", strconv.Quote(clip(c.ID)), strconv.Quote(clip(c.Parent))))
 		}
 		for _, rc := range c.Rooms {
 			if !rooms[rc.Room] {
@@ -375,11 +378,38 @@ func (x *xmlReader) check() {
 			x.errs.add(c.Line, fmt.Sprintf("class %s takes no room but lists rooms; remove one or the other", strconv.Quote(clip(c.ID))))
 		}
 	}
+	x.checkStudents()
 	for _, d := range in.Distributions {
 		for _, id := range d.Classes {
 			if !classes[id] {
 				x.errs.add(d.Line, fmt.Sprintf("a constraint names class %s, which is not given; correct the class", strconv.Quote(clip(id))))
 			}
+		}
+	}
+}
+
+// checkStudents checks that every student is given once and wants only
+// courses that are given, each once.
+func (x *xmlReader) checkStudents() {
+	courses := map[string]bool{}
+	for _, c := range x.in.Courses {
+		courses[c.ID] = true
+	}
+	students := map[string]bool{}
+	for _, st := range x.in.Students {
+		if students[st.ID] {
+			x.errs.add(st.Line, fmt.Sprintf("student %s is given twice; give each student once", strconv.Quote(clip(st.ID))))
+		}
+		students[st.ID] = true
+		wants := map[string]bool{}
+		for _, c := range st.Courses {
+			switch {
+			case !courses[c]:
+				x.errs.add(st.Line, fmt.Sprintf("student %s wants course %s, which is not given; correct the course", strconv.Quote(clip(st.ID)), strconv.Quote(clip(c))))
+			case wants[c]:
+				x.errs.add(st.Line, fmt.Sprintf("student %s wants course %s twice; give it once", strconv.Quote(clip(st.ID)), strconv.Quote(clip(c))))
+			}
+			wants[c] = true
 		}
 	}
 }

@@ -108,7 +108,7 @@ func TestXMLTermMapping(t *testing.T) {
 	for _, c := range timetable.Criteria {
 		want := 0
 		switch c.Name {
-		case timetable.CritTimeChoice, timetable.CritRoomChoice, timetable.CritSoftRelations:
+		case timetable.CritTimeChoice, timetable.CritRoomChoice, timetable.CritSoftRelations, timetable.CritStudentClash, timetable.CritUnplaced:
 			want = 1
 		}
 		w, _ := term.CriterionWeight(c.Name)
@@ -144,6 +144,10 @@ func TestReadXMLErrors(t *testing.T) {
 		{"unknown class", head + `<distributions><distribution type="SameRoom" required="true"><class id="7"/></distribution></distributions></problem>`, `names class "7", which is not given`},
 		{"stray text", head + "words</problem>", `text "words" stands outside any attribute`},
 		{"two rooms", head + `<rooms><room id="1" capacity="1"/><room id="1" capacity="2"/></rooms></problem>`, `room "1" is given twice`},
+		{"unknown course", head + `<students><student id="5"><course id="9"/></student></students></problem>`, `p.xml:2: student "5" wants course "9", which is not given`},
+		{"course twice", strings.TrimSuffix(class("", okTime), "</problem>") + `<students><student id="5"><course id="1"/><course id="1"/></student></students></problem>`, `student "5" wants course "1" twice`},
+		{"student twice", head + `<students><student id="5"/><student id="5"/></students></problem>`, `student "5" is given twice`},
+		{"parent same part", class(` parent="1"`, okTime), `class "1" has parent "1", which is not of another part of its configuration`},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -166,4 +170,60 @@ func TestReadXMLByteOrderMark(t *testing.T) {
 	without, err := ReadXML(strings.NewReader(strings.TrimPrefix(src, "\ufeff")), "b.xml")
 	require.NoError(t, err)
 	assert.Equal(t, with, without)
+}
+
+// courseXML is a hand-made instance with course A in two configurations
+// (config 1: a lecture subpart with classes 1, 2 and a lab subpart with
+// classes 3, 4 whose parents are 1 and 2; config 2: one class 5) and
+// course B with one class 6, and students 7 (A, B), 8 (B) and 9 (A).
+// Student weight 4.
+const courseXML = `<problem name="c" nrDays="5" slotsPerDay="288" nrWeeks="1">
+<optimization time="1" room="1" distribution="1" student="4"/>
+<courses>
+<course id="A"><config id="1"><subpart id="L">
+<class id="1" limit="30" room="false"><time days="10000" start="100" length="10" weeks="1"/></class>
+<class id="2" limit="30" room="false"><time days="01000" start="100" length="10" weeks="1"/></class>
+</subpart><subpart id="P">
+<class id="3" limit="12" parent="1" room="false"><time days="00100" start="100" length="10" weeks="1"/></class>
+<class id="4" limit="12" parent="2" room="false"><time days="00010" start="100" length="10" weeks="1"/></class>
+</subpart></config><config id="2"><subpart id="X">
+<class id="5" limit="1" room="false"><time days="00001" start="100" length="10" weeks="1"/></class>
+</subpart></config></course>
+<course id="B"><config id="3"><subpart id="Y">
+<class id="6" limit="20" room="false"><time days="10000" start="200" length="10" weeks="1"/></class>
+</subpart></config></course>
+</courses>
+<students><student id="7"><course id="A"/><course id="B"/></student><student id="8"><course id="B"/></student><student id="9"><course id="A"/></student></students>
+</problem>`
+
+// TestXMLTermCourses checks the course structure and the students in the
+// mapped term: course, configuration, subpart, parent and limit per
+// section, Term.Courses as the instance lists them, one request per
+// wanted course, and the student weight on "student clashes".
+func TestXMLTermCourses(t *testing.T) {
+	in := readHand(t, courseXML)
+	term := in.Term()
+	type sec struct {
+		course, arr, part, parent string
+		limit                     int
+	}
+	var got []sec
+	for _, s := range term.Sections {
+		got = append(got, sec{s.Course, s.Arrangement, s.Part, s.Parent, s.Limit})
+	}
+	assert.Equal(t, []sec{
+		{"A", "1", "L", "", 30}, {"A", "1", "L", "", 30}, {"A", "1", "P", "1", 12}, {"A", "1", "P", "2", 12},
+		{"A", "2", "X", "", 1}, {"B", "3", "Y", "", 20},
+	}, got)
+	assert.Equal(t, []timetable.Course{
+		{ID: "A", Arrangements: []timetable.Arrangement{
+			{ID: "1", Parts: []timetable.Part{{ID: "L", Sections: []int{0, 1}}, {ID: "P", Sections: []int{2, 3}}}},
+			{ID: "2", Parts: []timetable.Part{{ID: "X", Sections: []int{4}}}},
+		}},
+		{ID: "B", Arrangements: []timetable.Arrangement{{ID: "3", Parts: []timetable.Part{{ID: "Y", Sections: []int{5}}}}}},
+	}, term.Courses())
+	assert.Equal(t, []timetable.Request{{Student: "7", Course: "A"}, {Student: "7", Course: "B"}, {Student: "8", Course: "B"}, {Student: "9", Course: "A"}}, term.Requests)
+	w, _ := term.CriterionWeight(timetable.CritStudentClash)
+	assert.Equal(t, 4, w)
+	assert.Equal(t, 12, term.SectionLimit(2))
 }

@@ -57,8 +57,10 @@ func bitString(b uint64, n int) string {
 }
 
 // XMLSolutionOf turns a timetable of in.Term() into the competition's
-// terms: one assignment per placed class, its chosen time and room. It
-// fails when a placement does not name a class and one of its times.
+// terms: one assignment per placed class, its chosen time and room, and
+// its students from s.Enrolments (in their order there). It fails when a
+// placement does not name a class and one of its times, or an enrolment
+// names a class that is not placed.
 func XMLSolutionOf(in *XMLInstance, s *timetable.Schedule, info XMLRunInfo) (*XMLSolution, error) {
 	idx := in.classIndex()
 	sol := &XMLSolution{Name: in.Name, Info: info}
@@ -78,6 +80,20 @@ func XMLSolutionOf(in *XMLInstance, s *timetable.Schedule, info XMLRunInfo) (*XM
 		seen[c.ID] = true
 		tm := c.Times[p.Time-1]
 		sol.Classes = append(sol.Classes, XMLAssignment{Class: c.ID, Days: tm.Days, Start: tm.Start, Weeks: tm.Weeks, Room: p.Room})
+	}
+	if len(s.Enrolments) == 0 {
+		return sol, nil
+	}
+	at := make(map[string]int, len(sol.Classes))
+	for i, a := range sol.Classes {
+		at[a.Class] = i
+	}
+	for _, e := range s.Enrolments {
+		i, ok := at[e.Section]
+		if !ok {
+			return nil, fmt.Errorf("student %q is enrolled in section %q, which is no placed class of instance %s", e.Student, e.Section, in.Name)
+		}
+		sol.Classes[i].Students = append(sol.Classes[i].Students, e.Student)
 	}
 	return sol, nil
 }
@@ -186,8 +202,9 @@ func ReadXMLSolution(r io.Reader, name string, in *XMLInstance) (*XMLSolution, e
 }
 
 // Schedule turns a solution into a timetable of in.Term(): each assignment
-// becomes the placement of its class at the matching time choice. It fails
-// when a class's time is not one of its listed times.
+// becomes the placement of its class at the matching time choice, and each
+// of its students an enrolment (Schedule.Enrolments, in solution order).
+// It fails when a class's time is not one of its listed times.
 func (sol *XMLSolution) Schedule(in *XMLInstance) (*timetable.Schedule, error) {
 	idx := in.classIndex()
 	s := &timetable.Schedule{}
@@ -201,6 +218,9 @@ func (sol *XMLSolution) Schedule(in *XMLInstance) (*timetable.Schedule, error) {
 			return nil, fmt.Errorf("class %q meets at a time it does not list (line %d)", a.Class, a.Line)
 		}
 		s.Placements = append(s.Placements, timetable.Placement{Section: a.Class, Meeting: 1, Period: -1, Time: k + 1, Room: a.Room})
+		for _, st := range a.Students {
+			s.Enrolments = append(s.Enrolments, timetable.Enrolment{Student: st, Section: a.Class})
+		}
 	}
 	return s, nil
 }

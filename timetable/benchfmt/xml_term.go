@@ -60,7 +60,17 @@ func xmlDaySet(days uint8) timetable.DaySet {
 // kinds and every required one as one relation over all its classes); the
 // weights become the criteria "time choice", "room choice" and "soft
 // relations", every other criterion 0. The term has TeachingWeeks() equal
-// to the instance's weeks. Students are not sectioned (no enrolments).
+// to the instance's weeks.
+//
+// Courses and students: each class's section names its course (Course, the
+// course ID), its configuration (Arrangement, the configuration ID), its
+// subpart (Part, the subpart ID), its parent class (Parent) and its limit
+// (Limit, the class limit); each student's course list becomes one Request
+// per course (no alternatives, Priority 0), the student ID kept as text.
+// The student part's weight goes to "student clashes" (the criterion and
+// the rules count alike: 1 per student per pair of classes that overlap or
+// leave too little travel time); "unplaced requests" stays on, above every
+// other criterion, because the rules require every student placed.
 //
 // Capacity: the rules list every acceptable room explicitly and do not
 // check capacity, while our capacity is hard; a section's Size is its
@@ -98,7 +108,26 @@ func (in *XMLInstance) Term() *timetable.Term {
 	for _, d := range in.Distributions {
 		t.Relations = append(t.Relations, xmlRelations(d)...)
 	}
+	t.Requests = xmlRequests(in.Students)
 	return t
+}
+
+// xmlRequests gives one request per student and course, in file order.
+func xmlRequests(students []XMLStudent) []timetable.Request {
+	n := 0
+	for _, st := range students {
+		n += len(st.Courses)
+	}
+	if n == 0 {
+		return nil
+	}
+	out := make([]timetable.Request, 0, n)
+	for _, st := range students {
+		for _, c := range st.Courses {
+			out = append(out, timetable.Request{Student: st.ID, Course: c})
+		}
+	}
+	return out
 }
 
 // xmlWeights sets the three mapped criteria and zeroes every other one.
@@ -110,6 +139,8 @@ func xmlWeights(w XMLWeights) map[string]timetable.Weight {
 	m[timetable.CritTimeChoice] = timetable.Weight{Weight: w.Time, Level: 1}
 	m[timetable.CritRoomChoice] = timetable.Weight{Weight: w.Room, Level: 1}
 	m[timetable.CritSoftRelations] = timetable.Weight{Weight: w.Distribution, Level: 1}
+	m[timetable.CritStudentClash] = timetable.Weight{Weight: w.Student, Level: 1}
+	m[timetable.CritUnplaced] = timetable.Weight{Weight: 1, Level: 4}
 	return m
 }
 
@@ -143,6 +174,7 @@ func xmlSection(c XMLClass, caps map[string]int, all timetable.WeekSet) timetabl
 	s := timetable.Section{
 		ID: c.ID, Title: "course " + c.Course, Size: c.Limit,
 		Meetings: 1, Length: 1, Weeks: all, NoRoom: c.NoRoom || len(c.Rooms) == 0,
+		Course: c.Course, Arrangement: c.Config, Part: c.Subpart, Parent: c.Parent, Limit: c.Limit,
 	}
 	for _, rc := range c.Rooms {
 		s.RoomChoices = append(s.RoomChoices, timetable.RoomChoice{Room: rc.Room, Weight: rc.Penalty})
