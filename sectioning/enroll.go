@@ -1,6 +1,9 @@
 package sectioning
 
-import "sort"
+import (
+	"cmp"
+	"slices"
+)
 
 // An enrollment of a student in a course is one arrangement and one
 // section of each of its parts, every held section's parent held too.
@@ -18,7 +21,10 @@ type query struct {
 	others []int32 // the student's sections outside r (see problem.others)
 	own    []int32 // sections r holds now: they have room for it
 	pass   int32   // a full section treated as having room (-1 none)
-	banned []bool  // sections not to use (nil: none)
+	// passAll treats every section as having room (eject.go then makes
+	// room in the full ones).
+	passAll bool
+	banned  []bool // sections not to use (nil: none)
 }
 
 // enrollment is a found enrollment.
@@ -59,7 +65,7 @@ func newSearcher(p *problem) *searcher { return &searcher{p: p} }
 // hasRoom reports whether section x can take the query's student.
 func (s *searcher) hasRoom(x int32) bool {
 	q := s.q
-	if x == q.pass {
+	if x == q.pass || q.passAll {
 		return true
 	}
 	for _, y := range q.own {
@@ -140,12 +146,7 @@ func (s *searcher) searchArr(ai int32) {
 				}
 				cs = append(cs, cand{sec: x, cost: c})
 			}
-			sort.Slice(cs, func(i, j int) bool {
-				if cs[i].cost != cs[j].cost {
-					return cs[i].cost < cs[j].cost
-				}
-				return cs[i].sec < cs[j].sec
-			})
+			slices.SortFunc(cs, candOrder)
 		}
 		if len(cs) == 0 {
 			s.parts[pos] = cs
@@ -257,4 +258,12 @@ func (s *searcher) record(score int64) {
 		}
 	}
 	s.best.cost = score - fill
+}
+
+// candOrder sorts candidates cheapest first, then by section.
+func candOrder(a, b cand) int {
+	if a.cost != b.cost {
+		return cmp.Compare(a.cost, b.cost)
+	}
+	return cmp.Compare(a.sec, b.sec)
 }

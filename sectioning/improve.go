@@ -7,13 +7,15 @@ import (
 
 // Iterative improvement after the first seating, in rounds until a round
 // changes nothing or ctx ends:
-//   - unplaced requests are tried again (with repair): moves of the round
-//     before may have opened a seat;
-//   - a request met by an alternative moves to an earlier option with room;
-//   - every placed request, in seeded random order, moves to its cheapest
-//     enrollment with room in its course when that is strictly cheaper
-//     (moved students and clashes, score.go) — the change in cost is
-//     evaluated from the student's own sections only;
+//   - unplaced requests are tried again (with repair) when a section of
+//     one of their courses has opened since they last failed;
+//   - a request met by an alternative moves to an earlier option that has
+//     room;
+//   - student moves (student.go): each student, in seeded random order,
+//     is re-seated in all their placed courses at once when that is
+//     strictly cheaper (moved students and clashes, score.go); a student
+//     is looked at again only when their seating changed or a section
+//     that was full for them has room (watch);
 //   - two students of one course swap enrollments when that lowers their
 //     summed cost (limits are unaffected by a swap).
 // Every step lowers the objective strictly, so the rounds end.
@@ -24,53 +26,94 @@ func (p *problem) enrollCost(r int32, secs, others []int32) int64 {
 	return p.enrollCostIn(r, p.course(r), secs, others)
 }
 
-// improve runs the rounds. A request is looked at again only when
-// something it depends on changed since it last failed to improve: its
-// student's seating, or room in its course (state's change counters).
+// watch remembers, per student, what their last complete search saw: the
+// student's change counter and the sections of their courses that were
+// full (other than their own). Nothing else can make a student move pay.
+type watch struct {
+	ver  []uint32
+	full [][]int32
+}
+
+// fired reports whether student k must be searched again.
+func (p *problem) fired(w *watch, k int32) bool {
+	if w.ver[k] != p.st.studentVer[k] {
+		return true
+	}
+	for _, x := range w.full[k] {
+		if p.st.load[x] < p.limit[x] {
+			return true
+		}
+	}
+	return false
+}
+
+// remember records student k's state after a complete search over the
+// sections univ.
+func (p *problem) remember(w *watch, k int32, univ []int32) {
+	w.ver[k] = p.st.studentVer[k]
+	w.full[k] = w.full[k][:0]
+	for _, x := range univ {
+		if p.st.load[x] >= p.limit[x] && !p.holds(k, x) {
+			w.full[k] = append(w.full[k], x)
+		}
+	}
+}
+
+// holds reports whether student k is seated in or fixed to section x.
+func (p *problem) holds(k, x int32) bool {
+	for _, r := range p.students[k].reqs {
+		if contains(p.st.secs[r], x) {
+			return true
+		}
+	}
+	return p.isFixed(k, x)
+}
+
+// improve runs the rounds.
 func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng *rand.Rand) {
 	order := make([]int32, len(p.reqs))
 	for i := range order {
 		order[i] = int32(i)
 	}
-	seen := make([]uint64, len(p.reqs)) // version key + 1 at the last failed look; 0 none
-	var others []int32
+	seen := make([]uint64, len(p.reqs)) // unplaced or by alternative: version key + 1 at the last failed try
+	students := make([]int32, len(p.students))
+	for i := range students {
+		students[i] = int32(i)
+	}
+	w := &watch{ver: make([]uint32, len(p.students)), full: make([][]int32, len(p.students))}
+	ss := &studentSearch{}
 	for ctx.Err() == nil {
 		changed := false
 		for _, r := range order {
-			if p.st.opt[r] >= 0 {
-				continue
-			}
-			if key := p.unplacedKey(r) + 1; seen[r] != key {
-				if rep.repair(r) {
-					changed = true
-				} else {
-					seen[r] = p.unplacedKey(r) + 1
-				}
-			}
-		}
-		rng.Shuffle(len(order), func(i, j int) { order[i], order[j] = order[j], order[i] })
-		for n, r := range order {
-			if n%256 == 0 && ctx.Err() != nil {
-				return
-			}
 			o := p.st.opt[r]
-			if o < 0 {
+			if o == 0 {
 				continue
 			}
-			key := p.placedKey(r) + 1
+			key := p.optionsKey(r, o) + 1
 			if seen[r] == key {
 				continue
 			}
-			if o > 0 && p.placeBest(sr, r, int(o)) {
-				changed = true
-				continue
-			}
-			if p.moveBetter(sr, r, &others) {
+			if o < 0 && rep.repair(r) || o > 0 && p.placeBest(sr, r, int(o)) {
 				changed = true
 			} else {
-				seen[r] = p.placedKey(r) + 1
+				seen[r] = p.optionsKey(r, p.st.opt[r]) + 1
 			}
 		}
+		rng.Shuffle(len(students), func(i, j int) { students[i], students[j] = students[j], students[i] })
+		for n, k := range students {
+			if n%256 == 0 && ctx.Err() != nil {
+				return
+			}
+			if !p.fired(w, k) {
+				continue
+			}
+			if p.improveStudent(ss, k) {
+				changed = true
+			}
+			// a search of unchanged inputs finds the same (budget or not)
+			p.remember(w, k, ss.univ)
+		}
+		rng.Shuffle(len(order), func(i, j int) { order[i], order[j] = order[j], order[i] })
 		if p.swapRound(ctx, rng, order) {
 			changed = true
 		}
@@ -80,41 +123,17 @@ func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng 
 	}
 }
 
-// placedKey is the version of what a placed request's best move depends
-// on: its student's seating and room in its course.
-func (p *problem) placedKey(r int32) uint64 {
-	return uint64(p.st.courseVer[p.course(r)])<<32 | uint64(p.st.studentVer[p.reqs[r].student])
-}
-
-// unplacedKey is the version for an unplaced request: room in any of its
-// courses (summed) and its student's seating.
-func (p *problem) unplacedKey(r int32) uint64 {
+// optionsKey is the version of what seating request r in an option
+// before o (all options when o < 0) depends on: openings of sections in
+// those courses, and the student's seating.
+func (p *problem) optionsKey(r, o int32) uint64 {
 	var v uint32
-	for _, c := range p.reqs[r].options {
-		if c >= 0 {
+	for i, c := range p.reqs[r].options {
+		if c >= 0 && (o < 0 || int32(i) < o) {
 			v += p.st.courseVer[c]
 		}
 	}
 	return uint64(v)<<32 | uint64(p.st.studentVer[p.reqs[r].student])
-}
-
-// moveBetter moves placed request r to its cheapest enrollment with room
-// in the same course when that is strictly cheaper.
-func (p *problem) moveBetter(sr *searcher, r int32, others *[]int32) bool {
-	k := p.reqs[r].student
-	c := p.course(r)
-	*others = p.others(k, r, *others)
-	cur := p.enrollCost(r, p.st.secs[r], *others)
-	if cur == 0 {
-		return false
-	}
-	q := query{r: r, k: k, c: c, others: *others, own: p.st.secs[r], pass: -1}
-	e, ok := sr.find(&q)
-	if !ok || e.cost >= cur {
-		return false
-	}
-	p.seat(r, p.st.opt[r], e.secs)
-	return true
 }
 
 // swapTries is how many partners of one course each request tries per round.
@@ -140,9 +159,13 @@ func (p *problem) swapRound(ctx context.Context, rng *rand.Rand, order []int32) 
 			continue
 		}
 		ka := p.reqs[a].student
+		if p.st.studentVer[ka] == p.st.zeroAt[a] {
+			continue // known to cost nothing
+		}
 		oa = p.others(ka, a, oa)
 		curA := p.enrollCost(a, p.st.secs[a], oa)
 		if curA == 0 {
+			p.st.zeroAt[a] = p.st.studentVer[ka]
 			continue
 		}
 		for range swapTries {

@@ -11,9 +11,13 @@ type state struct {
 	holders [][]int32 // section -> requests seated in it
 	// Change counters for skipping work that cannot pay: a student's
 	// counter grows whenever their seating changes, a course's whenever
-	// one of its sections loses a student (gains room).
+	// one of its full sections loses a student (opens).
 	studentVer []uint32
 	courseVer  []uint32
+	opened     []uint32 // section -> times it went from full to having room
+	// zeroAt[r] is the student's counter at which request r was last seen
+	// to cost nothing (0: never; counters start at 1).
+	zeroAt []uint32
 }
 
 func newState(p *problem) state {
@@ -25,6 +29,11 @@ func newState(p *problem) state {
 
 		studentVer: make([]uint32, len(p.students)),
 		courseVer:  make([]uint32, len(p.courses)),
+		zeroAt:     make([]uint32, len(p.reqs)),
+		opened:     make([]uint32, len(p.t.Sections)),
+	}
+	for i := range st.studentVer {
+		st.studentVer[i] = 1
 	}
 	for i := range st.opt {
 		st.opt[i] = -1
@@ -54,8 +63,11 @@ func (p *problem) unseat(r int32) {
 		return
 	}
 	st.studentVer[p.reqs[r].student]++
-	st.courseVer[p.reqs[r].options[st.opt[r]]]++
 	for _, x := range st.secs[r] {
+		if st.load[x] == p.limit[x] {
+			st.opened[x]++
+			st.courseVer[p.secCourse[x]]++
+		}
 		st.load[x]--
 		h := st.holders[x]
 		for i, q := range h {

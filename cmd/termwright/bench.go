@@ -19,6 +19,7 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/planning"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 	"github.com/termwright/termwright/timetable/benchfmt"
@@ -38,10 +39,15 @@ type benchOptions struct {
 	force     bool          // replace existing .sol files
 }
 
-// benchSolve is the pipeline under measurement — the same optimisation as
-// solve, cut off by the instance's time limit; tests replace it.
+// benchSolve is the pipeline under measurement — planning.Plan, the same
+// timetabling and student sectioning as solve, cut off by the instance's
+// time limit; the schedule carries the sectioned students. Tests replace it.
 var benchSolve = func(ctx context.Context, t *timetable.Term, seed int64, threads int) (*encode.OptimizeResult, error) {
-	return encode.OptimizePortfolio(ctx, t, encode.OptimizeOptions{Seed: seed}, threads)
+	res, err := planning.Plan(ctx, t, planning.Options{OptimizeOptions: encode.OptimizeOptions{Seed: seed}, Threads: threads})
+	if res == nil {
+		return nil, err
+	}
+	return res.OptimizeResult, err
 }
 
 func newBenchCmd(e *env) *cobra.Command {
@@ -62,13 +68,18 @@ func newBenchCmd(e *env) *cobra.Command {
 			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
 			"fails, and 0 otherwise (instances left without a timetable show in the table).\n\n" +
 			"Every .xml file in DIR (the ITC-2019 course timetabling format) runs the same\n" +
-			"way as a term of meeting patterns and room choices; its table gives whether the\n" +
-			"timetable is valid, the cost by the competition's definition and its time, room\n" +
-			"and relation parts (students are not sectioned yet, so their part is left out).\n" +
-			"With --best (a table with instance, best, time, room and distribution columns)\n" +
-			"each cost is compared with the best known's time, room and relation parts as\n" +
-			"(cost+1)/(reference+1). With --out, each timetable is written as\n" +
-			"OUT/<instance>.solution.xml in the competition's solution format.",
+			"way as a term of meeting patterns and room choices, its students sectioned into\n" +
+			"the classes of the courses they want; its table gives whether the solution is\n" +
+			"valid (\"no (N seating)\" counts broken student rules: a wanted course not\n" +
+			"taken as one class of each part of one arrangement with its parents, a class\n" +
+			"over its limit), the cost by the competition's definition and its time, room,\n" +
+			"relation and student parts (the student part counts clashing pairs of a\n" +
+			"student's classes). With --best (a table with instance, best, time, room and\n" +
+			"distribution columns, and student_conflicts) each cost is compared with the\n" +
+			"best known as (cost+1)/(best+1), and without the student part on both sides\n" +
+			"as (cost-students+1)/(reference+1), the reference being the best known's\n" +
+			"time, room and relation parts. With --out, each solution, students included,\n" +
+			"is written as OUT/<instance>.solution.xml in the competition's format.",
 		Args: cobra.ExactArgs(1),
 		RunE: e.runner(o, func(cmd *cobra.Command, args []string) error { return runBench(cmd.Context(), e, o, args[0]) }),
 	}
@@ -124,10 +135,15 @@ type benchReport struct {
 	// have one; null when none has.
 	GeoMeanRatio *float64 `json:"geomean_ratio"`
 	RatioCount   int      `json:"ratio_count"` // instances in the geometric mean
-	// PatternGeoMean is the geometric mean of (cost+1)/(reference+1) over
-	// the pattern instances that have one.
+	// PatternGeoMean is the geometric mean of (cost+1)/(best known+1) over
+	// the pattern instances that have one (students included on both
+	// sides).
 	PatternGeoMean    *float64 `json:"patterns_geomean_ratio,omitempty"`
 	PatternRatioCount int      `json:"patterns_ratio_count,omitempty"`
+	// PatternGeoMeanNoStudents is the geometric mean of the ratios without
+	// the student part, (cost-students+1)/(reference+1).
+	PatternGeoMeanNoStudents    *float64 `json:"patterns_geomean_ratio_without_students,omitempty"`
+	PatternRatioCountNoStudents int      `json:"patterns_ratio_count_without_students,omitempty"`
 }
 
 func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
@@ -204,6 +220,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 	}
 	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt)
 	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat)
+	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(benchNoStudentRatios(pat))
 	var js bytes.Buffer
 	enc := json.NewEncoder(&js)
 	enc.SetIndent("", "  ")
@@ -229,11 +246,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 			}
 			benchWriteXMLTable(e.stdout, pat, o.best != "")
 			if o.best != "" {
-				if rep.PatternGeoMean == nil {
-					fmt.Fprintln(e.stdout, "geometric mean of (cost+1)/(reference+1): - (no instance with a valid timetable and a best known)")
-				} else {
-					fmt.Fprintf(e.stdout, "geometric mean of (cost+1)/(reference+1): %.2f over %d of %d instances\n", *rep.PatternGeoMean, rep.PatternRatioCount, len(pat))
-				}
+				benchWriteXMLMeans(e.stdout, rep, len(pat))
 			}
 		}
 	}
@@ -261,7 +274,7 @@ func benchOne(ctx context.Context, e *env, o *benchOptions, path string) benchRo
 		return row
 	}
 	benchScore(e, &row, term, res.Schedule, elapsed)
-	benchTimes(&row, res)
+	benchTimes(&row, res, row.Feasible)
 	if o.out != "" {
 		file := filepath.Join(o.out, name+".sol")
 		if err := benchWriteSolution(file, term, res.Schedule); err != nil {
@@ -282,14 +295,14 @@ func benchScore(e *env, row *benchRow, term *timetable.Term, s *timetable.Schedu
 	benchFeasible(e, row, term, s, hard.Total())
 	total, parts := benchfmt.CTTCost(term, s)
 	row.Cost, row.Parts, row.Hard = &total, &parts, &hard
-	benchOwnCost(e, row, term, s, total, elapsed)
+	benchOwnCost(e, row, term, s, total, elapsed, row.Feasible)
 }
 
-// benchTimes fills the lower bound and the times of the first and the best
-// timetable from the optimiser's history, when it has one (the instance's
-// clock starts before compiling).
-func benchTimes(row *benchRow, res *encode.OptimizeResult) {
-	if n := len(res.History); n > 0 && row.Feasible {
+// benchTimes fills the lower bound and, for a valid timetable, the times
+// of the first and the best timetable from the optimiser's history, when
+// it has one (the instance's clock starts before compiling).
+func benchTimes(row *benchRow, res *encode.OptimizeResult, valid bool) {
+	if n := len(res.History); n > 0 && valid {
 		first, best := res.History[0].Elapsed.Milliseconds(), res.History[n-1].Elapsed.Milliseconds()
 		row.FirstMS, row.BestMS = &first, &best
 	}

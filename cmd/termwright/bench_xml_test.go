@@ -44,10 +44,11 @@ func benchXMLDir(t *testing.T) string {
 
 // firstChoices answers every pattern section with its first time and
 // first listed room: class 1 Monday 08:00 in room 2 (room penalty 4),
-// class 2 Monday 08:30: they overlap (distribution 2). Cost by the
+// class 2 Monday 08:30: they overlap (distribution 2); it seats student s
+// in class 1 (the course's only part: no clash). Cost by the
 // competition's weights: 2*0 + 1*4 + 3*2 = 10.
 func firstChoices(ctx context.Context, term *timetable.Term, seed int64, threads int) (*encode.OptimizeResult, error) {
-	s := &timetable.Schedule{}
+	s := &timetable.Schedule{Enrolments: []timetable.Enrolment{{Student: "s", Section: "1"}}}
 	for _, sec := range term.Sections {
 		p := timetable.Placement{Section: sec.ID, Meeting: 1, Period: -1, Time: 1}
 		if !sec.NoRoom {
@@ -61,16 +62,18 @@ func firstChoices(ctx context.Context, term *timetable.Term, seed int64, threads
 func TestBenchXMLTable(t *testing.T) {
 	dir := benchXMLDir(t)
 	best := filepath.Join(t.TempDir(), "best.csv")
-	// reference without students: 2*1 + 1*0 + 3*1 = 5; ratio (10+1)/(5+1).
+	// best known 10 (1 student conflict x 5 among it): ratio (10+1)/(10+1);
+	// reference without students: 2*1 + 1*0 + 3*1 = 5, ratio (10+1)/(5+1).
 	require.NoError(t, os.WriteFile(best, []byte("instance,best,time,room,distribution,student_conflicts\nmini,10,1,0,1,1\n"), 0o644))
 	code, out, stderr := runBenchWith(t, firstChoices, dir, "--time-limit", "5s", "--best", best)
 	require.Equal(t, exitOK, code, stderr)
 	want := "" +
-		"instance  sections/rooms/relations  valid  cost  time  room  relations  students       first valid  best at  reference  ratio\n" +
-		"mini      2/2/1                     yes    10    0     4     2          not sectioned  1.50s        1.50s    5          1.83\n" +
-		"geometric mean of (cost+1)/(reference+1): 1.83 over 1 of 1 instances\n"
+		"instance  sections/rooms/relations/students  valid  cost  time  room  relations  students  first valid  best at  best known  ratio  ratio w/o students\n" +
+		"mini      2/2/1/1                            yes    10    0     4     2          0         1.50s        1.50s    10          1.00   1.83\n" +
+		"geometric mean of (cost+1)/(best known+1): 1.00 over 1 of 1 instances\n" +
+		"geometric mean without students, (cost-students+1)/(reference+1): 1.83 over 1 of 1 instances\n"
 	assert.Equal(t, want, out)
-	assert.Contains(t, stderr, "bench: mini: cost 10 without students after 1.50s")
+	assert.Contains(t, stderr, "bench: mini: cost 10 (student part 0, 1 students seated) after 1.50s")
 	assert.NotContains(t, stderr, "differs", "timetable.Cost agrees with the competition's cost")
 }
 
@@ -83,7 +86,7 @@ func TestBenchXMLWritesSolution(t *testing.T) {
 	require.NoError(t, err)
 	text := string(data)
 	assert.Contains(t, text, `<solution name="mini" runtime="1.5" cores="1"`)
-	assert.Contains(t, text, `<class id="1" days="10000" start="96" weeks="11" room="2"/>`)
+	assert.Contains(t, text, `<class id="1" days="10000" start="96" weeks="11" room="2">`+"\n"+`    <student id="s"/>`+"\n  </class>", "the class lists its student")
 	assert.Contains(t, text, `<class id="2" days="10000" start="102" weeks="11"/>`)
 	var rep benchReport
 	require.NoError(t, json.Unmarshal([]byte(js), &rep))
@@ -108,7 +111,7 @@ func TestBenchXMLBadInput(t *testing.T) {
 	code, out, stderr := runBenchWith(t, firstChoices, dir)
 	assert.Equal(t, exitError, code)
 	assert.Contains(t, stderr, `bad.xml:2: the instance has number of weeks "x"`)
-	assert.Contains(t, out, "bad       0/0/0                     error")
+	assert.Contains(t, out, "bad       0/0/0/0                            error")
 
 	best := filepath.Join(t.TempDir(), "best.csv")
 	require.NoError(t, os.WriteFile(best, []byte("instance,best\nmini,3\n"), 0o644))

@@ -8,8 +8,10 @@
 //     WriteCTTSolution, ReadCTTBest;
 //   - the International Timetabling Competition 2019 (ITC-2019, XML files):
 //     ReadXML, XMLInstance.Term (the mapping into a term of pattern
-//     sections), XMLSolutionOf, WriteXMLSolution, ReadXMLSolution, XMLCost,
-//     XMLHardViolations, ReadXMLBest.
+//     sections, courses and students' requests), XMLSolutionOf,
+//     WriteXMLSolution, ReadXMLSolution (solutions with every class's
+//     students), XMLCost, XMLHardViolations (the student rules included),
+//     ReadXMLBest.
 //
 // Benchmark data is read from where it lies (the shared data folder) and
 // never copied into the repository; the competitions' element names stay

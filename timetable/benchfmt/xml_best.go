@@ -19,8 +19,8 @@ type XMLBest struct {
 }
 
 // Reference is the best solution's cost without the student part (its
-// time, room and distribution parts times the weights), the reference for a
-// timetable whose students are not sectioned.
+// time, room and distribution parts times the weights), the reference for
+// a cost taken without the student part too.
 func (b XMLBest) Reference(w XMLWeights) int {
 	p := b.Parts
 	p.Student = 0

@@ -10,103 +10,21 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/sectioning"
 	"github.com/termwright/termwright/timetable"
 )
 
 // smallXML are the four small shared instances.
 var smallXML = []string{"bet-sum18", "lums-sum17", "pu-cs-fal07", "wbg-fal10"}
 
-// firstFitSeating seats the students of term (its requests in order) in
-// first fit: for each request, the first arrangement and in it, part by
-// part with parents' parts first, the first section under its limit whose
-// parent the student holds (backtracking within the course when a part
-// has no such section). A request that cannot be seated so is left out.
-// It knows nothing of times: students' clashes are left to chance.
-func firstFitSeating(term *timetable.Term) []timetable.Enrolment {
-	idx := term.SectionIndex()
-	held := make([]int, len(term.Sections))
-	courses := map[string]timetable.Course{}
-	for _, c := range term.Courses() {
-		courses[c.ID] = c
-	}
-	var out []timetable.Enrolment
-	for _, r := range term.Requests {
-		for _, a := range courses[r.Course].Arrangements {
-			parts := parentsFirst(term, a.Parts, idx)
-			chosen := map[string]bool{}
-			var pick []int
-			var try func(k int) bool
-			try = func(k int) bool {
-				if k == len(parts) {
-					return true
-				}
-				for _, si := range parts[k].Sections {
-					s := term.Sections[si]
-					if held[si] >= term.SectionLimit(si) || (s.Parent != "" && !chosen[s.Parent]) {
-						continue
-					}
-					chosen[s.ID] = true
-					pick = append(pick, si)
-					if try(k + 1) {
-						return true
-					}
-					chosen[s.ID] = false
-					pick = pick[:len(pick)-1]
-				}
-				return false
-			}
-			if try(0) {
-				for _, si := range pick {
-					held[si]++
-					out = append(out, timetable.Enrolment{Student: r.Student, Section: term.Sections[si].ID})
-				}
-				break
-			}
-		}
-	}
-	return out
-}
-
-// parentsFirst orders parts so that the part of every parent section comes
-// before the parts of its children.
-func parentsFirst(term *timetable.Term, parts []timetable.Part, idx map[string]int) []timetable.Part {
-	partOf := map[string]int{}
-	for pi, p := range parts {
-		for _, si := range p.Sections {
-			partOf[term.Sections[si].ID] = pi
-		}
-	}
-	done := make([]bool, len(parts))
-	var out []timetable.Part
-	for len(out) < len(parts) {
-		progress := false
-		for pi, p := range parts {
-			if done[pi] {
-				continue
-			}
-			ready := true
-			for _, si := range p.Sections {
-				if par := term.Sections[si].Parent; par != "" {
-					if _, ok := idx[par]; ok && !done[partOf[par]] {
-						ready = false
-					}
-				}
-			}
-			if ready {
-				done[pi], progress = true, true
-				out = append(out, p)
-			}
-		}
-		if !progress { // a cycle of parents: keep the rest in order
-			for pi, p := range parts {
-				if !done[pi] {
-					out = append(out, p)
-				}
-			}
-			break
-		}
-	}
-	return out
+// seated is s with its students seated by the sectioner.
+func seated(t *testing.T, term *timetable.Term, s *timetable.Schedule) *timetable.Schedule {
+	t.Helper()
+	res, err := sectioning.Section(context.Background(), term, s, sectioning.Options{Seed: 1})
+	require.NoError(t, err)
+	c := *s
+	c.Enrolments = res.Enrolments
+	return &c
 }
 
 // solvedTimetable is a first valid timetable of term from the engine.
@@ -126,7 +44,7 @@ func hardCount(term *timetable.Term, s *timetable.Schedule) int {
 }
 
 // TestXMLStudentCostAgreesWithCost: on the four small shared instances
-// with first-fit seatings over random timetables, the competition's
+// with the sectioner's seatings over random timetables, the competition's
 // student part (XMLCost, from the published rules: 1 per student per pair
 // of classes sharing a day and a week whose times overlap or leave less
 // than the travel time between their rooms) times the student weight
@@ -139,13 +57,15 @@ func TestXMLStudentCostAgreesWithCost(t *testing.T) {
 			term := in.Term()
 			r := rand.New(rand.NewPCG(11, uint64(len(name))))
 			for round := 0; round < 3; round++ {
-				s := randomSchedule(term, r)
-				s.Enrolments = firstFitSeating(term)
+				s := seated(t, term, randomSchedule(term, r))
 				sol, err := XMLSolutionOf(in, s, XMLRunInfo{})
 				require.NoError(t, err)
 				total, parts := XMLCost(in, sol)
 				got, by := ownCost(term, s)
 				assert.Equal(t, int64(parts.Student*in.Weights.Student), by[timetable.CritStudentClash], "student part, round %d", round)
+				if len(term.Requests) > 0 {
+					assert.Positive(t, parts.Student, "random timetables make students clash, round %d", round)
+				}
 				assert.Equal(t, int64(total), got-by[timetable.CritUnplaced], "total without unplaced requests, round %d", round)
 			}
 		})
@@ -153,7 +73,7 @@ func TestXMLStudentCostAgreesWithCost(t *testing.T) {
 }
 
 // TestXMLSectioningAgreesWithCheck: on the four small shared instances, a
-// valid timetable from the engine with a first-fit seating is valid by the
+// valid timetable from the engine with the sectioner's seating is valid by the
 // competition's rules (XMLHardViolations 0) exactly when timetable.Check
 // accepts it and every request is placed (our "unplaced requests" is a
 // cost, the rules make it a requirement); and each way of breaking a
@@ -167,8 +87,7 @@ func TestXMLSectioningAgreesWithCheck(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			in := readSharedXML(t, name)
 			term := in.Term()
-			s := solvedTimetable(t, term)
-			s.Enrolments = firstFitSeating(term)
+			s := seated(t, term, solvedTimetable(t, term))
 			verdicts := func(what string, s *timetable.Schedule) {
 				t.Helper()
 				sol, err := XMLSolutionOf(in, s, XMLRunInfo{})
@@ -178,12 +97,30 @@ func TestXMLSectioningAgreesWithCheck(t *testing.T) {
 				ours := hardCount(term, s) == 0 && by[timetable.CritUnplaced] == 0
 				assert.Equal(t, h.Total() == 0, ours, "%s: competition %+v, Check %v, unplaced %d", what, h, timetable.HardViolations(timetable.Check(term, s)), by[timetable.CritUnplaced])
 			}
-			verdicts("first fit", s)
+			verdicts("sectioned", s)
 			for _, m := range seatingBreaks(term, s) {
 				verdicts(m.name, m.sched)
 				sol, err := XMLSolutionOf(in, m.sched, XMLRunInfo{})
 				require.NoError(t, err)
 				assert.Positive(t, XMLHardViolations(in, sol).Sectioning, m.name)
+			}
+			// A limit lowered below the students seated in the fullest
+			// section, in the instance and in the term alike.
+			if i, n := fullest(s); n > 0 {
+				lowIn, lowTerm := *in, *term
+				lowIn.Classes = append([]XMLClass(nil), in.Classes...)
+				lowTerm.Sections = append([]timetable.Section(nil), term.Sections...)
+				ci := in.classIndex()[i]
+				lowIn.Classes[ci].Limit = n - 1
+				lowTerm.Sections[term.SectionIndex()[i]].Limit = n - 1
+				if n == 1 {
+					lowTerm.Sections[term.SectionIndex()[i]].Size = 0 // Limit 0 means Size
+				}
+				sol, err := XMLSolutionOf(&lowIn, s, XMLRunInfo{})
+				require.NoError(t, err)
+				h := XMLHardViolations(&lowIn, sol)
+				assert.Equal(t, 1, h.Sectioning, "one student over the limit")
+				assert.Positive(t, hardCount(&lowTerm, s), "Check sees the section over its limit: %v", timetable.HardViolations(timetable.Check(&lowTerm, s)))
 			}
 		})
 	}
@@ -204,8 +141,7 @@ func partOf(s timetable.Section) partKey { return partKey{s.Course, s.Arrangemen
 // instance allows it (no students: none): the first enrolment dropped; a
 // second section of its part added; a section of a course the student did
 // not ask for added; a student moved within a part to a section whose
-// parent they do not hold; a student moved within a part into a full
-// section.
+// parent they do not hold.
 func seatingBreaks(term *timetable.Term, s *timetable.Schedule) []seatingBreak {
 	if len(s.Enrolments) == 0 {
 		return nil
@@ -218,11 +154,9 @@ func seatingBreaks(term *timetable.Term, s *timetable.Schedule) []seatingBreak {
 		}
 	}
 	held := map[timetable.Enrolment]bool{}
-	count := map[string]int{}
 	asked := map[[2]string]bool{}
 	for _, e := range s.Enrolments {
 		held[e] = true
-		count[e.Section]++
 	}
 	for _, r := range term.Requests {
 		asked[[2]string{r.Student, r.Course}] = true
@@ -267,8 +201,18 @@ func seatingBreaks(term *timetable.Term, s *timetable.Schedule) []seatingBreak {
 	move("parent not held", func(e timetable.Enrolment, to timetable.Section) bool {
 		return to.Parent != "" && !held[timetable.Enrolment{Student: e.Student, Section: to.Parent}]
 	})
-	move("a section over its limit", func(e timetable.Enrolment, to timetable.Section) bool {
-		return count[to.ID] >= term.SectionLimit(idx[to.ID])
-	})
 	return out
+}
+
+// fullest is the section with the most seated students and their number.
+func fullest(s *timetable.Schedule) (string, int) {
+	count := map[string]int{}
+	best, n := "", 0
+	for _, e := range s.Enrolments {
+		count[e.Section]++
+		if c := count[e.Section]; c > n || (c == n && e.Section < best) {
+			best, n = e.Section, c
+		}
+	}
+	return best, n
 }

@@ -4,6 +4,9 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // sectioningCase is a hand-worked seating of courseXML's students (class ID
@@ -37,15 +40,23 @@ var courseSeatings = []sectioningCase{
 
 // TestXMLSectioningRules checks XMLHardViolations' student rules on the
 // hand-worked seatings: each breaks one rule once (or none), and the
-// student part of the cost stays apart from the hard count.
+// student part of the cost stays apart from the hard count. timetable.Check
+// on the mapped term agrees on each verdict (with "unplaced requests" at 0
+// standing for the rules' requirement that every student is seated).
 func TestXMLSectioningRules(t *testing.T) {
 	in := readHand(t, courseXML)
+	term := in.Term()
 	for _, c := range courseSeatings {
 		t.Run(c.name, func(t *testing.T) {
 			sol := seatedSolution(in, c.seats)
 			h := XMLHardViolations(in, sol)
 			assert.Equal(t, c.broken, h.Sectioning)
 			assert.Equal(t, c.broken, h.Total(), "only the student rules break")
+			s, err := sol.Schedule(in)
+			require.NoError(t, err)
+			_, by := ownCost(term, s)
+			ours := hardCount(term, s) == 0 && by[timetable.CritUnplaced] == 0
+			assert.Equal(t, c.broken == 0, ours, "Check %v, unplaced %d", timetable.HardViolations(timetable.Check(term, s)), by[timetable.CritUnplaced])
 		})
 	}
 }
