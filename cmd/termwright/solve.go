@@ -47,9 +47,12 @@ func newSolveCmd(e *env) *cobra.Command {
 			"against the term and an independent evaluation of its cost — and writes the best\n" +
 			"timetable workbook (a Timetable sheet, a weekly grid per staff member, room and\n" +
 			"cohort, and a Quality sheet). It prints the cost of each preference and a lower\n" +
-			"bound: no timetable costs less. A term with errors is refused with the list of\n" +
-			"errors. With --publish DIR it also writes every PDF, workbook and calendar file\n" +
-			"into DIR (see termwright publish).\n\n" +
+			"bound: no timetable costs less. When students request courses (the Course\n" +
+			"requests sheet), it also seats them in sections, writes the Class lists and\n" +
+			"Sectioning sheets, and prints the requests not met with their reasons, the\n" +
+			"full sections and the students with clashes. A term with errors is refused\n" +
+			"with the list of errors. With --publish DIR it also writes every PDF, workbook\n" +
+			"and calendar file into DIR (see termwright publish).\n\n" +
 			"The search stops when the best timetable is proven, when it stops improving, at\n" +
 			"--time-limit, or on Ctrl-C, SIGTERM or SIGHUP (a second one stops at once); the\n" +
 			"best timetable found so far is checked and written. -o is checked before the\n" +
@@ -59,7 +62,9 @@ func newSolveCmd(e *env) *cobra.Command {
 			"so). Progress goes to standard error: one line redrawn on a terminal, a plain\n" +
 			"line every few seconds otherwise. With --keep LAST.xlsx it re-plans after late\n" +
 			"edits while moving as few meetings of LAST as it can, and lists every meeting\n" +
-			"that moved and who must be told.\n\n" +
+			"that moved and who must be told; students stay in LAST's sections where they\n" +
+			"can, and every student who changes section is listed (and on a Moved students\n" +
+			"sheet).\n\n" +
 			"Exit status: 0 when a timetable was written, 2 when no timetable exists (found\n" +
 			"by the search, or at once by the term check's counting; run termwright explain\n" +
 			"TERM to see why), 1 on errors or when the time limit or a stop signal ends the\n" +
