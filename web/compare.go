@@ -28,6 +28,8 @@ type affectedJSON struct {
 	ID      string       `json:"id"`
 	Name    string       `json:"name,omitempty"`
 	Changes []changeJSON `json:"changes"`
+	// Sections are a student's changes of section.
+	Sections []export.SectionChange `json:"sections,omitempty"`
 }
 
 type changeJSON struct {
@@ -75,7 +77,14 @@ func (s *Server) handleCompare(w http.ResponseWriter, r *http.Request) {
 	moves := export.SectionChanges(t, a, b)
 	out.Students = moves
 	for _, af := range export.WithSectionChanges(c.Affected(export.StayingStudents(t, a, b)), moves) {
-		aj := affectedJSON{Kind: af.Kind, ID: af.ID, Name: af.Name}
+		aj := affectedJSON{Kind: af.Kind, ID: af.ID, Name: af.Name, Changes: []changeJSON{}}
+		if af.Kind == timetable.SubjectStudent {
+			for _, mv := range moves {
+				if mv.Student == af.ID {
+					aj.Sections = append(aj.Sections, mv)
+				}
+			}
+		}
 		if i, ok := cohorts[af.ID]; ok && af.Kind == timetable.SubjectCohort {
 			aj.Name = t.Cohorts[i].Name
 		}

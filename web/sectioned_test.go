@@ -4,6 +4,8 @@ import (
 	"context"
 	"net/http"
 	"net/http/httptest"
+	"path/filepath"
+	"sort"
 	"testing"
 	"time"
 
@@ -40,9 +42,9 @@ func sectionedFixture(t *testing.T) *demoFixture {
 		term.Requests = append(term.Requests, timetable.Request{Student: st, Course: "STA100"})
 	}
 	require.Empty(t, timetable.Validate(term).Errors())
-	ctx, cancel := context.WithTimeout(context.Background(), time.Minute)
-	defer cancel()
-	res, err := planning.Plan(ctx, term, planning.Options{})
+	// No deadline: Plan runs its default rounds and stops (with one it
+	// would go on with more rounds while time is left).
+	res, err := planning.Plan(context.Background(), term, planning.Options{})
 	require.NoError(t, err)
 	require.NotNil(t, res.Schedule)
 	require.Len(t, res.Schedule.Enrolments, 8, "four students, a lecture and a tutorial each")
@@ -108,4 +110,88 @@ func TestBrowserSectionedStudent(t *testing.T) {
 	shown := b.eval(`[...new Set([...document.querySelectorAll("#grid button.mtg")].map((x) => x.dataset.section))].sort().join(" ")`)
 	assert.Equal(t, "STA100-L "+tutorial, shown)
 	b.shot("s1-sectioned-student")
+}
+
+// TestSectionedCompareAndNotices saves the sectioned timetable, swaps two
+// students between the tutorials (both stay within the limits), and
+// compares the saved version with the current one: no meeting moved, the
+// two students are affected with their change of section, and their
+// notices say which tutorial they are in now. The saved workbook holds the
+// class lists: it reads back with the same sectioned students.
+func TestSectionedCompareAndNotices(t *testing.T) {
+	d := sectionedFixture(t)
+	var sr saveResult
+	require.Equal(t, http.StatusOK, d.call(t, "POST", "/api/save", versionRequest{Version: 1}, &sr))
+	saved, ps, err := timetable.ReadSchedule(filepath.Join(d.dir, sr.Saved.File), d.term)
+	require.NoError(t, err)
+	require.Empty(t, ps.Errors())
+	assert.ElementsMatch(t, d.sched.Enrolments, stripEnrolmentSrc(saved.Enrolments))
+
+	in := map[string]string{} // tutorial of each student
+	d.srv.mu.Lock()
+	for _, e := range d.srv.cur.Enrolments {
+		if e.Section != "STA100-L" {
+			in[e.Student] = e.Section
+		}
+	}
+	var a, b string // a student of T1 and one of T2
+	for st, sec := range in {
+		if sec == "STA100-T1" && (a == "" || st < a) {
+			a = st
+		}
+		if sec == "STA100-T2" && (b == "" || st < b) {
+			b = st
+		}
+	}
+	for i, e := range d.srv.cur.Enrolments {
+		switch {
+		case e.Student == a && e.Section == "STA100-T1":
+			d.srv.cur.Enrolments[i].Section = "STA100-T2"
+		case e.Student == b && e.Section == "STA100-T2":
+			d.srv.cur.Enrolments[i].Section = "STA100-T1"
+		}
+	}
+	d.srv.mu.Unlock()
+	require.NotEmpty(t, a)
+	require.NotEmpty(t, b)
+
+	var c compareJSON
+	require.Equal(t, http.StatusOK, d.call(t, "GET", "/api/compare?old=1&new=current", nil, &c))
+	assert.Equal(t, 0, c.Moved)
+	require.Len(t, c.Students, 2)
+	var ids []string
+	for _, af := range c.Affected {
+		ids = append(ids, af.ID)
+		assert.Equal(t, timetable.SubjectStudent, af.Kind)
+		require.Len(t, af.Sections, 1)
+		assert.Equal(t, "Tutorial", af.Sections[0].Part)
+		assert.NotNil(t, af.Changes, "an empty list, not null, for the page")
+	}
+	assert.Equal(t, []string{a, b}, sortedCopy(ids))
+
+	var n noticesJSON
+	require.Equal(t, http.StatusOK, d.call(t, "GET", "/api/notices?old=1&new=current", nil, &n))
+	require.Len(t, n.Notices, 2)
+	for _, nj := range n.Notices {
+		assert.Equal(t, 1, nj.Changes)
+		want := "STA100 Tutorial: your section is now STA100-T2 instead of STA100-T1"
+		if nj.ID == b {
+			want = "STA100 Tutorial: your section is now STA100-T1 instead of STA100-T2"
+		}
+		assert.Contains(t, nj.Text, want)
+	}
+}
+
+func stripEnrolmentSrc(es []timetable.Enrolment) []timetable.Enrolment {
+	out := make([]timetable.Enrolment, len(es))
+	for i, e := range es {
+		out[i] = timetable.Enrolment{Student: e.Student, Section: e.Section}
+	}
+	return out
+}
+
+func sortedCopy(xs []string) []string {
+	out := append([]string(nil), xs...)
+	sort.Strings(out)
+	return out
 }

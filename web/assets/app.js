@@ -437,7 +437,8 @@ async function compare(ev) {
     if (!c.affected.length) { out.append(el("p", { text: "No one's week changed." })); return; }
     for (const a of c.affected) {
       out.append(el("h3", { text: a.kind + " " + (a.name ? a.name + " (" + a.id + ")" : a.id) }));
-      out.append(el("ul", {}, ...a.changes.map((ch) => el("li", { text: ch.section + (ch.title ? " " + ch.title : "") + ": " + ch.change + " — " + [ch.from, ch.to].filter(Boolean).join(" → ") }))));
+      out.append(el("ul", {}, ...(a.sections || []).map((mv) => el("li", { text: mv.course + (mv.part ? " " + mv.part : "") + ": " + (mv.from && mv.to ? "section " + mv.from + " → " + mv.to : mv.to ? "now in section " + mv.to : "no longer in section " + mv.from) })),
+        ...a.changes.map((ch) => el("li", { text: ch.section + (ch.title ? " " + ch.title : "") + ": " + ch.change + " — " + [ch.from, ch.to].filter(Boolean).join(" → ") }))));
     }
   } catch (e) { notice(e.message, true); }
 }
