@@ -82,6 +82,10 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 		return withCode(exitError, fmt.Sprintf("%s breaks %s, so it was not published; fix the timetable (or solve again) and publish it then",
 			timetablePath, checkCount(len(hard), "hard requirement")))
 	}
+	if len(term.Requests) > 0 && len(s.Enrolments) == 0 {
+		fmt.Fprintf(e.stderr, "note: %s has no class lists, so none of the term's %s is met in it; publish the workbook solve wrote (its Class lists sheet seats the students), or solve again\n",
+			timetablePath, checkCount(len(term.Requests), "course request"))
+	}
 	if soft := len(violations); soft > 0 {
 		fmt.Fprintf(e.stderr, "note: %s not met (the timetable is valid; see termwright's cost report for details)\n", checkCount(soft, "preference"))
 	}

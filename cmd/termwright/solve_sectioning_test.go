@@ -85,6 +85,21 @@ func TestSolveWithRequests(t *testing.T) {
 	assert.NotEmpty(t, rows[1][6], "with the sectioner's reason")
 	assert.Equal(t, []string{export.FindingFull, "", "STA100", "STA100-T1", "2", "2", "2 of 2 places taken"}, rows[2][:7])
 
+	// publish of the workbook writes the class lists; publish of a CSV
+	// timetable (no class lists) says that nobody is seated in it.
+	e, stdout, stderr = solveEnv()
+	require.Equal(t, exitOK, run([]string{"publish", termPath, out, "-o", filepath.Join(dir, "pub")}, e), "stderr: %s", stderr)
+	assert.FileExists(t, filepath.Join(dir, "pub", "classlists.csv"))
+	assert.NotContains(t, stderr.String(), "no class lists")
+	csvPath := filepath.Join(dir, "tt.csv")
+	fh, err := os.Create(csvPath)
+	require.NoError(t, err)
+	require.NoError(t, export.WriteTimetableCSV(fh, term, s))
+	require.NoError(t, fh.Close())
+	e, _, stderr = solveEnv()
+	require.Equal(t, exitOK, run([]string{"publish", termPath, csvPath, "-o", filepath.Join(dir, "pub2")}, e), "stderr: %s", stderr)
+	assert.Contains(t, stderr.String(), "tt.csv has no class lists, so none of the term's 5 course requests is met in it")
+
 	// check counts the courses and requests; verify reports the same
 	// sectioning from the written timetable alone.
 	e, stdout, stderr = solveEnv()
