@@ -10,7 +10,11 @@ package timetable
 // section of a course holds more students than its limit (SectionLimit),
 // fixed enrolments included; and a student is placed by the sectioner
 // (Schedule.Enrolments) only in courses they requested, as Course or as
-// one of its Alternatives, at most one course per request.
+// one of its Alternatives, at most one course per request. Check applies
+// the parts-and-parents rule to each student's courses that hold a
+// sectioned enrolment (fixed-only students are term data, though they
+// count against the limits), and no student is both fixed and sectioned
+// in one section.
 type Course struct {
 	ID           string
 	Arrangements []Arrangement // in order of first appearance; at least one
