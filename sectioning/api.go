@@ -40,8 +40,12 @@ type Move struct {
 
 // Section seats the students of t's requests in the sections of s (whose
 // Enrolments it ignores), honouring fixed enrolments (Term.Enrolments)
-// and every seating rule. It stops early, with the best sectioning so far,
-// when ctx ends.
+// and every seating rule, for the objective the package doc states
+// (unplaced requests, priorities, alternatives, then moved students and
+// clashes by the term's weights). It stops early, with the best
+// sectioning so far, when ctx ends; the first seating (greedy with
+// repair) is always completed. Small terms are solved exactly. The same
+// term, timetable, options and seed give the same result.
 func Section(ctx context.Context, t *timetable.Term, s *timetable.Schedule, opt Options) (*Result, error) {
 	return section(ctx, t, s, opt, config{exact: true})
 }

@@ -32,3 +32,39 @@ func BenchmarkSectionLarge(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkStudentMove times one student move (student.go) on the large
+// generated term after the first seating: the hot path of improvement.
+func BenchmarkStudentMove(b *testing.B) {
+	term, sched := genTerm(rand.New(rand.NewPCG(1, 1)), large)
+	p := newProblem(term, sched)
+	rng := rand.New(rand.NewPCG(2, 2))
+	sr := newSearcher(p)
+	p.greedy(sr, rng, newRepairer(p, sr))
+	ss := &studentSearch{}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		k := int32(i % len(p.students))
+		snap := p.snapshotStudent(k)
+		p.improveStudent(ss, k)
+		p.restoreStudent(k, snap)
+	}
+}
+
+// snapshotStudent and restoreStudent keep a benchmark's state unchanged.
+func (p *problem) snapshotStudent(k int32) [][]int32 {
+	var out [][]int32
+	for _, r := range p.students[k].reqs {
+		out = append(out, append([]int32(nil), p.st.secs[r]...))
+	}
+	return out
+}
+
+func (p *problem) restoreStudent(k int32, snap [][]int32) {
+	for i, r := range p.students[k].reqs {
+		if p.st.opt[r] >= 0 {
+			p.seat(r, p.st.opt[r], snap[i])
+		}
+	}
+}

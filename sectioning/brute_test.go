@@ -2,7 +2,6 @@ package sectioning
 
 import (
 	"fmt"
-	"sort"
 
 	"github.com/termwright/termwright/timetable"
 )
@@ -353,16 +352,4 @@ func bruteForce(t *timetable.Term, s, keep *timetable.Schedule) judged {
 	}
 	rec(0)
 	return *best
-}
-
-// sortedEnrolments is a copy of es sorted by student and section.
-func sortedEnrolments(es []timetable.Enrolment) []timetable.Enrolment {
-	out := append([]timetable.Enrolment(nil), es...)
-	sort.Slice(out, func(i, j int) bool {
-		if out[i].Student != out[j].Student {
-			return out[i].Student < out[j].Student
-		}
-		return out[i].Section < out[j].Section
-	})
-	return out
 }

@@ -28,9 +28,14 @@
 //     first) by branch and bound, never as the product of the parts;
 //   - repair.go: a request with no room gets a seat by an augmenting path
 //     of moves of other students (Kuhn's method; Hall's theorem);
-//   - improve.go: rounds of moves of one request to a cheaper enrollment
+//   - priority.go: an unplaced request takes the place of a less
+//     important one when no repair can seat it;
+//   - student.go: a student move re-seats all of one student's courses at
+//     once by branch and bound (Müller and Murray's per-student search);
+//   - improve.go: rounds of retries of unplaced requests, student moves
 //     and swaps of two students' enrollments, until nothing improves or
-//     the context ends; change counters skip requests nothing touched;
+//     the context ends; a student is looked at again only when their
+//     seating changed or a section that was full for them opened;
 //   - exact.go: small terms are then searched exhaustively.
 //
 // # Representation

@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
+
+	"github.com/termwright/termwright/timetable"
 )
 
 // smallSpec is a term small enough for bruteForce.
@@ -35,7 +37,7 @@ func TestSectionMatchesExhaustiveSearch(t *testing.T) {
 		want := bruteForce(term, sched, nil)
 		res, err := Section(context.Background(), term, sched, Options{Seed: int64(seed)})
 		require.NoError(t, err)
-		require.Empty(t, seatingErrors(term, res), "seed %d", seed)
+		require.Empty(t, allSeatingErrors(term, sched, res), "seed %d", seed)
 		require.Equal(t, want.String(), judge(term, sched, nil, res).String(), "seed %d", seed)
 		heur, err := section(context.Background(), term, sched, Options{Seed: int64(seed)}, config{})
 		require.NoError(t, err)
@@ -46,5 +48,52 @@ func TestSectionMatchesExhaustiveSearch(t *testing.T) {
 		}
 	}
 	require.GreaterOrEqual(t, tried, 100)
+	require.Positive(t, heurSame)
 	t.Logf("%d small terms; the heuristic alone (no exhaustive phase) was optimal on %d", tried, heurSame)
+}
+
+// TestSectionWithKeepMatchesExhaustiveSearch is the same comparison after
+// a change: the first sectioning is kept, every section's limit drops by
+// one (not below its fixed students) and some meetings move; the objective now counts moved students
+// (criterion "moved students", above clashes by default).
+func TestSectionWithKeepMatchesExhaustiveSearch(t *testing.T) {
+	tried, moved := 0, 0
+	for seed := uint64(1); tried < 80 && seed < 2000; seed++ {
+		rng := rand.New(rand.NewPCG(seed, 13))
+		term, sched := genTerm(rng, smallSpec(rng))
+		if bruteLeaves(term) > exactLeaves {
+			continue
+		}
+		first, err := Section(context.Background(), term, sched, Options{Seed: 1})
+		require.NoError(t, err)
+		if len(first.Enrolments) == 0 {
+			continue
+		}
+		tried++
+		kept := &timetable.Schedule{Placements: sched.Placements, Enrolments: first.Enrolments}
+		later := *term
+		later.Sections = append([]timetable.Section(nil), term.Sections...)
+		fixed := map[string]int{} // a limit stays at or above its fixed students (term data)
+		for _, e := range term.Enrolments {
+			fixed[e.Section]++
+		}
+		for i := range later.Sections {
+			s := &later.Sections[i]
+			s.Limit = max(1, s.Limit-1, fixed[s.ID])
+		}
+		changed := &timetable.Schedule{Placements: append([]timetable.Placement(nil), sched.Placements...)}
+		for i := range changed.Placements {
+			if changed.Placements[i].Period >= 0 && rng.IntN(3) == 0 {
+				changed.Placements[i].Period = rng.IntN(len(term.Periods))
+			}
+		}
+		want := bruteForce(&later, changed, kept)
+		res, err := Section(context.Background(), &later, changed, Options{Seed: int64(seed), Keep: kept})
+		require.NoError(t, err)
+		require.Empty(t, allSeatingErrors(&later, changed, res), "seed %d", seed)
+		require.Equal(t, want.String(), judge(&later, changed, kept, res).String(), "seed %d", seed)
+		moved += want.moved
+	}
+	require.GreaterOrEqual(t, tried, 50)
+	require.Positive(t, moved, "some changes should force moves")
 }

@@ -152,9 +152,22 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			}
 		}
 	}
+	// fixed enrolments, distinct; a section's limit is raised to hold its
+	// fixed students (a term over its limits by fixed enrolments alone is
+	// bad data, not a sectioning problem)
+	fixed := map[timetable.Enrolment]bool{}
+	count := map[int]int{}
 	for f := 0; f < g.fixed; f++ {
 		si := rng.IntN(len(t.Sections))
-		t.Enrolments = append(t.Enrolments, timetable.Enrolment{Student: fmt.Sprintf("S%05d", rng.IntN(max(g.students, 1))), Section: t.Sections[si].ID})
+		e := timetable.Enrolment{Student: fmt.Sprintf("S%05d", rng.IntN(max(g.students, 1))), Section: t.Sections[si].ID}
+		if fixed[e] {
+			continue
+		}
+		fixed[e] = true
+		count[si]++
+		t.Enrolments = append(t.Enrolments, e)
+		t.Sections[si].Limit = max(t.Sections[si].Limit, count[si])
+		t.Sections[si].Size = t.Sections[si].Limit
 	}
 	return t, s
 }

@@ -8,7 +8,8 @@ import (
 // Iterative improvement after the first seating, in rounds until a round
 // changes nothing or ctx ends:
 //   - unplaced requests are tried again (with repair) when a section of
-//     one of their courses has opened since they last failed;
+//     one of their courses has opened since they last failed, and failing
+//     that take the place of a less important request (priority.go);
 //   - a request met by an alternative moves to an earlier option that has
 //     room;
 //   - student moves (student.go): each student, in seeded random order,
@@ -93,7 +94,7 @@ func (p *problem) improve(ctx context.Context, sr *searcher, rep *repairer, rng 
 			if seen[r] == key {
 				continue
 			}
-			if o < 0 && rep.repair(r) || o > 0 && p.placeBest(sr, r, int(o)) {
+			if o < 0 && (rep.repair(r) || p.ejectFor(sr, rep, r)) || o > 0 && p.placeBest(sr, r, int(o)) {
 				changed = true
 			} else {
 				seen[r] = p.optionsKey(r, p.st.opt[r]) + 1

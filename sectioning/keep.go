@@ -65,11 +65,18 @@ func (p *problem) moves(keep *timetable.Schedule) []Move {
 		student, course string
 		part            int32
 	}
+	byID := make(map[string]int32, len(p.students))
+	for k := range p.students {
+		byID[p.students[k].id] = int32(k)
+	}
 	from := map[key]string{}
 	for _, e := range keep.Enrolments {
 		si, ok := p.secIdx[e.Section]
 		if !ok || p.secCourse[si] < 0 {
 			continue
+		}
+		if k, ok := byID[e.Student]; ok && p.isFixed(k, int32(si)) {
+			continue // now a fixed enrolment: the student did not move
 		}
 		from[key{e.Student, p.courses[p.secCourse[si]].ID, p.secPart[si]}] = e.Section
 	}

@@ -36,7 +36,7 @@ func TestFixedEnrolmentsStay(t *testing.T) {
 	term, sched := genTerm(rand.New(rand.NewPCG(4, 4)), g)
 	res, err := Section(context.Background(), term, sched, Options{Seed: 4})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, res))
+	require.Empty(t, allSeatingErrors(term, sched, res))
 	fixed := map[timetable.Enrolment]bool{}
 	load := map[string]int{}
 	for _, e := range term.Enrolments {
@@ -69,23 +69,26 @@ func TestFixedEnrolmentsStay(t *testing.T) {
 	require.Positive(t, aroundFixed, "the test term should seat someone around a fixed section")
 }
 
-// TestClashesAgreeWithCost: on grid terms, the clashes the sectioner
-// counts (judge, from the criterion's words) equal timetable.Cost's
-// "student clashes" over fixed and sectioned enrolments. Outside check:
-// the domain's cost function.
+// TestClashesAgreeWithCost: the clashes the sectioner counts, and those
+// judge counts from the criterion's words, equal timetable.Cost's
+// "student clashes" over fixed and sectioned enrolments, on grid terms
+// and on terms with meeting patterns and travel times. Outside check: the
+// domain's cost function.
 func TestClashesAgreeWithCost(t *testing.T) {
 	for seed := uint64(1); seed <= 4; seed++ {
-		term, sched := genTerm(rand.New(rand.NewPCG(seed, 9)), medium)
+		g := medium
+		g.patterns = seed%2 == 0
+		term, sched := genTerm(rand.New(rand.NewPCG(seed, 9)), g)
 		res, err := Section(context.Background(), term, sched, Options{Seed: int64(seed)})
 		require.NoError(t, err)
-		all := *term
-		all.Enrolments = append(append([]timetable.Enrolment(nil), term.Enrolments...), res.Enrolments...)
+		withStudents := &timetable.Schedule{Placements: sched.Placements, Enrolments: res.Enrolments}
 		var cost int64
-		for _, c := range timetable.Cost(&all, sched, nil).Criteria {
+		for _, c := range timetable.Cost(term, withStudents, nil).Criteria {
 			if c.Name == timetable.CritStudentClash {
 				cost = c.Count
 			}
 		}
+		require.Positive(t, cost)
 		got := judge(term, sched, nil, res)
 		require.Equal(t, cost, int64(got.clashes), "seed %d", seed)
 		p := newProblem(term, sched)
@@ -140,9 +143,15 @@ func TestKeepAfterChange(t *testing.T) {
 	require.NoError(t, err)
 	fresh, err := Section(context.Background(), term, changed, Options{Seed: 12})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, withKeep))
+	require.Empty(t, allSeatingErrors(term, changed, withKeep))
 	jk, jf := judge(term, changed, kept, withKeep), judge(term, changed, kept, fresh)
 	require.Less(t, jk.moved, jf.moved)
+	// the moved students as timetable.Cost counts them (outside check)
+	for _, c := range timetable.Cost(term, &timetable.Schedule{Placements: changed.Placements, Enrolments: withKeep.Enrolments}, kept).Criteria {
+		if c.Name == timetable.CritMovedStudents {
+			require.Equal(t, int64(jk.moved), c.Count)
+		}
+	}
 	require.LessOrEqual(t, jk.unplaced, jf.unplaced)
 	require.NotEmpty(t, withKeep.Moves)
 	// every move names a real change of the student's section in a part
@@ -168,13 +177,14 @@ func TestKeepAfterChange(t *testing.T) {
 	t.Logf("moved students: %d with keep, %d afresh; unplaced %d and %d; clashes %d and %d", jk.moved, jf.moved, jk.unplaced, jf.unplaced, jk.clashes, jf.clashes)
 }
 
-// TestSeatingErrorsCatchPlantedMistakes makes sure the rule checker used
-// above is not blind: each planted mistake is reported.
+// TestSeatingErrorsCatchPlantedMistakes makes sure the rule checkers used
+// above are not blind: each planted mistake is reported by seatingErrors
+// and (except unplaced requests, which it does not see) by timetable.Check.
 func TestSeatingErrorsCatchPlantedMistakes(t *testing.T) {
 	term, sched := genTerm(rand.New(rand.NewPCG(3, 3)), medium)
 	res, err := Section(context.Background(), term, sched, Options{Seed: 3})
 	require.NoError(t, err)
-	require.Empty(t, seatingErrors(term, res))
+	require.Empty(t, allSeatingErrors(term, sched, res))
 	idx := term.SectionIndex()
 	plants := []struct {
 		name  string
@@ -210,6 +220,84 @@ func TestSeatingErrorsCatchPlantedMistakes(t *testing.T) {
 			r := &Result{Enrolments: append([]timetable.Enrolment(nil), res.Enrolments...), Unplaced: append([]Unplaced(nil), res.Unplaced...)}
 			pl.plant(r)
 			require.NotEmpty(t, seatingErrors(term, r))
+			if pl.name != "an unplaced request not reported" { // Check does not see Result.Unplaced
+				require.Greater(t, len(allSeatingErrors(term, sched, r)), len(seatingErrors(term, r)), "timetable.Check should see it too")
+			}
 		})
 	}
+}
+
+// TestPriorityTakesScarcePlaces: a course with one place, held in the kept
+// sectioning by a student whose request has priority 3, goes to a new
+// student asking with priority 1; the other is left unplaced with a
+// reason (the number of unplaced requests is the same either way).
+func TestPriorityTakesScarcePlaces(t *testing.T) {
+	term := &timetable.Term{Periods: []timetable.Period{{Day: 1, Start: 540, End: 600}},
+		Sections: []timetable.Section{{ID: "A-1", Course: "A", Meetings: 1, Length: 1, NoRoom: true, Limit: 1, Weeks: 1}},
+		Requests: []timetable.Request{{Student: "late", Course: "A", Priority: 3}, {Student: "first", Course: "A", Priority: 1}},
+	}
+	sched := &timetable.Schedule{Placements: []timetable.Placement{{Section: "A-1", Meeting: 1, Period: 0}}}
+	kept := &timetable.Schedule{Placements: sched.Placements, Enrolments: []timetable.Enrolment{{Student: "late", Section: "A-1"}}}
+	for _, exact := range []bool{false, true} {
+		res, err := section(context.Background(), term, sched, Options{Keep: kept}, config{exact: exact})
+		require.NoError(t, err)
+		require.Equal(t, []timetable.Enrolment{{Student: "first", Section: "A-1"}}, res.Enrolments, "exact phase %v", exact)
+		require.Len(t, res.Unplaced, 1)
+		require.Equal(t, 0, res.Unplaced[0].Request)
+		require.Equal(t, "Course A is full (every section has reached its limit).", res.Unplaced[0].Reason)
+		require.Equal(t, []Move{{Student: "late", Course: "A", From: "A-1"}}, res.Moves)
+	}
+}
+
+// TestCancelledContextStillSeats: with its context already ended the
+// sectioner skips the improvement and returns the first seating, which
+// keeps every rule and is no better than the full run.
+func TestCancelledContextStillSeats(t *testing.T) {
+	term, sched := genTerm(rand.New(rand.NewPCG(5, 5)), medium)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	quick, err := Section(ctx, term, sched, Options{Seed: 5})
+	require.NoError(t, err)
+	require.Empty(t, allSeatingErrors(term, sched, quick))
+	full, err := Section(context.Background(), term, sched, Options{Seed: 5})
+	require.NoError(t, err)
+	jq, jf := judge(term, sched, nil, quick), judge(term, sched, nil, full)
+	require.False(t, jq.less(jf), "quick %v, full %v", jq, jf)
+	require.True(t, jf.less(jq), "the improvement should pay on this term: %v", jf)
+}
+
+// TestOddInputs: requests for unknown courses, the same course asked
+// twice, sections with no room at all, a kept timetable naming sections
+// and students the term no longer has: the sectioner keeps every rule
+// and says why each unmet request is unmet.
+func TestOddInputs(t *testing.T) {
+	rng := rand.New(rand.NewPCG(31, 31))
+	term, sched := genTerm(rng, medium)
+	term.Requests = append(term.Requests,
+		timetable.Request{Student: "S00001", Course: "NOPE"},
+		timetable.Request{Student: "S00002", Course: term.Requests[0].Course, Alternatives: []string{"NOPE"}},
+		timetable.Request{Student: term.Requests[0].Student, Course: term.Requests[0].Course})
+	fixed := map[string]bool{}
+	for _, e := range term.Enrolments {
+		fixed[e.Section] = true
+	}
+	for i := range term.Sections {
+		if rng.IntN(15) == 0 && !fixed[term.Sections[i].ID] {
+			term.Sections[i].Limit, term.Sections[i].Size = 0, 0
+		}
+	}
+	kept := &timetable.Schedule{Enrolments: []timetable.Enrolment{{Student: "gone", Section: term.Sections[0].ID}, {Student: "S00003", Section: "gone"}}}
+	res, err := Section(context.Background(), term, sched, Options{Seed: 31, Keep: kept})
+	require.NoError(t, err)
+	require.Empty(t, allSeatingErrors(term, sched, res))
+	n := len(term.Requests)
+	reasons := map[int]string{}
+	for _, u := range res.Unplaced {
+		require.NotEmpty(t, u.Reason)
+		reasons[u.Request] = u.Reason
+	}
+	require.Contains(t, reasons[n-3], "is not offered")
+	require.Contains(t, reasons[n-1], "through another request")
+	rep := NewReport(term, sched, res)
+	require.Len(t, rep.Unplaced, len(res.Unplaced))
 }

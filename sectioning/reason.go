@@ -53,7 +53,7 @@ func (p *problem) optionReason(r, c int32) string {
 	if len(p.fixedIn(k, c, nil)) > 0 {
 		return "cannot be completed around the student's fixed sections in it (a part is full or a parent link cannot be met)"
 	}
-	return "has no combination of sections with room that keeps every lab or tutorial with its parent section"
+	return "has no combination of sections with room that keeps each section with its parent section"
 }
 
 // partName names part pi for a sentence: "part Lab", "part Lab of

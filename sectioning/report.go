@@ -65,7 +65,8 @@ type StudentClash struct {
 }
 
 // NewReport summarises res, a sectioning of timetable s of term t (the
-// Result Section returned for them). It runs in
+// Result Section returned for them; entries naming no request or section
+// of t are left out). It runs in
 // O(sections + enrolments + Σ students·k²) for k sections per student.
 func NewReport(t *timetable.Term, s *timetable.Schedule, res *Result) *Report {
 	p := newProblem(t, s)
@@ -80,6 +81,9 @@ func NewReport(t *timetable.Term, s *timetable.Schedule, res *Result) *Report {
 		}
 	}
 	for _, u := range res.Unplaced {
+		if u.Request < 0 || u.Request >= len(t.Requests) {
+			continue // not a request of t
+		}
 		r := t.Requests[u.Request]
 		rep.Unplaced = append(rep.Unplaced, UnplacedRequest{Request: u.Request, Student: r.Student, Course: r.Course, Priority: r.Priority, Reason: u.Reason, Src: r.Src})
 	}

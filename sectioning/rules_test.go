@@ -7,6 +7,21 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
+// allSeatingErrors is seatingErrors together with what timetable.Check
+// (the domain's independent verifier) reports against the seating rule
+// for the timetable s with res's enrolments.
+func allSeatingErrors(t *timetable.Term, s *timetable.Schedule, res *Result) []string {
+	errs := seatingErrors(t, res)
+	withStudents := &timetable.Schedule{Placements: s.Placements, Enrolments: res.Enrolments}
+	for _, v := range timetable.Check(t, withStudents) {
+		switch v.Rule {
+		case timetable.RuleSeating, timetable.RuleSectionLimit, timetable.RuleNotRequested:
+			errs = append(errs, "timetable.Check: "+v.Msg)
+		}
+	}
+	return errs
+}
+
 // seatingErrors checks res against the seating rule of timetable.Course,
 // written out here from its doc comment and sharing no code with the
 // sectioner: every sectioned enrolment names a known section of a course;

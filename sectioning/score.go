@@ -118,14 +118,3 @@ func (p *problem) totals() totals {
 func (p *problem) primary(tt totals) int64 {
 	return tt.moved*p.mulMoved + tt.clashes*p.mulClash
 }
-
-// better reports whether a beats b (lower is better), ignoring priorities.
-func (p *problem) better(a, b totals) bool {
-	if a.unplaced != b.unplaced {
-		return a.unplaced < b.unplaced
-	}
-	if a.altRank != b.altRank {
-		return a.altRank < b.altRank
-	}
-	return p.primary(a) < p.primary(b)
-}
