@@ -58,6 +58,9 @@ func TestITCPlanMeasure(t *testing.T) {
 		ctx, cancel := context.WithTimeout(context.Background(), time.Duration(n)*time.Second)
 		t0 := time.Now()
 		rounds, _ := strconv.Atoi(os.Getenv("TERMWRIGHT_PLAN_ROUNDS")) // -1: no loop
+		if v := os.Getenv("TERMWRIGHT_PLAN_SKIPGLOBAL"); v != "" {
+			skipLaterGlobal = v == "1"
+		}
 		res, err := Plan(ctx, term, Options{OptimizeOptions: encode.OptimizeOptions{Seed: 1}, Rounds: rounds})
 		cancel()
 		if err != nil {
