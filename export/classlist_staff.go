@@ -38,7 +38,13 @@ type classStudent struct{ id, how string }
 
 // sectionStudents lists the students of each section (fixed enrolments,
 // then sectioned ones not already fixed there), each list sorted by ID.
+// It is made once per view (Publish's workers share it) and read-only.
 func (v *view) sectionStudents() map[string][]classStudent {
+	v.classOnce.Do(func() { v.classStudents = v.makeSectionStudents() })
+	return v.classStudents
+}
+
+func (v *view) makeSectionStudents() map[string][]classStudent {
 	out := map[string][]classStudent{}
 	type pair struct{ sec, st string }
 	seen := map[pair]bool{}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/termwright/termwright/timetable"
@@ -61,14 +62,18 @@ type view struct {
 	// (Term.StudentEnrolments).
 	enrolments []timetable.Enrolment
 	sectioned  []timetable.Enrolment // the timetable's own (Schedule.Enrolments)
-	days       []time.Weekday
-	dayCol     [7]int    // weekday -> grid column, -1 when the day has no periods
-	rows       []gridRow // distinct period times sorted by start, then end
-	rowOf      []int     // period index -> grid row
-	has        [][]bool  // [row][column]: that day has a period at that time
-	allWeeks   timetable.WeekSet
-	minutes    bool          // the grid rows come from pattern times too: rows are drawn to scale (see buildGrid)
-	cal        *calendarInfo // time zone and dates, made on first use by calendar()
+	// classStudents are the students of each section for class lists,
+	// made once by sectionStudents.
+	classOnce     sync.Once
+	classStudents map[string][]classStudent
+	days          []time.Weekday
+	dayCol        [7]int    // weekday -> grid column, -1 when the day has no periods
+	rows          []gridRow // distinct period times sorted by start, then end
+	rowOf         []int     // period index -> grid row
+	has           [][]bool  // [row][column]: that day has a period at that time
+	allWeeks      timetable.WeekSet
+	minutes       bool          // the grid rows come from pattern times too: rows are drawn to scale (see buildGrid)
+	cal           *calendarInfo // time zone and dates, made on first use by calendar()
 }
 
 // maxViewErrors bounds how many placement problems one error lists.
