@@ -64,22 +64,18 @@ var Criteria = []Criterion{
 
 // CriterionWeight returns the weight and level of criterion name for term t:
 // the Weights sheet entry when present, otherwise the default. The
-// sectioning criteria (unplaced requests, moved students) weigh 0 in a
-// term without course requests, so such a term is judged, and reported,
-// exactly as before they existed.
+// sectioning criteria (unplaced requests, moved students) have no default
+// weight in a term without course requests (CriterionApplies), so such a
+// term is judged, and reported, exactly as before they existed.
 func (t *Term) CriterionWeight(name string) (weight, level int) {
-	if !t.CriterionApplies(name) {
-		for _, c := range Criteria {
-			if c.Name == name {
-				return 0, c.Level
-			}
-		}
-	}
 	if w, ok := t.Weights[name]; ok {
 		return w.Weight, w.Level
 	}
 	for _, c := range Criteria {
 		if c.Name == name {
+			if !t.CriterionApplies(name) {
+				return 0, c.Level
+			}
 			return c.Weight, c.Level
 		}
 	}
@@ -87,9 +83,13 @@ func (t *Term) CriterionWeight(name string) (weight, level int) {
 }
 
 // CriterionApplies reports whether criterion name can count in t: the
-// sectioning criteria only where students request courses. Reports list
-// only the criteria that apply, so that a term without requests reads as
-// it did before sectioning existed.
+// sectioning criteria only where students request courses or the Weights
+// sheet names them. Reports list only the criteria that apply, so that a
+// term without requests reads as it did before sectioning existed.
 func (t *Term) CriterionApplies(name string) bool {
-	return len(t.Requests) > 0 || name != CritUnplaced && name != CritMovedStudents
+	if name != CritUnplaced && name != CritMovedStudents || len(t.Requests) > 0 {
+		return true
+	}
+	_, named := t.Weights[name]
+	return named
 }
