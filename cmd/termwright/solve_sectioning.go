@@ -15,18 +15,28 @@ import (
 // requests were met, the findings of the sectioning report (the workbook's
 // Sectioning sheet) and, with --keep, the students who changed section.
 type solveSectioning struct {
-	Requests         int               `json:"requests"`
-	Unplaced         int               `json:"unplaced"`
-	ByAlternative    int               `json:"met_by_alternative"`
-	Sectioned        int               `json:"sectioned_enrolments"` // (student, section) pairs the sectioner made
-	Full             int               `json:"full_sections"`
-	NearlyFull       int               `json:"nearly_full_sections"`
-	ClashingStudents int               `json:"students_with_clashes"`
-	TotalClashes     int               `json:"clashes"` // units of criterion "student clashes", fixed and sectioned students
-	Findings         []export.Finding  `json:"findings"`
-	Moves            []sectioning.Move `json:"moved_students,omitempty"` // with --keep
-	Kept             bool              `json:"kept"`                     // --keep was given
-	byKind           map[string][]int  // finding kind -> indexes into Findings
+	Requests         int                `json:"requests"`
+	Unplaced         int                `json:"unplaced"`
+	ByAlternative    int                `json:"met_by_alternative"`
+	Sectioned        int                `json:"sectioned_enrolments"` // (student, section) pairs the sectioner made
+	Full             int                `json:"full_sections"`
+	NearlyFull       int                `json:"nearly_full_sections"`
+	ClashingStudents int                `json:"students_with_clashes"`
+	TotalClashes     int                `json:"clashes"` // units of criterion "student clashes", fixed and sectioned students
+	Findings         []export.Finding   `json:"findings"`
+	Moves            []solveStudentMove `json:"moved_students,omitempty"` // with --keep
+	Kept             bool               `json:"kept"`                     // --keep was given
+	byKind           map[string][]int   // finding kind -> indexes into Findings
+}
+
+// solveStudentMove is one student's change of section against the kept
+// timetable (sectioning.Move); From or To is empty when the student was
+// not, or is no longer, in a section of that part.
+type solveStudentMove struct {
+	Student string `json:"student"`
+	Course  string `json:"course"`
+	From    string `json:"from,omitempty"`
+	To      string `json:"to,omitempty"`
 }
 
 // solveReasons are the sectioner's reasons by request, for the report.
@@ -52,7 +62,10 @@ func solveBuildSectioning(t *timetable.Term, res *planning.Result) *solveSection
 	sec := newSolveSectioning(t, res.Schedule, solveFindings(t, rep))
 	sec.ByAlternative, sec.TotalClashes, sec.Kept = rep.ByAlternative, rep.TotalClashes, res.Kept
 	if res.Kept {
-		sec.Moves = res.Sectioning.Moves
+		sec.Moves = []solveStudentMove{}
+		for _, m := range res.Sectioning.Moves {
+			sec.Moves = append(sec.Moves, solveStudentMove(m))
+		}
 	}
 	return sec
 }
@@ -183,7 +196,7 @@ func solvePrintSectioning(w io.Writer, s *solveSectioning) {
 // MA110-T1 → MA110-T2", "st-002 MA110: no longer in MA110-L,
 // MA110-T2", "st-003 MA110: now in MA110-L, MA110-T1" (changes of
 // section first, then the sections joined, then those left).
-func moveLines(moves []sectioning.Move) []string {
+func moveLines(moves []solveStudentMove) []string {
 	type key struct{ student, course string }
 	var order []key
 	changed, joined, left := map[key][]string{}, map[key][]string{}, map[key][]string{}
