@@ -164,3 +164,21 @@ func TestSolveKeepMovesFewStudents(t *testing.T) {
 	assert.Contains(t, string(cal), "STATUS:CANCELLED", "the tutorial left is cancelled in the student's calendar")
 	assert.Equal(t, 1, strings.Count(string(cal), "STATUS:CANCELLED"))
 }
+
+// TestMoveLines groups the moved students one line per student and
+// course: changes of section, then sections joined, then sections left.
+func TestMoveLines(t *testing.T) {
+	for _, tc := range []struct {
+		name  string
+		moves []solveStudentMove
+		want  []string
+	}{
+		{"one change", []solveStudentMove{{"S1", "C1", "T1", "T2"}}, []string{"S1 C1: T1 → T2"}},
+		{"left a course", []solveStudentMove{{"S2", "C1", "L", ""}, {"S2", "C1", "T2", ""}}, []string{"S2 C1: no longer in L, T2"}},
+		{"joined and changed", []solveStudentMove{{"S3", "C1", "", "L"}, {"S3", "C1", "T1", "T2"}, {"S3", "C2", "X", "Y"}},
+			[]string{"S3 C1: T1 → T2; now in L", "S3 C2: X → Y"}},
+		{"none", nil, []string{}},
+	} {
+		t.Run(tc.name, func(t *testing.T) { assert.Equal(t, tc.want, moveLines(tc.moves)) })
+	}
+}
