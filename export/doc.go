@@ -7,9 +7,12 @@
 //
 // Publish writes a whole directory (see its documentation for the layout);
 // the single writers are WriteTimetableWorkbook, WriteTimetableCSV,
-// WriteTimetableJSON, WritePersonPDF, WriteCombinedPDF and WriteICS. A
-// Subject names whose schedule to write: a staff member, room or cohort
-// (timetable.WhoStaff, WhoRoom, WhoCohort) or a student (WhoStudent).
+// WriteTimetableJSON, WritePersonPDF, WriteCombinedPDF, WriteICS,
+// WriteClassListCSV and WriteStaffClassLists. A Subject names whose
+// schedule to write: a staff member, room or cohort (timetable.WhoStaff,
+// WhoRoom, WhoCohort) or a student (WhoStudent). A student's sections are
+// their fixed enrolments (Term.Enrolments) and the timetable's sectioned
+// ones (Schedule.Enrolments), together Term.StudentEnrolments.
 //
 // Weekly grid PDF (one landscape page, A4 or US Letter): a header with the
 // person's, room's or cohort's name and details on the left and the term's
@@ -89,15 +92,38 @@
 // utilisation = occupied / grid periods; and a caution; with pattern
 // placements the same figures in hours, a room's utilisation being its
 // busy hours over the grid rows' hours on every day); then
-// Options.Extra. Sheet names go through SheetNames (Excel's limits). Every
+// Options.Extra. With sectioning (course requests in the term, or
+// sectioned students in the timetable) two sheets come after Load: the
+// class lists, timetable.ClassListSheet with timetable.ClassListColumns,
+// one row per sectioned student and section sorted by section then
+// student (fixed enrolments are term data and are not repeated), which
+// ReadSchedule reads back into Schedule.Enrolments; and the sectioning
+// report, SectioningSheet (SectioningColumns): the requests not met with
+// the sectioner's reason, the full and nearly full sections (from 90% of
+// their limit), and each student's pairs of sections that meet at the
+// same time, each with its term row; Options.Findings replaces the
+// report computed from the timetable (solve passes the sectioner's own,
+// which also knows clashes by travel time). A term without requests gets
+// neither sheet, so its workbook is what it was. Sheet names go through
+// SheetNames (Excel's limits). Every
 // sheet prints landscape on Options.Paper, one page wide, with its header
 // row (grids: day headers and time column) repeated on each page.
+//
+// Class lists for staff: one workbook per staff member teaching a section
+// with students (WriteStaffClassLists; a workbook rather than CSV so that
+// each section prints as its own titled roster and IDs stay text): the
+// sheet ClassListsSheet with every student of their sections, then a
+// sheet per section headed by its course and part, meetings and head
+// count against its limit. Fixed and sectioned students are both listed,
+// the Enrolment column saying which.
 //
 // CSV: the master sheet's columns and cells exactly (CSVColumns), RFC 4180
 // with CRLF, except that a cell a spreadsheet would take for a formula
 // (beginning with = + - @ tab or carriage return, OWASP "CSV Injection")
 // gets a single quote in front (timetable.SafeCSVCell; the readers take it
-// off). Workbook cells are typed strings and never formulas. JSON:
+// off). WriteClassListCSV writes the class lists the same way, with
+// timetable.ClassListColumns. Workbook cells are typed strings and never
+// formulas. JSON:
 // TimetableJSON, whose field names are stable.
 //
 // # Calendars (RFC 5545)

@@ -27,7 +27,7 @@ import (
 // one of its chosen meeting time's weeks and on one of its days (one event
 // per day of the pattern).
 func TestPublishedCalendarsParse(t *testing.T) {
-	for name, build := range map[string]func() (*timetable.Term, *timetable.Schedule){"demo": demoTerm, "busy": busyTerm, "pattern": patternTerm} {
+	for name, build := range map[string]func() (*timetable.Term, *timetable.Schedule){"demo": demoTerm, "busy": busyTerm, "pattern": patternTerm, "sectioned": sectionedTerm} {
 		t.Run(name, func(t *testing.T) {
 			term, s := build()
 			dir := filepath.Join(t.TempDir(), "out")
@@ -117,4 +117,56 @@ func TestPublishedCalendarsParse(t *testing.T) {
 			assert.Equal(t, len(term.Staff)+len(term.Rooms)+len(term.Cohorts)+len(v.students), calendars)
 		})
 	}
+}
+
+// TestSectionedStudentCalendars publishes the sectioned term with
+// students and reads two students' calendars with the independent
+// iCalendar library: st-010, only sectioned (MA110-L1 on Tuesdays at
+// 10:00, MA110-T2 on Wednesdays at 14:00, as the fixture places them), has
+// exactly those two events, and every occurrence of each falls on that
+// weekday and time; st-001, with fixed CS101 (two meetings) and CS102 and
+// sectioned MA110-L1 and MA110-T1, has all five.
+func TestSectionedStudentCalendars(t *testing.T) {
+	term, s := sectionedTerm()
+	dir := filepath.Join(t.TempDir(), "out")
+	_, err := Publish(dir, term, s, Options{Generated: fixedClock, Students: true})
+	require.NoError(t, err)
+	loc, err := time.LoadLocation(term.TimeZone)
+	require.NoError(t, err)
+	read := func(student string) *ics.Calendar {
+		fh, err := os.Open(filepath.Join(dir, "calendar", "students", student+".ics"))
+		require.NoError(t, err)
+		defer fh.Close()
+		cal, err := ics.ParseCalendar(fh)
+		require.NoError(t, err)
+		return cal
+	}
+	cal := read("st-010")
+	rules := vtimezoneRules(t, cal)
+	want := map[string]struct {
+		day  time.Weekday
+		hour int
+	}{"MA110-L1": {time.Tuesday, 10}, "MA110-T2": {time.Wednesday, 14}}
+	got := map[string]bool{}
+	for _, e := range cal.Events() {
+		id, _, _ := strings.Cut(e.GetProperty(ics.ComponentPropertySummary).Value, " ")
+		w, ok := want[id]
+		require.True(t, ok, "st-010 has no section %s", id)
+		got[id] = true
+		occ := expand(t, e, rules)
+		require.NotEmpty(t, occ)
+		for _, u := range occ {
+			local := u.In(loc)
+			assert.Equal(t, w.day, local.Weekday(), id)
+			assert.Equal(t, w.hour, local.Hour(), id)
+		}
+	}
+	assert.Len(t, got, 2)
+
+	var ids []string
+	for _, e := range read("st-001").Events() {
+		id, _, _ := strings.Cut(e.GetProperty(ics.ComponentPropertySummary).Value, " ")
+		ids = append(ids, id)
+	}
+	assert.ElementsMatch(t, []string{"CS101", "CS101", "CS102", "MA110-L1", "MA110-T1"}, ids)
 }

@@ -393,3 +393,59 @@ func TestLibreOfficeReadsPatternWorkbook(t *testing.T) {
 	assert.Equal(t, "09:00–09:50", grid[gridHeaderRow][0])
 	assert.True(t, strings.HasPrefix(grid[gridHeaderRow][1], "MA110 · 09:00–09:50\nCalculus I"), grid[gridHeaderRow][1])
 }
+
+// TestLibreOfficeReadsSectionedWorkbooks opens the timetable workbook of
+// the sectioned term and a staff member's class-list workbook in
+// LibreOffice Calc: the Class lists sheet shows exactly the class-list
+// rows under its header (the student ID "=cmd" as text, not a formula's
+// result), the Sectioning sheet one row per finding with its numbers, and
+// the class-list workbook its overview and each section's sheet with the
+// heading lines above the students.
+func TestLibreOfficeReadsSectionedWorkbooks(t *testing.T) {
+	term, s := sectionedTerm()
+	dir := t.TempDir()
+	var b bytes.Buffer
+	require.NoError(t, WriteTimetableWorkbook(&b, term, s, Options{Generated: fixedClock, Reasons: sectionedReasons}))
+	tt := filepath.Join(dir, "timetable.xlsx")
+	require.NoError(t, os.WriteFile(tt, b.Bytes(), 0o644))
+	b.Reset()
+	require.NoError(t, WriteStaffClassLists(&b, term, s, "S5", Options{Generated: fixedClock}))
+	cl := filepath.Join(dir, "S5.xlsx")
+	require.NoError(t, os.WriteFile(cl, b.Bytes(), 0o644))
+	out := filepath.Join(dir, "csv")
+	soffice(t, sofficeCSVFilter, out, tt, cl)
+	sheet := func(file, name string) [][]string { return readCSVFile(t, filepath.Join(out, file+"-"+name+".csv")) }
+	v, err := newView(term, s)
+	require.NoError(t, err)
+
+	lists := append([][]string{timetable.ClassListColumns}, v.classListRows()...)
+	got := sheet("timetable", timetable.ClassListSheet)
+	assert.Equal(t, trimRows(lists), got)
+	assert.Contains(t, flatten(got), "=cmd")
+
+	want := [][]string{SectioningColumns}
+	for _, f := range v.sectioningFindings(sectionedReasons) {
+		n, l := "", ""
+		if f.Kind == FindingFull || f.Kind == FindingNearlyFull {
+			n, l = fmt.Sprint(f.Students), fmt.Sprint(f.Limit)
+		}
+		want = append(want, []string{f.Kind, f.Student, f.Course, f.Section, n, l, f.Details, f.Where})
+	}
+	assert.Equal(t, trimRows(want), sheet("timetable", SectioningSheet))
+
+	overview := sheet("S5", ClassListsSheet)
+	require.Len(t, overview, 5)
+	assert.Equal(t, StaffClassListColumns, overview[0])
+	assert.Equal(t, []string{"MA110-T1", "MA110", "Tutorial", "Calculus I tutorial", "=cmd", "sectioned"}, overview[1])
+	t1 := sheet("S5", "MA110-T1")
+	assert.Equal(t, [][]string{
+		{"MA110-T1 Calculus I tutorial"},
+		{"Course MA110, part Tutorial, taught by Grete Strauß"},
+		{"Meeting 1: Mon 10:00–11:00, R999"},
+		{"2 students (limit 2)"},
+		{},
+		StaffClassListColumns,
+		{"MA110-T1", "MA110", "Tutorial", "Calculus I tutorial", "=cmd", "sectioned"},
+		{"MA110-T1", "MA110", "Tutorial", "Calculus I tutorial", "st-001", "sectioned"},
+	}, t1)
+}

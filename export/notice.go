@@ -35,6 +35,19 @@ type Notices struct {
 	cal  *view               // the same renumbered (Comparison.Renumber): numbers, so UIDs, of the old timetable
 	at   map[noticeKey][]int // section and meeting number -> indexes into cur.meetings (one per day of a meeting pattern)
 	days *calendarInfo       // the term's dates
+	// moves are the students' changes of section (SetSectionChanges), by student
+	moves map[string][]SectionChange
+}
+
+// SetSectionChanges gives the notices the students' changes of section
+// between the two timetables (SectionChanges): a student's Text lists
+// them, with the times of the section left and of the section joined, and
+// their Calendar cancels the events of the sections they left.
+func (n *Notices) SetSectionChanges(changes []SectionChange) {
+	n.moves = map[string][]SectionChange{}
+	for _, c := range changes {
+		n.moves[c.Student] = append(n.moves[c.Student], c)
+	}
 }
 
 // noticeKey names a meeting of the new timetable.
@@ -53,7 +66,13 @@ func NewNotices(t *timetable.Term, s *timetable.Schedule, c *timetable.Compariso
 	if err != nil {
 		return nil, err
 	}
-	cal, err := newView(t, c.Renumber(s))
+	renumbered := c.Renumber(s)
+	if len(renumbered.Enrolments) == 0 && len(s.Enrolments) > 0 {
+		copied := *renumbered // Renumber keeps the placements only; the sectioned students stay
+		copied.Enrolments = s.Enrolments
+		renumbered = &copied
+	}
+	cal, err := newView(t, renumbered)
 	if err != nil {
 		return nil, err
 	}
@@ -110,6 +129,14 @@ func (n *Notices) Text(w io.Writer, a timetable.Affected, calendarFile string) e
 			dropped = true
 		}
 	}
+	if who.Kind == WhoStudent {
+		for _, mv := range n.moves[who.ID] {
+			n.sectionChangeText(bw, mv)
+			if mv.From != "" {
+				dropped = true
+			}
+		}
+	}
 	fmt.Fprintln(bw, "\nEverything else stays as it was.")
 	if calendarFile != "" {
 		fmt.Fprintf(bw, "\nThe attached calendar file %s holds the whole updated timetable. Importing it updates\n"+
@@ -121,6 +148,55 @@ func (n *Notices) Text(w io.Writer, a timetable.Affected, calendarFile string) e
 		fmt.Fprintln(bw)
 	}
 	return bw.Flush()
+}
+
+// sectionChangeText writes one change of section: the course and part,
+// the section left with its earlier meetings, the one joined with its
+// meetings and dates.
+func (n *Notices) sectionChangeText(w io.Writer, mv SectionChange) {
+	what := mv.Course
+	if mv.Part != "" {
+		what += " " + mv.Part
+	}
+	switch {
+	case mv.From != "" && mv.To != "":
+		fmt.Fprintf(w, "\n%s: your section is now %s instead of %s\n", what, mv.To, mv.From)
+	case mv.To != "":
+		fmt.Fprintf(w, "\n%s: you are now in section %s\n", what, mv.To)
+	default:
+		fmt.Fprintf(w, "\n%s: you are no longer in section %s\n", what, mv.From)
+	}
+	for _, m := range n.oldMeetings(mv.From) {
+		fmt.Fprintf(w, "  was: %s meeting %d, %s\n", m.Section, m.Number, n.cur.noticePlace(m))
+	}
+	for _, m := range n.newMeetings(mv.To) {
+		fmt.Fprintf(w, "  now: %s meeting %d, %s%s\n", m.Section, m.Number, n.cur.noticePlace(m), n.dates(m))
+	}
+}
+
+// oldMeetings are the earlier timetable's meetings of the sections in
+// list (a SectionChange's From: IDs joined by ", "), in comparison order.
+func (n *Notices) oldMeetings(list string) []*timetable.Meeting {
+	return n.meetingsOf(list, func(ch *timetable.Change) *timetable.Meeting { return ch.Old })
+}
+
+// newMeetings are the new timetable's meetings of the sections in list.
+func (n *Notices) newMeetings(list string) []*timetable.Meeting {
+	return n.meetingsOf(list, func(ch *timetable.Change) *timetable.Meeting { return ch.New })
+}
+
+func (n *Notices) meetingsOf(list string, side func(*timetable.Change) *timetable.Meeting) []*timetable.Meeting {
+	if list == "" {
+		return nil
+	}
+	secs := strings.Split(list, ", ")
+	var out []*timetable.Meeting
+	for i := range n.c.Changes {
+		if m := side(&n.c.Changes[i]); m != nil && slices.Contains(secs, m.Section) {
+			out = append(out, m)
+		}
+	}
+	return out
 }
 
 // greeting is "Dear Dana Pell,", "Dear members of Year one (C1)," or

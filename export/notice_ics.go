@@ -34,6 +34,13 @@ func (n *Notices) Calendar(w io.Writer, who Subject, cancelled []timetable.Meeti
 		for i := range cancelled {
 			v.writeCancelled(iw, cal, &cancelled[i], who, gen, 0)
 		}
+		if who.Kind == WhoStudent {
+			for _, mv := range n.moves[who.ID] {
+				for _, m := range n.oldMeetings(mv.From) {
+					v.writeCancelled(iw, cal, m, who, gen, 0)
+				}
+			}
+		}
 		// A meeting pattern moved to fewer days a week keeps the events of
 		// its first days (same UIDs); the events of the days it lost are
 		// cancelled.

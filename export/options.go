@@ -14,7 +14,8 @@ type Options struct {
 	// PDF creation date and as DTSTAMP in calendars. Inject it for
 	// reproducible output; the zero time means "now".
 	Generated time.Time
-	// Students asks Publish for one calendar per enrolled student.
+	// Students asks Publish for one weekly grid PDF and one calendar per
+	// student (fixed and sectioned enrolments).
 	Students bool
 	// Force lets Publish replace an existing output directory, but only one
 	// that holds nothing except the files of an earlier publication.
@@ -24,6 +25,15 @@ type Options struct {
 	// go through SheetNames after the grid sheets' names, so a clash gets a
 	// "~2" suffix.
 	Extra []ExtraSheet
+	// Reasons say, by index into Term.Requests, why the sectioner could
+	// not meet a request (sectioning.Result.Unplaced); the sectioning
+	// report lists an unmet request without one as "not placed".
+	Reasons map[int]string
+	// Findings, when not nil, are the sectioning report's lines as the
+	// caller has them (for example from the sectioner's own report, which
+	// also knows clashes by travel time); otherwise the report is
+	// SectioningFindings of the timetable.
+	Findings []Finding
 }
 
 // ExtraSheet is an additional sheet of the timetable workbook: a header row

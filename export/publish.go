@@ -84,7 +84,15 @@ type publishJob struct {
 //	timetable.pdf, timetable.xlsx, timetable.csv, timetable.json
 //	pdf/{staff,rooms,cohorts}/<name>.pdf
 //	calendar/{staff,rooms,cohorts}/<name>.ics
-//	calendar/students/<name>.ics   (opt.Students, when there are enrolments)
+//	pdf/students/<name>.pdf, calendar/students/<name>.ics
+//	                               (opt.Students, when there are enrolments:
+//	                               fixed and sectioned)
+//	classlists.csv, classlists/staff/<name>.xlsx
+//	                               (with sectioning: course requests in the
+//	                               term or sectioned students in s; the CSV
+//	                               of WriteClassListCSV and, per staff member
+//	                               teaching a section with students,
+//	                               WriteStaffClassLists)
 //	manifest.json
 //
 // where <name> comes from SafeFileNames of the IDs (manifest.json maps
@@ -150,6 +158,16 @@ func (v *view) publishJobs(opt Options) []publishJob {
 		all("timetable.csv", "csv", func(w io.Writer) error { return writeCSV(w, v) }),
 		all("timetable.json", "json", func(w io.Writer) error { return writeJSON(w, v) }),
 	}
+	if v.sectioning() {
+		jobs = append(jobs, all("classlists.csv", "csv", func(w io.Writer) error { return writeClassListCSV(w, v) }))
+		staff := v.classListStaff()
+		for i, name := range SafeFileNames(staff) {
+			id := staff[i]
+			jobs = append(jobs, publishJob{
+				ManifestFile{Path: path.Join("classlists", "staff", name+".xlsx"), Format: "xlsx", Kind: "staff", ID: id},
+				func(w io.Writer) error { return v.writeStaffClassLists(w, id, opt) }})
+		}
+	}
 	groups := [][]Subject{}
 	for _, k := range []timetable.WhoKind{timetable.WhoStaff, timetable.WhoRoom, timetable.WhoCohort} {
 		var g []Subject
@@ -175,11 +193,9 @@ func (v *view) publishJobs(opt Options) []publishJob {
 		names := SafeFileNames(ids)
 		for i, who := range g {
 			who, kind := who, kindWord(who.Kind)
-			if who.Kind != WhoStudent {
-				jobs = append(jobs, publishJob{
-					ManifestFile{Path: path.Join("pdf", kindDir(who.Kind), names[i]+".pdf"), Format: "pdf", Kind: kind, ID: who.ID},
-					func(w io.Writer) error { return v.writePersonPDF(w, who, opt) }})
-			}
+			jobs = append(jobs, publishJob{
+				ManifestFile{Path: path.Join("pdf", kindDir(who.Kind), names[i]+".pdf"), Format: "pdf", Kind: kind, ID: who.ID},
+				func(w io.Writer) error { return v.writePersonPDF(w, who, opt) }})
 			jobs = append(jobs, publishJob{
 				ManifestFile{Path: path.Join("calendar", kindDir(who.Kind), names[i]+".ics"), Format: "ics", Kind: kind, ID: who.ID},
 				func(w io.Writer) error { return v.writeICS(w, who, opt, nil) }})

@@ -24,7 +24,7 @@ func TestPublish(t *testing.T) {
 		counts[c.Format+"/"+c.Kind] = c.Files
 	}
 	assert.Equal(t, map[string]int{
-		"pdf/all": 1, "pdf/staff": 5, "pdf/room": 4, "pdf/cohort": 2,
+		"pdf/all": 1, "pdf/staff": 5, "pdf/room": 4, "pdf/cohort": 2, "pdf/student": 3, // --students: a grid PDF per student too
 		"ics/staff": 5, "ics/room": 4, "ics/cohort": 2, "ics/student": 3,
 		"xlsx/all": 1, "csv/all": 1, "json/all": 1,
 	}, counts)

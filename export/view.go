@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/termwright/termwright/timetable"
@@ -55,15 +56,24 @@ type view struct {
 	byRoom    map[string][]int
 	byCohort  map[string][]int
 	byStudent map[string][]int
-	students  []string // distinct enrolled student IDs, sorted
-	days      []time.Weekday
-	dayCol    [7]int    // weekday -> grid column, -1 when the day has no periods
-	rows      []gridRow // distinct period times sorted by start, then end
-	rowOf     []int     // period index -> grid row
-	has       [][]bool  // [row][column]: that day has a period at that time
-	allWeeks  timetable.WeekSet
-	minutes   bool          // the grid rows come from pattern times too: rows are drawn to scale (see buildGrid)
-	cal       *calendarInfo // time zone and dates, made on first use by calendar()
+	students  []string // distinct enrolled student IDs (fixed and sectioned), sorted
+	// enrolments are every student's sections: the term's fixed
+	// enrolments, then the timetable's sectioned ones
+	// (Term.StudentEnrolments).
+	enrolments []timetable.Enrolment
+	sectioned  []timetable.Enrolment // the timetable's own (Schedule.Enrolments)
+	// classStudents are the students of each section for class lists,
+	// made once by sectionStudents.
+	classOnce     sync.Once
+	classStudents map[string][]classStudent
+	days          []time.Weekday
+	dayCol        [7]int    // weekday -> grid column, -1 when the day has no periods
+	rows          []gridRow // distinct period times sorted by start, then end
+	rowOf         []int     // period index -> grid row
+	has           [][]bool  // [row][column]: that day has a period at that time
+	allWeeks      timetable.WeekSet
+	minutes       bool          // the grid rows come from pattern times too: rows are drawn to scale (see buildGrid)
+	cal           *calendarInfo // time zone and dates, made on first use by calendar()
 }
 
 // maxViewErrors bounds how many placement problems one error lists.
@@ -77,15 +87,17 @@ func newView(t *timetable.Term, s *timetable.Schedule) (*view, error) {
 		return nil, errors.New("there is nothing to publish: no term or no timetable was given")
 	}
 	v := &view{
-		t:         t,
-		staff:     make(map[string]*timetable.Staff, len(t.Staff)),
-		rooms:     make(map[string]*timetable.Room, len(t.Rooms)),
-		cohorts:   make(map[string]*timetable.Cohort, len(t.Cohorts)),
-		byStaff:   map[string][]int{},
-		byRoom:    map[string][]int{},
-		byCohort:  map[string][]int{},
-		byStudent: map[string][]int{},
-		allWeeks:  t.AllWeeks(),
+		t:          t,
+		staff:      make(map[string]*timetable.Staff, len(t.Staff)),
+		rooms:      make(map[string]*timetable.Room, len(t.Rooms)),
+		cohorts:    make(map[string]*timetable.Cohort, len(t.Cohorts)),
+		byStaff:    map[string][]int{},
+		byRoom:     map[string][]int{},
+		byCohort:   map[string][]int{},
+		byStudent:  map[string][]int{},
+		allWeeks:   t.AllWeeks(),
+		enrolments: t.StudentEnrolments(s),
+		sectioned:  s.Enrolments,
 	}
 	for i := range t.Staff {
 		v.staff[t.Staff[i].ID] = &t.Staff[i]
@@ -222,7 +234,8 @@ func (v *view) resolve(s *timetable.Schedule) error {
 	return nil
 }
 
-// index fills the by* maps and the student list.
+// index fills the by* maps and the student list (fixed and sectioned
+// enrolments).
 func (v *view) index() {
 	bySection := map[string][]int{}
 	for i, m := range v.meetings {
@@ -238,7 +251,7 @@ func (v *view) index() {
 		}
 	}
 	taken := map[string]map[string]bool{}
-	for _, e := range v.t.Enrolments {
+	for _, e := range v.enrolments {
 		if taken[e.Student] == nil {
 			taken[e.Student] = map[string]bool{}
 			v.students = append(v.students, e.Student)
@@ -296,7 +309,7 @@ func (v *view) of(who Subject) ([]int, error) {
 		return v.byCohort[who.ID], nil
 	case WhoStudent:
 		if _, ok := v.byStudent[who.ID]; !ok {
-			return nil, fmt.Errorf("there is no student %q on the Enrolments sheet; use a student ID from it", who.ID)
+			return nil, fmt.Errorf("there is no student %q on the Enrolments sheet or the timetable's class lists; use a student ID from them", who.ID)
 		}
 		return v.byStudent[who.ID], nil
 	}

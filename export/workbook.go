@@ -17,7 +17,13 @@ const LoadSheet = "Load"
 // (one row per meeting sorted by day, start, section and meeting; frozen
 // header, autofilter), one weekly grid sheet per staff member, room and
 // cohort (days across, periods down, a merged block per meeting), the Load
-// sheet, then opt.Extra. timetable.ReadSchedule reads the master sheet back.
+// sheet, with sectioning (course requests in the term or sectioned
+// students in s) the timetable.ClassListSheet (one row per sectioned
+// student and section, timetable.ClassListColumns, sorted by section then
+// student) and the SectioningSheet (opt.Findings, or else
+// SectioningFindings with opt.Reasons),
+// then opt.Extra. timetable.ReadSchedule reads the master sheet and the
+// class lists back.
 func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedule, opt Options) error {
 	v, err := newView(t, s)
 	if err != nil {
@@ -62,7 +68,11 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 	for _, x := range opt.Extra {
 		wanted = append(wanted, x.Name)
 	}
-	names := SheetNames(wanted, timetable.TimetableSheet, LoadSheet)
+	reserved := []string{timetable.TimetableSheet, LoadSheet}
+	if v.sectioning() {
+		reserved = append(reserved, timetable.ClassListSheet, SectioningSheet)
+	}
+	names := SheetNames(wanted, reserved...)
 	for i, who := range subjects {
 		if err := wb.grid(names[i], who); err != nil {
 			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", names[i], err)
@@ -70,6 +80,14 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 	}
 	if err := wb.load(); err != nil {
 		return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", LoadSheet, err)
+	}
+	if v.sectioning() {
+		if err := wb.classLists(); err != nil {
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", timetable.ClassListSheet, err)
+		}
+		if err := wb.sectioningSheet(SectioningSheet, opt); err != nil {
+			return fmt.Errorf("the sheet %q of the timetable workbook could not be written: %w", SectioningSheet, err)
+		}
 	}
 	for i, x := range opt.Extra {
 		if err := wb.extra(names[len(subjects)+i], x); err != nil {

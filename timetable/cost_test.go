@@ -61,11 +61,12 @@ func TestCostOfTheFixture(t *testing.T) {
 		assert.Equal(t, w, [2]int64{c.Count, c.Cost}, c.Name)
 	}
 	// Level 1 holds avoid 3 + staff gaps 2 + cohort gaps 2 + isolated 4 = 11;
-	// levels 2 (student clashes), 3 (moved meetings, moved students) and 4
-	// (unplaced requests) have weight 1 and cost 0; level 0 criteria all
-	// have weight 0 and no entry.
-	assert.Equal(t, map[int]int64{1: 11, 2: 0, 3: 0, 4: 0}, r.ByLevel)
-	assert.Equal(t, []int{4, 3, 2, 1}, r.Levels())
+	// levels 2 (student clashes) and 3 (moved meetings) have weight 1 and
+	// cost 0; the sectioning criteria (unplaced requests at 4, moved
+	// students at 3) weigh 0 without requests (Term.CriterionApplies), so
+	// level 4 has no entry, nor do the level 0 criteria (weight 0).
+	assert.Equal(t, map[int]int64{1: 11, 2: 0, 3: 0}, r.ByLevel)
+	assert.Equal(t, []int{3, 2, 1}, r.Levels())
 	// S1: avoid 3; S2: gaps 2. C1: gaps 2 + isolated 3; C2: isolated 1.
 	assert.Equal(t, map[string]int64{"S1": 3, "S2": 2}, r.PerStaff)
 	assert.Equal(t, map[string]int64{"C1": 5, "C2": 1}, r.PerCohort)
@@ -207,8 +208,9 @@ func TestCostAttribution(t *testing.T) {
 	// BIO-101: stability 1 + wasted (60−25)+(60−25) = 71; CHE-210 wasted 10; PHY-110 2; ART-120 10.
 	assert.Equal(t, map[string]int64{"BIO-101": 71, "CHE-210": 10, "PHY-110": 2, "ART-120": 10}, r.PerSection)
 	// Level 0 now has weight: wasted 92. Level 1: 11 + travel 1 + stability 1 = 13.
-	// Levels 2–4 have weight and cost 0 (no clashes, nothing kept, no requests).
-	assert.Equal(t, map[int]int64{0: 92, 1: 13, 2: 0, 3: 0, 4: 0}, r.ByLevel)
+	// Levels 2 and 3 have weight and cost 0 (no clashes, nothing kept); no
+	// requests, so no level 4 (Term.CriterionApplies).
+	assert.Equal(t, map[int]int64{0: 92, 1: 13, 2: 0, 3: 0}, r.ByLevel)
 }
 
 func TestCostZeroWeightSwitchesOff(t *testing.T) {

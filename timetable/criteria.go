@@ -63,15 +63,33 @@ var Criteria = []Criterion{
 }
 
 // CriterionWeight returns the weight and level of criterion name for term t:
-// the Weights sheet entry when present, otherwise the default.
+// the Weights sheet entry when present, otherwise the default. The
+// sectioning criteria (unplaced requests, moved students) have no default
+// weight in a term without course requests (CriterionApplies), so such a
+// term is judged, and reported, exactly as before they existed.
 func (t *Term) CriterionWeight(name string) (weight, level int) {
 	if w, ok := t.Weights[name]; ok {
 		return w.Weight, w.Level
 	}
 	for _, c := range Criteria {
 		if c.Name == name {
+			if !t.CriterionApplies(name) {
+				return 0, c.Level
+			}
 			return c.Weight, c.Level
 		}
 	}
 	return 0, 0
+}
+
+// CriterionApplies reports whether criterion name can count in t: the
+// sectioning criteria only where students request courses or the Weights
+// sheet names them. Reports list only the criteria that apply, so that a
+// term without requests reads as it did before sectioning existed.
+func (t *Term) CriterionApplies(name string) bool {
+	if name != CritUnplaced && name != CritMovedStudents || len(t.Requests) > 0 {
+		return true
+	}
+	_, named := t.Weights[name]
+	return named
 }

@@ -5,6 +5,7 @@ import (
 	"net/http"
 	"strconv"
 
+	"github.com/termwright/termwright/export"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -17,6 +18,9 @@ type compareJSON struct {
 	Dropped  int            `json:"dropped"`
 	Same     int            `json:"unchanged"`
 	Affected []affectedJSON `json:"affected"`
+	// Students are the students' changes of section between the versions
+	// (terms with course requests).
+	Students []export.SectionChange `json:"students,omitempty"`
 }
 
 type affectedJSON struct {
@@ -24,6 +28,8 @@ type affectedJSON struct {
 	ID      string       `json:"id"`
 	Name    string       `json:"name,omitempty"`
 	Changes []changeJSON `json:"changes"`
+	// Sections are a student's changes of section.
+	Sections []export.SectionChange `json:"sections,omitempty"`
 }
 
 type changeJSON struct {
@@ -68,8 +74,17 @@ func (s *Server) handleCompare(w http.ResponseWriter, r *http.Request) {
 		Moved: c.Count(timetable.ChangeMoved), Added: c.Count(timetable.ChangeAdded),
 		Dropped: c.Count(timetable.ChangeDropped), Same: c.Count(timetable.ChangeUnchanged)}
 	cohorts := t.CohortIndex()
-	for _, af := range c.Affected(studentsOf(t)) {
-		aj := affectedJSON{Kind: af.Kind, ID: af.ID, Name: af.Name}
+	moves := export.SectionChanges(t, a, b)
+	out.Students = moves
+	for _, af := range export.WithSectionChanges(c.Affected(export.StayingStudents(t, a, b)), moves) {
+		aj := affectedJSON{Kind: af.Kind, ID: af.ID, Name: af.Name, Changes: []changeJSON{}}
+		if af.Kind == timetable.SubjectStudent {
+			for _, mv := range moves {
+				if mv.Student == af.ID {
+					aj.Sections = append(aj.Sections, mv)
+				}
+			}
+		}
 		if i, ok := cohorts[af.ID]; ok && af.Kind == timetable.SubjectCohort {
 			aj.Name = t.Cohorts[i].Name
 		}
@@ -86,17 +101,6 @@ func (s *Server) handleCompare(w http.ResponseWriter, r *http.Request) {
 		out.Affected = append(out.Affected, aj)
 	}
 	writeJSON(w, http.StatusOK, out)
-}
-
-func studentsOf(t *timetable.Term) map[string][]string {
-	if len(t.Enrolments) == 0 {
-		return nil
-	}
-	out := map[string][]string{}
-	for _, en := range t.Enrolments {
-		out[en.Section] = append(out[en.Section], en.Student)
-	}
-	return out
 }
 
 // placeText is "Tue 10:00–11:00 in R1" ("" for nil).

@@ -2,7 +2,7 @@
 // staff member, room, cohort and student, the master list, the broken
 // hard requirements (timetable.Check) and the cost per preference
 // (timetable.Cost), checked moves with undo, locked meetings and
-// "re-plan the rest" (encode.Optimize with the current timetable kept and
+// "re-plan the rest" (planning.Plan with the current timetable kept and
 // the locked meetings fixed), "where else" for a meeting (encode.PlacesOf:
 // every start, each proved by a timetable of the term) and "why not" for a
 // section at a cell (encode.Explain), saving new timetable versions,
@@ -27,6 +27,13 @@
 // instead of answering; pattern meetings are drawn by clock time and
 // moved to another of their patterns and rooms, judged by
 // timetable.Check.
+//
+// Terms with course requests: the timetable's sectioned students
+// (Schedule.Enrolments) change with it, so each state carries the
+// students and their sections (fixed and sectioned) for the student
+// grids; a re-plan seats them again (planning.Plan) and lists who changes
+// section, and comparisons and notices tell students of their changes of
+// section (export.SectionChanges).
 //
 // Requests are answered only under a loopback Host (or the host named
 // with --addr), and POST bodies only as JSON, against DNS rebinding and

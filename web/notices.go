@@ -36,6 +36,7 @@ type noticeSet struct {
 	cmp      *timetable.Comparison
 	affected []timetable.Affected
 	files    map[string]string // kind + "/" + ID -> calendar file name
+	moves    map[string]int    // student -> changes of section
 	oldName  string
 	newName  string
 }
@@ -64,7 +65,13 @@ func (s *Server) noticesLocked(old, new string) (*noticeSet, int, error) {
 	}
 	set := &noticeSet{notices: n, cmp: c, files: map[string]string{}, oldName: an, newName: bn}
 	ids := map[string][]string{}
-	for _, af := range c.Affected(studentsOf(t)) {
+	moves := export.SectionChanges(t, a, b)
+	n.SetSectionChanges(moves)
+	set.moves = map[string]int{}
+	for _, mv := range moves {
+		set.moves[mv.Student]++
+	}
+	for _, af := range export.WithSectionChanges(c.Affected(export.StayingStudents(t, a, b)), moves) {
 		if _, ok := export.NoticeSubject(af); ok {
 			set.affected = append(set.affected, af)
 			ids[af.Kind] = append(ids[af.Kind], af.ID)
@@ -96,7 +103,11 @@ func (s *Server) handleNotices(w http.ResponseWriter, r *http.Request) {
 			writeError(w, http.StatusInternalServerError, err.Error())
 			return
 		}
-		nj := noticeJSON{Kind: af.Kind, ID: af.ID, Name: af.Name, Changes: len(af.Changes), Text: buf.String(), File: file,
+		changes := len(af.Changes)
+		if af.Kind == timetable.SubjectStudent {
+			changes += set.moves[af.ID]
+		}
+		nj := noticeJSON{Kind: af.Kind, ID: af.ID, Name: af.Name, Changes: changes, Text: buf.String(), File: file,
 			Calendar: "/api/notices/calendar?" + calendarQuery(q.Get("old"), q.Get("new"), af.Kind, af.ID)}
 		if i, ok := t.CohortIndex()[af.ID]; ok && af.Kind == timetable.SubjectCohort {
 			nj.Name = t.Cohorts[i].Name

@@ -8,6 +8,8 @@ import (
 	"time"
 
 	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/export"
+	"github.com/termwright/termwright/planning"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -39,16 +41,19 @@ type placeSpec struct {
 type replanJSON struct {
 	// Status is "found" (a new timetable to keep or discard), "none" (no
 	// timetable holds the locks: a proof) or "unknown" (none found in time).
-	Status  string        `json:"status"`
-	Stopped string        `json:"stopped,omitempty"` // why the search ended
-	Proven  bool          `json:"proven,omitempty"`  // no timetable with these locks is cheaper
-	Locked  int           `json:"locked"`            // meetings held
-	Moves   []replanMove  `json:"moves"`             // meetings that move
-	Cost    []costChange  `json:"cost"`
-	Levels  []levelChange `json:"levels"`
-	Checked string        `json:"checked,omitempty"` // the gates it passed
-	Hard    []problemJSON `json:"hard,omitempty"`    // never set for "found": a broken timetable is an internal error
-	Notes   []string      `json:"notes,omitempty"`
+	Status  string       `json:"status"`
+	Stopped string       `json:"stopped,omitempty"` // why the search ended
+	Proven  bool         `json:"proven,omitempty"`  // no timetable with these locks is cheaper
+	Locked  int          `json:"locked"`            // meetings held
+	Moves   []replanMove `json:"moves"`             // meetings that move
+	// Students are the students who change section (terms with course
+	// requests only).
+	Students []export.SectionChange `json:"students,omitempty"`
+	Cost     []costChange           `json:"cost"`
+	Levels   []levelChange          `json:"levels"`
+	Checked  string                 `json:"checked,omitempty"` // the gates it passed
+	Hard     []problemJSON          `json:"hard,omitempty"`    // never set for "found": a broken timetable is an internal error
+	Notes    []string               `json:"notes,omitempty"`
 }
 
 // replanMove is one meeting the re-plan moves.
@@ -90,13 +95,14 @@ func (s *Server) handleReplan(w http.ResponseWriter, r *http.Request) {
 	pin := pinPatterns(work, kept, locks)
 	j, err := s.startJobLocked("replan", limit, func(ctx context.Context, j *job) {
 		j.setProgress(jobProgress{Phase: "looking for a first timetable with the locks"})
-		res, err := encode.Optimize(ctx, work, encode.OptimizeOptions{Seed: 1, Keep: pin.toWork(kept), Progress: func(p encode.Progress) {
+		planned, err := planning.Plan(ctx, work, planning.Options{OptimizeOptions: encode.OptimizeOptions{Seed: 1, Keep: pin.toWork(kept), Progress: func(p encode.Progress) {
 			j.setProgress(jobProgress{Phase: p.Phase, Cost: slices.Clone(p.Cost), Found: p.Found, Steps: p.Steps})
-		}})
+		}}})
 		if err != nil {
 			j.finish(nil, nil, err)
 			return
 		}
+		res := planned.OptimizeResult
 		if res.Schedule != nil {
 			res.Schedule = pin.fromWork(res.Schedule)
 		}
@@ -232,6 +238,7 @@ func replanAnswer(t *timetable.Term, kept *timetable.Schedule, locks map[meeting
 		}
 		out.Moves = append(out.Moves, rm)
 	}
+	out.Students = export.SectionChanges(t, kept, next)
 	j := judgeMove(t, kept, next)
 	out.Cost, out.Levels = j.Cost, j.Levels
 	return out, &snapshot{sched: next, locks: newLocks}, nil

@@ -66,7 +66,7 @@ func (p patternPins) renumber(s *timetable.Schedule, to func(string) int) *timet
 	if len(p.choice) == 0 || s == nil {
 		return s
 	}
-	out := &timetable.Schedule{Placements: slices.Clone(s.Placements)}
+	out := &timetable.Schedule{Placements: slices.Clone(s.Placements), Enrolments: s.Enrolments}
 	for i := range out.Placements {
 		if _, ok := p.choice[out.Placements[i].Section]; ok && out.Placements[i].Time > 0 {
 			out.Placements[i].Time = to(out.Placements[i].Section)

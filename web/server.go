@@ -7,6 +7,7 @@ import (
 	"net"
 	"net/http"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 	"time"
@@ -146,7 +147,7 @@ func (s *Server) allowedHost(hostport string) bool {
 }
 
 func cloneSchedule(s *timetable.Schedule) *timetable.Schedule {
-	out := &timetable.Schedule{Placements: make([]timetable.Placement, len(s.Placements))}
+	out := &timetable.Schedule{Placements: make([]timetable.Placement, len(s.Placements)), Enrolments: slices.Clone(s.Enrolments)}
 	copy(out.Placements, s.Placements)
 	return out
 }

@@ -2,6 +2,8 @@ package web
 
 import (
 	"net/http"
+	"slices"
+	"sort"
 	"strings"
 
 	"github.com/termwright/termwright/timetable"
@@ -16,6 +18,12 @@ type stateJSON struct {
 	Hard     []problemJSON `json:"hard"` // broken hard requirements
 	Soft     []problemJSON `json:"soft"` // student clashes (a preference)
 	Cost     costJSON      `json:"cost"`
+	// Students and Enrolled are the students of this timetable (fixed and
+	// sectioned enrolments, Term.StudentEnrolments) when the term has
+	// course requests: sectioned students change with the timetable, so
+	// they come with each state rather than with the term.
+	Students []subjectJSON       `json:"students,omitempty"`
+	Enrolled map[string][]string `json:"enrolled,omitempty"`
 }
 
 // meetingJSON is one placement as the page draws it.
@@ -80,7 +88,28 @@ func (s *Server) stateLocked() stateJSON {
 		}
 	}
 	out.Cost = costOf(timetable.Cost(t, s.cur, nil))
+	if len(t.Requests) > 0 || len(s.cur.Enrolments) > 0 {
+		out.Students, out.Enrolled = studentsJSON(t.StudentEnrolments(s.cur))
+	}
 	return out
+}
+
+// studentsJSON lists the students of enrolments (sorted by ID) and each
+// one's sections, each section once.
+func studentsJSON(ens []timetable.Enrolment) ([]subjectJSON, map[string][]string) {
+	students := []subjectJSON{}
+	enrolled := map[string][]string{}
+	for _, en := range ens {
+		list, ok := enrolled[en.Student]
+		if !ok {
+			students = append(students, subjectJSON{ID: en.Student})
+		}
+		if !slices.Contains(list, en.Section) {
+			enrolled[en.Student] = append(list, en.Section)
+		}
+	}
+	sort.Slice(students, func(i, j int) bool { return students[i].ID < students[j].ID })
+	return students, enrolled
 }
 
 func costOf(c timetable.CostReport) costJSON {

@@ -85,6 +85,9 @@ func writeCheckText(w io.Writer, t *timetable.Term, c timetable.Counts, ps timet
 		checkCount(c.Sections, "section"), checkCount(c.Meetings, "meeting"), checkCount(c.Staff, "staff member"),
 		checkCount(c.Rooms, "room"), checkCount(c.Cohorts, "cohort"), checkCount(c.Periods, "period"),
 		checkCount(c.Students, "student"), checkCount(c.Enrolments, "enrolment"))
+	if line := checkCourses(t); line != "" {
+		fmt.Fprintln(w, line)
+	}
 	for _, r := range renamedColumns(t) {
 		fmt.Fprintln(w, r)
 	}
@@ -120,4 +123,28 @@ func renamedColumns(t *timetable.Term) []string {
 		out = append(out, r.String())
 	}
 	return out
+}
+
+// checkCourses is "Sectioning: 4 requested courses (11 sections), 140
+// course requests from 52 students." for a term with course requests, ""
+// otherwise.
+func checkCourses(t *timetable.Term) string {
+	if len(t.Requests) == 0 {
+		return ""
+	}
+	courses := t.Courses()
+	secs := 0
+	for _, c := range courses {
+		for _, a := range c.Arrangements {
+			for _, p := range a.Parts {
+				secs += len(p.Sections)
+			}
+		}
+	}
+	students := map[string]bool{}
+	for _, r := range t.Requests {
+		students[r.Student] = true
+	}
+	return fmt.Sprintf("Sectioning: %s (%s), %s from %s.", checkCount(len(courses), "requested course"), checkCount(secs, "section"),
+		checkCount(len(t.Requests), "course request"), checkCount(len(students), "student"))
 }

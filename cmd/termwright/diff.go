@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/termwright/termwright/export"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -67,8 +68,10 @@ type diffInput struct {
 	term             *timetable.Term // nil without TERM
 	cmp              *timetable.Comparison
 	affected         []timetable.Affected
-	newHard          []timetable.Violation // hard requirements the new timetable breaks (with a term)
-	newSched         *timetable.Schedule   // the new timetable as read for the term (with a term)
+	newHard          []timetable.Violation  // hard requirements the new timetable breaks (with a term)
+	newSched         *timetable.Schedule    // the new timetable as read for the term (with a term)
+	oldSched         *timetable.Schedule    // the old timetable as read for the term (with a term)
+	moves            []export.SectionChange // students' changes of section (with a term)
 }
 
 // loadDiff reads both timetables (with the term when termPath is not ""),
@@ -95,19 +98,56 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 			return nil, err
 		}
 		if d.term != nil {
+			if err := diffClassLists(e.stderr, d.term, s, p); err != nil {
+				return nil, err
+			}
 			hard, err := diffFits(e.stderr, d.term, s, p, termPath, i == 0)
 			if err != nil {
 				return nil, err
 			}
 			if i == 1 {
 				d.newHard, d.newSched = hard, s
+			} else {
+				d.oldSched = s
 			}
 		}
 		sides[i] = ms
 	}
 	d.cmp = timetable.Compare(sides[0], sides[1])
-	d.affected = d.cmp.Affected(diffStudents(d.term))
+	if d.term == nil {
+		d.affected = d.cmp.Affected(nil)
+		return d, nil
+	}
+	// Students are told of their section's changes only where they stay in
+	// it; a change of section is told as such.
+	d.moves = export.SectionChanges(d.term, d.oldSched, d.newSched)
+	d.affected = export.WithSectionChanges(d.cmp.Affected(export.StayingStudents(d.term, d.oldSched, d.newSched)), d.moves)
 	return d, nil
+}
+
+// diffClassLists reads the sectioned students of timetable file path
+// (its Class lists sheet, read by timetable.ReadSchedule) into s, which
+// ReadMeetings read from the same file's timetable rows; the class lists'
+// own problems are printed, and an error among them fails.
+func diffClassLists(w io.Writer, t *timetable.Term, s *timetable.Schedule, path string) error {
+	if s == nil {
+		return nil
+	}
+	full, ps, err := timetable.ReadSchedule(path, t)
+	if err != nil {
+		return wrapCode(exitError, err)
+	}
+	var lists timetable.Problems
+	for _, p := range ps {
+		if p.Pos.Sheet == timetable.ClassListSheet {
+			lists = append(lists, p)
+		}
+	}
+	if err := diffProblems(w, path, lists, ""); err != nil {
+		return err
+	}
+	s.Enrolments = full.Enrolments
+	return nil
 }
 
 // diffProblems prints a reader's problems and fails when any is an error;
@@ -159,18 +199,6 @@ func diffFits(w io.Writer, t *timetable.Term, s *timetable.Schedule, path, termP
 	return hard, nil
 }
 
-// diffStudents maps each section to its enrolled students (nil without a term).
-func diffStudents(t *timetable.Term) map[string][]string {
-	if t == nil || len(t.Enrolments) == 0 {
-		return nil
-	}
-	out := map[string][]string{}
-	for _, en := range t.Enrolments {
-		out[en.Section] = append(out[en.Section], en.Student)
-	}
-	return out
-}
-
 // diffReport is the stable JSON form of a comparison.
 type diffReport struct {
 	Old      string        `json:"old"`
@@ -179,6 +207,9 @@ type diffReport struct {
 	Summary  diffSummary   `json:"summary"`
 	Sections []diffSection `json:"sections"` // sections with a change, by ID
 	Affected []diffSubject `json:"affected"` // staff, rooms, cohorts, students, each by ID
+	// StudentSections are the students' changes of section (with TERM,
+	// for a term whose students are sectioned).
+	StudentSections []export.SectionChange `json:"student_sections,omitempty"`
 }
 
 type diffSummary struct {
@@ -199,6 +230,8 @@ type diffSubject struct {
 	ID      string       `json:"id"`
 	Name    string       `json:"name,omitempty"`
 	Changes []diffChange `json:"changes"`
+	// Sections are a student's changes of section.
+	Sections []export.SectionChange `json:"sections,omitempty"`
 }
 
 // diffChange is one change; Change is the subject's view in Affected.
@@ -228,6 +261,11 @@ func diffBuildReport(d *diffInput) diffReport {
 	if d.term != nil {
 		rep.Term = d.term.Name
 	}
+	rep.StudentSections = d.moves
+	byStudent := map[string][]export.SectionChange{}
+	for _, mv := range d.moves {
+		byStudent[mv.Student] = append(byStudent[mv.Student], mv)
+	}
 	for i, ch := range c.Changes {
 		if ch.Kind == timetable.ChangeUnchanged {
 			continue
@@ -244,7 +282,10 @@ func diffBuildReport(d *diffInput) diffReport {
 		cohortNames = d.term.CohortIndex()
 	}
 	for _, a := range d.affected {
-		sub := diffSubject{Kind: a.Kind, ID: a.ID, Name: a.Name}
+		sub := diffSubject{Kind: a.Kind, ID: a.ID, Name: a.Name, Changes: []diffChange{}}
+		if a.Kind == timetable.SubjectStudent {
+			sub.Sections = byStudent[a.ID]
+		}
 		if i, ok := cohortNames[a.ID]; ok && a.Kind == timetable.SubjectCohort && d.term.Cohorts[i].Name != a.ID {
 			sub.Name = d.term.Cohorts[i].Name
 		}
@@ -289,12 +330,18 @@ func writeDiffText(w io.Writer, rep diffReport) {
 	if rep.Term != "" {
 		term = " (term " + rep.Term + ")"
 	}
-	fmt.Fprintf(w, "%s → %s%s: %d moved, %d added, %d dropped, %d unchanged\n", rep.Old, rep.New, term, s.Moved, s.Added, s.Dropped, s.Unchanged)
-	if len(rep.Sections) == 0 {
+	fmt.Fprintf(w, "%s → %s%s: %d moved, %d added, %d dropped, %d unchanged", rep.Old, rep.New, term, s.Moved, s.Added, s.Dropped, s.Unchanged)
+	if n := len(rep.StudentSections); n > 0 {
+		fmt.Fprintf(w, "; %s of section", checkCount(n, "student change"))
+	}
+	fmt.Fprintln(w)
+	if len(rep.Sections) == 0 && len(rep.StudentSections) == 0 {
 		fmt.Fprintln(w, "No differences.")
 		return
 	}
-	fmt.Fprintln(w, "\nSections")
+	if len(rep.Sections) > 0 {
+		fmt.Fprintln(w, "\nSections")
+	}
 	for _, sec := range rep.Sections {
 		fmt.Fprintf(w, "  %s\n", diffLabel(sec.ID, sec.Title))
 		for _, ch := range sec.Changes {
@@ -313,10 +360,29 @@ func writeDiffText(w io.Writer, rep diffReport) {
 		} else {
 			fmt.Fprintf(w, "  %s\n", a.ID)
 		}
+		for _, mv := range a.Sections {
+			fmt.Fprintf(w, "    %s\n", sectionChangeText(mv))
+		}
 		for _, ch := range a.Changes {
 			fmt.Fprintf(w, "    %s: %s\n", diffLabel(ch.Section, ch.Title), diffChangeText(ch))
 		}
 	}
+}
+
+// sectionChangeText is "MA110 Tutorial: section MA110-T1 → MA110-T2"
+// ("now in", "no longer in" when one side is empty).
+func sectionChangeText(mv export.SectionChange) string {
+	head := mv.Course
+	if mv.Part != "" {
+		head += " " + mv.Part
+	}
+	switch {
+	case mv.From == "":
+		return head + ": now in section " + mv.To
+	case mv.To == "":
+		return head + ": no longer in section " + mv.From
+	}
+	return head + ": section " + mv.From + " → " + mv.To
 }
 
 // diffLabel is "A101 Algebra" (the ID alone without a title).

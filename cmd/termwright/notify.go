@@ -24,7 +24,9 @@ func newNotifyCmd(e *env) *cobra.Command {
 		Use:   "notify TERM OLD NEW -o DIR",
 		Short: "Write a change notice and an updated calendar for everyone a new timetable affects",
 		Long: "notify compares two timetables of a term (as diff does) and writes, for every\n" +
-			"staff member, cohort and (with enrolments) student whose meetings changed:\n\n" +
+			"staff member, cohort and (with enrolments) student whose meetings changed, and\n" +
+			"for every student who changed section (a sectioned term: the timetables' Class\n" +
+			"lists sheets):\n\n" +
 			"  {staff,cohorts,students}/NAME.txt  a short plain text to paste into an e-mail:\n" +
 			"                                     what changed, old → new, with the dates\n" +
 			"  {staff,cohorts,students}/NAME.ics  their updated calendar (RFC 5545): the same\n" +
@@ -61,6 +63,11 @@ func runNotify(e *env, o *notifyOptions, termPath, oldPath, newPath string) erro
 	notices, err := export.NewNotices(d.term, d.newSched, d.cmp)
 	if err != nil {
 		return wrapCode(exitError, err)
+	}
+	notices.SetSectionChanges(d.moves)
+	moves := map[string]int{}
+	for _, mv := range d.moves {
+		moves[mv.Student]++
 	}
 	jobs := notifyJobs(d.affected)
 	if len(jobs) == 0 {
@@ -110,7 +117,11 @@ func runNotify(e *env, o *notifyOptions, termPath, oldPath, newPath string) erro
 		if err != nil {
 			return fail(wrapCode(exitError, err))
 		}
-		fmt.Fprintf(e.stdout, "%s  %s: %s\n", txt, j.a.ID, checkCount(len(j.a.Changes), "change"))
+		n := len(j.a.Changes)
+		if j.a.Kind == timetable.SubjectStudent {
+			n += moves[j.a.ID]
+		}
+		fmt.Fprintf(e.stdout, "%s  %s: %s\n", txt, j.a.ID, checkCount(n, "change"))
 	}
 	fmt.Fprintf(e.stdout, "Wrote %s and their calendars to %s.\n", checkCount(len(jobs), "notice"), o.out)
 	return nil

@@ -15,7 +15,7 @@ func init() { register("publish", newPublishCmd) }
 type publishOptions struct {
 	out      string // output directory
 	paper    string // PDF paper size: A4 or Letter
-	students bool   // also one calendar per enrolled student
+	students bool   // also a grid PDF and a calendar per student
 	force    bool   // replace an earlier publication in out
 }
 
@@ -28,11 +28,16 @@ func newPublishCmd(e *env) *cobra.Command {
 			"or a .csv with the same columns), checks the timetable, and writes into DIR:\n\n" +
 			"  timetable.pdf       cover page, master list by day and time, every weekly grid\n" +
 			"  timetable.xlsx      Timetable sheet, one weekly grid sheet per staff member,\n" +
-			"                      room and cohort, and a Load sheet (teaching load, room use)\n" +
+			"                      room and cohort, and a Load sheet (teaching load, room use);\n" +
+			"                      with course requests also Class lists and Sectioning sheets\n" +
 			"  timetable.csv/json  the master timetable for other systems\n" +
 			"  pdf/{staff,rooms,cohorts}/NAME.pdf       one landscape weekly grid each\n" +
 			"  calendar/{staff,rooms,cohorts}/NAME.ics  iCalendar files to import (RFC 5545)\n" +
-			"  calendar/students/NAME.ics               with --students, one per student\n" +
+			"  {pdf,calendar}/students/NAME.*           with --students, a grid and a calendar\n" +
+			"                                           per student (fixed and sectioned)\n" +
+			"  classlists.csv      with course requests: every sectioned student's sections\n" +
+			"  classlists/staff/NAME.xlsx               with course requests: per staff member,\n" +
+			"                                           a printable class list per section\n" +
 			"  manifest.json       every file written, with the ID it belongs to\n\n" +
 			"A timetable that breaks a hard requirement is not published: the problems are\n" +
 			"listed and publish exits with status 1. DIR must be new or empty; --force\n" +
@@ -42,7 +47,7 @@ func newPublishCmd(e *env) *cobra.Command {
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "directory to publish into (required; new, empty, or an earlier publication with --force)")
 	cmd.Flags().StringVar(&o.paper, "paper", "A4", "PDF paper size: A4 or Letter")
-	cmd.Flags().BoolVar(&o.students, "students", false, "also write one calendar per enrolled student")
+	cmd.Flags().BoolVar(&o.students, "students", false, "also write a weekly grid PDF and a calendar per student")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an earlier publication in the output directory")
 	addColumnsFlag(cmd, e)
 	return cmd
@@ -76,6 +81,10 @@ func runPublish(e *env, o *publishOptions, termPath, timetablePath string) error
 		}
 		return withCode(exitError, fmt.Sprintf("%s breaks %s, so it was not published; fix the timetable (or solve again) and publish it then",
 			timetablePath, checkCount(len(hard), "hard requirement")))
+	}
+	if len(term.Requests) > 0 && len(s.Enrolments) == 0 {
+		fmt.Fprintf(e.stderr, "note: %s has no class lists, so none of the term's %s is met in it; publish the workbook solve wrote (its Class lists sheet seats the students), or solve again\n",
+			timetablePath, checkCount(len(term.Requests), "course request"))
 	}
 	if soft := len(violations); soft > 0 {
 		fmt.Fprintf(e.stderr, "note: %s not met (the timetable is valid; see termwright's cost report for details)\n", checkCount(soft, "preference"))

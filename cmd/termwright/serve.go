@@ -14,6 +14,7 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/encode"
+	"github.com/termwright/termwright/planning"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 	"github.com/termwright/termwright/web"
@@ -190,7 +191,7 @@ func serveSolve(ctx context.Context, e *env, o *serveOptions, term *timetable.Te
 		defer cancel()
 	}
 	progress := newSolveProgress(e, o.quiet, term)
-	res, err := encode.Optimize(sctx, term, encode.OptimizeOptions{Seed: o.seed, Progress: progress.show})
+	res, err := planning.Plan(sctx, term, planning.Options{OptimizeOptions: encode.OptimizeOptions{Seed: o.seed, Progress: progress.show}})
 	progress.done()
 	if err != nil {
 		return nil, wrapCode(exitError, err)

@@ -14,6 +14,7 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/termwright/termwright/encode"
 	"github.com/termwright/termwright/export"
+	"github.com/termwright/termwright/planning"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -31,7 +32,7 @@ type solveOptions struct {
 	quiet     bool          // no progress display
 	keep      string        // earlier timetable to stay close to (minimal change)
 	steps     int           // neighbourhood steps at most; 0 = no limit
-	threads   int           // parallel searches (encode.OptimizePortfolio)
+	threads   int           // parallel searches (planning.Options.Threads)
 }
 
 func newSolveCmd(e *env) *cobra.Command {
@@ -46,9 +47,12 @@ func newSolveCmd(e *env) *cobra.Command {
 			"against the term and an independent evaluation of its cost — and writes the best\n" +
 			"timetable workbook (a Timetable sheet, a weekly grid per staff member, room and\n" +
 			"cohort, and a Quality sheet). It prints the cost of each preference and a lower\n" +
-			"bound: no timetable costs less. A term with errors is refused with the list of\n" +
-			"errors. With --publish DIR it also writes every PDF, workbook and calendar file\n" +
-			"into DIR (see termwright publish).\n\n" +
+			"bound: no timetable costs less. When students request courses (the Course\n" +
+			"requests sheet), it also seats them in sections, writes the Class lists and\n" +
+			"Sectioning sheets, and prints the requests not met with their reasons, the\n" +
+			"full sections and the students with clashes. A term with errors is refused\n" +
+			"with the list of errors. With --publish DIR it also writes every PDF, workbook\n" +
+			"and calendar file into DIR (see termwright publish).\n\n" +
 			"The search stops when the best timetable is proven, when it stops improving, at\n" +
 			"--time-limit, or on Ctrl-C, SIGTERM or SIGHUP (a second one stops at once); the\n" +
 			"best timetable found so far is checked and written. -o is checked before the\n" +
@@ -58,7 +62,9 @@ func newSolveCmd(e *env) *cobra.Command {
 			"so). Progress goes to standard error: one line redrawn on a terminal, a plain\n" +
 			"line every few seconds otherwise. With --keep LAST.xlsx it re-plans after late\n" +
 			"edits while moving as few meetings of LAST as it can, and lists every meeting\n" +
-			"that moved and who must be told.\n\n" +
+			"that moved and who must be told; students stay in LAST's sections where they\n" +
+			"can, and every student who changes section is listed (and on a Moved students\n" +
+			"sheet).\n\n" +
 			"Exit status: 0 when a timetable was written, 2 when no timetable exists (found\n" +
 			"by the search, or at once by the term check's counting; run termwright explain\n" +
 			"TERM to see why), 1 on errors or when the time limit or a stop signal ends the\n" +
@@ -96,7 +102,10 @@ type solveReport struct {
 	Nogoods   int           `json:"room_conflicts_forbidden"`
 	TimingsMS solveTimingMS `json:"timings_ms"`
 	Quality   *solveQuality `json:"quality,omitempty"`
-	Caution   string        `json:"caution,omitempty"`
+	// Sectioning summarises where the requesting students were seated
+	// (terms with course requests only).
+	Sectioning *solveSectioning `json:"sectioning,omitempty"`
+	Caution    string           `json:"caution,omitempty"`
 	// Reasons are the counting proofs that no timetable exists, when the
 	// term check finds them before any search.
 	Reasons []checkProblem `json:"reasons,omitempty"`
@@ -180,7 +189,9 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	}
 	progress := newSolveProgress(e, o.quiet || o.json, term)
 	t0 := time.Now()
-	res, err := encode.OptimizePortfolio(sctx, term, encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show}, max(o.threads, 1))
+	res, err := planning.Plan(sctx, term, planning.Options{
+		OptimizeOptions: encode.OptimizeOptions{Seed: o.seed, Keep: kept, MaxSteps: o.steps, Progress: progress.show},
+		Threads:         max(o.threads, 1)})
 	searched := time.Since(t0)
 	progress.done()
 	if err != nil {
@@ -193,7 +204,8 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		rep.Interrupted = sig
 	}
 	if res.Status == solver.Satisfiable {
-		rep.Quality = solveBuildQuality(term, res)
+		rep.Quality = solveBuildQuality(term, res.OptimizeResult)
+		rep.Sectioning = solveBuildSectioning(term, res)
 		if rep.Interrupted != "" {
 			rep.Quality.Stopped = "interrupted (" + rep.Interrupted + ")"
 		}
@@ -225,15 +237,23 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 		return withCode(exitError, fmt.Sprintf("no timetable found within %v; nothing was written — allow more time with --time-limit", o.timeLimit))
 	}
 	tw := time.Now()
+	extra, reasons := solveQualitySheets(term, res.OptimizeResult), solveReasons(res)
+	var findings []export.Finding
+	if rep.Sectioning != nil {
+		findings = rep.Sectioning.Findings
+		if res.Kept {
+			extra = append(extra, solveMovedStudentsSheet(res.Sectioning))
+		}
+	}
 	written, werr := writeOutput(o.out, o.force, func(w io.Writer) error {
-		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: solveQualitySheets(term, res)})
+		return export.WriteTimetableWorkbook(w, term, res.Schedule, export.Options{Generated: e.now(), Extra: extra, Reasons: reasons, Findings: findings})
 	})
 	if written == "" {
 		return wrapCode(exitError, werr)
 	}
 	rep.Status, rep.Output = "solved", written
 	if o.publish != "" && werr == nil {
-		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: solveQualitySheets(term, res)}); err != nil {
+		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: extra, Reasons: reasons, Findings: findings}); err != nil {
 			return failf(exitError, "the timetable was written to %s, but publishing failed: %w", written, err)
 		}
 		rep.Published = o.publish
@@ -375,6 +395,9 @@ func solvePrint(e *env, o *solveOptions, rep solveReport) error {
 		}
 		if rep.Quality != nil {
 			solvePrintQuality(w, rep.Quality)
+		}
+		if rep.Sectioning != nil {
+			solvePrintSectioning(w, rep.Sectioning)
 		}
 	case "infeasible":
 		fmt.Fprintf(w, "No timetable exists for %s (%s).\n", name, checkCount(rep.Sections, "section"))

@@ -52,7 +52,7 @@ type solveMove struct {
 
 func solveBuildQuality(t *timetable.Term, res *encode.OptimizeResult) *solveQuality {
 	q := &solveQuality{Proven: res.Proven, TimeProven: res.TimeProven, Stopped: res.Stopped, Steps: res.Steps,
-		Improvements: len(res.History), Criteria: res.Cost.Criteria, Levels: []solveLevel{}}
+		Improvements: len(res.History), Criteria: termCriteria(t, res.Cost.Criteria), Levels: []solveLevel{}}
 	for i, l := range res.Levels {
 		q.Levels = append(q.Levels, solveLevel{Level: l, Cost: res.Total[i], Bound: res.Bound[i]})
 	}
@@ -175,7 +175,7 @@ func solveQualitySheets(t *timetable.Term, res *encode.OptimizeResult) []export.
 	for i, l := range res.Levels {
 		q.Rows = append(q.Rows, []any{"level", fmt.Sprintf("level %d", l), l, "", "", res.Total[i], res.Bound[i]})
 	}
-	for _, c := range rep.Criteria {
+	for _, c := range termCriteria(t, rep.Criteria) {
 		q.Rows = append(q.Rows, []any{"criterion", c.Name, c.Level, c.Weight, c.Count, c.Cost, ""})
 	}
 	names := map[string]string{}
@@ -255,4 +255,17 @@ func keepCounts(k *solveKeep) string {
 		parts = append(parts, fmt.Sprintf("%d new", k.New))
 	}
 	return strings.Join(parts, ", ")
+}
+
+// termCriteria are the criteria of a cost report that apply to t
+// (timetable.Term.CriterionApplies): a term without course requests
+// reports as it did before the sectioning criteria existed.
+func termCriteria(t *timetable.Term, cs []timetable.CriterionCost) []timetable.CriterionCost {
+	out := make([]timetable.CriterionCost, 0, len(cs))
+	for _, c := range cs {
+		if t.CriterionApplies(c.Name) {
+			out = append(out, c)
+		}
+	}
+	return out
 }

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/termwright/termwright/export"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -48,7 +49,10 @@ type verifyReport struct {
 	Problems   []checkProblem    `json:"problems"` // problems reading the timetable
 	Violations []verifyViolation `json:"violations"`
 	Cost       verifyCost        `json:"cost"`
-	Caution    string            `json:"caution,omitempty"`
+	// Sectioning is the sectioning report of the timetable's students
+	// (terms with course requests only), from the timetable alone.
+	Sectioning *solveSectioning `json:"sectioning,omitempty"`
+	Caution    string           `json:"caution,omitempty"`
 }
 
 type verifyViolation struct {
@@ -91,6 +95,11 @@ func runVerify(e *env, o *verifyOptions, termPath, ttPath string) error {
 	}
 	vs := timetable.Check(term, s)
 	rep := verifyBuild(term, ttPath, s, sps, vs, timetable.Cost(term, s, nil))
+	if len(term.Requests) > 0 {
+		if fs, err := export.SectioningFindings(term, s, nil); err == nil {
+			rep.Sectioning = newSolveSectioning(term, s, fs)
+		}
+	}
 	if o.json {
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
@@ -119,7 +128,7 @@ func verifyBuild(t *timetable.Term, path string, s *timetable.Schedule, ps timet
 		Term: t.Name, Timetable: path, Meetings: len(s.Placements),
 		Problems:   []checkProblem{},
 		Violations: []verifyViolation{},
-		Cost:       verifyCost{Levels: []verifyLevel{}, Criteria: cost.Criteria},
+		Cost:       verifyCost{Levels: []verifyLevel{}, Criteria: termCriteria(t, cost.Criteria)},
 	}
 	for _, p := range append(ps.Errors(), ps.Warnings()...) {
 		rep.Problems = append(rep.Problems, checkProblem{Where: p.Pos.String(), Severity: p.Severity.String(), Message: p.Msg})
@@ -212,6 +221,9 @@ func verifyText(w io.Writer, rep verifyReport) {
 	}
 	if len(parts) > 0 {
 		fmt.Fprintln(w, "Cost, most important level first: "+strings.Join(parts, "; "))
+	}
+	if rep.Sectioning != nil {
+		solvePrintSectioning(w, rep.Sectioning)
 	}
 	if rep.Caution != "" {
 		fmt.Fprintln(w, "\nNote: "+rep.Caution)

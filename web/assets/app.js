@@ -69,7 +69,7 @@ function subjects() {
   for (const s of t.staff || []) out.push({ kind: "staff", id: s.id, label: s.name ? s.name + " (" + s.id + ")" : s.id });
   for (const r of t.rooms || []) out.push({ kind: "room", id: r.id, label: r.id + (r.detail ? " — " + r.detail : "") });
   for (const c of t.cohorts || []) out.push({ kind: "cohort", id: c.id, label: c.name && c.name !== c.id ? c.name + " (" + c.id + ")" : c.id });
-  for (const s of t.students || []) out.push({ kind: "student", id: s.id, label: s.id });
+  for (const s of S.state.students || t.students || []) out.push({ kind: "student", id: s.id, label: s.id });
   return out;
 }
 
@@ -93,7 +93,7 @@ function attends(m, s) {
     case "staff": return m.staff.includes(s.id);
     case "room": return m.room === s.id;
     case "cohort": return m.cohorts.includes(s.id);
-    case "student": return (S.term.enrolled[s.id] || []).includes(m.section);
+    case "student": return ((S.state.enrolled || S.term.enrolled)[s.id] || []).includes(m.section);
   }
   return false;
 }
@@ -438,7 +438,8 @@ async function compare(ev) {
     if (!c.affected.length) { out.append(el("p", { text: "No one's week changed." })); return; }
     for (const a of c.affected) {
       out.append(el("h3", { text: a.kind + " " + (a.name ? a.name + " (" + a.id + ")" : a.id) }));
-      out.append(el("ul", {}, ...a.changes.map((ch) => el("li", { text: ch.section + (ch.title ? " " + ch.title : "") + ": " + ch.change + " — " + [ch.from, ch.to].filter(Boolean).join(" → ") }))));
+      out.append(el("ul", {}, ...(a.sections || []).map((mv) => el("li", { text: mv.course + (mv.part ? " " + mv.part : "") + ": " + (mv.from && mv.to ? "section " + mv.from + " → " + mv.to : mv.to ? "now in section " + mv.to : "no longer in section " + mv.from) })),
+        ...a.changes.map((ch) => el("li", { text: ch.section + (ch.title ? " " + ch.title : "") + ": " + ch.change + " — " + [ch.from, ch.to].filter(Boolean).join(" → ") }))));
     }
   } catch (e) { notice(e.message, true); }
 }
@@ -543,6 +544,10 @@ async function replan(place) {
     out.append(el("p", {}, el("strong", { text: "A new timetable was found" + (j.stopped ? " (stopped early: the best so far)" : "") + ". " }),
       a.moves.length + " meeting" + (a.moves.length === 1 ? "" : "s") + " move; " + a.locked + " locked meeting" + (a.locked === 1 ? " stays" : "s stay") + " where " + (a.locked === 1 ? "it is" : "they are") + ". Checked: " + a.checked + "." + (a.proven ? " No timetable with these locks costs less." : "")));
     if (a.moves.length) out.append(el("ul", { id: "replan-moves" }, ...a.moves.map((mv) => el("li", { text: mv.section + ": " + [mv.from, mv.to].filter(Boolean).join(" → ") + (mv.change !== "moved" ? " (" + mv.change + ")" : "") }))));
+    if (a.students && a.students.length) {
+      out.append(el("p", { text: a.students.length + " change" + (a.students.length === 1 ? "" : "s") + " of section for students:" }));
+      out.append(el("ul", { id: "replan-students" }, ...a.students.map((mv) => el("li", { text: mv.student + ", " + mv.course + (mv.part ? " " + mv.part : "") + ": " + (mv.from && mv.to ? mv.from + " → " + mv.to : mv.to ? "now in " + mv.to : "no longer in " + mv.from) }))));
+    }
     if (a.cost.length) out.append(el("p", { text: "Change in cost: " + a.cost.map((c) => c.name + " " + c.before + " → " + c.after).join("; ") + "." }));
     else out.append(el("p", { text: "No change in cost." }));
     out.append(el("button", { type: "button", id: "replan-keep", onclick: () => decide(j.id, true), text: "Keep this timetable" }), " ",
