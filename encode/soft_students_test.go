@@ -12,11 +12,11 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// studentTerm is patternTerm with two buildings 25 minutes apart (travel
+// clashStudentTerm is patternTerm with two buildings 25 minutes apart (travel
 // rows on every seed), students enrolled in 2 or 3 random sections each,
 // and, when grid is set, one grid section on a small grid that students
 // share with the pattern sections.
-func studentTerm(seed int64, nSec int, grid bool) *timetable.Term {
+func clashStudentTerm(seed int64, nSec int, grid bool) *timetable.Term {
 	tm := patternTerm(seed, nSec, 3, 3)
 	rng := rand.New(rand.NewSource(seed * 31))
 	for r := range tm.Rooms {
@@ -53,7 +53,7 @@ func studentTerm(seed int64, nSec int, grid bool) *timetable.Term {
 func TestPatternStudentClashesAgreeWithCost(t *testing.T) {
 	checked, clashing := 0, 0
 	for seed := int64(1); seed <= 24; seed++ {
-		tm := studentTerm(seed, 4, seed%4 == 0)
+		tm := clashStudentTerm(seed, 4, seed%4 == 0)
 		p, cat, err := Compile(tm, Options{})
 		if err != nil {
 			continue // a section with no possible time or room
@@ -152,7 +152,7 @@ func forEachTimetable(tm *timetable.Term, cat *Catalog, fn func(*timetable.Sched
 // rules per section reported with those of the same term without
 // enrolments).
 func BenchmarkCompileStudentClashes(b *testing.B) {
-	tm := studentTerm(3, 150, false)
+	tm := clashStudentTerm(3, 150, false)
 	rng := rand.New(rand.NewSource(9))
 	tm.Enrolments = nil
 	for r := range tm.Rooms {
