@@ -160,6 +160,16 @@ func (b *builder) makeExplicitGrid() {
 	if len(explicit) == 0 {
 		return
 	}
+	if b.opt.Explain {
+		// The explicit grid rooms carry no selectors yet, so an
+		// explanation over them could name the wrong reasons: refuse.
+		for s := range t.Sections {
+			if explicit[s] {
+				b.errorf(t.Sections[s].Src, "explanations do not yet cover grid section %q, which shares rooms with meeting-pattern sections or travel times", t.Sections[s].ID)
+				return
+			}
+		}
+	}
 	b.c.gridRooms = map[int]*gridRoomModel{}
 	travel := len(t.Travel) > 0 && b.travelIndex().Most() > 0
 	saveG, saveK := b.group, b.boundKind

@@ -135,7 +135,7 @@ func TestPatternTermSearches(t *testing.T) {
 		assert.Contains(t, a.Error, "the term cannot be compiled")
 	} else {
 		require.Equal(t, http.StatusOK, code)
-		assert.True(t, a.Granted, "the timetable itself has the grid section there")
+		assert.True(t, a.Granted, "the timetable itself has the grid section there: %+v", a)
 	}
 
 	var j jobJSON
