@@ -87,7 +87,7 @@ func TestSolveWithRequests(t *testing.T) {
 
 	// publish of the workbook writes the class lists; publish of a CSV
 	// timetable (no class lists) says that nobody is seated in it.
-	e, stdout, stderr = solveEnv()
+	e, _, stderr = solveEnv()
 	require.Equal(t, exitOK, run([]string{"publish", termPath, out, "-o", filepath.Join(dir, "pub")}, e), "stderr: %s", stderr)
 	assert.FileExists(t, filepath.Join(dir, "pub", "classlists.csv"))
 	assert.NotContains(t, stderr.String(), "no class lists")
