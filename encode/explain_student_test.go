@@ -12,8 +12,8 @@ import (
 )
 
 // studentTerm: one student (ST1) asks for four courses on a pattern term
-// with two buildings 25 minutes apart. By construction: BIO is a lecture
-// with labs, each lab tied to its lecture (Parent); MTH-1 meets with
+// with two buildings 25 minutes apart. By construction: BIO is a main class
+// with labs, each lab tied to its main class (Parent); MTH-1 meets with
 // BIO-L1 (Mon 09:00), and CHM-1 starts ten minutes after BIO-LAB2 ends,
 // in the other building; so BIO with MTH needs L2+LAB2, BIO with CHM needs
 // L1+LAB1, and the three together always clash. ART is free on Friday.
@@ -30,8 +30,8 @@ func studentTerm() (*timetable.Term, *timetable.Schedule) {
 		})
 	}
 	dWed, dFri := timetable.DaysOf(time.Wednesday), timetable.DaysOf(time.Friday)
-	add("BIO-L1", "BIO", "Lecture", "", "N1", at(dMon, 9, 0, 50, 0))
-	add("BIO-L2", "BIO", "Lecture", "", "N1", at(dTue, 9, 0, 50, 0))
+	add("BIO-L1", "BIO", "Main", "", "N1", at(dMon, 9, 0, 50, 0))
+	add("BIO-L2", "BIO", "Main", "", "N1", at(dTue, 9, 0, 50, 0))
 	add("BIO-LAB1", "BIO", "Lab", "BIO-L1", "N1", at(dMon, 14, 0, 50, 0))
 	add("BIO-LAB2", "BIO", "Lab", "BIO-L2", "N1", at(dWed, 14, 0, 50, 0))
 	add("MTH-1", "MTH", "", "", "S1", at(dMon, 9, 0, 50, 0))
@@ -68,7 +68,7 @@ func TestExplainStudentClashes(t *testing.T) {
 	}
 	assert.Equal(t, []string{"BIO", "MTH", "CHM"}, courses)
 	assert.Equal(t, 4, ex.AllRequests)
-	assert.Equal(t, [][]string{{"BIO-L1", "BIO-LAB1"}, {"BIO-L2", "BIO-LAB2"}}, ex.Requests[0].Options, "a lab only with its own lecture")
+	assert.Equal(t, [][]string{{"BIO-L1", "BIO-LAB1"}, {"BIO-L2", "BIO-LAB2"}}, ex.Requests[0].Options, "a lab only with its own main class")
 	var pairs []string
 	for _, c := range ex.Clashes {
 		pairs = append(pairs, c.A.Section+"/"+c.B.Section+": "+c.Why)

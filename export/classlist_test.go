@@ -36,7 +36,7 @@ func TestClassListCSV(t *testing.T) {
 		}
 		return strings.Compare(a[4], b[4])
 	}), "sorted by section, then student")
-	assert.Contains(t, rows, []string{"MA110-L1", "MA110", "Lecture", "Calculus I", "'=cmd"})
+	assert.Contains(t, rows, []string{"MA110-L1", "MA110", "Main", "Calculus I", "'=cmd"})
 	for _, r := range rows[1:] {
 		assert.NotEqual(t, "CH203", r[0], "fixed enrolments are term data, not class-list rows")
 	}
@@ -96,7 +96,7 @@ func TestClassListsSheet(t *testing.T) {
 // TestSectioningFindings checks the report of the sectioned term against
 // the fixture worked out by hand: st-012's request unplaced with the
 // sectioner's reason and its Course requests row, st-013's met by its
-// alternative (not listed); both tutorials full (2 of 2), the lecture
+// alternative (not listed); both tutorials full (2 of 2), the main class
 // not listed (4 of 5 is 80%, under NearlyFullPercent); st-001's tutorial MA110-T1 (Mon 10:00)
 // meets together with its fixed CS101 (Mon 09:00-11:00). Golden file for
 // the report's text form.

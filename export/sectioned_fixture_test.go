@@ -7,7 +7,7 @@ import (
 )
 
 // sectionedTerm is demoTerm with a requested course: MA110 has one
-// lecture (limit 5) and two tutorials (limit 2 each) that belong to it,
+// main class (limit 5) and two tutorials (limit 2 each) that belong to it,
 // and six students ask for it. Four are sectioned (one of them with an ID
 // a spreadsheet would take for a formula), st-001's tutorial T1 meets at
 // the time of its fixed CS101 (a clash), st-012 is left out with the
@@ -21,7 +21,7 @@ func sectionedTerm() (*timetable.Term, *timetable.Schedule) {
 	}
 	t.Sections = append(t.Sections,
 		timetable.Section{ID: "MA110-L1", Title: "Calculus I", Staff: []string{"S2"}, Size: 60, Limit: 5, Meetings: 1, Length: 1, Weeks: all,
-			Course: "MA110", Part: "Lecture", Src: timetable.Source{Sheet: "Sections", Row: 8}},
+			Course: "MA110", Part: "Main", Src: timetable.Source{Sheet: "Sections", Row: 8}},
 		timetable.Section{ID: "MA110-T1", Title: "Calculus I tutorial", Staff: []string{"S5"}, Size: 10, Limit: 2, Meetings: 1, Length: 1, Weeks: all,
 			Course: "MA110", Part: "Tutorial", Parent: "MA110-L1", Src: timetable.Source{Sheet: "Sections", Row: 9}},
 		timetable.Section{ID: "MA110-T2", Title: "Calculus I tutorial", Staff: []string{"S5"}, Size: 10, Limit: 2, Meetings: 1, Length: 1, Weeks: all,

@@ -9,7 +9,7 @@ import (
 )
 
 // requestTerm is a small invented pattern term with courses in parts and
-// students' requests: each course has a lecture part (one section) and a
+// students' requests: each course has a main class part (one section) and a
 // lab part (two parallel sections with limits), every section a handful
 // of Mon/Wed or Tue/Thu meeting times that overlap the other courses'
 // times, rooms in two buildings 20 minutes apart, and students asking
@@ -44,7 +44,7 @@ func requestTerm(seed int64, courses, students int) *timetable.Term {
 			}
 			t.Sections = append(t.Sections, sec)
 		}
-		add(fmt.Sprintf("K%d-L", c+1), "Lecture", 0)
+		add(fmt.Sprintf("K%d-L", c+1), "Main", 0)
 		add(fmt.Sprintf("K%d-B1", c+1), "Lab", 1+students/3)
 		add(fmt.Sprintf("K%d-B2", c+1), "Lab", 1+students/3)
 	}

@@ -262,16 +262,16 @@ func campusRelations(t *timetable.Term) {
 
 // campusCourses makes courses of the sections and adds the course requests
 // of 44 invented students (IDs V28001 to V28044): BIO101, CHM101 and
-// BIO201 each have a main class (part Lecture) and two parallel labs (part
+// BIO201 each have a main class (part Main) and two parallel labs (part
 // Lab) whose parent is the main class; MTH110 has two parallel sections;
 // HIS220 (History Methods) has two arrangements, the Archive seminar or the
 // Online class.
 func campusCourses(t *timetable.Term) {
 	type course struct{ course, arr, part, parent string }
 	of := map[string]course{
-		"BIO101-L": {"BIO101", "", "Lecture", ""}, "BIO101-LAB-1": {"BIO101", "", "Lab", "BIO101-L"}, "BIO101-LAB-2": {"BIO101", "", "Lab", "BIO101-L"},
-		"CHM101-L": {"CHM101", "", "Lecture", ""}, "CHM101-LAB-1": {"CHM101", "", "Lab", "CHM101-L"}, "CHM101-LAB-2": {"CHM101", "", "Lab", "CHM101-L"},
-		"BIO201-L": {"BIO201", "", "Lecture", ""}, "BIO201-LAB-1": {"BIO201", "", "Lab", "BIO201-L"}, "BIO201-LAB-2": {"BIO201", "", "Lab", "BIO201-L"},
+		"BIO101-L": {"BIO101", "", "Main", ""}, "BIO101-LAB-1": {"BIO101", "", "Lab", "BIO101-L"}, "BIO101-LAB-2": {"BIO101", "", "Lab", "BIO101-L"},
+		"CHM101-L": {"CHM101", "", "Main", ""}, "CHM101-LAB-1": {"CHM101", "", "Lab", "CHM101-L"}, "CHM101-LAB-2": {"CHM101", "", "Lab", "CHM101-L"},
+		"BIO201-L": {"BIO201", "", "Main", ""}, "BIO201-LAB-1": {"BIO201", "", "Lab", "BIO201-L"}, "BIO201-LAB-2": {"BIO201", "", "Lab", "BIO201-L"},
 		"MTH110-A": {"MTH110", "", "", ""}, "MTH110-B": {"MTH110", "", "", ""},
 		"HIS202-S": {"HIS220", "Archive", "", ""}, "HIS210-W": {"HIS220", "Online", "", ""},
 	}

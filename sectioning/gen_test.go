@@ -63,7 +63,7 @@ func genTerm(rng *rand.Rand, g genSpec) (*timetable.Term, *timetable.Schedule) {
 			for pt := 0; pt < nParts; pt++ {
 				pid := ""
 				if nParts > 1 {
-					pid = []string{"Lecture", "Lab", "Tutorial", "Seminar"}[pt%4] + fmt.Sprint(pt/4+1)
+					pid = []string{"Main", "Lab", "Tutorial", "Seminar"}[pt%4] + fmt.Sprint(pt/4+1)
 				}
 				nSec := 1 + rng.IntN(g.maxSections)
 				child := g.parents && pt > 0 && len(first) > 0

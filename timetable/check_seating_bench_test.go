@@ -7,10 +7,10 @@ import (
 	"time"
 )
 
-// seatBenchTerm generates a term of 300 courses, each a lecture and four
-// labs whose parent is the lecture, one meeting each on a 40-period week
+// seatBenchTerm generates a term of 300 courses, each a main class and four
+// labs whose parent is the main class, one meeting each on a 40-period week
 // (no rooms), and nStudents students who request five courses each and
-// are sectioned into the lecture and one lab of each: a valid seating of
+// are sectioned into the main class and one lab of each: a valid seating of
 // 10 sectioned enrolments per student. Invented data.
 func seatBenchTerm(nStudents int) (*Term, *Schedule) {
 	rng := rand.New(rand.NewPCG(1, uint64(nStudents)))
@@ -25,7 +25,7 @@ func seatBenchTerm(nStudents int) (*Term, *Schedule) {
 	for c := range courses {
 		lec := fmt.Sprintf("C%03d-L", c)
 		t.Sections = append(t.Sections, Section{ID: lec, Meetings: 1, Length: 1, NoRoom: true, Weeks: t.AllWeeks(),
-			Course: fmt.Sprintf("C%03d", c), Part: "Lecture", Limit: nStudents})
+			Course: fmt.Sprintf("C%03d", c), Part: "Main", Limit: nStudents})
 		for l := range labs {
 			t.Sections = append(t.Sections, Section{ID: fmt.Sprintf("C%03d-B%d", c, l), Meetings: 1, Length: 1, NoRoom: true, Weeks: t.AllWeeks(),
 				Course: fmt.Sprintf("C%03d", c), Part: "Lab", Parent: lec, Limit: nStudents})

@@ -10,7 +10,7 @@ import (
 
 // seatTerm is ckTerm with courses (invented data):
 //
-//	BIO, one arrangement: part Lecture BIO-101; part Lab PHY-110 (limit 1)
+//	BIO, one arrangement: part Main BIO-101; part Lab PHY-110 (limit 1)
 //	     and CHE-210 (limit 2), both with parent BIO-101
 //	ART, arrangement A: ART-120 (limit 3; st1 and st2 are fixed in it);
 //	     arrangement B: ONL-100
@@ -23,7 +23,7 @@ func seatTerm() *Term {
 		s := &t.Sections[i]
 		s.Course, s.Arrangement, s.Part, s.Parent, s.Limit = course, arr, part, parent, limit
 	}
-	set("BIO-101", "BIO", "", "Lecture", "", 0)
+	set("BIO-101", "BIO", "", "Main", "", 0)
 	set("PHY-110", "BIO", "", "Lab", "BIO-101", 1)
 	set("CHE-210", "BIO", "", "Lab", "BIO-101", 2)
 	set("ART-120", "ART", "A", "", "", 3)
@@ -101,7 +101,7 @@ func TestCheckSeating(t *testing.T) {
 		{"no section of a part", func(_ *Term, s *Schedule) { without(s, "st8", "CHE-210") },
 			[]string{"seating: student st8 takes course BIO but no section of its part Lab (one of CHE-210 or PHY-110) (Class lists row 5)"}},
 		{"parent not held", func(_ *Term, s *Schedule) { without(s, "st8", "BIO-101") }, []string{
-			"seating: student st8 takes course BIO but no section of its part Lecture (section BIO-101) (Class lists row 6)",
+			"seating: student st8 takes course BIO but no section of its part Main (section BIO-101) (Class lists row 6)",
 			"seating: student st8 holds CHE-210 of course BIO but not its parent section BIO-101 (Class lists row 6; Sections row 3)"}},
 		{"two arrangements", func(_ *Term, s *Schedule) { s.Enrolments = append(s.Enrolments, seatEn(8, "st7", "ART-120")) }, []string{
 			"seating: student st7 holds sections of two arrangements of course ART: ONL-100 (arrangement B) and ART-120 (arrangement A); a student takes one arrangement (Class lists rows 4 and 8)",

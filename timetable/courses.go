@@ -27,7 +27,7 @@ type Arrangement struct {
 	Parts []Part // in order of first appearance; at least one
 }
 
-// Part is one part of an arrangement (for example the lectures, or the
+// Part is one part of an arrangement (for example the main classes, or the
 // labs) with its parallel sections.
 type Part struct {
 	ID       string // "" for the arrangement's only unnamed part

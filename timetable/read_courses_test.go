@@ -9,7 +9,7 @@ import (
 
 // courseSheets is goodSheets with courses: the five course columns of
 // Sections (M to Q) and a Course requests sheet. FND has two parts, a
-// lecture (SEC-1) and a reading group (SEC-4) whose parent is the lecture;
+// main class (SEC-1) and a reading group (SEC-4) whose parent is the main class;
 // LAB and SEM have one section each, SEM with a limit of 20. Invented data.
 func courseSheets() []testSheet {
 	sheets := goodSheets()
@@ -19,7 +19,7 @@ func courseSheets() []testSheet {
 		}
 		extra := [][]string{
 			{"Course", "Arrangement", "Part", "Parent section", "Limit"},
-			{"FND", "", "Lecture", "", ""},
+			{"FND", "", "Main", "", ""},
 			{"LAB", "", "", "", ""},
 			{"SEM", "", "", "", "20"},
 			{"FND", "", "Reading", "SEC-1", ""},
@@ -42,7 +42,7 @@ func TestReadCourses(t *testing.T) {
 	term, ps := readSheets(t, courseSheets())
 	require.Empty(t, ps)
 	s := term.Sections
-	assert.Equal(t, [5]any{"FND", "", "Lecture", "", 0}, [5]any{s[0].Course, s[0].Arrangement, s[0].Part, s[0].Parent, s[0].Limit})
+	assert.Equal(t, [5]any{"FND", "", "Main", "", 0}, [5]any{s[0].Course, s[0].Arrangement, s[0].Part, s[0].Parent, s[0].Limit})
 	assert.Equal(t, [5]any{"SEM", "", "", "", 20}, [5]any{s[2].Course, s[2].Arrangement, s[2].Part, s[2].Parent, s[2].Limit})
 	assert.Equal(t, [5]any{"FND", "", "Reading", "SEC-1", 0}, [5]any{s[3].Course, s[3].Arrangement, s[3].Part, s[3].Parent, s[3].Limit})
 	src := func(row int) Source { return Source{Sheet: "Course requests", Row: row} }
@@ -54,7 +54,7 @@ func TestReadCourses(t *testing.T) {
 	cs := term.Courses()
 	require.Len(t, cs, 3)
 	assert.Equal(t, Counts{Sections: 4, Meetings: 7, Staff: 3, Rooms: 3, Cohorts: 2, Periods: 25, Students: 2, Enrolments: 3, Courses: 3, Requests: 3}, Summary(term))
-	assert.Equal(t, []Part{{ID: "Lecture", Sections: []int{0}}, {ID: "Reading", Sections: []int{3}}}, cs[0].Arrangements[0].Parts)
+	assert.Equal(t, []Part{{ID: "Main", Sections: []int{0}}, {ID: "Reading", Sections: []int{3}}}, cs[0].Arrangements[0].Parts)
 }
 
 // TestReadCoursesCSV: the CSV folder form reads the same requests from
@@ -90,7 +90,7 @@ func TestCourseProblemsAtCells(t *testing.T) {
 		{"parent unknown", []cellEdit{e("Sections", "P5", "SEC-9")}, "", Error, `parent section "SEC-9" is not on the Sections sheet — correct the ID or clear Parent section`},
 		{"parent of another course", []cellEdit{e("Sections", "P5", "SEC-2")}, "", Error, `parent section "SEC-2" belongs to course "LAB", not "FND"`},
 		{"parent in another arrangement", []cellEdit{e("Sections", "N5", "B")}, "Sections!P5", Error, `parent section "SEC-1" is in arrangement "" of course "FND", not "B"`},
-		{"parent in the same part", []cellEdit{e("Sections", "O5", "Lecture")}, "Sections!P5", Error, `parent section "SEC-1" is in the same part "Lecture"`},
+		{"parent in the same part", []cellEdit{e("Sections", "O5", "Main")}, "Sections!P5", Error, `parent section "SEC-1" is in the same part "Main"`},
 		{"parent is itself", []cellEdit{e("Sections", "P5", "SEC-4")}, "", Error, "the section names itself as its parent"},
 		{"parent cycle", []cellEdit{e("Sections", "P2", "SEC-4")}, "", Error, `parent sections go round in a circle ("SEC-1" → "SEC-4" → "SEC-1") — clear Parent section in one of them`},
 		{"negative limit", []cellEdit{e("Sections", "Q4", "-1")}, "", Error, "Limit -1 is below 0"},

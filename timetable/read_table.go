@@ -121,7 +121,7 @@ var sheetSpecs = []sheetSpec{
 		"Blank: meetings fall on different days. A number: meetings may share a day; fewer days than this costs.",
 		"Course students request on the Course requests sheet (optional); blank = the section is not requested.",
 		"With Course: the way of taking the course this section belongs to, when it has more than one (e.g. A, B); blank = the only one.",
-		"With Course: its part, e.g. Lecture or Lab; a student takes one section of every part. Blank = the only part.",
+		"With Course: its part, e.g. Main class or Lab; a student takes one section of every part. Blank = the only part.",
 		"With Course: a section every student of this one also takes: same course and arrangement, another part.",
 		"Most students, fixed enrolments included; blank = Expected size. Must not exceed what the room may legally hold.",
 	}},

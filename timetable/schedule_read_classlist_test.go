@@ -16,7 +16,7 @@ func ckClassTerm() *Term {
 	for i := range t.Sections {
 		switch t.Sections[i].ID {
 		case "BIO-101":
-			t.Sections[i].Course, t.Sections[i].Part = "BIO", "Lecture"
+			t.Sections[i].Course, t.Sections[i].Part = "BIO", "Main"
 		case "ART-120":
 			t.Sections[i].Course = "ART"
 		}
@@ -53,7 +53,7 @@ func ckWorkbook(t testing.TB, sheets ...testSheet) []byte {
 func ckClassRows() [][]string {
 	return [][]string{
 		append([]string(nil), ClassListColumns...),
-		{"BIO-101", "BIO", "Lecture", "", "st7"},
+		{"BIO-101", "BIO", "Main", "", "st7"},
 		{"ART-120", "ART", "", "", "st7"},
 		{"BIO-101", "", "", "", "st8"},
 	}

@@ -55,7 +55,7 @@ func (v *validator) checkParent(s *Section, d string) {
 		case p.Arrangement != s.Arrangement:
 			v.ps.errorf(pos, "%sparent section %s is in arrangement %s of course %s, not %s — a parent is in the same arrangement; correct Parent section or Arrangement", d, Quote(s.Parent), Quote(p.Arrangement), Quote(s.Course), Quote(s.Arrangement))
 		case p.Part == s.Part:
-			v.ps.errorf(pos, "%sparent section %s is in the same part %s, and a student takes one section of each part — name a section of another part (such as the lecture a lab belongs to), or clear Parent section", d, Quote(s.Parent), Quote(s.Part))
+			v.ps.errorf(pos, "%sparent section %s is in the same part %s, and a student takes one section of each part — name a section of another part (such as the main class a lab belongs to), or clear Parent section", d, Quote(s.Parent), Quote(s.Part))
 		}
 	}
 }

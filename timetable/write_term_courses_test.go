@@ -13,7 +13,7 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// courseTerm is handTerm with courses: CHM101 in two parts (a lecture and
+// courseTerm is handTerm with courses: CHM101 in two parts (a main class and
 // two labs that name it as parent), CHM102 in two arrangements (the
 // tutorial, or the online elective), limits, and course requests with
 // priorities and alternatives. Invented data.
@@ -23,7 +23,7 @@ func courseTerm() *timetable.Term {
 		s := &t.Sections[i]
 		s.Course, s.Arrangement, s.Part, s.Parent, s.Limit = course, arr, part, parent, limit
 	}
-	set(0, "CHM101", "", "Lecture", "", 0)
+	set(0, "CHM101", "", "Main", "", 0)
 	set(1, "CHM101", "", "Lab", "CHM101-L", 22)
 	set(2, "CHM101", "", "Lab", "CHM101-L", 18)
 	set(3, "CHM102", "Tutored", "", "", 22)

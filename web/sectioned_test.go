@@ -17,7 +17,7 @@ import (
 )
 
 // sectionedFixture is a small grid term in which students S1..S4 ask for
-// STA100 (a lecture and two tutorials of limit 2 that belong to it), with
+// STA100 (a main class and two tutorials of limit 2 that belong to it), with
 // a timetable from planning.Plan, and a server over both.
 func sectionedFixture(t *testing.T) *demoFixture {
 	t.Helper()
@@ -37,7 +37,7 @@ func sectionedFixture(t *testing.T) *demoFixture {
 		return timetable.Section{ID: id, Title: "Statistics " + part, Staff: []string{staff}, Size: 10, Meetings: 1, Length: 1,
 			Weeks: term.AllWeeks(), Course: "STA100", Part: part, Parent: parent, Limit: limit}
 	}
-	term.Sections = []timetable.Section{sec("STA100-L", "P1", "Lecture", "", 5), sec("STA100-T1", "P2", "Tutorial", "STA100-L", 2), sec("STA100-T2", "P3", "Tutorial", "STA100-L", 2)}
+	term.Sections = []timetable.Section{sec("STA100-L", "P1", "Main", "", 5), sec("STA100-T1", "P2", "Tutorial", "STA100-L", 2), sec("STA100-T2", "P3", "Tutorial", "STA100-L", 2)}
 	for _, st := range []string{"S1", "S2", "S3", "S4"} {
 		term.Requests = append(term.Requests, timetable.Request{Student: st, Course: "STA100"})
 	}
@@ -47,7 +47,7 @@ func sectionedFixture(t *testing.T) *demoFixture {
 	res, err := planning.Plan(context.Background(), term, planning.Options{})
 	require.NoError(t, err)
 	require.NotNil(t, res.Schedule)
-	require.Len(t, res.Schedule.Enrolments, 8, "four students, a lecture and a tutorial each")
+	require.Len(t, res.Schedule.Enrolments, 8, "four students, a main class and a tutorial each")
 	dir := t.TempDir()
 	srv, err := New(Options{Term: term, Schedule: res.Schedule, OutDir: dir, BaseName: "sectioned",
 		Now: func() time.Time { return time.Date(2027, 9, 1, 10, 0, 0, 0, time.UTC) }})
@@ -88,7 +88,7 @@ func TestSectionedStateAndReplan(t *testing.T) {
 
 // TestBrowserSectionedStudent opens the page on the sectioned term and
 // finds a sectioned student (who is on no Enrolments sheet): their week
-// shows the lecture and their one tutorial, taken from the timetable's
+// shows the main class and their one tutorial, taken from the timetable's
 // sectioned students.
 func TestBrowserSectionedStudent(t *testing.T) {
 	exe := chromium(t)

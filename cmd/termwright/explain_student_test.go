@@ -16,7 +16,7 @@ import (
 // studentFiles writes a small invented term with courses and one
 // student's requests, and a timetable of it, as workbooks in a temporary
 // folder. By construction (worked by hand): BIO's labs belong to their
-// lectures; MTH-1 meets with BIO-L1 on Monday at 09:00; CHM-1 starts ten
+// main classes; MTH-1 meets with BIO-L1 on Monday at 09:00; CHM-1 starts ten
 // minutes after BIO-LAB2 ends, in the other building, 25 minutes away; so
 // BIO, MTH and CHM cannot be combined, and ART (Friday) is free.
 func studentFiles(t *testing.T) (termPath, schedPath string) {
@@ -31,8 +31,8 @@ func studentFiles(t *testing.T) (termPath, schedPath string) {
 			RoomChoices: []timetable.RoomChoice{{Room: room}},
 			Times:       []timetable.TimeChoice{{Days: timetable.DaysOf(day), Start: timetable.Clock(60 * h), Minutes: 50, Weeks: tm.AllWeeks()}}})
 	}
-	add("BIO-L1", "BIO", "Lecture", "", "N1", time.Monday, 9)
-	add("BIO-L2", "BIO", "Lecture", "", "N1", time.Tuesday, 9)
+	add("BIO-L1", "BIO", "Main", "", "N1", time.Monday, 9)
+	add("BIO-L2", "BIO", "Main", "", "N1", time.Tuesday, 9)
 	add("BIO-LAB1", "BIO", "Lab", "BIO-L1", "N1", time.Monday, 14)
 	add("BIO-LAB2", "BIO", "Lab", "BIO-L2", "N1", time.Wednesday, 14)
 	add("MTH-1", "MTH", "", "", "S1", time.Monday, 11)

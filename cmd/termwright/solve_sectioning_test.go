@@ -15,7 +15,7 @@ import (
 	"github.com/xuri/excelize/v2"
 )
 
-// solveCourseTerm is a term with one requested course, STA100: a lecture
+// solveCourseTerm is a term with one requested course, STA100: a main class
 // (limit 5) with two tutorials that belong to it (limits t1 and t2), each
 // taught by its own person in its own room so that any two can meet at
 // once, four Monday periods, and students S1..S<n> asking for STA100.
@@ -36,7 +36,7 @@ func solveCourseTerm(n, t1, t2 int) *timetable.Term {
 		return timetable.Section{ID: id, Title: "Statistics " + part, Staff: []string{staff}, Size: 10, Meetings: 1, Length: 1,
 			Weeks: t.AllWeeks(), Course: "STA100", Part: part, Parent: parent, Limit: limit}
 	}
-	t.Sections = []timetable.Section{sec("STA100-L", "P1", "Lecture", "", 5), sec("STA100-T1", "P2", "Tutorial", "STA100-L", t1), sec("STA100-T2", "P3", "Tutorial", "STA100-L", t2)}
+	t.Sections = []timetable.Section{sec("STA100-L", "P1", "Main", "", 5), sec("STA100-T1", "P2", "Tutorial", "STA100-L", t1), sec("STA100-T2", "P3", "Tutorial", "STA100-L", t2)}
 	for i := 1; i <= n; i++ {
 		t.Requests = append(t.Requests, timetable.Request{Student: "S" + string(rune('0'+i)), Course: "STA100"})
 	}
@@ -46,7 +46,7 @@ func solveCourseTerm(n, t1, t2 int) *timetable.Term {
 // TestSolveWithRequests solves a term in which five students ask for a
 // course whose tutorials hold four (limits 2 and 2): the output names one
 // unmet request with its reason and both tutorials full; the workbook's
-// Class lists sheet holds the eight seats (four students, lecture and
+// Class lists sheet holds the eight seats (four students, main class and
 // tutorial each) and reads back as the timetable's sectioned students,
 // which pass timetable.Check's seating rule; the Sectioning sheet lists
 // the unmet request and the full tutorials.
@@ -114,7 +114,7 @@ func TestSolveWithRequests(t *testing.T) {
 // two tutorials of limit 2, then lowers the first tutorial's limit to 1
 // and raises the second's to 3, and solves again keeping the first
 // timetable: exactly one student has to change tutorial (one seat fewer
-// in T1; the lecture has room for all), and the change report, text and
+// in T1; the main class has room for all), and the change report, text and
 // JSON and the Moved students sheet, names that one student moving from
 // STA100-T1 to STA100-T2. diff and notify then tell that student of the
 // change of section.

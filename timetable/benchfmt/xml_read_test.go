@@ -173,7 +173,7 @@ func TestReadXMLByteOrderMark(t *testing.T) {
 }
 
 // courseXML is a hand-made instance with course A in two configurations
-// (config 1: a lecture subpart with classes 1, 2 and a lab subpart with
+// (config 1: a main class subpart with classes 1, 2 and a lab subpart with
 // classes 3, 4 whose parents are 1 and 2; config 2: one class 5) and
 // course B with one class 6, and students 7 (A, B), 8 (B) and 9 (A).
 // Student weight 4.

@@ -21,7 +21,7 @@ type sectioningCase struct {
 }
 
 // courseSeatings are the hand-worked cases. The valid base: 7 in 1, 3 (A's
-// first configuration, lab 3 under lecture 1) and 6 (B); 8 in 6; 9 in 2, 4.
+// first configuration, lab 3 under main class 1) and 6 (B); 8 in 6; 9 in 2, 4.
 var courseSeatings = []sectioningCase{
 	{"valid", map[string][]string{"1": {"7"}, "3": {"7"}, "6": {"7", "8"}, "2": {"9"}, "4": {"9"}}, 0},
 	{"valid other configuration", map[string][]string{"5": {"7"}, "6": {"7", "8"}, "2": {"9"}, "4": {"9"}}, 0},
