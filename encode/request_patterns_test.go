@@ -1,7 +1,6 @@
 package encode
 
 import (
-	"strings"
 	"testing"
 	"time"
 
@@ -12,10 +11,13 @@ import (
 
 // TestRequestsCSVPatterns: a requests file names meeting times as the
 // Meeting times sheet writes days ("Mon Wed Fri 9:00") or by one day and
-// start; a bad time is reported at its row.
+// start; a bad time is reported at its cell.
 func TestRequestsCSVPatterns(t *testing.T) {
-	reqs, err := ParseRequestsCSV(strings.NewReader("Section,At,Room\nA,Mon Wed Fri 9:00,R1\nB,Tue 10:30,\n"), "Requests")
+	rows, ps, err := timetable.ParseRequests([]byte("Section,At,Room\nA,Mon Wed Fri 9:00,R1\nB,Tue 10:30,\n"), "Requests.csv")
 	require.NoError(t, err)
+	require.Empty(t, ps)
+	reqs, ps := RequestsOf(rows)
+	require.Empty(t, ps)
 	require.Len(t, reqs, 2)
 	assert.Equal(t, timetable.DaysOf(time.Monday, time.Wednesday, time.Friday), reqs[0].Days)
 	assert.Equal(t, time.Monday, reqs[0].Day)
@@ -24,9 +26,11 @@ func TestRequestsCSVPatterns(t *testing.T) {
 	assert.Equal(t, timetable.DaySet(0), reqs[1].Days)
 	assert.Equal(t, "Tue 10:30", reqs[1].At())
 
-	_, err = ParseRequestsCSV(strings.NewReader("Section,At\nA,Mon Wed 9:00\nA,Mon Wed 25:00\n"), "Requests")
-	require.Error(t, err)
-	assert.Contains(t, err.Error(), "Requests row 3: At:")
+	rows, _, err = timetable.ParseRequests([]byte("Section,At\nA,Mon Wed 9:00\nA,Mon Wed 25:00\n"), "Requests.csv")
+	require.NoError(t, err)
+	_, ps = RequestsOf(rows)
+	require.Len(t, ps, 1)
+	assert.Contains(t, ps[0].String(), "Requests!B3: At:")
 }
 
 // TestMatchTimes: which meeting times a request names (request.go's

@@ -192,15 +192,13 @@ func checkColumns(m ColumnMap, ps *Problems) map[string]map[string]*ColumnRename
 	return out
 }
 
-// renameRowNote says where an earlier rename came from: " (row 3)" or "".
+// renameRowNote says where an earlier rename came from: " (Columns row 3)"
+// or "".
 func renameRowNote(c *ColumnRename) string {
-	if c.Src.Row == 0 {
+	if c.Src.Row == 0 || c.Src.Sheet == "" {
 		return ""
 	}
-	if c.Src.Sheet != "" {
-		return " (" + c.Src.Sheet + " row " + itoa(c.Src.Row) + ")"
-	}
-	return ""
+	return " (" + c.Src.String() + ")"
 }
 
 // termSheetNames lists the sheets a column may be renamed on.

@@ -111,7 +111,7 @@ func TestReadColumnMapOption(t *testing.T) {
 	require.NoError(t, os.WriteFile(bad, []byte("From,To\nA,B\n"), 0o644))
 	_, err = ReadColumnMap(bad)
 	require.Error(t, err)
-	assert.Contains(t, err.Error(), `bad!1: the bad sheet has no "Sheet" column`)
+	assert.Contains(t, err.Error(), `bad row 1: the bad sheet has no "Sheet" column`)
 
 	// A rename built in code has no row; its problems name it.
 	_, ps, err = Load(dir, WithColumns(ColumnMap{{Sheet: "Sections", From: "Crs Nbr", To: "Catalog number"}}))

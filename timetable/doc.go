@@ -42,9 +42,14 @@
 //
 // Readers and Validate never stop at the first mistake: they return a
 // best-effort Term together with Problems, a list of every error and warning
-// of the whole workbook, each with a Position in the text form
-// "Sections!D14" (sheet, column letter, row) and a message that says what is
-// wrong and what to do. Only a file that cannot be read at all (not a
+// of the whole workbook, each with a Position in one text form used by
+// every message of the tool: "Sections!D14" for a cell (sheet, column
+// letter, row), "Sections row 14" for a whole row (a Source prints the
+// same), "Sections" for a whole sheet; and a message that says what is
+// wrong and what to do. The other readers work the same way on their own
+// files: ReadSchedule and ReadMeetings (a timetable and its class lists),
+// ReadClassListCSV, and ReadRequests (the rows of a requests file for an
+// explanation; the explanation package reads their At cells). Only a file that cannot be read at all (not a
 // workbook, damaged, password-protected, enormous) gives an error, which
 // wraps ErrUnreadable and is one sentence.
 //

@@ -39,20 +39,27 @@ func unreadablef(format string, args ...any) error {
 // Position says where in a workbook a problem is: a sheet (or CSV file stem),
 // a 1-based row (the header is row 1; 0 = the whole sheet) and a column
 // letter ("" = the whole row). The zero Position means "no particular place".
+//
+// Every message of the tool names a place in the one text form String
+// gives: a cell as "Sections!D14", a whole row as "Sections row 14", a whole
+// sheet as "Sections". Source (a record's row) prints the same way.
 type Position struct {
 	Sheet string // sheet name as the registrar sees it, e.g. "Sections"
 	Row   int    // 1-based row; 0 when the problem concerns the whole sheet
 	Col   string // column letter such as "D"; "" when it concerns the whole row
 }
 
-// String gives the documented text form: "Sections!D14", "Sections!14"
-// without a column, "Sections" without a row, "" for the zero Position.
+// String gives the documented text form: "Sections!D14" for a cell,
+// "Sections row 14" for a whole row, "Sections" for a whole sheet, "" for
+// the zero Position.
 func (p Position) String() string {
 	switch {
 	case p.Sheet == "":
 		return ""
 	case p.Row == 0:
 		return p.Sheet
+	case p.Col == "":
+		return p.Sheet + " row " + itoa(p.Row)
 	default:
 		return p.Sheet + "!" + p.Col + itoa(p.Row)
 	}

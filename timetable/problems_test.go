@@ -11,13 +11,16 @@ import (
 
 func TestPositionString(t *testing.T) {
 	for want, p := range map[string]Position{
-		"Sections!D14": {Sheet: "Sections", Row: 14, Col: "D"},
-		"Sections!14":  {Sheet: "Sections", Row: 14},
-		"Sections":     {Sheet: "Sections"},
-		"":             {},
+		"Sections!D14":    {Sheet: "Sections", Row: 14, Col: "D"},
+		"Sections row 14": {Sheet: "Sections", Row: 14},
+		"Sections":        {Sheet: "Sections"},
+		"":                {},
 	} {
 		assert.Equal(t, want, p.String())
 	}
+	// A record's row prints as the same place.
+	assert.Equal(t, "Sections row 14", Source{Sheet: "Sections", Row: 14}.String())
+	assert.Equal(t, "Sections", Source{Sheet: "Sections"}.String())
 }
 
 func TestProblemsSortAndFilter(t *testing.T) {

@@ -127,7 +127,7 @@ func TestReadCSVDialects(t *testing.T) {
 		{"semicolons", "Room;Capacity\nR1;30\n", []string{"R1", "30"}, ""},
 		{"crlf", "Room,Capacity\r\nR1,30\r\n", []string{"R1", "30"}, ""},
 		{"quoted comma", "Room,Features\nR1,\"lab, projector\"\n", []string{"R1", "lab, projector"}, ""},
-		{"bad quote", "Room,Capacity\nR1,\"30\n", nil, "Rooms!2: the line cannot be read as CSV"},
+		{"bad quote", "Room,Capacity\nR1,\"30\n", nil, "Rooms row 2: the line cannot be read as CSV"},
 		{"not utf-8", "Room,Capacity\nR\xe91,30\n", nil, "Rooms: the file is not UTF-8 text"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

@@ -171,7 +171,7 @@ func TestHeaderRowNotFirst(t *testing.T) {
 	sheets[2].rows = append([][]string{{}, {}}, sheets[2].rows...) // Rooms headers in row 3
 	term, ps := readSheets(t, sheets)
 	require.Len(t, ps, 1, "%s", ps)
-	assert.Equal(t, "Rooms!3: warning: the headers are in row 3, not row 1 — rows above them are ignored", ps[0].String())
+	assert.Equal(t, "Rooms row 3: warning: the headers are in row 3, not row 1 — rows above them are ignored", ps[0].String())
 	assert.Equal(t, Source{"Rooms", 4}, term.Rooms[0].Src)
 	assert.True(t, strings.HasPrefix(ps[0].Msg, "the headers"))
 }

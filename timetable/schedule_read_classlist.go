@@ -62,37 +62,11 @@ func schedParseClassList(t *Term, sheet string, rows [][]string, lines []int) ([
 // schedClassHeader maps the class-list headers to column indexes, warning
 // about unknown columns; ok is false when a required column is missing.
 func schedClassHeader(sheet string, header []string, line int, ps *Problems) (map[string]int, bool) {
-	col := map[string]int{}
-	for i, h := range header {
-		key := normHeader(h)
-		if key == "" {
-			continue
-		}
-		pos := Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
-		name := ""
-		for _, c := range ClassListColumns {
-			if normHeader(c) == key {
-				name = c
-			}
-		}
-		switch _, dup := col[name]; {
-		case name == "":
-			ps.warnf(pos, "column %s is not a class-list column and is ignored (the columns are %s)", Quote(strings.TrimSpace(h)), strings.Join(ClassListColumns, ", "))
-		case dup:
-			ps.errorf(pos, "column %s appears twice — delete one of them", name)
-		default:
-			col[name] = i
-		}
-	}
-	ok := true
-	for _, c := range schedClassRequired {
-		if _, has := col[c]; !has {
-			ps.errorf(Position{Sheet: sheet, Row: line}, "the header row has no %s column — a class list needs the columns %s", c, strings.Join(ClassListColumns, ", "))
-			ok = false
-		}
-	}
-	return col, ok
+	return readListHeader(classListList, sheet, header, line, ps)
 }
+
+// classListList is the header of a class-list sheet.
+var classListList = listColumns{noun: "class-list", needs: "a class list needs the columns", columns: ClassListColumns, required: schedClassRequired}
 
 // schedClassReadOnly warns when the Course, Part or Title cell of a class
 // list row disagrees with the section in the term (the term decides them).

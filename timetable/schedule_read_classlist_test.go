@@ -89,7 +89,7 @@ func TestReadClassLists(t *testing.T) {
 		{"blank section", func(r [][]string) [][]string { r[2][0] = ""; return r }, "Class lists!A3", Error, "the Section is blank"},
 		{"blank student", func(r [][]string) [][]string { r[3][4] = " "; return r }, "Class lists!E4", Error, "the Student is blank — write the student's ID, or delete the row"},
 		{"duplicate row", func(r [][]string) [][]string { return append(r, []string{"BIO-101", "", "", "", "st8"}) }, "Class lists!E5", Error, `student "st8" is listed in section "BIO-101" again (first in row 4) — delete the repeat`},
-		{"no Student column", func(r [][]string) [][]string { r[0][4] = "Learner"; return r }, "Class lists!1", Error, "the header row has no Student column"},
+		{"no Student column", func(r [][]string) [][]string { r[0][4] = "Learner"; return r }, "Class lists row 1", Error, "the header row has no Student column"},
 		{"unknown column", func(r [][]string) [][]string { r[0][3] = "Notes"; return r }, "Class lists!D1", Warning, `column "Notes" is not a class-list column`},
 		{"course disagrees", func(r [][]string) [][]string { r[1][1] = "BIOL"; return r }, "Class lists!B2", Warning, `course "BIOL" differs from the Sections sheet, where section "BIO-101" has "BIO"`},
 	}

@@ -63,37 +63,11 @@ func schedParse(t *Term, sheet string, rows [][]string, lines []int) (*Schedule,
 // schedHeader maps the known headers to column indexes, warning about
 // unknown columns; ok is false when a required column is missing.
 func schedHeader(sheet string, header []string, line int, ps *Problems) (map[string]int, bool) {
-	col := map[string]int{}
-	for i, h := range header {
-		key := strings.Join(strings.Fields(strings.ToLower(h)), " ")
-		if key == "" {
-			continue
-		}
-		pos := Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
-		name := ""
-		for _, c := range TimetableColumns {
-			if strings.ToLower(c) == key {
-				name = c
-			}
-		}
-		switch _, dup := col[name]; {
-		case name == "":
-			ps.warnf(pos, "column %q is not a timetable column and is ignored (the columns are %s)", strings.TrimSpace(h), strings.Join(TimetableColumns, ", "))
-		case dup:
-			ps.errorf(pos, "column %s appears twice — delete one of them", name)
-		default:
-			col[name] = i
-		}
-	}
-	ok := true
-	for _, c := range schedRequired {
-		if _, has := col[c]; !has {
-			ps.errorf(Position{Sheet: sheet, Row: line}, "the header row has no %s column — the timetable needs the columns %s", c, strings.Join(TimetableColumns, ", "))
-			ok = false
-		}
-	}
-	return col, ok
+	return readListHeader(timetableList, sheet, header, line, ps)
 }
+
+// timetableList is the header of a timetable sheet.
+var timetableList = listColumns{noun: "timetable", needs: "the timetable needs the columns", columns: TimetableColumns, required: schedRequired}
 
 // schedRow reads one data row; blank reports a blank Meeting cell, and ok
 // is false when a cell could not be read (the problem is recorded).
@@ -280,15 +254,6 @@ func schedSameSet(a, b []string) bool {
 	return slices.Equal(slices.Compact(a), slices.Compact(b))
 }
 
-// schedColLetter is the spreadsheet letter of 0-based column i ("A", "AA").
-func schedColLetter(i int) string {
-	var b []byte
-	for i++; i > 0; i = (i - 1) / 26 {
-		b = append([]byte{byte('A' + (i-1)%26)}, b...)
-	}
-	return string(b)
-}
-
 // schedCell reads the cells of one timetable row by header name: the
 // trimmed value and its position, or "" and the zero Position when the
 // sheet has no such column.
@@ -302,6 +267,6 @@ func schedCell(sheet string, col map[string]int, row []string, line int) func(st
 		if i < len(row) {
 			v = strings.TrimSpace(row[i])
 		}
-		return v, Position{Sheet: sheet, Row: line, Col: schedColLetter(i)}
+		return v, Position{Sheet: sheet, Row: line, Col: colLetter(i)}
 	}
 }

@@ -103,7 +103,7 @@ func TestReadSchedulePatternProblems(t *testing.T) {
 			row := make([]string, len(tc.row))
 			for c, v := range tc.row {
 				if strings.HasPrefix(v, "!") {
-					want = append(want, TimetableSheet+"!"+schedColLetter(c)+"2")
+					want = append(want, TimetableSheet+"!"+colLetter(c)+"2")
 					v = v[1:]
 				}
 				row[c] = v

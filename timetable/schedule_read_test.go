@@ -168,7 +168,7 @@ func TestReadScheduleProblems(t *testing.T) {
 				rows[r] = make([]string, len(row))
 				for c, v := range row {
 					if strings.HasPrefix(v, "!") {
-						want = append(want, TimetableSheet+"!"+schedColLetter(c)+strconv.Itoa(r+1))
+						want = append(want, TimetableSheet+"!"+colLetter(c)+strconv.Itoa(r+1))
 						v = v[1:]
 					}
 					rows[r][c] = v
@@ -205,7 +205,7 @@ func TestReadScheduleHeader(t *testing.T) {
 		rows [][]string
 		want string
 	}{
-		{"missing room", [][]string{{"Section", "Meeting", "Day", "Start"}}, "Timetable!1: the header row has no Room column"},
+		{"missing room", [][]string{{"Section", "Meeting", "Day", "Start"}}, "Timetable row 1: the header row has no Room column"},
 		{"repeated column", [][]string{{"Section", "Day", "Start", "Room", "Day"}}, "Timetable!E1: column Day appears twice"},
 		{"empty sheet", nil, "Timetable: the sheet is empty"},
 	}

@@ -25,16 +25,9 @@ type Source struct {
 	Row   int    // 1-based row; 0 when unknown
 }
 
-// String gives the documented text form "Sections row 14" (or "" when unknown).
-func (s Source) String() string {
-	if s.Sheet == "" {
-		return ""
-	}
-	if s.Row == 0 {
-		return s.Sheet
-	}
-	return s.Sheet + " row " + itoa(s.Row)
-}
+// String gives the place's text form (see Position): "Sections row 14",
+// "Sections" without a row, "" when unknown.
+func (s Source) String() string { return Position{Sheet: s.Sheet, Row: s.Row}.String() }
 
 // Period is one slot of the weekly grid. Term.Periods is sorted by day
 // (Monday first) and start time, and Period.Index is the position in it.

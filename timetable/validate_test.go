@@ -30,7 +30,7 @@ func TestProblemsAtCells(t *testing.T) {
 
 		// sheets and columns
 		{"missing sheet", []cellEdit{{sheet: "Cohorts", remove: true}}, "Cohorts", Error, `the workbook has no Cohorts sheet — add a sheet named "Cohorts" with the headers "Cohort", "Name", "Size"`},
-		{"missing column", []cellEdit{e("Rooms", "B1", "Seats")}, "Rooms!1", Error, `the Rooms sheet has no "Capacity" column — add a column headed "Capacity"`},
+		{"missing column", []cellEdit{e("Rooms", "B1", "Seats")}, "Rooms row 1", Error, `the Rooms sheet has no "Capacity" column — add a column headed "Capacity"`},
 		{"unknown column", []cellEdit{e("Rooms", "B1", "Seats")}, "Rooms!B1", Warning, `column "Seats" is not part of the Rooms sheet and is ignored`},
 		{"headers in any case", []cellEdit{e("Rooms", "B1", "  CAPACITY ")}, "", 0, ""},
 		{"unknown sheet", []cellEdit{e("Notes", "A1", "anything")}, "Notes", Warning, `sheet "Notes" is not part of the term workbook`},

@@ -109,7 +109,7 @@ const explainCaution = "Room capacities, room features such as step-free access,
 	"needs, local agreements and institution policy."
 
 func runExplain(ctx context.Context, e *env, o *explainOptions, termPath string) error {
-	reqs, err := explainRequests(o)
+	reqs, err := explainRequests(e, o)
 	if err != nil {
 		return err
 	}
@@ -192,16 +192,26 @@ func runExplain(ctx context.Context, e *env, o *explainOptions, termPath string)
 	return withCode(exitError, fmt.Sprintf("no answer within the limits (%v, %d conflicts per check) — allow more with --time-limit or --budget", o.timeLimit, o.budget))
 }
 
-// explainRequests reads the requests from the flags or the requests file.
-func explainRequests(o *explainOptions) ([]encode.Request, error) {
+// explainRequests reads the requests from the flags or the requests file;
+// the file's problems, each at its place, go to stderr.
+func explainRequests(e *env, o *explainOptions) ([]encode.Request, error) {
 	one := o.section != "" || o.at != "" || o.room != ""
 	switch {
 	case one && o.requests != "":
 		return nil, withCode(exitError, "give either --section/--at (one request) or --requests FILE, not both")
 	case o.requests != "":
-		reqs, err := encode.ReadRequests(o.requests)
+		rows, ps, err := timetable.ReadRequests(o.requests)
 		if err != nil {
 			return nil, wrapCode(exitError, err)
+		}
+		reqs, more := encode.RequestsOf(rows)
+		ps = append(ps, more...)
+		ps.Sort()
+		for _, p := range ps {
+			fmt.Fprintln(e.stderr, p.String())
+		}
+		if errs := ps.Errors(); len(errs) > 0 {
+			return nil, withCode(exitError, fmt.Sprintf("%s has %s — correct them and run again", o.requests, checkCount(len(errs), "error")))
 		}
 		return reqs, nil
 	case !one:

@@ -219,6 +219,8 @@ func TestExplainInputErrors(t *testing.T) {
 	term := filepath.Join(explainDir, "term")
 	badReqs := filepath.Join(t.TempDir(), "reqs.csv")
 	require.NoError(t, os.WriteFile(badReqs, []byte("Section,At\nCHM110,Tue 10:00\nNOPE,Tue 10:00\nCHM110,Tue 13:00\n"), 0o644))
+	badCells := filepath.Join(t.TempDir(), "cells.csv")
+	require.NoError(t, os.WriteFile(badCells, []byte("Section,At\nCHM110,Tue 25:00\n,Tue 10:00\n"), 0o644))
 	brokenTerm := plantedTerm(t, map[string][2]string{"Rooms.csv": {"LAB1,24,", "LAB1,twenty,"}})
 	cases := []struct {
 		name string
@@ -232,7 +234,8 @@ func TestExplainInputErrors(t *testing.T) {
 		{"not a period start", []string{term, "--section", "CHM110", "--at", "Tue 10:30"}, []string{"Tue 10:30 is not the start of a period"}},
 		{"unknown room", []string{term, "--section", "CHM110", "--at", "Tue 10:00", "--room", "X9"}, []string{`room "X9" is not on the Rooms sheet`}},
 		{"every bad request row", []string{term, "--requests", badReqs}, []string{"reqs row 3:", `section "NOPE"`, "reqs row 4:", "Tue 13:00 is not the start"}},
-		{"missing requests file", []string{term, "--requests", filepath.Join(t.TempDir(), "none.csv")}, []string{"cannot read the requests"}},
+		{"missing requests file", []string{term, "--requests", filepath.Join(t.TempDir(), "none.csv")}, []string{"none.csv does not exist"}},
+		{"unreadable request cells", []string{term, "--requests", badCells}, []string{"cells!B2: At:", "cells!A3: the Section is blank", "cells.csv has 2 errors — correct them and run again"}},
 		{"unreadable term cell", []string{brokenTerm}, []string{"Rooms!B3", "stop it being read as written"}},
 		{"no term", []string{filepath.Join(t.TempDir(), "none.xlsx")}, nil},
 	}
