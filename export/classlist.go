@@ -1,7 +1,6 @@
 package export
 
 import (
-	"encoding/csv"
 	"io"
 	"sort"
 
@@ -63,21 +62,7 @@ func WriteClassListCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) er
 }
 
 func writeClassListCSV(w io.Writer, v *view) error {
-	cw := csv.NewWriter(w)
-	cw.UseCRLF = true
-	if err := cw.Write(timetable.ClassListColumns); err != nil {
-		return err
-	}
-	for _, row := range v.classListRows() {
-		for k, c := range row {
-			row[k] = timetable.SafeCSVCell(c)
-		}
-		if err := cw.Write(row); err != nil {
-			return err
-		}
-	}
-	cw.Flush()
-	return cw.Error()
+	return writeSafeCSV(w, timetable.ClassListColumns, v.classListRows())
 }
 
 // classLists writes the timetable.ClassListSheet sheet: the header

@@ -1,7 +1,6 @@
 package export
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"io"
 
@@ -29,22 +28,12 @@ func WriteTimetableCSV(w io.Writer, t *timetable.Term, s *timetable.Schedule) er
 }
 
 func writeCSV(w io.Writer, v *view) error {
-	cw := csv.NewWriter(w)
-	cw.UseCRLF = true
-	if err := cw.Write(CSVColumns); err != nil {
-		return err
+	items := v.masterItems()
+	rows := make([][]string, len(items))
+	for k, i := range items {
+		rows[k] = v.masterRow(&v.meetings[i])
 	}
-	for _, i := range v.masterItems() {
-		row := v.masterRow(&v.meetings[i])
-		for k, c := range row {
-			row[k] = timetable.SafeCSVCell(c)
-		}
-		if err := cw.Write(row); err != nil {
-			return err
-		}
-	}
-	cw.Flush()
-	return cw.Error()
+	return writeSafeCSV(w, CSVColumns, rows)
 }
 
 // TimetableJSON is the document WriteTimetableJSON writes. Field names are
