@@ -66,13 +66,7 @@ func NewNotices(t *timetable.Term, s *timetable.Schedule, c *timetable.Compariso
 	if err != nil {
 		return nil, err
 	}
-	renumbered := c.Renumber(s)
-	if len(renumbered.Enrolments) == 0 && len(s.Enrolments) > 0 {
-		copied := *renumbered // Renumber keeps the placements only; the sectioned students stay
-		copied.Enrolments = s.Enrolments
-		renumbered = &copied
-	}
-	cal, err := newView(t, renumbered)
+	cal, err := newView(t, c.Renumber(s))
 	if err != nil {
 		return nil, err
 	}

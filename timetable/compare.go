@@ -229,7 +229,8 @@ func (c *Comparison) Count(kind string) int {
 // number of the old meeting it is paired with, so that a meeting keeps its
 // identity (for example its calendar UID) when the sections' meetings were
 // numbered in another order; meetings without a partner take the lowest
-// numbers left. It returns a renumbered copy of s.
+// numbers left. It returns a renumbered copy of s, with s's sectioned
+// students (Enrolments) kept.
 func (c *Comparison) Renumber(s *Schedule) *Schedule {
 	type key struct {
 		sec string
@@ -246,7 +247,7 @@ func (c *Comparison) Renumber(s *Schedule) *Schedule {
 			used[ch.Section][ch.Old.Number] = true
 		}
 	}
-	out := &Schedule{Placements: slices.Clone(s.Placements)}
+	out := &Schedule{Placements: slices.Clone(s.Placements), Enrolments: slices.Clone(s.Enrolments)}
 	for i, p := range s.Placements {
 		if n, ok := to[key{p.Section, p.Meeting}]; ok {
 			out.Placements[i].Meeting = n

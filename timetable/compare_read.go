@@ -1,9 +1,6 @@
 package timetable
 
 import (
-	"errors"
-	"os"
-	"path/filepath"
 	"strings"
 	"time"
 )
@@ -31,9 +28,9 @@ type Meeting struct {
 // that ReadSchedule reads). With t nil it relies on the file alone: day,
 // start, end, room, weeks, title, staff (IDs and names) and cohorts as the
 // cells give them, and the schedule is nil. With a term, the file must fit
-// it: the rows are read as ReadSchedule reads them (the schedule and
-// problems are exactly ReadSchedule's, so a day or time outside the grid
-// is an error), and title, end, staff and cohorts come from the term's
+// it: the file is read as ReadSchedule reads it (the schedule, with the
+// sectioned students of its class-list sheet, and the problems are
+// exactly ReadSchedule's, so a day or time outside the grid is an error), and title, end, staff and cohorts come from the term's
 // Sections sheet for every section it has. The Weeks cell is taken from
 // the file even with a term, when it is filled in and readable: a
 // timetable written before the term's weeks changed still says the weeks
@@ -42,11 +39,11 @@ type Meeting struct {
 // wraps ErrUnreadable, only when the file cannot be read; the file is
 // read once.
 func ReadMeetings(path string, t *Term) ([]Meeting, *Schedule, Problems, error) {
-	sheet, rows, lines, err := schedFileRows(path)
+	main, lists, err := schedFileSheets(path)
 	if err != nil {
 		return nil, nil, nil, err
 	}
-	ms, ps := meetingsFromCells(sheet, rows, lines)
+	ms, ps := meetingsFromCells(main.name, main.rows, main.lines)
 	if t == nil {
 		for i := range ms {
 			if ms[i].Weeks == "" {
@@ -59,41 +56,11 @@ func ReadMeetings(path string, t *Term) ([]Meeting, *Schedule, Problems, error) 
 		}
 		return ms, nil, ps, nil
 	}
-	s, ps := schedParse(t, sheet, rows, lines) // ReadSchedule on the same rows
-	ps.Sort()
+	s, ps := schedFromSheets(t, main, lists) // ReadSchedule on the same sheets
 	if len(ps.Errors()) > 0 {
 		return nil, s, ps, nil
 	}
 	return meetingsFromTerm(t, s, ms), s, ps, nil
-}
-
-// schedFileRows opens a timetable file as ReadSchedule does and returns
-// its sheet name and non-blank rows with their 1-based row numbers.
-func schedFileRows(path string) (sheet string, rows [][]string, lines []int, err error) {
-	fi, err := os.Stat(path)
-	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return "", nil, nil, unreadablef("%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
-		}
-		return "", nil, nil, unreadablef("%s cannot be opened (%v) — check the path and its permissions", path, err)
-	}
-	if fi.IsDir() {
-		return "", nil, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
-	}
-	if fi.Size() > schedMaxBytes {
-		return "", nil, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
-	}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return "", nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
-	}
-	name := filepath.Base(path)
-	if strings.EqualFold(filepath.Ext(path), ".csv") {
-		rows, lines, err = schedCSVRows(data, name)
-		return strings.TrimSuffix(name, filepath.Ext(name)), rows, lines, err
-	}
-	main, _, err := schedXLSXRows(data, name)
-	return main.name, main.rows, main.lines, err
 }
 
 // meetingsFromCells reads every row from its own cells; rows whose

@@ -137,8 +137,10 @@ func TestCompareRenumber(t *testing.T) {
 	M, W, F := time.Monday, time.Wednesday, time.Friday
 	old := []Meeting{mt("A", 1, M, 9, "R1", "all"), mt("A", 2, W, 9, "R1", "all")}
 	new := []Meeting{mt("A", 1, W, 9, "R1", "all"), mt("A", 2, F, 9, "R1", "all"), mt("A", 3, M, 9, "R1", "all")}
-	s := &Schedule{Placements: []Placement{{Section: "A", Meeting: 1}, {Section: "A", Meeting: 2}, {Section: "A", Meeting: 3}}}
+	s := &Schedule{Placements: []Placement{{Section: "A", Meeting: 1}, {Section: "A", Meeting: 2}, {Section: "A", Meeting: 3}},
+		Enrolments: []Enrolment{{Student: "st1", Section: "A"}}}
 	got := Compare(old, new).Renumber(s)
+	assert.Equal(t, s.Enrolments, got.Enrolments, "the sectioned students stay with the renumbered copy")
 	// Wed keeps number 2, Mon keeps 1, the added Friday takes 3.
 	assert.Equal(t, []int{2, 3, 1}, []int{got.Placements[0].Meeting, got.Placements[1].Meeting, got.Placements[2].Meeting})
 	assert.Equal(t, 1, s.Placements[0].Meeting, "the schedule given is not changed")

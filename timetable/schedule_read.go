@@ -46,50 +46,58 @@ const schedMaxRows = 1_000_000
 // term are kept, for Check to report. The error is non-nil, and wraps
 // ErrUnreadable, only when the file cannot be read at all.
 func ReadSchedule(path string, t *Term) (*Schedule, Problems, error) {
-	fi, err := os.Stat(path)
-	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return nil, nil, unreadableCause(err, "%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
-		}
-		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
-	}
-	if fi.IsDir() {
-		return nil, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
-	}
-	if !fi.Mode().IsRegular() {
-		return nil, nil, unreadablef("%s", notRegular(path, fi).Error())
-	}
-	if fi.Size() > schedMaxBytes {
-		return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
-	}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
-	}
-	name := filepath.Base(path)
-	var sheet string
-	var rows [][]string
-	var lines []int
-	var lists *schedSheet
-	if strings.EqualFold(filepath.Ext(path), ".csv") {
-		sheet = strings.TrimSuffix(name, filepath.Ext(name))
-		rows, lines, err = schedCSVRows(data, name)
-	} else {
-		var main schedSheet
-		main, lists, err = schedXLSXRows(data, name)
-		sheet, rows, lines = main.name, main.rows, main.lines
-	}
+	main, lists, err := schedFileSheets(path)
 	if err != nil {
 		return nil, nil, err
 	}
-	s, ps := schedParse(t, sheet, rows, lines)
+	s, ps := schedFromSheets(t, main, lists)
+	return s, ps, nil
+}
+
+// schedFromSheets reads a timetable's rows and, when there is one, its
+// class-list sheet, for term t; the problems are sorted.
+func schedFromSheets(t *Term, main schedSheet, lists *schedSheet) (*Schedule, Problems) {
+	s, ps := schedParse(t, main.name, main.rows, main.lines)
 	if lists != nil {
 		var more Problems
 		s.Enrolments, more = schedParseClassList(t, lists.name, lists.rows, lists.lines)
 		ps = append(ps, more...)
 	}
 	ps.Sort()
-	return s, ps, nil
+	return s, ps
+}
+
+// schedFileSheets opens a timetable file (.csv, or an .xlsx workbook) and
+// returns its timetable rows and, for a workbook with a class-list sheet,
+// that sheet's rows (nil otherwise). The error wraps ErrUnreadable.
+func schedFileSheets(path string) (main schedSheet, lists *schedSheet, err error) {
+	fi, err := os.Stat(path)
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return main, nil, unreadableCause(err, "%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
+		}
+		return main, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
+	}
+	if fi.IsDir() {
+		return main, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
+	}
+	if !fi.Mode().IsRegular() {
+		return main, nil, unreadablef("%s", notRegular(path, fi).Error())
+	}
+	if fi.Size() > schedMaxBytes {
+		return main, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return main, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
+	}
+	name := filepath.Base(path)
+	if strings.EqualFold(filepath.Ext(path), ".csv") {
+		main.name = strings.TrimSuffix(name, filepath.Ext(name))
+		main.rows, main.lines, err = schedCSVRows(data, name)
+		return main, nil, err
+	}
+	return schedXLSXRows(data, name)
 }
 
 // ReadClassListCSV reads a class-list CSV file (the ClassListColumns

@@ -113,6 +113,31 @@ func TestReadClassLists(t *testing.T) {
 	}
 }
 
+// TestReadMeetingsClassLists: with a term, ReadMeetings reads a workbook
+// as ReadSchedule does, sectioned students and their problems included, so
+// a comparison of two timetables sees who was sectioned where.
+func TestReadMeetingsClassLists(t *testing.T) {
+	tm := ckClassTerm()
+	timetable := testSheet{TimetableSheet, ckTimetableRows(tm, ckSchedule())}
+	path := ckWrite(t, "t.xlsx", ckWorkbook(t, timetable, testSheet{ClassListSheet, ckClassRows()}))
+	ms, s, ps, err := ReadMeetings(path, tm)
+	require.NoError(t, err)
+	require.Empty(t, ps)
+	want, _, err := ReadSchedule(path, tm)
+	require.NoError(t, err)
+	require.Len(t, want.Enrolments, 3)
+	assert.Equal(t, want, s, "the schedule, sectioned students included, is ReadSchedule's")
+	assert.Len(t, ms, len(want.Placements))
+
+	rows := ckClassRows()
+	rows[3][4] = ""
+	ms, _, ps, err = ReadMeetings(ckWrite(t, "bad.xlsx", ckWorkbook(t, timetable, testSheet{ClassListSheet, rows})), tm)
+	require.NoError(t, err)
+	assert.Nil(t, ms)
+	require.Len(t, ps.Errors(), 1)
+	assert.Equal(t, "Class lists!E4", ps.Errors()[0].Pos.String())
+}
+
 // TestReadClassListCSV: the CSV form reads the same enrolments, naming the
 // file stem as the sheet.
 func TestReadClassListCSV(t *testing.T) {

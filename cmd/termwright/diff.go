@@ -98,9 +98,6 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 			return nil, err
 		}
 		if d.term != nil {
-			if err := diffClassLists(e.stderr, d.term, s, p); err != nil {
-				return nil, err
-			}
 			hard, err := diffFits(e.stderr, d.term, s, p, termPath, i == 0)
 			if err != nil {
 				return nil, err
@@ -123,31 +120,6 @@ func loadDiff(e *env, oldPath, newPath, termPath string) (*diffInput, error) {
 	d.moves = export.SectionChanges(d.term, d.oldSched, d.newSched)
 	d.affected = export.WithSectionChanges(d.cmp.Affected(export.StayingStudents(d.term, d.oldSched, d.newSched)), d.moves)
 	return d, nil
-}
-
-// diffClassLists reads the sectioned students of timetable file path
-// (its Class lists sheet, read by timetable.ReadSchedule) into s, which
-// ReadMeetings read from the same file's timetable rows; the class lists'
-// own problems are printed, and an error among them fails.
-func diffClassLists(w io.Writer, t *timetable.Term, s *timetable.Schedule, path string) error {
-	if s == nil {
-		return nil
-	}
-	full, ps, err := timetable.ReadSchedule(path, t)
-	if err != nil {
-		return wrapCode(exitError, err)
-	}
-	var lists timetable.Problems
-	for _, p := range ps {
-		if p.Pos.Sheet == timetable.ClassListSheet {
-			lists = append(lists, p)
-		}
-	}
-	if err := diffProblems(w, path, lists, ""); err != nil {
-		return err
-	}
-	s.Enrolments = full.Enrolments
-	return nil
 }
 
 // diffProblems prints a reader's problems and fails when any is an error;
