@@ -9,6 +9,7 @@ import (
 	"slices"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -215,5 +216,40 @@ func TestSectionFill(t *testing.T) {
 			assert.Equal(t, tc.nearly, nearly)
 			assert.Equal(t, tc.details, FillDetails(tc.students, tc.limit))
 		})
+	}
+}
+
+// TestSectioningFindingsTravel: a student whose two pattern sections leave
+// 10 free minutes (MA110 ends Mon 09:50 in A1, Aula; ST140 starts 10:00 in
+// L2, Science Wing) where the Travel sheet asks 15 gets a clash line, as
+// timetable.Cost counts it (criterion "student clashes", criteria.go);
+// with 10 minutes of travel there is none.
+func TestSectioningFindingsTravel(t *testing.T) {
+	term, s := patternTerm()
+	mwf := timetable.DaysOf(time.Monday, time.Wednesday, time.Friday)
+	term.Sections = append(term.Sections, timetable.Section{ID: "ST140", Title: "Statistics", Staff: []string{"S5"}, Size: 10,
+		Course: "ST140", Src: timetable.Source{Sheet: "Sections", Row: 40},
+		Times: []timetable.TimeChoice{{Days: mwf, Start: 10 * 60, Minutes: 50, Weeks: term.AllWeeks()}}})
+	s.Placements = append(s.Placements, timetable.Placement{Section: "ST140", Meeting: 1, Period: -1, Time: 1, Room: "L2"})
+	term.Enrolments = append(term.Enrolments, timetable.Enrolment{Student: "st-500", Section: "MA110"}, timetable.Enrolment{Student: "st-500", Section: "ST140"})
+	term.Travel = []timetable.Travel{{From: "Aula", To: "Science Wing", Minutes: 15}}
+	require.Equal(t, int64(1), timetable.Cost(term, s, nil).Criterion(timetable.CritStudentClash).Count)
+	fs, err := SectioningFindings(term, s, nil)
+	require.NoError(t, err)
+	var clashes []Finding
+	for _, f := range fs {
+		if f.Kind == FindingClash {
+			clashes = append(clashes, f)
+		}
+	}
+	require.Len(t, clashes, 1)
+	assert.Equal(t, Finding{Kind: FindingClash, Student: "st-500", Section: "MA110", // no course, no row in the fixture
+		Details: "too little time to travel between it and ST140 on Mon 09:50–10:00 (10 minutes to get from A1 to L2, which takes 15 minutes)"}, clashes[0])
+
+	term.Travel[0].Minutes = 10
+	fs, err = SectioningFindings(term, s, nil)
+	require.NoError(t, err)
+	for _, f := range fs {
+		assert.NotEqual(t, FindingClash, f.Kind, "%+v", f)
 	}
 }

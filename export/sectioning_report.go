@@ -44,8 +44,10 @@ type Finding struct {
 //     NearlyFullPercent of its limit taken), in term order;
 //   - per student (sorted by ID) every pair of their sections that meet
 //     at the same time (a common minute of a common day in a common week),
-//     with the first such time. Too little travel time between two
-//     meetings is counted by timetable.Cost but not listed here.
+//     with the first such time, then every pair that leaves too little
+//     time between two meetings for the travel between their rooms
+//     (timetable.TravelClashes), with the first such gap: together the
+//     student clashes that timetable.Cost counts.
 //
 // It fails only when s does not fit t.
 func SectioningFindings(t *timetable.Term, s *timetable.Schedule, reasons map[int]string) ([]Finding, error) {
@@ -140,9 +142,11 @@ func FillDetails(students, limit int) string {
 // studentClashFindings lists, per student in ID order, every pair of
 // distinct sections of theirs with meetings at the same time (the lower
 // section ID first, pairs in the order of their first meeting), naming the
-// first common time in week order.
+// first common time in week order; then the student's travel clashes.
 func (v *view) studentClashFindings() []Finding {
 	var out []Finding
+	travel := timetable.TravelClashes(v.t, v.s) // sorted by student, as v.students
+	secIdx := v.t.SectionIndex()
 	for _, st := range v.students {
 		type pair struct{ a, b string }
 		first := map[pair]int{} // index into out and ats
@@ -175,6 +179,15 @@ func (v *view) studentClashFindings() []Finding {
 		}
 		for i, at := range ats {
 			out[base+i].Details = fmt.Sprintf("meets together with %s at %s %s–%s", others[i], at.day, at.from, at.until)
+		}
+		for len(travel) > 0 && travel[0].Student < st {
+			travel = travel[1:] // not expected: both lists come from the same enrolments
+		}
+		for ; len(travel) > 0 && travel[0].Student == st; travel = travel[1:] {
+			tc := travel[0]
+			sec := &v.t.Sections[secIdx[tc.First]]
+			out = append(out, Finding{Kind: FindingClash, Student: st, Course: sec.Course, Section: tc.First, Where: tc.Src.String(),
+				Details: "too little time to travel between it and " + tc.Second + " on " + tc.At})
 		}
 	}
 	return out

@@ -48,6 +48,7 @@ type gridRow struct {
 // number; the by* maps hold indexes into meetings in that order.
 type view struct {
 	t         *timetable.Term
+	s         *timetable.Schedule // the timetable resolved, for the rules timetable judges (travel clashes)
 	meetings  []meeting
 	staff     map[string]*timetable.Staff
 	rooms     map[string]*timetable.Room
@@ -88,6 +89,7 @@ func newView(t *timetable.Term, s *timetable.Schedule) (*view, error) {
 	}
 	v := &view{
 		t:          t,
+		s:          s,
 		staff:      make(map[string]*timetable.Staff, len(t.Staff)),
 		rooms:      make(map[string]*timetable.Room, len(t.Rooms)),
 		cohorts:    make(map[string]*timetable.Cohort, len(t.Cohorts)),

@@ -257,6 +257,17 @@ func TestStudentClashTravel(t *testing.T) {
 			tm, s := base()
 			tc.mutate(tm, s)
 			assert.Equal(t, tc.want, Cost(tm, s, nil).Criterion(CritStudentClash).Count)
+			// TravelClashes lists what Cost counts: one per student and pair.
+			tcs := TravelClashes(tm, s)
+			require.Len(t, tcs, int(tc.want))
+			for i, c := range tcs {
+				assert.Equal(t, []string{"MAT-150", "ECO-210"}, []string{c.First, c.Second})
+				assert.Equal(t, Source{"Sections", 2}, c.Src)
+				assert.Equal(t, "Mon 09:50–10:00 (10 minutes to get from R1 to R2, which takes 15 minutes)", c.At)
+				if i > 0 {
+					assert.Less(t, tcs[i-1].Student, c.Student, "sorted by student")
+				}
+			}
 			var clashes []string
 			for _, v := range Check(tm, s) {
 				if v.Rule == RuleStudentClash {
