@@ -29,6 +29,7 @@ type solveOptions struct {
 	json      bool          // print the report as JSON
 	force     bool          // replace existing outputs
 	publish   string        // also publish everything into this directory
+	students  bool          // with publish: also a grid PDF and a calendar per student (as publish --students)
 	quiet     bool          // no progress display
 	keep      string        // earlier timetable to stay close to (minimal change)
 	steps     int           // neighbourhood steps at most; 0 = no limit
@@ -79,6 +80,7 @@ func newSolveCmd(e *env) *cobra.Command {
 	f.BoolVar(&o.json, "json", false, "print the report as JSON")
 	f.BoolVar(&o.force, "force", false, "replace an existing output file (and an earlier publication)")
 	f.StringVar(&o.publish, "publish", "", "also publish PDFs, workbook and calendars into this directory")
+	f.BoolVar(&o.students, "students", false, "with --publish, also write a weekly grid PDF and a calendar per student")
 	f.BoolVar(&o.quiet, "quiet", false, "show no progress while searching")
 	f.StringVar(&o.keep, "keep", "", "earlier timetable (.xlsx or .csv) to change as little as possible")
 	f.IntVar(&o.threads, "threads", 1, "run this many differently seeded searches in parallel and keep the best timetable (more memory)")
@@ -163,6 +165,9 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	began := time.Now()
 	if err := checkOutput(o.out, o.force, ".xlsx", termPath, o.keep); err != nil {
 		return err
+	}
+	if o.students && o.publish == "" {
+		return withCode(exitError, "--students writes per-student files into the publication: give --publish DIR too")
 	}
 	if o.publish != "" {
 		if err := checkPublishDir(o.publish, o.force, termPath); err != nil {
@@ -253,7 +258,7 @@ func runSolve(ctx context.Context, e *env, o *solveOptions, termPath string) err
 	}
 	rep.Status, rep.Output = "solved", written
 	if o.publish != "" && werr == nil {
-		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Extra: extra, Reasons: reasons, Findings: findings}); err != nil {
+		if _, err := export.Publish(o.publish, term, res.Schedule, export.Options{Generated: e.now(), Force: o.force, Students: o.students, Extra: extra, Reasons: reasons, Findings: findings}); err != nil {
 			return failf(exitError, "the timetable was written to %s, but publishing failed: %w", written, err)
 		}
 		rep.Published = o.publish

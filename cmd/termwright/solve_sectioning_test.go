@@ -182,3 +182,35 @@ func TestMoveLines(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) { assert.Equal(t, tc.want, moveLines(tc.moves)) })
 	}
 }
+
+// TestSolvePublishStudents: solve --publish DIR --students writes the
+// per-student grids and calendars that publish --students writes from the
+// same timetable (the same files under pdf/students and calendar/students);
+// --students without --publish is refused.
+func TestSolvePublishStudents(t *testing.T) {
+	dir := t.TempDir()
+	termPath := solveWriteTerm(t, dir, solveCourseTerm(5, 2, 2))
+	out, pub, again := filepath.Join(dir, "tt.xlsx"), filepath.Join(dir, "pub"), filepath.Join(dir, "again")
+	e, _, stderr := solveEnv()
+	require.Equal(t, exitOK, run([]string{"solve", termPath, "-o", out, "--publish", pub, "--students", "--time-limit", "0", "--steps", "5"}, e), "stderr: %s", stderr)
+	e, _, stderr = solveEnv()
+	require.Equal(t, exitOK, run([]string{"publish", termPath, out, "-o", again, "--students"}, e), "stderr: %s", stderr)
+	for _, sub := range []string{"pdf/students", "calendar/students"} {
+		names := func(root string) []string {
+			es, err := os.ReadDir(filepath.Join(root, sub))
+			require.NoError(t, err)
+			var out []string
+			for _, de := range es {
+				out = append(out, de.Name())
+			}
+			return out
+		}
+		got := names(pub)
+		assert.Len(t, got, 4, "%s: the four sectioned students", sub)
+		assert.Equal(t, names(again), got, sub)
+	}
+
+	e, _, stderr = solveEnv()
+	assert.Equal(t, exitError, run([]string{"solve", termPath, "-o", filepath.Join(dir, "x.xlsx"), "--students"}, e))
+	assert.Contains(t, stderr.String(), "give --publish DIR too")
+}
