@@ -33,7 +33,10 @@
 // students and their sections (fixed and sectioned) for the student
 // grids; a re-plan seats them again (planning.Plan) and lists who changes
 // section, and comparisons and notices tell students of their changes of
-// section (export.SectionChanges).
+// section (export.SectionChanges). A student's week also answers "can
+// they get every course they asked for without a clash on this version,
+// and if not, why not" (GET /api/student, encode.ExplainStudent: the
+// timetable fixed, no engine search, so it is not a job).
 //
 // Requests are answered only under a loopback Host (or the host named
 // with --addr), and POST bodies only as JSON, against DNS rebinding and

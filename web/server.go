@@ -97,6 +97,7 @@ func (s *Server) routes() {
 	m.HandleFunc("GET /api/versions", s.handleVersions)
 	m.HandleFunc("GET /api/compare", s.handleCompare)
 	m.HandleFunc("GET /api/whynot", s.handleWhyNot)
+	m.HandleFunc("GET /api/student", s.handleStudent)
 	m.HandleFunc("POST /api/lock", s.handleLock)
 	m.HandleFunc("POST /api/replan", s.handleReplan)
 	m.HandleFunc("POST /api/replan/decide", s.handleReplanDecide)

@@ -132,6 +132,10 @@ function drawGrid() {
   $("grid-keys").hidden = !s;
   if (!s) return;
   $("grid-h").textContent = "Week of " + s.kind + " " + s.label;
+  if (s.kind === "student") {
+    wrap.append(el("p", {}, el("button", { type: "button", id: "student-why", onclick: () => studentWhy(s.id), text: "Can " + s.id + " get every requested course without a clash?" })));
+    wrap.append(el("div", { id: "student-out", role: "region", "aria-live": "polite", "aria-label": "Answer for student " + s.id }));
+  }
   const mine = S.state.meetings.filter((m) => attends(m, s));
   const cells = cellsOf(mine), days = S.term.days, rows = S.term.times;
   S.focus.r = Math.min(S.focus.r, rows.length - 1); S.focus.c = Math.min(S.focus.c, days.length - 1);
@@ -351,6 +355,37 @@ async function whyNot(period, time) {
         el("button", { type: "button", onclick: () => (p.time ? move(p.period, false, p.time, p.room || "") : move(p.period, false)), "aria-label": "Try moving " + meetingLabel(m) + " to " + p.at, text: "Try this" })))));
     } else out.append(el("p", { text: "No other time was found for it." }));
     if (a.uncertain) out.append(el("p", { text: "Note: " + a.uncertain }));
+  } catch (e) { out.textContent = "Problem: " + e.message; }
+}
+
+// studentWhy asks whether a student can take every course they asked
+// for without a clash on the version shown, and if not why (the same answer
+// as explain TERM TIMETABLE --student ID).
+async function studentWhy(id) {
+  const out = $("student-out");
+  if (!out) return;
+  out.textContent = "Trying every choice of sections…";
+  const line = (x) => x.section + " (" + x.when + (x.room ? " in " + x.room : "") + ")" + (x.sources && x.sources.length ? " [" + x.sources.join("; ") + "]" : "");
+  try {
+    const a = await api("GET", "/api/student?id=" + encodeURIComponent(id));
+    out.textContent = "";
+    const n = a.all_requests + " requested course" + (a.all_requests === 1 ? "" : "s");
+    if (a.status === "fits") {
+      out.append(el("p", {}, el("strong", { text: "Yes. " }), "Student " + a.student + " can get all " + n + " without a clash on this version (edit " + a.version + "), for example:"));
+      out.append(el("ul", { id: "student-choice" }, ...(a.choice || []).map((x) => el("li", { text: line(x) }))));
+      return;
+    }
+    if (a.status !== "clashes") { out.append(el("p", { text: "No answer: the requests have too many combinations of sections to try." })); return; }
+    out.append(el("p", {}, el("strong", { text: "No. " }), "Student " + a.student + " cannot get all " + n + " without a clash on this version (edit " + a.version + ")" +
+      (a.requests.length < a.all_requests ? ": already these " + a.requests.length + " cannot be combined" : "") + " (drop any one and the rest fit):"));
+    out.append(el("ul", {}, ...a.requests.map((r) => el("li", { text: r.course + (r.alternatives && r.alternatives.length ? " (or instead " + r.alternatives.join(", ") + ")" : "") + ": " +
+      (r.options.length ? r.options.map((o) => o.join(" + ")).join(", or ") : "no section of it is in the term") + (r.source ? " [" + r.source + "]" : "") }))));
+    const why = [...(a.clashes || []).map((c) => line(c.a) + " and " + line(c.b) + ": " + c.why + "."),
+      ...(a.full || []).map((f) => line(f.section) + " is full: " + f.held + " other student" + (f.held === 1 ? "" : "s") + ", its limit " + f.limit + ".")];
+    if (why.length) {
+      out.append(el("p", { text: "Every choice meets one of these:" }));
+      out.append(el("ol", { class: "problems", id: "student-reasons" }, ...why.map((w) => el("li", { text: w }))));
+    }
   } catch (e) { out.textContent = "Problem: " + e.message; }
 }
 
