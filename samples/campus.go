@@ -162,44 +162,34 @@ func pick(id string, weight int) timetable.RoomChoice {
 	return timetable.RoomChoice{Room: id, Weight: weight}
 }
 
-// mainClasses adds the sections that meet two or three times a week.
+// mainClasses adds the sections that meet two or three times a week, one
+// row each: its rooms in order of preference with their weights.
 func (c *campusBuilder) mainClasses() {
 	a := c.all
-	proj := []string{"projector"}
-	c.add("BIO101-L", "Cells and Organisms", "VU-01", "BIO-1", 80, proj,
-		mwfTimes(a, 800, 900, 1000, 1100),
-		pick("ASH-201", 0), pick("CED-1", 2))
-	c.add("BIO102-L", "Ecology Today", "VU-02", "BIO-1", 80, proj,
-		tuthTimes(a, 800, 930, 1100, 1400),
-		pick("ASH-201", 0), pick("CED-1", 0))
-	c.add("BIO201-L", "Genetics", "VU-01", "BIO-2", 45, proj,
-		tuthTimes(a, 930, 1100, 1400, 1530),
-		pick("ASH-101", 0), pick("CED-1", 3), pick("ASH-201", 5))
-	c.add("BIO202-L", "Field Methods", "VU-03", "BIO-2", 45, proj,
-		mwfTimes(a, 900, 1000, 1300, 1400))
-	c.add("CHM101-L", "General Chemistry", "VU-04", "CHM-1", 50, proj,
-		mwfTimes(a, 800, 900, 1000, 1300),
-		pick("ASH-101", 0), pick("ASH-201", 1))
-	c.add("CHM102-L", "Chemistry in Context", "VU-05", "CHM-1", 50, proj,
-		tuthTimes(a, 930, 1100, 1230, 1400),
-		pick("CED-1", 0), pick("ASH-101", 1))
-	c.add("MTH110-A", "Calculus I (section A)", "VU-06", "CHM-1", 50, proj,
-		mwfTimes(a, 900, 1000, 1100, 1400),
-		pick("ASH-101", 0), pick("CED-1", 1))
-	c.add("MTH110-B", "Calculus I (section B)", "VU-07", "BIO-1", 80, proj,
-		mwfTimes(a, 900, 1000, 1100, 1400),
-		pick("ASH-201", 0), pick("CED-1", 0))
-	c.add("ART101-L", "Drawing Fundamentals", "VU-08", "ART-1", 28, []string{"studio"},
-		tuthTimes(a, 930, 1100, 1400))
-	c.add("ART102-L", "Art and Its Histories", "VU-09", "ART-1", 28, proj,
-		mwfTimes(a, 1000, 1100, 1300),
-		pick("CED-2", 0), pick("ASH-102", 1))
-	c.add("HIS201-L", "Rivers and Empires", "VU-09", "HIS-2", 34, proj,
-		tuthTimes(a, 1100, 1230, 1400),
-		pick("CED-2", 0), pick("ASH-102", 0))
-	c.add("HIS202-S", "Archive Seminar", "VU-03", "HIS-2", 20, nil,
-		pattern(timetable.DaysOf(time.Wednesday), 110, a, []int{1300, 1500}),
-		pick("ASH-102", 0), pick("CED-2", 2))
+	proj, studio := []string{"projector"}, []string{"studio"}
+	type rc = []timetable.RoomChoice
+	for _, m := range []struct {
+		id, title, staff, cohort string
+		size                     int
+		needs                    []string
+		times                    []timetable.TimeChoice
+		rooms                    rc
+	}{
+		{"BIO101-L", "Cells and Organisms", "VU-01", "BIO-1", 80, proj, mwfTimes(a, 800, 900, 1000, 1100), rc{pick("ASH-201", 0), pick("CED-1", 2)}},
+		{"BIO102-L", "Ecology Today", "VU-02", "BIO-1", 80, proj, tuthTimes(a, 800, 930, 1100, 1400), rc{pick("ASH-201", 0), pick("CED-1", 0)}},
+		{"BIO201-L", "Genetics", "VU-01", "BIO-2", 45, proj, tuthTimes(a, 930, 1100, 1400, 1530), rc{pick("ASH-101", 0), pick("CED-1", 3), pick("ASH-201", 5)}},
+		{"BIO202-L", "Field Methods", "VU-03", "BIO-2", 45, proj, mwfTimes(a, 900, 1000, 1300, 1400), nil},
+		{"CHM101-L", "General Chemistry", "VU-04", "CHM-1", 50, proj, mwfTimes(a, 800, 900, 1000, 1300), rc{pick("ASH-101", 0), pick("ASH-201", 1)}},
+		{"CHM102-L", "Chemistry in Context", "VU-05", "CHM-1", 50, proj, tuthTimes(a, 930, 1100, 1230, 1400), rc{pick("CED-1", 0), pick("ASH-101", 1)}},
+		{"MTH110-A", "Calculus I (section A)", "VU-06", "CHM-1", 50, proj, mwfTimes(a, 900, 1000, 1100, 1400), rc{pick("ASH-101", 0), pick("CED-1", 1)}},
+		{"MTH110-B", "Calculus I (section B)", "VU-07", "BIO-1", 80, proj, mwfTimes(a, 900, 1000, 1100, 1400), rc{pick("ASH-201", 0), pick("CED-1", 0)}},
+		{"ART101-L", "Drawing Fundamentals", "VU-08", "ART-1", 28, studio, tuthTimes(a, 930, 1100, 1400), nil},
+		{"ART102-L", "Art and Its Histories", "VU-09", "ART-1", 28, proj, mwfTimes(a, 1000, 1100, 1300), rc{pick("CED-2", 0), pick("ASH-102", 1)}},
+		{"HIS201-L", "Rivers and Empires", "VU-09", "HIS-2", 34, proj, tuthTimes(a, 1100, 1230, 1400), rc{pick("CED-2", 0), pick("ASH-102", 0)}},
+		{"HIS202-S", "Archive Seminar", "VU-03", "HIS-2", 20, nil, pattern(timetable.DaysOf(time.Wednesday), 110, a, []int{1300, 1500}), rc{pick("ASH-102", 0), pick("CED-2", 2)}},
+	} {
+		c.add(m.id, m.title, m.staff, m.cohort, m.size, m.needs, m.times, m.rooms...)
+	}
 }
 
 // labs adds labs that meet every other week (groups 1 in odd weeks, groups

@@ -28,6 +28,13 @@ func GenerateWithWitness(cfg Config) (*timetable.Term, *timetable.Schedule) {
 		panic("samples: " + err.Error())
 	}
 	g := newGen(cfg.withDefaults())
+	g.build()
+	return g.term(), g.witness()
+}
+
+// build runs the generator's steps in order: the grid, the catalogue,
+// staff, rooms, the witness placement, enrolments and the derived rows.
+func (g *gen) build() {
 	g.buildGrid()
 	g.buildCatalogue()
 	g.assignStaff()
@@ -35,7 +42,6 @@ func GenerateWithWitness(cfg Config) (*timetable.Term, *timetable.Schedule) {
 	g.placeAll()
 	g.enrol()
 	g.derive()
-	return g.term(), g.witness()
 }
 
 // gen holds the whole generation state. Indexes into its slices stand for

@@ -104,13 +104,7 @@ func inRange(t *testing.T, what string, got int, r [2]int) {
 func TestShape(t *testing.T) {
 	for _, cfg := range []Config{DemoConfig, {Sections: 800, Seed: 4}} {
 		g := newGen(cfg.withDefaults())
-		g.buildGrid()
-		g.buildCatalogue()
-		g.assignStaff()
-		g.buildRooms()
-		g.placeAll()
-		g.enrol()
-		g.derive()
+		g.build()
 		term := g.term()
 		assert.LessOrEqual(t, g.stats.addedRooms+g.stats.relaxed, max(1, cfg.Sections/100), "repairs stay rare: %+v", g.stats)
 
