@@ -295,15 +295,3 @@ func splitCellRef(ref string) (col, row int) {
 	}
 	return col, row
 }
-
-// CheckXLSX checks an .xlsx package as the term reader does before the
-// spreadsheet library opens it: every part's unpacked size against the
-// limits, and every worksheet's XML (damaged, another encoding, rows or
-// cells out of order, too many rows or cells). Readers of other workbooks
-// (requests) call it so that a damaged sheet is refused, never read in
-// part. The error wraps ErrUnreadable and is one sentence naming the sheet
-// or part.
-func CheckXLSX(data []byte, name string) error {
-	_, err := checkPackage(data, name)
-	return err
-}

@@ -1,9 +1,6 @@
 package timetable
 
 import (
-	"bytes"
-	"errors"
-	"os"
 	"path/filepath"
 	"strings"
 	"unicode/utf8"
@@ -44,22 +41,9 @@ type RequestRow struct {
 // reading their At cells reports every problem in one run. The error is
 // non-nil, and wraps ErrUnreadable, only when the file cannot be read.
 func ReadRequests(path string) ([]RequestRow, Problems, error) {
-	fi, err := os.Stat(path)
-	switch {
-	case errors.Is(err, os.ErrNotExist):
-		return nil, nil, unreadableCause(err, "%s does not exist — give the path of the requests .csv file or .xlsx workbook", path)
-	case err != nil:
-		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
-	case fi.IsDir():
-		return nil, nil, unreadablef("%s is a folder — give the requests .csv file or .xlsx workbook itself", path)
-	case !fi.Mode().IsRegular():
-		return nil, nil, unreadablef("%s", notRegular(path, fi).Error())
-	case fi.Size() > schedMaxBytes:
-		return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a requests file may be", path, fi.Size()>>20, schedMaxBytes>>20)
-	}
-	data, err := os.ReadFile(path)
+	data, err := readInput(path, requestsInput)
 	if err != nil {
-		return nil, nil, unreadableCause(err, "%s cannot be read (%v) — check its permissions", path, err)
+		return nil, nil, err
 	}
 	return ParseRequests(data, filepath.Base(path))
 }
@@ -90,29 +74,17 @@ func ParseRequests(data []byte, name string) ([]RequestRow, Problems, error) {
 
 // requestsXLSXSheet reads the non-blank rows of a workbook's Requests sheet.
 func requestsXLSXSheet(data []byte, name string) (sh schedSheet, err error) {
-	census, err := checkPackage(data, name)
-	if err != nil {
-		return sh, err
-	}
-	defer func() {
-		// The spreadsheet library may panic on malformed parts.
-		if rec := recover(); rec != nil {
-			sh, err = schedSheet{}, unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
+	err = withWorkbook(data, name, "save an unprotected copy as an Excel Workbook (.xlsx) or use a CSV file", func(f *excelize.File, census map[string]sheetCensus) error {
+		for _, s := range f.GetSheetList() {
+			if strings.EqualFold(strings.TrimSpace(s), RequestsSheet) {
+				var err error
+				sh, err = schedReadSheet(f, census, name, s)
+				return err
+			}
 		}
-	}()
-	f, err := excelize.OpenReader(bytes.NewReader(data), excelize.Options{
-		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
+		return unreadablef("%s has no sheet named %q — add one with the columns %s", name, RequestsSheet, strings.Join(RequestColumns, ", "))
 	})
-	if err != nil {
-		return sh, unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx) or use a CSV file", name, oneLineErr(err))
-	}
-	defer f.Close()
-	for _, s := range f.GetSheetList() {
-		if strings.EqualFold(strings.TrimSpace(s), RequestsSheet) {
-			return schedReadSheet(f, census, name, s)
-		}
-	}
-	return sh, unreadablef("%s has no sheet named %q — add one with the columns %s", name, RequestsSheet, strings.Join(RequestColumns, ", "))
+	return sh, err
 }
 
 // requestRows reads the header and the request rows of a sheet.

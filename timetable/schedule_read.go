@@ -3,16 +3,15 @@ package timetable
 import (
 	"bytes"
 	"encoding/csv"
-	"errors"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 
 	"github.com/xuri/excelize/v2"
 )
 
-// schedMaxBytes bounds the size of a timetable file read by ReadSchedule.
+// schedMaxBytes bounds the size of a file read by readInput: a timetable,
+// a class-list file or a requests file.
 const schedMaxBytes = 200 << 20
 
 // schedMaxRows bounds the rows read from a timetable sheet.
@@ -71,25 +70,9 @@ func schedFromSheets(t *Term, main schedSheet, lists *schedSheet) (*Schedule, Pr
 // returns its timetable rows and, for a workbook with a class-list sheet,
 // that sheet's rows (nil otherwise). The error wraps ErrUnreadable.
 func schedFileSheets(path string) (main schedSheet, lists *schedSheet, err error) {
-	fi, err := os.Stat(path)
+	data, err := readInput(path, timetableInput)
 	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return main, nil, unreadableCause(err, "%s does not exist — give the path of a timetable workbook (.xlsx) or .csv file", path)
-		}
-		return main, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path and its permissions", path, err)
-	}
-	if fi.IsDir() {
-		return main, nil, unreadablef("%s is a folder — give the timetable workbook (.xlsx) or .csv file itself", path)
-	}
-	if !fi.Mode().IsRegular() {
-		return main, nil, unreadablef("%s", notRegular(path, fi).Error())
-	}
-	if fi.Size() > schedMaxBytes {
-		return main, nil, unreadablef("%s is %d MB, larger than the %d MB a timetable may be", path, fi.Size()>>20, schedMaxBytes>>20)
-	}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return main, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
+		return main, nil, err
 	}
 	name := filepath.Base(path)
 	if strings.EqualFold(filepath.Ext(path), ".csv") {
@@ -106,19 +89,9 @@ func schedFileSheets(path string) (main schedSheet, lists *schedSheet, err error
 // the sheet. The error wraps ErrUnreadable only when the file cannot be
 // read at all.
 func ReadClassListCSV(path string, t *Term) ([]Enrolment, Problems, error) {
-	fi, err := os.Stat(path)
+	data, err := readInput(path, classListInput)
 	if err != nil {
-		return nil, nil, unreadableCause(err, "%s cannot be opened (%v) — check the path of the class-list file", path, err)
-	}
-	if !fi.Mode().IsRegular() {
-		return nil, nil, unreadablef("%s", notRegular(path, fi).Error())
-	}
-	if fi.Size() > schedMaxBytes {
-		return nil, nil, unreadablef("%s is %d MB, larger than the %d MB a class-list file may be", path, fi.Size()>>20, schedMaxBytes>>20)
-	}
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return nil, nil, unreadablef("%s cannot be read (%v) — check its permissions", path, err)
+		return nil, nil, err
 	}
 	name := filepath.Base(path)
 	rows, lines, err := schedCSVRows(data, name)
@@ -173,15 +146,55 @@ func schedXLSXRows(data []byte, name string) (main schedSheet, lists *schedSheet
 	if !bytes.HasPrefix(data, []byte("PK\x03\x04")) {
 		return main, nil, unreadablef("%s is not an .xlsx workbook — save the timetable as an Excel Workbook (.xlsx) or as CSV", name)
 	}
+	err = withWorkbook(data, name, "save an unprotected copy as an Excel Workbook (.xlsx)", func(f *excelize.File, census map[string]sheetCensus) error {
+		list := f.GetSheetList()
+		sheet, classes := "", ""
+		for _, sh := range list {
+			switch {
+			case strings.EqualFold(strings.TrimSpace(sh), TimetableSheet):
+				sheet = sh
+			case strings.EqualFold(strings.TrimSpace(sh), ClassListSheet):
+				classes = sh
+			}
+		}
+		if sheet == "" {
+			if len(list) != 1 {
+				return unreadablef("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
+			}
+			sheet = list[0]
+		}
+		var err error
+		if main, err = schedReadSheet(f, census, name, sheet); err != nil {
+			return err
+		}
+		if classes != "" {
+			cl, err := schedReadSheet(f, census, name, classes)
+			if err != nil {
+				return err
+			}
+			lists = &cl
+		}
+		return nil
+	})
+	if err != nil {
+		return schedSheet{}, nil, err
+	}
+	return main, lists, nil
+}
+
+// withWorkbook checks an .xlsx package (checkPackage), opens it and calls
+// read with the open workbook and the census of its sheets. A workbook the
+// spreadsheet library cannot open, or panics on, is refused with one
+// sentence (fix says what to do) that wraps ErrUnreadable.
+func withWorkbook(data []byte, name, fix string, read func(f *excelize.File, census map[string]sheetCensus) error) (err error) {
 	census, err := checkPackage(data, name)
 	if err != nil {
-		return main, nil, unreadablef("%s", err.Error())
+		return unreadablef("%s", err.Error())
 	}
 	defer func() {
 		// The spreadsheet library may panic on malformed parts: a damaged
 		// file must give a sentence, not a stack trace.
 		if rec := recover(); rec != nil {
-			main, lists = schedSheet{}, nil
 			err = unreadablef("%s is damaged (its contents are not a valid workbook) — open and save it again in your spreadsheet program", name)
 		}
 	}()
@@ -189,36 +202,10 @@ func schedXLSXRows(data []byte, name string) (main schedSheet, lists *schedSheet
 		RawCellValue: true, UnzipSizeLimit: maxUnzipped, UnzipXMLSizeLimit: 16 << 20,
 	})
 	if err != nil {
-		return main, nil, unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — save an unprotected copy as an Excel Workbook (.xlsx)", name, oneLineErr(err))
+		return unreadablef("%s is damaged, password-protected or not an .xlsx workbook (%s) — %s", name, oneLineErr(err), fix)
 	}
 	defer f.Close()
-	list := f.GetSheetList()
-	sheet, classes := "", ""
-	for _, sh := range list {
-		switch {
-		case strings.EqualFold(strings.TrimSpace(sh), TimetableSheet):
-			sheet = sh
-		case strings.EqualFold(strings.TrimSpace(sh), ClassListSheet):
-			classes = sh
-		}
-	}
-	if sheet == "" {
-		if len(list) != 1 {
-			return main, nil, unreadablef("%s has no %s sheet — give the workbook that termwright wrote, or name the sheet with the timetable %q", name, TimetableSheet, TimetableSheet)
-		}
-		sheet = list[0]
-	}
-	if main, err = schedReadSheet(f, census, name, sheet); err != nil {
-		return schedSheet{}, nil, err
-	}
-	if classes != "" {
-		cl, err := schedReadSheet(f, census, name, classes)
-		if err != nil {
-			return schedSheet{}, nil, err
-		}
-		lists = &cl
-	}
-	return main, lists, nil
+	return read(f, census)
 }
 
 // schedReadSheet reads the non-blank rows of one sheet of an open
