@@ -130,7 +130,7 @@ type annealer struct {
 }
 
 // moveMix is the share of each move kind, in per mille.
-var moveMix = [nMoves]int{mvRelocate: 450, mvRoom: 250, mvKempe: 200, mvSectionRoom: 100}
+var moveMix = [nMoves]int{mvRelocate: 300, mvRoom: 200, mvSwap: 350, mvKempe: 100, mvSectionRoom: 50}
 
 func newAnnealer(x *State, opts Options) *annealer {
 	seed := opts.Seed
