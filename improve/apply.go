@@ -25,6 +25,11 @@ func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bo
 	if x.blocked(chs) {
 		return false
 	}
+	return x.commit(chs, rng, accept)
+}
+
+// commit is apply after the blocked check, on a fresh stamp.
+func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
 	x.touchSec, x.touchPD, x.touchRel = x.touchSec[:0], x.touchPD[:0], x.touchRel[:0]
 	np := int32(x.np)
 	for _, ch := range chs {
