@@ -43,10 +43,11 @@
 // in one room, swapping with the meetings holding it.
 //
 // Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
-// Vecchi 1983) with a measured starting temperature, geometric cooling and
-// reheats from the best timetable; with a deadline or a move limit each
-// cooling cycle is planned to take a share of what is left, so the search
-// uses all the time it is given. Levels stay lexicographic.
+// Vecchi 1983) with a measured starting temperature, geometric cooling, a
+// temperature ended early once a share of its moves was accepted (Bellio,
+// Ceschia, Di Gaspero, Schaerf 2016) and reheats from the best timetable;
+// with a deadline or a move limit each cooling cycle is planned to take a
+// share of what is left, so the search uses all the time it is given. Levels stay lexicographic.
 //
 // Names: m is a meeting (placement index), si a section index, p a period,
 // r a room index (-1 for none), res a resource (staff k, then cohorts, then
