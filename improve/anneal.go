@@ -36,6 +36,13 @@ type Options struct {
 	// is planned to take when StepsPerTemp is 0; 0 means 0.6. It must lie
 	// in (0, 1].
 	CycleShare float64
+	// AcceptShare ends a temperature early once this share of its
+	// StepsPerTemp moves has been accepted (the cut-off on accepted
+	// neighbours of Bellio, Ceschia, Di Gaspero, Schaerf 2016), so that hot
+	// temperatures, where most moves are accepted, take few moves and the
+	// planned budget goes to the cold ones; 0 means 0.1. It must lie in
+	// (0, 1]; 1 never ends a temperature early.
+	AcceptShare float64
 	// MaxMoves stops the search after this many tried moves (for
 	// reproducible runs and tests); 0 means only ctx stops it.
 	MaxMoves int64
@@ -88,8 +95,8 @@ type Result struct {
 func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
 	start := time.Now()
 	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 ||
-		opts.CycleShare < 0 || opts.CycleShare > 1 {
-		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare in (0, 1], and the temperatures, steps and move limit must not be negative")
+		opts.CycleShare < 0 || opts.CycleShare > 1 || opts.AcceptShare < 0 || opts.AcceptShare > 1 {
+		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare and AcceptShare in (0, 1], and the temperatures, steps and move limit must not be negative")
 	}
 	x, err := New(t, s, kept)
 	if err != nil {
@@ -130,7 +137,7 @@ type annealer struct {
 }
 
 // moveMix is the share of each move kind, in per mille.
-var moveMix = [nMoves]int{mvRelocate: 450, mvRoom: 250, mvKempe: 200, mvSectionRoom: 100}
+var moveMix = [nMoves]int{mvRelocate: 300, mvRoom: 200, mvSwap: 350, mvKempe: 100, mvSectionRoom: 50}
 
 func newAnnealer(x *State, opts Options) *annealer {
 	seed := opts.Seed
@@ -145,6 +152,9 @@ func newAnnealer(x *State, opts Options) *annealer {
 	}
 	if a.opts.CycleShare == 0 {
 		a.opts.CycleShare = 0.6
+	}
+	if a.opts.AcceptShare == 0 {
+		a.opts.AcceptShare = 0.1
 	}
 	a.steps = a.opts.StepsPerTemp
 	if a.steps == 0 {
@@ -257,7 +267,7 @@ func (a *annealer) run(ctx context.Context) {
 	a.temp = t0
 	a.st.Cycles = 1
 	a.planCycle()
-	step := 0
+	step, acc := 0, 0
 	for {
 		if a.st.Tried&1023 == 0 && ctx.Err() != nil {
 			break
@@ -283,10 +293,11 @@ func (a *annealer) run(ctx context.Context) {
 				a.st.Accepted++
 				a.kinds[k].Accepted++
 				a.moved()
+				acc++
 			}
 		}
-		if step++; step >= a.steps {
-			step = 0
+		if step++; step >= a.steps || float64(acc) >= a.opts.AcceptShare*float64(a.steps) {
+			step, acc = 0, 0
 			a.temp *= a.opts.Cooling
 			if a.temp < a.tmin {
 				a.reheat(t0)

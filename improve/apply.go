@@ -22,6 +22,14 @@ type change struct{ m, p, r int32 }
 // days, their sections and those sections' relations.
 func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
 	x.nextStamp()
+	if x.blocked(chs) {
+		return false
+	}
+	return x.commit(chs, rng, accept)
+}
+
+// commit is apply after the blocked check, on a fresh stamp.
+func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
 	x.touchSec, x.touchPD, x.touchRel = x.touchSec[:0], x.touchPD[:0], x.touchRel[:0]
 	np := int32(x.np)
 	for _, ch := range chs {
@@ -82,6 +90,68 @@ func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bo
 		return false
 	}
 	return true
+}
+
+// blocked reports, before anything is lifted or costed, whether some
+// change must fail whatever the rest of the move does: a start or room its
+// section may not take, or a person, the room or the section itself held
+// then by a meeting that is not part of the move (weeks overlapping). It
+// marks the moving meetings with the current stamp. A move it passes may
+// still fail in apply (two changes into one room, a rule over several
+// meetings). O(changes · length · occupants).
+func (x *State) blocked(chs []change) bool {
+	for _, ch := range chs {
+		x.markMt[ch.m] = x.stamp
+	}
+	np := int32(x.np)
+	for _, ch := range chs {
+		si := x.mt[ch.m].sec
+		in := &x.secs[si]
+		p, r := ch.p, ch.r
+		if p < 0 || int(p) >= x.np || !in.startOK[p] {
+			return true
+		}
+		if r != roomAuto && (in.noRoom != (r < 0) || (r >= 0 && !in.roomOK[r])) {
+			return true
+		}
+		for q := p; q < p+int32(in.length); q++ {
+			if x.secOcc[si*np+q] > 0 && x.ownStays(si, q) {
+				return true
+			}
+			for _, res := range in.people {
+				if x.staysAt(res*np+q, in.weeks) {
+					return true
+				}
+			}
+			if r >= 0 && (x.roomBlock[r*np+q] || x.staysAt(x.roomRes(r)*np+q, in.weeks)) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// staysAt reports whether occupancy list k holds a meeting outside the
+// move whose weeks overlap weeks.
+func (x *State) staysAt(k int32, weeks timetable.WeekSet) bool {
+	for _, o := range x.occ[k] {
+		if x.markMt[o] != x.stamp && x.secs[x.mt[o].sec].weeks.Overlaps(weeks) {
+			return true
+		}
+	}
+	return false
+}
+
+// ownStays reports whether a meeting of section si outside the move
+// occupies period q.
+func (x *State) ownStays(si, q int32) bool {
+	length := int32(x.secs[si].length)
+	for _, o := range x.bySec[si] {
+		if p := x.mt[o].p; x.markMt[o] != x.stamp && p <= q && q < p+length {
+			return true
+		}
+	}
+	return false
 }
 
 // undo takes out the first placed meetings of the log, puts every logged
@@ -166,6 +236,7 @@ func (x *State) nextStamp() {
 		clear(x.markPD)
 		clear(x.markRel)
 		clear(x.chainSeen)
+		clear(x.markMt)
 		x.stamp = 1
 	}
 }

@@ -1,9 +1,13 @@
 package improve
 
-import "github.com/termwright/termwright/timetable"
+import (
+	"math/bits"
+
+	"github.com/termwright/termwright/timetable"
+)
 
 // secContrib adds the criteria of section si: moved meetings, spread days
-// and room stability. O(meetings²).
+// and room stability. O(meetings²) (moved meetings and rooms).
 func (x *State) secContrib(si int32, out *tally) {
 	sec := &x.t.Sections[si]
 	in := &x.secs[si]
@@ -27,21 +31,7 @@ func (x *State) secContrib(si int32, out *tally) {
 		out.add(cMoved, n, n)
 	}
 	if sec.SameDay && sec.MinDays > 0 {
-		days := int64(0)
-		for j, m := range ms {
-			d := x.dayFirst[x.mt[m].p]
-			dup := false
-			for _, o := range ms[:j] {
-				if x.dayFirst[x.mt[o].p] == d {
-					dup = true
-					break
-				}
-			}
-			if !dup {
-				days++
-			}
-		}
-		if short := int64(sec.MinDays) - days; short > 0 {
+		if short := int64(sec.MinDays) - x.secDays(ms); short > 0 {
 			out.add(cSpread, short, short)
 		}
 	}
@@ -69,38 +59,64 @@ func (x *State) secContrib(si int32, out *tally) {
 	}
 }
 
+// secDays counts the distinct days of meetings ms: with masks by a day
+// bit set, O(meetings); otherwise O(meetings²).
+func (x *State) secDays(ms []int32) int64 {
+	if x.useMasks {
+		var seen uint64
+		for _, m := range ms {
+			seen |= 1 << x.dayNo[x.mt[m].p]
+		}
+		return int64(bits.OnesCount64(seen))
+	}
+	days := int64(0)
+	for j, m := range ms {
+		d := x.dayFirst[x.mt[m].p]
+		dup := false
+		for _, o := range ms[:j] {
+			if x.dayFirst[x.mt[o].p] == d {
+				dup = true
+				break
+			}
+		}
+		if !dup {
+			days++
+		}
+	}
+	return days
+}
+
 // busy reports whether resource res is busy at period q.
 func (x *State) busy(res int32, q int32) bool { return len(x.occ[res*int32(x.np)+q]) > 0 }
 
 // pdContrib adds the criteria of person res (staff or cohort) on the day
 // starting at period d: gaps, staff days or isolated periods, and travel.
-// O(periods of the day · meetings there).
+// O(1) from the day's busy mask (O(periods of the day) without masks),
+// plus O(periods of the day · meetings there) for travel when some room
+// names a building.
 func (x *State) pdContrib(res, d int32, out *tally) {
-	last := x.dayLast[d]
-	first, lastBusy, count := int32(-1), int32(-1), int64(0)
-	var iso int64
-	np := int32(x.np)
-	for q := d; q <= last; q++ {
-		if !x.busy(res, q) {
-			continue
+	var first, lastBusy int32
+	var count, iso int64
+	if x.useMasks {
+		b := x.busyMask[res*int32(x.nDays)+x.dayNo[d]]
+		if b == 0 {
+			return
 		}
-		if first < 0 {
-			first = q
-		}
-		lastBusy = q
-		count++
-		before := q > d && x.prevCons[q] && x.busy(res, q-1)
-		after := q < last && x.prevCons[q+1] && x.busy(res, q+1)
-		if !before && !after {
-			iso++
-		}
-	}
-	if first < 0 {
+		c := x.dayCons[x.dayNo[d]]
+		first = d + int32(bits.TrailingZeros64(b))
+		lastBusy = d + 63 - int32(bits.LeadingZeros64(b))
+		count = int64(bits.OnesCount64(b))
+		// A busy period is linked when the one before (after) is busy and
+		// consecutive with it.
+		linked := (b<<1)&c | (b&c)>>1
+		iso = int64(bits.OnesCount64(b &^ linked))
+	} else if first, lastBusy, count, iso = x.pdScan(res, d); first < 0 {
 		return
 	}
 	gaps := int64(lastBusy-first+1) - count
+	np := int32(x.np)
 	var travel int64
-	for q := first; q < lastBusy; q++ {
+	for q := first; x.anyBld && q < lastBusy; q++ {
 		if !x.prevCons[q+1] {
 			continue
 		}
@@ -125,6 +141,30 @@ func (x *State) pdContrib(res, d int32, out *tally) {
 		out.add(cCohortGaps, gaps, gaps)
 		out.add(cCohortIsolated, iso, iso)
 	}
+}
+
+// pdScan finds by scanning the first and last busy period of person res on
+// the day starting at d (-1 when free), the busy periods and the isolated
+// ones.
+func (x *State) pdScan(res, d int32) (first, lastBusy int32, count, iso int64) {
+	last := x.dayLast[d]
+	first, lastBusy = -1, -1
+	for q := d; q <= last; q++ {
+		if !x.busy(res, q) {
+			continue
+		}
+		if first < 0 {
+			first = q
+		}
+		lastBusy = q
+		count++
+		before := q > d && x.prevCons[q] && x.busy(res, q-1)
+		after := q < last && x.prevCons[q+1] && x.busy(res, q+1)
+		if !before && !after {
+			iso++
+		}
+	}
+	return first, lastBusy, count, iso
 }
 
 // relContrib adds relation ri's cost when it is soft and broken.

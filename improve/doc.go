@@ -8,7 +8,9 @@
 // moving part: one meeting per placement of the schedule (same order), its
 // start period and room, and per-resource occupancy lists (resource ×
 // period → meetings occupying it) for staff, cohorts and rooms, plus a
-// per-section period count. The running cost is kept per criterion as raw
+// per-section period count, and per person and day a bit mask of the busy
+// periods (when days have at most 64 periods and there are at most 64
+// days). The running cost is kept per criterion as raw
 // units and row-weighted units, exactly as timetable.Cost counts them.
 //
 // Invariants. Between moves the schedule passes every hard requirement of
@@ -18,7 +20,9 @@
 // new places with the clash, availability and room checks done at insertion,
 // then checking the rules that span several meetings (different days, staff
 // limits, hard relations) on the touched sections and staff days only. A
-// move that fails any rule is undone.
+// move that fails any rule is undone. Before anything is lifted, a move
+// whose target start, room or person is held by a meeting outside the move
+// is refused without costing it (apply.go, blocked).
 //
 // Deltas. Per-meeting criteria (avoid times, over capacity, wasted seats,
 // early and late periods) and student clashes change by exact deltas at
@@ -26,20 +30,24 @@
 // days, room stability), of a person's day (staff and cohort gaps, staff
 // days, isolated cohort periods, travel) and of a relation (soft
 // relations) are recomputed for the touched sections, person-days and
-// relations only, before and after the move.
+// relations only, before and after the move; a person-day's gaps, days
+// and isolated periods come from its busy mask in O(1) (travel is counted
+// only when some room names a building), a section's days from a day mask.
 //
 // Moves (moves.go): relocate a meeting to another start, with its room or
 // another, swapping with the one meeting holding that room then; change a
-// meeting's room, swapping likewise; a Kempe chain that exchanges the
+// meeting's room, swapping likewise; swap the starts and rooms of two
+// meetings (Lü and Hao 2010); a Kempe chain that exchanges the
 // meetings of two starts linked by shared staff or cohorts (Thompson and
 // Dowsland 1998), rooms kept where free; put every meeting of a section
 // in one room, swapping with the meetings holding it.
 //
 // Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
-// Vecchi 1983) with a measured starting temperature, geometric cooling and
-// reheats from the best timetable; with a deadline or a move limit each
-// cooling cycle is planned to take a share of what is left, so the search
-// uses all the time it is given. Levels stay lexicographic.
+// Vecchi 1983) with a measured starting temperature, geometric cooling, a
+// temperature ended early once a share of its moves was accepted (Bellio,
+// Ceschia, Di Gaspero, Schaerf 2016) and reheats from the best timetable;
+// with a deadline or a move limit each cooling cycle is planned to take a
+// share of what is left, so the search uses all the time it is given. Levels stay lexicographic.
 //
 // Names: m is a meeting (placement index), si a section index, p a period,
 // r a room index (-1 for none), res a resource (staff k, then cohorts, then

@@ -8,11 +8,12 @@ const (
 	mvRoom               // one meeting to another room at the same time, or a room swap
 	mvKempe              // a Kempe chain between two starts over shared people
 	mvSectionRoom        // every meeting of a section into one room
+	mvSwap               // two meetings exchange their starts and rooms
 	nMoves
 )
 
 // moveNames names the kinds for reports.
-var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room"}
+var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room", "swap"}
 
 // maxChain bounds a Kempe chain; longer chains are refused.
 const maxChain = 48
@@ -30,6 +31,8 @@ func (x *State) propose(k int, rng *rand.Rand) bool {
 		return x.proposeKempe(rng)
 	case mvSectionRoom:
 		return x.proposeSectionRoom(rng)
+	case mvSwap:
+		return x.proposeSwap(rng)
 	}
 	return false
 }
@@ -208,4 +211,39 @@ func (x *State) proposeKempe(rng *rand.Rand) bool {
 		}
 	}
 	return true
+}
+
+// proposeSwap exchanges the places of two meetings of different sections
+// with the same length and different starts: each takes the other's start
+// and room (Lü and Hao 2010's simple swap). A room the other section may
+// not use is left to apply's choice. Sections in hard same-time groups
+// are not swapped (their partners would have to follow).
+func (x *State) proposeSwap(rng *rand.Rand) bool {
+	if len(x.movable) < 2 {
+		return false
+	}
+	m := x.movable[rng.IntN(len(x.movable))]
+	o := x.movable[rng.IntN(len(x.movable))]
+	a, b := x.mt[m], x.mt[o]
+	ia, ib := &x.secs[a.sec], &x.secs[b.sec]
+	if a.sec == b.sec || a.p == b.p || ia.length != ib.length || len(ia.sameAs) > 0 || len(ib.sameAs) > 0 {
+		return false
+	}
+	x.chs = append(x.chs, change{m, b.p, x.roomFor(m, b.r)}, change{o, a.p, x.roomFor(o, a.r)})
+	return true
+}
+
+// roomFor is room r for meeting m when its section may take it, -1 for a
+// section without rooms, else roomAuto.
+func (x *State) roomFor(m, r int32) int32 {
+	in := &x.secs[x.mt[m].sec]
+	switch {
+	case in.noRoom:
+		return -1
+	case x.mt[m].fixedR:
+		return x.mt[m].r
+	case r >= 0 && in.roomOK[r]:
+		return r
+	}
+	return roomAuto
 }

@@ -17,7 +17,11 @@ func (x *State) insert(m, p, r int32) {
 		}
 		x.secOcc[si*np+q]++
 		for _, res := range in.people {
-			x.occ[res*np+q] = append(x.occ[res*np+q], m)
+			k := res*np + q
+			x.occ[k] = append(x.occ[k], m)
+			if x.useMasks && len(x.occ[k]) == 1 {
+				x.busyMask[res*int32(x.nDays)+x.dayNo[q]] |= 1 << (q - x.dayFirst[q])
+			}
 		}
 		if r >= 0 {
 			k := x.roomRes(r)*np + q
@@ -44,7 +48,11 @@ func (x *State) remove(m int32) {
 			}
 		}
 		for _, res := range in.people {
-			x.occ[res*np+q] = drop(x.occ[res*np+q], m)
+			k := res*np + q
+			x.occ[k] = drop(x.occ[k], m)
+			if x.useMasks && len(x.occ[k]) == 0 {
+				x.busyMask[res*int32(x.nDays)+x.dayNo[q]] &^= 1 << (q - x.dayFirst[q])
+			}
 		}
 		if r >= 0 {
 			k := x.roomRes(r)*np + q

@@ -113,7 +113,12 @@ type State struct {
 	nCohort  int
 	dayFirst []int32
 	dayLast  []int32
-	prevCons []bool // period p follows p-1 consecutively on one day
+	prevCons []bool   // period p follows p-1 consecutively on one day
+	dayNo    []int32  // period -> day number (0-based, in period order)
+	nDays    int      // days of the grid
+	dayCons  []uint64 // per day: bit i set when the day's period i follows period i-1 consecutively
+	useMasks bool     // at most 64 days of at most 64 periods: busy masks are kept
+	anyBld   bool     // some room names a building (travel can cost)
 	weight   [nCrit]int64
 	level    [nCrit]int // index into levels, -1 when the weight is 0
 	levels   []int      // distinct levels in use, highest first
@@ -132,6 +137,9 @@ type State struct {
 
 	occ    [][]int32 // res*np+p -> meetings occupying (res: staff, cohorts, rooms)
 	secOcc []int32   // si*np+p -> meetings of si occupying p
+	// busyMask is person*nDays+day -> bit i set when the person's occupancy
+	// list at the day's period i is not empty (kept when useMasks).
+	busyMask []uint64
 
 	cur tally // running cost
 
@@ -145,6 +153,7 @@ type State struct {
 	touchRel  []int32
 	log       []undoRec
 	chainSeen []uint32
+	markMt    []uint32 // meeting -> stamp when it is part of the move apply checks
 	chs       []change // the move being proposed
 	movable   []int32  // meetings whose time may change (not fixed, more than one start)
 	roomy     []int32  // meetings whose room may change (takes rooms, not fixed, more than one room)
@@ -202,6 +211,27 @@ func (x *State) grid() {
 	for p := 1; p < n; p++ {
 		x.prevCons[p] = t.Consecutive(p-1, p)
 	}
+	x.dayNo = make([]int32, n)
+	x.useMasks = true
+	for p := 0; p < n; p++ {
+		if p > 0 && x.dayFirst[p] == int32(p) {
+			x.nDays++
+		}
+		x.dayNo[p] = int32(x.nDays)
+		if p-int(x.dayFirst[p]) >= 64 {
+			x.useMasks = false
+		}
+	}
+	if n > 0 {
+		x.nDays++
+	}
+	x.useMasks = x.useMasks && x.nDays <= 64
+	x.dayCons = make([]uint64, x.nDays)
+	for p := 1; p < n; p++ {
+		if x.prevCons[p] && x.dayFirst[p] != int32(p) && x.useMasks {
+			x.dayCons[x.dayNo[p]] |= 1 << (p - int(x.dayFirst[p]))
+		}
+	}
 }
 
 // criteria reads weights and levels.
@@ -238,6 +268,7 @@ func (x *State) rooms() {
 		x.roomCap[r] = rm.Capacity
 		x.roomBld[r] = -1
 		if rm.Building != "" {
+			x.anyBld = true
 			b, ok := blds[rm.Building]
 			if !ok {
 				b = int32(len(blds))
@@ -474,6 +505,9 @@ func (x *State) place() error {
 	nres := x.nStaff + x.nCohort + len(t.Rooms)
 	x.occ = make([][]int32, nres*x.np)
 	x.secOcc = make([]int32, len(t.Sections)*x.np)
+	if x.useMasks {
+		x.busyMask = make([]uint64, (x.nStaff+x.nCohort)*x.nDays)
+	}
 	x.bySec = make([][]int32, len(t.Sections))
 	x.mt = make([]meeting, len(x.src.Placements))
 	for i, pl := range x.src.Placements {
@@ -497,6 +531,7 @@ func (x *State) place() error {
 	x.markRel = make([]uint32, len(x.rels))
 	x.markPD = make([]uint32, (x.nStaff+x.nCohort)*x.np)
 	x.chainSeen = make([]uint32, len(x.mt))
+	x.markMt = make([]uint32, len(x.mt))
 	for m, mt := range x.mt {
 		in := &x.secs[mt.sec]
 		if !mt.fixedT && len(in.starts) > 1 {

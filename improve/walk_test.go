@@ -51,6 +51,7 @@ func TestWalkKeepsCostAndLegality(t *testing.T) {
 			}
 			x, err := New(term, wit, kept)
 			require.NoError(t, err)
+			require.True(t, x.useMasks)
 			requireSameCost(t, x, kept, 0)
 			rng := rand.New(rand.NewPCG(1, 2))
 			accepted := [nMoves]int{}
@@ -72,6 +73,26 @@ func TestWalkKeepsCostAndLegality(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestWalkScanning repeats the walk on the path for days of more than 64
+// periods (or more than 64 days), where person-days are scanned instead
+// of read from busy masks; the generator keeps days short, so the state
+// is switched to that path after New (the masks are then left alone).
+func TestWalkScanning(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.Config{Sections: 30, Seed: 4, Days: 3, PeriodsPerDay: 6})
+	x, err := New(term, wit, wit)
+	require.NoError(t, err)
+	x.useMasks = false
+	rng := rand.New(rand.NewPCG(4, 4))
+	n := 0
+	for step := 1; step <= 1500; step++ {
+		if x.propose(rng.IntN(nMoves), rng) && x.apply(x.chs, rng, nil) {
+			n++
+			requireSameCost(t, x, wit, step)
+		}
+	}
+	require.Positive(t, n)
 }
 
 // TestWalkManySmallTerms repeats the walk on generated terms of many
@@ -115,4 +136,39 @@ func TestSameTimeGroupsMove(t *testing.T) {
 		}
 	}
 	require.Positive(t, grouped, "no section of a same-time group ever moved")
+}
+
+// TestBlockedIsSound checks the cheap refusal against the full check: no
+// move that blocked refuses is legal when applied without it (apply's
+// lifting, insertion and rule checks; brute force over random moves of
+// every kind), and blocked does refuse some moves.
+func TestBlockedIsSound(t *testing.T) {
+	for _, cfg := range []samples.Config{samples.DemoConfig, {Sections: 40, Seed: 11}, {Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4, Weeks: 2}} {
+		t.Run(fmt.Sprint(cfg), func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(cfg)
+			x, err := New(term, wit, nil)
+			require.NoError(t, err)
+			rng := rand.New(rand.NewPCG(5, 6))
+			refused, legal := 0, 0
+			for step := 1; step <= 4000; step++ {
+				if !x.propose(rng.IntN(nMoves), rng) {
+					continue
+				}
+				x.nextStamp()
+				b := x.blocked(x.chs)
+				ok := false
+				x.nextStamp()
+				x.commit(x.chs, rng, func(*tally) bool { ok = true; return step%3 == 0 })
+				if b {
+					refused++
+					require.False(t, ok, "step %d: blocked refused a legal move %v", step, x.chs)
+				} else if ok {
+					legal++
+				}
+			}
+			require.Positive(t, refused)
+			require.Positive(t, legal)
+			requireSameCost(t, x, nil, 0)
+		})
+	}
 }
