@@ -63,10 +63,16 @@
 // section's room so far first (room stability), then the best fit.
 // Meetings that span several periods, week patterns and same-room groups
 // need one room for all they cover, which per-period counting cannot
-// promise. When the fast assignment fails, Decode repairs (roomassign.go),
-// with explicit room atoms solved by the engine and everything else
-// staying put: each failed meeting with the meetings holding its rooms
-// (same-room groups whole, a small conflict budget); then, for the
+// promise. When the fast assignment fails, it runs again ranking rooms by
+// pressure (the demand that can go nowhere else: laboratories stay free
+// for the meetings that need one). When that fails too, Decode repairs
+// (roomassign.go), with explicit room atoms solved by the engine and
+// everything else staying put: each failed meeting with the meetings
+// holding its rooms (same-room groups whole, a small conflict budget);
+// then the failed meetings' room family whole (roomfamily_repair.go: the
+// meetings that can use only the rooms of the union U of their candidate
+// sets, solved exactly on their own, the others moved out of U and placed
+// around them; no assignment is a proved conflict); then, for the
 // meetings still failed, the smallest neighbourhood of them solved on its
 // own (when it has no assignment, no repair can help: the engine's
 // unsatisfiable core becomes a clause forbidding that combination of

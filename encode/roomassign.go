@@ -12,18 +12,45 @@ type roomAssigner struct {
 	occ      [][][]int32 // occ[r][p]: meetings holding room r at period p
 	secRooms map[int][]int
 	failed   []int // meetings left without a room
+	pressure []int // per room, when rooms are ranked by the demand on them (roomPressure)
 }
 
 // assignRooms assigns rooms to all meetings that take one: first meetings
-// with one candidate room (fixed rooms), then same-room groups, then the rest batch by
-// batch in grid order; failed meetings are re-solved exactly per connected
-// component.
+// with one candidate room (fixed rooms), then same-room groups, then the
+// rest batch by batch in grid order. When some meeting is left without a
+// room, it does it all again keeping the rooms in demand free (room
+// pressure), and when that fails too the failed meetings are repaired
+// (repair).
 func (d *decoder) assignRooms() error {
-	a := &roomAssigner{d: d, secRooms: map[int][]int{}}
+	a := &roomAssigner{d: d}
+	if a.fastAssign(nil); len(a.failed) == 0 {
+		return nil
+	}
+	// A second pass that keeps rooms many meetings depend on for them
+	// (roomPressure); the first pass's rooms stand wherever it succeeds.
+	if d.effort.pressurePass {
+		if a.fastAssign(d.roomPressure()); len(a.failed) == 0 {
+			return nil
+		}
+	}
+	return a.repair()
+}
+
+// fastAssign assigns rooms from scratch: fixed rooms, same-room groups,
+// then batch by batch in grid order, ranking rooms by pressure when given
+// (prefer). Meetings it cannot place are left in a.failed.
+func (a *roomAssigner) fastAssign(pressure []int) {
+	d := a.d
 	nP := len(d.t.Periods)
+	a.pressure, a.failed, a.secRooms = pressure, nil, map[int][]int{}
 	a.occ = make([][][]int32, d.c.rooms.n)
 	for r := range a.occ {
 		a.occ[r] = make([][]int32, nP)
+	}
+	for i := range d.ms {
+		if d.ms[i].cand >= 0 {
+			d.ms[i].room = -1
+		}
 	}
 	a.preassignSingles()
 	a.preassignGroups()
@@ -38,10 +65,31 @@ func (d *decoder) assignRooms() error {
 			a.batch(byStart[p])
 		}
 	}
-	if len(a.failed) == 0 {
-		return nil
+}
+
+// roomPressure is, per room, how much of the term's demand can go
+// nowhere else: the sum over meetings of their periods divided by their
+// number of candidate rooms (scaled to integers). A meeting that can use
+// a room of low pressure leaves the rooms others depend on (laboratories
+// for the meetings that need one) free.
+func (d *decoder) roomPressure() []int {
+	pr := make([]float64, d.c.rooms.n)
+	for i := range d.ms {
+		m := &d.ms[i]
+		if m.cand < 0 {
+			continue
+		}
+		rooms := d.setMembers(m.cand)
+		w := float64(m.end-m.start+1) * float64(m.weeks.Count()) / float64(len(rooms))
+		for _, r := range rooms {
+			pr[r] += w
+		}
 	}
-	return a.repair()
+	out := make([]int, len(pr))
+	for r, v := range pr {
+		out[r] = int(v * 16)
+	}
+	return out
 }
 
 // free reports whether room r can take meeting mi given the meetings
@@ -96,14 +144,15 @@ func (a *roomAssigner) unplace(mi int) {
 
 // prefer sorts rooms by preference for meeting mi: rooms where it joins
 // meetings of other weeks (sharing saves a room for meetings that need all
-// weeks), then rooms the section already uses, then rooms that fit (fewest
-// empty seats first), then rooms too small (fewest students over first;
-// only possible under SoftCapacity).
+// weeks), then rooms the section already uses, then rooms that fit, then
+// rooms too small (only possible under SoftCapacity); among those, the
+// rooms of least pressure when ranked by it (fastAssign's second pass),
+// then the fewest empty seats (fewest students over).
 func (a *roomAssigner) prefer(mi int, rooms []int) {
 	m := &a.d.ms[mi]
 	size := a.d.t.Sections[m.sec].Size
 	used := a.secRooms[m.sec]
-	type key [4]int
+	type key [5]int
 	keyOf := func(r int) key {
 		var k key
 		for q := m.start; q <= m.end; q++ {
@@ -118,9 +167,12 @@ func (a *roomAssigner) prefer(mi int, rooms []int) {
 			}
 		}
 		if c := a.d.t.Rooms[r].Capacity; c >= size {
-			k[3] = c - size
+			k[4] = c - size
 		} else {
-			k[2], k[3] = 1, size-c
+			k[2], k[4] = 1, size-c
+		}
+		if a.pressure != nil {
+			k[3] = a.pressure[r]
 		}
 		return k
 	}
@@ -364,7 +416,8 @@ func (a *roomAssigner) components() [][]int {
 
 // repair places the meetings the fast assignment left over. First it
 // re-solves each exactly with the meetings that block it from its rooms
-// (repairEach), then the rest together with the meetings that block them
+// (repairEach), then their room family whole (familyRepair, which may
+// prove a conflict), then the rest together with the meetings that block them
 // (widening a few times), everything else staying where it is. If
 // that fails, it looks for a proof that the failed meetings cannot be
 // roomed: a growing neighbourhood of them, solved on its own (others
@@ -381,6 +434,20 @@ func (a *roomAssigner) repair() error {
 		}
 	}
 	rerr := &RoomConflictError{}
+	// The failed meetings' own room family solved whole: a proved conflict
+	// of meetings that can use no other room, or rooms for all of them
+	// with the others placed around them.
+	if core, conflict := a.familyRepair(); conflict {
+		a.addNogood(rerr, core)
+		return rerr
+	} else if len(a.failed) == 0 {
+		return nil
+	} else if a.d.effort.localHops > 0 {
+		a.repairEach() // the meetings moved out of the family's rooms
+		if len(a.failed) == 0 {
+			return nil
+		}
+	}
 	// A conflict of the failed meetings and their direct neighbours on
 	// their own is cheap to prove, and no local repair can undo it: look
 	// for it first (the result is the same as after a failed repair).

@@ -14,12 +14,16 @@ type roomEffort struct {
 	localConflicts     int64 // engine conflicts of local repair and isolated proofs
 	eachConflicts      int64 // engine conflicts of repairing one failed meeting (repairEach)
 	componentConflicts int64 // engine conflicts of a whole component, the last resort
+	maxFamily          int   // families with more meetings of their own are not re-solved whole
+	familyConflicts    int64 // engine conflicts of a room family's own meetings (familyRepair); 0: no family repair
+	pressurePass       bool  // when the fast assignment fails, run it again ranking rooms by pressure
 }
 
 // defaultRoomEffort is the effort of Decode.
 var defaultRoomEffort = roomEffort{
 	localHops: 3, isolatedHops: 4, maxIsolated: 800, maxComponent: 1500,
-	localConflicts: 20000, eachConflicts: 1000, componentConflicts: 50000,
+	localConflicts: 20000, eachConflicts: 1000, componentConflicts: 50000, maxFamily: 1500, familyConflicts: 50000,
+	pressurePass: true,
 }
 
 // exact assigns rooms to a set of unplaced meetings, the others keeping

@@ -10,6 +10,9 @@ func newRoomSet(nRooms int) roomSet { return make(roomSet, (nRooms+63)/64) }
 
 func (s roomSet) add(r int) { s[r>>6] |= 1 << (uint(r) & 63) }
 
+// has reports whether room r is in the set.
+func (s roomSet) has(r int) bool { return s[r>>6]&(1<<(uint(r)&63)) != 0 }
+
 // count is |s|.
 func (s roomSet) count() int {
 	n := 0
