@@ -156,8 +156,7 @@ func (v *view) writeStaffClassLists(w io.Writer, staffID string, opt Options) (e
 		return err
 	}
 	f.SetActiveSheet(0)
-	_, err = f.WriteTo(w)
-	return err
+	return wb.writeTo(w)
 }
 
 var staffClassWidths = []float64{12, 12, 10, 40, 16, 11}

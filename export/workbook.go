@@ -34,10 +34,11 @@ func WriteTimetableWorkbook(w io.Writer, t *timetable.Term, s *timetable.Schedul
 
 // workbook is one workbook being written, with its shared styles.
 type workbook struct {
-	v     *view
-	f     *excelize.File
-	st    styles
-	paper string // "A4" or "Letter", for the sheets' page setup
+	v      *view
+	f      *excelize.File
+	st     styles
+	paper  string       // "A4" or "Letter", for the sheets' page setup
+	titles []printTitle // print titles to add when the workbook is written
 }
 
 func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
@@ -101,8 +102,7 @@ func (v *view) writeWorkbook(w io.Writer, opt Options) (err error) {
 		return err
 	}
 	f.SetActiveSheet(0)
-	_, err = f.WriteTo(w)
-	return err
+	return wb.writeTo(w)
 }
 
 // gridSubjects lists who gets a grid sheet (and a PDF): every staff member,

@@ -2,6 +2,7 @@ package export
 
 import (
 	"fmt"
+	"io"
 
 	"github.com/xuri/excelize/v2"
 )
@@ -46,10 +47,60 @@ func (wb *workbook) pageSetup(sheet, titleRows, titleCols string) error {
 	default:
 		return nil
 	}
-	if err := f.SetDefinedName(&excelize.DefinedName{Name: "_xlnm.Print_Titles", RefersTo: ref, Scope: sheet}); err != nil {
+	wb.titles = append(wb.titles, printTitle{sheet: sheet, ref: ref})
+	return nil
+}
+
+// printTitle is one sheet's _xlnm.Print_Titles, added when the workbook
+// is written (addPrintTitles).
+type printTitle struct{ sheet, ref string }
+
+// addPrintTitles adds the collected print titles as sheet-scoped defined
+// names. excelize's SetDefinedName scans every existing name and lists
+// every sheet for each, which made a workbook of a few thousand grid
+// sheets take most of an hour; so only the first goes through it (and its
+// checks), and the rest are copies of it with their own reference and
+// sheet index, all indexes taken from one sheet list.
+func (wb *workbook) addPrintTitles() error {
+	if len(wb.titles) == 0 {
+		return nil
+	}
+	f := wb.f
+	first := wb.titles[0]
+	if err := f.SetDefinedName(&excelize.DefinedName{Name: "_xlnm.Print_Titles", RefersTo: first.ref, Scope: first.sheet}); err != nil {
 		return fmt.Errorf("print titles: %w", err)
 	}
+	if len(wb.titles) == 1 {
+		return nil
+	}
+	index := map[string]int{}
+	for i, name := range f.GetSheetList() {
+		index[name] = i
+	}
+	names := &f.WorkBook.DefinedNames.DefinedName
+	template := (*names)[len(*names)-1]
+	seen := map[string]bool{first.sheet: true}
+	for _, pt := range wb.titles[1:] {
+		id, ok := index[pt.sheet]
+		if !ok || seen[pt.sheet] {
+			return fmt.Errorf("print titles: sheet %q is missing or has its titles twice", pt.sheet)
+		}
+		seen[pt.sheet] = true
+		d := template
+		d.Data = pt.ref
+		d.LocalSheetID = &id
+		*names = append(*names, d)
+	}
 	return nil
+}
+
+// writeTo adds the print titles and writes the workbook to w.
+func (wb *workbook) writeTo(w io.Writer) error {
+	if err := wb.addPrintTitles(); err != nil {
+		return err
+	}
+	_, err := wb.f.WriteTo(w)
+	return err
 }
 
 // quoteSheet quotes a sheet name for a formula reference: 'Room R1',
