@@ -19,7 +19,9 @@ import (
 // goes through the gates, and one whose total cost is lower becomes the
 // incumbent; room problems become cuts of the whole program. The neighbourhood size adapts: when the engine proves a
 // neighbourhood optimal the next one grows, when the budget runs out first
-// it shrinks.
+// it shrinks. While the incumbent pays room cost, every other step is a
+// room neighbourhood (lns_roomhood.go); after a stall the search restarts
+// (lns_restart.go) or stops.
 
 // Bounds of the neighbourhood size (sections).
 const (

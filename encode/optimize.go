@@ -118,7 +118,9 @@ type OptimizeResult struct {
 // most sections stay where the incumbent has them while a neighbourhood of
 // related sections is re-optimised within StepConflicts; improvements are
 // kept and the neighbourhood size adapts. With a deadline the turns go on
-// until it, Ctrl-C or a proof of optimality.
+// until it, Ctrl-C or a proof of optimality: when neighbourhood search
+// stalls it restarts from the incumbent with larger, perturbed
+// neighbourhoods (lns_restart.go) instead of stopping.
 //
 // Every timetable it keeps has passed solver.Verify, Decode, room
 // improvement, timetable.Check and the third gate (the engine's cost of
@@ -129,9 +131,11 @@ type OptimizeResult struct {
 // when ctx ended before the first one.
 //
 // Determinism: the same term, options and seed give the same timetable
-// when the run ends by itself (optimum proven, budgets or stall), because
-// every budget counts conflicts; a run cut short by ctx depends on how
-// far it got.
+// when the run ends by itself (optimum proven, budgets, or a stall after
+// Horizon restarts), because every budget counts conflicts and steps; a
+// run cut short by ctx depends on how far it got. A portfolio member
+// (OptimizePortfolio with more than one thread) also depends on what the
+// others publish.
 func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*OptimizeResult, error) {
 	if opt.StepConflicts <= 0 {
 		opt.StepConflicts = DefaultStepConflicts
