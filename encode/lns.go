@@ -82,7 +82,7 @@ func (o *optRun) lns() error {
 	ls := o.lnsInit()
 	stall := 0
 	for {
-		if stall >= o.stallLimit(ls) {
+		if stall >= o.stallLimit() {
 			if !o.mayRestart() {
 				break
 			}

@@ -40,7 +40,6 @@ const (
 
 // restartState is the part of lnsState that restarts change.
 type restartState struct {
-	restarts int // restarts so far in this run
 	factor   int // neighbourhood-size and budget factor of the current restart (1 before the first)
 	perturb  int // perturbed steps still to run
 }
@@ -69,7 +68,7 @@ func (o *optRun) restart(ls *lnsState) {
 
 // stallLimit is the number of steps without improvement after which
 // neighbourhood search restarts (or stops).
-func (o *optRun) stallLimit(ls *lnsState) int {
+func (o *optRun) stallLimit() int {
 	if o.res.Restarts == 0 {
 		return o.opt.MaxStall
 	}
