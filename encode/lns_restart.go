@@ -40,8 +40,8 @@ const (
 
 // restartState is the part of lnsState that restarts change.
 type restartState struct {
-	factor   int // neighbourhood-size and budget factor of the current restart (1 before the first)
-	perturb  int // perturbed steps still to run
+	factor  int // neighbourhood-size and budget factor of the current restart (1 before the first)
+	perturb int // perturbed steps still to run
 }
 
 // mayRestart reports whether neighbourhood search may restart after a
