@@ -101,7 +101,7 @@ func (o *optRun) lns() error {
 			o.res.Stopped = "step limit"
 			return nil
 		}
-		if stall >= shareStall {
+		if stall >= shareStall || o.res.Steps%shareEvery == 0 {
 			adopted, err := o.fromBoard()
 			if err != nil {
 				return err

@@ -13,8 +13,8 @@ import (
 // Sharing in a portfolio. The members of OptimizePortfolio publish every
 // new best verified timetable and every better proven lower bound on one
 // board while they run. A member whose neighbourhood search has stalled
-// for shareStall steps, or that is about to start a new turn, adopts the
-// board's timetable when it is better than its own incumbent: the
+// for shareStall steps, every shareEvery steps, and before each new turn,
+// adopts the board's timetable when it is better than its own incumbent: the
 // timetable's places are assumed in the member's own engine (each member
 // has its own program, which its own room cuts have grown), and the model
 // goes through every gate again before it becomes the member's incumbent
@@ -24,9 +24,14 @@ import (
 // whole portfolio: the optimum is proven. A portfolio of one has no board,
 // so one-thread runs stay reproducible.
 
-// shareStall is the number of neighbourhood steps without improvement
-// after which a member adopts a better timetable from the board.
-const shareStall = 5
+// A member looks at the board after shareStall neighbourhood steps in a
+// row without improvement, and every shareEvery steps in any case (on
+// large terms steps improve often, and a member that never stalls would
+// otherwise never catch up with a better one).
+const (
+	shareStall = 5
+	shareEvery = 8
+)
 
 // shareBoard is what the members of one portfolio share.
 type shareBoard struct {
