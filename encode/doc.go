@@ -181,7 +181,7 @@
 // negative, so it bounds the whole cost, lexicographically. A timetable is
 // proven optimal only when its whole cost meets that bound.
 //
-// # Optimisation (optimize*.go, lns.go)
+// # Optimisation (optimize*.go, lns*.go, portfolio*.go)
 //
 // Optimize finds a first verified timetable (a Search over the hard
 // program, each model completed on the whole program's Search by assuming
@@ -199,7 +199,19 @@
 // day, random sections) is re-optimised within a conflict budget, and
 // every model the engine finds goes through the gates; the best whole cost
 // wins. The neighbourhood grows after a proven step and
-// shrinks after one that ran out of budget.
+// shrinks after one that ran out of budget. While the best timetable pays
+// room cost (which the engine does not see), every other step frees a
+// section that pays it with its room competitors and must move one of
+// them (lns_roomhood.go). When the steps stall with time left,
+// neighbourhood search restarts from the incumbent with a new random
+// stream, neighbourhoods 1, 2, 4 or 8 times the starting size, a budget
+// grown alike and a few perturbed steps (lns_restart.go; the Horizon
+// option allows restarts without a deadline, for tests).
+//
+// OptimizePortfolio runs members with different seeds that share a board
+// (portfolio_share.go): each new best verified timetable and proven bound
+// is published; a stalled member adopts a better timetable through its own
+// engine and gates; a timetable at the best bound stops them all.
 //
 // Between the whole-term phase and neighbourhood search, and again each
 // time neighbourhood search stalls or its turn (half the time left) ends,
@@ -213,9 +225,9 @@
 // timetable the program refuses is not adopted. With a deadline each run
 // takes LocalShare of the time left; without one, a move budget.
 //
-// All budgets count conflicts or moves, so a run without a deadline that
-// ends by itself (proof, stall or step limit) depends only on the term,
-// the options and the seed; a time limit or Ctrl-C ends it with the best
+// All budgets count conflicts or moves, so a one-thread run without a
+// deadline that ends by itself (proof, stall after Horizon restarts or
+// step limit) depends only on the term, the options and the seed; a time limit or Ctrl-C ends it with the best
 // verified timetable so far, and the search never stops early while time
 // remains.
 //

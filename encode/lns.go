@@ -1,6 +1,7 @@
 package encode
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"slices"
 
@@ -18,7 +19,9 @@ import (
 // goes through the gates, and one whose total cost is lower becomes the
 // incumbent; room problems become cuts of the whole program. The neighbourhood size adapts: when the engine proves a
 // neighbourhood optimal the next one grows, when the budget runs out first
-// it shrinks.
+// it shrinks. While the incumbent pays room cost, every other step is a
+// room neighbourhood (lns_roomhood.go); after a stall the search restarts
+// (lns_restart.go) or stops.
 
 // Bounds of the neighbourhood size (sections).
 const (
@@ -36,27 +39,56 @@ const (
 	hoodKinds
 )
 
-// lnsState is what neighbourhood search keeps between steps.
+// lnsStream is the stream of neighbourhood search's random source before
+// the first restart; restart k uses lnsStream+k (lns_restart.go).
+const lnsStream = 0x6e656967
+
+// lnsState is what neighbourhood search keeps between steps, and between
+// the turns it takes with local search (so that a new turn goes on with
+// the random stream and size where the last one stopped).
 type lnsState struct {
 	rng     *rand.Rand
 	size    int
+	base    int     // the starting size: restarts multiply it
 	related [][]int // section -> sections sharing staff, cohorts, students or a relation
 	people  [][]int // staff (then cohorts) -> sections
 	nStaff  int
+	restartState
 }
 
-// lns runs neighbourhood steps until MaxStall steps in a row bring no
-// improvement or ctx ends.
+// lnsInit returns the neighbourhood search state of the run, made on
+// first use.
+func (o *optRun) lnsInit() *lnsState {
+	if o.ls != nil {
+		return o.ls
+	}
+	n := len(o.t.Sections)
+	ls := &lnsState{rng: rand.New(rand.NewPCG(uint64(o.opt.Seed), lnsStream)), nStaff: len(o.t.Staff)}
+	ls.base = min(max(lnsMinSize, n/40), 12, n)
+	ls.size, ls.factor = ls.base, 1
+	o.indexRelated(ls)
+	o.ls = ls
+	return ls
+}
+
+// lns runs neighbourhood steps until ctx ends, the incumbent meets the
+// bound, the step limit is reached, or the steps stall (MaxStall steps in
+// a row without improvement) when no restart is allowed (mayRestart).
 func (o *optRun) lns() error {
 	n := len(o.t.Sections)
 	if n < 2 {
 		return nil
 	}
-	ls := &lnsState{rng: rand.New(rand.NewPCG(uint64(o.opt.Seed), 0x6e656967)), nStaff: len(o.t.Staff)}
-	ls.size = min(max(lnsMinSize, n/40), 12, n)
-	o.indexRelated(ls)
+	ls := o.lnsInit()
 	stall := 0
-	for stall < o.opt.MaxStall {
+	for {
+		if stall >= o.stallLimit() {
+			if !o.mayRestart() {
+				break
+			}
+			o.restart(ls)
+			stall = 0
+		}
 		if o.ctx.Err() != nil {
 			o.res.Stopped = o.ctxStopped()
 			return nil
@@ -69,11 +101,26 @@ func (o *optRun) lns() error {
 			o.res.Stopped = "step limit"
 			return nil
 		}
+		if stall >= shareStall || o.res.Steps%shareEvery == 0 {
+			adopted, err := o.fromBoard()
+			if err != nil {
+				return err
+			}
+			if adopted {
+				stall = 0
+			}
+		}
 		o.res.Steps++
 		kind := o.res.Steps % hoodKinds
-		secs := o.neighbourhood(ls, kind)
+		var secs, only []int
+		if o.res.Steps%2 == 0 && o.roomPart() {
+			secs, only = o.roomHood(ls) // every other step, while the incumbent pays room cost
+		}
+		if len(secs) == 0 {
+			secs = o.neighbourhood(ls, kind)
+		}
 		before := o.best
-		st, proven, complete, err := o.step(secs)
+		st, proven, complete, err := o.step(ls, secs, only)
 		if err != nil {
 			return err
 		}
@@ -85,7 +132,7 @@ func (o *optRun) lns() error {
 		} else {
 			stall++
 		}
-		maxSize := min(lnsMaxSize, n)
+		maxSize := ls.maxSize()
 		switch {
 		case st == solver.Satisfiable && proven:
 			ls.size = min(ls.size+1+ls.size/8, maxSize)
@@ -101,7 +148,7 @@ func (o *optRun) lns() error {
 // step re-optimises the given sections with every other section fixed as
 // in the incumbent, and reports whether the engine proved the
 // neighbourhood's optimum.
-func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err error) {
+func (o *optRun) step(ls *lnsState, free, only []int) (st solver.Status, proven, complete bool, err error) {
 	isFree := make([]bool, len(o.t.Sections))
 	for _, s := range free {
 		isFree[s] = true
@@ -122,8 +169,19 @@ func (o *optRun) step(free []int) (st solver.Status, proven, complete bool, err 
 	if err != nil {
 		return solver.Unknown, false, false, err
 	}
+	perturb := ls.perturb > 0
+	if perturb || o.roomPart() {
+		var rng *rand.Rand
+		if perturb {
+			ls.perturb--
+			rng = ls.rng
+		}
+		if err := o.forbidIncumbent(s, only, rng); err != nil {
+			return solver.Unknown, false, false, fmt.Errorf("internal error: %w", err)
+		}
+	}
 	o.lastOnly, o.pending = len(o.p.Weaks) > GlobalWeakLimit, nil // on large terms the gates cost more than a step
-	st, complete, err = o.x.Improve(o.ctx, s, nil, o.opt.StepConflicts, -1, o.onModel)
+	st, complete, err = o.x.Improve(o.ctx, s, nil, o.opt.StepConflicts*int64(max(ls.factor, 1)), -1, o.onModel)
 	o.lastOnly = false
 	if err == nil && o.pending != nil {
 		ok, err := o.x.Settle(o.ctx, o.take(o.pending))

@@ -39,6 +39,12 @@ type OptimizeOptions struct {
 	// MaxSteps ends neighbourhood search after this many steps; 0 means
 	// no limit.
 	MaxSteps int
+	// Horizon is the number of times neighbourhood search restarts after
+	// a stall when ctx has no deadline (with a deadline it restarts until
+	// the deadline, see lns_restart.go); 0 means none: it stops at the
+	// first stall. Runs that end by themselves stay reproducible, so
+	// tests use it to exercise restarts without long timers.
+	Horizon int
 	// LocalShare is the share of the time left that each local-search run
 	// (package improve) takes when ctx has a deadline; 0 means
 	// DefaultLocalShare, negative skips local search.
@@ -47,6 +53,8 @@ type OptimizeOptions struct {
 	// improvement and about every ProgressEvery while searching.
 	Progress      func(Progress)
 	ProgressEvery time.Duration // 0 means 250 ms
+
+	share *share // the portfolio's board (portfolio_share.go); nil alone
 }
 
 // Defaults of OptimizeOptions.
@@ -96,6 +104,8 @@ type OptimizeResult struct {
 	History    []Progress // one entry per improvement
 	Steps      int        // neighbourhood steps run
 	Local      LocalStats // the local-search phase
+	Restarts   int        // restarts of neighbourhood search after it stalled (lns_restart.go)
+	Adopted    int        // better timetables of other portfolio members adopted (portfolio_share.go)
 	Stopped    string     // why the search ended: "optimal", "time limit", "interrupted", "conflict budget", "step limit", "no improvement"
 }
 
@@ -108,7 +118,9 @@ type OptimizeResult struct {
 // most sections stay where the incumbent has them while a neighbourhood of
 // related sections is re-optimised within StepConflicts; improvements are
 // kept and the neighbourhood size adapts. With a deadline the turns go on
-// until it, Ctrl-C or a proof of optimality.
+// until it, Ctrl-C or a proof of optimality: when neighbourhood search
+// stalls it restarts from the incumbent with larger, perturbed
+// neighbourhoods (lns_restart.go) instead of stopping.
 //
 // Every timetable it keeps has passed solver.Verify, Decode, room
 // improvement, timetable.Check and the third gate (the engine's cost of
@@ -119,9 +131,11 @@ type OptimizeResult struct {
 // when ctx ended before the first one.
 //
 // Determinism: the same term, options and seed give the same timetable
-// when the run ends by itself (optimum proven, budgets or stall), because
-// every budget counts conflicts; a run cut short by ctx depends on how
-// far it got.
+// when the run ends by itself (optimum proven, budgets, or a stall after
+// Horizon restarts), because every budget counts conflicts and steps; a
+// run cut short by ctx depends on how far it got. A portfolio member
+// (OptimizePortfolio with more than one thread) also depends on what the
+// others publish.
 func Optimize(ctx context.Context, t *timetable.Term, opt OptimizeOptions) (*OptimizeResult, error) {
 	if opt.StepConflicts <= 0 {
 		opt.StepConflicts = DefaultStepConflicts
@@ -208,6 +222,9 @@ type optRun struct {
 	pending  []solver.Atom
 
 	uses [][]int32 // atom -> rules with the atom in their body (lns.go), built on first use
+	ls   *lnsState // neighbourhood search's state, made on first use (lns.go)
+
+	roomCache roomCache // the incumbent's sections with room cost (lns_roomhood.go)
 
 	phase    string
 	lastNote time.Time
@@ -231,6 +248,12 @@ func (o *optRun) run() error {
 	// limit, Ctrl-C or a proof of optimality: when neighbourhood search
 	// stalls with time left, local search runs again from the incumbent.
 	for {
+		if _, err := o.fromBoard(); err != nil {
+			return err
+		}
+		if o.finished() {
+			return nil
+		}
 		if err := o.localSearch(); err != nil {
 			return err
 		}
@@ -343,6 +366,7 @@ func (o *optRun) readBound() {
 		}
 	}
 	o.res.Proven = o.best != nil && slices.Equal(o.best.total, o.bound)
+	o.publishedBound()
 }
 
 // note reports progress when it is due (or always, when forced).

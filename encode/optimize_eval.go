@@ -52,6 +52,7 @@ func (o *optRun) accept(c *candidate) {
 	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
 		o.best = c
 		o.x.Prefer(c.model) // a rebuilt engine starts from the incumbent
+		o.published(c)
 		o.res.History = append(o.res.History, o.snapshot())
 		o.note(true)
 	}

@@ -69,13 +69,18 @@ func SolvePortfolio(ctx context.Context, t *timetable.Term, opt SolveOptions, th
 // level from the highest). The lower bound returned is the best proven by
 // any member. threads <= 1 is Optimize.
 //
-// Members do not exchange timetables while they run; the best is chosen
-// when all have stopped. Each member holds its own program and engine, so
-// memory grows with threads.
+// Members share their best timetables and bounds while they run
+// (portfolio_share.go): a stalled member adopts a better timetable of
+// another, and the portfolio stops as soon as a timetable meets the best
+// proven bound. The best is chosen when all have stopped. Each member
+// holds its own program and engine, so memory grows with threads.
 func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptions, threads int) (*OptimizeResult, error) {
 	if threads <= 1 {
 		return Optimize(ctx, t, opt)
 	}
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	board := &shareBoard{stop: cancel}
 	results := make([]*OptimizeResult, threads)
 	errs := make([]error, threads)
 	var wg sync.WaitGroup
@@ -83,6 +88,7 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	for i := 0; i < threads; i++ {
 		o := opt
 		o.Seed = portfolioSeed(opt.Seed, i)
+		o.share = &share{board: board, member: i}
 		if opt.Progress != nil && i > 0 {
 			o.Progress = nil // one progress display
 		}
@@ -130,6 +136,9 @@ func pickPortfolio(results []*OptimizeResult, errs []error) (*OptimizeResult, er
 		// A bound proven by one member holds for all: the problem is the same.
 		best.Bound = bound
 		best.Proven = slices.Equal(best.Total, best.Bound)
+	}
+	if best.Proven {
+		best.Stopped = "optimal" // the members stopped because of this proof
 	}
 	return best, nil
 }

@@ -20,6 +20,8 @@ type solveQuality struct {
 	TimeProven   bool                      `json:"time_proven"` // no timetable costs less on the criteria that do not depend on rooms
 	Stopped      string                    `json:"stopped"`
 	Steps        int                       `json:"neighbourhood_steps"`
+	Restarts     int                       `json:"restarts,omitempty"` // neighbourhood search restarted after a stall
+	Adopted      int                       `json:"adopted,omitempty"`  // with --threads: better timetables taken from another search
 	Improvements int                       `json:"improvements"`
 	Criteria     []timetable.CriterionCost `json:"criteria"`
 	Keep         *solveKeep                `json:"keep,omitempty"`
@@ -52,7 +54,7 @@ type solveMove struct {
 
 func solveBuildQuality(t *timetable.Term, res *encode.OptimizeResult) *solveQuality {
 	q := &solveQuality{Proven: res.Proven, TimeProven: res.TimeProven, Stopped: res.Stopped, Steps: res.Steps,
-		Improvements: len(res.History), Criteria: termCriteria(t, res.Cost.Criteria), Levels: []solveLevel{}}
+		Restarts: res.Restarts, Adopted: res.Adopted, Improvements: len(res.History), Criteria: termCriteria(t, res.Cost.Criteria), Levels: []solveLevel{}}
 	for i, l := range res.Levels {
 		q.Levels = append(q.Levels, solveLevel{Level: l, Cost: res.Total[i], Bound: res.Bound[i]})
 	}
