@@ -52,6 +52,8 @@ func (o *optRun) accept(c *candidate) {
 	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
 		o.best = c
 		o.x.Prefer(c.model) // a rebuilt engine starts from the incumbent
+		o.x.Keep(c.model)   // and no room cut may forbid it (both Searches
+		o.h.Keep(c.model)   // add cuts to the one program)
 		o.published(c)
 		o.res.History = append(o.res.History, o.snapshot())
 		o.note(true)

@@ -87,4 +87,3 @@ func FuzzParseAt(f *testing.F) {
 		}
 	})
 }
-

@@ -49,6 +49,7 @@ type Search struct {
 	facts  []solver.Atom // atoms of p beyond s that are facts, added to every model
 	isFact map[solver.Atom]bool
 	prefer []solver.Atom // model whose start atoms a new engine tries first
+	kept   []bool        // the incumbent's atom values (Keep); nil: none
 	builds int           // engines built
 	index  stmtIndex     // statements by atom, for the programs of neighbourhood steps
 }
@@ -121,6 +122,41 @@ func (x *Search) Builds() int { return x.builds }
 // first (true for those in it, false for the others): most of a timetable
 // stays right after a cut.
 func (x *Search) Prefer(model []solver.Atom) { x.prefer = model }
+
+// Keep records model as the incumbent: a timetable that passed every
+// gate, rooms included. Forbid then leaves out the start combinations
+// the incumbent itself holds — an unproved room conflict on them is
+// refuted by the incumbent's rooms — so the program never loses the
+// incumbent (the steps of neighbourhood search assume it is a model).
+func (x *Search) Keep(model []solver.Atom) {
+	n := x.p.NumAtoms()
+	if cap(x.kept) < n+1 {
+		x.kept = make([]bool, n+1)
+	}
+	x.kept = x.kept[:n+1]
+	clear(x.kept)
+	for _, a := range model {
+		if int(a) <= n {
+			x.kept[a] = true
+		}
+	}
+}
+
+// refutedByIncumbent reports whether the kept incumbent breaks clause
+// (every literal false in it).
+func (x *Search) refutedByIncumbent(clause []solver.Lit) bool {
+	if x.kept == nil {
+		return false
+	}
+	for _, l := range clause {
+		a := int(l.Atom())
+		v := a < len(x.kept) && x.kept[a]
+		if v != l.IsNeg() {
+			return false
+		}
+	}
+	return true
+}
 
 // Engine returns the live engine, caught up with the program: built when
 // there is none or when the program grew in a way the engine cannot take.
@@ -445,6 +481,20 @@ func (x *Search) AddFamilies(herr *HallError) int {
 // given group (-1 for none) and bound kind, holding while every literal of
 // guard holds.
 func (x *Search) Forbid(rerr *RoomConflictError, group int, kind string, guard []solver.Lit) {
+	if x.kept != nil {
+		keep := rerr.nogoods[:0:0]
+		for _, ng := range rerr.nogoods {
+			if !x.refutedByIncumbent(ng) {
+				keep = append(keep, ng)
+			}
+		}
+		if len(keep) < len(rerr.nogoods) {
+			x.tally.Incomplete = true // the conflict was not what it claimed
+			cp := *rerr
+			cp.nogoods = keep
+			rerr = &cp
+		}
+	}
 	x.cat.forbidRooms(x.p, rerr, group, kind, guard)
 	x.tally.Nogoods += len(rerr.nogoods)
 	if rerr.Incomplete {
