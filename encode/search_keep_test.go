@@ -21,15 +21,7 @@ func TestForbidSparesTheIncumbent(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		startsOf := func(model []solver.Atom) []solver.Lit {
-			var out []solver.Lit
-			for _, a := range model {
-				if cat.AtomInfo(a).Kind == AtomStart {
-					out = append(out, solver.Neg(a))
-				}
-			}
-			return out
-		}
+		startsOf := func(model []solver.Atom) []solver.Lit { return notAllStarts(cat, model) }
 		x := NewSearch(term, p, cat, SearchOptions{Engine: solver.DefaultOptions()})
 		st, model, err := x.Find(context.Background(), nil, func(context.Context, []solver.Atom) error { return nil }, 10)
 		if err != nil || st != solver.Satisfiable {
@@ -53,4 +45,16 @@ func TestForbidSparesTheIncumbent(t *testing.T) {
 			}
 		}
 	}
+}
+
+// notAllStarts is the clause "not all of these starts" over a model's
+// start atoms: the nogood a room conflict over the model would add.
+func notAllStarts(cat *Catalog, model []solver.Atom) []solver.Lit {
+	var out []solver.Lit
+	for _, a := range model {
+		if cat.AtomInfo(a).Kind == AtomStart {
+			out = append(out, solver.Neg(a))
+		}
+	}
+	return out
 }

@@ -26,15 +26,7 @@ func TestSearchCutsReachLiveEngine(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		startsOf := func(model []solver.Atom) []solver.Lit {
-			var out []solver.Lit
-			for _, a := range model {
-				if cat.AtomInfo(a).Kind == AtomStart {
-					out = append(out, solver.Neg(a))
-				}
-			}
-			return out
-		}
+		startsOf := func(model []solver.Atom) []solver.Lit { return notAllStarts(cat, model) }
 		x := NewSearch(term, p, cat, SearchOptions{Engine: solver.DefaultOptions()})
 		found := 0
 		st, _, err := x.Find(context.Background(), nil, func(_ context.Context, model []solver.Atom) error {
