@@ -90,15 +90,8 @@ func TestRoomRepairLastResort(t *testing.T) {
 			model, cat := onlyModel(t, term)
 			sched, err := decodeWith(context.Background(), term, cat, model, tc.effort)
 			if tc.feasible {
-				if err != nil {
-					t.Fatalf("decode: %v, want rooms", err)
-				}
-				if hard := timetable.HardViolations(timetable.Check(term, sched)); len(hard) > 0 {
-					t.Fatalf("check: %s", hard[0].Msg)
-				}
-				if ok, _ := bruteFeasible(term); !ok {
-					t.Fatal("exhaustive search finds no timetable, but Decode assigned rooms")
-				}
+				ok, _ := bruteFeasible(term)
+				requireRooms(t, term, sched, err, ok)
 				return
 			}
 			var rerr *RoomConflictError
@@ -212,15 +205,7 @@ func TestRoomRepairSteps(t *testing.T) {
 			model, cat := onlyModel(t, term)
 			sched, err := decodeWith(context.Background(), term, cat, model, tc.effort)
 			if tc.feasible {
-				if err != nil {
-					t.Fatalf("decode: %v, want rooms", err)
-				}
-				if hard := timetable.HardViolations(timetable.Check(term, sched)); len(hard) > 0 {
-					t.Fatalf("check: %s", hard[0].Msg)
-				}
-				if !feasible {
-					t.Fatal("exhaustive search finds no timetable, but Decode assigned rooms")
-				}
+				requireRooms(t, term, sched, err, feasible)
 				return
 			}
 			var rerr *RoomConflictError
@@ -248,5 +233,21 @@ func TestRoomRepairSteps(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// requireRooms fails unless Decode assigned rooms (no error) to a
+// timetable that passes timetable.Check, on a term exhaustive search
+// finds feasible.
+func requireRooms(t *testing.T, term *timetable.Term, sched *timetable.Schedule, err error, feasible bool) {
+	t.Helper()
+	if err != nil {
+		t.Fatalf("decode: %v, want rooms", err)
+	}
+	if hard := timetable.HardViolations(timetable.Check(term, sched)); len(hard) > 0 {
+		t.Fatalf("check: %s", hard[0].Msg)
+	}
+	if !feasible {
+		t.Fatal("exhaustive search finds no timetable, but Decode assigned rooms")
 	}
 }
