@@ -3,7 +3,6 @@ package encode
 import (
 	"fmt"
 	"slices"
-	"strings"
 
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
@@ -134,32 +133,9 @@ func (b *builder) itemPairWays(ways [][]solver.Lit, A, C []relItem, same bool, o
 		}
 		return ways
 	}
-	type grp struct{ xs, bad []int }
-	var groups []*grp
-	byKey := map[string]*grp{}
-	var key strings.Builder
-	for i := range A {
-		var bad []int
-		key.Reset()
-		for j := range C {
-			if !ok(&A[i], &C[j]) {
-				bad = append(bad, j)
-				fmt.Fprintf(&key, "%d,", j)
-			}
-		}
-		if len(bad) == 0 {
-			continue
-		}
-		g := byKey[key.String()]
-		if g == nil {
-			g = &grp{bad: bad}
-			byKey[key.String()] = g
-			groups = append(groups, g)
-		}
-		g.xs = append(g.xs, i)
-	}
+	groups := groupByRefused(upTo(len(A)), upTo(len(C)), func(i, j int) bool { return !ok(&A[i], &C[j]) })
 	for _, g := range groups {
-		ways = append(ways, []solver.Lit{b.itemsOr(A, g.xs), b.itemsOr(C, g.bad)})
+		ways = append(ways, []solver.Lit{b.itemsOr(A, g.rows), b.itemsOr(C, g.bad)})
 	}
 	return ways
 }

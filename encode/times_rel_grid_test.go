@@ -286,6 +286,8 @@ func agreeWithCheck(t *testing.T, term *timetable.Term) int {
 	return len(want)
 }
 
+// describeMixed writes a small term (relations, sections with their grid
+// shape, time choices and rooms) for a failure message.
 func describeMixed(t *timetable.Term) string {
 	var sb strings.Builder
 	for _, r := range t.Relations {
@@ -321,21 +323,13 @@ func TestGridRelationsAgainstCheck(t *testing.T) {
 				name += "/soft"
 			}
 			t.Run(name, func(t *testing.T) {
-				rng := rand.New(rand.NewSource(int64(rk.Kind)*104729 + 3))
-				accepted, total := 0, 0
-				for round := 0; round < rounds; round++ {
+				agreeOverRounds(t, int64(rk.Kind)*104729+3, rounds, func(rng *rand.Rand, round int) *timetable.Term {
 					n := 2 + round%2
 					if rk.Kind.Counted() && round%3 == 0 {
 						n = 1 // a counted row may list one (grid) section
 					}
-					term := mixedTestTerm(rng, rk.Kind, hard, n)
-					accepted += agreeWithCheck(t, term)
-					total += len(bruteSchedules(term))
-				}
-				t.Logf("%d of %d timetables accepted", accepted, total)
-				if accepted == 0 {
-					t.Fatalf("no round had a timetable: the test checked nothing")
-				}
+					return mixedTestTerm(rng, rk.Kind, hard, n)
+				})
 			})
 		}
 	}
@@ -366,9 +360,7 @@ func TestGridTravelAgainstCheck(t *testing.T) {
 	if testing.Short() {
 		rounds = 6
 	}
-	rng := rand.New(rand.NewSource(77))
-	accepted, total := 0, 0
-	for round := 0; round < rounds; round++ {
+	agreeOverRounds(t, 77, rounds, func(rng *rand.Rand, round int) *timetable.Term {
 		term := mixedTestTerm(rng, timetable.SamePeople, true, 2+round%2)
 		term.Relations = nil
 		if round%3 == 2 {
@@ -386,13 +378,8 @@ func TestGridTravelAgainstCheck(t *testing.T) {
 				term.Sections[s].Cohorts = []string{"K1"}
 			}
 		}
-		accepted += agreeWithCheck(t, term)
-		total += len(bruteSchedules(term))
-	}
-	t.Logf("%d of %d timetables accepted", accepted, total)
-	if accepted == 0 {
-		t.Fatal("no round had a timetable: the test checked nothing")
-	}
+		return term
+	})
 }
 
 // TestGridTravelRooms: a grid section that may meet in several rooms,
@@ -434,9 +421,7 @@ func TestGridLimitsAgainstCheck(t *testing.T) {
 	if testing.Short() {
 		rounds = 6
 	}
-	rng := rand.New(rand.NewSource(91))
-	accepted, total := 0, 0
-	for round := 0; round < rounds; round++ {
+	agreeOverRounds(t, 91, rounds, func(rng *rand.Rand, round int) *timetable.Term {
 		term := mixedTestTerm(rng, timetable.NoOverlap, true, 2+round%2)
 		term.Relations = nil
 		st := timetable.Staff{ID: "T1", Name: "Teacher One", Src: timetable.Source{Sheet: "Staff", Row: 2}}
@@ -461,13 +446,8 @@ func TestGridLimitsAgainstCheck(t *testing.T) {
 				term.Sections[s].Cohorts = []string{"K1"}
 			}
 		}
-		accepted += agreeWithCheck(t, term)
-		total += len(bruteSchedules(term))
-	}
-	t.Logf("%d of %d timetables accepted", accepted, total)
-	if accepted == 0 {
-		t.Fatal("no round had a timetable: the test checked nothing")
-	}
+		return term
+	})
 }
 
 // TestGridRoomsAgainstCheck: rooms alone — grid sections with one room or
@@ -495,5 +475,23 @@ func TestGridRoomsAgainstCheck(t *testing.T) {
 	t.Logf("%d of %d timetables accepted; %d grid sections with explicit rooms", accepted, total, explicit)
 	if accepted == 0 || explicit == 0 {
 		t.Fatal("the test checked nothing")
+	}
+}
+
+// agreeOverRounds puts the term build makes for each of rounds rounds
+// (one random source from seed) through agreeWithCheck, and fails when no
+// round had a timetable: the test would have checked nothing.
+func agreeOverRounds(t *testing.T, seed int64, rounds int, build func(rng *rand.Rand, round int) *timetable.Term) {
+	t.Helper()
+	rng := rand.New(rand.NewSource(seed))
+	accepted, total := 0, 0
+	for round := 0; round < rounds; round++ {
+		term := build(rng, round)
+		accepted += agreeWithCheck(t, term)
+		total += len(bruteSchedules(term))
+	}
+	t.Logf("%d of %d timetables accepted", accepted, total)
+	if accepted == 0 {
+		t.Fatal("no round had a timetable: the test checked nothing")
 	}
 }

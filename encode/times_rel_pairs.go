@@ -1,9 +1,6 @@
 package encode
 
 import (
-	"strconv"
-	"strings"
-
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -149,33 +146,9 @@ func (b *builder) pairWaysOf(ways [][]solver.Lit, a, c int, ok func(x, y *timeta
 		}
 		return ways
 	}
-	type grp struct{ pats, bad []int }
-	var groups []*grp
-	byKey := map[string]*grp{}
-	var key strings.Builder
-	for _, i := range ca {
-		var bad []int
-		key.Reset()
-		for _, j := range cc {
-			if !ok(&ta[i], &tc[j]) {
-				bad = append(bad, j)
-				key.WriteString(strconv.Itoa(j))
-				key.WriteByte(',')
-			}
-		}
-		if len(bad) == 0 {
-			continue
-		}
-		g := byKey[key.String()]
-		if g == nil {
-			g = &grp{bad: bad}
-			byKey[key.String()] = g
-			groups = append(groups, g)
-		}
-		g.pats = append(g.pats, i)
-	}
+	groups := groupByRefused(ca, cc, func(i, j int) bool { return !ok(&ta[i], &tc[j]) })
 	for _, g := range groups {
-		body := []solver.Lit{b.anyTime(a, g.pats)}
+		body := []solver.Lit{b.anyTime(a, g.rows)}
 		switch {
 		case len(g.bad) == len(cc):
 			body = append(body, b.patSectionBody(c)...) // Explain mode: only while c is scheduled

@@ -123,7 +123,7 @@ func engineModels(tb testing.TB, term *timetable.Term) map[string]int64 {
 		sch := checkSchedule(tb, term, a)
 		eng := cat.EngineCost(p, model)[soft]
 		if got := timetable.Cost(term, sch, nil).Criterion(timetable.CritSoftRelations).Cost; got != eng {
-			tb.Fatalf("engine cost %d, timetable.Cost %d for %s\n%s", eng, got, assignKey(a), describePatterns(term))
+			tb.Fatalf("engine cost %d, timetable.Cost %d for %s\n%s", eng, got, assignKey(a), describeMixed(term))
 		}
 		if _, dup := out[assignKey(a)]; dup {
 			tb.Fatalf("two models for %s", assignKey(a))
@@ -180,15 +180,15 @@ func compareWithReference(t *testing.T, term *timetable.Term) {
 		got, ok := models[key]
 		switch {
 		case !ok && !refClash(term, a):
-			t.Fatalf("%s: the reference accepts %s (cost %d) but the engine has no such model\n%s", rel.Kind, key, c, describePatterns(term))
+			t.Fatalf("%s: the reference accepts %s (cost %d) but the engine has no such model\n%s", rel.Kind, key, c, describeMixed(term))
 		case ok && got != c:
-			t.Fatalf("%s: engine cost %d, reference %d for %s\n%s", rel.Kind, got, c, key, describePatterns(term))
+			t.Fatalf("%s: engine cost %d, reference %d for %s\n%s", rel.Kind, got, c, key, describeMixed(term))
 		}
 		want[key] = c
 	}
 	for key := range models {
 		if _, ok := want[key]; !ok {
-			t.Fatalf("%s: the engine has model %s, which the reference rejects\n%s", rel.Kind, key, describePatterns(term))
+			t.Fatalf("%s: the engine has model %s, which the reference rejects\n%s", rel.Kind, key, describeMixed(term))
 		}
 	}
 	if !rel.Hard && len(models) > 0 {
@@ -215,26 +215,9 @@ func compareWithReference(t *testing.T, term *timetable.Term) {
 			sum += c
 		}
 		if sum != best {
-			t.Fatalf("%s: engine optimum %v, reference optimum %d\n%s", rel.Kind, cost, best, describePatterns(term))
+			t.Fatalf("%s: engine optimum %v, reference optimum %d\n%s", rel.Kind, cost, best, describeMixed(term))
 		}
 	}
-}
-
-func describePatterns(t *timetable.Term) string {
-	var sb strings.Builder
-	r := t.Relations[0]
-	fmt.Fprintf(&sb, "relation %s hard=%v w=%d N=%d M=%d\n", r.Kind, r.Hard, r.Weight, r.N, r.M)
-	for _, s := range t.Sections {
-		fmt.Fprintf(&sb, "  %s:", s.ID)
-		for i, tc := range s.Times {
-			fmt.Fprintf(&sb, " [%d] %s %s+%d w%04b;", i, tc.Days, tc.Start, tc.Minutes, tc.Weeks)
-		}
-		for _, rc := range s.RoomChoices {
-			fmt.Fprintf(&sb, " %s", rc.Room)
-		}
-		sb.WriteByte('\n')
-	}
-	return sb.String()
 }
 
 // TestPatternRelationsAgainstReference checks every relation kind, hard
