@@ -257,28 +257,8 @@ func agreeWithCheck(t *testing.T, term *timetable.Term) int {
 		}
 	}
 	if len(want) > 0 && len(term.Relations) > 0 && !term.Relations[0].Hard {
-		p, _, err := Compile(term, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := solver.New(p, solver.DefaultOptions())
-		if err != nil {
-			t.Fatal(err)
-		}
-		st, cost, err := s.Optimize(context.Background(), nil)
-		if err != nil || st != solver.Satisfiable {
-			t.Fatalf("optimize: %v %v", st, err)
-		}
-		best := int64(-1)
-		for _, c := range want {
-			if best < 0 || c < best {
-				best = c
-			}
-		}
-		var sum int64
-		for _, c := range cost {
-			sum += c
-		}
+		sum, cost := engineOptimum(t, term)
+		best := leastCost(want)
 		if sum != best {
 			t.Fatalf("engine optimum %v, least Cost %d\n%s", cost, best, describeMixed(term))
 		}

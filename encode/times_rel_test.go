@@ -192,28 +192,8 @@ func compareWithReference(t *testing.T, term *timetable.Term) {
 		}
 	}
 	if !rel.Hard && len(models) > 0 {
-		p, _, err := Compile(term, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := solver.New(p, solver.DefaultOptions())
-		if err != nil {
-			t.Fatal(err)
-		}
-		st, cost, err := s.Optimize(context.Background(), nil)
-		if err != nil || st != solver.Satisfiable {
-			t.Fatalf("optimize: %v %v", st, err)
-		}
-		best := int64(-1)
-		for _, c := range models {
-			if best < 0 || c < best {
-				best = c
-			}
-		}
-		var sum int64
-		for _, c := range cost {
-			sum += c
-		}
+		sum, cost := engineOptimum(t, term)
+		best := leastCost(models)
 		if sum != best {
 			t.Fatalf("%s: engine optimum %v, reference optimum %d\n%s", rel.Kind, cost, best, describeMixed(term))
 		}
@@ -291,4 +271,38 @@ func TestPatternRelationGridRowsExplicit(t *testing.T) {
 			}
 		}
 	}
+}
+
+// engineOptimum compiles term with its soft criteria and returns the
+// engine's proven optimum, summed over the levels, and its cost per level.
+func engineOptimum(t *testing.T, term *timetable.Term) (int64, []int64) {
+	t.Helper()
+	p, _, err := Compile(term, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := solver.New(p, solver.DefaultOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	st, cost, err := s.Optimize(context.Background(), nil)
+	if err != nil || st != solver.Satisfiable {
+		t.Fatalf("optimize: %v %v", st, err)
+	}
+	var sum int64
+	for _, c := range cost {
+		sum += c
+	}
+	return sum, cost
+}
+
+// leastCost is the smallest of costs (-1 when there are none).
+func leastCost(costs map[string]int64) int64 {
+	best := int64(-1)
+	for _, c := range costs {
+		if best < 0 || c < best {
+			best = c
+		}
+	}
+	return best
 }
