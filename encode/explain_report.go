@@ -217,7 +217,7 @@ func (x *Explainer) unavailableTimes(src []timetable.Source) string {
 			text = timetable.DayName(sp.day) + " all day"
 		}
 		if sp.weeks != 0 {
-			text += " in weeks " + weekList(sp.weeks)
+			text += " in weeks " + sp.weeks.Ranges()
 		}
 		parts = append(parts, text)
 	}

@@ -437,7 +437,7 @@ func (x *studentExplainer) weeksText(w timetable.WeekSet) string {
 	if w == x.t.AllWeeks() {
 		return ""
 	}
-	return " in weeks " + weekList(w)
+	return " in weeks " + w.Ranges()
 }
 
 // sectionTime describes section s as placed in the timetable.

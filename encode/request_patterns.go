@@ -62,30 +62,9 @@ func matchTimes(sec *timetable.Section, r Request) ([]int, string) {
 func patternText(t *timetable.Term, tc *timetable.TimeChoice) string {
 	s := tc.Days.String() + " " + tc.Start.String() + "-" + tc.End().String()
 	if tc.Weeks != t.AllWeeks() {
-		s += ", weeks " + weekList(tc.Weeks)
+		s += ", weeks " + tc.Weeks.Ranges()
 	}
 	return s
-}
-
-// weekList is "1-6, 9".
-func weekList(w timetable.WeekSet) string {
-	var parts []string
-	for n := 1; n <= 64; n++ {
-		if !w.Has(n) {
-			continue
-		}
-		end := n
-		for end < 64 && w.Has(end+1) {
-			end++
-		}
-		if end > n {
-			parts = append(parts, strconv.Itoa(n)+"-"+strconv.Itoa(end))
-		} else {
-			parts = append(parts, strconv.Itoa(n))
-		}
-		n = end
-	}
-	return strings.Join(parts, ", ")
 }
 
 // acceptsRoom reports whether room id is on pattern section s's list of

@@ -414,31 +414,7 @@ func (v *view) weekRangesOf(w timetable.WeekSet) string {
 	if t := v.t.WeeksText(w & v.allWeeks); t == "odd" || t == "even" {
 		return t
 	}
-	return weekList(w & v.allWeeks)
-}
-
-// weekList formats a week set as ranges: "1-6, 9, 11-12".
-func weekList(w timetable.WeekSet) string {
-	var b strings.Builder
-	for n := 1; n <= 64; n++ {
-		if !w.Has(n) {
-			continue
-		}
-		end := n
-		for end < 64 && w.Has(end+1) {
-			end++
-		}
-		if b.Len() > 0 {
-			b.WriteString(", ")
-		}
-		if end == n {
-			fmt.Fprintf(&b, "%d", n)
-		} else {
-			fmt.Fprintf(&b, "%d-%d", n, end)
-		}
-		n = end
-	}
-	return b.String()
+	return (w & v.allWeeks).Ranges()
 }
 
 // roomText is "R204, Main Building" (or "" for no room).

@@ -2,6 +2,7 @@ package timetable
 
 import (
 	"math/bits"
+	"strconv"
 	"strings"
 	"time"
 )
@@ -70,6 +71,28 @@ func (w WeekSet) First() int {
 
 // Count is the number of teaching weeks in the set.
 func (w WeekSet) Count() int { return bits.OnesCount64(uint64(w)) }
+
+// Ranges lists the weeks of w as numbers and ranges: "1-6, 9, 11-12"
+// ("" for the empty set).
+func (w WeekSet) Ranges() string {
+	var parts []string
+	for n := 1; n <= 64; n++ {
+		if !w.Has(n) {
+			continue
+		}
+		end := n
+		for end < 64 && w.Has(end+1) {
+			end++
+		}
+		if end == n {
+			parts = append(parts, strconv.Itoa(n))
+		} else {
+			parts = append(parts, strconv.Itoa(n)+"-"+strconv.Itoa(end))
+		}
+		n = end
+	}
+	return strings.Join(parts, ", ")
+}
 
 // TimeChoice is one acceptable meeting pattern of a section: it meets on
 // every day of Days, from Start for Minutes minutes, in every week of Weeks.

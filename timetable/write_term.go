@@ -527,23 +527,7 @@ func (t *Term) WeeksText(w WeekSet) string {
 	case w == ^odd&all:
 		return "even"
 	}
-	var parts []string
-	for n := 1; n <= 64; n++ {
-		if !w.Has(n) {
-			continue
-		}
-		end := n
-		for end < 64 && w.Has(end+1) {
-			end++
-		}
-		if end == n {
-			parts = append(parts, strconv.Itoa(n))
-		} else {
-			parts = append(parts, strconv.Itoa(n)+"-"+strconv.Itoa(end))
-		}
-		n = end
-	}
-	return strings.Join(parts, ", ")
+	return w.Ranges()
 }
 
 // wtSortedZip is an excelize.ZipWriter that buffers every entry and writes
