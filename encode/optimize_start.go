@@ -1,6 +1,8 @@
 package encode
 
 import (
+	"errors"
+
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -52,25 +54,43 @@ func (c *Catalog) startAtoms(s *timetable.Schedule) []solver.Atom {
 // timetable of this term, or its rooms need a cut (the search for a first
 // timetable then runs as usual, the start's places tried first).
 func (o *optRun) startFrom() (bool, error) {
-	assume := o.cat.startAtoms(o.opt.Start)
-	if len(assume) == 0 {
+	c, err := o.completeStarts(o.opt.Start)
+	switch {
+	case errors.Is(err, errNotAdopted):
 		return false, nil
-	}
-	lits := make([]solver.Lit, len(assume))
-	for i, a := range assume {
-		lits[i] = solver.Pos(a)
-	}
-	st, err := o.x.Solve(o.ctx, lits...)
-	if err != nil || st != solver.Satisfiable {
-		return false, err
-	}
-	c, err := o.evaluate(o.x.Model())
-	if err != nil {
-		if o.x.Cut(err) || o.ctx.Err() != nil {
-			return false, nil
-		}
+	case err != nil:
 		return false, err
 	}
 	o.accept(c)
 	return true, nil
+}
+
+// completeStarts solves the live engine under timetable s's starts and
+// puts its model through the gates. It returns errNotAdopted when s has no
+// starts of this term, the engine finds no model under them, or the
+// model's rooms need a cut (made) or the run ended.
+func (o *optRun) completeStarts(s *timetable.Schedule) (*candidate, error) {
+	atoms := o.cat.startAtoms(s)
+	if len(atoms) == 0 {
+		return nil, errNotAdopted
+	}
+	lits := make([]solver.Lit, len(atoms))
+	for i, a := range atoms {
+		lits[i] = solver.Pos(a)
+	}
+	st, err := o.x.Solve(o.ctx, lits...)
+	if err != nil {
+		return nil, err
+	}
+	if st != solver.Satisfiable {
+		return nil, errNotAdopted
+	}
+	c, err := o.evaluate(o.x.Model())
+	if err != nil {
+		if o.x.Cut(err) || o.ctx.Err() != nil {
+			return nil, errNotAdopted
+		}
+		return nil, err
+	}
+	return c, nil
 }

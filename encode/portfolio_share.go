@@ -6,7 +6,6 @@ import (
 	"slices"
 	"sync"
 
-	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
 
@@ -151,27 +150,5 @@ func (o *optRun) adoptShared(s *timetable.Schedule) (*candidate, error) {
 	if err == nil || !errors.Is(err, errNotAdopted) || !o.cat.hasPatterns() {
 		return c, err
 	}
-	atoms := o.cat.startAtoms(s)
-	if len(atoms) == 0 {
-		return nil, errNotAdopted
-	}
-	lits := make([]solver.Lit, len(atoms))
-	for i, a := range atoms {
-		lits[i] = solver.Pos(a)
-	}
-	st, err := o.x.Solve(o.ctx, lits...)
-	if err != nil {
-		return nil, err
-	}
-	if st != solver.Satisfiable {
-		return nil, errNotAdopted
-	}
-	c, err = o.evaluate(o.x.Model())
-	if err != nil {
-		if o.x.Cut(err) || o.ctx.Err() != nil {
-			return nil, errNotAdopted
-		}
-		return nil, err
-	}
-	return c, nil
+	return o.completeStarts(s)
 }
