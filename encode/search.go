@@ -49,7 +49,7 @@ type Search struct {
 	facts  []solver.Atom // atoms of p beyond s that are facts, added to every model
 	isFact map[solver.Atom]bool
 	prefer []solver.Atom // model whose start atoms a new engine tries first
-	kept   []bool        // the incumbent's atom values (Keep); nil: none
+	kept   []solver.Atom // the incumbent (Keep); nil: none
 	builds int           // engines built
 	index  stmtIndex     // statements by atom, for the programs of neighbourhood steps
 }
@@ -128,29 +128,14 @@ func (x *Search) Prefer(model []solver.Atom) { x.prefer = model }
 // the incumbent itself holds — an unproved room conflict on them is
 // refuted by the incumbent's rooms — so the program never loses the
 // incumbent (the steps of neighbourhood search assume it is a model).
-func (x *Search) Keep(model []solver.Atom) {
-	n := x.p.NumAtoms()
-	if cap(x.kept) < n+1 {
-		x.kept = make([]bool, n+1)
-	}
-	x.kept = x.kept[:n+1]
-	clear(x.kept)
-	for _, a := range model {
-		if int(a) <= n {
-			x.kept[a] = true
-		}
-	}
-}
+func (x *Search) Keep(model []solver.Atom) { x.kept = model }
 
-// refutedByIncumbent reports whether the kept incumbent breaks clause
-// (every literal false in it).
-func (x *Search) refutedByIncumbent(clause []solver.Lit) bool {
-	if x.kept == nil {
-		return false
-	}
+// refutedByIncumbent reports whether the incumbent, as atom values,
+// breaks clause (every literal false in it).
+func refutedByIncumbent(kept []bool, clause []solver.Lit) bool {
 	for _, l := range clause {
 		a := int(l.Atom())
-		v := a < len(x.kept) && x.kept[a]
+		v := a < len(kept) && kept[a]
 		if v != l.IsNeg() {
 			return false
 		}
@@ -482,9 +467,17 @@ func (x *Search) AddFamilies(herr *HallError) int {
 // guard holds.
 func (x *Search) Forbid(rerr *RoomConflictError, group int, kind string, guard []solver.Lit) {
 	if x.kept != nil {
+		// Forbid is rare (a room cut), accepting a timetable is not: the
+		// incumbent's values are laid out here, not in Keep.
+		kept := make([]bool, x.p.NumAtoms()+1)
+		for _, a := range x.kept {
+			if int(a) < len(kept) {
+				kept[a] = true
+			}
+		}
 		keep := rerr.nogoods[:0:0]
 		for _, ng := range rerr.nogoods {
-			if !x.refutedByIncumbent(ng) {
+			if !refutedByIncumbent(kept, ng) {
 				keep = append(keep, ng)
 			}
 		}
