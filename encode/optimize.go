@@ -230,11 +230,20 @@ type optRun struct {
 	lastNote time.Time
 
 	skipLocal bool // the term has pattern sections: no local-search runs (optimize_local.go)
+
+	turns turnPlan    // lengths of the local-search and neighbourhood turns (optimize_turns.go)
+	watch *stallWatch // during a watched turn, noted at each gain (optimize_stall.go)
 }
 
 func (o *optRun) run() error {
 	o.phase = "first timetable"
-	if err := o.global(o.opt.GlobalConflicts); err != nil {
+	if err := o.first(); err != nil || o.best == nil {
+		return err
+	}
+	if done, err := o.warmUp(); err != nil || done {
+		return err
+	}
+	if err := o.wholeTerm(o.opt.GlobalConflicts); err != nil {
 		return err
 	}
 	if o.best == nil || o.res.Proven || o.ctx.Err() != nil {
@@ -270,16 +279,8 @@ func (o *optRun) run() error {
 	}
 }
 
-// lnsTurn runs neighbourhood search until it stalls or, when ctx has a
-// deadline and local search is on, for half the time left, so that the two
-// take turns.
-func (o *optRun) lnsTurn() error {
-	defer o.turn(0.5)()
-	return o.lns()
-}
-
 // Shares of the time left of the engine's turns when local search is on.
-const wholeTermShare = 0.2 // the whole-term phase, before the first local search
+var wholeTermShare = 0.2 // the whole-term phase, before the first local search
 
 // turn limits o.ctx to share of the time left when it has a deadline and
 // local search is on, and returns the function that restores it.
@@ -311,21 +312,30 @@ func (o *optRun) finished() bool {
 	return false
 }
 
-// global finds the first verified timetable (no budget: whatever it
-// takes), then, unless budget is negative, runs model-improving search with
+// wholeTerm runs, unless budget is negative, model-improving search with
 // core-guided lower bounds on the whole term until the optimum is proven,
-// budget conflicts are spent or ctx ends. Room problems found on the way
-// are added to the program and the search resumes.
-func (o *optRun) global(budget int64) error {
-	if err := o.first(); err != nil || o.best == nil {
-		return err
-	}
+// budget conflicts are spent or its turn (wholeTermShare of the time left)
+// ends. Room problems found on the way are added to the program and the
+// search resumes.
+func (o *optRun) wholeTerm(budget int64) error {
 	if budget < 0 {
 		return nil
 	}
 	o.phase = "whole term"
 	o.note(true)
 	defer o.turn(wholeTermShare)()
+	if dl, timed := o.ctx.Deadline(); timed && o.turns.warmed {
+		// After the warm-up the incumbent comes from local search, which
+		// the engine's models seldom beat: the phase is mostly for its
+		// bound, kept when the watch ends it.
+		outer := o.ctx
+		ctx, w, stop := watchStall(outer, wholeTermStalled(time.Until(dl)))
+		o.ctx, o.watch = ctx, w
+		defer func() {
+			stop()
+			o.ctx, o.watch = outer, nil
+		}()
+	}
 	for round := 0; round < 1000; round++ {
 		if o.ctx.Err() != nil {
 			o.res.Stopped = o.ctxStopped()
@@ -341,6 +351,8 @@ func (o *optRun) global(budget int64) error {
 				budget = max(budget-(o.res.Engine.Conflicts-spent), 1)
 				continue // room problems were added: search again
 			}
+			// The cores found before the turn ended still bound the cost.
+			o.readBound()
 			o.res.Stopped = o.ctxStopped()
 			return nil
 		}

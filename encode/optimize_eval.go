@@ -51,6 +51,7 @@ func (o *optRun) take(model []solver.Atom) error {
 func (o *optRun) accept(c *candidate) {
 	if o.best == nil || slices.Compare(c.total, o.best.total) < 0 {
 		o.best = c
+		o.watch.gain()
 		o.x.Prefer(c.model) // a rebuilt engine starts from the incumbent
 		o.x.Keep(c.model)   // and no room cut may forbid it (both Searches
 		o.h.Keep(c.model)   // add cuts to the one program)

@@ -64,9 +64,9 @@ func (o *optRun) localSearch() error {
 			o.note(false)
 		}}
 	ctx := o.ctx
-	if dl, ok := ctx.Deadline(); ok {
+	if _, ok := ctx.Deadline(); ok {
 		var cancel context.CancelFunc
-		ctx, cancel = context.WithDeadline(ctx, time.Now().Add(time.Duration(share*float64(time.Until(dl)))))
+		ctx, cancel = context.WithTimeout(ctx, o.localTurn(share))
 		defer cancel()
 	} else {
 		opts.MaxMoves = int64(DefaultLocalMovesPerMeeting) * int64(max(1, len(o.best.sched.Placements)))
@@ -75,7 +75,8 @@ func (o *optRun) localSearch() error {
 	res, err := improve.Run(ctx, o.t, o.best.sched, o.opt.Keep, opts)
 	o.local = nil
 	o.res.Local.Runs++
-	o.res.Local.Time += time.Since(t0)
+	o.turns.lastLocal = time.Since(t0)
+	o.res.Local.Time += o.turns.lastLocal
 	if err != nil {
 		return fmt.Errorf("internal error: local search: %w", err)
 	}
