@@ -7,24 +7,24 @@ import (
 
 // Turns of local search and neighbourhood search under a deadline.
 //
-// Right after the first timetable comes a warm-up: one short local-search
-// run (a warmUpDivisor-th of the time left, at least minWarmUp) and one
-// short neighbourhood turn, before the whole-term phase. Annealing brings
-// most terms close to their best within that time, and neighbourhood
+// Right after the first timetable comes a warm-up, before the whole-term
+// phase: up to warmUpRounds rounds of one short local-search run (a
+// warmUpDivisor-th of the time left, at least minWarmUp) and one short
+// neighbourhood turn, a new round only while the last neighbourhood turn
+// improved the timetable. Annealing brings most terms close to their
+// best within that time, and neighbourhood
 // search, which re-solves times and rooms together exactly, then fixes
 // what annealing leaves (typically a room-stability unit whose cure needs
 // a new time), so a small term is often proven optimal (cost at its bound)
 // within seconds instead of after the whole-term phase and a long
-// annealing run. The later local-search runs double in length from the
-// first, never beyond LocalShare of the time left: annealing needs long
-// cooling plans for quality, and the doubling gives them while keeping
-// neighbourhood search's turns coming (a restart schedule that grows
-// geometrically, as in Luby, Sinclair and Zuckerman 1993). Each neighbourhood
+// annealing run. The later local-search runs take LocalShare of the time
+// left: annealing needs long cooling plans for quality. Each neighbourhood
 // turn takes lnsTurnRatio of the local run before it (at least
 // minLNSTurn), at most half the time left. Every turn boundary is also a
 // point where a portfolio member takes a better timetable from the board.
 const (
 	warmUpDivisor = 32
+	warmUpRounds  = 3
 	minWarmUp     = time.Second
 	lnsTurnRatio  = 0.35
 	minLNSTurn    = 500 * time.Millisecond
@@ -32,12 +32,13 @@ const (
 
 // turnPlan is the state of the turn schedule.
 type turnPlan struct {
+	warm      bool          // a warm-up round's local-search run is next
 	warmed    bool          // the warm-up ran
-	first     time.Duration // length of the first local-search run
+	first     time.Duration // length of a warm-up round's local-search run
 	lastLocal time.Duration // time the last local-search run took
 }
 
-// warmUp runs the warm-up turns when ctx has a deadline and both local
+// warmUp runs the warm-up rounds when ctx has a deadline and both local
 // search and neighbourhood search are on. done reports that the search
 // must end (a proof of optimality, or ctx ended).
 func (o *optRun) warmUp() (done bool, err error) {
@@ -46,26 +47,37 @@ func (o *optRun) warmUp() (done bool, err error) {
 		return false, nil
 	}
 	o.turns.warmed = true
-	if err := o.localSearch(); err != nil || o.finished() {
-		return true, err
-	}
-	o.phase = "neighbourhoods"
-	if err := o.lnsTurn(); err != nil || o.finished() {
-		return true, err
+	for round := 0; round < warmUpRounds; round++ {
+		o.turns.warm = true
+		if err := o.localSearch(); err != nil || o.finished() {
+			return true, err
+		}
+		o.phase = "neighbourhoods"
+		before := o.best
+		if err := o.lnsTurn(); err != nil || o.finished() {
+			return true, err
+		}
+		if o.best == before {
+			break // nothing left that neighbourhood search finds quickly
+		}
 	}
 	return false, nil
 }
 
 // localTurn is the length of the next local-search run when ctx has a
-// deadline: the warm-up's short run first, then runs that double from it,
-// never more than share of the time left.
+// deadline: share of the time left, or a warm-up round's short run.
 func (o *optRun) localTurn(share float64) time.Duration {
 	dl, _ := o.ctx.Deadline()
 	left := time.Until(dl)
-	if o.turns.first == 0 {
-		o.turns.first = max(minWarmUp, left/warmUpDivisor)
+	d := time.Duration(share * float64(left))
+	if o.turns.warm {
+		o.turns.warm = false
+		if o.turns.first == 0 {
+			o.turns.first = max(minWarmUp, left/warmUpDivisor)
+		}
+		d = min(d, o.turns.first)
 	}
-	return min(time.Duration(share*float64(left)), o.turns.first<<min(o.res.Local.Runs, 16))
+	return d
 }
 
 // lnsTurn runs neighbourhood search until it stalls or, when ctx has a
