@@ -88,6 +88,7 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	for i := 0; i < threads; i++ {
 		o := opt
 		o.Seed = portfolioSeed(opt.Seed, i)
+		o.LocalShare = memberLocalShare(opt.LocalShare, i)
 		o.share = &share{board: board, member: i}
 		if opt.Progress != nil && i > 0 {
 			o.Progress = nil // one progress display
@@ -103,6 +104,22 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	}
 	wg.Wait()
 	return pickPortfolio(results, errs)
+}
+
+// memberLocalShare is the LocalShare of portfolio member i: the caller's
+// when set, else member 0 takes the default and each further member half
+// the share of the one before. Members that differ only in their seeds
+// reach a cost at about the same time, since each local-search run's
+// cooling plan is stretched over its share of the time left; a member with
+// shorter runs hands its timetables to neighbourhood search and to the
+// board sooner, which is where a second core saves time (on large terms a
+// run that starts from a timetable neighbourhood search improved gains
+// much more in its time than the first long run).
+func memberLocalShare(share float64, i int) float64 {
+	if share != 0 {
+		return share
+	}
+	return DefaultLocalShare / float64(int(1)<<min(i, 8))
 }
 
 // pickPortfolio chooses the best of the members' results.
