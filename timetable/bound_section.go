@@ -1,0 +1,646 @@
+package timetable
+
+import (
+	"math"
+	"slices"
+	"strings"
+)
+
+// The per-meeting criteria, as the values a bound place carries.
+const (
+	bvAvoidN = iota // avoid times: covered periods (grid) or days (pattern)
+	bvAvoidW        // the same, each times its row's weight
+	bvEarly
+	bvLate
+	bvOver   // students over the room's capacity (SoftCapacity only)
+	bvWaste  // empty seats
+	bvChoice // room choice weight
+	bvTime   // time choice weight (pattern sections)
+	bvCount
+)
+
+// bvCriterion names the criterion of each value; avoid times appears twice
+// (units, then row-weighted units) and is added by hand.
+var bvCriterion = [bvCount]string{"", "", CritEarly, CritLate, CritOverCapacity, CritWastedSeats, CritRoomChoice, CritTimeChoice}
+
+type bvals [bvCount]int64
+
+const bvInf = math.MaxInt64 / 4
+
+func bvAll(v int64) bvals {
+	var out bvals
+	for i := range out {
+		out[i] = v
+	}
+	return out
+}
+
+// minWith lowers each value of v to the matching one of o.
+func (v *bvals) minWith(o bvals) {
+	for i := range v {
+		v[i] = min(v[i], o[i])
+	}
+}
+
+// secBound is what the per-section pass leaves for the later bounds.
+type secBound struct {
+	ok        bool  // the section's legal places were found (else every bound of it is 0)
+	over      int64 // its per-meeting bound on room over capacity
+	wide      bool  // it may use every room: it joins the slot bound of bound_rooms.go
+	fixedOver int64 // over capacity of its meetings fixed in a room
+	free      int   // its meetings not fixed in a room
+}
+
+// candRoom is one room a section may use and its room-only costs.
+type candRoom struct {
+	room   int // index in Term.Rooms
+	static bvals
+	hard   []bool  // marked rooms: periods a hard row of the room blocks
+	softN  []int64 // marked rooms: rows covering each period
+	softW  []int64 // marked rooms: their weights
+	pat    bool    // pattern section: the arrays above are unused
+	choice int     // pattern section: cached choice the room was judged for
+}
+
+// normFeature is a feature as Check compares it (case and spaces ignored).
+func normFeature(s string) string { return strings.ToLower(strings.TrimSpace(s)) }
+
+// sectionWeeks is a grid section's week set, zero read as every week (as
+// Check reads it).
+func sectionWeeks(sec *Section) WeekSet {
+	if sec.Weeks == 0 {
+		return ^WeekSet(0)
+	}
+	return sec.Weeks
+}
+
+// peopleRows lists the Unavailable rows of a section, its staff and its
+// cohorts (each named once, as Check indexes them).
+func (b *bounder) peopleRows(sec *Section) []int {
+	out := slices.Clone(b.rowsOf[rowKey{WhoSection, sec.ID}])
+	for _, id := range occUnique(sec.Staff) {
+		out = append(out, b.rowsOf[rowKey{WhoStaff, id}]...)
+	}
+	for _, id := range occUnique(sec.Cohorts) {
+		out = append(out, b.rowsOf[rowKey{WhoCohort, id}]...)
+	}
+	return out
+}
+
+// candidates lists the rooms section sec may use in a timetable passing
+// Check: its room choices (the exact list) or else its room list or else
+// every room, keeping those with every needed feature and, unless
+// capacity is soft, enough seats. nil for a section that takes no room.
+func (b *bounder) candidates(sec *Section) []candRoom {
+	if sec.NoRoom {
+		return nil
+	}
+	t := b.t
+	var ids []int
+	weight := map[int]int{}
+	switch {
+	case len(sec.RoomChoices) > 0:
+		m := b.roomIdx
+		for _, rc := range sec.RoomChoices {
+			if r, ok := m[rc.Room]; ok && rc.Room != "" {
+				if _, dup := weight[r]; !dup {
+					weight[r] = rc.Weight
+					ids = append(ids, r)
+				}
+			}
+		}
+	case len(sec.Rooms) > 0:
+		m := b.roomIdx
+		for _, id := range occUnique(sec.Rooms) {
+			if r, ok := m[id]; ok && id != "" {
+				ids = append(ids, r)
+			}
+		}
+	default:
+		ids = b.rooms
+	}
+	var needs []string
+	for _, f := range sec.Needs {
+		needs = append(needs, normFeature(f))
+	}
+	out := make([]candRoom, 0, len(ids))
+	for _, r := range ids {
+		room := &t.Rooms[r]
+		fits := true
+		for _, f := range needs {
+			if !b.roomFeat[r][f] {
+				fits = false
+				break
+			}
+		}
+		if !fits || !t.SoftCapacity && sec.Size > room.Capacity {
+			continue
+		}
+		c := candRoom{room: r}
+		if t.SoftCapacity {
+			c.static[bvOver] = int64(max(0, sec.Size-room.Capacity))
+		}
+		c.static[bvWaste] = int64(max(0, room.Capacity-sec.Size))
+		c.static[bvChoice] = int64(weight[r])
+		out = append(out, c)
+	}
+	return out
+}
+
+// sections bounds every section's own criteria.
+func (b *bounder) sections() {
+	for si := range b.t.Sections {
+		sec := &b.t.Sections[si]
+		if sec.UsesTimes() {
+			b.patternSection(si, sec)
+		} else {
+			b.gridSection(si, sec)
+		}
+	}
+}
+
+// gridPlaces is the analysis of one grid section: the values of the best
+// room at each legal start, and enough to judge a start with a given room.
+type gridPlaces struct {
+	b      *bounder
+	sec    *Section
+	length int
+	hard   []bool // periods blocked for the section's people
+	softN  []int64
+	softW  []int64
+	rooms  []candRoom
+	plain  int    // index in rooms of a room without rows, -1 when none
+	legal  []bool // start period -> some legal place starts there
+	val    []bvals
+}
+
+// spanOK reports whether a meeting starting at p fits one run of periods.
+func (g *gridPlaces) spanOK(p int) bool {
+	return p >= 0 && p < len(g.b.run) && g.b.run[p] >= g.length
+}
+
+// peopleOK reports whether no hard row of the section, its staff or its
+// cohorts covers the meeting starting at p (which fits the grid).
+func (g *gridPlaces) peopleOK(p int) bool {
+	for q := p; q < p+g.length; q++ {
+		if g.hard[q] {
+			return false
+		}
+	}
+	return true
+}
+
+// roomAt gives the values of room c for a meeting at p, false when a hard
+// row of the room covers it.
+func (g *gridPlaces) roomAt(c *candRoom, p int) (bvals, bool) {
+	v := c.static
+	if c.hard == nil {
+		return v, true
+	}
+	for q := p; q < p+g.length; q++ {
+		if c.hard[q] {
+			return v, false
+		}
+		v[bvAvoidN] += c.softN[q]
+		v[bvAvoidW] += c.softW[q]
+	}
+	return v, true
+}
+
+// newGridPlaces finds the legal starts of section sec and the least value
+// of each criterion over the legal rooms at each: a start is legal when
+// the meeting fits one run of periods, no hard row of the section, its
+// staff or cohorts covers it (a row naming weeks only when they meet the
+// section's), and some allowed room is free of hard rows there. The
+// values add the soft rows of the people to the cheapest room's.
+func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
+	t := b.t
+	n := len(t.Periods)
+	g := &gridPlaces{b: b, sec: sec, length: occLength(sec), plain: -1,
+		hard: make([]bool, n), softN: make([]int64, n), softW: make([]int64, n),
+		legal: make([]bool, n), val: make([]bvals, n)}
+	weeks := sectionWeeks(sec)
+	apply := func(rows []int, hard []bool, softN, softW []int64) {
+		for _, i := range rows {
+			u := &t.Unavailable[i]
+			if u.Weeks != 0 && !weeks.Overlaps(u.Weeks) {
+				continue
+			}
+			for _, p := range b.rowCover[i] {
+				if u.Hard {
+					hard[p] = true
+				} else {
+					softN[p]++
+					softW[p] += int64(u.Weight)
+				}
+			}
+		}
+	}
+	apply(b.peopleRows(sec), g.hard, g.softN, g.softW)
+	g.rooms = b.candidates(sec)
+	for k := range g.rooms {
+		c := &g.rooms[k]
+		if !b.roomMarked[c.room] {
+			if g.plain < 0 {
+				g.plain = k
+			}
+			continue
+		}
+		c.hard, c.softN, c.softW = make([]bool, n), make([]int64, n), make([]int64, n)
+		apply(b.rowsOf[rowKey{WhoRoom, t.Rooms[c.room].ID}], c.hard, c.softN, c.softW)
+	}
+	// The least static value of each criterion over the rooms without rows.
+	plainMin := bvAll(bvInf)
+	for k := range g.rooms {
+		if g.rooms[k].hard == nil {
+			plainMin.minWith(g.rooms[k].static)
+		}
+	}
+	if g.plain >= 0 {
+		plainMin[bvAvoidN], plainMin[bvAvoidW] = 0, 0
+	}
+	for p := 0; p < n; p++ {
+		if !g.spanOK(p) || !g.peopleOK(p) {
+			continue
+		}
+		v := bvals{}
+		if !sec.NoRoom {
+			v = plainMin
+			for k := range g.rooms {
+				c := &g.rooms[k]
+				if c.hard == nil {
+					continue
+				}
+				if rv, ok := g.roomAt(c, p); ok {
+					v.minWith(rv)
+				}
+			}
+			if v[bvAvoidN] >= bvInf {
+				continue // no room may hold it
+			}
+		}
+		for q := p; q < p+g.length; q++ {
+			v[bvAvoidN] += g.softN[q]
+			v[bvAvoidW] += g.softW[q]
+		}
+		if p == b.dayFirst[p] {
+			v[bvEarly] = 1
+		}
+		if p+g.length-1 == b.dayLast[p] {
+			v[bvLate] = 1
+		}
+		g.legal[p], g.val[p] = true, v
+	}
+	return g
+}
+
+// fixedAt gives the start of fixed entry f and its values (with its room
+// when it names one); ok is false when no legal place matches it.
+func (g *gridPlaces) fixedAt(f Fixed) (int, bvals, bool) {
+	p := g.b.periodAt(f.Day, f.Start)
+	if p < 0 || !g.legal[p] {
+		return p, bvals{}, false
+	}
+	if f.Room == "" {
+		return p, g.val[p], true
+	}
+	for k := range g.rooms {
+		c := &g.rooms[k]
+		if g.b.t.Rooms[c.room].ID != f.Room {
+			continue
+		}
+		v, ok := g.roomAt(c, p)
+		if !ok {
+			return p, bvals{}, false
+		}
+		for q := p; q < p+g.length; q++ {
+			v[bvAvoidN] += g.softN[q]
+			v[bvAvoidW] += g.softW[q]
+		}
+		v[bvEarly], v[bvLate] = g.val[p][bvEarly], g.val[p][bvLate]
+		return p, v, true
+	}
+	return p, bvals{}, false
+}
+
+// gridSection bounds one grid section. Its meetings are Meetings places
+// (Check: meetings 1..Meetings once each); the Fixed entries take distinct
+// meetings at their places (Check matches them one to one), and each
+// other meeting sits at a legal start. Per-meeting criteria then cost at
+// least the fixed meetings' values plus, for the others, the least value
+// over legal starts; when the meetings must fall on different days, the
+// sum of the least values of as many distinct days (none of them a fixed
+// meeting's day), which is the least sum over any choice of days.
+func (b *bounder) gridSection(si int, sec *Section) {
+	g := b.newGridPlaces(sec)
+	want := max(1, sec.Meetings)
+	b.movedGrid(sec, g, want)
+	var sum bvals
+	fixedDays := map[int]bool{}
+	fixedStarts := map[int]bool{}
+	var fixedRooms []string
+	for _, f := range sec.Fixed {
+		p, v, ok := g.fixedAt(f)
+		if !ok {
+			return // no legal timetable: bound 0
+		}
+		if !sec.SameDay && fixedDays[b.dayFirst[p]] {
+			return
+		}
+		fixedDays[b.dayFirst[p]] = true
+		fixedStarts[p] = true
+		for i := range sum {
+			sum[i] += v[i]
+		}
+		if f.Room != "" && !slices.Contains(fixedRooms, f.Room) {
+			fixedRooms = append(fixedRooms, f.Room)
+		}
+	}
+	rest := want - len(sec.Fixed)
+	if rest < 0 {
+		return
+	}
+	// The least value per day (days as their first period) over legal
+	// starts, leaving out the fixed meetings' days when days must differ.
+	dayMin := map[int]bvals{}
+	var days []int
+	for p, ok := range g.legal {
+		if !ok {
+			continue
+		}
+		d := b.dayFirst[p]
+		m, seen := dayMin[d]
+		if !seen {
+			m = bvAll(bvInf)
+			days = append(days, d)
+		}
+		m.minWith(g.val[p])
+		dayMin[d] = m
+	}
+	if rest > 0 {
+		if sec.SameDay {
+			if len(days) == 0 {
+				return
+			}
+			least := bvAll(bvInf)
+			for _, d := range days {
+				least.minWith(dayMin[d])
+			}
+			for i := range sum {
+				sum[i] += int64(rest) * least[i]
+			}
+		} else {
+			var free []int
+			for _, d := range days {
+				if !fixedDays[d] {
+					free = append(free, d)
+				}
+			}
+			if len(free) < rest {
+				return
+			}
+			col := make([]int64, len(free))
+			for i := range sum {
+				for k, d := range free {
+					col[k] = dayMin[d][i]
+				}
+				slices.Sort(col)
+				for _, v := range col[:rest] {
+					sum[i] += v
+				}
+			}
+		}
+	}
+	b.addValues(si, sum)
+	b.sec[si].ok = true
+	fixedOver := int64(0)
+	for _, f := range sec.Fixed {
+		if f.Room != "" {
+			_, v, _ := g.fixedAt(f)
+			fixedOver += v[bvOver]
+		}
+	}
+	b.sec[si].fixedOver = fixedOver
+	b.sec[si].free = want - b.fixedInRoom(sec)
+	b.sec[si].wide = !sec.NoRoom && len(g.rooms) == len(b.rooms)
+
+	// Spread days: the meetings use at most the fixed meetings' days plus
+	// one new day per other meeting, and new days only among the days with
+	// a legal start.
+	if sec.SameDay && sec.MinDays > 0 {
+		newDays := 0
+		for _, d := range days {
+			if !fixedDays[d] {
+				newDays++
+			}
+		}
+		most := len(fixedDays) + min(rest, newDays)
+		if short := int64(sec.MinDays - most); short > 0 {
+			b.add(CritSpreadDays, short, short)
+		}
+	}
+	b.stability(sec, g, want, fixedRooms, fixedDays, fixedStarts)
+}
+
+// fixedInRoom counts the Fixed entries of sec that name a room.
+func (b *bounder) fixedInRoom(sec *Section) int {
+	n := 0
+	for _, f := range sec.Fixed {
+		if f.Room != "" {
+			n++
+		}
+	}
+	return n
+}
+
+// addValues adds a section's per-meeting bounds; over capacity waits for
+// overCapacity, which may raise it.
+func (b *bounder) addValues(si int, v bvals) {
+	b.add(CritAvoidTimes, v[bvAvoidN], v[bvAvoidW])
+	for i := bvEarly; i < bvCount; i++ {
+		if i == bvOver {
+			b.sec[si].over = v[i]
+			continue
+		}
+		b.add(bvCriterion[i], v[i], v[i])
+	}
+}
+
+// stability bounds room stability (distinct rooms minus 1) of a grid
+// section: the rooms named by its Fixed entries are all used; and when
+// no single allowed room can hold every meeting (at the fixed places, and
+// enough other legal starts, on other days when days must differ, where
+// the room has no hard row), it uses at least two.
+func (b *bounder) stability(sec *Section, g *gridPlaces, want int, fixedRooms []string, fixedDays, fixedStarts map[int]bool) {
+	if sec.NoRoom || want < 2 {
+		return
+	}
+	if len(fixedRooms) >= 2 {
+		n := int64(len(fixedRooms) - 1)
+		b.add(CritRoomStability, n, n)
+		return
+	}
+	rest := want - len(sec.Fixed)
+	holds := func(c *candRoom) bool {
+		if len(fixedRooms) == 1 && b.t.Rooms[c.room].ID != fixedRooms[0] {
+			return false
+		}
+		for _, f := range sec.Fixed {
+			p := b.periodAt(f.Day, f.Start)
+			if _, ok := g.roomAt(c, p); !ok {
+				return false
+			}
+		}
+		seen := map[int]bool{}
+		n := 0
+		for p, ok := range g.legal {
+			if !ok || fixedStarts[p] {
+				continue
+			}
+			if _, free := g.roomAt(c, p); !free {
+				continue
+			}
+			key := p
+			if !sec.SameDay {
+				key = b.dayFirst[p]
+				if fixedDays[key] {
+					continue
+				}
+			}
+			if !seen[key] {
+				seen[key] = true
+				n++
+			}
+		}
+		return n >= rest
+	}
+	for k := range g.rooms {
+		c := &g.rooms[k]
+		if len(fixedRooms) == 1 {
+			if b.t.Rooms[c.room].ID != fixedRooms[0] {
+				continue
+			}
+		} else if c.hard == nil && k != g.plain {
+			continue // rooms without rows are alike: the plain one stands for them
+		}
+		if holds(c) {
+			return
+		}
+	}
+	b.add(CritRoomStability, 1, 1)
+}
+
+// patternSection bounds one pattern section: its one placement takes a
+// meeting time that matches every Fixed entry (a day of it at the entry's
+// start), that no hard row of the section, its staff or cohorts covers (by
+// minute, on a common week when the row names weeks), in an allowed room
+// (the Fixed entries' room when they name one) that no hard row covers.
+// Each per-placement criterion costs at least its least value over such
+// (time, room) pairs.
+func (b *bounder) patternSection(si int, sec *Section) {
+	t := b.t
+	rows := b.peopleRows(sec)
+	rooms := b.candidates(sec)
+	var fixedRoom string
+	for _, f := range sec.Fixed {
+		if f.Room != "" {
+			if fixedRoom != "" && fixedRoom != f.Room {
+				b.movedPattern(sec, nil, nil)
+				return
+			}
+			fixedRoom = f.Room
+		}
+	}
+	legal := make([]bool, len(sec.Times))
+	roomOK := make([][]bool, len(sec.Times)) // choice -> candidate room -> free of hard rows
+	best := bvAll(bvInf)
+	mostDays := -1
+	for ci, c := range sec.Times {
+		pv, ok := b.patternRows(rows, c)
+		if !ok {
+			continue
+		}
+		matches := true
+		for _, f := range sec.Fixed {
+			if !c.Days.Has(f.Day) || c.Start != f.Start {
+				matches = false
+			}
+		}
+		v := bvAll(bvInf)
+		roomOK[ci] = make([]bool, len(rooms))
+		if sec.NoRoom {
+			v = bvals{}
+		}
+		for k := range rooms {
+			r := &rooms[k]
+			rv, free := b.patternRows(b.rowsOf[rowKey{WhoRoom, t.Rooms[r.room].ID}], c)
+			if !free {
+				continue
+			}
+			roomOK[ci][k] = true
+			if fixedRoom != "" && t.Rooms[r.room].ID != fixedRoom {
+				continue
+			}
+			rv[bvOver], rv[bvWaste], rv[bvChoice] = r.static[bvOver], r.static[bvWaste], r.static[bvChoice]
+			v.minWith(rv)
+		}
+		if v[bvAvoidN] >= bvInf {
+			continue
+		}
+		legal[ci] = true
+		if !matches {
+			continue
+		}
+		v[bvAvoidN] += pv[bvAvoidN]
+		v[bvAvoidW] += pv[bvAvoidW]
+		v[bvTime] = int64(c.Weight)
+		best.minWith(v)
+		mostDays = max(mostDays, c.Days.Count())
+	}
+	b.movedPattern(sec, legal, func(ci int, room string) bool {
+		if sec.NoRoom {
+			return room == ""
+		}
+		for k := range rooms {
+			if t.Rooms[rooms[k].room].ID == room && room != "" {
+				return roomOK[ci][k]
+			}
+		}
+		return false
+	})
+	if mostDays < 0 {
+		return // no legal placement: bound 0
+	}
+	b.addValues(si, best)
+	b.sec[si].ok = true
+	// Spread days: the one placement meets on the days of its meeting
+	// time, so at most on the most days of a matching legal time.
+	if sec.SameDay && sec.MinDays > 0 {
+		if short := int64(sec.MinDays - mostDays); short > 0 {
+			b.add(CritSpreadDays, short, short)
+		}
+	}
+}
+
+// patternRows judges meeting time c against Unavailable rows: the number
+// of (row, day) hits of the soft rows and their weights, and false when a
+// hard row hits a day of it (both as Check and Cost read rows: a common
+// minute on the day, and a common week when the row names weeks).
+func (b *bounder) patternRows(rows []int, c TimeChoice) (bvals, bool) {
+	var v bvals
+	for _, i := range rows {
+		u := &b.t.Unavailable[i]
+		if u.Weeks != 0 && !c.Weeks.Overlaps(u.Weeks) {
+			continue
+		}
+		if !c.Days.Has(u.Day) || !(c.Start < u.To && u.From < c.End()) {
+			continue
+		}
+		if u.Hard {
+			return v, false
+		}
+		v[bvAvoidN]++
+		v[bvAvoidW] += int64(u.Weight)
+	}
+	return v, true
+}
