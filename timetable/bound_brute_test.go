@@ -303,11 +303,34 @@ func TestCountingBoundBruteForce(t *testing.T) {
 	if testing.Short() {
 		terms = 150
 	}
-	rng := rand.New(rand.NewPCG(13, 2027))
-	solved, positive := 0, map[string]int{}
-	tight := map[string]int{}
+	positive := bruteCompare(t, rand.New(rand.NewPCG(13, 2027)), terms, bruteRand)
+	for _, name := range []string{CritAvoidTimes, CritSpreadDays, CritEarly, CritLate, CritRoomChoice, CritTimeChoice, CritWastedSeats, CritMoved, CritCohortIsolated, CritStaffDays, CritUnplaced} {
+		require.Positive(t, positive[name], "no random term gave %s a positive bound: the test does not reach it", name)
+	}
+}
+
+// TestCountingBoundBruteForceCrowded does the same on terms with few
+// periods and rooms, where large sections compete for the large rooms
+// (the slot bound of room over capacity) and fixed meetings and room rows
+// split sections over rooms (room stability).
+func TestCountingBoundBruteForceCrowded(t *testing.T) {
+	terms := 600
+	if testing.Short() {
+		terms = 100
+	}
+	positive := bruteCompare(t, rand.New(rand.NewPCG(14, 2027)), terms, bruteCrowded)
+	for _, name := range []string{CritOverCapacity, CritRoomStability} {
+		require.Positive(t, positive[name], "no random term gave %s a positive bound: the test does not reach it", name)
+	}
+}
+
+// bruteCompare runs the exhaustive comparison on terms from gen and
+// returns, per criterion, how many terms had a positive bound.
+func bruteCompare(t *testing.T, rng *rand.Rand, terms int, gen func(*rand.Rand) *Term) map[string]int {
+	t.Helper()
+	solved, positive, tight := 0, map[string]int{}, map[string]int{}
 	for i := 0; i < terms; i++ {
-		term := bruteRand(rng)
+		term := gen(rng)
 		var kept *Schedule
 		if rng.IntN(2) == 0 {
 			kept = bruteKept(rng, term)
@@ -337,11 +360,46 @@ func TestCountingBoundBruteForce(t *testing.T) {
 			require.LessOrEqual(t, v, least.ByLevel[l], "term %d level %d", i, l)
 		}
 	}
-	t.Logf("%d of %d terms solved exhaustively; criteria with a positive bound: %v; tight and positive: %v", solved, terms, positive, tight)
-	require.Greater(t, solved, terms/3, "too few terms had a legal timetable within the enumeration limit")
-	for _, name := range []string{CritAvoidTimes, CritSpreadDays, CritEarly, CritLate, CritRoomChoice, CritWastedSeats, CritMoved} {
-		require.Positive(t, positive[name], "no random term gave %s a positive bound: the test does not reach it", name)
+	t.Logf("%d of %d terms solved exhaustively; criteria with a positive bound: %v; of which equal to the exhaustive least: %v", solved, terms, positive, tight)
+	require.Greater(t, solved, terms/4, "too few terms had a legal timetable within the enumeration limit")
+	return positive
+}
+
+// bruteCrowded builds a term of one or two days with one to three
+// periods, two or three rooms of different sizes (soft capacity), sections
+// that may use any room, some fixed in a room, and hard room rows.
+func bruteCrowded(rng *rand.Rand) *Term {
+	t := &Term{Name: "crowded", SoftCapacity: rng.IntN(5) > 0, Weights: map[string]Weight{}}
+	for d := 0; d < 1+rng.IntN(2); d++ {
+		for k := 0; k < 1+rng.IntN(3); k++ {
+			start := Clock(540 + 60*k)
+			t.Periods = append(t.Periods, Period{Index: len(t.Periods), Day: time.Weekday(1 + d), Start: start, End: start + 60})
+		}
 	}
+	for r := 0; r < 2+rng.IntN(2); r++ {
+		t.Rooms = append(t.Rooms, Room{ID: fmt.Sprintf("R%d", r), Capacity: 10 * (r + 1)})
+	}
+	for s := 0; s < 2+rng.IntN(3); s++ {
+		sec := Section{ID: fmt.Sprintf("X%d", s), Size: 5 + 5*rng.IntN(8), Meetings: 1 + rng.IntN(2), Length: 1, SameDay: rng.IntN(2) == 0}
+		if rng.IntN(6) == 0 {
+			sec.Weeks = 1
+		}
+		if rng.IntN(4) == 0 {
+			for m := 0; m < sec.Meetings; m++ {
+				p := t.Periods[rng.IntN(len(t.Periods))]
+				sec.Fixed = append(sec.Fixed, Fixed{Day: p.Day, Start: p.Start, Room: t.Rooms[rng.IntN(len(t.Rooms))].ID})
+			}
+		}
+		t.Sections = append(t.Sections, sec)
+	}
+	for k := 0; k < rng.IntN(3); k++ {
+		p := t.Periods[rng.IntN(len(t.Periods))]
+		t.Unavailable = append(t.Unavailable, Unavailability{Kind: WhoRoom, Who: t.Rooms[rng.IntN(len(t.Rooms))].ID, Day: p.Day, From: p.Start, To: p.End, Hard: true})
+	}
+	for _, c := range Criteria {
+		t.Weights[c.Name] = Weight{Weight: 1 + rng.IntN(2), Level: 1}
+	}
+	return t
 }
 
 // bruteDump prints a failing term for the reader.
