@@ -62,12 +62,15 @@ type bounder struct {
 	roomFeat          []map[string]bool
 	roomMarked        []bool // the room has some Unavailable row
 	roomIdx           map[string]int
-	run               []int          // period index -> periods in the run of consecutive periods from it
-	startAt           map[[2]int]int // (weekday, start clock) -> period index
+	byNeeds           map[string]*needsRooms // roomsFor's lists by set of needs
+	roomBase          map[int]roomRowArrays  // roomArrays of rooms whose rows name no weeks
+	run               []int                  // period index -> periods in the run of consecutive periods from it
+	startAt           map[[2]int]int         // (weekday, start clock) -> period index
 
 	// Per section, filled by sections and read by overCapacity, people
 	// and moved.
-	sec []secBound
+	sec     []secBound
+	scratch *gridPlaces // newGridPlaces's arrays, reused section after section
 
 	// overCapacity's slot bound (bound_rooms.go): the sizes of the grid
 	// meetings of sections that may use every room, with their weeks.
@@ -82,7 +85,7 @@ type rowKey struct {
 }
 
 func newBounder(t *Term) *bounder {
-	b := &bounder{t: t, at: map[string]int{}, rowsOf: map[rowKey][]int{}}
+	b := &bounder{t: t, at: map[string]int{}, rowsOf: map[rowKey][]int{}, byNeeds: map[string]*needsRooms{}, roomBase: map[int]roomRowArrays{}}
 	for i, c := range Criteria {
 		b.at[c.Name] = i
 	}

@@ -55,14 +55,12 @@ func (g *gridPlaces) keptLegal(k Placement) bool {
 	if k.Room == "" {
 		return false
 	}
-	for i := range g.rooms {
-		c := &g.rooms[i]
-		if g.b.t.Rooms[c.room].ID == k.Room {
-			_, free := g.roomAt(c, k.Period)
-			return free
-		}
+	c, ok := g.rooms.byID(g.b, k.Room)
+	if !ok {
+		return false
 	}
-	return false
+	_, free := g.roomAt(&c, k.Period)
+	return free
 }
 
 // movedPattern bounds the moved meetings of pattern section sec: its one

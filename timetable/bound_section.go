@@ -58,8 +58,6 @@ type candRoom struct {
 	hard   []bool  // marked rooms: periods a hard row of the room blocks
 	softN  []int64 // marked rooms: rows covering each period
 	softW  []int64 // marked rooms: their weights
-	pat    bool    // pattern section: the arrays above are unused
-	choice int     // pattern section: cached choice the room was judged for
 }
 
 // normFeature is a feature as Check compares it (case and spaces ignored).
@@ -87,66 +85,6 @@ func (b *bounder) peopleRows(sec *Section) []int {
 	return out
 }
 
-// candidates lists the rooms section sec may use in a timetable passing
-// Check: its room choices (the exact list) or else its room list or else
-// every room, keeping those with every needed feature and, unless
-// capacity is soft, enough seats. nil for a section that takes no room.
-func (b *bounder) candidates(sec *Section) []candRoom {
-	if sec.NoRoom {
-		return nil
-	}
-	t := b.t
-	var ids []int
-	weight := map[int]int{}
-	switch {
-	case len(sec.RoomChoices) > 0:
-		m := b.roomIdx
-		for _, rc := range sec.RoomChoices {
-			if r, ok := m[rc.Room]; ok && rc.Room != "" {
-				if _, dup := weight[r]; !dup {
-					weight[r] = rc.Weight
-					ids = append(ids, r)
-				}
-			}
-		}
-	case len(sec.Rooms) > 0:
-		m := b.roomIdx
-		for _, id := range occUnique(sec.Rooms) {
-			if r, ok := m[id]; ok && id != "" {
-				ids = append(ids, r)
-			}
-		}
-	default:
-		ids = b.rooms
-	}
-	var needs []string
-	for _, f := range sec.Needs {
-		needs = append(needs, normFeature(f))
-	}
-	out := make([]candRoom, 0, len(ids))
-	for _, r := range ids {
-		room := &t.Rooms[r]
-		fits := true
-		for _, f := range needs {
-			if !b.roomFeat[r][f] {
-				fits = false
-				break
-			}
-		}
-		if !fits || !t.SoftCapacity && sec.Size > room.Capacity {
-			continue
-		}
-		c := candRoom{room: r}
-		if t.SoftCapacity {
-			c.static[bvOver] = int64(max(0, sec.Size-room.Capacity))
-		}
-		c.static[bvWaste] = int64(max(0, room.Capacity-sec.Size))
-		c.static[bvChoice] = int64(weight[r])
-		out = append(out, c)
-	}
-	return out
-}
-
 // sections bounds every section's own criteria.
 func (b *bounder) sections() {
 	for si := range b.t.Sections {
@@ -168,8 +106,7 @@ type gridPlaces struct {
 	hard   []bool // periods blocked for the section's people
 	softN  []int64
 	softW  []int64
-	rooms  []candRoom
-	plain  int    // index in rooms of a room without rows, -1 when none
+	rooms  roomSet
 	legal  []bool // start period -> some legal place starts there
 	val    []bvals
 }
@@ -207,57 +144,37 @@ func (g *gridPlaces) roomAt(c *candRoom, p int) (bvals, bool) {
 	return v, true
 }
 
-// newGridPlaces finds the legal starts of section sec and the least value
+// newGridPlaces (reusing one set of arrays: the result lives until the
+// next call) finds the legal starts of section sec and the least value
 // of each criterion over the legal rooms at each: a start is legal when
 // the meeting fits one run of periods, no hard row of the section, its
 // staff or cohorts covers it (a row naming weeks only when they meet the
 // section's), and some allowed room is free of hard rows there. The
 // values add the soft rows of the people to the cheapest room's.
 func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
-	t := b.t
-	n := len(t.Periods)
-	g := &gridPlaces{b: b, sec: sec, length: occLength(sec), plain: -1,
-		hard: make([]bool, n), softN: make([]int64, n), softW: make([]int64, n),
-		legal: make([]bool, n), val: make([]bvals, n)}
+	n := len(b.t.Periods)
+	g := b.scratch
+	if g == nil {
+		g = &gridPlaces{b: b, hard: make([]bool, n), softN: make([]int64, n), softW: make([]int64, n),
+			legal: make([]bool, n), val: make([]bvals, n)}
+		b.scratch = g
+	}
+	g.sec, g.length = sec, occLength(sec)
+	clear(g.hard)
+	clear(g.softN)
+	clear(g.softW)
+	clear(g.legal)
 	weeks := sectionWeeks(sec)
-	apply := func(rows []int, hard []bool, softN, softW []int64) {
-		for _, i := range rows {
-			u := &t.Unavailable[i]
-			if u.Weeks != 0 && !weeks.Overlaps(u.Weeks) {
-				continue
-			}
-			for _, p := range b.rowCover[i] {
-				if u.Hard {
-					hard[p] = true
-				} else {
-					softN[p]++
-					softW[p] += int64(u.Weight)
-				}
-			}
-		}
-	}
-	apply(b.peopleRows(sec), g.hard, g.softN, g.softW)
-	g.rooms = b.candidates(sec)
-	for k := range g.rooms {
-		c := &g.rooms[k]
-		if !b.roomMarked[c.room] {
-			if g.plain < 0 {
-				g.plain = k
-			}
-			continue
-		}
-		c.hard, c.softN, c.softW = make([]bool, n), make([]int64, n), make([]int64, n)
-		apply(b.rowsOf[rowKey{WhoRoom, t.Rooms[c.room].ID}], c.hard, c.softN, c.softW)
-	}
-	// The least static value of each criterion over the rooms without rows.
-	plainMin := bvAll(bvInf)
-	for k := range g.rooms {
-		if g.rooms[k].hard == nil {
-			plainMin.minWith(g.rooms[k].static)
-		}
-	}
-	if g.plain >= 0 {
-		plainMin[bvAvoidN], plainMin[bvAvoidW] = 0, 0
+	b.applyRows(b.peopleRows(sec), weeks, g.hard, g.softN, g.softW)
+	g.rooms = b.roomSetOf(sec, weeks)
+	// With a plain room in the set, every start the people allow has a
+	// free room without rows, and the least room values at a start are at
+	// least the least over the whole set (a relaxation: the cheapest room
+	// may be blocked there); otherwise each marked room is judged.
+	plainMin := g.rooms.plainMin
+	marked := g.rooms.marked
+	if g.rooms.plainRep >= 0 {
+		plainMin, marked = g.rooms.allMin, nil
 	}
 	for p := 0; p < n; p++ {
 		if !g.spanOK(p) || !g.peopleOK(p) {
@@ -266,12 +183,8 @@ func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
 		v := bvals{}
 		if !sec.NoRoom {
 			v = plainMin
-			for k := range g.rooms {
-				c := &g.rooms[k]
-				if c.hard == nil {
-					continue
-				}
-				if rv, ok := g.roomAt(c, p); ok {
+			for k := range marked {
+				if rv, ok := g.roomAt(&marked[k], p); ok {
 					v.minWith(rv)
 				}
 			}
@@ -304,23 +217,20 @@ func (g *gridPlaces) fixedAt(f Fixed) (int, bvals, bool) {
 	if f.Room == "" {
 		return p, g.val[p], true
 	}
-	for k := range g.rooms {
-		c := &g.rooms[k]
-		if g.b.t.Rooms[c.room].ID != f.Room {
-			continue
-		}
-		v, ok := g.roomAt(c, p)
-		if !ok {
-			return p, bvals{}, false
-		}
-		for q := p; q < p+g.length; q++ {
-			v[bvAvoidN] += g.softN[q]
-			v[bvAvoidW] += g.softW[q]
-		}
-		v[bvEarly], v[bvLate] = g.val[p][bvEarly], g.val[p][bvLate]
-		return p, v, true
+	c, ok := g.rooms.byID(g.b, f.Room)
+	if !ok {
+		return p, bvals{}, false
 	}
-	return p, bvals{}, false
+	v, ok := g.roomAt(&c, p)
+	if !ok {
+		return p, bvals{}, false
+	}
+	for q := p; q < p+g.length; q++ {
+		v[bvAvoidN] += g.softN[q]
+		v[bvAvoidW] += g.softW[q]
+	}
+	v[bvEarly], v[bvLate] = g.val[p][bvEarly], g.val[p][bvLate]
+	return p, v, true
 }
 
 // gridSection bounds one grid section. Its meetings are Meetings places
@@ -422,7 +332,7 @@ func (b *bounder) gridSection(si int, sec *Section) {
 	}
 	b.sec[si].fixedOver = fixedOver
 	b.sec[si].free = want - b.fixedInRoom(sec)
-	b.sec[si].wide = !sec.NoRoom && len(g.rooms) == len(b.rooms)
+	b.sec[si].wide = !sec.NoRoom && g.rooms.count == len(b.rooms)
 
 	// Spread days: the meetings use at most the fixed meetings' days plus
 	// one new day per other meeting, and new days only among the days with
@@ -514,16 +424,22 @@ func (b *bounder) stability(sec *Section, g *gridPlaces, want int, fixedRooms []
 		}
 		return n >= rest
 	}
-	for k := range g.rooms {
-		c := &g.rooms[k]
-		if len(fixedRooms) == 1 {
-			if b.t.Rooms[c.room].ID != fixedRooms[0] {
-				continue
-			}
-		} else if c.hard == nil && k != g.plain {
-			continue // rooms without rows are alike: the plain one stands for them
+	// Rooms without rows are alike, and free at every start a marked
+	// room is free at: when there is one, the representative plain room
+	// holds every meeting if any room does.
+	try := g.rooms.marked
+	if g.rooms.plainRep >= 0 {
+		try = []candRoom{g.rooms.plainRoom()}
+	}
+	if len(fixedRooms) == 1 {
+		c, ok := g.rooms.byID(b, fixedRooms[0])
+		if !ok {
+			return
 		}
-		if holds(c) {
+		try = []candRoom{c}
+	}
+	for k := range try {
+		if holds(&try[k]) {
 			return
 		}
 	}
@@ -538,9 +454,8 @@ func (b *bounder) stability(sec *Section, g *gridPlaces, want int, fixedRooms []
 // Each per-placement criterion costs at least its least value over such
 // (time, room) pairs.
 func (b *bounder) patternSection(si int, sec *Section) {
-	t := b.t
 	rows := b.peopleRows(sec)
-	rooms := b.candidates(sec)
+	rooms := b.roomSetOf(sec, 0)
 	var fixedRoom string
 	for _, f := range sec.Fixed {
 		if f.Room != "" {
@@ -551,8 +466,27 @@ func (b *bounder) patternSection(si int, sec *Section) {
 			fixedRoom = f.Room
 		}
 	}
+	// roomFor gives the least room values for meeting time c over the
+	// allowed rooms free of hard rows at it (the fixed room alone when one
+	// is named), bvInf when none is.
+	roomFor := func(c TimeChoice) bvals {
+		if sec.NoRoom {
+			return bvals{}
+		}
+		if fixedRoom != "" {
+			cr, ok := rooms.byID(b, fixedRoom)
+			if !ok {
+				return bvAll(bvInf)
+			}
+			return b.patternRoom(cr, c)
+		}
+		v := rooms.plainMin
+		for _, cr := range rooms.marked {
+			v.minWith(b.patternRoom(cr, c))
+		}
+		return v
+	}
 	legal := make([]bool, len(sec.Times))
-	roomOK := make([][]bool, len(sec.Times)) // choice -> candidate room -> free of hard rows
 	best := bvAll(bvInf)
 	mostDays := -1
 	for ci, c := range sec.Times {
@@ -560,34 +494,17 @@ func (b *bounder) patternSection(si int, sec *Section) {
 		if !ok {
 			continue
 		}
+		v := roomFor(c)
+		if v[bvAvoidN] >= bvInf {
+			continue
+		}
+		legal[ci] = true
 		matches := true
 		for _, f := range sec.Fixed {
 			if !c.Days.Has(f.Day) || c.Start != f.Start {
 				matches = false
 			}
 		}
-		v := bvAll(bvInf)
-		roomOK[ci] = make([]bool, len(rooms))
-		if sec.NoRoom {
-			v = bvals{}
-		}
-		for k := range rooms {
-			r := &rooms[k]
-			rv, free := b.patternRows(b.rowsOf[rowKey{WhoRoom, t.Rooms[r.room].ID}], c)
-			if !free {
-				continue
-			}
-			roomOK[ci][k] = true
-			if fixedRoom != "" && t.Rooms[r.room].ID != fixedRoom {
-				continue
-			}
-			rv[bvOver], rv[bvWaste], rv[bvChoice] = r.static[bvOver], r.static[bvWaste], r.static[bvChoice]
-			v.minWith(rv)
-		}
-		if v[bvAvoidN] >= bvInf {
-			continue
-		}
-		legal[ci] = true
 		if !matches {
 			continue
 		}
@@ -601,12 +518,8 @@ func (b *bounder) patternSection(si int, sec *Section) {
 		if sec.NoRoom {
 			return room == ""
 		}
-		for k := range rooms {
-			if t.Rooms[rooms[k].room].ID == room && room != "" {
-				return roomOK[ci][k]
-			}
-		}
-		return false
+		cr, ok := rooms.byID(b, room)
+		return ok && b.patternRoom(cr, sec.Times[ci])[bvAvoidN] < bvInf
 	})
 	if mostDays < 0 {
 		return // no legal placement: bound 0
@@ -620,6 +533,20 @@ func (b *bounder) patternSection(si int, sec *Section) {
 			b.add(CritSpreadDays, short, short)
 		}
 	}
+}
+
+// patternRoom gives the values of room cr for meeting time c: its static
+// values and its soft rows hit, bvInf when a hard row of it hits c.
+func (b *bounder) patternRoom(cr candRoom, c TimeChoice) bvals {
+	if !b.roomMarked[cr.room] {
+		return cr.static
+	}
+	rv, free := b.patternRows(b.rowsOf[rowKey{WhoRoom, b.t.Rooms[cr.room].ID}], c)
+	if !free {
+		return bvAll(bvInf)
+	}
+	rv[bvOver], rv[bvWaste], rv[bvChoice] = cr.static[bvOver], cr.static[bvWaste], cr.static[bvChoice]
+	return rv
 }
 
 // patternRows judges meeting time c against Unavailable rows: the number
