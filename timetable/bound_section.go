@@ -27,6 +27,11 @@ type bvals [bvCount]int64
 
 const bvInf = math.MaxInt64 / 4
 
+// boundMarkedRooms is the most rooms with rows newGridPlaces judges start
+// by start in a section's set that also has rooms without rows (a
+// variable for the tests of the relaxed path).
+var boundMarkedRooms = 16
+
 func bvAll(v int64) bvals {
 	var out bvals
 	for i := range out {
@@ -167,13 +172,14 @@ func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
 	weeks := sectionWeeks(sec)
 	b.applyRows(b.peopleRows(sec), weeks, g.hard, g.softN, g.softW)
 	g.rooms = b.roomSetOf(sec, weeks)
-	// With a plain room in the set, every start the people allow has a
+	// Each marked room is judged at each start, unless there are many and
+	// a plain room is in the set: then every start the people allow has a
 	// free room without rows, and the least room values at a start are at
 	// least the least over the whole set (a relaxation: the cheapest room
-	// may be blocked there); otherwise each marked room is judged.
+	// may be blocked there), which keeps the work linear in the term.
 	plainMin := g.rooms.plainMin
 	marked := g.rooms.marked
-	if g.rooms.plainRep >= 0 {
+	if g.rooms.plainRep >= 0 && len(marked) > boundMarkedRooms {
 		plainMin, marked = g.rooms.allMin, nil
 	}
 	for p := 0; p < n; p++ {
