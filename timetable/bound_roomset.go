@@ -19,9 +19,6 @@ type roomSet struct {
 	member   func(r int) (bvals, bool)
 }
 
-// empty reports whether no room is in the set.
-func (s *roomSet) empty() bool { return s.count == 0 }
-
 // byID finds room id in the set with its arrays (nil for a plain room).
 func (s *roomSet) byID(b *bounder, id string) (candRoom, bool) {
 	r, ok := b.roomIdx[id]
