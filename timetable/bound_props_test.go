@@ -2,6 +2,8 @@ package timetable_test
 
 import (
 	"context"
+	"fmt"
+	"strings"
 	"testing"
 	"time"
 
@@ -48,8 +50,10 @@ func TestCountingBoundBelowSolved(t *testing.T) {
 	odd, oddW := samples.GenerateWithWitness(samples.Config{Sections: 80, Seed: 5, Days: 6, PeriodsPerDay: 5, Weeks: 7})
 	cases := []tc{{"demo", demo, demoW}, {"generated 60", gen60, gen60W}, {"generated odd grid", odd, oddW}, {"campus", samples.Campus(), nil}}
 	if !testing.Short() {
-		g, w := samples.GenerateWithWitness(samples.Config{Sections: 2000, Seed: 1})
-		cases = append(cases, tc{"generated 2000 (witness only)", g, w})
+		for _, n := range []int{2000, 10000} {
+			g, w := samples.GenerateWithWitness(samples.Config{Sections: n, Seed: 1})
+			cases = append(cases, tc{fmt.Sprintf("generated %d (witness only)", n), g, w})
+		}
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -59,6 +63,7 @@ func TestCountingBoundBelowSolved(t *testing.T) {
 				requireBelow(t, "witness", bound, timetable.Cost(c.term, c.witness, nil))
 			}
 			if len(c.term.Sections) > 500 {
+				t.Logf("bound by level %v (%s); witness %v", bound.ByLevel, positives(bound), timetable.Cost(c.term, c.witness, nil).ByLevel)
 				return
 			}
 			ctx, cancel := context.WithTimeout(context.Background(), 60*time.Second)
@@ -73,7 +78,18 @@ func TestCountingBoundBelowSolved(t *testing.T) {
 				requireBelow(t, "engine, witness kept", kept, timetable.Cost(c.term, res.Schedule, c.witness))
 				requireBelow(t, "witness, engine kept", timetable.CountingBound(c.term, res.Schedule), timetable.Cost(c.term, c.witness, res.Schedule))
 			}
-			t.Logf("bound by level %v; engine's first timetable %v", bound.ByLevel, timetable.Cost(c.term, res.Schedule, nil).ByLevel)
+			t.Logf("bound by level %v (%s); engine's first timetable %v", bound.ByLevel, positives(bound), timetable.Cost(c.term, res.Schedule, nil).ByLevel)
 		})
 	}
+}
+
+// positives lists the criteria with a positive bound as "name units/cost".
+func positives(r timetable.CostReport) string {
+	var out []string
+	for _, c := range r.Criteria {
+		if c.Count > 0 {
+			out = append(out, fmt.Sprintf("%s %d/%d", c.Name, c.Count, c.Cost))
+		}
+	}
+	return strings.Join(out, ", ")
 }
