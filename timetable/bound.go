@@ -60,10 +60,11 @@ type bounder struct {
 	rowCover          [][]int // Unavailable index -> periods the row covers
 	rooms             []int   // the room indexes placements can name (first of each ID)
 	roomFeat          []map[string]bool
-	roomMarked        []bool // the room has some Unavailable row
+	roomMarked        []bool  // the room has some Unavailable row
+	roomTouch         [][]int // periods some row of the room covers
 	roomIdx           map[string]int
 	byNeeds           map[string]*needsRooms // roomsFor's lists by set of needs
-	roomBase          map[int]roomRowArrays  // roomArrays of rooms whose rows name no weeks
+	roomBase          []roomRowArrays        // roomArrays of marked rooms whose rows name no weeks (nil arrays otherwise)
 	run               []int                  // period index -> periods in the run of consecutive periods from it
 	startAt           map[[2]int]int         // (weekday, start clock) -> period index
 
@@ -85,7 +86,7 @@ type rowKey struct {
 }
 
 func newBounder(t *Term) *bounder {
-	b := &bounder{t: t, at: map[string]int{}, rowsOf: map[rowKey][]int{}, byNeeds: map[string]*needsRooms{}, roomBase: map[int]roomRowArrays{}}
+	b := &bounder{t: t, at: map[string]int{}, rowsOf: map[rowKey][]int{}, byNeeds: map[string]*needsRooms{}}
 	for i, c := range Criteria {
 		b.at[c.Name] = i
 	}
@@ -175,6 +176,8 @@ func (b *bounder) indexRooms() {
 	idx := b.roomIdx
 	b.roomFeat = make([]map[string]bool, len(t.Rooms))
 	b.roomMarked = make([]bool, len(t.Rooms))
+	b.roomTouch = make([][]int, len(t.Rooms))
+	b.roomBase = make([]roomRowArrays, len(t.Rooms))
 	for i := range t.Rooms {
 		r := &t.Rooms[i]
 		if idx[r.ID] != i || r.ID == "" {
@@ -186,7 +189,19 @@ func (b *bounder) indexRooms() {
 			f[normFeature(s)] = true
 		}
 		b.roomFeat[i] = f
-		b.roomMarked[i] = len(b.rowsOf[rowKey{WhoRoom, r.ID}]) > 0
+		rows := b.rowsOf[rowKey{WhoRoom, r.ID}]
+		b.roomMarked[i] = len(rows) > 0
+		byWeek := false
+		for _, k := range rows {
+			b.roomTouch[i] = append(b.roomTouch[i], b.rowCover[k]...)
+			byWeek = byWeek || t.Unavailable[k].Weeks != 0
+		}
+		if len(rows) > 0 && !byWeek {
+			n := len(t.Periods)
+			a := roomRowArrays{make([]bool, n), make([]int64, n), make([]int64, n)}
+			b.applyRows(rows, 0, a.hard, a.softN, a.softW)
+			b.roomBase[i] = a
+		}
 	}
 }
 

@@ -172,6 +172,7 @@ func (b *bounder) roomSetOf(sec *Section, weeks WeekSet) roomSet {
 		}
 	} else {
 		nr := b.roomsFor(sec.Needs)
+		s.marked = make([]candRoom, 0, len(nr.marked))
 		from := 0
 		if !t.SoftCapacity {
 			from = sort.SearchInts(nr.caps, sec.Size)
@@ -223,20 +224,12 @@ func (b *bounder) roomSetOf(sec *Section, weeks WeekSet) roomSet {
 // row naming weeks applies when they meet): shared arrays when no row of
 // the room names weeks.
 func (b *bounder) roomArrays(r int, weeks WeekSet) ([]bool, []int64, []int64) {
-	rows := b.rowsOf[rowKey{WhoRoom, b.t.Rooms[r].ID}]
-	byWeek := false
-	for _, i := range rows {
-		byWeek = byWeek || b.t.Unavailable[i].Weeks != 0
-	}
-	if a, ok := b.roomBase[r]; ok && !byWeek {
+	if a := b.roomBase[r]; a.hard != nil {
 		return a.hard, a.softN, a.softW
 	}
 	n := len(b.t.Periods)
 	a := roomRowArrays{make([]bool, n), make([]int64, n), make([]int64, n)}
-	b.applyRows(rows, weeks, a.hard, a.softN, a.softW)
-	if !byWeek {
-		b.roomBase[r] = a
-	}
+	b.applyRows(b.rowsOf[rowKey{WhoRoom, b.t.Rooms[r].ID}], weeks, a.hard, a.softN, a.softW)
 	return a.hard, a.softN, a.softW
 }
 

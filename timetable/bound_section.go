@@ -105,15 +105,16 @@ func (b *bounder) sections() {
 // gridPlaces is the analysis of one grid section: the values of the best
 // room at each legal start, and enough to judge a start with a given room.
 type gridPlaces struct {
-	b      *bounder
-	sec    *Section
-	length int
-	hard   []bool // periods blocked for the section's people
-	softN  []int64
-	softW  []int64
-	rooms  roomSet
-	legal  []bool // start period -> some legal place starts there
-	val    []bvals
+	b       *bounder
+	sec     *Section
+	length  int
+	hard    []bool // periods blocked for the section's people
+	softN   []int64
+	softW   []int64
+	rooms   roomSet
+	legal   []bool // start period -> some legal place starts there
+	touched []bool // periods some row of a marked room of the set covers
+	val     []bvals
 }
 
 // spanOK reports whether a meeting starting at p fits one run of periods.
@@ -161,7 +162,7 @@ func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
 	g := b.scratch
 	if g == nil {
 		g = &gridPlaces{b: b, hard: make([]bool, n), softN: make([]int64, n), softW: make([]int64, n),
-			legal: make([]bool, n), val: make([]bvals, n)}
+			legal: make([]bool, n), val: make([]bvals, n), touched: make([]bool, n)}
 		b.scratch = g
 	}
 	g.sec, g.length = sec, occLength(sec)
@@ -182,16 +183,32 @@ func (b *bounder) newGridPlaces(sec *Section) *gridPlaces {
 	if g.rooms.plainRep >= 0 && len(marked) > boundMarkedRooms {
 		plainMin, marked = g.rooms.allMin, nil
 	}
+	// Where no row of a marked room covers a start's periods, the room is
+	// free there at its static values: those starts take quick, and only
+	// the others judge the marked rooms one by one.
+	quick := plainMin
+	clear(g.touched)
+	for k := range marked {
+		v := marked[k].static
+		v[bvAvoidN], v[bvAvoidW] = 0, 0
+		quick.minWith(v)
+		for _, q := range b.roomTouch[marked[k].room] {
+			g.touched[q] = true
+		}
+	}
 	for p := 0; p < n; p++ {
 		if !g.spanOK(p) || !g.peopleOK(p) {
 			continue
 		}
 		v := bvals{}
 		if !sec.NoRoom {
-			v = plainMin
-			for k := range marked {
-				if rv, ok := g.roomAt(&marked[k], p); ok {
-					v.minWith(rv)
+			v = quick
+			if slices.Contains(g.touched[p:p+g.length], true) {
+				v = plainMin
+				for k := range marked {
+					if rv, ok := g.roomAt(&marked[k], p); ok {
+						v.minWith(rv)
+					}
 				}
 			}
 			if v[bvAvoidN] >= bvInf {
