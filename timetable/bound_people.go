@@ -16,7 +16,12 @@ package timetable
 //
 // Staff days: a staff member with a grid meeting is busy on at least one
 // day, and on at least m days for each of their grid sections whose m
-// meetings fall on different days.
+// meetings fall on different days. Also, the grid meetings of their
+// sections that meet in a common week w occupy different periods (Check:
+// no one is in two meetings of sections with overlapping weeks at a
+// common period, and a section's meetings never overlap), so they are
+// busy for at least the sum of those meetings' periods, at most the
+// longest day's periods (or MaxPerDay) a day.
 func (b *bounder) people() {
 	t := b.t
 	cohorts := t.CohortIndex()
@@ -58,11 +63,16 @@ func (b *bounder) people() {
 		}
 		b.add(CritCohortIsolated, most, most)
 	}
+	dayMost := 0 // periods in the longest day
+	for p := 0; p < len(t.Periods); p = b.dayLast[p] + 1 {
+		dayMost = max(dayMost, b.dayLast[p]-p+1)
+	}
 	for k := range t.Staff {
 		if staff[t.Staff[k].ID] != k {
 			continue
 		}
 		var most int64
+		var perWeek [64]int
 		for _, si := range secsOfStaff[k] {
 			sec := &t.Sections[si]
 			m := int64(1)
@@ -70,6 +80,21 @@ func (b *bounder) people() {
 				m = int64(max(1, sec.Meetings))
 			}
 			most = max(most, m)
+			w := sectionWeeks(sec)
+			for i := range perWeek {
+				if w&(1<<i) != 0 {
+					perWeek[i] += max(1, sec.Meetings) * occLength(sec)
+				}
+			}
+		}
+		perDay := dayMost
+		if lim := t.Staff[k].MaxPerDay; lim > 0 {
+			perDay = min(perDay, lim)
+		}
+		if perDay > 0 {
+			for _, n := range perWeek {
+				most = max(most, int64((n+perDay-1)/perDay))
+			}
 		}
 		b.add(CritStaffDays, most, most)
 	}
