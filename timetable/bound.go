@@ -26,8 +26,9 @@ import "time"
 //     (bound_section.go);
 //   - room over capacity from the competition of large sections for the
 //     large rooms (bound_rooms.go);
-//   - cohort isolated periods and staff days from how many meetings must
-//     fall on different days (bound_people.go);
+//   - cohort isolated periods from how many meetings must fall on
+//     different days, staff days from that and from the periods their
+//     meetings of a common week fill (bound_people.go);
 //   - unplaced requests whose courses no section teaches, and moved
 //     meetings that no legal place can keep (bound_people.go,
 //     bound_moved.go).
@@ -35,8 +36,9 @@ import "time"
 // Every other criterion (student clashes, gaps, travel, soft relations,
 // moved students) is bounded by 0. PerStaff, PerCohort, PerSection and
 // PerRoom are nil. The bound assumes weights that Validate accepts (none
-// negative). It runs in O(sections · periods · (rows + marked rooms) +
-// rooms · log) for the term's unavailability rows and rooms that have rows.
+// negative). It runs in O(Σ sections' (periods · length + rows + rooms
+// with rows) + rooms · log rooms), the rooms with rows judged start by
+// start at most 16 to a section (boundMarkedRooms; beyond, a relaxation).
 func CountingBound(t *Term, kept *Schedule) CostReport {
 	b := newBounder(t)
 	b.keptOf(kept)
