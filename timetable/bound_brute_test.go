@@ -299,7 +299,7 @@ func bruteLeast(t *Term, kept *Schedule, limit int) (least CostReport, legal int
 // exceeds the exhaustive least cost (brute force over every timetable,
 // judged by Check and priced by Cost).
 func TestCountingBoundBruteForce(t *testing.T) {
-	terms := 1000
+	terms := 700
 	if testing.Short() {
 		terms = 150
 	}
@@ -314,7 +314,7 @@ func TestCountingBoundBruteForce(t *testing.T) {
 // (the slot bound of room over capacity) and fixed meetings and room rows
 // split sections over rooms (room stability).
 func TestCountingBoundBruteForceCrowded(t *testing.T) {
-	terms := 600
+	terms := 400
 	if testing.Short() {
 		terms = 100
 	}
