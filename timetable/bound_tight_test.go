@@ -183,3 +183,25 @@ func TestCountingBoundTight(t *testing.T) {
 		})
 	}
 }
+
+// TestCountingBoundDegenerate: terms without periods, rooms or sections
+// (which have no legal timetable, or only the empty one) give a report of
+// every criterion without panicking, and 0 where the empty timetable is
+// legal (Cost of the empty schedule, itself 0 there).
+func TestCountingBoundDegenerate(t *testing.T) {
+	empty := &Term{}
+	r := CountingBound(empty, nil)
+	require.Len(t, r.Criteria, len(Criteria))
+	require.Equal(t, Cost(empty, &Schedule{}, nil).ByLevel, r.ByLevel)
+
+	noGrid := &Term{Rooms: []Room{{ID: "R"}}, Sections: []Section{{ID: "A", Meetings: 2, Length: 1, Fixed: []Fixed{{Day: time.Monday, Start: 540}}}}}
+	require.NotPanics(t, func() { CountingBound(noGrid, &Schedule{Placements: []Placement{{Section: "A", Period: 7}}}) })
+
+	noRooms := tightTerm(2)
+	noRooms.Rooms = nil
+	noRooms.SoftCapacity = true
+	noRooms.Sections = []Section{sec("A", 2, nil), sec("P", 1, func(s *Section) {
+		s.Times = []TimeChoice{{Days: DaysOf(time.Monday), Start: 540, Minutes: 50, Weeks: 1}}
+	})}
+	require.NotPanics(t, func() { CountingBound(noRooms, nil) })
+}
