@@ -13,7 +13,9 @@ import (
 // trapOptions make neighbourhood search the only improvement phase, with
 // small budgets, so that it stalls in a local optimum of a small term.
 func trapOptions(seed int64, horizon int) OptimizeOptions {
-	return OptimizeOptions{Seed: seed, GlobalConflicts: -1, LocalShare: -1, StepConflicts: 200, MaxStall: 25, Horizon: horizon}
+	// noFloor: a counting bound that meets a stalled incumbent would end
+	// the search before the restarts are seen.
+	return OptimizeOptions{Seed: seed, GlobalConflicts: -1, LocalShare: -1, StepConflicts: 200, MaxStall: 25, Horizon: horizon, noFloor: true}
 }
 
 // TestRestartsLeaveTheTrap: on a small generated term (invented names,

@@ -121,7 +121,7 @@ func (o *optRun) fromBoard() (bool, error) {
 	s, version, bound := sh.board.offer(sh.member, sh.seen, o.best.total)
 	sh.seen = version
 	if len(bound) == len(o.bound) && slices.Compare(bound, o.bound) > 0 {
-		o.bound = bound
+		o.bound = maxPerLevel(o.bound, bound)
 	}
 	if s == nil {
 		return false, nil
