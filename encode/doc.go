@@ -211,11 +211,21 @@
 // OptimizePortfolio runs members with different seeds that share a board
 // (portfolio_share.go): each new best verified timetable and proven bound
 // is published; a stalled member adopts a better timetable through its own
-// engine and gates; a timetable at the best bound stops them all.
+// engine and gates; a timetable at the best bound stops them all. Members
+// after the first take shorter local-search runs (memberLocalShare), so
+// that their timetables reach neighbourhood search and the board sooner.
 //
-// Between the whole-term phase and neighbourhood search, and again each
-// time neighbourhood search stalls or its turn (half the time left) ends,
-// a local-search run (package improve: simulated annealing with legal
+// The lower bound starts at timetable.CountingBound, what every legal
+// timetable must pay counted from the term alone, and the engine's
+// core-guided bounds raise it level by level (optimize_bound.go); the
+// whole-term phase keeps the bound it proved when its turn ends.
+//
+// With a deadline, a warm-up comes right after the first timetable: short
+// local-search runs, each followed by a short neighbourhood turn, while
+// the neighbourhood turns improve (optimize_turns.go); a small term is
+// often proven optimal there. After it, the whole-term phase ends once it
+// stops improving the incumbent (optimize_stall.go). Then, and again each
+// time a neighbourhood turn ends, a local-search run (package improve: simulated annealing with legal
 // moves and incremental cost on the timetable itself, rooms included)
 // starts from the incumbent (optimize_local.go). Its best timetable is
 // adopted only through the engine: every start atom is fixed to it as
