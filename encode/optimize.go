@@ -262,7 +262,8 @@ func (o *optRun) run() error {
 	}
 	// Local search and neighbourhood search take turns until the time
 	// limit, Ctrl-C or a proof of optimality: when neighbourhood search
-	// stalls with time left, local search runs again from the incumbent.
+	// stalls with time left, local search runs again from the incumbent
+	// (turnPlan.lnsOnly says when its turn passes).
 	for {
 		if _, err := o.fromBoard(); err != nil {
 			return err
@@ -270,14 +271,16 @@ func (o *optRun) run() error {
 		if o.finished() {
 			return nil
 		}
-		if err := o.localSearch(); err != nil {
-			return err
-		}
-		if o.finished() {
-			return nil
+		if !o.turns.lnsOnly() {
+			if err := o.localTurnRun(); err != nil {
+				return err
+			}
+			if o.finished() {
+				return nil
+			}
 		}
 		o.phase = "neighbourhoods"
-		if err := o.lnsTurn(); err != nil {
+		if err := o.lnsTurnRun(); err != nil {
 			return err
 		}
 		if _, timed := o.ctx.Deadline(); o.finished() || !timed || o.res.Stopped == "step limit" || o.opt.LocalShare < 0 {

@@ -36,6 +36,10 @@ type turnPlan struct {
 	warmed    bool          // the warm-up ran
 	first     time.Duration // length of a warm-up round's local-search run
 	lastLocal time.Duration // time the last local-search run took
+	timed     bool          // the search has a deadline
+	ranLocal  bool          // a local-search run has run
+	localGain bool          // the last local-search run improved the incumbent
+	lnsGain   bool          // the last neighbourhood turn improved the incumbent
 }
 
 // warmUp runs the warm-up rounds when ctx has a deadline and both local
@@ -48,20 +52,50 @@ func (o *optRun) warmUp() (done bool, err error) {
 	}
 	o.turns.warmed = true
 	for round := 0; round < warmUpRounds; round++ {
-		o.turns.warm = true
-		if err := o.localSearch(); err != nil || o.finished() {
-			return true, err
+		if !o.turns.lnsOnly() {
+			o.turns.warm = true
+			if err := o.localTurnRun(); err != nil || o.finished() {
+				return true, err
+			}
 		}
 		o.phase = "neighbourhoods"
-		before := o.best
-		if err := o.lnsTurn(); err != nil || o.finished() {
+		if err := o.lnsTurnRun(); err != nil || o.finished() {
 			return true, err
 		}
-		if o.best == before {
+		if !o.turns.lnsGain {
 			break // nothing left that neighbourhood search finds quickly
 		}
 	}
 	return false, nil
+}
+
+// lnsOnly says that local search passes its turn: its last run did not
+// improve the incumbent and the neighbourhood turn after it did, so
+// neighbourhood search goes on (annealing gets its turn back as soon as a
+// neighbourhood turn brings nothing). Only under a deadline: runs without
+// one keep their fixed order.
+func (p *turnPlan) lnsOnly() bool {
+	return p.timed && p.ranLocal && !p.localGain && p.lnsGain
+}
+
+// localTurnRun runs one local-search run and notes whether it improved
+// the incumbent.
+func (o *optRun) localTurnRun() error {
+	before := o.best
+	err := o.localSearch()
+	_, o.turns.timed = o.ctx.Deadline()
+	o.turns.ranLocal = true
+	o.turns.localGain = o.best != before
+	return err
+}
+
+// lnsTurnRun runs one neighbourhood turn and notes whether it improved the
+// incumbent.
+func (o *optRun) lnsTurnRun() error {
+	before := o.best
+	err := o.lnsTurn()
+	o.turns.lnsGain = o.best != before
+	return err
 }
 
 // localTurn is the length of the next local-search run when ctx has a
