@@ -78,3 +78,18 @@ func TestWatchStall(t *testing.T) {
 	var nilWatch *stallWatch
 	nilWatch.gain() // outside a watched turn, a gain is a no-op
 }
+
+func TestLNSOnly(t *testing.T) {
+	for _, c := range []struct {
+		p    turnPlan
+		want bool
+	}{
+		{turnPlan{timed: true, ranLocal: true, localGain: false, lnsGain: true}, true},
+		{turnPlan{timed: true, ranLocal: true, localGain: true, lnsGain: true}, false},   // annealing still pays
+		{turnPlan{timed: true, ranLocal: true, localGain: false, lnsGain: false}, false}, // neither: annealing again
+		{turnPlan{timed: true, ranLocal: false, lnsGain: true}, false},                   // annealing has not run yet
+		{turnPlan{timed: false, ranLocal: true, lnsGain: true}, false},                   // no deadline: the fixed order
+	} {
+		assert.Equal(t, c.want, c.p.lnsOnly(), "%+v", c.p)
+	}
+}
