@@ -2,8 +2,8 @@ package encode
 
 import (
 	"context"
+	"errors"
 	"os"
-	"path/filepath"
 	"testing"
 	"time"
 
@@ -23,18 +23,12 @@ import (
 // the room floor.
 func TestOptimizeStartsFromTheCountingBound(t *testing.T) {
 	dir := benchfmt.DataDir("itc2007", ".ctt")
-	f, err := os.Open(filepath.Join(dir, "comp01.ctt"))
-	if dir == "" || os.IsNotExist(err) {
+	term, err := benchfmt.OpenCTT(dir, "comp01")
+	if dir == "" || errors.Is(err, os.ErrNotExist) {
 		t.Skip("shared ITC-2007 data not found")
 	}
 	require.NoError(t, err)
-	term, err := benchfmt.ReadCTT(f, "comp01.ctt")
-	f.Close()
-	require.NoError(t, err)
-	bf, err := os.Open(filepath.Join(dir, "best-known.csv"))
-	require.NoError(t, err)
-	best, err := benchfmt.ReadCTTBest(bf, "best-known.csv")
-	bf.Close()
+	best, err := benchfmt.OpenCTTBest(dir)
 	require.NoError(t, err)
 
 	floor := timetable.CountingBound(term, nil).ByLevel[benchfmt.CTTLevel]

@@ -1,8 +1,8 @@
 package timetable_test
 
 import (
+	"errors"
 	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -22,23 +22,17 @@ import (
 // Ann. Oper. Res. 194, 2012), which comes from far stronger methods.
 func TestCountingBoundITC2007(t *testing.T) {
 	dir := benchfmt.DataDir("itc2007", ".ctt")
-	f, err := os.Open(filepath.Join(dir, "best-known.csv"))
-	if dir == "" || os.IsNotExist(err) {
+	best, err := benchfmt.OpenCTTBest(dir)
+	if dir == "" || errors.Is(err, os.ErrNotExist) {
 		t.Skip("shared ITC-2007 data not found")
 	}
 	require.NoError(t, err)
-	best, err := benchfmt.ReadCTTBest(f, "best-known.csv")
-	f.Close()
-	require.NoError(t, err)
 	for _, name := range []string{"comp01", "comp02", "comp03", "comp04", "comp05", "comp06", "comp07"} {
-		f, err := os.Open(filepath.Join(dir, name+".ctt"))
-		if os.IsNotExist(err) {
+		term, err := benchfmt.OpenCTT(dir, name)
+		if errors.Is(err, os.ErrNotExist) {
 			t.Logf("%s not found under %s", name, dir)
 			continue
 		}
-		require.NoError(t, err)
-		term, err := benchfmt.ReadCTT(f, name+".ctt")
-		f.Close()
 		require.NoError(t, err)
 		rec, ok := best[name]
 		require.True(t, ok, "%s has no row in best-known.csv", name)
