@@ -16,8 +16,9 @@ func TestMemberLocalShare(t *testing.T) {
 		want   float64
 	}{
 		{0, 0, DefaultLocalShare},
-		{0, 1, DefaultLocalShare / 2},
-		{0, 2, DefaultLocalShare / 4},
+		{0, 1, -1}, // the engine member
+		{0, 2, DefaultLocalShare / 2},
+		{0, 3, DefaultLocalShare / 4},
 		{0.5, 3, 0.5}, // the caller's share holds for every member
 		{-1, 1, -1},   // local search off stays off
 	} {

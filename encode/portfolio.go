@@ -107,19 +107,22 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 }
 
 // memberLocalShare is the LocalShare of portfolio member i: the caller's
-// when set, else member 0 takes the default and each further member half
-// the share of the one before. Members that differ only in their seeds
-// reach a cost at about the same time, since each local-search run's
-// cooling plan is stretched over its share of the time left; a member with
-// shorter runs hands its timetables to neighbourhood search and to the
-// board sooner, which is where a second core saves time (on large terms a
-// run that starts from a timetable neighbourhood search improved gains
-// much more in its time than the first long run).
+// when set; else member 0 takes the default, member 1 none (it is the
+// engine member: the whole-term phase and neighbourhood search without
+// turns, on the board's best timetables), and each further member half the
+// share of the one before. Members that differ only in their seeds reach
+// a cost at about the same time, because annealing's cooling plan is
+// stretched over its time; splitting the phases lets the engine improve
+// one member's annealed timetables while the annealer goes on from the
+// engine's.
 func memberLocalShare(share float64, i int) float64 {
-	if share != 0 {
+	switch {
+	case share != 0:
 		return share
+	case i == 1:
+		return -1
 	}
-	return DefaultLocalShare / float64(int(1)<<min(i, 8))
+	return DefaultLocalShare / float64(int(1)<<min(max(i-1, 0), 8))
 }
 
 // pickPortfolio chooses the best of the members' results.
