@@ -3,6 +3,7 @@ package encode
 import (
 	"context"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -69,4 +70,28 @@ func TestRestartsDeterministic(t *testing.T) {
 	assert.Equal(t, a.Total, b.Total)
 	assert.Equal(t, a.Schedule.Placements, b.Schedule.Placements)
 	assert.Empty(t, timetable.HardViolations(timetable.Check(term, b.Schedule)))
+}
+
+// TestTrapWithDefaults: the same trap term with the default settings and
+// a deadline (warm-up, local search, neighbourhood turns, restarts)
+// reaches the proven optimum for every seed and ends there, the proof
+// being the bound meeting the cost.
+func TestTrapWithDefaults(t *testing.T) {
+	if testing.Short() {
+		t.Skip("several optimisations of a 12-section term")
+	}
+	term := samples.Generate(samples.Config{Sections: 12, Seed: 1})
+	ref, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 1, LocalShare: -1})
+	require.NoError(t, err)
+	require.True(t, ref.Proven)
+	for seed := int64(1); seed <= 3; seed++ {
+		ctx, cancel := context.WithTimeout(context.Background(), 2*time.Minute)
+		res, err := Optimize(ctx, term, OptimizeOptions{Seed: seed})
+		cancel()
+		require.NoError(t, err)
+		checkOptimized(t, term, nil, res)
+		assert.Equal(t, ref.Total, res.Total, "seed %d", seed)
+		assert.True(t, res.Proven, "seed %d: bound %v", seed, res.Bound)
+		assert.Equal(t, "optimal", res.Stopped, "seed %d", seed)
+	}
 }
