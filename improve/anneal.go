@@ -21,7 +21,10 @@ type Options struct {
 	// being annealed; 0 means measured: the mean worsening of up to 500
 	// sampled legal moves.
 	InitialTemp float64
-	// MinTemp ends a cooling cycle; 0 means InitialTemp/1000 (at least 0.01).
+	// MinTemp ends a cooling cycle; 0 means measured: the temperature at
+	// which the smallest worsening of the sampled moves is accepted once in
+	// a thousand tries (below it the search is frozen but for moves that
+	// keep the cost), and at least InitialTemp/1000 and 0.01.
 	MinTemp float64
 	// Cooling multiplies the temperature after each StepsPerTemp moves;
 	// 0 means 0.97. It must lie in (0, 1).
@@ -133,6 +136,7 @@ type annealer struct {
 	measured int64 // moves drawn by measure
 	st       Stats
 	steps    int // moves per temperature now
+	deep     int // levels from this index down may worsen (len(levels) unless a deep cycle)
 
 	// Budget planning (StepsPerTemp 0 with a deadline or MaxMoves).
 	began      time.Time // start of the search loop
@@ -176,6 +180,7 @@ func newAnnealer(x *State, opts Options) *annealer {
 	if a.opts.AcceptShare == 0 {
 		a.opts.AcceptShare = 0.1
 	}
+	a.deep = n
 	a.steps = a.opts.StepsPerTemp
 	if a.steps == 0 {
 		a.steps = max(1000, 10*len(x.movable))
@@ -198,14 +203,28 @@ func (a *annealer) pick() int {
 }
 
 // active is the index of the highest level with cost (levels above it are
-// at zero and may not worsen), or the lowest level when all are zero.
+// at zero and may not worsen), or the lowest level when all are zero; in a
+// deep cycle one level higher (see reheat).
 func (a *annealer) active() int {
+	act := len(a.curCost) - 1
 	for l, c := range a.curCost {
 		if c != 0 {
-			return l
+			act = l
+			break
 		}
 	}
-	return len(a.curCost) - 1
+	return min(act, a.deep)
+}
+
+// deepest is the index one level above the best timetable's highest level
+// with cost (0 when that is the highest level in use).
+func (a *annealer) deepest() int {
+	for l, c := range a.bestCost {
+		if c != 0 {
+			return max(l-1, 0)
+		}
+	}
+	return max(len(a.bestCost)-2, 0)
 }
 
 // accept is the annealing rule on a move's cost difference.
@@ -228,9 +247,10 @@ func (a *annealer) accept(d *tally) bool {
 }
 
 // measure samples legal moves without keeping them and returns the mean
-// worsening, in units of the first level they change (a median was tried
-// and gave worse timetables on the public benchmark: it starts too cold).
-func (a *annealer) measure() float64 {
+// worsening and the smallest, in units of the first level they change (a
+// median was tried and gave worse timetables on the public benchmark: it
+// starts too cold).
+func (a *annealer) measure() (mean, least float64) {
 	var ups []int64
 	for i := 0; i < 5000 && len(ups) < 500; i++ {
 		a.measured++
@@ -251,13 +271,13 @@ func (a *annealer) measure() float64 {
 		})
 	}
 	if len(ups) == 0 {
-		return 1
+		return 1, 1
 	}
 	var sum float64
 	for _, v := range ups {
 		sum += float64(v)
 	}
-	return sum / float64(len(ups))
+	return sum / float64(len(ups)), float64(slices.Min(ups))
 }
 
 // better reports whether level costs c are lexicographically below b.
@@ -273,17 +293,17 @@ func better(c, b []int64) bool {
 // run anneals until ctx is done or MaxMoves is reached.
 func (a *annealer) run(ctx context.Context) {
 	x := a.x
-	t0 := a.opts.InitialTemp
-	if t0 == 0 {
-		began, tried := time.Now(), a.measured
-		t0 = a.measure()
-		if el := time.Since(began).Seconds(); el > 0 {
-			a.measureAt = float64(a.measured-tried) / el
-		}
+	began := time.Now()
+	t0, least := a.measure()
+	if el := time.Since(began).Seconds(); el > 0 {
+		a.measureAt = float64(a.measured) / el
+	}
+	if a.opts.InitialTemp > 0 {
+		t0 = a.opts.InitialTemp
 	}
 	a.tmin = a.opts.MinTemp
 	if a.tmin == 0 {
-		a.tmin = max(t0/1000, 0.01)
+		a.tmin = max(t0/1000, 0.01, min(least/math.Log(1000), t0/10))
 	}
 	a.began = time.Now()
 	if d, ok := ctx.Deadline(); ok {
@@ -465,7 +485,12 @@ func (a *annealer) moved() {
 }
 
 // reheat starts a new cooling cycle from the best timetable, alternating
-// between a full and a third of the starting temperature.
+// between a full and a third of the starting temperature. The cycles at a
+// third are deep (except the last planned one): when the best has cost
+// only on lower levels, the level just above its highest level with cost
+// may worsen too during the cycle (the best stays lexicographic), because
+// a lower level's last units often need a higher level to give way for a
+// while (the demo's last late period does).
 func (a *annealer) reheat(t0 float64) {
 	a.st.Cycles++
 	if better(a.bestCost, a.curCost) {
@@ -473,7 +498,11 @@ func (a *annealer) reheat(t0 float64) {
 		copy(a.curCost, a.bestCost)
 	}
 	a.temp = t0
+	a.deep = len(a.curCost)
 	if a.st.Cycles%2 == 0 {
 		a.temp = t0 / 3
+		if a.st.Cycles != len(a.plan) {
+			a.deep = a.deepest()
+		}
 	}
 }
