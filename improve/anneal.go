@@ -21,10 +21,7 @@ type Options struct {
 	// being annealed; 0 means measured: the mean worsening of up to 500
 	// sampled legal moves.
 	InitialTemp float64
-	// MinTemp ends a cooling cycle; 0 means measured: the temperature at
-	// which the smallest worsening of the sampled moves is accepted once in
-	// a thousand tries (below it the search is frozen but for moves that
-	// keep the cost), and at least InitialTemp/1000 and 0.01.
+	// MinTemp ends a cooling cycle; 0 means InitialTemp/1000 (at least 0.01).
 	MinTemp float64
 	// Cooling multiplies the temperature after each StepsPerTemp moves;
 	// 0 means 0.97. It must lie in (0, 1).
@@ -69,6 +66,8 @@ type Stats struct {
 	Improvements int64                // new best timetables
 	Cycles       int                  // cooling cycles begun (the first and each reheat)
 	Optimal      bool                 // the best costs 0 on every level (weights all positive), so the search stopped
+	InitialTemp  float64              // the starting temperature used (given or measured)
+	MinTemp      float64              // the temperature that ends a cycle (given or measured)
 	ByKind       map[string]MoveStats // per move kind
 	Elapsed      time.Duration        // wall time of Run
 	TriedPerSec  float64              // Tried / Elapsed
@@ -136,7 +135,6 @@ type annealer struct {
 	measured int64 // moves drawn by measure
 	st       Stats
 	steps    int // moves per temperature now
-	deep     int // levels from this index down may worsen (len(levels) unless a deep cycle)
 
 	// Budget planning (StepsPerTemp 0 with a deadline or MaxMoves).
 	began      time.Time // start of the search loop
@@ -180,7 +178,6 @@ func newAnnealer(x *State, opts Options) *annealer {
 	if a.opts.AcceptShare == 0 {
 		a.opts.AcceptShare = 0.1
 	}
-	a.deep = n
 	a.steps = a.opts.StepsPerTemp
 	if a.steps == 0 {
 		a.steps = max(1000, 10*len(x.movable))
@@ -203,28 +200,14 @@ func (a *annealer) pick() int {
 }
 
 // active is the index of the highest level with cost (levels above it are
-// at zero and may not worsen), or the lowest level when all are zero; in a
-// deep cycle one level higher (see reheat).
+// at zero and may not worsen), or the lowest level when all are zero.
 func (a *annealer) active() int {
-	act := len(a.curCost) - 1
 	for l, c := range a.curCost {
 		if c != 0 {
-			act = l
-			break
+			return l
 		}
 	}
-	return min(act, a.deep)
-}
-
-// deepest is the index one level above the best timetable's highest level
-// with cost (0 when that is the highest level in use).
-func (a *annealer) deepest() int {
-	for l, c := range a.bestCost {
-		if c != 0 {
-			return max(l-1, 0)
-		}
-	}
-	return max(len(a.bestCost)-2, 0)
+	return len(a.curCost) - 1
 }
 
 // accept is the annealing rule on a move's cost difference.
@@ -247,10 +230,9 @@ func (a *annealer) accept(d *tally) bool {
 }
 
 // measure samples legal moves without keeping them and returns the mean
-// worsening and the smallest, in units of the first level they change (a
-// median was tried and gave worse timetables on the public benchmark: it
-// starts too cold).
-func (a *annealer) measure() (mean, least float64) {
+// worsening, in units of the first level they change (a median was tried
+// and gave worse timetables on the public benchmark: it starts too cold).
+func (a *annealer) measure() float64 {
 	var ups []int64
 	for i := 0; i < 5000 && len(ups) < 500; i++ {
 		a.measured++
@@ -271,13 +253,13 @@ func (a *annealer) measure() (mean, least float64) {
 		})
 	}
 	if len(ups) == 0 {
-		return 1, 1
+		return 1
 	}
 	var sum float64
 	for _, v := range ups {
 		sum += float64(v)
 	}
-	return sum / float64(len(ups)), float64(slices.Min(ups))
+	return sum / float64(len(ups))
 }
 
 // better reports whether level costs c are lexicographically below b.
@@ -293,23 +275,24 @@ func better(c, b []int64) bool {
 // run anneals until ctx is done or MaxMoves is reached.
 func (a *annealer) run(ctx context.Context) {
 	x := a.x
-	began := time.Now()
-	t0, least := a.measure()
-	if el := time.Since(began).Seconds(); el > 0 {
-		a.measureAt = float64(a.measured) / el
-	}
-	if a.opts.InitialTemp > 0 {
-		t0 = a.opts.InitialTemp
+	t0 := a.opts.InitialTemp
+	if t0 == 0 {
+		began := time.Now()
+		t0 = a.measure()
+		if el := time.Since(began).Seconds(); el > 0 {
+			a.measureAt = float64(a.measured) / el
+		}
 	}
 	a.tmin = a.opts.MinTemp
 	if a.tmin == 0 {
-		a.tmin = max(t0/1000, 0.01, min(least/math.Log(1000), t0/10))
+		a.tmin = max(t0/1000, 0.01)
 	}
 	a.began = time.Now()
 	if d, ok := ctx.Deadline(); ok {
 		a.deadline = d
 	}
 	a.temp = t0
+	a.st.InitialTemp, a.st.MinTemp = t0, a.tmin
 	a.st.Cycles = 1
 	a.planCycles()
 	a.planCycle()
@@ -485,12 +468,9 @@ func (a *annealer) moved() {
 }
 
 // reheat starts a new cooling cycle from the best timetable, alternating
-// between a full and a third of the starting temperature. The cycles at a
-// third are deep (except the last planned one): when the best has cost
-// only on lower levels, the level just above its highest level with cost
-// may worsen too during the cycle (the best stays lexicographic), because
-// a lower level's last units often need a higher level to give way for a
-// while (the demo's last late period does).
+// between a full and a third of the starting temperature so that the last
+// planned cycle (the longest) starts at the full one, as the first cycle of
+// a single long run would.
 func (a *annealer) reheat(t0 float64) {
 	a.st.Cycles++
 	if better(a.bestCost, a.curCost) {
@@ -498,11 +478,7 @@ func (a *annealer) reheat(t0 float64) {
 		copy(a.curCost, a.bestCost)
 	}
 	a.temp = t0
-	a.deep = len(a.curCost)
-	if a.st.Cycles%2 == 0 {
+	if (a.st.Cycles-len(a.plan))%2 != 0 {
 		a.temp = t0 / 3
-		if a.st.Cycles != len(a.plan) {
-			a.deep = a.deepest()
-		}
 	}
 }
