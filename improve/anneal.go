@@ -36,10 +36,10 @@ type Options struct {
 	// CycleShare, when set, plans every cooling cycle to take this share
 	// of the budget left (StepsPerTemp 0 only). 0 means growing cycles:
 	// the last planned cycle takes 0.6 of the whole budget and each one
-	// before it a third of the next, down to a short first one (see
-	// planCycles), so that the first results come fast and the long cycle
-	// gives quality; cycles after the plan take 0.6 of what is left. It
-	// must lie in (0, 1].
+	// before it a third of the next, down to a first one of 0.1% of the
+	// budget (or 200 moves per meeting whose time may change), so that the
+	// first results come fast and the long cycle gives quality; cycles
+	// after the plan take 0.6 of what is left. It must lie in (0, 1].
 	CycleShare float64
 	// AcceptShare ends a temperature early once this share of its
 	// StepsPerTemp moves has been accepted (the cut-off on accepted
@@ -387,9 +387,8 @@ func (a *annealer) planCycles() {
 		if rate <= 0 {
 			rate = a.rate()
 		}
-		a.budget = min(a.budget, rate*a.budgetT.Seconds())
-		if a.opts.MaxMoves == 0 {
-			a.budget = rate * a.budgetT.Seconds()
+		if inTime := rate * a.budgetT.Seconds(); a.opts.MaxMoves == 0 || inTime < a.budget {
+			a.budget = inTime
 		}
 	}
 	least := max(minCycleShare, minCycleMoves*float64(len(a.x.movable))/max(a.budget, 1))
