@@ -5,6 +5,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"time"
 
 	"github.com/termwright/termwright/timetable"
@@ -27,14 +28,18 @@ type Options struct {
 	Cooling float64
 	// StepsPerTemp is the number of moves tried at one temperature. 0
 	// means planned: when ctx has a deadline or MaxMoves is set, each
-	// cooling cycle is stretched to take CycleShare of the budget left
+	// cooling cycle is stretched to take its planned part of the budget
 	// (measured move rate times time left, or moves left), re-planned at
 	// every temperature; otherwise 10 per meeting whose time may change,
 	// at least 1,000.
 	StepsPerTemp int
-	// CycleShare is the share of the remaining budget one cooling cycle
-	// is planned to take when StepsPerTemp is 0; 0 means 0.6. It must lie
-	// in (0, 1].
+	// CycleShare, when set, plans every cooling cycle to take this share
+	// of the budget left (StepsPerTemp 0 only). 0 means growing cycles:
+	// the last planned cycle takes 0.6 of the whole budget and each one
+	// before it a third of the next, down to a first one of 0.1% of the
+	// budget (or 200 moves per meeting whose time may change), so that the
+	// first results come fast and the long cycle gives quality; cycles
+	// after the plan take 0.6 of what is left. It must lie in (0, 1].
 	CycleShare float64
 	// AcceptShare ends a temperature early once this share of its
 	// StepsPerTemp moves has been accepted (the cut-off on accepted
@@ -61,6 +66,8 @@ type Stats struct {
 	Improvements int64                // new best timetables
 	Cycles       int                  // cooling cycles begun (the first and each reheat)
 	Optimal      bool                 // the best costs 0 on every level (weights all positive), so the search stopped
+	InitialTemp  float64              // the starting temperature used (given or measured)
+	MinTemp      float64              // the temperature that ends a cycle (given or measured)
 	ByKind       map[string]MoveStats // per move kind
 	Elapsed      time.Duration        // wall time of Run
 	TriedPerSec  float64              // Tried / Elapsed
@@ -125,6 +132,7 @@ type annealer struct {
 	curCost  []int64
 	delta    []int64
 	kinds    [nMoves]MoveStats
+	measured int64 // moves drawn by measure
 	st       Stats
 	steps    int // moves per temperature now
 
@@ -134,10 +142,27 @@ type annealer struct {
 	cycleEnd   float64   // planned end of this cycle in tried moves (MaxMoves)
 	cycleEndAt time.Time // planned end of this cycle in time (deadline)
 	tmin       float64
+	plan       []float64 // growing cycles: share of the whole budget of each planned cycle
+	budget     float64   // the whole budget in moves (MaxMoves, or move rate times time left)
+	budgetT    time.Duration
+	measureAt  float64 // moves per second while measuring the temperature
 }
 
+// Growing cycles (CycleShare 0): the last planned cycle takes lastShare of
+// the budget, each earlier one 1/cycleGrowth of the next, and the first is
+// no shorter than minCycleShare of the budget or minCycleMoves moves per
+// meeting whose time may change. With growth 3 the planned cycles take
+// 0.6 + 0.3 of the budget (a geometric series), leaving a tenth for
+// cycles after the plan.
+const (
+	lastShare     = 0.6
+	cycleGrowth   = 3.0
+	minCycleShare = 1e-3
+	minCycleMoves = 200
+)
+
 // moveMix is the share of each move kind, in per mille.
-var moveMix = [nMoves]int{mvRelocate: 300, mvRoom: 200, mvSwap: 350, mvKempe: 100, mvSectionRoom: 50}
+var moveMix = [nMoves]int{mvRelocate: 200, mvRoom: 200, mvSwap: 300, mvKempe: 100, mvSectionRoom: 50, mvAimed: 150}
 
 func newAnnealer(x *State, opts Options) *annealer {
 	seed := opts.Seed
@@ -149,9 +174,6 @@ func newAnnealer(x *State, opts Options) *annealer {
 	a.bestCost, a.curCost, a.delta = make([]int64, n), make([]int64, n), make([]int64, n)
 	if a.opts.Cooling == 0 {
 		a.opts.Cooling = 0.97
-	}
-	if a.opts.CycleShare == 0 {
-		a.opts.CycleShare = 0.6
 	}
 	if a.opts.AcceptShare == 0 {
 		a.opts.AcceptShare = 0.1
@@ -213,6 +235,7 @@ func (a *annealer) accept(d *tally) bool {
 func (a *annealer) measure() float64 {
 	var ups []int64
 	for i := 0; i < 5000 && len(ups) < 500; i++ {
+		a.measured++
 		if !a.x.propose(a.pick(), a.rng) {
 			continue
 		}
@@ -254,7 +277,11 @@ func (a *annealer) run(ctx context.Context) {
 	x := a.x
 	t0 := a.opts.InitialTemp
 	if t0 == 0 {
+		began := time.Now()
 		t0 = a.measure()
+		if el := time.Since(began).Seconds(); el > 0 {
+			a.measureAt = float64(a.measured) / el
+		}
 	}
 	a.tmin = a.opts.MinTemp
 	if a.tmin == 0 {
@@ -265,7 +292,9 @@ func (a *annealer) run(ctx context.Context) {
 		a.deadline = d
 	}
 	a.temp = t0
+	a.st.InitialTemp, a.st.MinTemp = t0, a.tmin
 	a.st.Cycles = 1
+	a.planCycles()
 	a.planCycle()
 	step, acc := 0, 0
 	for {
@@ -342,19 +371,63 @@ func (a *annealer) rate() float64 {
 	return 2e5
 }
 
-// planCycle sets the end of a new cooling cycle at CycleShare of the
-// budget left: of the moves left under MaxMoves, and of the time left
-// before the deadline.
+// planCycles plans the shares of growing cycles (CycleShare 0): the last
+// takes lastShare of the whole budget, each earlier one 1/cycleGrowth of
+// the next, down to the shortest worth running.
+func (a *annealer) planCycles() {
+	if !a.planned() || a.opts.CycleShare != 0 {
+		return
+	}
+	if a.opts.MaxMoves > 0 {
+		a.budget = float64(a.opts.MaxMoves - a.st.Tried)
+	}
+	if !a.deadline.IsZero() {
+		a.budgetT = time.Until(a.deadline)
+		rate := a.measureAt
+		if rate <= 0 {
+			rate = a.rate()
+		}
+		if inTime := rate * a.budgetT.Seconds(); a.opts.MaxMoves == 0 || inTime < a.budget {
+			a.budget = inTime
+		}
+	}
+	least := max(minCycleShare, minCycleMoves*float64(len(a.x.movable))/max(a.budget, 1))
+	a.plan = a.plan[:0]
+	for f := lastShare; f >= least || len(a.plan) == 0; f /= cycleGrowth {
+		a.plan = append(a.plan, f)
+	}
+	slices.Reverse(a.plan)
+}
+
+// planCycle sets the end of a new cooling cycle: its planned share of the
+// whole budget (growing cycles), or CycleShare (0.6 after the planned
+// cycles) of the budget left, in moves under MaxMoves and in time before
+// the deadline.
 func (a *annealer) planCycle() {
 	if !a.planned() {
 		return
 	}
 	share := a.opts.CycleShare
+	whole := 0.0
+	if share == 0 {
+		share = lastShare
+		if k := a.st.Cycles - 1; k < len(a.plan) {
+			whole = a.plan[k]
+		}
+	}
 	if a.opts.MaxMoves > 0 {
-		a.cycleEnd = float64(a.st.Tried) + share*float64(a.opts.MaxMoves-a.st.Tried)
+		left := float64(a.opts.MaxMoves - a.st.Tried)
+		a.cycleEnd = float64(a.st.Tried) + share*left
+		if whole > 0 {
+			a.cycleEnd = float64(a.st.Tried) + min(whole*a.budget, left)
+		}
 	}
 	if !a.deadline.IsZero() {
-		a.cycleEndAt = time.Now().Add(time.Duration(share * float64(time.Until(a.deadline))))
+		left := time.Until(a.deadline)
+		a.cycleEndAt = time.Now().Add(time.Duration(share * float64(left)))
+		if whole > 0 {
+			a.cycleEndAt = time.Now().Add(min(time.Duration(whole*float64(a.budgetT)), left))
+		}
 	}
 	a.replan()
 }
@@ -394,7 +467,9 @@ func (a *annealer) moved() {
 }
 
 // reheat starts a new cooling cycle from the best timetable, alternating
-// between a full and a third of the starting temperature.
+// between a full and a third of the starting temperature so that the last
+// planned cycle (the longest) starts at the full one, as the first cycle of
+// a single long run would.
 func (a *annealer) reheat(t0 float64) {
 	a.st.Cycles++
 	if better(a.bestCost, a.curCost) {
@@ -402,7 +477,7 @@ func (a *annealer) reheat(t0 float64) {
 		copy(a.curCost, a.bestCost)
 	}
 	a.temp = t0
-	if a.st.Cycles%2 == 0 {
+	if (a.st.Cycles-len(a.plan))%2 != 0 {
 		a.temp = t0 / 3
 	}
 }

@@ -40,14 +40,21 @@
 // meetings (Lü and Hao 2010); a Kempe chain that exchanges the
 // meetings of two starts linked by shared staff or cohorts (Thompson and
 // Dowsland 1998), rooms kept where free; put every meeting of a section
-// in one room, swapping with the meetings holding it.
+// in one room, swapping with the meetings holding it; and an aimed move
+// (aimed.go) that draws a meeting carrying cost (an isolated cohort period,
+// a section on too few days, a section in several rooms) and moves it where
+// that cost goes (beside the cohort's other meetings, to a free day, into
+// a room the section already uses, at its time or at a time that room is
+// free).
 //
 // Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
 // Vecchi 1983) with a measured starting temperature, geometric cooling, a
 // temperature ended early once a share of its moves was accepted (Bellio,
 // Ceschia, Di Gaspero, Schaerf 2016) and reheats from the best timetable;
-// with a deadline or a move limit each cooling cycle is planned to take a
-// share of what is left, so the search uses all the time it is given. Levels stay lexicographic.
+// with a deadline or a move limit the cooling cycles are planned to grow
+// (each three times the one before, the last 0.6 of the budget), so that
+// the first results come fast and the longest cycle gives quality, and the
+// search uses all the time it is given. Levels stay lexicographic.
 //
 // Names: m is a meeting (placement index), si a section index, p a period,
 // r a room index (-1 for none), res a resource (staff k, then cohorts, then

@@ -9,11 +9,12 @@ const (
 	mvKempe              // a Kempe chain between two starts over shared people
 	mvSectionRoom        // every meeting of a section into one room
 	mvSwap               // two meetings exchange their starts and rooms
+	mvAimed              // a move aimed at a meeting that carries cost (aimed.go)
 	nMoves
 )
 
 // moveNames names the kinds for reports.
-var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room", "swap"}
+var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room", "swap", "aimed"}
 
 // maxChain bounds a Kempe chain; longer chains are refused.
 const maxChain = 48
@@ -33,6 +34,8 @@ func (x *State) propose(k int, rng *rand.Rand) bool {
 		return x.proposeSectionRoom(rng)
 	case mvSwap:
 		return x.proposeSwap(rng)
+	case mvAimed:
+		return x.proposeAimed(rng)
 	}
 	return false
 }
@@ -162,8 +165,15 @@ func (x *State) proposeKempe(rng *rand.Rand) bool {
 	}
 	m := x.movable[rng.IntN(len(x.movable))]
 	in := &x.secs[x.mt[m].sec]
+	return x.kempe(m, in.starts[rng.IntN(len(in.starts))])
+}
+
+// kempe fills x.chs with the Kempe chain that moves meeting m to start p2
+// (see proposeKempe); false when there is none within maxChain.
+func (x *State) kempe(m, p2 int32) bool {
+	x.chs = x.chs[:0]
+	in := &x.secs[x.mt[m].sec]
 	p1 := x.mt[m].p
-	p2 := in.starts[rng.IntN(len(in.starts))]
 	if p1 == p2 {
 		return false
 	}

@@ -116,6 +116,7 @@ type State struct {
 	prevCons []bool   // period p follows p-1 consecutively on one day
 	dayNo    []int32  // period -> day number (0-based, in period order)
 	nDays    int      // days of the grid
+	dayStart []int32  // day number -> its first period
 	dayCons  []uint64 // per day: bit i set when the day's period i follows period i-1 consecutively
 	useMasks bool     // at most 64 days of at most 64 periods: busy masks are kept
 	anyBld   bool     // some room names a building (travel can cost)
@@ -226,6 +227,10 @@ func (x *State) grid() {
 		x.nDays++
 	}
 	x.useMasks = x.useMasks && x.nDays <= 64
+	x.dayStart = make([]int32, x.nDays)
+	for p := n - 1; p >= 0; p-- {
+		x.dayStart[x.dayNo[p]] = int32(p)
+	}
 	x.dayCons = make([]uint64, x.nDays)
 	for p := 1; p < n; p++ {
 		if x.prevCons[p] && x.dayFirst[p] != int32(p) && x.useMasks {

@@ -3,6 +3,7 @@ package improve
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -171,4 +172,96 @@ func TestBlockedIsSound(t *testing.T) {
 			requireSameCost(t, x, nil, 0)
 		})
 	}
+}
+
+// TestAimedMovesKeepCostAndLegality walks with aimed moves only (accepting
+// every legal one, so cost of every aim appears), checking the running cost
+// against timetable.Cost and the timetable against timetable.Check after
+// each accepted move; aimed moves that change times and aimed moves that
+// change rooms are both accepted.
+func TestAimedMovesKeepCostAndLegality(t *testing.T) {
+	for _, cfg := range []samples.Config{samples.DemoConfig, {Sections: 40, Seed: 11}, {Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4, Weeks: 2}} {
+		t.Run(fmt.Sprint(cfg), func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(cfg)
+			x, err := New(term, wit, nil)
+			require.NoError(t, err)
+			rng := rand.New(rand.NewPCG(3, 9))
+			accepted, timeMoves, roomMoves := 0, 0, 0
+			for step := 1; step <= 3000; step++ {
+				if !x.propose(mvAimed, rng) {
+					continue
+				}
+				m := x.chs[0].m
+				oldP, oldR := x.mt[m].p, x.mt[m].r
+				if !x.apply(x.chs, rng, nil) {
+					continue
+				}
+				accepted++
+				if x.mt[m].p != oldP {
+					timeMoves++
+				}
+				if x.mt[m].r != oldR {
+					roomMoves++
+				}
+				requireSameCost(t, x, nil, step)
+			}
+			t.Logf("%d aimed moves accepted, %d changed the time, %d the room", accepted, timeMoves, roomMoves)
+			require.Positive(t, timeMoves)
+			require.Positive(t, roomMoves)
+		})
+	}
+}
+
+// TestAimedMovesFindCost checks the compactness aim against the term's own
+// definitions (timetable.Term.Span and Consecutive, independent of the
+// busy masks of this package): after a random walk that leaves isolated
+// periods on the demo, the meeting the aim moves has a cohort with no
+// other meeting on consecutive periods beside it, and its target start has
+// a cohort of its section with a meeting just before or after it.
+func TestAimedMovesFindCost(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	require.NoError(t, err)
+	rng := rand.New(rand.NewPCG(2, 2))
+	for step := 0; step < 2000; step++ {
+		if x.propose(rng.IntN(mvAimed), rng) {
+			x.apply(x.chs, rng, nil)
+		}
+	}
+	require.Positive(t, timetable.Cost(term, x.Schedule(), nil).Criterion(timetable.CritCohortIsolated).Count, "the walk left no isolated period to aim at")
+	secIdx := term.SectionIndex()
+	// touches reports whether a meeting of cohort c other than m sits on a
+	// period consecutive with the span of m's section started at p.
+	touches := func(s *timetable.Schedule, m int, p int, c string) bool {
+		span, ok := term.Span(p, max(term.Sections[secIdx[s.Placements[m].Section]].Length, 1))
+		require.True(t, ok)
+		for o, pl := range s.Placements {
+			sec := &term.Sections[secIdx[pl.Section]]
+			if o == m || !slices.Contains(sec.Cohorts, c) {
+				continue
+			}
+			other, _ := term.Span(pl.Period, max(sec.Length, 1))
+			for _, q := range other {
+				if term.Consecutive(q, span[0]) || term.Consecutive(span[len(span)-1], q) {
+					return true
+				}
+			}
+		}
+		return false
+	}
+	checked := 0
+	for range 300 {
+		if !x.aimIsolated(rng) {
+			continue
+		}
+		m := int(x.chs[0].m)
+		s := x.Schedule()
+		cohorts := term.Sections[secIdx[s.Placements[m].Section]].Cohorts
+		require.True(t, slices.ContainsFunc(cohorts, func(c string) bool { return !touches(s, m, s.Placements[m].Period, c) }),
+			"the aimed meeting %d is not isolated for any of its cohorts", m)
+		require.True(t, slices.ContainsFunc(cohorts, func(c string) bool { return touches(s, m, int(x.chs[0].p), c) }),
+			"the aimed start %d of meeting %d is beside no meeting of its cohorts", x.chs[0].p, m)
+		checked++
+	}
+	require.Positive(t, checked)
 }

@@ -1,0 +1,228 @@
+package improve
+
+import (
+	"math/bits"
+	"math/rand/v2"
+)
+
+// Aims of the aimed move: the criterion whose cost it tries to remove.
+const (
+	aimIsolated  = iota // a cohort's isolated period: next to another of its meetings
+	aimSpread           // a section on too few days: a meeting sharing a day to a free day
+	aimStability        // a section in several rooms: a meeting into another of its rooms
+	nAims
+)
+
+// aimTries bounds the meetings (and starts) drawn to find one that carries
+// the cost aimed at; the move is given up after that many.
+const aimTries = 8
+
+// proposeAimed fills x.chs with a move aimed at where the cost is: it
+// picks one of the criteria above that costs something now, draws
+// meetings until one carries that cost, and moves it to a place where
+// that cost goes: next to another meeting of the isolated cohort, to a
+// day its section does not meet on, or into a room its section already
+// uses (at its time, swapping with the meeting there, or at a time that
+// room is free). Time changes are single relocations or Kempe chains
+// towards that start, half each. The rest of the cost is left to apply
+// and the annealing rule, as for every move.
+func (x *State) proposeAimed(rng *rand.Rand) bool {
+	var aims [nAims]int
+	n := 0
+	if x.useMasks && len(x.movable) > 0 && x.weight[cCohortIsolated] > 0 && x.cur.w[cCohortIsolated] > 0 {
+		aims[n] = aimIsolated
+		n++
+	}
+	if x.nDays <= 64 && len(x.movable) > 0 && x.weight[cSpread] > 0 && x.cur.w[cSpread] > 0 {
+		aims[n] = aimSpread
+		n++
+	}
+	if len(x.roomy) > 0 && x.weight[cStability] > 0 && x.cur.w[cStability] > 0 {
+		aims[n] = aimStability
+		n++
+	}
+	if n == 0 {
+		return false
+	}
+	switch aims[rng.IntN(n)] {
+	case aimIsolated:
+		return x.aimIsolated(rng)
+	case aimSpread:
+		return x.aimSpread(rng)
+	}
+	return x.aimStability(rng)
+}
+
+// dayMask is person res's busy mask on day number d, without meeting m's
+// periods when m is on that day (the cohort's view of the day without m).
+func (x *State) dayMask(res, d, m int32) uint64 {
+	b := x.busyMask[res*int32(x.nDays)+d]
+	mt := &x.mt[m]
+	if x.dayNo[mt.p] == d {
+		l := x.secs[mt.sec].length
+		b &^= (uint64(1)<<l - 1) << (mt.p - x.dayFirst[mt.p])
+	}
+	return b
+}
+
+// aimIsolated finds a movable meeting at an isolated period of one of its
+// cohorts and moves it to a free period of that cohort next to one of the
+// cohort's other busy periods (on any day).
+func (x *State) aimIsolated(rng *rand.Rand) bool {
+	for range aimTries {
+		m := x.movable[rng.IntN(len(x.movable))]
+		mt := &x.mt[m]
+		in := &x.secs[mt.sec]
+		d := x.dayNo[mt.p]
+		c := x.dayCons[d]
+		bit := uint(mt.p - x.dayFirst[mt.p])
+		for _, res := range in.people[len(in.staff):] {
+			b := x.busyMask[res*int32(x.nDays)+d]
+			linked := (b<<1)&c | (b&c)>>1
+			if (b&^linked)>>bit&1 == 1 {
+				return x.nextTo(m, res, rng)
+			}
+		}
+	}
+	return false
+}
+
+// nextTo moves meeting m to a free period of person res adjacent to one
+// of res's busy periods without m: drawn uniformly among all such periods
+// of the week (two passes over the days, no allocation).
+func (x *State) nextTo(m, res int32, rng *rand.Rand) bool {
+	in := &x.secs[x.mt[m].sec]
+	total := 0
+	for d := range int32(x.nDays) {
+		b, c := x.dayMask(res, d, m), x.dayCons[d]
+		total += bits.OnesCount64(((b<<1)&c | (b&c)>>1) &^ b)
+	}
+	if total == 0 {
+		return false
+	}
+	k := rng.IntN(total)
+	for d := range int32(x.nDays) {
+		b, c := x.dayMask(res, d, m), x.dayCons[d]
+		after := (b << 1) & c &^ b
+		adj := after | (b&c)>>1&^b
+		if n := bits.OnesCount64(adj); k >= n {
+			k -= n
+			continue
+		}
+		for ; k > 0; k-- {
+			adj &= adj - 1
+		}
+		i := bits.TrailingZeros64(adj)
+		p := x.dayStart[d] + int32(i)
+		if after>>i&1 == 0 {
+			p -= int32(in.length) - 1 // the meeting ends just before a busy period
+		}
+		return x.moveTo(m, p, rng)
+	}
+	return false
+}
+
+// moveTo fills x.chs with meeting m moved to start p: a Kempe chain or a
+// relocation (with its hard same-time partners, room chosen by apply),
+// half each; false when p is not a start of m's section.
+func (x *State) moveTo(m, p int32, rng *rand.Rand) bool {
+	mt := &x.mt[m]
+	in := &x.secs[mt.sec]
+	if p < 0 || int(p) >= x.np || !in.startOK[p] || p == mt.p {
+		return false
+	}
+	if len(in.sameAs) == 0 && rng.IntN(2) == 0 {
+		return x.kempe(m, p)
+	}
+	x.chs = append(x.chs[:0], change{m, p, roomAuto})
+	if len(in.sameAs) > 0 {
+		return x.withPartners(mt.p, p)
+	}
+	return true
+}
+
+// aimSpread finds a movable meeting of a section that meets on fewer days
+// than it should and shares its day with another meeting of the section,
+// and moves it to a start on a day the section does not meet on.
+func (x *State) aimSpread(rng *rand.Rand) bool {
+	for range aimTries {
+		m := x.movable[rng.IntN(len(x.movable))]
+		mt := &x.mt[m]
+		sec := &x.t.Sections[mt.sec]
+		if !sec.SameDay || sec.MinDays <= 0 {
+			continue
+		}
+		var days uint64
+		shared := false
+		for _, o := range x.bySec[mt.sec] {
+			d := x.dayNo[x.mt[o].p]
+			shared = shared || (o != m && d == x.dayNo[mt.p])
+			days |= 1 << d
+		}
+		if !shared || bits.OnesCount64(days) >= sec.MinDays {
+			continue
+		}
+		in := &x.secs[mt.sec]
+		for range aimTries {
+			if p := in.starts[rng.IntN(len(in.starts))]; days>>x.dayNo[p]&1 == 0 {
+				return x.moveTo(m, p, rng)
+			}
+		}
+		return false
+	}
+	return false
+}
+
+// aimStability finds a meeting whose section uses another room besides
+// its own and moves it into that room: at its own time (swapping with the
+// one meeting there, as the room move does) or, half the time when its
+// time may change, at a start where that room is free.
+func (x *State) aimStability(rng *rand.Rand) bool {
+	for range aimTries {
+		m := x.roomy[rng.IntN(len(x.roomy))]
+		mt := &x.mt[m]
+		ms := x.bySec[mt.sec]
+		in := &x.secs[mt.sec]
+		r := x.mt[ms[rng.IntN(len(ms))]].r
+		if r < 0 || r == mt.r || !in.roomOK[r] {
+			continue
+		}
+		if mt.fixedT || len(in.starts) < 2 || rng.IntN(2) == 0 {
+			x.chs = append(x.chs[:0], change{m, mt.p, r})
+			if o := x.soleAt(r, mt.p, in.length, false); o >= 0 {
+				x.chs = append(x.chs, change{o, mt.p, mt.r})
+			}
+			return true
+		}
+		for range aimTries {
+			p := in.starts[rng.IntN(len(in.starts))]
+			if p == mt.p || !x.roomFree(r, p, in) {
+				continue
+			}
+			x.chs = append(x.chs[:0], change{m, p, r})
+			if len(in.sameAs) > 0 {
+				return x.withPartners(mt.p, p)
+			}
+			return true
+		}
+		return false
+	}
+	return false
+}
+
+// roomFree reports whether room r is open and held by no meeting whose
+// weeks overlap in's over a meeting of in starting at p.
+func (x *State) roomFree(r, p int32, in *secInfo) bool {
+	np := int32(x.np)
+	for q := p; q < p+int32(in.length); q++ {
+		if x.roomBlock[r*np+q] {
+			return false
+		}
+		for _, o := range x.occ[x.roomRes(r)*np+q] {
+			if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
+				return false
+			}
+		}
+	}
+	return true
+}
