@@ -290,7 +290,7 @@ func (o *optRun) run() error {
 }
 
 // Shares of the time left of the engine's turns when local search is on.
-const wholeTermShare = 0.2 // the whole-term phase, before the first local search
+const wholeTermShare = 0.2 // the whole-term phase, after the warm-up (optimize_turns.go)
 
 // turn limits o.ctx to share of the time left when it has a deadline and
 // local search is on, and returns the function that restores it.
