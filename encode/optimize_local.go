@@ -64,16 +64,7 @@ func (o *optRun) localSearch() error {
 			o.note(false)
 		}}
 	ctx := o.ctx
-	long := false // a run after the warm-up, under a deadline
 	if _, ok := ctx.Deadline(); ok {
-		long = !o.turns.warm
-		if long && o.turns.longT0 > 0 {
-			// After the first long run, the incumbent is annealed: a run
-			// from the full temperature would undo it and cool again in
-			// less time; it continues cooler instead.
-			opts.InitialTemp = o.turns.longT0 * laterRunTemp
-			opts.MinTemp = o.turns.longTmin
-		}
 		var cancel context.CancelFunc
 		ctx, cancel = context.WithTimeout(ctx, o.localTurn(share))
 		defer cancel()
@@ -90,9 +81,6 @@ func (o *optRun) localSearch() error {
 		return fmt.Errorf("internal error: local search: %w", err)
 	}
 	o.res.Local.Moves += res.Stats.Tried
-	if long && o.turns.longT0 == 0 {
-		o.turns.longT0, o.turns.longTmin = res.Stats.InitialTemp, res.Stats.MinTemp
-	}
 	if slices.Compare(o.levelsOf(res.Cost), o.best.total) >= 0 {
 		return nil
 	}

@@ -28,7 +28,6 @@ const (
 	minWarmUp     = time.Second
 	lnsTurnRatio  = 0.35
 	minLNSTurn    = 500 * time.Millisecond
-	laterRunTemp  = 0.1
 )
 
 // turnPlan is the state of the turn schedule.
@@ -41,9 +40,6 @@ type turnPlan struct {
 	ranLocal  bool          // a local-search run has run
 	localGain bool          // the last local-search run improved the incumbent
 	lnsGain   bool          // the last neighbourhood turn improved the incumbent
-	// longT0 and longTmin are the temperatures of the first local-search
-	// run after the warm-up; later runs start at laterRunTemp of longT0.
-	longT0, longTmin float64
 }
 
 // warmUp runs the warm-up rounds when ctx has a deadline and both local
