@@ -213,15 +213,9 @@ func (x *State) aimStability(rng *rand.Rand) bool {
 // roomFree reports whether room r is open and held by no meeting whose
 // weeks overlap in's over a meeting of in starting at p.
 func (x *State) roomFree(r, p int32, in *secInfo) bool {
-	np := int32(x.np)
 	for q := p; q < p+int32(in.length); q++ {
-		if x.roomBlock[r*np+q] {
+		if x.roomHeld(r, q, in) {
 			return false
-		}
-		for _, o := range x.occ[x.roomRes(r)*np+q] {
-			if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
-				return false
-			}
 		}
 	}
 	return true

@@ -114,18 +114,25 @@ func (x *State) canPlace(m, p, r int32) bool {
 				}
 			}
 		}
-		if r >= 0 {
-			if x.roomBlock[r*np+q] {
-				return false
-			}
-			for _, o := range x.occ[x.roomRes(r)*np+q] {
-				if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
-					return false
-				}
-			}
+		if r >= 0 && x.roomHeld(r, q, in) {
+			return false
 		}
 	}
 	return true
+}
+
+// roomHeld reports whether room r is closed at period q or held there by
+// a meeting whose weeks overlap in's.
+func (x *State) roomHeld(r, q int32, in *secInfo) bool {
+	if x.roomBlock[r*int32(x.np)+q] {
+		return true
+	}
+	for _, o := range x.occ[x.roomRes(r)*int32(x.np)+q] {
+		if x.secs[x.mt[o].sec].weeks.Overlaps(in.weeks) {
+			return true
+		}
+	}
+	return false
 }
 
 // drop removes v from xs in place (order is not kept).
