@@ -299,13 +299,26 @@ func (o *optRun) turn(share float64) (restore func()) {
 	if !timed || o.opt.LocalShare < 0 {
 		return func() {}
 	}
-	outer := o.ctx
-	ctx, cancel := context.WithDeadline(outer, time.Now().Add(time.Duration(share*float64(time.Until(dl)))))
-	o.ctx = ctx
+	return o.turnFor(time.Duration(share * float64(time.Until(dl))))
+}
+
+// turnFor limits o.ctx to d from now and returns the function that
+// restores it.
+func (o *optRun) turnFor(d time.Duration) (restore func()) {
+	ctx, cancel := context.WithTimeout(o.ctx, d)
+	restoreCtx := o.within(ctx)
 	return func() {
 		cancel()
-		o.ctx = outer
+		restoreCtx()
 	}
+}
+
+// within makes ctx, derived from o.ctx, the context of the phases that
+// follow, and returns the function that puts o.ctx back.
+func (o *optRun) within(ctx context.Context) (restore func()) {
+	outer := o.ctx
+	o.ctx = ctx
+	return func() { o.ctx = outer }
 }
 
 // finished reports that the search must end: ctx ended (Stopped says why)
@@ -338,12 +351,13 @@ func (o *optRun) wholeTerm(budget int64) error {
 		// After the warm-up the incumbent comes from local search, which
 		// the engine's models seldom beat: the phase is mostly for its
 		// bound, kept when the watch ends it.
-		outer := o.ctx
-		ctx, w, stop := watchStall(outer, wholeTermStalled(time.Until(dl)))
-		o.ctx, o.watch = ctx, w
+		ctx, w, stop := watchStall(o.ctx, wholeTermStalled(time.Until(dl)))
+		restore := o.within(ctx)
+		o.watch = w
 		defer func() {
 			stop()
-			o.ctx, o.watch = outer, nil
+			restore()
+			o.watch = nil
 		}()
 	}
 	for round := 0; round < 1000; round++ {

@@ -1,9 +1,6 @@
 package encode
 
-import (
-	"context"
-	"time"
-)
+import "time"
 
 // Turns of local search and neighbourhood search under a deadline.
 //
@@ -128,12 +125,6 @@ func (o *optRun) lnsTurn() error {
 	if o.turns.lastLocal > 0 {
 		d = min(d, max(minLNSTurn, time.Duration(lnsTurnRatio*float64(o.turns.lastLocal))))
 	}
-	outer := o.ctx
-	ctx, cancel := context.WithDeadline(outer, time.Now().Add(d))
-	defer func() {
-		cancel()
-		o.ctx = outer
-	}()
-	o.ctx = ctx
+	defer o.turnFor(d)()
 	return o.lns()
 }
