@@ -19,13 +19,10 @@ func trapOptions(seed int64, horizon int) OptimizeOptions {
 	return OptimizeOptions{Seed: seed, GlobalConflicts: -1, LocalShare: -1, StepConflicts: 200, MaxStall: 25, Horizon: horizon, noFloor: true}
 }
 
-// TestRestartsLeaveTheTrap: on a small generated term (invented names,
-// samples.Generate) plain neighbourhood search stalls above the optimum
-// for some seeds, and with restarts every seed reaches it. The optimum is
-// proven by the whole-term phase (model-improving search with core-guided
-// bounds, checked against brute force in TestOptimizeAgainstBruteForce):
-// its cost equals its lower bound.
-func TestRestartsLeaveTheTrap(t *testing.T) {
+// trapTerm is the trap term of the tests below (skipped in -short runs)
+// and its reference optimisation, which proves its optimum.
+func trapTerm(t *testing.T) (*timetable.Term, *OptimizeResult) {
+	t.Helper()
 	if testing.Short() {
 		t.Skip("several optimisations of a 12-section term")
 	}
@@ -33,6 +30,17 @@ func TestRestartsLeaveTheTrap(t *testing.T) {
 	ref, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 1, LocalShare: -1})
 	require.NoError(t, err)
 	require.True(t, ref.Proven, "the reference run proves its optimum (cost %v, bound %v)", ref.Total, ref.Bound)
+	return term, ref
+}
+
+// TestRestartsLeaveTheTrap: on a small generated term (invented names,
+// samples.Generate) plain neighbourhood search stalls above the optimum
+// for some seeds, and with restarts every seed reaches it. The optimum is
+// proven by the whole-term phase (model-improving search with core-guided
+// bounds, checked against brute force in TestOptimizeAgainstBruteForce):
+// its cost equals its lower bound.
+func TestRestartsLeaveTheTrap(t *testing.T) {
+	term, ref := trapTerm(t)
 	stalled := 0
 	for seed := int64(1); seed <= 3; seed++ {
 		plain, err := Optimize(context.Background(), term, trapOptions(seed, 0))
@@ -77,13 +85,7 @@ func TestRestartsDeterministic(t *testing.T) {
 // reaches the proven optimum for every seed and ends there, the proof
 // being the bound meeting the cost.
 func TestTrapWithDefaults(t *testing.T) {
-	if testing.Short() {
-		t.Skip("several optimisations of a 12-section term")
-	}
-	term := samples.Generate(samples.Config{Sections: 12, Seed: 1})
-	ref, err := Optimize(context.Background(), term, OptimizeOptions{Seed: 1, LocalShare: -1})
-	require.NoError(t, err)
-	require.True(t, ref.Proven)
+	term, ref := trapTerm(t)
 	for seed := int64(1); seed <= 3; seed++ {
 		ctx, cancel := context.WithTimeout(context.Background(), 2*time.Minute)
 		res, err := Optimize(ctx, term, OptimizeOptions{Seed: seed})
