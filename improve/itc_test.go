@@ -59,10 +59,7 @@ func firstTimetable(tb testing.TB, term *timetable.Term) *timetable.Schedule {
 // McCollum, Schaerf 2007, QUB/IEEE/Tech/ITC2007/CurriculumCTT/v1.0). No
 // timing is asserted.
 func TestITC2007(t *testing.T) {
-	limit, err := time.ParseDuration(os.Getenv("IMPROVE_ITC"))
-	if err != nil || limit <= 0 {
-		t.Skip("set IMPROVE_ITC to a duration per instance (e.g. 30s) to run the ITC-2007 measurement")
-	}
+	limit := measureBudget(t, "IMPROVE_ITC", "a duration per instance (e.g. 30s) to run the ITC-2007 measurement")
 	f, err := os.Open(filepath.Join(itcDir, "best-known.csv"))
 	if itcDir == "" || os.IsNotExist(err) {
 		t.Skip("shared ITC-2007 data not found")
