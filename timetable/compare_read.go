@@ -169,7 +169,7 @@ func cellWeeks(v string, pos Position, ps *Problems) string {
 		ps.warnf(pos, "weeks %s; the text is compared as written", err.Error())
 		return strings.TrimSpace(v)
 	}
-	return weekText(set)
+	return set.Ranges()
 }
 
 // meetingsFromTerm makes the meetings of s, read for t, with the term's

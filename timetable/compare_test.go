@@ -295,7 +295,7 @@ func FuzzReadMeetingsRoundTrip(f *testing.F) {
 		}
 		wk := "all"
 		if w := WeekSet(weeks); w != 0 {
-			wk = weekText(w)
+			wk = w.Ranges()
 		}
 		row := []string{sec, strconv.Itoa(num), DayName(d), st.String(), end.String(), room, wk}
 		var b strings.Builder

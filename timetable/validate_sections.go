@@ -84,29 +84,8 @@ func (v *validator) checkSectionWeeks(s *Section, d string) {
 		return
 	}
 	if out := s.Weeks &^ v.t.AllWeeks(); out != 0 {
-		v.ps.errorf(v.at(s.Src, "Weeks"), "%sweeks %s are outside the term, which has %s — use weeks 1 to %d", d, weekText(out), countNoun(v.t.TeachingWeeks(), "teaching week"), v.t.TeachingWeeks())
+		v.ps.errorf(v.at(s.Src, "Weeks"), "%sweeks %s are outside the term, which has %s — use weeks 1 to %d", d, out.Ranges(), countNoun(v.t.TeachingWeeks(), "teaching week"), v.t.TeachingWeeks())
 	}
-}
-
-// weekText formats a week set as "3, 7-9".
-func weekText(w WeekSet) string {
-	var parts []string
-	for n := 1; n <= 64; n++ {
-		if !w.Has(n) {
-			continue
-		}
-		m := n
-		for m < 64 && w.Has(m+1) {
-			m++
-		}
-		if m > n {
-			parts = append(parts, fmt.Sprintf("%d-%d", n, m))
-		} else {
-			parts = append(parts, itoa(n))
-		}
-		n = m
-	}
-	return strings.Join(parts, ", ")
 }
 
 // roomAllowed reports whether room id is in the section's room choices, or

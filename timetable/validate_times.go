@@ -76,7 +76,7 @@ func (v *validator) checkWeeks(w WeekSet, src Source, header, d string, zeroOK b
 		return
 	}
 	if out := w &^ v.t.AllWeeks(); out != 0 {
-		v.ps.errorf(v.at(src, header), "%sweeks %s are outside the term, which has %s — use weeks 1 to %d", d, weekText(out), countNoun(v.t.TeachingWeeks(), "teaching week"), v.t.TeachingWeeks())
+		v.ps.errorf(v.at(src, header), "%sweeks %s are outside the term, which has %s — use weeks 1 to %d", d, out.Ranges(), countNoun(v.t.TeachingWeeks(), "teaching week"), v.t.TeachingWeeks())
 	}
 }
 
