@@ -58,6 +58,9 @@ type OptimizeOptions struct {
 	// noFloor starts the bound at zero instead of timetable.CountingBound
 	// (tests that need the search to go on past a cost the count proves).
 	noFloor bool
+	// floor is timetable.CountingBound of the term, counted once for all
+	// portfolio members; nil counts it in Optimize.
+	floor *timetable.CostReport
 }
 
 // Defaults of OptimizeOptions.

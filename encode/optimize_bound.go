@@ -15,7 +15,12 @@ import (
 // the higher levels at their optimum, which the best timetable has), so
 // their maximum per level is one too.
 func (o *optRun) startBound() {
-	floor := timetable.CountingBound(o.t, o.opt.Keep)
+	var floor timetable.CostReport
+	if o.opt.floor != nil {
+		floor = *o.opt.floor
+	} else {
+		floor = timetable.CountingBound(o.t, o.opt.Keep)
+	}
 	if o.opt.noFloor {
 		floor = timetable.CostReport{ByLevel: map[int]int64{}}
 	}

@@ -81,6 +81,7 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	board := &shareBoard{stop: cancel}
+	floor := timetable.CountingBound(t, opt.Keep) // the same for every member
 	results := make([]*OptimizeResult, threads)
 	errs := make([]error, threads)
 	var wg sync.WaitGroup
@@ -90,6 +91,7 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 		o.Seed = portfolioSeed(opt.Seed, i)
 		o.LocalShare = memberLocalShare(opt.LocalShare, i)
 		o.share = &share{board: board, member: i}
+		o.floor = &floor
 		if opt.Progress != nil && i > 0 {
 			o.Progress = nil // one progress display
 		}
