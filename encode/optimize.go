@@ -49,6 +49,10 @@ type OptimizeOptions struct {
 	// (package improve) takes when ctx has a deadline; 0 means
 	// DefaultLocalShare, negative skips local search.
 	LocalShare float64
+	// LocalWorkers is the number of goroutines (cores) each local-search
+	// run uses (improve.Options.Workers); 0 means 1. With more than one the
+	// same seed no longer gives the same result.
+	LocalWorkers int
 	// Progress, when set, is called with the state of the search after each
 	// improvement and about every ProgressEvery while searching.
 	Progress      func(Progress)

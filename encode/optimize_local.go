@@ -58,7 +58,7 @@ func (o *optRun) localSearch() error {
 	if share == 0 {
 		share = DefaultLocalShare
 	}
-	opts := improve.Options{Seed: uint64(o.opt.Seed) + uint64(o.res.Local.Runs),
+	opts := improve.Options{Seed: uint64(o.opt.Seed) + uint64(o.res.Local.Runs), Workers: o.opt.LocalWorkers,
 		OnBest: func(_ *timetable.Schedule, c timetable.CostReport) {
 			o.local = o.levelsOf(c)
 			o.note(false)

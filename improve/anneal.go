@@ -54,6 +54,12 @@ type Options struct {
 	// OnBest, when set, is called with each new best timetable and its
 	// running cost (Per* maps nil). The schedule is the caller's to keep.
 	OnBest func(s *timetable.Schedule, c timetable.CostReport)
+	// Workers is the number of goroutines that draw and cost moves on the
+	// one run (parallel.go); 0 means 1. With more than one the run uses
+	// that many cores and costs more moves in its time, but the same seed
+	// no longer gives the same result, and MaxMoves counts the first
+	// worker's moves only.
+	Workers int
 
 	onAccept func(x *State) // test hook: called after every accepted move
 }
@@ -69,6 +75,10 @@ type Stats struct {
 	InitialTemp  float64              // the starting temperature used (given or measured)
 	MinTemp      float64              // the temperature that ends a cycle (given or measured)
 	ByKind       map[string]MoveStats // per move kind
+	Workers      int                  // goroutines that drew moves (Options.Workers)
+	Shared       int64                // moves kept by other workers and applied by the first
+	Stale        int64                // accepted moves refused because another worker's came first
+	Resyncs      int                  // moves a replica could not apply, after which the first worker's timetable was sent to all (0 unless there is a bug)
 	Elapsed      time.Duration        // wall time of Run
 	TriedPerSec  float64              // Tried / Elapsed
 	AcceptPerSec float64              // Accepted / Elapsed
@@ -102,14 +112,19 @@ type Result struct {
 func Run(ctx context.Context, t *timetable.Term, s *timetable.Schedule, kept *timetable.Schedule, opts Options) (Result, error) {
 	start := time.Now()
 	if opts.Cooling < 0 || opts.Cooling >= 1 || opts.InitialTemp < 0 || opts.MinTemp < 0 || opts.StepsPerTemp < 0 || opts.MaxMoves < 0 ||
-		opts.CycleShare < 0 || opts.CycleShare > 1 || opts.AcceptShare < 0 || opts.AcceptShare > 1 {
-		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare and AcceptShare in (0, 1], and the temperatures, steps and move limit must not be negative")
+		opts.CycleShare < 0 || opts.CycleShare > 1 || opts.AcceptShare < 0 || opts.AcceptShare > 1 || opts.Workers < 0 {
+		return Result{}, errors.New("improve: Cooling must lie in (0, 1), CycleShare and AcceptShare in (0, 1], and the temperatures, steps, move limit and workers must not be negative")
 	}
 	x, err := New(t, s, kept)
 	if err != nil {
 		return Result{}, err
 	}
 	a := newAnnealer(x, opts)
+	if opts.Workers > 1 {
+		if _, err := newTeam(a, t, s, kept, opts.Workers); err != nil {
+			return Result{}, err
+		}
+	}
 	a.run(ctx)
 	best := a.best
 	res := Result{Best: best, Cost: timetable.Cost(t, best, kept), Stats: a.st}
@@ -135,6 +150,11 @@ type annealer struct {
 	measured int64 // moves drawn by measure
 	st       Stats
 	steps    int // moves per temperature now
+
+	// Several workers (parallel.go): nil team when alone.
+	id   int   // 0 for the leader
+	team *team // what the workers share
+	in   inbox // the moves of others being applied
 
 	// Budget planning (StepsPerTemp 0 with a deadline or MaxMoves).
 	began      time.Time // start of the search loop
@@ -291,8 +311,11 @@ func (a *annealer) run(ctx context.Context) {
 	if d, ok := ctx.Deadline(); ok {
 		a.deadline = d
 	}
-	a.temp = t0
+	a.setTemp(t0)
 	a.st.InitialTemp, a.st.MinTemp = t0, a.tmin
+	if a.team != nil {
+		a.team.start()
+	}
 	a.st.Cycles = 1
 	a.planCycles()
 	a.planCycle()
@@ -304,6 +327,9 @@ func (a *annealer) run(ctx context.Context) {
 		if a.opts.MaxMoves > 0 && a.st.Tried >= a.opts.MaxMoves {
 			break
 		}
+		if a.team != nil && a.team.pending[0].Load() > 0 {
+			a.catchUp(&acc)
+		}
 		if a.zero() {
 			a.st.Optimal = true // no cost is below zero: nothing left to find
 			break
@@ -313,7 +339,7 @@ func (a *annealer) run(ctx context.Context) {
 		a.kinds[k].Tried++
 		if x.propose(k, a.rng) {
 			legal := false
-			ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) })
+			ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) && a.posted() })
 			if legal {
 				a.st.Legal++
 				a.kinds[k].Legal++
@@ -327,7 +353,7 @@ func (a *annealer) run(ctx context.Context) {
 		}
 		if step++; step >= a.steps || float64(acc) >= a.opts.AcceptShare*float64(a.steps) {
 			step, acc = 0, 0
-			a.temp *= a.opts.Cooling
+			a.setTemp(a.temp * a.opts.Cooling)
 			if a.temp < a.tmin {
 				a.reheat(t0)
 				a.planCycle()
@@ -339,6 +365,15 @@ func (a *annealer) run(ctx context.Context) {
 	for k, n := range a.kinds {
 		a.st.ByKind[moveNames[k]] = n
 	}
+	if a.team != nil {
+		a.team.finish(&a.st)
+	}
+}
+
+// posted reports whether the leader may keep its accepted move: always
+// when alone, else when no other worker's move came first (post).
+func (a *annealer) posted() bool {
+	return a.team == nil || a.team.post(0, a.x, a.x.chs)
 }
 
 // zero reports whether the best timetable costs nothing on any level and
@@ -475,9 +510,13 @@ func (a *annealer) reheat(t0 float64) {
 	if better(a.bestCost, a.curCost) {
 		a.x.restore(a.best)
 		copy(a.curCost, a.bestCost)
+		if a.team != nil {
+			a.team.reset(a.best)
+		}
 	}
-	a.temp = t0
+	temp := t0
 	if (a.st.Cycles-len(a.plan))%2 != 0 {
-		a.temp = t0 / 3
+		temp = t0 / 3
 	}
+	a.setTemp(temp)
 }

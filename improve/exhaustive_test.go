@@ -105,7 +105,8 @@ func enumerate(t *timetable.Term) (map[int]int64, *timetable.Schedule) {
 }
 
 // TestRunReachesExhaustiveOptimum compares the annealer's best with the
-// optimum found by enumerating every timetable of random tiny terms.
+// optimum found by enumerating every timetable of random tiny terms, with
+// one worker and with two.
 func TestRunReachesExhaustiveOptimum(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 5))
 	tried := 0
@@ -116,13 +117,16 @@ func TestRunReachesExhaustiveOptimum(t *testing.T) {
 			continue // no legal timetable for this draw
 		}
 		tried++
-		t.Run(fmt.Sprint("term ", n), func(t *testing.T) {
-			res, err := Run(context.Background(), term, start, nil, Options{Seed: uint64(n + 1), MaxMoves: 20000, StepsPerTemp: 300,
-				onAccept: func(x *State) { requireSameCost(t, x, nil, -1) }})
-			require.NoError(t, err)
-			t.Logf("start %v optimum %v found %v", timetable.Cost(term, start, nil).ByLevel, opt, res.Cost.ByLevel)
-			require.Equal(t, opt, res.Cost.ByLevel)
-		})
+		for _, workers := range []int{1, 2} {
+			t.Run(fmt.Sprintf("term %d workers %d", n, workers), func(t *testing.T) {
+				res, err := Run(context.Background(), term, start, nil, Options{Seed: uint64(n + 1), MaxMoves: 20000, StepsPerTemp: 300, Workers: workers,
+					onAccept: func(x *State) { requireSameCost(t, x, nil, -1) }})
+				require.NoError(t, err)
+				t.Logf("start %v optimum %v found %v", timetable.Cost(term, start, nil).ByLevel, opt, res.Cost.ByLevel)
+				require.Equal(t, opt, res.Cost.ByLevel)
+				require.Zero(t, res.Stats.Resyncs)
+			})
+		}
 	}
 	require.Equal(t, 6, tried, "too few tiny terms had a legal timetable")
 }
