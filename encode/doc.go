@@ -208,12 +208,15 @@
 // grown alike and a few perturbed steps (lns_restart.go; the Horizon
 // option allows restarts without a deadline, for tests).
 //
-// OptimizePortfolio runs members with different seeds that share a board
-// (portfolio_share.go): each new best verified timetable and proven bound
-// is published; a stalled member adopts a better timetable through its own
-// engine and gates; a timetable at the best bound stops them all. Members
-// after the first take shorter local-search runs (memberLocalShare), so
-// that their timetables reach neighbourhood search and the board sooner.
+// OptimizePortfolio gives two cores to the first member's annealing where
+// local search runs (improve.Options.Workers: both cost moves of one
+// cooling plan) and each further core to a member with another seed;
+// members share a board (portfolio_share.go): each new best verified
+// timetable and proven bound is published; a stalled member adopts a
+// better timetable through its own engine and gates; a timetable at the
+// best bound stops them all. The second member is the engine member (no
+// local search), later ones take shorter local-search runs
+// (memberLocalShare), so that their timetables reach the board sooner.
 //
 // The lower bound starts at timetable.CountingBound, what every legal
 // timetable must pay counted from the term alone, and the engine's

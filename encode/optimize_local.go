@@ -20,6 +20,7 @@ type LocalStats struct {
 	Adopted  int           // runs whose best timetable became the incumbent
 	Rejected int           // runs whose better timetable failed a gate (see adopt)
 	Time     time.Duration // time spent in local search
+	Workers  int           // goroutines of the last run (LocalWorkers), 0 before any
 	// Skipped says why local search did not run ("" when it could): it
 	// knows the period grid only, so terms with pattern sections skip it.
 	Skipped string
@@ -81,6 +82,7 @@ func (o *optRun) localSearch() error {
 		return fmt.Errorf("internal error: local search: %w", err)
 	}
 	o.res.Local.Moves += res.Stats.Tried
+	o.res.Local.Workers = max(res.Stats.Workers, 1)
 	if slices.Compare(o.levelsOf(res.Cost), o.best.total) >= 0 {
 		return nil
 	}

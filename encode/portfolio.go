@@ -5,6 +5,7 @@ import (
 	"slices"
 	"sync"
 
+	"github.com/termwright/termwright/improve"
 	"github.com/termwright/termwright/solver"
 	"github.com/termwright/termwright/timetable"
 )
@@ -63,11 +64,19 @@ func SolvePortfolio(ctx context.Context, t *timetable.Term, opt SolveOptions, th
 	return best.res, best.err
 }
 
-// OptimizePortfolio runs threads copies of Optimize with different seeds
-// on all cores until ctx ends or each stops by itself, and returns the
-// best verified timetable among them (lowest cost, compared level by
-// level from the highest). The lower bound returned is the best proven by
-// any member. threads <= 1 is Optimize.
+// OptimizePortfolio runs Optimize on threads cores until ctx ends or each
+// member stops by itself, and returns the best verified timetable found
+// (lowest cost, compared level by level from the highest). The lower
+// bound returned is the best proven by any member. threads <= 1 is
+// Optimize.
+//
+// Where local search runs (and LocalWorkers is 0), two of the cores go to
+// the first member's annealing, which costs moves on both
+// (improve.Options.Workers), and each further core to a member with
+// another seed (portfolioMembers): one annealer on two cores reaches a
+// cost sooner than two annealers on one core each, because annealing's
+// quality comes from the moves costed in its cooling plan. Otherwise
+// every core runs a member.
 //
 // Members share their best timetables and bounds while they run
 // (portfolio_share.go): a stalled member adopts a better timetable of
@@ -78,18 +87,27 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	if threads <= 1 {
 		return Optimize(ctx, t, opt)
 	}
+	members, workers := portfolioMembers(t, opt, threads)
+	if members == 1 {
+		o := opt
+		o.LocalWorkers = workers
+		return Optimize(ctx, t, o)
+	}
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	board := &shareBoard{stop: cancel}
 	floor := timetable.CountingBound(t, opt.Keep) // the same for every member
-	results := make([]*OptimizeResult, threads)
-	errs := make([]error, threads)
+	results := make([]*OptimizeResult, members)
+	errs := make([]error, members)
 	var wg sync.WaitGroup
 	var mu sync.Mutex
-	for i := 0; i < threads; i++ {
+	for i := 0; i < members; i++ {
 		o := opt
 		o.Seed = portfolioSeed(opt.Seed, i)
 		o.LocalShare = memberLocalShare(opt.LocalShare, i)
+		if i == 0 {
+			o.LocalWorkers = workers
+		}
 		o.share = &share{board: board, member: i}
 		o.floor = &floor
 		if opt.Progress != nil && i > 0 {
@@ -106,6 +124,17 @@ func OptimizePortfolio(ctx context.Context, t *timetable.Term, opt OptimizeOptio
 	}
 	wg.Wait()
 	return pickPortfolio(results, errs)
+}
+
+// portfolioMembers splits threads cores between members and the first
+// member's local-search workers: two workers and threads-1 members when
+// local search runs on t and opt leaves LocalWorkers to the portfolio,
+// else threads members with opt's workers.
+func portfolioMembers(t *timetable.Term, opt OptimizeOptions, threads int) (members, workers int) {
+	if opt.LocalWorkers != 0 || opt.LocalShare < 0 || improve.Unsupported(t) != "" {
+		return threads, opt.LocalWorkers
+	}
+	return threads - 1, 2
 }
 
 // memberLocalShare is the LocalShare of portfolio member i: the caller's

@@ -25,12 +25,12 @@ func TestSolvePortfolio(t *testing.T) {
 }
 
 // TestOptimizePortfolioNoWorseThanMember0: member 0 runs the caller's seed;
-// with budgets counted in conflicts and steps (no time limit) each member
-// is deterministic, so the portfolio's best is never worse than the plain
-// run with that seed.
+// with budgets counted in conflicts, steps and moves (no time limit) and
+// one local-search worker each member is deterministic, so the
+// portfolio's best is never worse than the plain run with that seed.
 func TestOptimizePortfolioNoWorseThanMember0(t *testing.T) {
 	term := samples.Generate(samples.Config{Sections: 30, Seed: 4})
-	opt := OptimizeOptions{Seed: 2, GlobalConflicts: 2000, StepConflicts: 200, MaxSteps: 20}
+	opt := OptimizeOptions{Seed: 2, GlobalConflicts: 2000, StepConflicts: 200, MaxSteps: 20, LocalWorkers: 1}
 	single, err := Optimize(context.Background(), term, opt)
 	require.NoError(t, err)
 	require.Equal(t, solver.Satisfiable, single.Status)
@@ -40,6 +40,35 @@ func TestOptimizePortfolioNoWorseThanMember0(t *testing.T) {
 	assert.LessOrEqual(t, compareLevels(multi.Total, single.Total), 0, "portfolio %v, single %v", multi.Total, single.Total)
 	assert.Empty(t, timetable.HardViolations(timetable.Check(term, multi.Schedule)))
 	assert.LessOrEqual(t, compareLevels(multi.Bound, multi.Total), 0)
+}
+
+// TestPortfolioGivesAnnealingTwoCores: with LocalWorkers left to it, a
+// portfolio of two threads anneals on both cores (one member, two local
+// workers) and of three adds a member; without local search every thread
+// is a member. The timetable passes the checks.
+func TestPortfolioGivesAnnealingTwoCores(t *testing.T) {
+	term := samples.Generate(samples.Config{Sections: 30, Seed: 4})
+	cases := []struct {
+		opt              OptimizeOptions
+		threads          int
+		members, workers int
+	}{
+		{OptimizeOptions{}, 2, 1, 2},
+		{OptimizeOptions{}, 3, 2, 2},
+		{OptimizeOptions{LocalWorkers: 1}, 2, 2, 1},
+		{OptimizeOptions{LocalShare: -1}, 2, 2, 0},
+	}
+	for _, c := range cases {
+		m, w := portfolioMembers(term, c.opt, c.threads)
+		assert.Equal(t, [2]int{c.members, c.workers}, [2]int{m, w}, "%+v, %d threads", c.opt, c.threads)
+	}
+	res, err := OptimizePortfolio(context.Background(), term, OptimizeOptions{Seed: 2, GlobalConflicts: -1, StepConflicts: 200, MaxSteps: 20, noFloor: true}, 2)
+	require.NoError(t, err)
+	require.Equal(t, solver.Satisfiable, res.Status)
+	assert.Equal(t, 2, res.Local.Workers)
+	assert.Positive(t, res.Local.Runs)
+	assert.Empty(t, timetable.HardViolations(timetable.Check(term, res.Schedule)))
+	assert.Equal(t, timetable.Cost(term, res.Schedule, nil).ByLevel, res.Cost.ByLevel)
 }
 
 func compareLevels(a, b []int64) int {

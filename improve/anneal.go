@@ -75,7 +75,7 @@ type Stats struct {
 	InitialTemp  float64              // the starting temperature used (given or measured)
 	MinTemp      float64              // the temperature that ends a cycle (given or measured)
 	ByKind       map[string]MoveStats // per move kind
-	Workers      int                  // goroutines that drew moves (Options.Workers)
+	Workers      int                  // goroutines that drew moves (Options.Workers, at least 1)
 	Shared       int64                // moves kept by other workers and applied by the first
 	Stale        int64                // accepted moves refused because another worker's came first
 	Resyncs      int                  // moves a replica could not apply, after which the first worker's timetable was sent to all (0 unless there is a bug)
@@ -361,6 +361,7 @@ func (a *annealer) run(ctx context.Context) {
 			a.replan()
 		}
 	}
+	a.st.Workers = 1
 	a.st.ByKind = map[string]MoveStats{}
 	for k, n := range a.kinds {
 		a.st.ByKind[moveNames[k]] = n

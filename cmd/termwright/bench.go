@@ -90,7 +90,7 @@ func newBenchCmd(e *env) *cobra.Command {
 	f.BoolVar(&o.json, "json", false, "print the results as JSON")
 	f.StringVar(&o.jsonOut, "json-out", "", "also write the results as JSON to this file")
 	f.Int64Var(&o.seed, "seed", 1, "engine seed (the same seed repeats a run)")
-	f.IntVar(&o.threads, "threads", 1, "differently seeded searches to run in parallel per instance")
+	f.IntVar(&o.threads, "threads", 1, "cores per instance: improvement on two, each further one a differently seeded search")
 	f.BoolVar(&o.force, "force", false, "replace existing solution files in --out")
 	return cmd
 }

@@ -83,7 +83,7 @@ func newSolveCmd(e *env) *cobra.Command {
 	f.BoolVar(&o.students, "students", false, "with --publish, also write a weekly grid PDF and a calendar per student")
 	f.BoolVar(&o.quiet, "quiet", false, "show no progress while searching")
 	f.StringVar(&o.keep, "keep", "", "earlier timetable (.xlsx or .csv) to change as little as possible")
-	f.IntVar(&o.threads, "threads", 1, "run this many differently seeded searches in parallel and keep the best timetable (more memory)")
+	f.IntVar(&o.threads, "threads", 1, "use this many cores: improvement on two, each further one a differently seeded search; the best timetable is kept (more memory)")
 	f.IntVar(&o.steps, "steps", 0, "stop improving after this many neighbourhood steps (0 for no limit); with --time-limit 0 the result depends only on the seed")
 	addColumnsFlag(cmd, e)
 	return cmd
