@@ -56,6 +56,14 @@
 // the first results come fast and the longest cycle gives quality, and the
 // search uses all the time it is given. Levels stay lexicographic.
 //
+// Workers (parallel.go): with Options.Workers above one, each worker
+// anneals its own replica of the State at the first worker's temperature;
+// a move one accepts is kept only when its worker had applied every move
+// the others kept before, and the others then apply it with the rooms it
+// chose. Every replica goes through the same timetables in the same order,
+// so the invariants above hold on each, and the cooling plan costs about
+// Workers times as many moves in its time.
+//
 // Names: m is a meeting (placement index), si a section index, p a period,
 // r a room index (-1 for none), res a resource (staff k, then cohorts, then
 // rooms, in one numbering).
