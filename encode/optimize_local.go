@@ -42,6 +42,15 @@ const (
 	adoptLimit = 30 * time.Second
 )
 
+// defaultShare is the share of the time left of a local-search run with
+// workers workers: DefaultLocalShare for one; with more, the same cooling
+// plan takes less time (its quality comes from the moves it costs, and
+// workers cost that many more in a second), so a run takes
+// DefaultLocalShare/workers and the time saved goes to the runs after it.
+func defaultShare(workers int) float64 {
+	return DefaultLocalShare / float64(max(workers, 1))
+}
+
 // errNotAdopted says a timetable of local search could not become a
 // candidate (its starts are not a model of the program as it stands).
 var errNotAdopted = errors.New("not a model of the program")
@@ -57,7 +66,7 @@ func (o *optRun) localSearch() error {
 	o.note(true)
 	share := o.opt.LocalShare
 	if share == 0 {
-		share = DefaultLocalShare
+		share = defaultShare(o.opt.LocalWorkers)
 	}
 	opts := improve.Options{Seed: uint64(o.opt.Seed) + uint64(o.res.Local.Runs), Workers: o.opt.LocalWorkers,
 		OnBest: func(_ *timetable.Schedule, c timetable.CostReport) {
