@@ -2,7 +2,6 @@ package improve
 
 import (
 	"math"
-	"runtime"
 	"sync"
 	"sync/atomic"
 
@@ -29,18 +28,21 @@ import (
 
 // maxBacklog is the number of moves a helper may keep before the leader
 // has applied them: beyond it the helper waits, so that a leader slowed
-// down (by the machine, or a test hook) is not buried in moves.
+// down (by the machine, or a test hook) is not buried in moves, and a
+// waiting helper leaves its core to the leader.
 const maxBacklog = 64
 
 // team is what the workers of one run share.
 type team struct {
 	mu      sync.Mutex
-	boxes   []inbox        // per worker: what the others kept since it last looked
-	pending []atomic.Int32 // per worker: len(boxes[i].ends), or 1 for a reset, readable without mu
-	temp    atomic.Uint64  // the leader's temperature (float64 bits)
-	stop    atomic.Bool    // the leader has finished
-	resync  atomic.Bool    // a helper could not apply a move: the leader sends its timetable
-	stale   atomic.Int64   // accepted moves refused because another worker's came first
+	boxes   []inbox         // per worker: what the others kept since it last looked
+	pending []atomic.Int32  // per worker: len(boxes[i].ends), or 1 for a reset, readable without mu
+	temp    atomic.Uint64   // the leader's temperature (float64 bits)
+	stop    atomic.Bool     // the leader has finished
+	resync  atomic.Bool     // a helper could not apply a move: the leader sends its timetable
+	stale   atomic.Int64    // accepted moves refused because another worker's came first
+	wake    []chan struct{} // per helper: the leader has taken its inbox (one token at most)
+	done    chan struct{}   // closed when the leader has finished
 	wg      sync.WaitGroup
 	helpers []*annealer
 }
@@ -57,7 +59,10 @@ type inbox struct {
 // newTeam builds the helpers of a: workers-1 replicas of the start, each
 // with its own random stream.
 func newTeam(a *annealer, t *timetable.Term, s, kept *timetable.Schedule, workers int) (*team, error) {
-	tm := &team{boxes: make([]inbox, workers), pending: make([]atomic.Int32, workers)}
+	tm := &team{boxes: make([]inbox, workers), pending: make([]atomic.Int32, workers), wake: make([]chan struct{}, workers), done: make(chan struct{})}
+	for i := range tm.wake {
+		tm.wake[i] = make(chan struct{}, 1)
+	}
 	for i := 1; i < workers; i++ {
 		x, err := New(t, s, kept)
 		if err != nil {
@@ -86,6 +91,7 @@ func (tm *team) start() {
 // finish stops the helpers and adds their counts to the leader's stats.
 func (tm *team) finish(st *Stats) {
 	tm.stop.Store(true)
+	close(tm.done)
 	tm.wg.Wait()
 	for _, h := range tm.helpers {
 		st.Tried += h.st.Tried
@@ -164,6 +170,14 @@ func (tm *team) take(i int, mine *inbox) {
 	mine.reset = b.reset
 	b.chs, b.ends, b.reset = b.chs[:0], b.ends[:0], nil
 	tm.pending[i].Store(0)
+	if i == 0 {
+		for _, w := range tm.wake[1:] {
+			select {
+			case w <- struct{}{}:
+			default:
+			}
+		}
+	}
 }
 
 // catchUp applies what the other workers kept since this worker last
@@ -214,7 +228,11 @@ func (a *annealer) help() {
 			a.catchUp(&acc)
 		}
 		if tm.pending[0].Load() > maxBacklog {
-			runtime.Gosched() // the leader is behind: let it catch up
+			// The leader is behind: wait until it has taken its inbox.
+			select {
+			case <-tm.wake[a.id]:
+			case <-tm.done:
+			}
 			continue
 		}
 		a.temp = math.Float64frombits(tm.temp.Load())
