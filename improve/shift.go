@@ -5,18 +5,20 @@ import (
 	"math/rand/v2"
 )
 
-// proposeShift fills x.chs with a compound move aimed at a cohort's
-// isolated period that the single meeting there cannot fix alone: it draws
-// meetings (at most aimTries, movable or not) until one sits at an isolated period of one
-// of its cohorts, takes the run of that cohort's consecutive busy periods
-// nearest to it on the same day (before or after, half each when both
-// exist) and shifts every meeting of the run by the same number of periods
-// so that the run ends just beside the isolated period. The meetings of
-// the run keep their rooms where free (apply's choice otherwise). This is
-// a block move in the sense of the Kempe-chain neighbourhoods of Thompson
-// and Dowsland (1998): several meetings change together so that the
-// cohort's day stays compact; legality and cost are apply's, as for every
-// move.
+// proposeShift fills x.chs with a move aimed at a cohort's isolated
+// period that moves other meetings to it, where the aimed move (aimed.go)
+// moves the isolated meeting away: it draws meetings (at most aimTries,
+// movable or not) until one sits at an isolated period of one of its
+// cohorts, then, half each, either takes the run of that cohort's
+// consecutive busy periods nearest to it on the same day (before or after,
+// half each when both exist) and shifts every meeting of the run by the
+// same number of periods so that the run ends just beside the isolated
+// period, or pulls one other meeting of the cohort (from any day) to a
+// free period just beside it (pullTo). The meetings of a run keep their
+// rooms where free (apply's choice otherwise); the run moves as a block
+// in the spirit of the Kempe-chain neighbourhoods of Thompson and Dowsland
+// (1998): several meetings change together so that the cohort's day stays
+// compact. Legality and cost are apply's, as for every move.
 func (x *State) proposeShift(rng *rand.Rand) bool {
 	if !x.useMasks || len(x.movable) == 0 || x.weight[cCohortIsolated] <= 0 || x.cur.w[cCohortIsolated] <= 0 {
 		return false
@@ -42,6 +44,9 @@ func (x *State) proposeShift(rng *rand.Rand) bool {
 			b := x.busyMask[res*int32(x.nDays)+d]
 			linked := (b<<1)&c | (b&c)>>1
 			if (b&^linked)>>bit&1 == 1 {
+				if rng.IntN(2) == 0 {
+					return x.pullTo(m, res, d, bit, b, rng)
+				}
 				return x.shiftRun(m, res, d, bit, b, rng)
 			}
 		}
@@ -132,4 +137,46 @@ func consecutive(c uint64, from, to uint) bool {
 		}
 	}
 	return true
+}
+
+// pullTo moves one other meeting of person res (drawn uniformly among its
+// meetings that may move, from any day) to a free period just before or
+// just after meeting m, which sits at isolated bit of res's busy mask b on
+// day d: by a relocation or a Kempe chain, as moveTo does. The period
+// beside m must follow (or precede) m's consecutively.
+func (x *State) pullTo(m, res, d int32, bit uint, b uint64, rng *rand.Rand) bool {
+	c := x.dayCons[d]
+	lenM := uint(x.secs[x.mt[m].sec].length)
+	start := x.dayStart[d]
+	canBefore := bit > 0 && c>>bit&1 == 1 && b>>(bit-1)&1 == 0
+	after := bit + lenM // the bit just after m
+	canAfter := after < 64 && c>>after&1 == 1 && b>>after&1 == 0
+	if !canBefore && !canAfter {
+		return false
+	}
+	before := canBefore && (!canAfter || rng.IntN(2) == 0)
+	np := int32(x.np)
+	o, seen := int32(-1), 0
+	for q := range np {
+		for _, y := range x.occ[res*np+q] {
+			my := &x.mt[y]
+			if my.p != q || y == m || my.fixedT || len(x.secs[my.sec].starts) < 2 {
+				continue
+			}
+			if seen++; rng.IntN(seen) == 0 {
+				o = y
+			}
+		}
+	}
+	if o < 0 {
+		return false
+	}
+	p := start + int32(after)
+	if before {
+		p = start + int32(bit) - int32(x.secs[x.mt[o].sec].length)
+	}
+	if p < start || x.dayNo[min(p, np-1)] != d {
+		return false
+	}
+	return x.moveTo(o, p, rng)
 }

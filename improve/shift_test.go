@@ -47,7 +47,7 @@ func shiftTerm(fixedAt int, bAt [2]int, lunch bool) (*timetable.Term, *timetable
 	return t, s
 }
 
-// TestShiftFindsCompactDay checks the shift move on hand-built days whose
+// TestShiftFindsCompactDay checks the run half of the shift move on hand-built days whose
 // only isolated period is held by a meeting that may not move: the move
 // brings the cohort's run of two meetings beside it, after which
 // timetable.Cost (the project's independent evaluator) counts no isolated
@@ -75,13 +75,8 @@ func TestShiftFindsCompactDay(t *testing.T) {
 			x, err := New(term, s, nil)
 			require.NoError(t, err)
 			rng := rand.New(rand.NewPCG(1, 1))
-			proposed := false
-			for range 50 {
-				if x.propose(mvShift, rng) {
-					proposed = true
-					break
-				}
-			}
+			res := int32(x.nStaff) // cohort C
+			proposed := x.shiftRun(0, res, 0, uint(tc.fixedAt), x.busyMask[res*int32(x.nDays)], rng)
 			require.Equal(t, tc.moves, proposed)
 			if !tc.moves {
 				return
@@ -140,4 +135,57 @@ func threeInARow(x *State) bool {
 		}
 	}
 	return false
+}
+
+// TestPullFindsCompactDay checks the pull half of the shift move on a
+// hand-built week: cohort C has section A alone on Monday (its time fixed,
+// so isolated) and B1, B2, B3 on Tuesday's first three periods. Each pull
+// brings one of the B meetings just beside A (by timetable.Term.Consecutive),
+// the timetable stays legal by timetable.Check with the running cost equal
+// to timetable.Cost, and pulling B1 or B3 leaves no isolated period at all
+// by timetable.Cost.
+func TestPullFindsCompactDay(t *testing.T) {
+	term := &timetable.Term{Name: "pull", Weights: map[string]timetable.Weight{}}
+	for d, day := range []time.Weekday{time.Monday, time.Tuesday} {
+		for h := range 5 {
+			start := timetable.Clock(540 + 60*h)
+			term.Periods = append(term.Periods, timetable.Period{Index: 5*d + h, Day: day, Start: start, End: start + 60})
+		}
+	}
+	term.Rooms = []timetable.Room{{ID: "R1", Capacity: 20}}
+	term.Staff = []timetable.Staff{{ID: "S1"}, {ID: "S2"}}
+	term.Cohorts = []timetable.Cohort{{ID: "C"}}
+	term.Sections = []timetable.Section{{ID: "A", Staff: []string{"S1"}, Cohorts: []string{"C"}, Size: 20, Meetings: 1, Length: 1, Weeks: 1,
+		Fixed: []timetable.Fixed{{Day: time.Monday, Start: 540}}}}
+	s := &timetable.Schedule{Placements: []timetable.Placement{{Section: "A", Meeting: 1, Period: 0, Room: "R1"}}}
+	for i := 1; i <= 3; i++ {
+		id := fmt.Sprintf("B%d", i)
+		term.Sections = append(term.Sections, timetable.Section{ID: id, Staff: []string{"S2"}, Cohorts: []string{"C"}, Size: 20, Meetings: 1, Length: 1, Weeks: 1})
+		s.Placements = append(s.Placements, timetable.Placement{Section: id, Meeting: 1, Period: 4 + i, Room: "R1"})
+	}
+	for _, c := range timetable.Criteria {
+		term.Weights[c.Name] = timetable.Weight{Weight: 1, Level: 1}
+	}
+	require.Equal(t, int64(1), timetable.Cost(term, s, nil).Criterion(timetable.CritCohortIsolated).Count)
+	rng := rand.New(rand.NewPCG(3, 3))
+	pulled, compact := 0, 0
+	for range 40 {
+		x, err := New(term, s, nil)
+		require.NoError(t, err)
+		res := int32(x.nStaff)
+		if !x.pullTo(0, res, 0, 0, x.busyMask[res*int32(x.nDays)], rng) {
+			continue
+		}
+		o := x.chs[0].m
+		require.True(t, x.apply(x.chs, rng, nil), "the pull is legal here")
+		pulled++
+		requireSameCost(t, x, nil, pulled)
+		require.True(t, term.Consecutive(0, int(x.mt[o].p)), "meeting %d was pulled to period %d, not beside A", o, x.mt[o].p)
+		if timetable.Cost(term, x.Schedule(), nil).Criterion(timetable.CritCohortIsolated).Count == 0 {
+			compact++
+		}
+	}
+	t.Logf("%d pulls, %d leave no isolated period", pulled, compact)
+	require.Positive(t, pulled)
+	require.Positive(t, compact)
 }
