@@ -65,26 +65,15 @@ func (x *State) dayMask(res, d, m int32) uint64 {
 	return b
 }
 
-// aimIsolated finds a movable meeting at an isolated period of one of its
-// cohorts and moves it to a free period of that cohort next to one of the
+// aimIsolated finds a meeting at an isolated period of one of its cohorts
+// (findIsolated; given up when it may not move) and moves it to a free period of that cohort next to one of the
 // cohort's other busy periods (on any day but those keepDays excludes).
 func (x *State) aimIsolated(rng *rand.Rand) bool {
-	for range aimTries {
-		m := x.movable[rng.IntN(len(x.movable))]
-		mt := &x.mt[m]
-		in := &x.secs[mt.sec]
-		d := x.dayNo[mt.p]
-		c := x.dayCons[d]
-		bit := uint(mt.p - x.dayFirst[mt.p])
-		for _, res := range in.people[len(in.staff):] {
-			b := x.busyMask[res*int32(x.nDays)+d]
-			linked := (b<<1)&c | (b&c)>>1
-			if (b&^linked)>>bit&1 == 1 {
-				return x.nextTo(m, res, x.keepDays(m), rng)
-			}
-		}
+	m, res, _, _ := x.findIsolated(rng)
+	if m < 0 || x.mt[m].fixedT || len(x.secs[x.mt[m].sec].starts) < 2 {
+		return false
 	}
-	return false
+	return x.nextTo(m, res, x.keepDays(m), rng)
 }
 
 // nextTo moves meeting m to a free period of person res adjacent to one

@@ -7,9 +7,9 @@ import (
 
 // proposeShift fills x.chs with a move aimed at a cohort's isolated
 // period that moves other meetings to it, where the aimed move (aimed.go)
-// moves the isolated meeting away: it draws meetings (at most aimTries,
-// movable or not) until one sits at an isolated period of one of its
-// cohorts, then, half each, either takes the run of that cohort's
+// moves the isolated meeting away: it finds a meeting, movable or not, at
+// an isolated period of one of its cohorts (findIsolated), then, half
+// each, either takes the run of that cohort's
 // consecutive busy periods nearest to it on the same day (before or after,
 // half each when both exist) and shifts every meeting of the run by the
 // same number of periods so that the run ends just beside the isolated
@@ -23,35 +23,57 @@ func (x *State) proposeShift(rng *rand.Rand) bool {
 	if !x.useMasks || len(x.movable) == 0 || x.weight[cCohortIsolated] <= 0 || x.cur.w[cCohortIsolated] <= 0 {
 		return false
 	}
-	// The isolated meeting itself is drawn among all meetings: when it
-	// may not move (fixed, a single start), the run can still come to it.
-	for range aimTries {
-		m := int32(rng.IntN(len(x.mt)))
-		mt := &x.mt[m]
-		in := &x.secs[mt.sec]
-		d := x.dayNo[mt.p]
-		c := x.dayCons[d]
-		bit := uint(mt.p - x.dayFirst[mt.p])
-		cohorts := in.people[len(in.staff):]
-		if len(cohorts) == 0 {
+	// The isolated meeting may itself be unable to move (fixed, a single
+	// start): the run or the pulled meeting can still come to it.
+	m, res, d, bit := x.findIsolated(rng)
+	if m < 0 {
+		return false
+	}
+	b := x.busyMask[res*int32(x.nDays)+d]
+	if rng.IntN(2) == 0 {
+		return x.pullTo(m, res, d, bit, b, rng)
+	}
+	return x.shiftRun(m, res, d, bit, b, rng)
+}
+
+// findIsolated returns a meeting m at an isolated busy period of cohort
+// resource res on day d (bit bit of its busy mask), found by scanning the
+// cohort-days cyclically from a random one and drawing uniformly among the
+// isolated periods of the first that has any; m is -1 when there is none
+// (or no meeting starts there). With k isolated cohort-days among n the
+// scan reads about n/k busy masks, far fewer draws than sampling meetings
+// when few are isolated.
+func (x *State) findIsolated(rng *rand.Rand) (m, res, d int32, bit uint) {
+	nd := int32(x.nDays)
+	n := int32(x.nCohort) * nd
+	if n == 0 {
+		return -1, 0, 0, 0
+	}
+	k0 := int32(rng.IntN(int(n)))
+	for i := range n {
+		k := k0 + i
+		if k >= n {
+			k -= n
+		}
+		res, d = int32(x.nStaff)+k/nd, k%nd
+		b, c := x.busyMask[res*nd+d], x.dayCons[d]
+		iso := b &^ ((b<<1)&c | (b&c)>>1)
+		if iso == 0 {
 			continue
 		}
-		// Start from a random cohort so that every cohort of a shared
-		// section gets its turn.
-		off := rng.IntN(len(cohorts))
-		for i := range cohorts {
-			res := cohorts[(off+i)%len(cohorts)]
-			b := x.busyMask[res*int32(x.nDays)+d]
-			linked := (b<<1)&c | (b&c)>>1
-			if (b&^linked)>>bit&1 == 1 {
-				if rng.IntN(2) == 0 {
-					return x.pullTo(m, res, d, bit, b, rng)
-				}
-				return x.shiftRun(m, res, d, bit, b, rng)
+		for j := rng.IntN(bits.OnesCount64(iso)); j > 0; j-- {
+			iso &= iso - 1
+		}
+		bit = uint(bits.TrailingZeros64(iso))
+		q := x.dayStart[d] + int32(bit)
+		for _, o := range x.occ[res*int32(x.np)+q] {
+			if x.mt[o].p == q {
+				return o, res, d, bit
 			}
 		}
+		return -1, 0, 0, 0
 	}
-	return false
+	return -1, 0, 0, 0
 }
 
 // shiftRun moves the run of person res's busy periods nearest to bit
@@ -156,20 +178,32 @@ func (x *State) pullTo(m, res, d int32, bit uint, b uint64, rng *rand.Rand) bool
 	}
 	before := canBefore && (!canAfter || rng.IntN(2) == 0)
 	np := int32(x.np)
-	o, seen := int32(-1), 0
+	pullable := func(y, q int32) bool {
+		my := &x.mt[y]
+		return my.p == q && y != m && !my.fixedT && len(x.secs[my.sec].starts) > 1
+	}
+	n := 0 // two passes: count, then take the k-th (one draw, no allocation)
 	for q := range np {
 		for _, y := range x.occ[res*np+q] {
-			my := &x.mt[y]
-			if my.p != q || y == m || my.fixedT || len(x.secs[my.sec].starts) < 2 {
-				continue
-			}
-			if seen++; rng.IntN(seen) == 0 {
-				o = y
+			if pullable(y, q) {
+				n++
 			}
 		}
 	}
-	if o < 0 {
+	if n == 0 {
 		return false
+	}
+	k, o := rng.IntN(n), int32(-1)
+	for q := int32(0); q < np && o < 0; q++ {
+		for _, y := range x.occ[res*np+q] {
+			if pullable(y, q) {
+				if k == 0 {
+					o = y
+					break
+				}
+				k--
+			}
+		}
 	}
 	p := start + int32(after)
 	if before {
