@@ -36,9 +36,12 @@ func (x *State) proposeShift(rng *rand.Rand) bool {
 	return x.shiftRun(m, res, d, bit, b, rng)
 }
 
+// isoScan bounds the cohort-days findIsolated reads in one call.
+const isoScan = 512
+
 // findIsolated returns a meeting m at an isolated busy period of cohort
-// resource res on day d (bit bit of its busy mask), found by scanning the
-// cohort-days cyclically from a random one and drawing uniformly among the
+// resource res on day d (bit bit of its busy mask), found by scanning up
+// to isoScan cohort-days cyclically from a random one and drawing uniformly among the
 // isolated periods of the first that has any; m is -1 when there is none
 // (or no meeting starts there). With k isolated cohort-days among n the
 // scan reads about n/k busy masks, far fewer draws than sampling meetings
@@ -50,7 +53,7 @@ func (x *State) findIsolated(rng *rand.Rand) (m, res, d int32, bit uint) {
 		return -1, 0, 0, 0
 	}
 	k0 := int32(rng.IntN(int(n)))
-	for i := range n {
+	for i := range min(n, isoScan) {
 		k := k0 + i
 		if k >= n {
 			k -= n
@@ -180,7 +183,7 @@ func (x *State) pullTo(m, res, d int32, bit uint, b uint64, rng *rand.Rand) bool
 	np := int32(x.np)
 	pullable := func(y, q int32) bool {
 		my := &x.mt[y]
-		return my.p == q && y != m && !my.fixedT && len(x.secs[my.sec].starts) > 1
+		return my.p == q && y != m && x.movableAt(y)
 	}
 	n := 0 // two passes: count, then take the k-th (one draw, no allocation)
 	for q := range np {

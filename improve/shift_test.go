@@ -2,6 +2,7 @@ package improve
 
 import (
 	"fmt"
+	"math/bits"
 	"math/rand/v2"
 	"testing"
 	"time"
@@ -188,4 +189,46 @@ func TestPullFindsCompactDay(t *testing.T) {
 	t.Logf("%d pulls, %d leave no isolated period", pulled, compact)
 	require.Positive(t, pulled)
 	require.Positive(t, compact)
+}
+
+// TestFindShortFindsSpreadCost checks the spread aim's search against the
+// term's own definitions: after a random walk that leaves sections on too
+// few days (timetable.Cost counts spread days), every meeting findShort
+// returns belongs to a section meeting on fewer distinct days
+// (timetable.Period.Day) than its MinDays, shares its day with another
+// meeting of that section and may move, and the day mask returned is the
+// section's days.
+func TestFindShortFindsSpreadCost(t *testing.T) {
+	term, wit := samples.GenerateWithWitness(samples.DemoConfig)
+	x, err := New(term, wit, nil)
+	require.NoError(t, err)
+	rng := rand.New(rand.NewPCG(4, 2))
+	for step := 0; step < 3000; step++ {
+		if x.propose(rng.IntN(mvAimed), rng) {
+			x.apply(x.chs, rng, nil)
+		}
+	}
+	s := x.Schedule()
+	require.Positive(t, timetable.Cost(term, s, nil).Criterion(timetable.CritSpreadDays).Count, "the walk left no section on too few days")
+	found := 0
+	for range 200 {
+		m, days := x.findShort(rng)
+		if m < 0 {
+			continue
+		}
+		found++
+		pl := s.Placements[m]
+		sec := term.Sections[term.SectionIndex()[pl.Section]]
+		seen := map[time.Weekday]int{}
+		for _, o := range s.Placements {
+			if o.Section == pl.Section {
+				seen[term.Periods[o.Period].Day]++
+			}
+		}
+		require.Less(t, len(seen), sec.MinDays, "section %s is not short of days", sec.ID)
+		require.GreaterOrEqual(t, seen[term.Periods[pl.Period].Day], 2, "meeting %d does not share its day", m)
+		require.Len(t, seen, bits.OnesCount64(days))
+		require.True(t, x.movableAt(m))
+	}
+	require.Positive(t, found)
 }
