@@ -65,35 +65,28 @@ func (x *State) dayMask(res, d, m int32) uint64 {
 	return b
 }
 
-// aimIsolated finds a movable meeting at an isolated period of one of its
-// cohorts and moves it to a free period of that cohort next to one of the
-// cohort's other busy periods (on any day).
+// aimIsolated finds a meeting at an isolated period of one of its cohorts
+// (findIsolated; given up when it may not move) and moves it to a free period of that cohort next to one of the
+// cohort's other busy periods (on any day but those keepDays excludes).
 func (x *State) aimIsolated(rng *rand.Rand) bool {
-	for range aimTries {
-		m := x.movable[rng.IntN(len(x.movable))]
-		mt := &x.mt[m]
-		in := &x.secs[mt.sec]
-		d := x.dayNo[mt.p]
-		c := x.dayCons[d]
-		bit := uint(mt.p - x.dayFirst[mt.p])
-		for _, res := range in.people[len(in.staff):] {
-			b := x.busyMask[res*int32(x.nDays)+d]
-			linked := (b<<1)&c | (b&c)>>1
-			if (b&^linked)>>bit&1 == 1 {
-				return x.nextTo(m, res, rng)
-			}
-		}
+	m, res, _, _ := x.findIsolated(rng)
+	if m < 0 || !x.movableAt(m) {
+		return false
 	}
-	return false
+	return x.nextTo(m, res, x.keepDays(m), rng)
 }
 
 // nextTo moves meeting m to a free period of person res adjacent to one
-// of res's busy periods without m: drawn uniformly among all such periods
-// of the week (two passes over the days, no allocation).
-func (x *State) nextTo(m, res int32, rng *rand.Rand) bool {
+// of res's busy periods without m, on a day not in skip (a day bit mask):
+// drawn uniformly among all such periods of the week (two passes over the
+// days, no allocation).
+func (x *State) nextTo(m, res int32, skip uint64, rng *rand.Rand) bool {
 	in := &x.secs[x.mt[m].sec]
 	total := 0
 	for d := range int32(x.nDays) {
+		if skip>>d&1 == 1 {
+			continue
+		}
 		b, c := x.dayMask(res, d, m), x.dayCons[d]
 		total += bits.OnesCount64(((b<<1)&c | (b&c)>>1) &^ b)
 	}
@@ -102,6 +95,9 @@ func (x *State) nextTo(m, res int32, rng *rand.Rand) bool {
 	}
 	k := rng.IntN(total)
 	for d := range int32(x.nDays) {
+		if skip>>d&1 == 1 {
+			continue
+		}
 		b, c := x.dayMask(res, d, m), x.dayCons[d]
 		after := (b << 1) & c &^ b
 		adj := after | (b&c)>>1&^b
@@ -120,6 +116,29 @@ func (x *State) nextTo(m, res int32, rng *rand.Rand) bool {
 		return x.moveTo(m, p, rng)
 	}
 	return false
+}
+
+// keepDays is the mask of days meeting m should not move to because its
+// section would then meet on fewer days than its minimum: the days of the
+// section's other meetings, when leaving m's day would cost spread days;
+// 0 otherwise (masks in use, at most 64 days).
+func (x *State) keepDays(m int32) uint64 {
+	mt := &x.mt[m]
+	sec := &x.t.Sections[mt.sec]
+	if !sec.SameDay || sec.MinDays <= 0 || x.weight[cSpread] <= 0 {
+		return 0
+	}
+	var others uint64
+	for _, o := range x.bySec[mt.sec] {
+		if o != m {
+			others |= 1 << x.dayNo[x.mt[o].p]
+		}
+	}
+	own := uint64(1) << x.dayNo[mt.p]
+	if others&own != 0 || bits.OnesCount64(others|own) > sec.MinDays {
+		return 0 // m's day is shared, or a day to spare: moving costs nothing
+	}
+	return others
 }
 
 // moveTo fills x.chs with meeting m moved to start p: a Kempe chain or a
@@ -142,35 +161,85 @@ func (x *State) moveTo(m, p int32, rng *rand.Rand) bool {
 }
 
 // aimSpread finds a movable meeting of a section that meets on fewer days
-// than it should and shares its day with another meeting of the section,
-// and moves it to a start on a day the section does not meet on.
+// than it should and shares its day with another meeting of the section
+// (findShort), and moves it to a start on a day the section does not meet
+// on (half the time one beside a busy period of one of its cohorts).
 func (x *State) aimSpread(rng *rand.Rand) bool {
-	for range aimTries {
-		m := x.movable[rng.IntN(len(x.movable))]
-		mt := &x.mt[m]
-		sec := &x.t.Sections[mt.sec]
-		if !sec.SameDay || sec.MinDays <= 0 {
-			continue
-		}
-		var days uint64
-		shared := false
-		for _, o := range x.bySec[mt.sec] {
-			d := x.dayNo[x.mt[o].p]
-			shared = shared || (o != m && d == x.dayNo[mt.p])
-			days |= 1 << d
-		}
-		if !shared || bits.OnesCount64(days) >= sec.MinDays {
-			continue
-		}
-		in := &x.secs[mt.sec]
-		for range aimTries {
-			if p := in.starts[rng.IntN(len(in.starts))]; days>>x.dayNo[p]&1 == 0 {
-				return x.moveTo(m, p, rng)
-			}
-		}
+	m, days := x.findShort(rng)
+	if m < 0 {
 		return false
 	}
+	in := &x.secs[x.mt[m].sec]
+	// Half the time, beside a busy period of one of its cohorts on such a
+	// day, so that the new day does not isolate the meeting.
+	if cohorts := in.people[len(in.staff):]; x.useMasks && len(cohorts) > 0 && rng.IntN(2) == 0 {
+		return x.nextTo(m, cohorts[rng.IntN(len(cohorts))], days, rng)
+	}
+	for range aimTries {
+		if p := in.starts[rng.IntN(len(in.starts))]; days>>x.dayNo[p]&1 == 0 {
+			return x.moveTo(m, p, rng)
+		}
+	}
 	return false
+}
+
+// shortScan bounds the sections findShort reads in one call.
+const shortScan = 64
+
+// findShort scans up to shortScan sections cyclically from a random one
+// for a section on fewer days than its minimum with a movable meeting
+// sharing its day with another of the section's meetings, and returns
+// such a meeting (drawn uniformly among the section's) and the section's
+// day mask; m is -1 when none was found.
+func (x *State) findShort(rng *rand.Rand) (m int32, days uint64) {
+	n := len(x.secs)
+	k0 := rng.IntN(n)
+	for i := range min(n, shortScan) {
+		si := k0 + i
+		if si >= n {
+			si -= n
+		}
+		sec := &x.t.Sections[si]
+		ms := x.bySec[si]
+		if !sec.SameDay || sec.MinDays <= 0 || len(ms) < 2 {
+			continue
+		}
+		var twice uint64 // days holding two or more of the section's meetings
+		days = 0
+		for _, o := range ms {
+			d := uint64(1) << x.dayNo[x.mt[o].p]
+			twice |= days & d
+			days |= d
+		}
+		if bits.OnesCount64(days) >= sec.MinDays {
+			continue
+		}
+		cand := 0
+		for _, o := range ms {
+			if x.movableAt(o) && twice>>x.dayNo[x.mt[o].p]&1 == 1 {
+				cand++
+			}
+		}
+		if cand == 0 {
+			continue
+		}
+		k := rng.IntN(cand)
+		for _, o := range ms {
+			if x.movableAt(o) && twice>>x.dayNo[x.mt[o].p]&1 == 1 {
+				if k == 0 {
+					return o, days
+				}
+				k--
+			}
+		}
+	}
+	return -1, 0
+}
+
+// movableAt reports whether meeting m's time may change (not fixed, more
+// than one start), as for the meetings in x.movable.
+func (x *State) movableAt(m int32) bool {
+	return !x.mt[m].fixedT && len(x.secs[x.mt[m].sec].starts) > 1
 }
 
 // aimStability finds a meeting whose section uses another room besides

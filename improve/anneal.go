@@ -182,7 +182,7 @@ const (
 )
 
 // moveMix is the share of each move kind, in per mille.
-var moveMix = [nMoves]int{mvRelocate: 200, mvRoom: 200, mvSwap: 300, mvKempe: 100, mvSectionRoom: 50, mvAimed: 150}
+var moveMix = [nMoves]int{mvRelocate: 200, mvRoom: 200, mvSwap: 300, mvKempe: 100, mvSectionRoom: 50, mvAimed: 100, mvShift: 50}
 
 func newAnnealer(x *State, opts Options) *annealer {
 	seed := opts.Seed

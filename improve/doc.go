@@ -45,7 +45,12 @@
 // a section on too few days, a section in several rooms) and moves it where
 // that cost goes (beside the cohort's other meetings, to a free day, into
 // a room the section already uses, at its time or at a time that room is
-// free).
+// free); the isolated periods and short sections it aims at are found by
+// scanning cohort-days and sections from a random one. A shift move
+// (shift.go) brings the cohort's other meetings to an isolated period
+// instead: the nearest run of the cohort's consecutive meetings that day
+// shifted as a block to end beside it, or one other meeting of the cohort
+// pulled beside it.
 //
 // Search (anneal.go): Run is simulated annealing (Kirkpatrick, Gelatt,
 // Vecchi 1983) with a measured starting temperature, geometric cooling, a

@@ -10,11 +10,12 @@ const (
 	mvSectionRoom        // every meeting of a section into one room
 	mvSwap               // two meetings exchange their starts and rooms
 	mvAimed              // a move aimed at a meeting that carries cost (aimed.go)
+	mvShift              // a cohort's run of meetings shifted beside its isolated period (shift.go)
 	nMoves
 )
 
 // moveNames names the kinds for reports.
-var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room", "swap", "aimed"}
+var moveNames = [nMoves]string{"relocate", "room", "kempe", "section room", "swap", "aimed", "shift"}
 
 // maxChain bounds a Kempe chain; longer chains are refused.
 const maxChain = 48
@@ -36,6 +37,8 @@ func (x *State) propose(k int, rng *rand.Rand) bool {
 		return x.proposeSwap(rng)
 	case mvAimed:
 		return x.proposeAimed(rng)
+	case mvShift:
+		return x.proposeShift(rng)
 	}
 	return false
 }
