@@ -100,7 +100,9 @@ type Result struct {
 // Run improves schedule s of term t by simulated annealing (Kirkpatrick,
 // Gelatt, Vecchi 1983) over legal moves (relocations and swaps, room
 // changes, Kempe chains after Thompson and Dowsland 1998, one room per
-// section), with exact incremental cost. Levels are kept lexicographic:
+// section, moves aimed at a meeting that carries cost, and shifts that
+// bring a cohort's meetings beside an isolated period), with exact
+// incremental cost, on Options.Workers cores. Levels are kept lexicographic:
 // a move may worsen a level only while it and every level above are
 // annealed (the highest level with cost and those below), never one
 // already at zero. When the temperature falls below MinTemp the search
