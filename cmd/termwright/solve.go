@@ -444,7 +444,7 @@ func solvePrintTimes(w io.Writer, rep solveReport) {
 		msText(tm.Total), msText(tm.Read), msText(tm.SearchWall), msText(tm.Write))
 	summed := ""
 	if rep.Threads > 1 {
-		summed = fmt.Sprintf("; each is summed over the %d parallel searches", rep.Threads)
+		summed = fmt.Sprintf("; each is summed over the searches the %d threads ran", rep.Threads)
 	}
 	fmt.Fprintf(w, "  Inside compile and search: compile %s, engine %s, verify %s, decode and rooms %s, check %s (these overlap: most timetables are verified, decoded and checked while the engine searches%s).\n",
 		msText(tm.Compile), msText(tm.Search), msText(tm.Verify), msText(tm.Decode), msText(tm.Check), summed)
