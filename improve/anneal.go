@@ -296,7 +296,6 @@ func better(c, b []int64) bool {
 
 // run anneals until ctx is done or MaxMoves is reached.
 func (a *annealer) run(ctx context.Context) {
-	x := a.x
 	t0 := a.opts.InitialTemp
 	if t0 == 0 {
 		began := time.Now()
@@ -336,22 +335,9 @@ func (a *annealer) run(ctx context.Context) {
 			a.st.Optimal = true // no cost is below zero: nothing left to find
 			break
 		}
-		k := a.pick()
-		a.st.Tried++
-		a.kinds[k].Tried++
-		if x.propose(k, a.rng) {
-			legal := false
-			ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) && a.posted() })
-			if legal {
-				a.st.Legal++
-				a.kinds[k].Legal++
-			}
-			if ok {
-				a.st.Accepted++
-				a.kinds[k].Accepted++
-				a.moved()
-				acc++
-			}
+		if a.try() {
+			a.moved()
+			acc++
 		}
 		if step++; step >= a.steps || float64(acc) >= a.opts.AcceptShare*float64(a.steps) {
 			step, acc = 0, 0
@@ -373,10 +359,33 @@ func (a *annealer) run(ctx context.Context) {
 	}
 }
 
-// posted reports whether the leader may keep its accepted move: always
-// when alone, else when no other worker's move came first (post).
+// try draws one move, applies it when it is legal and the annealing rule
+// accepts it, and counts it; it reports whether the move was kept.
+func (a *annealer) try() bool {
+	x := a.x
+	k := a.pick()
+	a.st.Tried++
+	a.kinds[k].Tried++
+	if !x.propose(k, a.rng) {
+		return false
+	}
+	legal := false
+	ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) && a.posted() })
+	if legal {
+		a.st.Legal++
+		a.kinds[k].Legal++
+	}
+	if ok {
+		a.st.Accepted++
+		a.kinds[k].Accepted++
+	}
+	return ok
+}
+
+// posted reports whether a worker may keep its accepted move: always when
+// alone, else when no other worker's move came first (post).
 func (a *annealer) posted() bool {
-	return a.team == nil || a.team.post(0, a.x, a.x.chs)
+	return a.team == nil || a.team.post(a.id, a.x, a.x.chs)
 }
 
 // zero reports whether the best timetable costs nothing on any level and

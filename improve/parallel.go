@@ -236,21 +236,7 @@ func (a *annealer) help() {
 			continue
 		}
 		a.temp = math.Float64frombits(tm.temp.Load())
-		k := a.pick()
-		a.st.Tried++
-		a.kinds[k].Tried++
-		if !x.propose(k, a.rng) {
-			continue
-		}
-		legal := false
-		ok := x.apply(x.chs, a.rng, func(d *tally) bool { legal = true; return a.accept(d) && tm.post(a.id, x, x.chs) })
-		if legal {
-			a.st.Legal++
-			a.kinds[k].Legal++
-		}
-		if ok {
-			a.st.Accepted++
-			a.kinds[k].Accepted++
+		if a.try() {
 			x.levelCosts(&x.cur, a.curCost)
 		}
 	}
