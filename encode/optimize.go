@@ -47,7 +47,7 @@ type OptimizeOptions struct {
 	Horizon int
 	// LocalShare is the share of the time left that each local-search run
 	// (package improve) takes when ctx has a deadline; 0 means
-	// DefaultLocalShare divided by LocalWorkers (defaultShare), negative
+	// DefaultLocalShare, less with several LocalWorkers (defaultShare), negative
 	// skips local search.
 	LocalShare float64
 	// LocalWorkers is the number of goroutines (cores) each local-search
