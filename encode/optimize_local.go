@@ -48,8 +48,9 @@ const (
 // costs more moves in its time, so a run takes DefaultLocalShare divided
 // by the square root of workers (0.49 for two) and the time saved goes to
 // the runs after it. Measured on the 2,000-section term (BENCHMARKS §1j):
-// with two workers a share of 0.7 ended worse than one worker, 0.35 no
-// better than one worker but sooner, 0.49 both lower and sooner.
+// with two workers a share of 0.7 ended worse than one worker (one run),
+// 0.35 at like costs sooner, 0.49 at lower costs (median of three runs)
+// sooner.
 func defaultShare(workers int) float64 {
 	return DefaultLocalShare / math.Sqrt(float64(max(workers, 1)))
 }
