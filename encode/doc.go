@@ -236,7 +236,9 @@
 // solver.Verify, the timetable with its own rooms timetable.Check, and the
 // model's cost must equal the timetable's time cost (the third gate); a
 // timetable the program refuses is not adopted. With a deadline each run
-// takes LocalShare of the time left; without one, a move budget.
+// takes LocalShare of the time left; without one, a move budget. A
+// warm-up run keeps improve's growing cooling cycles (early results);
+// every later run cools once over its whole time (longRunCycles).
 //
 // All budgets count conflicts or moves, so a one-thread run without a
 // deadline that ends by itself (proof, stall after Horizon restarts or

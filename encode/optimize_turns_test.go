@@ -94,3 +94,19 @@ func TestLNSOnly(t *testing.T) {
 		assert.Equal(t, c.want, c.p.lnsOnly(), "%+v", c.p)
 	}
 }
+
+// A warm-up round's local-search run keeps improve's growing cycles (early
+// results); every later run cools once over its whole time.
+func TestLocalOptionsCycles(t *testing.T) {
+	o := &optRun{res: &OptimizeResult{}, opt: OptimizeOptions{Seed: 3, LocalWorkers: 2}}
+	o.turns.warm = true
+	warm := o.localOptions()
+	assert.Zero(t, warm.CycleShare, "warm-up: growing cycles")
+	assert.Equal(t, uint64(3), warm.Seed)
+	assert.Equal(t, 2, warm.Workers)
+	o.turns.warm = false
+	o.res.Local.Runs = 1
+	long := o.localOptions()
+	assert.Equal(t, longRunCycles, long.CycleShare, "after the warm-up: one cycle")
+	assert.Equal(t, uint64(4), long.Seed, "each run its own stream")
+}
