@@ -85,9 +85,7 @@ func TestITC2007(t *testing.T) {
 		res, err := improve.Run(ctx, term, start, nil, improve.Options{Seed: seed, CycleShare: share, OnBest: func(*timetable.Schedule, timetable.CostReport) { bestAt = time.Since(t0) }})
 		cancel()
 		require.NoError(t, err)
-		require.Zero(t, benchfmt.CTTHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
-		cost, parts := benchfmt.CTTCost(term, res.Best)
-		require.Equal(t, int64(cost), res.Cost.ByLevel[1]+res.Cost.ByLevel[0], "%s: termwright's cost differs from the competition's", name)
+		cost, parts := competitionCost(t, name, term, res)
 		b := best[name].Best
 		ratio := float64(cost+1) / float64(b+1)
 		logSum += math.Log(ratio)
@@ -101,6 +99,63 @@ func TestITC2007(t *testing.T) {
 		"instance  start   cost   best (c+1)/(b+1) cap/mwd/compact/stab    best at  tried/s  accepted/s\n%s\n"+
 		"geometric mean of (cost+1)/(best+1): %.2f, of cost/best: %.2f, over %d instances",
 		limit, seed, strings.Join(rows, "\n"), math.Exp(logSum/float64(n)), math.Exp(logPlain/float64(n)), n)
+}
+
+// competitionCost checks a run's best timetable against the competition's
+// own hard constraints and cost (benchfmt.CTTHardViolations and
+// benchfmt.CTTCost, after Di Gaspero, McCollum, Schaerf 2007) and returns
+// that cost and its parts; termwright's running cost must agree.
+func competitionCost(t *testing.T, name string, term *timetable.Term, res improve.Result) (int, benchfmt.CTTParts) {
+	t.Helper()
+	require.Zero(t, benchfmt.CTTHardViolations(term, res.Best).Total(), "%s breaks the competition's hard constraints", name)
+	cost, parts := benchfmt.CTTCost(term, res.Best)
+	require.Equal(t, int64(cost), res.Cost.ByLevel[1]+res.Cost.ByLevel[0], "%s: termwright's cost differs from the competition's", name)
+	return cost, parts
+}
+
+// TestITC2007Moves runs the annealer on the instances in
+// IMPROVE_ITC_ONLY (default comp01–comp07) with a budget of
+// IMPROVE_ITC_MOVES tried moves per run (skipped without it), once per
+// seed in IMPROVE_ITC_SEEDS (default "1 2 3 4"), from the engine's first
+// timetable, and prints each cost and the mean per instance. A move budget
+// makes a run depend only on the term, the start and the seed, not on the
+// machine's load, so two variants can be compared on a busy machine;
+// IMPROVE_SHARE, IMPROVE_ACCEPT and IMPROVE_COOLING set Options.CycleShare,
+// AcceptShare and Cooling (0: the defaults). No timing is asserted.
+func TestITC2007Moves(t *testing.T) {
+	moves, err := strconv.ParseInt(os.Getenv("IMPROVE_ITC_MOVES"), 10, 64)
+	if err != nil || moves <= 0 {
+		t.Skip("set IMPROVE_ITC_MOVES to a move budget per run (e.g. 40000000) to run the ITC-2007 measurement")
+	}
+	share, _ := strconv.ParseFloat(os.Getenv("IMPROVE_SHARE"), 64)
+	accept, _ := strconv.ParseFloat(os.Getenv("IMPROVE_ACCEPT"), 64)
+	cooling, _ := strconv.ParseFloat(os.Getenv("IMPROVE_COOLING"), 64)
+	names := strings.Fields(os.Getenv("IMPROVE_ITC_ONLY"))
+	if len(names) == 0 {
+		names = itcInstances
+	}
+	seeds := strings.Fields(os.Getenv("IMPROVE_ITC_SEEDS"))
+	if len(seeds) == 0 {
+		seeds = []string{"1", "2", "3", "4"}
+	}
+	var rows []string
+	for _, name := range names {
+		term := readITC(t, name)
+		start := firstTimetable(t, term)
+		row, sum := fmt.Sprintf("%-7s", name), 0
+		for _, s := range seeds {
+			seed, err := strconv.ParseUint(s, 10, 64)
+			require.NoError(t, err, "IMPROVE_ITC_SEEDS")
+			res, err := improve.Run(context.Background(), term, start, nil, improve.Options{Seed: seed, MaxMoves: moves, CycleShare: share, AcceptShare: accept, Cooling: cooling})
+			require.NoError(t, err)
+			cost, _ := competitionCost(t, name, term, res)
+			sum += cost
+			row += fmt.Sprintf(" %5d", cost)
+		}
+		rows = append(rows, fmt.Sprintf("%s   mean %.2f", row, float64(sum)/float64(len(seeds))))
+	}
+	t.Logf("ITC-2007, %d moves per run, cycle share %v, accept share %v, cooling %v, seeds %v, from encode.Solve's first timetable\n%s",
+		moves, share, accept, cooling, seeds, strings.Join(rows, "\n"))
 }
 
 // BenchmarkMovesITC measures the annealer's moves per second on comp07
