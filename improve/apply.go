@@ -30,30 +30,10 @@ func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bo
 
 // commit is apply after the blocked check, on a fresh stamp.
 func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
-	x.touchSec, x.touchPD, x.touchRel = x.touchSec[:0], x.touchPD[:0], x.touchRel[:0]
-	np := int32(x.np)
-	for _, ch := range chs {
-		mt := &x.mt[ch.m]
-		si := mt.sec
-		if x.markSec[si] != x.stamp {
-			x.markSec[si] = x.stamp
-			x.touchSec = append(x.touchSec, si)
-			for _, ri := range x.secs[si].rels {
-				if x.markRel[ri] != x.stamp {
-					x.markRel[ri] = x.stamp
-					x.touchRel = append(x.touchRel, ri)
-				}
-			}
-		}
-		for _, res := range x.secs[si].people {
-			for _, d := range [2]int32{x.dayFirst[mt.p], x.dayFirst[ch.p]} {
-				if k := res*np + d; x.markPD[k] != x.stamp {
-					x.markPD[k] = x.stamp
-					x.touchPD = append(x.touchPD, k)
-				}
-			}
-		}
+	if x.roomOnly(chs) {
+		return x.commitRooms(chs, accept)
 	}
+	x.markTouched(chs)
 	var before tally
 	x.touched(&before)
 	base := x.cur
@@ -79,17 +59,59 @@ func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) b
 		x.undo(placed, base)
 		return false
 	}
-	var after tally
-	x.touched(&after)
-	x.cur.plus(&after)
-	x.cur.minus(&before)
-	delta := x.cur
-	delta.minus(&base)
-	if accept != nil && !accept(&delta) {
+	if !x.decide(&before, &base, accept) {
 		x.undo(placed, base)
 		return false
 	}
 	return true
+}
+
+// decide adds to the running cost the touched criteria after the move
+// less before (the running cost was base when the move began), puts the
+// difference in x.delta and reports whether accept (nil: always) keeps
+// the move.
+func (x *State) decide(before, base *tally, accept func(delta *tally) bool) bool {
+	var after tally
+	x.touched(&after)
+	x.cur.plus(&after)
+	x.cur.minus(before)
+	x.delta = x.cur
+	x.delta.minus(base)
+	return accept == nil || accept(&x.delta)
+}
+
+// markTouched lists the sections, person-days and relations whose
+// criteria move chs can change, on the current stamp.
+func (x *State) markTouched(chs []change) {
+	x.touchSec, x.touchPD, x.touchRel = x.touchSec[:0], x.touchPD[:0], x.touchRel[:0]
+	np := int32(x.np)
+	for _, ch := range chs {
+		mt := &x.mt[ch.m]
+		si := mt.sec
+		if x.markSec[si] != x.stamp {
+			x.markSec[si] = x.stamp
+			x.touchSec = append(x.touchSec, si)
+			for _, ri := range x.secs[si].rels {
+				if x.markRel[ri] != x.stamp {
+					x.markRel[ri] = x.stamp
+					x.touchRel = append(x.touchRel, ri)
+				}
+			}
+		}
+		if ch.p == mt.p && !x.anyBld {
+			// Same start: its people's busy periods do not change, and
+			// without buildings their days' criteria depend on nothing else.
+			continue
+		}
+		for _, res := range x.secs[si].people {
+			for _, d := range [2]int32{x.dayFirst[mt.p], x.dayFirst[ch.p]} {
+				if k := res*np + d; x.markPD[k] != x.stamp {
+					x.markPD[k] = x.stamp
+					x.touchPD = append(x.touchPD, k)
+				}
+			}
+		}
+	}
 }
 
 // blocked reports, before anything is lifted or costed, whether some

@@ -23,12 +23,8 @@ func (x *State) insert(m, p, r int32) {
 				x.busyMask[res*int32(x.nDays)+x.dayNo[q]] |= 1 << (q - x.dayFirst[q])
 			}
 		}
-		if r >= 0 {
-			k := x.roomRes(r)*np + q
-			x.occ[k] = append(x.occ[k], m)
-			x.cur.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
-		}
 	}
+	x.holdRoom(m, p, r)
 	x.meetingLocal(m, 1)
 }
 
@@ -54,18 +50,41 @@ func (x *State) remove(m int32) {
 				x.busyMask[res*int32(x.nDays)+x.dayNo[q]] &^= 1 << (q - x.dayFirst[q])
 			}
 		}
-		if r >= 0 {
-			k := x.roomRes(r)*np + q
-			x.occ[k] = drop(x.occ[k], m)
-			x.cur.add(cAvoid, -x.roomAvU[r*np+q], -x.roomAvW[r*np+q])
-		}
 	}
+	x.freeRoom(m, p, r)
 	mt.p, mt.r = -1, -1
 }
 
+// holdRoom adds meeting m starting at p to room r's occupancy (nothing
+// when r is -1) with the room's avoid-times hits.
+func (x *State) holdRoom(m, p, r int32) {
+	if r < 0 {
+		return
+	}
+	np := int32(x.np)
+	for q := p; q < p+int32(x.secs[x.mt[m].sec].length); q++ {
+		k := x.roomRes(r)*np + q
+		x.occ[k] = append(x.occ[k], m)
+		x.cur.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
+	}
+}
+
+// freeRoom takes out what holdRoom added.
+func (x *State) freeRoom(m, p, r int32) {
+	if r < 0 {
+		return
+	}
+	np := int32(x.np)
+	for q := p; q < p+int32(x.secs[x.mt[m].sec].length); q++ {
+		k := x.roomRes(r)*np + q
+		x.occ[k] = drop(x.occ[k], m)
+		x.cur.add(cAvoid, -x.roomAvU[r*np+q], -x.roomAvW[r*np+q])
+	}
+}
+
 // meetingLocal adds sign times the criteria that depend on meeting m alone:
-// avoid times of its section's people and section rows, room over
-// capacity, wasted seats, early and late periods.
+// avoid times of its section's people and section rows, early and late
+// periods, and those of its room (roomLocal).
 func (x *State) meetingLocal(m int32, sign int64) {
 	mt := &x.mt[m]
 	in := &x.secs[mt.sec]
@@ -77,6 +96,13 @@ func (x *State) meetingLocal(m int32, sign int64) {
 	if p+int32(in.length)-1 == x.dayLast[p] {
 		x.cur.add(cLate, sign, sign)
 	}
+	x.roomLocal(m, sign)
+}
+
+// roomLocal adds sign times meeting m's room criteria: over capacity and
+// wasted seats.
+func (x *State) roomLocal(m int32, sign int64) {
+	mt := &x.mt[m]
 	if mt.r >= 0 {
 		size := x.t.Sections[mt.sec].Size
 		capa := x.roomCap[mt.r]

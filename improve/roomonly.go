@@ -1,0 +1,82 @@
+package improve
+
+// roomOnly reports whether every change of chs keeps its meeting's start
+// and names its room, and no room names a building, so that commitRooms
+// may apply the move: the people's busy periods, their days' criteria,
+// student clashes and every time rule stay as they are.
+func (x *State) roomOnly(chs []change) bool {
+	if x.anyBld {
+		return false
+	}
+	for _, ch := range chs {
+		if ch.r == roomAuto || ch.p != x.mt[ch.m].p {
+			return false
+		}
+	}
+	return true
+}
+
+// commitRooms is commit for a move that changes rooms only (roomOnly): it
+// lifts and puts back the meetings' rooms alone, not their people, and
+// recomputes the touched sections and relations (room stability) only.
+// A move that fails is undone the same way.
+func (x *State) commitRooms(chs []change, accept func(delta *tally) bool) bool {
+	x.markTouched(chs) // no person-days: no start changes
+	var before tally
+	x.touched(&before)
+	base := x.cur
+	x.log = x.log[:0]
+	for _, ch := range chs {
+		mt := &x.mt[ch.m]
+		x.log = append(x.log, undoRec{ch.m, mt.p, mt.r})
+		x.setRoom(ch.m, -1)
+	}
+	placed := 0
+	for _, ch := range chs {
+		if !x.mayTake(ch.m, ch.r) {
+			break
+		}
+		x.setRoom(ch.m, ch.r)
+		placed++
+	}
+	if placed < len(chs) || !x.hardOK() || !x.decide(&before, &base, accept) {
+		x.undoRooms(placed, base)
+		return false
+	}
+	return true
+}
+
+// setRoom moves meeting m, at its start, from its room to room r (-1:
+// none), with the room criteria and occupancy.
+func (x *State) setRoom(m, r int32) {
+	mt := &x.mt[m]
+	x.roomLocal(m, -1)
+	x.freeRoom(m, mt.p, mt.r)
+	mt.r = r
+	x.holdRoom(m, mt.p, r)
+	x.roomLocal(m, 1)
+}
+
+// mayTake reports whether meeting m, roomless at its start, may take
+// room r there: a room its section allows (none when it takes none), open
+// and held by no meeting whose weeks overlap its own.
+func (x *State) mayTake(m, r int32) bool {
+	in := &x.secs[x.mt[m].sec]
+	if in.noRoom != (r < 0) || (r >= 0 && !in.roomOK[r]) {
+		return false
+	}
+	return r < 0 || x.roomFree(r, x.mt[m].p, in)
+}
+
+// undoRooms takes the first placed meetings of the log out of their new
+// rooms, puts every logged meeting back in its old room and restores the
+// running cost to base.
+func (x *State) undoRooms(placed int, base tally) {
+	for _, u := range x.log[:placed] {
+		x.setRoom(u.m, -1)
+	}
+	for _, u := range x.log {
+		x.setRoom(u.m, u.r)
+	}
+	x.cur = base
+}
