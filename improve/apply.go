@@ -33,6 +33,12 @@ func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) b
 	if x.roomOnly(chs) {
 		return x.commitRooms(chs, accept)
 	}
+	return x.commitAll(chs, rng, accept)
+}
+
+// commitAll is commit for any move: it lifts the meetings with their
+// people and rooms and puts them back at their new places.
+func (x *State) commitAll(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
 	x.markTouched(chs)
 	var before tally
 	x.touched(&before)

@@ -20,7 +20,10 @@
 // new places with the clash, availability and room checks done at insertion,
 // then checking the rules that span several meetings (different days, staff
 // limits, hard relations) on the touched sections and staff days only. A
-// move that fails any rule is undone. Before anything is lifted, a move
+// move that fails any rule is undone. A move that keeps every start and
+// names every room, on a term whose rooms name no building, lifts and
+// puts back the rooms only (roomonly.go): its people, their days and every
+// time rule stay as they are. Before anything is lifted, a move
 // whose target start, room or person is held by a meeting outside the move
 // is refused without costing it (apply.go, blocked).
 //
