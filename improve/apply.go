@@ -39,15 +39,10 @@ func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) b
 // commitAll is commit for any move: it lifts the meetings with their
 // people and rooms and puts them back at their new places.
 func (x *State) commitAll(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
-	x.markTouched(chs)
-	var before tally
-	x.touched(&before)
-	base := x.cur
-	x.log = x.log[:0]
-	for _, ch := range chs {
-		mt := &x.mt[ch.m]
-		x.log = append(x.log, undoRec{ch.m, mt.p, mt.r})
-		x.remove(ch.m)
+	var before, base tally
+	x.begin(chs, &before, &base)
+	for _, u := range x.log {
+		x.remove(u.m)
 	}
 	placed := 0
 	for i, ch := range chs {
@@ -70,6 +65,20 @@ func (x *State) commitAll(chs []change, rng *rand.Rand, accept func(delta *tally
 		return false
 	}
 	return true
+}
+
+// begin starts move chs: it marks what the move touches, writes the
+// touched criteria to before and the running cost to base, and logs each
+// moving meeting's place for undo.
+func (x *State) begin(chs []change, before, base *tally) {
+	x.markTouched(chs)
+	x.touched(before)
+	*base = x.cur
+	x.log = x.log[:0]
+	for _, ch := range chs {
+		mt := &x.mt[ch.m]
+		x.log = append(x.log, undoRec{ch.m, mt.p, mt.r})
+	}
 }
 
 // decide adds to the running cost the touched criteria after the move

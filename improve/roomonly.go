@@ -21,15 +21,10 @@ func (x *State) roomOnly(chs []change) bool {
 // recomputes the touched sections and relations (room stability) only.
 // A move that fails is undone the same way.
 func (x *State) commitRooms(chs []change, accept func(delta *tally) bool) bool {
-	x.markTouched(chs) // no person-days: no start changes
-	var before tally
-	x.touched(&before)
-	base := x.cur
-	x.log = x.log[:0]
-	for _, ch := range chs {
-		mt := &x.mt[ch.m]
-		x.log = append(x.log, undoRec{ch.m, mt.p, mt.r})
-		x.setRoom(ch.m, -1)
+	var before, base tally
+	x.begin(chs, &before, &base) // no person-days: no start changes
+	for _, u := range x.log {
+		x.setRoom(u.m, -1)
 	}
 	placed := 0
 	for _, ch := range chs {
