@@ -62,11 +62,12 @@ func newBenchCmd(e *env) *cobra.Command {
 			"every hard constraint, its cost under the competition's definition, the lower\n" +
 			"bound proved (\"-\" when none), the time to the first feasible timetable and\n" +
 			"the time of the best. With --best, each cost is compared with the best known\n" +
-			"and the geometric mean of the ratios is printed. With --out, each timetable is\n" +
-			"written as SOLDIR/<instance>.sol in the competition's solution format\n" +
-			"(\"course room day period\" per meeting), never over an existing file unless\n" +
-			"--force is given. It exits with status 1 when a file cannot be read or a run\n" +
-			"fails, and 0 otherwise (instances left without a timetable show in the table).\n\n" +
+			"and the geometric means of cost/best and of (cost+1)/(best+1) are printed.\n" +
+			"With --out, each timetable is written as SOLDIR/<instance>.sol in the\n" +
+			"competition's solution format (\"course room day period\" per meeting), never\n" +
+			"over an existing file unless --force is given. It exits with status 1 when a\n" +
+			"file cannot be read or a run fails, and 0 otherwise (instances left without a\n" +
+			"timetable show in the table).\n\n" +
 			"Every .xml file in DIR (the ITC-2019 course timetabling format) runs the same\n" +
 			"way as a term of meeting patterns and room choices, its students sectioned into\n" +
 			"the classes of the courses they want; its table gives whether the solution is\n" +
@@ -119,8 +120,11 @@ type benchRow struct {
 	TotalMS   int64    `json:"total_ms"`
 	BestKnown *int     `json:"best_known,omitempty"`
 	Ratio     *float64 `json:"ratio,omitempty"` // cost / best known, when the best known is positive
-	Solution  string   `json:"solution,omitempty"`
-	Error     string   `json:"error,omitempty"`
+	// Shifted is (cost+1)/(best known+1) on the same rows as Ratio: a
+	// measure that an instance near zero cost does not dominate.
+	Shifted  *float64 `json:"shifted_ratio,omitempty"`
+	Solution string   `json:"solution,omitempty"`
+	Error    string   `json:"error,omitempty"`
 	// Pattern holds what only pattern instances have; Ratio is then
 	// (cost+1)/(reference+1).
 	Pattern *benchPatternRow `json:"patterns,omitempty"`
@@ -135,6 +139,9 @@ type benchReport struct {
 	// have one; null when none has.
 	GeoMeanRatio *float64 `json:"geomean_ratio"`
 	RatioCount   int      `json:"ratio_count"` // instances in the geometric mean
+	// ShiftedGeoMean is the geometric mean of Shifted over the same
+	// instances; omitted when none has one.
+	ShiftedGeoMean *float64 `json:"geomean_shifted_ratio,omitempty"`
 	// PatternGeoMean is the geometric mean of (cost+1)/(best known+1) over
 	// the pattern instances that have one (students included on both
 	// sides).
@@ -195,7 +202,8 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 			row.BestKnown = &b.Best
 			if row.Cost != nil && row.Feasible && b.Best > 0 {
 				r := float64(*row.Cost) / float64(b.Best)
-				row.Ratio = &r
+				sh := float64(*row.Cost+1) / float64(b.Best+1)
+				row.Ratio, row.Shifted = &r, &sh
 			}
 		}
 		failed = failed || row.Status == "error"
@@ -219,6 +227,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		}
 	}
 	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt)
+	rep.ShiftedGeoMean, _ = benchGeoMean(benchShiftedRatios(ctt))
 	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat)
 	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(benchNoStudentRatios(pat))
 	var js bytes.Buffer
@@ -238,7 +247,7 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		}
 	} else {
 		if len(ctt) > 0 {
-			benchWriteTable(e.stdout, benchReport{Instances: ctt, GeoMeanRatio: rep.GeoMeanRatio, RatioCount: rep.RatioCount}, o.best != "")
+			benchWriteTable(e.stdout, benchReport{Instances: ctt, GeoMeanRatio: rep.GeoMeanRatio, RatioCount: rep.RatioCount, ShiftedGeoMean: rep.ShiftedGeoMean}, o.best != "")
 		}
 		if len(pat) > 0 {
 			if len(ctt) > 0 {
@@ -398,6 +407,16 @@ func benchGeoMean(rows []benchRow) (*float64, int) {
 	return &g, n
 }
 
+// benchShiftedRatios is rows with Ratio replaced by Shifted, for
+// benchGeoMean.
+func benchShiftedRatios(rows []benchRow) []benchRow {
+	out := make([]benchRow, len(rows))
+	for i, r := range rows {
+		out[i] = benchRow{Ratio: r.Shifted}
+	}
+	return out
+}
+
 // benchWriteTable prints the results as an aligned table.
 func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
@@ -423,6 +442,9 @@ func benchWriteTable(w io.Writer, rep benchReport, withBest bool) {
 			fmt.Fprintln(w, "geometric mean of cost / best known: - (no instance with a feasible timetable and a positive best known)")
 		} else {
 			fmt.Fprintf(w, "geometric mean of cost / best known: %.2f over %d of %d instances\n", *rep.GeoMeanRatio, rep.RatioCount, len(rep.Instances))
+		}
+		if rep.ShiftedGeoMean != nil {
+			fmt.Fprintf(w, "geometric mean of (cost+1)/(best known+1): %.2f over the same instances\n", *rep.ShiftedGeoMean)
 		}
 	}
 }

@@ -87,7 +87,8 @@ func TestBenchTable(t *testing.T) {
 	want := "" +
 		"instance  courses/meetings/rooms/curricula  feasible  cost  lower bound  first feasible  best at  best known  ratio\n" +
 		"tiny      3/5/2/2                           yes       14    -            1.50s           1.50s    7           2.00\n" +
-		"geometric mean of cost / best known: 2.00 over 1 of 1 instances\n"
+		"geometric mean of cost / best known: 2.00 over 1 of 1 instances\n" +
+		"geometric mean of (cost+1)/(best known+1): 1.88 over the same instances\n" // (14+1)/(7+1)
 	assert.Equal(t, want, out)
 	assert.Contains(t, stderr, "bench: tiny: cost 14 after 1.50s")
 }
