@@ -56,11 +56,7 @@ func (x *State) commitAll(chs []change, rng *rand.Rand, accept func(delta *tally
 		x.insert(ch.m, ch.p, r)
 		placed++
 	}
-	if placed < len(chs) || !x.hardOK() {
-		x.undo(placed, base)
-		return false
-	}
-	if !x.decide(&before, &base, accept) {
+	if placed < len(chs) || !x.hardOK() || !x.decide(&before, &base, accept) {
 		x.undo(placed, base)
 		return false
 	}

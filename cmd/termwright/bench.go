@@ -227,9 +227,9 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 		}
 	}
 	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt)
-	rep.ShiftedGeoMean, _ = benchGeoMean(benchShiftedRatios(ctt))
+	rep.ShiftedGeoMean, _ = benchGeoMean(benchRatios(ctt, func(r benchRow) *float64 { return r.Shifted }))
 	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat)
-	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(benchNoStudentRatios(pat))
+	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(benchRatios(pat, func(r benchRow) *float64 { return r.Pattern.RatioNoStudents }))
 	var js bytes.Buffer
 	enc := json.NewEncoder(&js)
 	enc.SetIndent("", "  ")
@@ -407,12 +407,12 @@ func benchGeoMean(rows []benchRow) (*float64, int) {
 	return &g, n
 }
 
-// benchShiftedRatios is rows with Ratio replaced by Shifted, for
-// benchGeoMean.
-func benchShiftedRatios(rows []benchRow) []benchRow {
+// benchRatios gives rows whose Ratio is another ratio of each row (the
+// shifted one, the one without students), for benchGeoMean.
+func benchRatios(rows []benchRow, ratio func(benchRow) *float64) []benchRow {
 	out := make([]benchRow, len(rows))
 	for i, r := range rows {
-		out[i] = benchRow{Ratio: r.Shifted}
+		out[i] = benchRow{Ratio: ratio(r)}
 	}
 	return out
 }

@@ -163,16 +163,6 @@ func benchXMLRatio(row *benchRow, b benchfmt.XMLBest, w benchfmt.XMLWeights) {
 	}
 }
 
-// benchNoStudentRatios gives rows whose Ratio is the ratio without the
-// student part, for benchGeoMean.
-func benchNoStudentRatios(rows []benchRow) []benchRow {
-	out := make([]benchRow, len(rows))
-	for i, r := range rows {
-		out[i] = benchRow{Ratio: r.Pattern.RatioNoStudents}
-	}
-	return out
-}
-
 // benchXMLValid is the valid column: benchValid's word, with the number of
 // broken student rules when there are any.
 func benchXMLValid(r benchRow) string {
