@@ -45,14 +45,16 @@ const (
 
 // defaultShare is the share of the time left of a local-search run with
 // workers workers: DefaultLocalShare for one; with more, a cooling plan
-// costs more moves in its time, so a run takes DefaultLocalShare divided
-// by the square root of workers (0.49 for two) and the time saved goes to
-// the runs after it. Measured on the 2,000-section term (BENCHMARKS §1j):
-// with two workers a share of 0.7 ended worse than one worker (one run),
-// 0.35 at like costs sooner, 0.49 at lower costs (median of three runs)
-// sooner.
+// costs more moves in its time (two workers 1.6-1.8 times as many), so a
+// run takes DefaultLocalShare divided by workers to the power 0.75 (0.42
+// for two, 2^0.75 = 1.68): about the moves of the one-worker run, so a
+// like cost comes sooner, and the time saved goes to the runs after it.
+// Measured on the 2,000-section term (BENCHMARKS §1j, §1m): with two
+// workers a share of 0.7 ended worse than one worker (one run), 0.35 at
+// like costs sooner, 0.49 at lower costs 1.28 times sooner, 0.42 1.42
+// times sooner (medians of three seeds).
 func defaultShare(workers int) float64 {
-	return DefaultLocalShare / math.Sqrt(float64(max(workers, 1)))
+	return DefaultLocalShare / math.Pow(float64(max(workers, 1)), 0.75)
 }
 
 // longRunCycles is improve.Options.CycleShare of every local-search run
