@@ -226,10 +226,11 @@ func runBench(ctx context.Context, e *env, o *benchOptions, dir string) error {
 			ctt = append(ctt, r)
 		}
 	}
-	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt)
-	rep.ShiftedGeoMean, _ = benchGeoMean(benchRatios(ctt, func(r benchRow) *float64 { return r.Shifted }))
-	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat)
-	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(benchRatios(pat, func(r benchRow) *float64 { return r.Pattern.RatioNoStudents }))
+	ratio := func(r benchRow) *float64 { return r.Ratio }
+	rep.GeoMeanRatio, rep.RatioCount = benchGeoMean(ctt, ratio)
+	rep.ShiftedGeoMean, _ = benchGeoMean(ctt, func(r benchRow) *float64 { return r.Shifted })
+	rep.PatternGeoMean, rep.PatternRatioCount = benchGeoMean(pat, ratio)
+	rep.PatternGeoMeanNoStudents, rep.PatternRatioCountNoStudents = benchGeoMean(pat, func(r benchRow) *float64 { return r.Pattern.RatioNoStudents })
 	var js bytes.Buffer
 	enc := json.NewEncoder(&js)
 	enc.SetIndent("", "  ")
@@ -382,20 +383,21 @@ func benchWriteSolution(path string, term *timetable.Term, s *timetable.Schedule
 	return writeBytesAtomic(path, buf.Bytes())
 }
 
-// benchGeoMean is the geometric mean of the rows' ratios and how many
-// rows have one.
-func benchGeoMean(rows []benchRow) (*float64, int) {
+// benchGeoMean is the geometric mean of one ratio of the rows (ratio
+// gives it, nil for none) and how many rows have one.
+func benchGeoMean(rows []benchRow, ratio func(benchRow) *float64) (*float64, int) {
 	sum, n, zero := 0.0, 0, false
 	for _, r := range rows {
-		if r.Ratio == nil {
+		v := ratio(r)
+		if v == nil {
 			continue
 		}
 		n++
-		if *r.Ratio == 0 {
+		if *v == 0 {
 			zero = true // a zero cost against a positive best makes the mean 0
 			continue
 		}
-		sum += math.Log(*r.Ratio)
+		sum += math.Log(*v)
 	}
 	if n == 0 {
 		return nil, 0
@@ -405,16 +407,6 @@ func benchGeoMean(rows []benchRow) (*float64, int) {
 		g = math.Exp(sum / float64(n))
 	}
 	return &g, n
-}
-
-// benchRatios gives rows whose Ratio is another ratio of each row (the
-// shifted one, the one without students), for benchGeoMean.
-func benchRatios(rows []benchRow, ratio func(benchRow) *float64) []benchRow {
-	out := make([]benchRow, len(rows))
-	for i, r := range rows {
-		out[i] = benchRow{Ratio: ratio(r)}
-	}
-	return out
 }
 
 // benchWriteTable prints the results as an aligned table.
