@@ -31,6 +31,9 @@ func (x *State) apply(chs []change, rng *rand.Rand, accept func(delta *tally) bo
 // commit is apply after the blocked check, on a fresh stamp.
 func (x *State) commit(chs []change, rng *rand.Rand, accept func(delta *tally) bool) bool {
 	if x.roomOnly(chs) {
+		if kept, handled := x.peekRooms(chs, accept); handled {
+			return kept
+		}
 		return x.commitRooms(chs, accept)
 	}
 	return x.commitAll(chs, rng, accept)

@@ -23,7 +23,11 @@
 // move that fails any rule is undone. A move that keeps every start and
 // names every room, on a term whose rooms name no building, lifts and
 // puts back the rooms only (roomonly.go): its people, their days and every
-// time rule stay as they are. Before anything is lifted, a move
+// time rule stay as they are. When no moving section has a relation, such a
+// move is decided before anything changes (roompeek.go): its new rooms are
+// checked against the meetings that stay and costed with the new rooms
+// written in, so a refused room move changes nothing at all. Before
+// anything is lifted, a move
 // whose target start, room or person is held by a meeting outside the move
 // is refused without costing it (apply.go, blocked).
 //

@@ -16,13 +16,26 @@ import (
 // annealing rule. Both must agree on legality, on the cost difference
 // handed to the rule and on the timetable and running cost after it; at
 // the end the running cost must equal timetable.Cost. Rooms lose their
-// buildings, since travel makes a move take the general path.
+// buildings, since travel makes a move take the general path. Each term
+// runs with its relations (commitRooms decides the moves of related
+// sections) and without them (peekRooms decides every move).
 func TestRoomOnlyMatchesFullCommit(t *testing.T) {
-	for _, cfg := range []samples.Config{samples.DemoConfig, {Sections: 40, Seed: 11}, {Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4, Weeks: 2}} {
-		t.Run(fmt.Sprint(cfg), func(t *testing.T) {
-			term, wit := samples.GenerateWithWitness(cfg)
+	for _, tc := range []struct {
+		cfg       samples.Config
+		relations bool
+	}{
+		{samples.DemoConfig, true}, {samples.DemoConfig, false},
+		{samples.Config{Sections: 40, Seed: 11}, true}, {samples.Config{Sections: 40, Seed: 11}, false},
+		{samples.Config{Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4, Weeks: 2}, true},
+		{samples.Config{Sections: 25, Seed: 7, Days: 3, PeriodsPerDay: 4, Weeks: 2}, false},
+	} {
+		t.Run(fmt.Sprint(tc.cfg, tc.relations), func(t *testing.T) {
+			term, wit := samples.GenerateWithWitness(tc.cfg)
 			for i := range term.Rooms {
 				term.Rooms[i].Building = ""
+			}
+			if !tc.relations {
+				term.Relations = nil
 			}
 			a, err := New(term, wit, nil)
 			require.NoError(t, err)

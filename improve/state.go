@@ -156,6 +156,7 @@ type State struct {
 	chainSeen []uint32
 	markMt    []uint32 // meeting -> stamp when it is part of the move apply checks
 	chs       []change // the move being proposed
+	peekOld   []int32  // peekRooms's saved rooms (a field, so that it is not allocated per move)
 	delta     tally    // the cost difference commit hands to accept (a field, so that it never escapes to the heap)
 	movable   []int32  // meetings whose time may change (not fixed, more than one start)
 	roomy     []int32  // meetings whose room may change (takes rooms, not fixed, more than one room)
