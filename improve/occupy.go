@@ -120,12 +120,22 @@ func (x *State) roomLocal(m int32, sign int64) {
 // unavailability), allowed room, no overlap with its own section, and no
 // staff, cohort or room clash with a section whose weeks overlap.
 func (x *State) canPlace(m, p, r int32) bool {
+	if !x.canStart(m, p) {
+		return false
+	}
+	in := &x.secs[x.mt[m].sec]
+	if in.noRoom != (r < 0) {
+		return false
+	}
+	return r < 0 || x.roomFits(r, p, in)
+}
+
+// canStart is canPlace without the room: an allowed start, no overlap
+// with its own section and no staff or cohort clash, weeks overlapping.
+func (x *State) canStart(m, p int32) bool {
 	si := x.mt[m].sec
 	in := &x.secs[si]
 	if p < 0 || int(p) >= x.np || !in.startOK[p] {
-		return false
-	}
-	if in.noRoom != (r < 0) || (r >= 0 && !in.roomOK[r]) {
 		return false
 	}
 	np := int32(x.np)
@@ -140,11 +150,15 @@ func (x *State) canPlace(m, p, r int32) bool {
 				}
 			}
 		}
-		if r >= 0 && x.roomHeld(r, q, in) {
-			return false
-		}
 	}
 	return true
+}
+
+// roomFits reports whether room r is one section in may use and is open
+// and free of meetings whose weeks overlap in's over the periods of a
+// meeting starting at p.
+func (x *State) roomFits(r, p int32, in *secInfo) bool {
+	return in.roomOK[r] && x.roomFree(r, p, in)
 }
 
 // roomHeld reports whether room r is closed at period q or held there by
