@@ -9,7 +9,18 @@ import (
 // secContrib adds the criteria of section si: moved meetings, spread days
 // and room stability. O(meetings²) (moved meetings and rooms).
 func (x *State) secContrib(si int32, out *tally) {
-	sec := &x.t.Sections[si]
+	x.secRoomContrib(si, out)
+	if sec := &x.t.Sections[si]; sec.SameDay && sec.MinDays > 0 {
+		if short := int64(sec.MinDays) - x.secDays(x.bySec[si]); short > 0 {
+			out.add(cSpread, short, short)
+		}
+	}
+}
+
+// secRoomContrib adds the criteria of section si that a change of rooms
+// alone can change: moved meetings (a kept meeting matches on start and
+// room) and room stability.
+func (x *State) secRoomContrib(si int32, out *tally) {
 	in := &x.secs[si]
 	ms := x.bySec[si]
 	if len(in.kept) > 0 {
@@ -29,11 +40,6 @@ func (x *State) secContrib(si int32, out *tally) {
 			}
 		}
 		out.add(cMoved, n, n)
-	}
-	if sec.SameDay && sec.MinDays > 0 {
-		if short := int64(sec.MinDays) - x.secDays(ms); short > 0 {
-			out.add(cSpread, short, short)
-		}
 	}
 	if !in.noRoom {
 		rooms := int64(0)

@@ -2,14 +2,15 @@ package improve
 
 // peekRooms decides a room-only move (roomOnly) of sections without
 // relations before anything is changed: it checks each new room against
-// the meetings that stay (marked by blocked) and against the move's other
-// new rooms, costs the move from the moving meetings' room criteria and
-// their sections' criteria with the new rooms written in, and changes the
-// rooms only when accept keeps it. Most moves are refused, and a refused
-// move so costs no lifting and no putting back. handled is false when a
-// moving section has relations (a relation may read rooms and is checked
-// on the changed state); commitRooms decides the move then. The running
-// cost and the difference handed to accept are commitRooms's exactly.
+// the meetings that stay and against the move's other new rooms, costs
+// the move from the moving meetings' room criteria and their sections'
+// room criteria (secRoomContrib) with the new rooms written in, and
+// changes the rooms only when accept keeps it. Most moves are refused,
+// and a refused move so costs no lifting and no putting back. handled is
+// false when a moving section has relations (a relation may read rooms
+// and is checked on the changed state); commitRooms decides the move
+// then. The running cost and the difference handed to accept are
+// commitRooms's exactly.
 func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, handled bool) {
 	for _, ch := range chs {
 		if len(x.secs[x.mt[ch.m].sec].rels) > 0 {
@@ -27,7 +28,7 @@ func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, h
 	x.markTouched(chs) // sections only: no start changes
 	var before, after tally
 	for _, si := range x.touchSec {
-		x.secContrib(si, &before)
+		x.secRoomContrib(si, &before)
 	}
 	for _, ch := range chs {
 		x.roomCrit(ch.m, x.mt[ch.m].r, &before)
@@ -39,7 +40,7 @@ func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, h
 		x.mt[ch.m].r = ch.r
 	}
 	for _, si := range x.touchSec {
-		x.secContrib(si, &after)
+		x.secRoomContrib(si, &after)
 	}
 	for i, ch := range chs {
 		x.mt[ch.m].r = old[i]
