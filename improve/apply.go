@@ -205,13 +205,10 @@ func (x *State) undo(placed int, base tally) {
 // touched adds the section, person-day and relation criteria of what the
 // current move touches.
 func (x *State) touched(out *tally) {
-	np := int32(x.np)
 	for _, si := range x.touchSec {
 		x.secContrib(si, out)
 	}
-	for _, k := range x.touchPD {
-		x.pdContrib(k/np, k%np, out)
-	}
+	x.pdsContrib(out)
 	for _, ri := range x.touchRel {
 		x.relContrib(ri, out)
 	}

@@ -21,9 +21,10 @@
 // then checking the rules that span several meetings (different days, staff
 // limits, hard relations) on the touched sections and staff days only. A
 // move that fails any rule is undone. A move that keeps every start and
-// names every room, on a term whose rooms name no building, lifts and
-// puts back the rooms only (roomonly.go): its people, their days and every
-// time rule stay as they are. When no moving section has a relation, such a
+// names every room lifts and puts back the rooms only (roomonly.go): its
+// people's busy periods and every time rule stay as they are, and their
+// days are recosted only when rooms name buildings (travel). When no
+// moving section has a relation, such a
 // move is decided before anything changes (roompeek.go): its new rooms are
 // checked against the meetings that stay and costed with the new rooms
 // written in, so a refused room move changes nothing at all. Before

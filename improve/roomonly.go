@@ -1,13 +1,11 @@
 package improve
 
 // roomOnly reports whether every change of chs keeps its meeting's start
-// and names its room, and no room names a building, so that commitRooms
-// may apply the move: the people's busy periods, their days' criteria,
-// student clashes and every time rule stay as they are.
+// and names its room, so that commitRooms may apply the move: the people's
+// busy periods, student clashes and every time rule stay as they are.
+// Their days' criteria are recomputed only when some room names a
+// building (travel reads rooms; markTouched touches those days then).
 func (x *State) roomOnly(chs []change) bool {
-	if x.anyBld {
-		return false
-	}
 	for _, ch := range chs {
 		if ch.r == roomAuto || ch.p != x.mt[ch.m].p {
 			return false
@@ -18,7 +16,8 @@ func (x *State) roomOnly(chs []change) bool {
 
 // commitRooms is commit for a move that changes rooms only (roomOnly): it
 // lifts and puts back the meetings' rooms alone, not their people, and
-// recomputes the touched sections and relations (room stability) only.
+// recomputes the touched sections and relations (room stability), and
+// with buildings the touched person-days (travel), only.
 // A move that fails is undone the same way.
 func (x *State) commitRooms(chs []change, accept func(delta *tally) bool) bool {
 	var before, base tally

@@ -3,8 +3,9 @@ package improve
 // peekRooms decides a room-only move (roomOnly) of sections without
 // relations before anything is changed: it checks each new room against
 // the meetings that stay and against the move's other new rooms, costs
-// the move from the moving meetings' room criteria and their sections'
-// room criteria (secRoomContrib) with the new rooms written in, and
+// the move from the moving meetings' room criteria, their sections' room
+// criteria (secRoomContrib) and, with buildings, their people's days
+// (travel) with the new rooms written in, and
 // changes the rooms only when accept keeps it. Most moves are refused,
 // and a refused move so costs no lifting and no putting back. handled is
 // false when a moving section has relations (a relation may read rooms
@@ -25,11 +26,12 @@ func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, h
 			return false, true
 		}
 	}
-	x.markTouched(chs) // sections only: no start changes
+	x.markTouched(chs) // sections, and person-days only with buildings: no start changes
 	var before, after tally
 	for _, si := range x.touchSec {
 		x.secRoomContrib(si, &before)
 	}
+	x.pdsContrib(&before)
 	for _, ch := range chs {
 		x.roomCrit(ch.m, x.mt[ch.m].r, &before)
 		x.roomCrit(ch.m, ch.r, &after)
@@ -42,13 +44,17 @@ func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, h
 	for _, si := range x.touchSec {
 		x.secRoomContrib(si, &after)
 	}
+	x.pdsContrib(&after)
+	x.delta = after
+	x.delta.minus(&before)
+	// accept runs with the new rooms written in: a worker's post reads the
+	// places of the meetings it sends to the other replicas.
+	keep := accept == nil || accept(&x.delta)
 	for i, ch := range chs {
 		x.mt[ch.m].r = old[i]
 	}
 	x.peekOld = old
-	x.delta = after
-	x.delta.minus(&before)
-	if accept != nil && !accept(&x.delta) {
+	if !keep {
 		return false, true
 	}
 	base := x.cur
@@ -114,5 +120,14 @@ func (x *State) roomCrit(m, r int32, out *tally) {
 	np := int32(x.np)
 	for q := mt.p; q < mt.p+int32(x.secs[mt.sec].length); q++ {
 		out.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
+	}
+}
+
+// pdsContrib adds the criteria of the person-days the current move
+// touches.
+func (x *State) pdsContrib(out *tally) {
+	np := int32(x.np)
+	for _, k := range x.touchPD {
+		x.pdContrib(k/np, k%np, out)
 	}
 }
