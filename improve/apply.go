@@ -214,6 +214,15 @@ func (x *State) touched(out *tally) {
 	}
 }
 
+// pdsContrib adds the criteria of the person-days the current move
+// touches.
+func (x *State) pdsContrib(out *tally) {
+	np := int32(x.np)
+	for _, k := range x.touchPD {
+		x.pdContrib(k/np, k%np, out)
+	}
+}
+
 // hardOK checks the rules over several meetings on what the move touched:
 // different days, staff limits and hard relations.
 func (x *State) hardOK() bool {

@@ -24,13 +24,12 @@
 // names every room lifts and puts back the rooms only (roomonly.go): its
 // people's busy periods and every time rule stay as they are, and their
 // days are recosted only when rooms name buildings (travel). When no
-// moving section has a relation, such a
-// move is decided before anything changes (roompeek.go): its new rooms are
-// checked against the meetings that stay and costed with the new rooms
-// written in, so a refused room move changes nothing at all. Before
-// anything is lifted, a move
-// whose target start, room or person is held by a meeting outside the move
-// is refused without costing it (apply.go, blocked).
+// moving section has a relation, such a move is decided before anything
+// changes (roompeek.go): its new rooms are checked against the meetings
+// that stay and costed with the new rooms written in, so a refused room
+// move changes nothing at all. Before anything is lifted, a move whose
+// target start, room or person is held by a meeting outside the move is
+// refused without costing it (apply.go, blocked).
 //
 // Deltas. Per-meeting criteria (avoid times, over capacity, wasted seats,
 // early and late periods) and student clashes change by exact deltas at

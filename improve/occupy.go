@@ -102,16 +102,22 @@ func (x *State) meetingLocal(m int32, sign int64) {
 // roomLocal adds sign times meeting m's room criteria: over capacity and
 // wasted seats.
 func (x *State) roomLocal(m int32, sign int64) {
-	mt := &x.mt[m]
-	if mt.r >= 0 {
-		size := x.t.Sections[mt.sec].Size
-		capa := x.roomCap[mt.r]
-		if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
-			x.cur.add(cOverCap, sign*over, sign*over)
-		}
-		if waste := int64(capa - size); waste > 0 {
-			x.cur.add(cWasted, sign*waste, sign*waste)
-		}
+	x.roomSeats(m, x.mt[m].r, sign, &x.cur)
+}
+
+// roomSeats adds to out sign times the over-capacity and wasted-seat
+// units of meeting m in room r (nothing for -1).
+func (x *State) roomSeats(m, r int32, sign int64, out *tally) {
+	if r < 0 {
+		return
+	}
+	size := x.t.Sections[x.mt[m].sec].Size
+	capa := x.roomCap[r]
+	if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
+		out.add(cOverCap, sign*over, sign*over)
+	}
+	if waste := int64(capa - size); waste > 0 {
+		out.add(cWasted, sign*waste, sign*waste)
 	}
 }
 

@@ -21,7 +21,7 @@ func (x *State) roomOnly(chs []change) bool {
 // A move that fails is undone the same way.
 func (x *State) commitRooms(chs []change, accept func(delta *tally) bool) bool {
 	var before, base tally
-	x.begin(chs, &before, &base) // no person-days: no start changes
+	x.begin(chs, &before, &base) // person-days only with buildings: no start changes
 	for _, u := range x.log {
 		x.setRoom(u.m, -1)
 	}

@@ -5,13 +5,12 @@ package improve
 // the meetings that stay and against the move's other new rooms, costs
 // the move from the moving meetings' room criteria, their sections' room
 // criteria (secRoomContrib) and, with buildings, their people's days
-// (travel) with the new rooms written in, and
-// changes the rooms only when accept keeps it. Most moves are refused,
-// and a refused move so costs no lifting and no putting back. handled is
-// false when a moving section has relations (a relation may read rooms
-// and is checked on the changed state); commitRooms decides the move
-// then. The running cost and the difference handed to accept are
-// commitRooms's exactly.
+// (travel) with the new rooms written in, and changes the rooms only when
+// accept keeps it. Most moves are refused, and a refused move so costs no
+// lifting and no putting back. handled is false when a moving section has
+// relations (a relation may read rooms and is checked on the changed
+// state); commitRooms decides the move then. The running cost and the
+// difference handed to accept are commitRooms's exactly.
 func (x *State) peekRooms(chs []change, accept func(delta *tally) bool) (kept, handled bool) {
 	for _, ch := range chs {
 		if len(x.secs[x.mt[ch.m].sec].rels) > 0 {
@@ -102,32 +101,16 @@ func (x *State) roomStaysFree(chs []change, i int) bool {
 }
 
 // roomCrit adds the criteria of meeting m, at its start, that room r (-1:
-// none) decides: over capacity, wasted seats and the room's avoid times,
-// as roomLocal and holdRoom count them.
+// none) decides: over capacity and wasted seats (roomSeats) and the room's
+// avoid times, as holdRoom counts them.
 func (x *State) roomCrit(m, r int32, out *tally) {
 	if r < 0 {
 		return
 	}
+	x.roomSeats(m, r, 1, out)
 	mt := &x.mt[m]
-	size := x.t.Sections[mt.sec].Size
-	capa := x.roomCap[r]
-	if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
-		out.add(cOverCap, over, over)
-	}
-	if waste := int64(capa - size); waste > 0 {
-		out.add(cWasted, waste, waste)
-	}
 	np := int32(x.np)
 	for q := mt.p; q < mt.p+int32(x.secs[mt.sec].length); q++ {
 		out.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
-	}
-}
-
-// pdsContrib adds the criteria of the person-days the current move
-// touches.
-func (x *State) pdsContrib(out *tally) {
-	np := int32(x.np)
-	for _, k := range x.touchPD {
-		x.pdContrib(k/np, k%np, out)
 	}
 }
