@@ -245,39 +245,6 @@ func (x *State) hardOK() bool {
 	return true
 }
 
-// pickRoom chooses a room for unplaced meeting m at p: old when it fits,
-// else the first allowed room that fits from a random offset; roomAuto
-// when none does. A fixed room is never changed. checked reports that m
-// may start at p in the room returned (canPlace holds); the start's own
-// checks (section, people) are made once, not for every room tried.
-func (x *State) pickRoom(m, p, old int32, rng *rand.Rand) (r int32, checked bool) {
-	in := &x.secs[x.mt[m].sec]
-	if in.noRoom {
-		return -1, false
-	}
-	if old >= 0 && x.mt[m].fixedR {
-		return old, false
-	}
-	ok := x.canStart(m, p)
-	if old >= 0 && ok && x.roomFits(old, p, in) {
-		return old, true
-	}
-	n := len(in.rooms)
-	if n == 0 {
-		return roomAuto, false
-	}
-	off := rng.IntN(n) // drawn even when nothing fits, so that the draws do not depend on it
-	if !ok {
-		return roomAuto, false
-	}
-	for i := range n {
-		if r := in.rooms[(off+i)%n]; x.roomFits(r, p, in) {
-			return r, true
-		}
-	}
-	return roomAuto, false
-}
-
 // nextStamp starts a new generation of the mark slices (clearing them all
 // when the counter wraps).
 func (x *State) nextStamp() {

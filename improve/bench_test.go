@@ -63,8 +63,10 @@ func TestMovesAllocateNothing(t *testing.T) {
 	a := newAnnealer(x, Options{Seed: 1})
 	a.temp = 2
 	// Through try, the path Run takes: its accept closure once made the
-	// cost difference escape to the heap on every legal move.
-	for range 200000 {
+	// cost difference escape to the heap on every legal move. The warm-up
+	// is long enough for every occupancy list to reach the longest it gets
+	// (a list grows only past its longest so far).
+	for range 1_000_000 {
 		a.try()
 	}
 	// One run of many moves: testing.AllocsPerRun rounds the mean down,

@@ -157,6 +157,8 @@ type State struct {
 	markMt    []uint32 // meeting -> stamp when it is part of the move apply checks
 	chs       []change // the move being proposed
 	peekOld   []int32  // peekRooms's saved rooms (a field, so that it is not allocated per move)
+	scoreTry  []int64  // pickRoom's per-level score of the room tried
+	scoreBest []int64  // and of the best room so far
 	delta     tally    // the cost difference commit hands to accept (a field, so that it never escapes to the heap)
 	movable   []int32  // meetings whose time may change (not fixed, more than one start)
 	roomy     []int32  // meetings whose room may change (takes rooms, not fixed, more than one room)
@@ -259,6 +261,7 @@ func (x *State) criteria() {
 			x.level[c] = slices.Index(x.levels, l)
 		}
 	}
+	x.scoreTry, x.scoreBest = make([]int64, len(x.levels)), make([]int64, len(x.levels))
 }
 
 // res numbers: staff k is k, cohort k is nStaff+k, room r is nStaff+nCohort+r.
