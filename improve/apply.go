@@ -6,9 +6,9 @@ import (
 	"github.com/termwright/termwright/timetable"
 )
 
-// roomAuto asks apply to choose a room: the meeting's old room when it is
-// free and allowed, otherwise the first free allowed room from a random
-// offset in the section's room list.
+// roomAuto asks apply to choose a room (pickRoom): the meeting's old room
+// when it is free and allowed, otherwise the best free allowed room of up
+// to maxRoomCandidates from a random offset in the section's room list.
 const roomAuto = -3
 
 // change asks for meeting m to start at p in room r (a room index, -1 for

@@ -53,7 +53,9 @@
 // that cost goes (beside the cohort's other meetings, to a free day, into
 // a room the section already uses, at its time or at a time that room is
 // free); the isolated periods and short sections it aims at are found by
-// scanning cohort-days and sections from a random one. A shift move
+// scanning cohort-days and sections from a random one. A meeting whose
+// start changes keeps its room where that is free, else takes the best
+// free room of up to 16 by its own room criteria (roompick.go). A shift move
 // (shift.go) brings the cohort's other meetings to an isolated period
 // instead: the nearest run of the cohort's consecutive meetings that day
 // shifted as a block to end beside it, or one other meeting of the cohort

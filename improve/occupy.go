@@ -111,14 +111,24 @@ func (x *State) roomSeats(m, r int32, sign int64, out *tally) {
 	if r < 0 {
 		return
 	}
-	size := x.t.Sections[x.mt[m].sec].Size
-	capa := x.roomCap[r]
-	if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
+	over, waste := x.seatUnits(m, r)
+	if over > 0 {
 		out.add(cOverCap, sign*over, sign*over)
 	}
-	if waste := int64(capa - size); waste > 0 {
+	if waste > 0 {
 		out.add(cWasted, sign*waste, sign*waste)
 	}
+}
+
+// seatUnits is the over-capacity (counted only when capacity is soft) and
+// wasted-seat units of meeting m in room r (r >= 0).
+func (x *State) seatUnits(m, r int32) (over, waste int64) {
+	size := int64(x.t.Sections[x.mt[m].sec].Size)
+	capa := int64(x.roomCap[r])
+	if x.t.SoftCapacity && size > capa {
+		over = size - capa
+	}
+	return over, max(capa-size, 0)
 }
 
 // canPlace reports whether unplaced meeting m may start at p in room r

@@ -68,14 +68,9 @@ func (x *State) roomScore(m, p, r int32, out []int64) {
 	}
 	si := x.mt[m].sec
 	in := &x.secs[si]
-	size := x.t.Sections[si].Size
-	capa := x.roomCap[r]
-	if over := int64(size - capa); x.t.SoftCapacity && over > 0 {
-		add(cOverCap, over)
-	}
-	if waste := int64(capa - size); waste > 0 {
-		add(cWasted, waste)
-	}
+	over, waste := x.seatUnits(m, r)
+	add(cOverCap, over)
+	add(cWasted, waste)
 	np := int32(x.np)
 	for q := p; q < p+int32(in.length); q++ {
 		add(cAvoid, x.roomAvW[r*np+q])
