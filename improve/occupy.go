@@ -69,6 +69,18 @@ func (x *State) holdRoom(m, p, r int32) {
 	}
 }
 
+// roomAvoid sums room r's avoid-times units and row-weighted units over
+// the periods of a meeting of the given length starting at p, as holdRoom
+// adds them.
+func (x *State) roomAvoid(r, p int32, length int) (units, weighted int64) {
+	np := int32(x.np)
+	for q := p; q < p+int32(length); q++ {
+		units += x.roomAvU[r*np+q]
+		weighted += x.roomAvW[r*np+q]
+	}
+	return units, weighted
+}
+
 // freeRoom takes out what holdRoom added.
 func (x *State) freeRoom(m, p, r int32) {
 	if r < 0 {

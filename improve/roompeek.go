@@ -109,8 +109,6 @@ func (x *State) roomCrit(m, r int32, out *tally) {
 	}
 	x.roomSeats(m, r, 1, out)
 	mt := &x.mt[m]
-	np := int32(x.np)
-	for q := mt.p; q < mt.p+int32(x.secs[mt.sec].length); q++ {
-		out.add(cAvoid, x.roomAvU[r*np+q], x.roomAvW[r*np+q])
-	}
+	u, w := x.roomAvoid(r, mt.p, x.secs[mt.sec].length)
+	out.add(cAvoid, u, w)
 }

@@ -56,9 +56,10 @@ func (x *State) pickRoom(m, p, old int32, rng *rand.Rand) (r int32, checked bool
 // roomScore writes to out, per level (highest first), the weighted cost
 // that room r brings meeting m starting at p on its own: over capacity
 // and wasted seats, the room's avoid times, a new room for its section
-// (stability: other meetings of the section are placed in rooms, none in r) and a kept
-// placement matched (moved meetings). It is a guide for pickRoom; the
-// move's exact cost is counted afterwards as for every move.
+// (stability: other meetings of the section are in rooms, none in r) and
+// a kept placement matched (moved meetings). It is a guide for pickRoom
+// (m's section takes rooms); the move's exact cost is counted afterwards
+// as for every move.
 func (x *State) roomScore(m, p, r int32, out []int64) {
 	clear(out)
 	add := func(c int, units int64) {
@@ -71,24 +72,20 @@ func (x *State) roomScore(m, p, r int32, out []int64) {
 	over, waste := x.seatUnits(m, r)
 	add(cOverCap, over)
 	add(cWasted, waste)
-	np := int32(x.np)
-	for q := p; q < p+int32(in.length); q++ {
-		add(cAvoid, x.roomAvW[r*np+q])
-	}
-	if !in.noRoom {
-		used, others := false, false
-		for _, o := range x.bySec[si] {
-			if or := x.mt[o].r; o != m && or >= 0 {
-				others = true
-				if or == r {
-					used = true
-					break
-				}
+	_, avoid := x.roomAvoid(r, p, in.length)
+	add(cAvoid, avoid)
+	used, others := false, false
+	for _, o := range x.bySec[si] {
+		if or := x.mt[o].r; o != m && or >= 0 {
+			others = true
+			if or == r {
+				used = true
+				break
 			}
 		}
-		if others && !used {
-			add(cStability, 1)
-		}
+	}
+	if others && !used {
+		add(cStability, 1)
 	}
 	for _, k := range in.kept {
 		if k.p == p && k.r == r {

@@ -10,9 +10,10 @@ import (
 )
 
 // pickTerm is one day of three hourly periods, rooms R20, R35, R40 and
-// R100 (their capacities), section A of 30 seats with two meetings (on one day allowed; the
-// first at period 0 in R100, the second at period 2 in R40) and section X
-// of 10 seats holding R40 at period 1. Only the criteria in weights count.
+// R100 (their capacities), section A of 30 seats with two meetings that
+// may share a day (the first at period 0 in R100, the second at period 2
+// in R40) and section X of 10 seats holding R40 at period 1. Only the
+// criteria in weights count.
 func pickTerm(weights map[string]timetable.Weight, soft bool) (*timetable.Term, *timetable.Schedule) {
 	t := &timetable.Term{Name: "pick", Weights: map[string]timetable.Weight{}, SoftCapacity: soft}
 	for h := range 3 {
